@@ -1,0 +1,106 @@
+/**
+ * The plot table: the one typed value that import produces and every analysis
+ * reads. Canonical units inside: nutrient rate in kg/ha and yield in kg/ha at
+ * the crop's standard moisture. Conversion to display units happens at the
+ * edges (shared/units). Nothing the user gave is lost: every value keeps the
+ * text of the cell it came from, and an exclusion is a flag with a reason.
+ */
+
+/** Where a value came from, for messages and for "click to the row". */
+export interface CellRef {
+  /** File name as the user chose it (no directories). */
+  file: string;
+  /** Sheet name; "" for a CSV/TSV file. */
+  sheet: string;
+  /** A1-style address, e.g. "C7". */
+  cell: string;
+  /** 1-based row number in the sheet. */
+  row: number;
+}
+
+/** The column roles import can assign. */
+export type ColumnRole =
+  | 'site'
+  | 'year'
+  | 'block'
+  | 'plot'
+  | 'treatment'
+  | 'rate'
+  | 'yield'
+  | 'plotWeight'
+  | 'plotArea'
+  | 'plotLength'
+  | 'plotWidth'
+  | 'moisture'
+  | 'testWeight'
+  | 'notes'
+  | 'exclude'
+  | 'group';
+
+/** The original cell behind one value: its text as shown in the sheet and its address. */
+export interface OriginalCell {
+  text: string;
+  ref: CellRef;
+}
+
+export interface Exclusion {
+  /** Why the plot is left out, in the user's words or the check's. */
+  reason: string;
+  /** Who decided: the sheet's own exclude column, the user, or a quality check the user accepted. */
+  by: 'sheet' | 'user' | 'quality-check';
+}
+
+export interface Plot {
+  /** Unique within the table, stable across re-imports of the same file: "file|sheet|row". */
+  id: string;
+  site: string;
+  year: number | null;
+  /** Block (replicate) label; null when the sheet has no block column. */
+  block: string | null;
+  plotLabel: string | null;
+  treatment: string | null;
+  /** Nutrient rate, kg/ha (after product × analysis and unit conversion). */
+  rateKgHa: number | null;
+  /** Yield at the crop's standard moisture, kg/ha. */
+  yieldKgHa: number | null;
+  /** Grain moisture at harvest, % (wet basis). */
+  moisturePct: number | null;
+  /** Test weight as given, in the sheet's own unit (kept for reports only). */
+  testWeight: number | null;
+  notes: string | null;
+  /** Extra grouping columns (previous crop, soil, …): column header → value. */
+  groups: Record<string, string>;
+  excluded: Exclusion | null;
+  /** The original cell of every mapped role for this plot. */
+  original: Partial<Record<ColumnRole, OriginalCell>>;
+}
+
+/** A source file as read: its name, size and SHA-256 (hex) for provenance. */
+export interface SourceFile {
+  name: string;
+  bytes: number;
+  sha256: string;
+}
+
+/** Crop identifiers the unit tables know. */
+export type CropId = 'corn' | 'wheat' | 'soybean' | 'barley' | 'sorghum' | 'oats' | 'canola';
+
+export interface PlotTable {
+  crop: CropId;
+  /** Standard moisture the yields are adjusted to, % (wet basis). */
+  standardMoisturePct: number;
+  plots: Plot[];
+  sources: SourceFile[];
+}
+
+/** Plots that take part in fitting: not excluded, with both rate and yield present. */
+export function analysablePlots(table: PlotTable): Plot[] {
+  return table.plots.filter(
+    (p) => p.excluded === null && p.rateKgHa !== null && p.yieldKgHa !== null,
+  );
+}
+
+/** Site names in first-seen order. */
+export function siteNames(table: PlotTable): string[] {
+  return [...new Set(table.plots.map((p) => p.site))];
+}
