@@ -1,0 +1,163 @@
+/**
+ * A neutral description of a chart: what to draw, in display units, with no
+ * drawing library in it. Two renderers read it: the screen draws it with
+ * Plotly (renderer/) and the reports draw it as SVG (shared/report/svgChart.ts,
+ * then PNG in cli/). Keeping the description apart means the workbook, the PDF
+ * and the screen show the same points, curves and bands.
+ *
+ * Conventions every renderer follows:
+ * - All numbers are in the units named on the axes (the caller converts from
+ *   canonical kg/ha with shared/units before building a spec).
+ * - A chart is a stack of panels sharing the width; `heightShare` splits the
+ *   height (e.g. response 3, residuals 1).
+ * - Layers draw in array order (bands first, then curves, then points, then
+ *   markers), so a builder puts them in the order it wants them seen.
+ * - Colours are not in the spec: a layer carries a `role` (and points a
+ *   `groupIndex`), and {@link chartPalette} maps those to colours, so both
+ *   renderers agree without the spec fixing a look.
+ */
+
+/** The response models a curve layer can stand for (the models stage's names). */
+export type ChartModelName =
+  'linear' | 'proportional' | 'quadratic' | 'linearPlateau' | 'quadraticPlateau' | 'exponential';
+
+/** One axis: its title with the unit, and an optional fixed range. */
+export interface ChartAxis {
+  /** What the axis measures, e.g. "N rate". */
+  title: string;
+  /** Unit shown after the title in parentheses, e.g. "lb N/ac"; "" for none. */
+  unit: string;
+  /** Lower end of the range in axis units; omitted = fit the data. */
+  min?: number;
+  /** Upper end of the range in axis units; omitted = fit the data. */
+  max?: number;
+  /** Draw a line at zero across the panel (residual panels). */
+  zeroLine?: boolean;
+}
+
+/**
+ * Observed plots as markers, one layer per block so each block has its own
+ * marker and legend entry. Excluded plots go in their own layer with
+ * `excluded: true` (drawn hollow, never used for fitting).
+ */
+export interface PointLayer {
+  kind: 'points';
+  /** Legend text, e.g. "Block 2" or "Excluded". */
+  name: string;
+  /** 0-based index of the group (block) for marker shape and colour. */
+  groupIndex: number;
+  /** Rates, x-axis units. */
+  x: number[];
+  /** Yields (or residuals), y-axis units; same length as `x`. */
+  y: number[];
+  /** Hover/tooltip text per point (plot label, cell address); same length or omitted. */
+  labels?: string[];
+  /** True for plots left out of the fit. */
+  excluded?: boolean;
+}
+
+/** A fitted curve sampled densely enough to draw as a polyline. */
+export interface CurveLayer {
+  kind: 'curve';
+  /** Legend text, e.g. "Quadratic-plateau (chosen)". */
+  name: string;
+  /** The model this curve comes from; null for a curve that is not a model fit. */
+  model: ChartModelName | null;
+  /** "chosen" is drawn bold; "alternative" thin; "return" is an economic return curve. */
+  role: 'chosen' | 'alternative' | 'return';
+  /** x values in axis units, increasing. */
+  x: number[];
+  /** y values in axis units; same length as `x`. */
+  y: number[];
+}
+
+/**
+ * A vertical band across the panel from `low` to `high` on the x axis: the
+ * optimum rate's interval, or the profitable range of the regional curve.
+ */
+export interface RateBandLayer {
+  kind: 'band';
+  name: string;
+  role: 'optimumInterval' | 'profitableRange';
+  /** Lower edge, x-axis units. */
+  low: number;
+  /** Upper edge, x-axis units. */
+  high: number;
+}
+
+/** A vertical line at one x value with a short label: the optimum or best rate. */
+export interface RateMarkerLayer {
+  kind: 'marker';
+  name: string;
+  role: 'optimumRate' | 'bestRate';
+  /** Position, x-axis units. */
+  x: number;
+  /** Short label drawn next to the line, e.g. "EONR 152". */
+  label: string;
+}
+
+/** Any layer of a panel. */
+export type ChartLayer = PointLayer | CurveLayer | RateBandLayer | RateMarkerLayer;
+
+/** One panel: its own axes and layers. Panels of a chart share the width. */
+export interface ChartPanel {
+  /** Stable key, e.g. "response", "residuals", "return". */
+  id: string;
+  /** Panel title; "" for none. */
+  title: string;
+  x: ChartAxis;
+  y: ChartAxis;
+  /** Relative height of this panel among the chart's panels (> 0). */
+  heightShare: number;
+  layers: ChartLayer[];
+}
+
+/** A whole chart: a title, one or more panels and a suggested size. */
+export interface ChartSpec {
+  /** Heading above the panels, e.g. "Maple Hollow 2025: yield response to N". */
+  title: string;
+  /** A smaller second line (model, price ratio); "" for none. */
+  subtitle: string;
+  /** Suggested drawing size in CSS pixels (the PNG is drawn at a multiple of it). */
+  widthPx: number;
+  heightPx: number;
+  panels: ChartPanel[];
+  /** Text under the chart (data source, what the band means); "" for none. */
+  note: string;
+}
+
+/**
+ * The colours and marker shapes both renderers use for roles and groups.
+ * Chosen to stay apart for the common colour-vision deficiencies (blue /
+ * orange / grey contrasts rather than red against green).
+ */
+export const chartPalette = {
+  /** Marker colours for blocks, cycled by `groupIndex`. */
+  groups: ['#1f5fa8', '#d9731a', '#2a8c6f', '#8a4fa3', '#b5475b', '#5b6770'],
+  /** Marker shapes for blocks, cycled by `groupIndex`. */
+  symbols: ['circle', 'square', 'triangle', 'diamond', 'cross', 'star'] as const,
+  excluded: '#9a9a9a',
+  chosen: '#111111',
+  alternative: '#8c8c8c',
+  return: '#1f5fa8',
+  optimumInterval: 'rgba(217, 115, 26, 0.18)',
+  profitableRange: 'rgba(42, 140, 111, 0.18)',
+  optimumRate: '#d9731a',
+  bestRate: '#2a8c6f',
+  grid: '#e4e4e4',
+  axis: '#333333',
+} as const;
+
+/** A marker shape name from {@link chartPalette}.symbols. */
+export type ChartSymbol = (typeof chartPalette.symbols)[number];
+
+/**
+ * Axis title with its unit, the way every renderer writes it.
+ * @param axis - the axis
+ * @returns "N rate (lb N/ac)", or the bare title when there is no unit
+ * @example
+ * axisLabel({ title: 'Yield', unit: 'bu/ac' }) // "Yield (bu/ac)"
+ */
+export function axisLabel(axis: ChartAxis): string {
+  return axis.unit ? `${axis.title} (${axis.unit})` : axis.title;
+}
