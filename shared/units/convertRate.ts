@@ -1,0 +1,51 @@
+/**
+ * Application rates between the units sheets use and the canonical kg/ha.
+ * Factors from unitConstants (exact pound and international acre).
+ */
+import { G_PER_KG, LB_AC_TO_KG_HA, M2_PER_HA } from './unitConstants';
+
+/** Units an application rate (of product or of nutrient) can be given in. */
+export type RateUnit = 'kg/ha' | 'lb/ac' | 'g/m2';
+
+/** Every rate unit, for menus and validation. */
+export const rateUnits: readonly RateUnit[] = ['kg/ha', 'lb/ac', 'g/m2'];
+
+function factorToKgHa(unit: RateUnit): number {
+  switch (unit) {
+    case 'kg/ha':
+      return 1;
+    case 'lb/ac':
+      return LB_AC_TO_KG_HA;
+    case 'g/m2':
+      // 1 g/m² = 10 000 g/ha = 10 kg/ha.
+      return M2_PER_HA / G_PER_KG;
+  }
+}
+
+/**
+ * Converts a rate to kg/ha.
+ * @param value - the rate in `unit`
+ * @param unit - the unit it is given in
+ * @returns the rate, kg/ha
+ * @throws {RangeError} for a unit outside {@link rateUnits} (unchecked data)
+ * @example
+ * convertRate(100, 'lb/ac') // ≈ 112.085 kg/ha
+ */
+export function convertRate(value: number, unit: RateUnit): number {
+  if (!rateUnits.includes(unit)) throw new RangeError(`Unknown rate unit "${String(unit)}".`);
+  return value * factorToKgHa(unit);
+}
+
+/**
+ * Converts a rate from kg/ha to a display unit.
+ * @param rateKgHa - the rate, kg/ha
+ * @param unit - the unit to show
+ * @returns the rate in `unit`
+ * @throws {RangeError} for a unit outside {@link rateUnits}
+ * @example
+ * rateFromKgHa(112.0851, 'lb/ac') // ≈ 100
+ */
+export function rateFromKgHa(rateKgHa: number, unit: RateUnit): number {
+  if (!rateUnits.includes(unit)) throw new RangeError(`Unknown rate unit "${String(unit)}".`);
+  return rateKgHa / factorToKgHa(unit);
+}
