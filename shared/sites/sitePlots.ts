@@ -1,0 +1,68 @@
+/**
+ * The plots of one site gathered for the across-site analysis: the analysable
+ * plots only (not excluded, rate and yield present), in table order. A site
+ * whose plots are all excluded or incomplete still appears, with no plots and a
+ * reason, so that no site ever vanishes from the across-site tables.
+ */
+import { analysablePlots, siteNames, type PlotTable } from '../table/plotTable';
+
+export interface SitePlots {
+  site: string;
+  /** Nutrient rate of each analysable plot, kg/ha. */
+  rateKgHa: Float64Array;
+  /** Yield of each analysable plot at standard moisture, kg/ha. */
+  yieldKgHa: Float64Array;
+  /** Block label of each plot; null where the sheet has none. */
+  block: (string | null)[];
+  /** Plot ids, for messages that point back to rows. */
+  plotIds: string[];
+  /**
+   * Grouping values shared by every analysable plot of the site, column header →
+   * value; a column whose value differs between the site's plots maps to null.
+   * The year appears under the key "year" when the plots carry one.
+   */
+  groups: Record<string, string | null>;
+  /** Why the site has nothing to fit, or null. */
+  problem: string | null;
+}
+
+/** The key under which a plot's year takes part in the group analysis. */
+export const YEAR_GROUP_KEY = 'year';
+
+/**
+ * Splits a plot table into sites, in first-seen order, keeping every site.
+ * @param table - the plot table (rates and yields in kg/ha)
+ * @returns one entry per site name in the table, including sites left with no analysable plot
+ * @example
+ * sitePlots(table).map((s) => s.site) // ['North Field', 'Creek Bend', …]
+ */
+export function sitePlots(table: PlotTable): SitePlots[] {
+  const usable = analysablePlots(table);
+  return siteNames(table).map((site) => {
+    const plots = usable.filter((p) => p.site === site);
+    const groups: Record<string, string | null> = {};
+    const keys = new Set<string>();
+    for (const p of plots) for (const k of Object.keys(p.groups)) keys.add(k);
+    for (const k of keys) {
+      const values = new Set(plots.map((p) => p.groups[k] ?? ''));
+      groups[k] = values.size === 1 ? [...values][0] || null : null;
+    }
+    if (plots.some((p) => p.year !== null)) {
+      const years = new Set(plots.map((p) => p.year));
+      groups[YEAR_GROUP_KEY] = years.size === 1 && !years.has(null) ? String([...years][0]) : null;
+    }
+    const all = table.plots.filter((p) => p.site === site).length;
+    return {
+      site,
+      rateKgHa: Float64Array.from(plots, (p) => p.rateKgHa as number),
+      yieldKgHa: Float64Array.from(plots, (p) => p.yieldKgHa as number),
+      block: plots.map((p) => p.block),
+      plotIds: plots.map((p) => p.id),
+      groups,
+      problem:
+        plots.length === 0
+          ? `none of the site's ${all} plots can be analysed (each is excluded or lacks a rate or a yield)`
+          : null,
+    };
+  });
+}
