@@ -1,4 +1,13 @@
 import { mount } from 'svelte';
+import './app.css';
 import App from './App.svelte';
+import { chooseFileBridge } from './lib/fileBridge';
+import { Workspace } from './state/workspace.svelte';
 
-mount(App, { target: document.getElementById('app')! });
+// One worker for all heavy analysis; Vite bundles it as its own module.
+const worker = new Worker(new URL('./worker/analysis.worker.ts', import.meta.url), {
+  type: 'module',
+});
+const workspace = new Workspace(chooseFileBridge(), worker);
+
+mount(App, { target: document.getElementById('app')!, props: { workspace } });

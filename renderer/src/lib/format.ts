@@ -1,0 +1,205 @@
+/**
+ * Numbers on screen: every figure goes out with its unit and a precision that
+ * suits what it measures, in the user's locale (Intl). The engine keeps kg/ha
+ * inside; this module converts at the edge, so the US/metric switch touches
+ * nothing but display.
+ */
+import type { CropId } from '../../../shared/table/plotTable';
+import { rateFromKgHa, type RateUnit } from '../../../shared/units/convertRate';
+import { yieldFromKgHa, type YieldUnit } from '../../../shared/units/convertYield';
+
+/** The one switch between unit families. */
+export type UnitSystem = 'metric' | 'us';
+
+/** The display units a unit system stands for. */
+export interface DisplayUnits {
+  rate: RateUnit;
+  yield: YieldUnit;
+  /** Area a price per area is given in. */
+  area: 'ha' | 'ac';
+  /** Mass a price per mass is given in. */
+  mass: 'kg' | 'lb';
+}
+
+/**
+ * The display units of a unit system.
+ * @param system - 'metric' (kg/ha rates, t/ha yields) or 'us' (lb/ac, bu/ac)
+ * @returns the rate, yield, area and mass units to show
+ * @example
+ * displayUnits('us').yield // 'bu/ac'
+ */
+export function displayUnits(system: UnitSystem): DisplayUnits {
+  return system === 'us'
+    ? { rate: 'lb/ac', yield: 'bu/ac', area: 'ac', mass: 'lb' }
+    : { rate: 'kg/ha', yield: 't/ha', area: 'ha', mass: 'kg' };
+}
+
+/** Decimals that match how finely each unit is measured in a plot trial (common practice). */
+const yieldDecimals: Record<YieldUnit, number> = {
+  'kg/ha': 0,
+  't/ha': 2,
+  'lb/ac': 0,
+  'bu/ac': 1,
+  'g/m2': 0,
+};
+const rateDecimals: Record<RateUnit, number> = { 'kg/ha': 0, 'lb/ac': 0, 'g/m2': 1 };
+
+/** Unit labels as a reader writes them (superscripts rather than ASCII). */
+const unitLabels: Record<string, string> = {
+  'g/m2': 'g/m²',
+  m2: 'm²',
+  ft2: 'ft²',
+};
+
+/**
+ * A unit as printed on screen.
+ * @param unit - a unit code, e.g. 'g/m2'
+ * @returns its printed form, e.g. 'g/m²'
+ * @example
+ * unitLabel('kg/ha') // 'kg/ha'
+ */
+export function unitLabel(unit: string): string {
+  return unitLabels[unit] ?? unit;
+}
+
+/**
+ * Formats a plain number in the locale with fixed decimals; "–" for null or NaN.
+ * @param value - the number
+ * @param decimals - digits after the decimal separator
+ * @param locale - a BCP 47 tag, e.g. 'de-DE'; undefined uses the browser's
+ * @returns the formatted text
+ * @example
+ * formatNumber(1234.5, 1, 'de-DE') // '1.234,5'
+ */
+export function formatNumber(
+  value: number | null | undefined,
+  decimals: number,
+  locale?: string,
+): string {
+  if (value === null || value === undefined || !Number.isFinite(value)) return '–';
+  return new Intl.NumberFormat(locale, {
+    minimumFractionDigits: decimals,
+    maximumFractionDigits: decimals,
+  }).format(value);
+}
+
+/**
+ * Formats a number to a count of significant digits (for ratios, p-values, r).
+ * @param value - the number
+ * @param digits - significant digits, 1–21
+ * @param locale - a BCP 47 tag
+ * @returns the formatted text, "–" for null or NaN
+ * @example
+ * formatSignificant(0.0012345, 3, 'en-US') // '0.00123'
+ */
+export function formatSignificant(
+  value: number | null | undefined,
+  digits: number,
+  locale?: string,
+): string {
+  if (value === null || value === undefined || !Number.isFinite(value)) return '–';
+  return new Intl.NumberFormat(locale, {
+    maximumSignificantDigits: digits,
+  }).format(value);
+}
+
+/**
+ * A rate held in kg/ha, shown in the display unit with its unit.
+ * @param rateKgHa - nutrient rate, kg/ha
+ * @param unit - display unit
+ * @param locale - a BCP 47 tag
+ * @returns e.g. '150 kg/ha' or '134 lb/ac'
+ * @example
+ * formatRate(112.085, 'lb/ac', 'en-US') // '100 lb/ac'
+ */
+export function formatRate(rateKgHa: number | null, unit: RateUnit, locale?: string): string {
+  if (rateKgHa === null || !Number.isFinite(rateKgHa)) return '–';
+  return `${formatNumber(rateFromKgHa(rateKgHa, unit), rateDecimals[unit], locale)} ${unitLabel(unit)}`;
+}
+
+/**
+ * A yield held in kg/ha at standard moisture, shown in the display unit with its unit.
+ * @param yieldKgHa - yield, kg/ha
+ * @param unit - display unit
+ * @param crop - the crop (bushel weight for bu/ac)
+ * @param locale - a BCP 47 tag
+ * @returns e.g. '11.25 t/ha' or '179.3 bu/ac'
+ * @example
+ * formatYield(12553.5, 'bu/ac', 'corn', 'en-US') // '200.0 bu/ac'
+ */
+export function formatYield(
+  yieldKgHa: number | null,
+  unit: YieldUnit,
+  crop: CropId,
+  locale?: string,
+): string {
+  if (yieldKgHa === null || !Number.isFinite(yieldKgHa)) return '–';
+  const shown = yieldFromKgHa(yieldKgHa, unit, crop);
+  return `${formatNumber(shown, yieldDecimals[unit], locale)} ${unitLabel(unit)}`;
+}
+
+/**
+ * Money in a currency, in the locale. An unknown currency code (a user's own
+ * label) falls back to the number followed by the label.
+ * @param amount - the amount
+ * @param currency - ISO 4217 code such as 'USD', or any label
+ * @param locale - a BCP 47 tag
+ * @param decimals - digits after the separator, 2 unless told
+ * @returns e.g. '$1.20' or '1,20 €'
+ * @example
+ * formatMoney(1.2, 'USD', 'en-US') // '$1.20'
+ */
+export function formatMoney(
+  amount: number | null,
+  currency: string,
+  locale?: string,
+  decimals = 2,
+): string {
+  if (amount === null || !Number.isFinite(amount)) return '–';
+  try {
+    return new Intl.NumberFormat(locale, {
+      style: 'currency',
+      currency,
+      minimumFractionDigits: decimals,
+      maximumFractionDigits: decimals,
+    }).format(amount);
+  } catch {
+    return `${formatNumber(amount, decimals, locale)} ${currency}`;
+  }
+}
+
+/**
+ * A date in the user's locale, e.g. for "saved at".
+ * @param iso - ISO 8601 text or a Date
+ * @param locale - a BCP 47 tag
+ * @returns the date and time, medium style
+ * @example
+ * formatDate('2026-03-01T10:00:00Z', 'en-GB') // '1 Mar 2026, 10:00' (in a UTC time zone)
+ */
+export function formatDate(iso: string | Date, locale?: string): string {
+  const date = typeof iso === 'string' ? new Date(iso) : iso;
+  if (Number.isNaN(date.getTime())) return '–';
+  return new Intl.DateTimeFormat(locale, { dateStyle: 'medium', timeStyle: 'short' }).format(date);
+}
+
+/**
+ * The number of decimals to show for a yield unit (for chart hover text and tables).
+ * @param unit - yield unit
+ * @returns decimals
+ * @example
+ * yieldDecimalsFor('t/ha') // 2
+ */
+export function yieldDecimalsFor(unit: YieldUnit): number {
+  return yieldDecimals[unit];
+}
+
+/**
+ * The number of decimals to show for a rate unit.
+ * @param unit - rate unit
+ * @returns decimals
+ * @example
+ * rateDecimalsFor('kg/ha') // 0
+ */
+export function rateDecimalsFor(unit: RateUnit): number {
+  return rateDecimals[unit];
+}

@@ -1,0 +1,196 @@
+/**
+ * The message protocol between the window and the analysis worker. Heavy work
+ * (fitting many sites, bootstrap resampling) runs off the main thread so the
+ * window never freezes; each job reports progress and can be cancelled.
+ *
+ * The protocol is plain TS over anything with postMessage and a message event
+ * (a Worker, its global scope, or a MessagePort in tests), so it is tested
+ * without a browser.
+ */
+
+/** Window → worker. */
+export type ToWorker =
+  { type: 'run'; id: number; kind: string; input: unknown } | { type: 'cancel'; id: number };
+
+/** Worker → window. */
+export type FromWorker =
+  | { type: 'progress'; id: number; done: number; total: number; note: string }
+  | { type: 'result'; id: number; output: unknown }
+  | { type: 'error'; id: number; message: string }
+  | { type: 'cancelled'; id: number };
+
+/** What a job handler may do while it runs. */
+export interface JobContext {
+  /** Reports progress; also yields to the event loop so a cancel can arrive. */
+  progress(done: number, total: number, note?: string): Promise<void>;
+  /** True once the window asked to cancel this job. */
+  readonly cancelled: boolean;
+}
+
+/** A job: input in, output out (both structured-cloneable). */
+export type JobHandler = (input: never, ctx: JobContext) => Promise<unknown> | unknown;
+
+/** The end of a channel the protocol talks over. */
+export interface Port {
+  postMessage(message: unknown): void;
+  addEventListener(type: 'message', listener: (event: MessageEvent) => void): void;
+  removeEventListener?(type: 'message', listener: (event: MessageEvent) => void): void;
+}
+
+/** Thrown (as a rejection) when a job was cancelled before it finished. */
+export class JobCancelledError extends Error {
+  constructor(kind: string) {
+    super(`The ${kind} job was cancelled.`);
+    this.name = 'JobCancelledError';
+  }
+}
+
+/** Thrown (as a rejection) when the worker reports a failure. */
+export class JobFailedError extends Error {
+  constructor(kind: string, message: string) {
+    super(`${kind}: ${message}`);
+    this.name = 'JobFailedError';
+  }
+}
+
+/** Signals from inside a handler that it stopped because of a cancel. */
+class StopJob extends Error {}
+
+/**
+ * Serves jobs on the worker side of a port.
+ * @param port - the worker's global scope (self) or a MessagePort
+ * @param handlers - job kind → handler
+ * @example
+ * serveJobs(self, { fitSites: (input, ctx) => fitAll(input, ctx) });
+ */
+export function serveJobs(port: Port, handlers: Record<string, JobHandler>): void {
+  const cancelled = new Set<number>();
+  port.addEventListener('message', (event: MessageEvent) => {
+    const message = event.data as ToWorker;
+    if (message.type === 'cancel') {
+      cancelled.add(message.id);
+      return;
+    }
+    if (message.type !== 'run') return;
+    const { id, kind } = message;
+    const handler = handlers[kind];
+    if (!handler) {
+      port.postMessage({ type: 'error', id, message: `no job called "${kind}"` });
+      return;
+    }
+    const ctx: JobContext = {
+      get cancelled() {
+        return cancelled.has(id);
+      },
+      async progress(done, total, note = '') {
+        port.postMessage({ type: 'progress', id, done, total, note } satisfies FromWorker);
+        // A macrotask turn lets a queued cancel message be delivered.
+        await new Promise((resolve) => setTimeout(resolve, 0));
+        if (cancelled.has(id)) throw new StopJob();
+      },
+    };
+    Promise.resolve()
+      .then(() => (handler as (input: unknown, ctx: JobContext) => unknown)(message.input, ctx))
+      .then(
+        (output) => {
+          if (cancelled.has(id)) port.postMessage({ type: 'cancelled', id });
+          else port.postMessage({ type: 'result', id, output } satisfies FromWorker);
+        },
+        (error: unknown) => {
+          if (error instanceof StopJob || cancelled.has(id)) {
+            port.postMessage({ type: 'cancelled', id } satisfies FromWorker);
+          } else {
+            const text = error instanceof Error ? error.message : String(error);
+            port.postMessage({ type: 'error', id, message: text } satisfies FromWorker);
+          }
+        },
+      )
+      .finally(() => cancelled.delete(id));
+  });
+}
+
+/** A job in flight, as the window sees it. */
+export interface RunningJob<T> {
+  readonly id: number;
+  /** Settles with the output, or rejects with JobCancelledError / JobFailedError. */
+  readonly result: Promise<T>;
+  /** Asks the worker to stop; the result rejects with JobCancelledError at once. */
+  cancel(): void;
+}
+
+interface Pending {
+  kind: string;
+  resolve(value: unknown): void;
+  reject(error: Error): void;
+  onProgress?: (done: number, total: number, note: string) => void;
+}
+
+/** The window's side: starts jobs, routes progress, cancels. */
+export class JobClient {
+  #nextId = 1;
+  readonly #pending = new Map<number, Pending>();
+  readonly #port: Port;
+
+  /** @param port - the Worker (or a MessagePort in tests) */
+  constructor(port: Port) {
+    this.#port = port;
+    port.addEventListener('message', (event: MessageEvent) => this.#receive(event.data));
+  }
+
+  /**
+   * Starts a job.
+   * @param kind - the handler's name on the worker side
+   * @param input - structured-cloneable input
+   * @param onProgress - called with (done, total, note) as the worker reports
+   * @returns the running job
+   */
+  run<T>(
+    kind: string,
+    input: unknown,
+    onProgress?: (done: number, total: number, note: string) => void,
+  ): RunningJob<T> {
+    const id = this.#nextId++;
+    const result = new Promise<T>((resolve, reject) => {
+      this.#pending.set(id, { kind, resolve: resolve as (v: unknown) => void, reject, onProgress });
+    });
+    this.#port.postMessage({ type: 'run', id, kind, input } satisfies ToWorker);
+    return {
+      id,
+      result,
+      cancel: () => {
+        const pending = this.#pending.get(id);
+        if (!pending) return;
+        this.#pending.delete(id);
+        this.#port.postMessage({ type: 'cancel', id } satisfies ToWorker);
+        pending.reject(new JobCancelledError(kind));
+      },
+    };
+  }
+
+  /** Number of jobs still running (for tests and the busy indicator). */
+  get running(): number {
+    return this.#pending.size;
+  }
+
+  #receive(message: FromWorker): void {
+    const pending = this.#pending.get(message.id);
+    if (!pending) return; // cancelled already, or not ours
+    switch (message.type) {
+      case 'progress':
+        pending.onProgress?.(message.done, message.total, message.note);
+        return;
+      case 'result':
+        this.#pending.delete(message.id);
+        pending.resolve(message.output);
+        return;
+      case 'error':
+        this.#pending.delete(message.id);
+        pending.reject(new JobFailedError(pending.kind, message.message));
+        return;
+      case 'cancelled':
+        this.#pending.delete(message.id);
+        pending.reject(new JobCancelledError(pending.kind));
+        return;
+    }
+  }
+}

@@ -1,0 +1,53 @@
+import { describe, expect, it } from 'vitest';
+import {
+  displayUnits,
+  formatMoney,
+  formatNumber,
+  formatRate,
+  formatSignificant,
+  formatYield,
+} from '../renderer/src/lib/format';
+
+describe('renderer format', () => {
+  it('displayUnits switches every unit with the one unit-system switch', () => {
+    expect(displayUnits('metric')).toEqual({
+      rate: 'kg/ha',
+      yield: 't/ha',
+      area: 'ha',
+      mass: 'kg',
+    });
+    expect(displayUnits('us')).toEqual({ rate: 'lb/ac', yield: 'bu/ac', area: 'ac', mass: 'lb' });
+  });
+
+  it('formatNumber follows the locale separators', () => {
+    expect(formatNumber(1234.5, 1, 'en-US')).toBe('1,234.5');
+    expect(formatNumber(1234.5, 1, 'de-DE')).toBe('1.234,5');
+    expect(formatNumber(Number.NaN, 1, 'en-US')).toBe('–');
+    expect(formatNumber(null, 1, 'en-US')).toBe('–');
+  });
+
+  it('formatRate converts kg/ha to the display unit and names it', () => {
+    expect(formatRate(112.0851, 'lb/ac', 'en-US')).toBe('100 lb/ac');
+    expect(formatRate(150.4, 'kg/ha', 'en-US')).toBe('150 kg/ha');
+    expect(formatRate(25, 'g/m2', 'en-US')).toBe('2.5 g/m²');
+  });
+
+  it('formatYield uses the crop bushel and a precision per unit', () => {
+    // 200 bu/ac of corn = 200 × 56 lb × 1.120851 kg/ha per lb/ac
+    const kgHa = 200 * 56 * 1.1208511519;
+    expect(formatYield(kgHa, 'bu/ac', 'corn', 'en-US')).toBe('200.0 bu/ac');
+    expect(formatYield(11254, 't/ha', 'corn', 'fr-FR')).toBe('11,25 t/ha');
+    // Wheat bushels are heavier, so the same kg/ha is fewer bushels.
+    expect(formatYield(kgHa, 'bu/ac', 'wheat', 'en-US')).toBe('186.7 bu/ac');
+  });
+
+  it('formatSignificant keeps significant digits for small numbers', () => {
+    expect(formatSignificant(0.0012345, 3, 'en-US')).toBe('0.00123');
+    expect(formatSignificant(0.5, 3, 'en-US')).toBe('0.5');
+  });
+
+  it('formatMoney formats ISO currencies and falls back for a user label', () => {
+    expect(formatMoney(1.2, 'USD', 'en-US')).toBe('$1.20');
+    expect(formatMoney(1.2, 'bushels-of-goodwill', 'en-US')).toBe('1.20 bushels-of-goodwill');
+  });
+});

@@ -1,0 +1,97 @@
+import { afterEach, describe, expect, it } from 'vitest';
+import {
+  JobCancelledError,
+  JobClient,
+  JobFailedError,
+  serveJobs,
+  type JobContext,
+} from '../renderer/src/lib/workerProtocol';
+
+// A MessageChannel stands in for the worker: same structured clone, same event loop hops.
+const channels: MessageChannel[] = [];
+function connect(handlers: Parameters<typeof serveJobs>[1]): JobClient {
+  const channel = new MessageChannel();
+  channels.push(channel);
+  serveJobs(channel.port2 as unknown as Parameters<typeof serveJobs>[0], handlers);
+  const client = new JobClient(channel.port1 as unknown as Parameters<typeof serveJobs>[0]);
+  channel.port1.start();
+  channel.port2.start();
+  return client;
+}
+afterEach(() => {
+  for (const c of channels.splice(0)) {
+    c.port1.close();
+    c.port2.close();
+  }
+});
+
+async function countTo(input: { n: number }, ctx: JobContext): Promise<number> {
+  let sum = 0;
+  for (let i = 1; i <= input.n; i++) {
+    sum += i;
+    await ctx.progress(i, input.n, `step ${i}`);
+  }
+  return sum;
+}
+
+describe('worker protocol', () => {
+  it('runs a job, reports every progress step in order, and resolves its output', async () => {
+    const client = connect({ countTo: countTo as never });
+    const seen: string[] = [];
+    const job = client.run<number>('countTo', { n: 4 }, (done, total, note) =>
+      seen.push(`${done}/${total} ${note}`),
+    );
+    await expect(job.result).resolves.toBe(10);
+    expect(seen).toEqual(['1/4 step 1', '2/4 step 2', '3/4 step 3', '4/4 step 4']);
+    expect(client.running).toBe(0);
+  });
+
+  it('cancel rejects at once and stops the handler at its next progress call', async () => {
+    let reached = 0;
+    const slow = async (_input: unknown, ctx: JobContext) => {
+      for (let i = 1; i <= 1000; i++) {
+        reached = i;
+        await ctx.progress(i, 1000);
+      }
+      return 'finished';
+    };
+    const client = connect({ slow: slow as never });
+    let firstProgress!: () => void;
+    const started = new Promise<void>((resolve) => (firstProgress = resolve));
+    const job = client.run<string>('slow', null, () => firstProgress());
+    await started;
+    job.cancel();
+    await expect(job.result).rejects.toBeInstanceOf(JobCancelledError);
+    // Give the worker side a few turns to notice.
+    await new Promise((resolve) => setTimeout(resolve, 50));
+    const stoppedAt = reached;
+    await new Promise((resolve) => setTimeout(resolve, 50));
+    expect(reached).toBe(stoppedAt);
+    expect(stoppedAt).toBeLessThan(1000);
+  });
+
+  it('a handler that throws rejects with its message and the job kind', async () => {
+    const client = connect({
+      broken: (() => {
+        throw new Error('site "Hollow Creek" has no rates');
+      }) as never,
+    });
+    const job = client.run('broken', null);
+    await expect(job.result).rejects.toBeInstanceOf(JobFailedError);
+    await expect(client.run('broken', null).result).rejects.toThrow(
+      'broken: site "Hollow Creek" has no rates',
+    );
+  });
+
+  it('an unknown job kind is an error, not a hang', async () => {
+    const client = connect({});
+    await expect(client.run('nothing', null).result).rejects.toThrow('no job called "nothing"');
+  });
+
+  it('two jobs in flight each get their own answer', async () => {
+    const client = connect({ countTo: countTo as never });
+    const a = client.run<number>('countTo', { n: 3 });
+    const b = client.run<number>('countTo', { n: 5 });
+    await expect(Promise.all([a.result, b.result])).resolves.toEqual([6, 15]);
+  });
+});
