@@ -1,0 +1,243 @@
+/**
+ * One rate for a region: the maximum-return-to-nitrogen approach (Sawyer et al.,
+ * 2006, Concepts and Rationale for Regional Nitrogen Rate Guidelines for Corn,
+ * Iowa State University Extension PM 2015). At every rate x of a fine grid and
+ * every site s, the net return over the site's zero-rate check is
+ *
+ *   R_s(x) = p_grain · (ŷ_s(x) − ŷ_s(0)) − p_N · x            (currency/ha)
+ *
+ * from the site's fitted curve ŷ_s. The regional curve is the plain mean over
+ * sites, R̄(x) = (1/S) Σ_s R_s(x); the regional rate is the grid rate with the
+ * highest R̄, and the profitable range is every grid rate whose R̄ is within a
+ * band of that best (1 currency unit per acre, 2.471 per ha, is the usual
+ * band: common practice, no document).
+ *
+ * Price sensitivity: the yield gains ŷ_s(x) − ŷ_s(0) do not depend on prices, so
+ * prepareRegionalReturn() evaluates them once and regionalReturnAtPrices()
+ * re-prices in O(sites × grid) arithmetic with no curve evaluated again.
+ *
+ * Edge cases:
+ * - ties: rates whose R̄ lies within 1e-9 (relative) of the best count as equal and
+ *   the lowest is taken, so that the result does not hinge on the order of the
+ *   summation (site order, duplicated sites);
+ * - a band that leaves gaps (R̄ not unimodal) is reported as its lowest and
+ *   highest rate with `contiguous: false`;
+ * - a site optimum is the grid rate with the highest R_s (lowest on ties).
+ */
+import { sortedQuantile } from '../stats/quantile';
+import { M2_PER_ACRE, M2_PER_HA } from '../units/unitConstants';
+import { SitesInputError } from './sitesInputError';
+
+/** A site's fitted response, as yield gain over its own zero-rate check. */
+export interface SiteGainCurve {
+  site: string;
+  /**
+   * Predicted yield gain at a rate over the prediction at rate 0, ŷ(x) − ŷ(0).
+   * @param rateKgHa - rate, kg/ha
+   * @returns gain, kg/ha
+   */
+  gainKgHa: (rateKgHa: number) => number;
+}
+
+/** Prices in one currency per kilogram. */
+export interface Prices {
+  /** Grain price, currency per kg of grain at standard moisture. */
+  grainPerKg: number;
+  /** Nutrient price, currency per kg of nutrient (N). */
+  nutrientPerKg: number;
+}
+
+/** A band of 1 currency unit per acre expressed per hectare (≈ 2.471); common practice. */
+export const ONE_PER_ACRE_IN_PER_HA = M2_PER_HA / M2_PER_ACRE;
+
+export interface PreparedRegionalReturn {
+  /** Grid rates, kg/ha. */
+  gridKgHa: Float64Array;
+  sites: string[];
+  /** gains[s][g]: site s's yield gain at grid rate g, kg/ha. */
+  gains: Float64Array[];
+  /** Mean gain over sites at each grid rate, kg/ha. */
+  meanGainKgHa: Float64Array;
+}
+
+export interface RateDistribution {
+  n: number;
+  minKgHa: number;
+  q1KgHa: number;
+  medianKgHa: number;
+  q3KgHa: number;
+  maxKgHa: number;
+}
+
+export interface SiteGridOptimum {
+  site: string;
+  /** Grid rate with the highest return at this site, kg/ha. */
+  rateKgHa: number;
+  /** The return there, currency/ha. */
+  returnPerHa: number;
+}
+
+export interface RegionalReturn {
+  prices: Prices;
+  /** Nutrient price / grain price, kg grain per kg nutrient. */
+  priceRatio: number;
+  gridKgHa: Float64Array;
+  /** R̄ at each grid rate, currency/ha. */
+  meanReturnPerHa: Float64Array;
+  /** The rate with the highest mean return, kg/ha; NaN with no sites. */
+  bestRateKgHa: number;
+  bestMeanReturnPerHa: number;
+  /** Mean yield gain over the checks at the best rate, kg/ha. */
+  meanYieldGainAtBestKgHa: number;
+  profitableRange: {
+    /** Band below the best mean return, currency/ha. */
+    bandPerHa: number;
+    lowKgHa: number;
+    highKgHa: number;
+    /** False when some grid rate between low and high falls outside the band. */
+    contiguous: boolean;
+  };
+  siteOptima: SiteGridOptimum[];
+  /** Median and quartiles (Hyndman & Fan type 7) of the site optima. */
+  siteOptimumDistribution: RateDistribution | null;
+}
+
+export interface RegionalReturnOptions {
+  /** Band below the best mean return, currency/ha; default ONE_PER_ACRE_IN_PER_HA. */
+  bandPerHa?: number;
+}
+
+const TIE = 1e-9;
+
+/**
+ * Evaluates every site's gain on the grid once, for any number of prices later.
+ * @param curves - one gain curve per site (gains in kg/ha)
+ * @param gridKgHa - ascending rates, kg/ha (see rateGrid)
+ * @returns the gain matrix and its mean over sites
+ * @throws {SitesInputError} "bad-grid" for an empty grid
+ * @example
+ * prepareRegionalReturn([{ site: 'A', gainKgHa: (x) => 20 * x - 0.05 * x * x }], rateGrid(0, 200, 1))
+ */
+export function prepareRegionalReturn(
+  curves: readonly SiteGainCurve[],
+  gridKgHa: Float64Array,
+): PreparedRegionalReturn {
+  if (gridKgHa.length === 0) {
+    throw new SitesInputError('bad-grid', 'prepareRegionalReturn: the rate grid has no points.');
+  }
+  const g = gridKgHa.length;
+  const meanGainKgHa = new Float64Array(g);
+  const gains = curves.map((c) => {
+    const row = Float64Array.from(gridKgHa, (x) => c.gainKgHa(x));
+    for (let j = 0; j < g; j++) meanGainKgHa[j] += row[j];
+    return row;
+  });
+  if (curves.length > 0) for (let j = 0; j < g; j++) meanGainKgHa[j] /= curves.length;
+  return { gridKgHa, sites: curves.map((c) => c.site), gains, meanGainKgHa };
+}
+
+/** Index of the largest value, the lowest index among values within TIE of it. */
+function argMaxLowest(values: ArrayLike<number>): number {
+  let best = -Infinity;
+  for (let j = 0; j < values.length; j++) if (values[j] > best) best = values[j];
+  const tol = TIE * Math.max(1, Math.abs(best));
+  for (let j = 0; j < values.length; j++) if (values[j] >= best - tol) return j;
+  return 0;
+}
+
+function checkPrices(prices: Prices): void {
+  const { grainPerKg, nutrientPerKg } = prices;
+  if (!(Number.isFinite(grainPerKg) && grainPerKg > 0)) {
+    throw new SitesInputError(
+      'bad-price',
+      `grainPerKg is ${grainPerKg}; it must be a price above 0.`,
+    );
+  }
+  if (!(Number.isFinite(nutrientPerKg) && nutrientPerKg >= 0)) {
+    throw new SitesInputError(
+      'bad-price',
+      `nutrientPerKg is ${nutrientPerKg}; it must be a price of 0 or more.`,
+    );
+  }
+}
+
+/**
+ * Regional net return, best rate, profitable range and site optima at one set of prices.
+ * @param prepared - from prepareRegionalReturn
+ * @param prices - grain and nutrient prices, currency per kg
+ * @param options - the profitable band, currency/ha (default 1 per acre)
+ * @returns the regional return curve and what it recommends
+ * @throws {SitesInputError} "bad-price" for a grain price ≤ 0 or a negative nutrient price;
+ *   "bad-argument" for a negative or non-finite band
+ * @example
+ * regionalReturnAtPrices(prepared, { grainPerKg: 0.2, nutrientPerKg: 1 }).bestRateKgHa // e.g. 150
+ */
+export function regionalReturnAtPrices(
+  prepared: PreparedRegionalReturn,
+  prices: Prices,
+  options: RegionalReturnOptions = {},
+): RegionalReturn {
+  checkPrices(prices);
+  const bandPerHa = options.bandPerHa ?? ONE_PER_ACRE_IN_PER_HA;
+  if (!(Number.isFinite(bandPerHa) && bandPerHa >= 0)) {
+    throw new SitesInputError('bad-argument', `bandPerHa is ${bandPerHa}; it must be 0 or more.`);
+  }
+  const { gridKgHa, gains, meanGainKgHa, sites } = prepared;
+  const { grainPerKg: pg, nutrientPerKg: pn } = prices;
+  const g = gridKgHa.length;
+  const meanReturnPerHa = new Float64Array(g);
+  for (let j = 0; j < g; j++) meanReturnPerHa[j] = pg * meanGainKgHa[j] - pn * gridKgHa[j];
+
+  const siteOptima: SiteGridOptimum[] = [];
+  const row = new Float64Array(g);
+  for (let s = 0; s < gains.length; s++) {
+    const gain = gains[s];
+    for (let j = 0; j < g; j++) row[j] = pg * gain[j] - pn * gridKgHa[j];
+    const k = argMaxLowest(row);
+    siteOptima.push({ site: sites[s], rateKgHa: gridKgHa[k], returnPerHa: row[k] });
+  }
+
+  const empty = gains.length === 0;
+  const best = empty ? -1 : argMaxLowest(meanReturnPerHa);
+  let low = NaN;
+  let high = NaN;
+  let contiguous = true;
+  if (!empty) {
+    const floor =
+      meanReturnPerHa[best] - bandPerHa - TIE * Math.max(1, Math.abs(meanReturnPerHa[best]));
+    let lo = -1;
+    let hi = -1;
+    for (let j = 0; j < g; j++) {
+      if (meanReturnPerHa[j] >= floor) {
+        if (lo < 0) lo = j;
+        hi = j;
+      }
+    }
+    for (let j = lo; j <= hi; j++) if (meanReturnPerHa[j] < floor) contiguous = false;
+    low = gridKgHa[lo];
+    high = gridKgHa[hi];
+  }
+
+  const sorted = Float64Array.from(siteOptima, (o) => o.rateKgHa).sort();
+  return {
+    prices: { ...prices },
+    priceRatio: pn / pg,
+    gridKgHa,
+    meanReturnPerHa,
+    bestRateKgHa: empty ? NaN : gridKgHa[best],
+    bestMeanReturnPerHa: empty ? NaN : meanReturnPerHa[best],
+    meanYieldGainAtBestKgHa: empty ? NaN : meanGainKgHa[best],
+    profitableRange: { bandPerHa, lowKgHa: low, highKgHa: high, contiguous },
+    siteOptima,
+    siteOptimumDistribution: empty
+      ? null
+      : {
+          n: sorted.length,
+          minKgHa: sorted[0],
+          q1KgHa: sortedQuantile(sorted, 0.25),
+          medianKgHa: sortedQuantile(sorted, 0.5),
+          q3KgHa: sortedQuantile(sorted, 0.75),
+          maxKgHa: sorted[sorted.length - 1],
+        },
+  };
+}
