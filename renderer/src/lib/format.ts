@@ -7,9 +7,10 @@
 import type { CropId } from '../../../shared/table/plotTable';
 import { rateFromKgHa, type RateUnit } from '../../../shared/units/convertRate';
 import { yieldFromKgHa, type YieldUnit } from '../../../shared/units/convertYield';
+import type { UnitSystem } from '../../../shared/units/displayUnits';
 
-/** The one switch between unit families. */
-export type UnitSystem = 'metric' | 'us';
+/** The one switch between unit families ('metric' or 'us'), as shared/units names it. */
+export type { UnitSystem };
 
 /** The display units a unit system stands for. */
 export interface DisplayUnits {
