@@ -5,6 +5,7 @@ import { describe, expect, it } from 'vitest';
 import { testCommonResponse, type PooledLinearModel } from '../shared/sites/commonResponseTests';
 import { sitePlots } from '../shared/sites/sitePlots';
 import { siteRateEffect } from '../shared/sites/siteRateEffect';
+import { groupResponseTest } from '../shared/sites/groupResponseTest';
 import type { FTestResult } from '../shared/sites/extraSumOfSquaresTest';
 import { fixtureHeader, pooledPlotTable, readRCsv } from './sites.fixtures';
 
@@ -119,6 +120,20 @@ describe('siteRateEffect against R anova(lm(y ~ block), lm(y ~ block + factor(ra
       expect(Math.abs(e.test.p - r.p)).toBeLessThanOrEqual(1e-9 + 1e-7 * r.p);
       // The R script stores CV% = 100·√(deviance/df)/mean(yield) in the ss column.
       expect(Math.abs(e.cvPct - r.ss)).toBeLessThanOrEqual(1e-9 * r.ss);
+    });
+  }
+});
+
+describe('groupResponseTest against R anova(lm(y ~ site + g(x)), lm(y ~ site + previousCrop:g(x)))', () => {
+  const groupOf = new Map(sites.map((s) => [s.site, s.groups.previousCrop as string]));
+  for (const model of ['linear', 'quadratic'] as const) {
+    it(`groupResponseTest matches R for the ${model} by previous crop`, () => {
+      const t = groupResponseTest(sites, groupOf, model, 'previous crop', 0.05);
+      expect(t.groupsUsed).toEqual(['soybean', 'corn']);
+      expectSameTest(fTest(t), rRow('groups', model, 'site'));
+      expect(t.sentence).toMatch(
+        /at the 5% level the groups of previous crop respond differently\.$/,
+      );
     });
   }
 });
