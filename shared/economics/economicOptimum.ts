@@ -1,0 +1,237 @@
+/**
+ * The economic optimum rate (EONR) of a fitted response curve: the rate where
+ * the marginal revenue equals the marginal cost, i.e. where the curve's slope
+ * equals the price ratio PR = nutrient price / grain price. From the fitted
+ * parameters alone (no refit), so re-pricing is a few arithmetic operations.
+ *
+ * Closed forms (dy/dx = PR solved for x):
+ * - quadratic a + b x + c x², c < 0: x* = (PR − b) / (2c)
+ * - linear-plateau a + b·min(x, x0): x* = x0 when b > PR, else 0
+ * - quadratic-plateau P + c·min(x − x0, 0)²: x* = x0 + PR / (2c), not below 0
+ * - exponential a + b(1 − e^(−k x)): x* = ln(b k / PR) / k when b k > PR, else 0
+ * - straight line and line through the origin: a corner, the highest tested
+ *   rate when b > PR, else 0 (a constant slope never equals PR)
+ * Then: x* below 0 becomes 0; x* past the highest tested rate is capped there
+ * and flagged (the curve is not known beyond the data); with an application
+ * cost the optimum is 0 unless the net return at x* beats no application.
+ *
+ * The agronomic maximum is the rate of the highest yield: the vertex −b/(2c) of
+ * the quadratic, the join of the plateau models, none for the exponential
+ * (approached but not reached) and the highest tested rate for a rising line.
+ */
+import { curveValue } from '../models/curveValue';
+import type { CurveSummary, ModelName } from '../models/modelTypes';
+import { assertPrices, type Prices } from './priceRatio';
+import { recommendationCautions } from './recommendationCautions';
+
+/**
+ * - "interior": slope = PR inside the tested rates
+ * - "zero": applying does not pay (slope at 0 below PR, or the gain does not cover the application cost)
+ * - "capped-at-highest": the formula lies past the highest tested rate; the highest rate is given and flagged
+ * - "corner": straight line or line through the origin, whose constant slope gives 0 or the highest rate
+ * - "join-in-first-interval": full response by the lowest non-zero rate; the optimum lies
+ *   between the two lowest rates and is not given as one number
+ * - "not-available": the fit has no optimum (no plateau, convex, flat, or not fitted)
+ */
+export type OptimumStatus =
+  'interior' | 'zero' | 'capped-at-highest' | 'corner' | 'join-in-first-interval' | 'not-available';
+
+export interface EconomicOptimum {
+  model: ModelName;
+  status: OptimumStatus;
+  /** PR, kg grain per kg nutrient. */
+  priceRatio: number;
+  /** The optimum rate, kg/ha; null for "join-in-first-interval" and "not-available". */
+  rateKgHa: number | null;
+  /** The closed form before capping at the tested range, kg/ha (NaN when none). */
+  uncappedRateKgHa: number;
+  /** For "join-in-first-interval": the two lowest rates, kg/ha. */
+  rangeKgHa: [number, number] | null;
+  /** Fitted yield at the optimum, kg/ha. */
+  yieldKgHa: number | null;
+  /** Grain revenue minus nutrient and application cost at the optimum, currency/ha. */
+  netReturnPerHa: number | null;
+  /** Net return at the optimum minus the net return at rate 0 (the fitted check), currency/ha. */
+  gainOverCheckPerHa: number | null;
+  /** Rate of the highest fitted yield, kg/ha; null when the curve has none within reach. */
+  agronomicMaxRateKgHa: number | null;
+  /** True when the optimum was capped at the highest tested rate. */
+  cappedAtHighest: boolean;
+  /** One or two sentences for the screen and reports. */
+  explanation: string;
+  /** The cautions that go with any recommended rate. */
+  cautions: readonly string[];
+}
+
+/**
+ * Net return at a rate: grain price × yield − nutrient price × rate − application cost (if rate > 0).
+ * @param fit - model, parameters
+ * @param prices - canonical prices
+ * @param rateKgHa - the rate, kg/ha
+ * @returns currency/ha
+ * @example
+ * netReturn({ model: 'linear', params: { a: 5000, b: 10 } }, { grainPricePerKg: 0.2, nutrientPricePerKg: 1 }, 100) // 1100
+ */
+export function netReturn(
+  fit: Pick<CurveSummary, 'model' | 'params'>,
+  prices: Prices,
+  rateKgHa: number,
+): number {
+  const y = curveValue(fit.model, fit.params, rateKgHa);
+  const app = rateKgHa > 0 ? (prices.applicationCostPerHa ?? 0) : 0;
+  return prices.grainPricePerKg * y - prices.nutrientPricePerKg * rateKgHa - app;
+}
+
+/** The closed-form x* before capping, and the agronomic maximum. */
+function closedForm(fit: CurveSummary, pr: number): { x: number; agronomicMax: number | null } {
+  const p = fit.params;
+  const highest = fit.testedRates.highestKgHa;
+  switch (fit.model) {
+    case 'quadratic':
+      return { x: (pr - p.b) / (2 * p.c), agronomicMax: -p.b / (2 * p.c) };
+    case 'linearPlateau':
+      return { x: p.b > pr ? p.x0 : 0, agronomicMax: p.x0 };
+    case 'quadraticPlateau':
+      return { x: Math.max(p.x0 + pr / (2 * p.c), 0), agronomicMax: p.x0 };
+    case 'exponential': {
+      const bk = p.b * p.k;
+      return { x: bk > pr ? Math.log(bk / pr) / p.k : 0, agronomicMax: null };
+    }
+    case 'linear':
+    case 'proportional':
+      return { x: p.b > pr ? highest : 0, agronomicMax: p.b > 0 ? highest : 0 };
+  }
+}
+
+function round(x: number): string {
+  return String(Math.round(x * 10) / 10);
+}
+
+/**
+ * The economic optimum rate of one fitted curve at given prices.
+ * @param fit - a ModelFit or any CurveSummary (model, status, params, tested rates)
+ * @param prices - grain price (currency/kg grain), nutrient price (currency/kg nutrient),
+ *   optional application cost (currency/ha)
+ * @returns the optimum with its status, yield, net return and gain over the check
+ * @throws {StatsInputError} "bad-argument" for a price that is not positive
+ * @example
+ * const lp = { model: 'linearPlateau', status: 'ok', params: { a: 6000, b: 25, x0: 100 },
+ *   testedRates: { lowestKgHa: 0, highestKgHa: 200, distinctKgHa: [0, 50, 100, 150, 200] }, joinBetweenKgHa: null } as const;
+ * economicOptimum(lp, { grainPricePerKg: 0.2, nutrientPricePerKg: 1 }).rateKgHa // 100
+ */
+export function economicOptimum(fit: CurveSummary, prices: Prices): EconomicOptimum {
+  assertPrices(prices);
+  const pr = prices.nutrientPricePerKg / prices.grainPricePerKg;
+  const base = {
+    model: fit.model,
+    priceRatio: pr,
+    cautions: recommendationCautions,
+  };
+  const none = (status: OptimumStatus, explanation: string): EconomicOptimum => ({
+    ...base,
+    status,
+    rateKgHa: null,
+    uncappedRateKgHa: NaN,
+    rangeKgHa: null,
+    yieldKgHa: null,
+    netReturnPerHa: null,
+    gainOverCheckPerHa: null,
+    agronomicMaxRateKgHa: null,
+    cappedAtHighest: false,
+    explanation,
+  });
+
+  if (fit.status === 'full-response-at-lowest-rate') {
+    const [low, high] = fit.joinBetweenKgHa ?? [
+      fit.testedRates.distinctKgHa[0],
+      fit.testedRates.distinctKgHa[1],
+    ];
+    // The whole response is bought by the second-lowest rate at most, so paying
+    // for `high` is the dearest case: if that still beats no nutrient, the
+    // optimum lies in (low, high].
+    const zero = netReturn(fit, prices, 0);
+    const atHigh = netReturn(fit, prices, high);
+    if (!(atHigh > zero)) {
+      return {
+        ...none(
+          'zero',
+          `The full response is reached by ${high} kg/ha, but at these prices it does not pay for that rate.`,
+        ),
+        rateKgHa: 0,
+        uncappedRateKgHa: 0,
+        yieldKgHa: curveValue(fit.model, fit.params, 0),
+        netReturnPerHa: zero,
+        gainOverCheckPerHa: 0,
+      };
+    }
+    return {
+      ...none(
+        'join-in-first-interval',
+        `Full response by the lowest non-zero rate: the optimum lies between ${low} and ${high} kg/ha; these rates cannot place it more precisely.`,
+      ),
+      rangeKgHa: [low, high],
+      yieldKgHa: curveValue(fit.model, fit.params, high),
+      netReturnPerHa: atHigh,
+      gainOverCheckPerHa: atHigh - zero,
+    };
+  }
+  if (fit.status !== 'ok') {
+    const why: Record<string, string> = {
+      'no-plateau': 'No plateau within the tested rates, so this model gives no optimum.',
+      convex: 'The quadratic opens upward, so it has no maximum and no optimum.',
+      'no-response': 'Yield does not rise with rate: no nutrient pays.',
+      'too-few-rates': 'The model could not be fitted to this site.',
+    };
+    return none('not-available', why[fit.status] ?? 'No optimum.');
+  }
+
+  const highest = fit.testedRates.highestKgHa;
+  const { x: raw, agronomicMax } = closedForm(fit, pr);
+  let status: OptimumStatus = 'interior';
+  let x = raw;
+  let capped = false;
+  let explanation: string;
+  if (!(x > 0)) {
+    x = 0;
+    status = 'zero';
+    explanation = `At a price ratio of ${round(pr)} kg grain per kg nutrient the first kilogram already returns less than it costs: the optimum is no nutrient.`;
+  } else if (x > highest) {
+    x = highest;
+    capped = true;
+    status = 'capped-at-highest';
+    explanation = `The formula gives ${round(raw)} kg/ha, past the highest tested rate; the curve is not known there, so the highest tested rate (${highest} kg/ha) is given and flagged.`;
+  } else {
+    explanation = `Economic optimum ${round(x)} kg/ha, where the curve's slope equals the price ratio of ${round(pr)} kg grain per kg nutrient.`;
+  }
+  if (fit.model === 'linear' || fit.model === 'proportional') {
+    status = x > 0 || capped ? 'corner' : 'zero';
+    capped = false;
+    explanation =
+      x > 0
+        ? `A straight line never levels off: its slope (${round(fit.params.b)}) stays above the price ratio (${round(pr)}), so the optimum is the corner at the highest tested rate, ${highest} kg/ha; a curve with a plateau says more.`
+        : `A straight line's slope (${round(fit.params.b)}) below the price ratio (${round(pr)}) puts the optimum at the corner, no nutrient.`;
+  }
+  const zeroReturn = netReturn(fit, prices, 0);
+  let atX = netReturn(fit, prices, x);
+  if (x > 0 && !(atX > zeroReturn)) {
+    // The application cost is larger than what the nutrient returns.
+    explanation = `At ${round(x)} kg/ha the gain does not cover the nutrient and application cost, so the optimum is no application.`;
+    x = 0;
+    status = 'zero';
+    capped = false;
+    atX = zeroReturn;
+  }
+  return {
+    ...base,
+    status,
+    rateKgHa: x,
+    uncappedRateKgHa: raw,
+    rangeKgHa: null,
+    yieldKgHa: curveValue(fit.model, fit.params, x),
+    netReturnPerHa: atX,
+    gainOverCheckPerHa: atX - zeroReturn,
+    agronomicMaxRateKgHa: agronomicMax,
+    cappedAtHighest: capped,
+    explanation,
+  };
+}

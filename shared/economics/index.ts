@@ -1,0 +1,22 @@
+/**
+ * Economics of a fitted response: the economic optimum rate (EONR) and its
+ * uncertainty. Prices are canonical: currency per kg grain (at the yields'
+ * moisture basis), currency per kg nutrient, optional application cost per ha.
+ *
+ * ```ts
+ * priceRatio(prices: Prices): number                       // kg grain per kg nutrient
+ * economicOptimum(fit: CurveSummary, prices: Prices): EconomicOptimum
+ *   → { status, rateKgHa, uncappedRateKgHa, rangeKgHa, yieldKgHa, netReturnPerHa,
+ *       gainOverCheckPerHa, agronomicMaxRateKgHa, cappedAtHighest, explanation, cautions }
+ * netReturn(fit, prices, rateKgHa): number                 // currency/ha
+ * optimumAcrossModels(fits, ranking, prices, { toleranceKgHa: 20 }): OptimumComparison
+ * ```
+ *
+ * `economicOptimum` reads only `model`, `status`, `params`, `testedRates` and
+ * `joinBetweenKgHa`, so re-pricing a stored fit costs a few operations (no refit).
+ * Every result carries `recommendationCautions`: show them with any rate.
+ */
+export * from './priceRatio';
+export * from './economicOptimum';
+export * from './optimumAcrossModels';
+export * from './recommendationCautions';

@@ -1,0 +1,181 @@
+/**
+ * The exponential rise to a plateau (Mitscherlich): y = a + b(1 − e^(−k x)),
+ * a the yield at rate 0 (kg/ha), b the largest possible gain (kg/ha), k the
+ * rate constant (ha/kg). The asymptote a + b is approached but never reached,
+ * so the model has no join point. Optionally a = 0 (y = b(1 − e^(−k x)), the
+ * form of NIST StRD Misra1a).
+ *
+ * Fitted globally by profiling u = ln k: SSE(u) with the inner fit of
+ * [1, 1 − e^(−k x)] by least squares (b > 0 enforced) is evaluated on an even
+ * grid of u from k·x_max = 10⁻³ (almost straight) to k·x₁ = 50 (x₁ the lowest
+ * non-zero rate; e^(−50) ≈ 2·10⁻²², full response by x₁), and Brent's method
+ * refines every grid point lower than its neighbours. The two limits are
+ * statuses, not numbers:
+ * - k → 0: the curve tends to the straight line: "no-plateau"
+ * - k → ∞: the curve tends to check against the rest: "full-response-at-lowest-rate"
+ */
+import { minimizeBrent } from '../optimize/minimizeBrent';
+import { StatsInputError } from '../stats/errors';
+import {
+  blankParameters,
+  finishFit,
+  tooFewRatesMessage,
+  unfittedFit,
+  type CurveSpec,
+} from './finishFit';
+import { linearCoefficients } from './linearCoefficients';
+import type { FitOptions, ModelFit, SiteData } from './modelTypes';
+import { prepareSite, type PreparedSite } from './prepareSite';
+import { profileSolver } from './profileSolver';
+
+/** The exponential curve, parameters [a, b, k]. */
+export const exponentialSpec: CurveSpec = {
+  model: 'exponential',
+  label: 'Exponential',
+  formula: 'a + b·(1 − e^(−k·x))',
+  paramNames: ['a', 'b', 'k'],
+  value: (x, p) => p[0] + p[1] * -Math.expm1(-p[2] * x),
+  gradient: (x, p, out) => {
+    const e = Math.exp(-p[2] * x);
+    out[0] = 1;
+    out[1] = -Math.expm1(-p[2] * x);
+    out[2] = p[1] * x * e;
+  },
+  r2Kind: 'centered',
+};
+
+/** The exponential through the origin, parameters [b, k]. */
+export const exponentialThroughOriginSpec: CurveSpec = {
+  model: 'exponential',
+  label: 'Exponential',
+  formula: 'b·(1 − e^(−k·x))',
+  paramNames: ['b', 'k'],
+  value: (x, p) => p[0] * -Math.expm1(-p[1] * x),
+  gradient: (x, p, out) => {
+    out[0] = -Math.expm1(-p[1] * x);
+    out[1] = p[0] * x * Math.exp(-p[1] * x);
+  },
+  r2Kind: 'uncentered',
+};
+
+const GRID = 24;
+const TIE = 1e-10;
+
+/**
+ * Fits the exponential to a prepared site.
+ * @param site - from prepareSite
+ * @param options - exponentialIntercept, confidence level, curve grid
+ * @returns the fit with its status; plateauYield (the asymptote a + b) when "ok"
+ * @throws {StatsInputError} "bad-argument" for exponentialIntercept 'zero' with block terms
+ * @example
+ * // see fitExponential
+ */
+export function fitExponentialPrepared(site: PreparedSite, options: FitOptions): ModelFit {
+  const intercept = (options.exponentialIntercept ?? 'free') === 'free';
+  if (!intercept && site.blocks === 'fixed') {
+    throw new StatsInputError(
+      'bad-argument',
+      "exponentialIntercept: 'zero' cannot be combined with blocks: 'fixed' (the offsets need an intercept).",
+    );
+  }
+  const spec = intercept ? exponentialSpec : exponentialThroughOriginSpec;
+  const rates = site.rates;
+  const m = rates.length;
+  const why = tooFewRatesMessage(site, spec, intercept ? 3 : 2);
+  if (why) return unfittedFit(site, spec, why);
+  const rMax = rates[m - 1];
+  const rLow = rates[0] > 0 ? rates[0] : rates[1];
+  const uLow = Math.log(1e-3 / rMax);
+  const uHigh = Math.log(50 / rLow);
+
+  const solver = profileSolver(site, { intercept, sign: 'positive' });
+  const g = new Float64Array(m);
+  const sseAt = (u: number): number => {
+    const k = Math.exp(u);
+    for (let j = 0; j < m; j++) g[j] = -Math.expm1(-k * rates[j]);
+    return solver.sse(g);
+  };
+  const grid = new Float64Array(GRID);
+  const values = new Float64Array(GRID);
+  const step = (uHigh - uLow) / (GRID - 1);
+  for (let i = 0; i < GRID; i++) {
+    grid[i] = uLow + i * step;
+    values[i] = sseAt(grid[i]);
+  }
+  let bestU = grid[0];
+  let bestSse = values[0];
+  for (let i = 0; i < GRID; i++) {
+    const left = i > 0 ? values[i - 1] : Infinity;
+    const right = i + 1 < GRID ? values[i + 1] : Infinity;
+    if (values[i] <= left && values[i] <= right) {
+      const r = minimizeBrent(sseAt, grid[Math.max(i - 1, 0)], grid[Math.min(i + 1, GRID - 1)], {
+        relativeTolerance: 1e-12,
+        absoluteTolerance: 1e-11,
+      });
+      if (r.fx < bestSse) {
+        bestSse = r.fx;
+        bestU = r.x;
+      }
+    }
+  }
+
+  let status: ModelFit['status'] = 'ok';
+  let message = 'Exponential rise to a plateau fitted.';
+  const atLow = bestU <= uLow + 1e-6 * step;
+  const atHigh = bestU >= uHigh - 1e-6 * step;
+  if (bestSse >= solver.flatSse * (1 - TIE)) {
+    status = 'no-response';
+    message = 'Yield does not rise with rate: the best exponential is flat.';
+  } else if (atLow) {
+    status = 'no-plateau';
+    message =
+      'No plateau within the tested rates: the rate constant tends to zero and the curve to the straight line.';
+  } else if (atHigh) {
+    status = 'full-response-at-lowest-rate';
+    message = `Full response by the lowest non-zero rate: the rate constant runs to infinity (check against the rest); the bend lies between ${rates[0]} and ${rLow} kg/ha.`;
+  }
+  const k = Math.exp(bestU);
+  const gFinal = rates.map((r) => -Math.expm1(-k * r));
+  const coef = linearCoefficients(site, [gFinal], intercept);
+  const params = intercept
+    ? Float64Array.of(coef.curve[0], coef.curve[1], k)
+    : Float64Array.of(coef.curve[0], k);
+  const ok = status === 'ok';
+  const fit = finishFit({
+    site,
+    spec,
+    params,
+    blockCoefficients: coef.blocks,
+    status,
+    message,
+    options,
+    plateauYield:
+      ok || status === 'full-response-at-lowest-rate'
+        ? intercept
+          ? { value: params[0] + params[1], gradient: [1, 1, 0] }
+          : { value: params[0], gradient: [1, 0] }
+        : undefined,
+    joinBetweenKgHa: status === 'full-response-at-lowest-rate' ? [rates[0], rLow] : null,
+  });
+  if (status === 'no-plateau') blankParameters(fit, intercept ? ['b', 'k'] : ['b', 'k']);
+  else if (status === 'full-response-at-lowest-rate') blankParameters(fit, ['k']);
+  if (!intercept) {
+    // Economics reads params.a; the fixed intercept is exactly zero.
+    fit.params = { a: 0, ...fit.params };
+  }
+  return fit;
+}
+
+/**
+ * Fits the exponential rise y = a + b(1 − e^(−k x)) by a global profiled search (no starting values).
+ * @param data - rates (kg/ha), yields (kg/ha), optional blocks
+ * @param options - exponentialIntercept ('free' or 'zero'), blocks, confidence level, curve grid
+ * @returns params {a (kg/ha), b (kg/ha), k (ha/kg)}; plateauYield is the asymptote a + b
+ * @throws {StatsInputError} for mismatched lengths, non-finite or negative values, or
+ *   exponentialIntercept 'zero' with blocks 'fixed'
+ * @example
+ * fitExponential({ rateKgHa: [0, 50, 100, 150, 200], yieldKgHa: [5000, 7256, 8494, 9174, 9546] }).params.k // ≈ 0.012
+ */
+export function fitExponential(data: SiteData, options: FitOptions = {}): ModelFit {
+  return fitExponentialPrepared(prepareSite(data, options.blocks ?? 'none'), options);
+}

@@ -1,0 +1,330 @@
+/**
+ * Everything a fit reports once the parameters are known: fitted values and
+ * residuals, SSE and residual df, asymptotic standard errors s²(JᵀJ)⁻¹ from the
+ * Jacobian of all parameters (curve and block offsets) at the optimum (Bates &
+ * Watts, Nonlinear Regression Analysis and Its Applications, 1988, §2.3),
+ * t intervals, R², AICc and BIC (counted as in shared/stats/leastSquares: the
+ * residual variance is a parameter, k = p + 1), the lack-of-fit F test against
+ * the pure error of replicated rates (Draper & Smith, 3rd ed., §2.1), the curve
+ * on a grid and a prediction function.
+ */
+import { fisherFUpperP, studentTQuantile } from '../stats/distributions';
+import { qrDecompose, unscaledCovariance } from '../stats/qr';
+import type {
+  FitOptions,
+  FitStatus,
+  IntervalEstimate,
+  LackOfFit,
+  ModelFit,
+  ModelName,
+} from './modelTypes';
+import { pureError } from './pureError';
+import type { PreparedSite } from './prepareSite';
+import { blockColumns } from './profileSolver';
+
+/** How a model's curve is evaluated and differentiated. */
+export interface CurveSpec {
+  model: ModelName;
+  label: string;
+  formula: string;
+  /** Curve parameter names in the order of the parameter vector. */
+  paramNames: string[];
+  /** Curve value at rate x (kg/ha) for parameters p. */
+  value: (x: number, p: Float64Array) => number;
+  /** ∂curve/∂p_k at x, written into out (length paramNames.length). */
+  gradient: (x: number, p: Float64Array, out: Float64Array) => void;
+  /** R² about the mean, or about zero for a curve through the origin. */
+  r2Kind: 'centered' | 'uncentered';
+}
+
+/** A derived quantity (join point, plateau yield) as a function of the curve parameters. */
+export interface DerivedQuantity {
+  value: number;
+  /** ∂value/∂p_k, for the delta-method standard error. */
+  gradient: number[];
+}
+
+export interface FinishInput {
+  site: PreparedSite;
+  spec: CurveSpec;
+  params: Float64Array;
+  /** Effect-coded block coefficients (B − 1), empty without blocks. */
+  blockCoefficients: Float64Array;
+  status: FitStatus;
+  message: string;
+  options: FitOptions;
+  joinPoint?: DerivedQuantity;
+  plateauYield?: DerivedQuantity;
+  joinBetweenKgHa?: [number, number] | null;
+  stdErrorNote?: string;
+}
+
+const tCache = new Map<string, number>();
+function tCritical(level: number, df: number): number {
+  const key = `${level}|${df}`;
+  let t = tCache.get(key);
+  if (t === undefined) {
+    t = studentTQuantile(1 - (1 - level) / 2, df);
+    tCache.set(key, t);
+  }
+  return t;
+}
+
+/**
+ * Assembles a ModelFit from fitted parameters.
+ * @param input - the site, the curve, its parameters and status
+ * @returns the complete fit
+ * @example
+ * // Used by every fitX function; see fitLinear for the simplest caller.
+ */
+export function finishFit(input: FinishInput): ModelFit {
+  const { site, spec, params, blockCoefficients, options } = input;
+  const { n, x, y, blockOf } = site;
+  const q = spec.paramNames.length;
+  const nbCoef = blockCoefficients.length;
+  const p = q + nbCoef;
+  const nb = site.blockLabels.length;
+  const offsets = new Float64Array(Math.max(nb, 1));
+  if (nbCoef > 0) {
+    let s = 0;
+    for (let b = 0; b < nbCoef; b++) {
+      offsets[b] = blockCoefficients[b];
+      s += blockCoefficients[b];
+    }
+    offsets[nb - 1] = -s;
+  }
+
+  const fitted = new Float64Array(n);
+  const residuals = new Float64Array(n);
+  let sse = 0;
+  for (let i = 0; i < n; i++) {
+    fitted[i] = spec.value(x[i], params) + offsets[blockOf[i]];
+    const r = y[i] - fitted[i];
+    residuals[i] = r;
+    sse += r * r;
+  }
+  const dfResidual = n - p;
+  const s2 = sse / dfResidual;
+
+  // Jacobian of all parameters, column-major: curve parameters, then block columns.
+  const jac = new Float64Array(n * p);
+  const row = new Float64Array(q);
+  for (let i = 0; i < n; i++) {
+    spec.gradient(x[i], params, row);
+    for (let k = 0; k < q; k++) jac[k * n + i] = row[k];
+  }
+  if (nbCoef > 0) blockColumns(site).forEach((c, k) => jac.set(c, (q + k) * n));
+  const qr = qrDecompose(jac, n, p);
+  const identified = qr.rank === p;
+  const unscaled = identified ? unscaledCovariance(qr) : null;
+  const covariance: number[][] = [];
+  for (let a = 0; a < q; a++) {
+    const r: number[] = [];
+    for (let b = 0; b < q; b++) r.push(unscaled ? unscaled[a][b] * s2 : NaN);
+    covariance.push(r);
+  }
+
+  const level = options.confidence ?? 0.95;
+  const tCrit = dfResidual > 0 ? tCritical(level, dfResidual) : NaN;
+  const paramRecord: Record<string, number> = {};
+  const stdErrors: Record<string, number> = {};
+  const confidenceIntervals: Record<string, [number, number]> = {};
+  spec.paramNames.forEach((name, k) => {
+    const se = Math.sqrt(covariance[k][k]);
+    paramRecord[name] = params[k];
+    stdErrors[name] = se;
+    confidenceIntervals[name] = [params[k] - tCrit * se, params[k] + tCrit * se];
+  });
+  const derived = (d: DerivedQuantity | undefined): IntervalEstimate | null => {
+    if (!d) return null;
+    let v = 0;
+    for (let a = 0; a < q; a++) {
+      for (let b = 0; b < q; b++) v += d.gradient[a] * covariance[a][b] * d.gradient[b];
+    }
+    const se = Math.sqrt(v);
+    return {
+      estimate: d.value,
+      stdError: se,
+      ciLow: d.value - tCrit * se,
+      ciHigh: d.value + tCrit * se,
+    };
+  };
+
+  let mean = 0;
+  if (spec.r2Kind === 'centered') {
+    for (let i = 0; i < n; i++) mean += y[i];
+    mean /= n;
+  }
+  let sst = 0;
+  for (let i = 0; i < n; i++) sst += (y[i] - mean) ** 2;
+  const r2 = sst > 0 ? 1 - sse / sst : NaN;
+
+  const k = p + 1;
+  const logLik = -0.5 * n * (Math.log(2 * Math.PI) + Math.log(sse / n) + 1);
+  const aic = -2 * logLik + 2 * k;
+  const aicc = n - k - 1 > 0 ? aic + (2 * k * (k + 1)) / (n - k - 1) : Infinity;
+  const bic = -2 * logLik + k * Math.log(n);
+
+  const pe = pureError(site);
+  let lackOfFit: LackOfFit | null = null;
+  const dfLack = dfResidual - pe.df;
+  if (pe.df > 0 && dfLack > 0) {
+    const ssLack = Math.max(sse - pe.ss, 0);
+    const f = ssLack / dfLack / (pe.ss / pe.df);
+    lackOfFit = {
+      ssLackOfFit: ssLack,
+      dfLackOfFit: dfLack,
+      ssPureError: pe.ss,
+      dfPureError: pe.df,
+      f,
+      p: fisherFUpperP(f, dfLack, pe.df),
+    };
+  }
+
+  const points = Math.max(options.curvePoints ?? 61, 2);
+  const lo = site.testedRates.lowestKgHa;
+  const hi = site.testedRates.highestKgHa;
+  const curveRate = new Float64Array(points);
+  const curveYield = new Float64Array(points);
+  const frozen = Float64Array.from(params);
+  for (let i = 0; i < points; i++) {
+    const r = lo + ((hi - lo) * i) / (points - 1);
+    curveRate[i] = r;
+    curveYield[i] = spec.value(r, frozen);
+  }
+  const blockOffsets: Record<string, number> = {};
+  if (nbCoef > 0) site.blockLabels.forEach((label, b) => (blockOffsets[label] = offsets[b]));
+
+  const notes: string[] = [];
+  if (input.stdErrorNote) notes.push(input.stdErrorNote);
+  if (!identified) {
+    notes.push(
+      'The parameters are not all identified by these rates, so no standard errors are given.',
+    );
+  }
+  return {
+    model: spec.model,
+    label: spec.label,
+    formula: spec.formula,
+    status: input.status,
+    message: input.message,
+    blocks: site.blocks,
+    params: paramRecord,
+    stdErrors,
+    confidenceIntervals,
+    blockOffsets,
+    joinPoint: derived(input.joinPoint),
+    plateauYield: derived(input.plateauYield),
+    joinBetweenKgHa: input.joinBetweenKgHa ?? null,
+    stdErrorNote: notes.join(' '),
+    testedRates: site.testedRates,
+    n,
+    parameterCount: p,
+    sse,
+    dfResidual,
+    rmse: Math.sqrt(s2),
+    r2,
+    r2Kind: spec.r2Kind,
+    aicc,
+    bic,
+    lackOfFit,
+    residuals,
+    fitted,
+    curve: { rateKgHa: curveRate, yieldKgHa: curveYield },
+    covariance,
+    paramNames: spec.paramNames.slice(),
+    predict: (rateKgHa: number) => spec.value(rateKgHa, frozen),
+  };
+}
+
+/**
+ * A fit that could not be made (status "too-few-rates"): every number is NaN,
+ * the curve is empty, and predict returns NaN, so the screen can list the model
+ * with its reason.
+ * @param site - from prepareSite
+ * @param spec - the model's curve
+ * @param message - why, e.g. "The quadratic needs at least 3 distinct rates; this site has 2."
+ * @returns the placeholder fit
+ * @example
+ * unfittedFit(site, quadraticSpec, 'needs 3 rates').status // 'too-few-rates'
+ */
+export function unfittedFit(site: PreparedSite, spec: CurveSpec, message: string): ModelFit {
+  const nan: Record<string, number> = {};
+  const ci: Record<string, [number, number]> = {};
+  for (const name of spec.paramNames) {
+    nan[name] = NaN;
+    ci[name] = [NaN, NaN];
+  }
+  return {
+    model: spec.model,
+    label: spec.label,
+    formula: spec.formula,
+    status: 'too-few-rates',
+    message,
+    blocks: site.blocks,
+    params: nan,
+    stdErrors: { ...nan },
+    confidenceIntervals: ci,
+    blockOffsets: {},
+    joinPoint: null,
+    plateauYield: null,
+    joinBetweenKgHa: null,
+    stdErrorNote: '',
+    testedRates: site.testedRates,
+    n: site.n,
+    parameterCount: spec.paramNames.length + site.blockDf,
+    sse: NaN,
+    dfResidual: site.n - spec.paramNames.length - site.blockDf,
+    rmse: NaN,
+    r2: NaN,
+    r2Kind: spec.r2Kind,
+    aicc: NaN,
+    bic: NaN,
+    lackOfFit: null,
+    residuals: new Float64Array(site.n).fill(NaN),
+    fitted: new Float64Array(site.n).fill(NaN),
+    curve: { rateKgHa: new Float64Array(0), yieldKgHa: new Float64Array(0) },
+    covariance: spec.paramNames.map(() => spec.paramNames.map(() => NaN)),
+    paramNames: spec.paramNames.slice(),
+    predict: () => NaN,
+  };
+}
+
+/**
+ * The reason a site cannot carry a model, or null when it can.
+ * @param site - from prepareSite
+ * @param spec - the model's curve
+ * @param minRates - distinct rates the model needs
+ * @returns a message for "too-few-rates", or null
+ */
+export function tooFewRatesMessage(
+  site: PreparedSite,
+  spec: CurveSpec,
+  minRates: number,
+): string | null {
+  const m = site.rates.length;
+  const p = spec.paramNames.length + site.blockDf;
+  if (m < minRates) {
+    return `The ${spec.label.toLowerCase()} model needs at least ${minRates} distinct rates; this site has ${m}.`;
+  }
+  if (site.n <= p) {
+    return `The ${spec.label.toLowerCase()} model has ${p} parameters, so it needs more than ${p} plots; this site has ${site.n}.`;
+  }
+  return null;
+}
+
+/**
+ * Replaces the named parameters by NaN in a finished fit (a join point that the
+ * rates do not identify must not be shown as a number), with their errors.
+ * @param fit - a finished fit
+ * @param names - parameters to blank
+ * @returns the same fit, changed in place
+ */
+export function blankParameters(fit: ModelFit, names: readonly string[]): ModelFit {
+  for (const name of names) {
+    fit.params = { ...fit.params, [name]: NaN };
+    fit.stdErrors[name] = NaN;
+    fit.confidenceIntervals[name] = [NaN, NaN];
+  }
+  return fit;
+}

@@ -1,0 +1,132 @@
+/**
+ * The linear-plateau y = a + b·min(x, x0): a straight rise of slope b (kg grain
+ * per kg nutrient) up to the join point x0 (kg/ha), flat at the plateau a + b x0
+ * beyond it. Fitted globally by profiling x0 (shared/models/searchJoinPoint) with
+ * the inner fit of [1, min(x, x0)] by least squares and b > 0 enforced.
+ *
+ * Statuses (data findings):
+ * - join at or past the highest rate: "no-plateau" (the straight line fits as well)
+ * - join at or below the second-lowest rate: "full-response-at-lowest-rate" (check vs rest;
+ *   every join between the two lowest rates fits equally well)
+ * - best fit flat: "no-response"
+ *
+ * The x0 derivative b·[x > x0] jumps at every rate: the asymptotic errors hold
+ * for x0 strictly between rates and are rough with few rates; prefer the
+ * bootstrap interval for the optimum.
+ */
+import {
+  blankParameters,
+  finishFit,
+  tooFewRatesMessage,
+  unfittedFit,
+  type CurveSpec,
+} from './finishFit';
+import { linearCoefficients } from './linearCoefficients';
+import type { FitOptions, ModelFit, SiteData } from './modelTypes';
+import { prepareSite, type PreparedSite } from './prepareSite';
+import { profileSolver } from './profileSolver';
+import { searchJoinPoint } from './searchJoinPoint';
+
+/** The linear-plateau curve, parameters [a, b, x0]. */
+export const linearPlateauSpec: CurveSpec = {
+  model: 'linearPlateau',
+  label: 'Linear-plateau',
+  formula: 'a + b·min(x, x0)',
+  paramNames: ['a', 'b', 'x0'],
+  value: (x, p) => p[0] + p[1] * Math.min(x, p[2]),
+  gradient: (x, p, out) => {
+    out[0] = 1;
+    out[1] = Math.min(x, p[2]);
+    out[2] = x > p[2] ? p[1] : 0;
+  },
+  r2Kind: 'centered',
+};
+
+/** Relative SSE difference below which two fits count as equally good. */
+const TIE = 1e-10;
+
+/**
+ * Fits the linear-plateau to a prepared site.
+ * @param site - from prepareSite
+ * @param options - confidence level, curve grid
+ * @returns the fit with its status; join and plateau only when "ok"
+ * @example
+ * // see fitLinearPlateau
+ */
+export function fitLinearPlateauPrepared(site: PreparedSite, options: FitOptions): ModelFit {
+  const why = tooFewRatesMessage(site, linearPlateauSpec, 3);
+  if (why) return unfittedFit(site, linearPlateauSpec, why);
+  const rates = site.rates;
+  const m = rates.length;
+  const solver = profileSolver(site, { intercept: true, sign: 'positive' });
+  const g = new Float64Array(m);
+  const sseAt = (x0: number): number => {
+    for (let j = 0; j < m; j++) g[j] = rates[j] < x0 ? rates[j] : x0;
+    return solver.sse(g);
+  };
+  const best = searchJoinPoint(rates, sseAt);
+  const rMax = rates[m - 1];
+  const sseLine = sseAt(rMax);
+
+  let x0 = best.x0;
+  let status: ModelFit['status'] = 'ok';
+  let message: string;
+  if (best.sse >= solver.flatSse * (1 - TIE)) {
+    status = 'no-response';
+    message = 'Yield does not rise with rate: the best linear-plateau is flat.';
+    x0 = rMax;
+  } else if (x0 >= rMax * (1 - 1e-9) || best.sse >= sseLine * (1 - TIE)) {
+    status = 'no-plateau';
+    message = `No plateau within the tested rates: the join lies at or past the highest rate (${rMax} kg/ha), so the straight line fits as well.`;
+    x0 = rMax;
+  } else if (x0 <= rates[1] * (1 + 1e-9)) {
+    status = 'full-response-at-lowest-rate';
+    message = `Full response by the lowest non-zero rate: the join lies between ${rates[0]} and ${rates[1]} kg/ha and these rates cannot place it more precisely.`;
+    x0 = rates[1];
+  } else {
+    message = 'Linear-plateau fitted; join point between tested rates.';
+  }
+  const gFinal = rates.map((r) => Math.min(r, x0));
+  const coef = linearCoefficients(site, [gFinal], true);
+  const params = Float64Array.of(coef.curve[0], coef.curve[1], x0);
+  const [a, b] = params;
+  const ok = status === 'ok';
+  const fit = finishFit({
+    site,
+    spec: linearPlateauSpec,
+    params,
+    blockCoefficients: coef.blocks,
+    status,
+    message,
+    options,
+    joinPoint: ok ? { value: x0, gradient: [0, 0, 1] } : undefined,
+    plateauYield:
+      ok || status === 'full-response-at-lowest-rate'
+        ? { value: a + b * x0, gradient: [1, x0, b] }
+        : undefined,
+    joinBetweenKgHa: status === 'full-response-at-lowest-rate' ? [rates[0], rates[1]] : null,
+    stdErrorNote: ok
+      ? 'The x0 derivative jumps at each tested rate: the asymptotic errors assume x0 stays between the same two rates; prefer the bootstrap interval for the optimum.'
+      : '',
+  });
+  if (status === 'full-response-at-lowest-rate') {
+    // Only the check yield a and the plateau are identified; b and x0 trade off.
+    blankParameters(fit, ['b', 'x0']);
+  } else if (!ok) {
+    blankParameters(fit, ['x0']);
+  }
+  return fit;
+}
+
+/**
+ * Fits the linear-plateau y = a + b·min(x, x0) by a global profiled search (no starting values).
+ * @param data - rates (kg/ha), yields (kg/ha), optional blocks
+ * @param options - blocks, confidence level, curve grid
+ * @returns params {a (kg/ha), b (kg/kg), x0 (kg/ha)}, joinPoint and plateauYield when "ok"
+ * @throws {StatsInputError} for mismatched lengths, non-finite or negative values
+ * @example
+ * fitLinearPlateau({ rateKgHa: [0, 40, 80, 120, 160], yieldKgHa: [6000, 7000, 8000, 8500, 8500] }).joinPoint?.estimate // ≈ 100
+ */
+export function fitLinearPlateau(data: SiteData, options: FitOptions = {}): ModelFit {
+  return fitLinearPlateauPrepared(prepareSite(data, options.blocks ?? 'none'), options);
+}

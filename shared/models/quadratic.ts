@@ -1,0 +1,74 @@
+/**
+ * The quadratic y = a + b x + c x² (c in kg grain per (kg nutrient)² per ha),
+ * fitted by least squares through Householder QR. With c ≥ 0 the curve opens
+ * upward and has no maximum: status "convex".
+ */
+import { finishFit, tooFewRatesMessage, unfittedFit, type CurveSpec } from './finishFit';
+import { linearCoefficients } from './linearCoefficients';
+import type { FitOptions, ModelFit, SiteData } from './modelTypes';
+import { prepareSite, type PreparedSite } from './prepareSite';
+
+/** The quadratic's curve. */
+export const quadraticSpec: CurveSpec = {
+  model: 'quadratic',
+  label: 'Quadratic',
+  formula: 'a + b·x + c·x²',
+  paramNames: ['a', 'b', 'c'],
+  value: (x, p) => p[0] + x * (p[1] + p[2] * x),
+  gradient: (x, _p, out) => {
+    out[0] = 1;
+    out[1] = x;
+    out[2] = x * x;
+  },
+  r2Kind: 'centered',
+};
+
+/**
+ * Fits the quadratic to a prepared site.
+ * @param site - from prepareSite
+ * @param options - confidence level, curve grid
+ * @returns the fit; "convex" when c ≥ 0; "too-few-rates" with fewer than 3 rates
+ * @example
+ * fitQuadraticPrepared(prepareSite({ rateKgHa: [0, 100, 200, 0, 100, 200], yieldKgHa: [5, 8, 9, 5.2, 8.1, 8.9] }, 'none'), {}).status // 'ok'
+ */
+export function fitQuadraticPrepared(site: PreparedSite, options: FitOptions): ModelFit {
+  const why = tooFewRatesMessage(site, quadraticSpec, 3);
+  if (why) return unfittedFit(site, quadraticSpec, why);
+  const x2 = site.rates.map((r) => r * r);
+  const coef = linearCoefficients(site, [site.rates, x2], true);
+  const [a, b, c] = coef.curve;
+  const convex = !(c < 0);
+  const xMax = -b / (2 * c);
+  return finishFit({
+    site,
+    spec: quadraticSpec,
+    params: coef.curve,
+    blockCoefficients: coef.blocks,
+    status: convex ? 'convex' : 'ok',
+    message: convex
+      ? 'The quadratic opens upward (c ≥ 0): it has no maximum, so it gives no optimum.'
+      : 'Quadratic fitted.',
+    options,
+    // The vertex −b/(2c) and its yield a − b²/(4c) play the join and plateau roles.
+    joinPoint: convex ? undefined : { value: xMax, gradient: [0, -1 / (2 * c), b / (2 * c * c)] },
+    plateauYield: convex
+      ? undefined
+      : {
+          value: a - (b * b) / (4 * c),
+          gradient: [1, -b / (2 * c), (b * b) / (4 * c * c)],
+        },
+  });
+}
+
+/**
+ * Fits the quadratic y = a + b x + c x² to a site's plots.
+ * @param data - rates (kg/ha), yields (kg/ha), optional blocks
+ * @param options - blocks, confidence level, curve grid
+ * @returns params {a, b, c}; joinPoint is the vertex −b/(2c) and plateauYield its yield when c < 0
+ * @throws {StatsInputError} for mismatched lengths, non-finite or negative values
+ * @example
+ * fitQuadratic({ rateKgHa: [0, 100, 200, 0, 100, 200], yieldKgHa: [5, 8, 9, 5.2, 8.1, 8.9] }).params.c < 0 // true
+ */
+export function fitQuadratic(data: SiteData, options: FitOptions = {}): ModelFit {
+  return fitQuadraticPrepared(prepareSite(data, options.blocks ?? 'none'), options);
+}
