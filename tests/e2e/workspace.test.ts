@@ -20,4 +20,12 @@ describe('the workspace in chromium', () => {
     await shot(page, '00-frame');
     expect(session.pageErrors).toEqual([]);
   });
+
+  it('reads the demo workbook in the worker', async () => {
+    const { page } = session;
+    await page.getByRole('button', { name: 'Open the demo trial' }).click();
+    await page.getByText(/\d+ sheets/).waitFor({ timeout: 20_000 });
+    await shot(page, '01-demo-read');
+    expect(session.pageErrors).toEqual([]);
+  });
 });

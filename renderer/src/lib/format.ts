@@ -204,3 +204,17 @@ export function yieldDecimalsFor(unit: YieldUnit): number {
 export function rateDecimalsFor(unit: RateUnit): number {
   return rateDecimals[unit];
 }
+
+/**
+ * A file size in the locale, in kB or MB.
+ * @param bytes - size in bytes
+ * @param locale - a BCP 47 tag
+ * @returns e.g. '20.1 kB'
+ * @example
+ * formatFileSize(20602, 'en-US') // '20.1 kB'
+ */
+export function formatFileSize(bytes: number, locale?: string): string {
+  return bytes < 1_000_000
+    ? `${formatNumber(bytes / 1000, 1, locale)} kB`
+    : `${formatNumber(bytes / 1_000_000, 1, locale)} MB`;
+}

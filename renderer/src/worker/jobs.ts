@@ -1,17 +1,38 @@
 // The jobs the analysis worker runs, by name. Plain functions over shared/,
 // so they are tested in node without a worker.
+import type { TrialFileBytes } from '../../../electron/desktopApi';
+import { isImportError } from '../../../shared/import/importError';
+import type { RawWorkbook } from '../../../shared/import/rawWorkbook';
+import { readTrialFile } from '../../../shared/import/readTrialFile';
 import type { JobContext, JobHandler } from '../lib/workerProtocol';
 
+/** One file's outcome: its sheets, or the message to show where the user is looking. */
+export type ReadOutcome =
+  { name: string; ok: true; workbook: RawWorkbook } | { name: string; ok: false; message: string };
+
 /**
- * Measures that the worker answers and reports progress: used by the status
- * bar's first message after start-up, and a cheap end-to-end check of the
- * channel.
+ * Reads trial files into raw workbooks. A file that cannot be read becomes a
+ * message naming it; the others still open.
+ * @param files - names and bytes as the user gave them
+ * @param ctx - progress and cancel
+ * @returns one outcome per file, in the given order
  */
-async function ping(input: { steps: number }, ctx: JobContext): Promise<{ steps: number }> {
-  for (let i = 0; i < input.steps; i++) await ctx.progress(i + 1, input.steps, 'ping');
-  return { steps: input.steps };
+export async function readFiles(files: TrialFileBytes[], ctx: JobContext): Promise<ReadOutcome[]> {
+  const out: ReadOutcome[] = [];
+  for (const [i, file] of files.entries()) {
+    await ctx.progress(i, files.length, file.name);
+    try {
+      out.push({ name: file.name, ok: true, workbook: await readTrialFile(file) });
+    } catch (error) {
+      const message = isImportError(error)
+        ? error.message
+        : `"${file.name}" could not be read (${error instanceof Error ? error.message : String(error)}).`;
+      out.push({ name: file.name, ok: false, message });
+    }
+  }
+  return out;
 }
 
 export const jobHandlers: Record<string, JobHandler> = {
-  ping: ping as JobHandler,
+  readFiles: readFiles as JobHandler,
 };
