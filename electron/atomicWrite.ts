@@ -1,0 +1,77 @@
+/**
+ * Write a file so that at every instant the target is either the old file or
+ * the complete new one, never a half-written mix — even when the process is
+ * killed or the power fails mid-save:
+ *   1. write the bytes to a temporary file in the same folder (a rename is
+ *      only atomic within one file system),
+ *   2. fsync it, so the data is on disk before the name points at it,
+ *   3. rename it over the target (atomic on POSIX and on NTFS),
+ *   4. fsync the folder, so the rename itself survives a crash (POSIX; Windows
+ *      cannot open a folder for fsync and does not need it).
+ * A write that fails removes its temporary file and leaves the target alone.
+ */
+import { randomBytes } from 'node:crypto';
+import { open, rename, unlink } from 'node:fs/promises';
+import path from 'node:path';
+
+/** Bytes written per call, so a large project does not need one giant buffer copy. */
+const CHUNK_BYTES = 1 << 20;
+
+/** The temporary name used for target: hidden, in the same folder, unique per write. */
+export function temporaryNameFor(target: string): string {
+  const dir = path.dirname(target);
+  const suffix = `${process.pid}-${randomBytes(4).toString('hex')}`;
+  return path.join(dir, `.${path.basename(target)}.${suffix}.tmp`);
+}
+
+/**
+ * Atomically replace (or create) target with data.
+ *
+ * @param target absolute path of the file to write
+ * @param data the complete new contents (text is written as UTF-8)
+ * @throws the file system's error (ENOENT for a missing folder, EACCES…); the
+ *   target is then unchanged
+ * @example await writeFileAtomic('/home/ana/trials/North.plotrate', text)
+ */
+export async function writeFileAtomic(target: string, data: Uint8Array | string): Promise<void> {
+  const bytes = typeof data === 'string' ? Buffer.from(data, 'utf8') : data;
+  const temporary = temporaryNameFor(target);
+  const handle = await open(temporary, 'wx', 0o644);
+  try {
+    for (let at = 0; at < bytes.length; at += CHUNK_BYTES) {
+      const end = Math.min(at + CHUNK_BYTES, bytes.length);
+      let done = at;
+      while (done < end) {
+        const { bytesWritten } = await handle.write(bytes, done, end - done, done);
+        done += bytesWritten;
+      }
+    }
+    await handle.sync();
+    await handle.close();
+  } catch (e) {
+    await handle.close().catch(() => undefined);
+    await unlink(temporary).catch(() => undefined);
+    throw e;
+  }
+  try {
+    await rename(temporary, target);
+  } catch (e) {
+    await unlink(temporary).catch(() => undefined);
+    throw e;
+  }
+  await syncFolder(path.dirname(target));
+}
+
+async function syncFolder(dir: string): Promise<void> {
+  if (process.platform === 'win32') return;
+  let handle;
+  try {
+    handle = await open(dir, 'r');
+    await handle.sync();
+  } catch {
+    // Some file systems (network shares, some FUSE mounts) refuse fsync on a
+    // folder; the file itself is already synced, so carry on.
+  } finally {
+    await handle?.close().catch(() => undefined);
+  }
+}

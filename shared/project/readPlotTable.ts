@@ -1,0 +1,145 @@
+import type {
+  CellRef,
+  ColumnRole,
+  CropId,
+  Exclusion,
+  OriginalCell,
+  Plot,
+  PlotTable,
+  SourceFile,
+} from '../table/plotTable';
+import type { FieldReader } from './fieldReader';
+
+const CROPS = [
+  'corn',
+  'wheat',
+  'soybean',
+  'barley',
+  'sorghum',
+  'oats',
+  'canola',
+] as const satisfies readonly CropId[];
+
+const ROLES = [
+  'site',
+  'year',
+  'block',
+  'plot',
+  'treatment',
+  'rate',
+  'yield',
+  'plotWeight',
+  'plotArea',
+  'plotLength',
+  'plotWidth',
+  'moisture',
+  'testWeight',
+  'notes',
+  'exclude',
+  'group',
+] as const satisfies readonly ColumnRole[];
+
+const EXCLUDERS = ['sheet', 'user', 'quality-check'] as const satisfies readonly Exclusion['by'][];
+
+// If the plot table gains a crop or a role, these lines stop compiling until the lists above follow.
+const _allCrops: Exclude<CropId, (typeof CROPS)[number]> extends never ? true : never = true;
+const _allRoles: Exclude<ColumnRole, (typeof ROLES)[number]> extends never ? true : never = true;
+
+/**
+ * Read the list of source files (name, size in bytes, SHA-256 hex).
+ * @throws ProjectFileError naming the field when an entry is malformed
+ */
+export function readSources(r: FieldReader): SourceFile[] {
+  return r.items().map((s) => {
+    const sha256 = s.field('sha256').string();
+    if (!/^[0-9a-f]{64}$/.test(sha256))
+      s.field('sha256').fail('should be 64 lower-case hexadecimal digits (a SHA-256)');
+    const bytes = s.field('bytes').number();
+    if (!Number.isInteger(bytes) || bytes < 0)
+      s.field('bytes').fail(`should be a whole number of bytes ≥ 0, found ${bytes}`);
+    return { name: s.field('name').string(), bytes, sha256 };
+  });
+}
+
+/**
+ * Read and check a plot table stored in a project file, field by field.
+ * @param r reader positioned on the table
+ * @returns the table, typed
+ * @throws ProjectFileError naming the plot and field when anything is malformed
+ */
+export function readPlotTable(r: FieldReader): PlotTable {
+  const ids = new Set<string>();
+  const plots = r
+    .field('plots')
+    .items()
+    .map((p) => {
+      const plot = readPlot(p);
+      if (ids.has(plot.id)) p.field('id').fail(`repeats the plot id "${plot.id}"`);
+      ids.add(plot.id);
+      return plot;
+    });
+  const moisture = r.field('standardMoisturePct').number();
+  if (moisture < 0 || moisture >= 100)
+    r.field('standardMoisturePct').fail(
+      `should be a percentage from 0 to below 100, found ${moisture}`,
+    );
+  return {
+    crop: r.field('crop').oneOf(CROPS),
+    standardMoisturePct: moisture,
+    plots,
+    sources: readSources(r.field('sources')),
+  };
+}
+
+function readPlot(p: FieldReader): Plot {
+  const year = p.field('year').nullableNumber();
+  if (year !== null && !Number.isInteger(year))
+    p.field('year').fail(`should be a whole year, found ${year}`);
+  const groups: Record<string, string> = {};
+  const g = p.field('groups');
+  for (const key of Object.keys(g.object())) groups[key] = g.field(key).string();
+  const original: Partial<Record<ColumnRole, OriginalCell>> = {};
+  const o = p.field('original');
+  for (const key of Object.keys(o.object())) {
+    if (!(ROLES as readonly string[]).includes(key))
+      o.fail(`names "${key}", which is not a column role (${ROLES.join(', ')})`);
+    const cell = o.field(key);
+    original[key as ColumnRole] = {
+      text: cell.field('text').string(),
+      ref: readCellRef(cell.field('ref')),
+    };
+  }
+  const ex = p.field('excluded');
+  const excluded: Exclusion | null =
+    ex.value === null
+      ? null
+      : { reason: ex.field('reason').string(), by: ex.field('by').oneOf(EXCLUDERS) };
+  return {
+    id: p.field('id').string(),
+    site: p.field('site').string(),
+    year,
+    block: p.field('block').nullableString(),
+    plotLabel: p.field('plotLabel').nullableString(),
+    treatment: p.field('treatment').nullableString(),
+    rateKgHa: p.field('rateKgHa').nullableNumber(),
+    yieldKgHa: p.field('yieldKgHa').nullableNumber(),
+    moisturePct: p.field('moisturePct').nullableNumber(),
+    testWeight: p.field('testWeight').nullableNumber(),
+    notes: p.field('notes').nullableString(),
+    groups,
+    excluded,
+    original,
+  };
+}
+
+function readCellRef(r: FieldReader): CellRef {
+  const row = r.field('row').number();
+  if (!Number.isInteger(row) || row < 1)
+    r.field('row').fail(`should be a row number ≥ 1, found ${row}`);
+  return {
+    file: r.field('file').string(),
+    sheet: r.field('sheet').string(),
+    cell: r.field('cell').string(),
+    row,
+  };
+}
