@@ -1,13 +1,8 @@
+import { MODEL_NAMES, type ModelName } from '../models/modelTypes';
 import { PROJECT_FORMAT_NAME, PROJECT_FORMAT_VERSION, type PlotrateProject } from './projectFormat';
 
-/** The response models a new project fits (identifiers as the models module names them). */
-export const DEFAULT_FITTED_MODELS: readonly string[] = [
-  'linear-plateau',
-  'quadratic-plateau',
-  'quadratic',
-  'exponential-rise',
-  'linear',
-];
+/** The response models a new project fits: all of them. */
+export const DEFAULT_FITTED_MODELS: readonly ModelName[] = MODEL_NAMES;
 
 /**
  * An empty project in the current format: nothing imported, no prices yet,

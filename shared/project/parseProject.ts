@@ -1,3 +1,4 @@
+import { MODEL_NAMES } from '../models/modelTypes';
 import { FieldReader, describe } from './fieldReader';
 import { migrateV1toV2 } from './migrateProject';
 import { ProjectFileError } from './projectFileError';
@@ -143,8 +144,9 @@ function readModels(r: FieldReader): ProjectModels {
   const fitted = r
     .field('fitted')
     .items()
-    .map((m) => m.string());
-  const preferred = r.field('preferred').nullableString();
+    .map((m) => m.oneOf(MODEL_NAMES));
+  const pref = r.field('preferred');
+  const preferred = pref.value === null ? null : pref.oneOf(MODEL_NAMES);
   if (preferred !== null && !fitted.includes(preferred))
     r.field('preferred').fail(
       `names "${preferred}", which is not among the fitted models (${fitted.join(', ')})`,

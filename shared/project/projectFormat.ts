@@ -11,6 +11,7 @@
  * step by step (see migrateProject.ts); a file from a newer version is refused
  * with a message rather than guessed at, so nothing is silently dropped.
  */
+import type { ModelName } from '../models/modelTypes';
 import type { PlotTable, SourceFile } from '../table/plotTable';
 
 /** The `format` field every project file carries, so a stray JSON file is recognised as "not a project". */
@@ -53,10 +54,10 @@ export interface ProjectPrices {
 
 /** Which response models to fit and which one the report leads with. */
 export interface ProjectModels {
-  /** Model identifiers to fit, in the order the screen lists them. */
-  fitted: string[];
+  /** Models to fit (names from shared/models), in the order the screen lists them. */
+  fitted: ModelName[];
   /** The model the recommendation uses; null lets the analysis pick by fit. */
-  preferred: string | null;
+  preferred: ModelName | null;
 }
 
 /** Settings of the bootstrap interval around the optimum rate. */
