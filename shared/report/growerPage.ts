@@ -1,0 +1,278 @@
+/**
+ * The printable grower recommendation as structured content: what to apply,
+ * what it should yield, which rates pay nearly as well, the prices assumed,
+ * how sure the estimate is in plain words, what data it rests on, and the
+ * cautions. The PDF (cli/ through pdfkit, laid out by growerPageLayout), the
+ * workbook's print sheet and the screen's HTML preview all draw this one value.
+ */
+import { recommendationCautions } from '../economics/recommendationCautions';
+import { crops } from '../units/crops';
+import { formatQuantity } from '../units/formatQuantity';
+import { products } from '../units/products';
+import { priceWeightName } from './reportSettings';
+import type { TrialReport } from './trialReport';
+import { unitScale } from './unitScale';
+
+/** A label and its value, one line of a facts table. */
+export interface GrowerFact {
+  label: string;
+  value: string;
+}
+
+export interface GrowerPage {
+  /** "Nitrogen rate recommendation". */
+  heading: string;
+  /** The site, or "Region (6 sites)". */
+  subject: string;
+  cropLabel: string;
+  /** The headline: "Apply about 150 lb N/ac". */
+  recommendation: string;
+  /** The same in product, e.g. "≈ 325 lb/ac of Urea 46-0-0"; "" without a product. */
+  productRecommendation: string;
+  /** The recommended rate in display units (rounded as shown); null when there is none. */
+  rate: number | null;
+  rateUnit: string;
+  /** Expected yield, profitable range, return: label/value pairs. */
+  facts: GrowerFact[];
+  /** Grain and nutrient prices and the price ratio used. */
+  prices: GrowerFact[];
+  /** How sure: a short label and a plain sentence built from the bootstrap interval. */
+  certainty: {
+    level: 'fairly sure' | 'moderately sure' | 'not very sure' | 'unknown';
+    text: string;
+  };
+  /** What the estimate rests on, one sentence each. */
+  basis: string[];
+  /** Findings the grower must see (no optimum, capped, defaulted prices). */
+  warnings: string[];
+  cautions: readonly string[];
+  /** Small print: tool, version, date, source files. */
+  footer: string;
+  /** Letter for US units, A4 otherwise. */
+  paper: 'letter' | 'a4';
+}
+
+/**
+ * Rounds a rate to what a spreader or applicator is set to: 5 units (lb/ac or kg/ha;
+ * common practice), 0.5 for g/m².
+ */
+function applicationRound(v: number, rateUnit: string): number {
+  const step = rateUnit === 'g/m2' ? 0.5 : 5;
+  return Math.round(v / step) * step;
+}
+
+/** The price ratio at which the optimum is read, in words a grower uses. */
+function certaintyOf(
+  opt: number,
+  ci: [number, number] | null,
+  fmt: (v: number) => string,
+  level: number,
+): GrowerPage['certainty'] {
+  if (!ci) {
+    return {
+      level: 'unknown',
+      text: 'The data did not allow an uncertainty range for this rate; treat it as a rough guide.',
+    };
+  }
+  const half = (ci[1] - ci[0]) / 2;
+  const rel = opt > 0 ? half / opt : Infinity;
+  const pct = Math.round(level * 100);
+  const range = `between ${fmt(ci[0])} and ${fmt(ci[1])}`;
+  if (rel <= 0.15) {
+    return {
+      level: 'fairly sure',
+      text: `Fairly sure: resampling the plots put the best rate ${range} in ${pct} of 100 cases.`,
+    };
+  }
+  if (rel <= 0.35) {
+    return {
+      level: 'moderately sure',
+      text: `Moderately sure: resampling the plots put the best rate ${range} in ${pct} of 100 cases; the trial cannot pin it down more closely.`,
+    };
+  }
+  return {
+    level: 'not very sure',
+    text: `Not very sure: resampling the plots put the best rate anywhere ${range} in ${pct} of 100 cases. More site-years would narrow this.`,
+  };
+}
+
+/**
+ * Builds the grower page for one site or for the region.
+ * @param report - the assembled analysis
+ * @param which - a site name, or "region" for the across-site rate
+ * @returns the structured page
+ * @throws {RangeError} when the site is not in the report, or "region" is asked without an across-site result
+ * @example
+ * growerPage(report, 'Cedar Bend').recommendation // "Apply about 150 lb N/ac"
+ */
+export function growerPage(report: TrialReport, which: string | 'region'): GrowerPage {
+  const u = unitScale(report.settings.units, report.crop);
+  const ru = report.settings.units.rate;
+  const yu = report.settings.units.yield;
+  const fmtRate = (kgHa: number): string =>
+    formatQuantity(applicationRound(u.rate(kgHa), ru), `${ru}`, 0).replace(ru, nutrientUnit(ru));
+  const fmtYield = (kgHa: number): string => formatQuantity(u.yield(kgHa), yu);
+  const money = (perHa: number): string =>
+    `${perHa < 0 ? '−' : ''}${Math.abs(u.perArea(perHa)).toFixed(2)} per ${u.areaName}`;
+  const { settings, prices } = report;
+  const product = settings.prices.product ? products(settings.prices.product.id) : null;
+  const priceFacts: GrowerFact[] = [
+    {
+      label: 'Grain price',
+      value: `${settings.prices.grainPrice.toFixed(2)} per ${priceWeightName(yu)}`,
+    },
+    product
+      ? {
+          label: 'Product price',
+          value: `${settings.prices.product!.price.toFixed(3)} per ${priceWeightName(ru)} of ${product.label} (${prices.nutrientPriceDisplay.toFixed(3)} per ${priceWeightName(ru)} N)`,
+        }
+      : {
+          label: 'Nitrogen price',
+          value: `${prices.nutrientPriceDisplay.toFixed(3)} per ${priceWeightName(ru)} N`,
+        },
+    {
+      label: 'Price ratio (N : grain)',
+      value: `${prices.priceRatioDisplay.toPrecision(3)} ${prices.priceRatioUnit}`,
+    },
+  ];
+  const footer = `${report.tool.name} ${report.tool.version} · ${report.createdAt.slice(0, 10)} · data: ${report.sources.map((s) => s.name).join(', ')}`;
+  const paper: GrowerPage['paper'] = ru === 'lb/ac' ? 'letter' : 'a4';
+  const warnings = [...report.warnings];
+  const base = {
+    heading: 'Nitrogen rate recommendation',
+    cropLabel: crops(report.crop).label,
+    rateUnit: nutrientUnit(ru),
+    prices: priceFacts,
+    cautions: recommendationCautions,
+    footer,
+    paper,
+  };
+  const productText = (rateKgHa: number): string => {
+    if (!product) return '';
+    const p = applicationRound(u.rate(rateKgHa) / (product.nitrogenPct / 100), ru);
+    return `≈ ${formatQuantity(p, ru, 0)} of ${product.label}`;
+  };
+
+  if (which === 'region') {
+    const a = report.acrossSites;
+    if (!a)
+      throw new RangeError('growerPage: the report has no across-site result to recommend from.');
+    const rate = applicationRound(u.rate(a.bestRateKgHa), ru);
+    return {
+      ...base,
+      subject: `Region (${a.sites.length} sites)`,
+      recommendation: `Apply about ${fmtRate(a.bestRateKgHa)}`,
+      productRecommendation: productText(a.bestRateKgHa),
+      rate,
+      facts: [
+        {
+          label: 'Profitable range',
+          value: `${fmtRate(a.profitableRangeKgHa[0])} to ${fmtRate(a.profitableRangeKgHa[1])}`,
+        },
+        { label: 'Mean yield gain over no N', value: fmtYield(a.meanYieldGainAtBestKgHa) },
+        { label: 'Mean net return over no N', value: money(a.bestMeanReturnPerHa) },
+      ],
+      certainty: spreadCertainty(
+        a.siteOptima.map((o) => o.rateKgHa),
+        fmtRate,
+      ),
+      basis: [
+        `${a.sites.length} sites: ${a.sites.join(', ')}.`,
+        `The rate with the highest net return averaged over the sites' fitted curves; rates within ${money(a.bandPerHa)} of that best return count as profitable.`,
+        ...a.notes,
+      ],
+      warnings,
+    };
+  }
+
+  const s = report.sites.find((x) => x.site === which);
+  if (!s) throw new RangeError(`growerPage: there is no site "${which}" in the report.`);
+  const best = s.models.find((m) => m.model === s.bestModel) ?? null;
+  warnings.push(...s.warnings);
+  const nExcl = s.plots.filter((p) => p.excluded).length;
+  const rates = s.ratesKgHa;
+  const basis = [
+    `${s.n} plots (${s.designText}) at rates from ${fmtRate(rates[0] ?? 0)} to ${fmtRate(rates[rates.length - 1] ?? 0)}.`,
+    nExcl > 0
+      ? `${nExcl} plot${nExcl === 1 ? '' : 's'} left out: ${[...new Set(s.plots.filter((p) => p.excluded).map((p) => p.excluded!.reason))].join('; ')}.`
+      : 'No plots were left out.',
+    best
+      ? `Response curve: ${best.label.toLowerCase()} (${s.bestModelReason})`
+      : 'No response curve gave a usable optimum.',
+  ];
+  if (!best || best.optimumRateKgHa === null) {
+    return {
+      ...base,
+      subject: s.site,
+      recommendation: 'No rate can be recommended from this trial',
+      productRecommendation: '',
+      rate: null,
+      facts: [],
+      certainty: { level: 'unknown', text: 'There is no estimate to be sure about.' },
+      basis,
+      warnings: [
+        ...warnings,
+        best?.optimumNote || 'Yield did not respond to nitrogen in a way a curve could describe.',
+      ],
+    };
+  }
+  const opt = best.optimumRateKgHa;
+  const facts: GrowerFact[] = [];
+  if (best.yieldAtOptimumKgHa !== null)
+    facts.push({ label: 'Expected yield', value: fmtYield(best.yieldAtOptimumKgHa) });
+  if (s.profitableRangeKgHa) {
+    facts.push({
+      label: 'Profitable range',
+      value: `${fmtRate(s.profitableRangeKgHa[0])} to ${fmtRate(s.profitableRangeKgHa[1])}`,
+    });
+  }
+  if (s.returnAtOptimumPerHa !== null)
+    facts.push({ label: 'Net return over no N', value: money(s.returnAtOptimumPerHa) });
+  if (best.optimumNote) warnings.push(best.optimumNote);
+  const ci = s.bootstrap?.ciKgHa ?? null;
+  const cert = certaintyOf(
+    u.rate(opt),
+    ci ? [u.rate(ci[0]), u.rate(ci[1])] : null,
+    (v) => `${formatQuantity(applicationRound(v, ru), ru, 0).replace(ru, nutrientUnit(ru))}`,
+    s.bootstrap?.level ?? 0.9,
+  );
+  return {
+    ...base,
+    subject: s.site,
+    recommendation: `Apply about ${fmtRate(opt)}`,
+    productRecommendation: productText(opt),
+    rate: applicationRound(u.rate(opt), ru),
+    facts,
+    certainty: cert,
+    basis,
+    warnings,
+  };
+}
+
+/** "lb/ac" → "lb N/ac": the rate is of nutrient, and the page says so. */
+function nutrientUnit(rateUnit: string): string {
+  const [w, a] = rateUnit.split('/');
+  return a ? `${w} N/${a}` : rateUnit;
+}
+
+/** For the region: how far apart the site optima are, in words. */
+function spreadCertainty(
+  optimaKgHa: number[],
+  fmt: (v: number) => string,
+): GrowerPage['certainty'] {
+  if (optimaKgHa.length < 2)
+    return { level: 'unknown', text: 'Only one site: no spread between sites to judge by.' };
+  const sorted = [...optimaKgHa].sort((a, b) => a - b);
+  const lo = sorted[0];
+  const hi = sorted[sorted.length - 1];
+  const mid = sorted[Math.floor(sorted.length / 2)];
+  const rel = mid > 0 ? (hi - lo) / 2 / mid : Infinity;
+  const text = `The best rate at single sites ranged from ${fmt(lo)} to ${fmt(hi)}.`;
+  if (rel <= 0.15)
+    return { level: 'fairly sure', text: `Fairly sure: ${text} The sites agree closely.` };
+  if (rel <= 0.35) return { level: 'moderately sure', text: `Moderately sure: ${text}` };
+  return {
+    level: 'not very sure',
+    text: `Not very sure: ${text} Fields differ a lot; a field's own trial or test tells more.`,
+  };
+}

@@ -1,0 +1,136 @@
+/**
+ * The choices a report is made with: display units, crop, prices, bootstrap
+ * size and seed, block terms. Prices are given the way the trade quotes them
+ * in the chosen units (grain per bushel or per tonne, nitrogen per lb or per
+ * kg of N, or a product per lb or kg of product) and turned here into the one
+ * price ratio the economics uses.
+ */
+import type { BlockTerms } from '../models/modelTypes';
+import type { CropId } from '../table/plotTable';
+import { rateFromKgHa, type RateUnit } from '../units/convertRate';
+import { yieldFromKgHa, type YieldUnit } from '../units/convertYield';
+import { crops } from '../units/crops';
+import { products, type ProductId } from '../units/products';
+import { KG_PER_LB, KG_PER_T } from '../units/unitConstants';
+
+/** The units numbers are shown in (JSON, workbook, PDF). */
+export interface ReportUnits {
+  rate: RateUnit;
+  yield: YieldUnit;
+}
+
+/** Prices as the user gave them, in the currency unit per weight of `ReportUnits`. */
+export interface PriceInput {
+  /** Grain price per weight unit of the yield unit: $/bu for bu/ac, $/t for t/ha, $/kg for kg/ha, $/lb for lb/ac. */
+  grainPrice: number;
+  /** Nutrient price per weight unit of the rate unit ($/lb N for lb/ac, $/kg N for kg/ha); null when a product price is given. */
+  nutrientPrice: number | null;
+  /** A product and its price per lb (lb/ac) or kg (kg/ha) of product; null when a nutrient price is given. */
+  product: { id: ProductId; price: number } | null;
+  /** True when the prices are the built-in illustrative ones, not the user's. */
+  defaulted: boolean;
+}
+
+export interface ReportSettings {
+  units: ReportUnits;
+  /** "us" or "metric" when the user chose a system; null when the input's own units are kept. */
+  unitSystem: 'us' | 'metric' | null;
+  crop: CropId;
+  prices: PriceInput;
+  /** Bootstrap resamples for the optimum's interval (0 = none). */
+  boot: number;
+  seed: number;
+  blocks: BlockTerms;
+  /** Level of the optimum interval, e.g. 0.9. */
+  intervalLevel: number;
+}
+
+/** What one unit of the yield unit weighs, kg (bushel by the crop's standard weight). */
+export function yieldUnitKg(unit: YieldUnit, crop: CropId): number {
+  switch (unit) {
+    case 'bu/ac':
+      return crops(crop).bushelLb * KG_PER_LB;
+    case 'lb/ac':
+      return KG_PER_LB;
+    case 't/ha':
+      return KG_PER_T;
+    default:
+      return 1;
+  }
+}
+
+/** What one unit of the rate unit's weight is, kg (lb for lb/ac, kg otherwise). */
+export function rateUnitKg(unit: RateUnit): number {
+  return unit === 'lb/ac' ? KG_PER_LB : 1;
+}
+
+/** Name of the weight unit a price is quoted per, for labels ("bu", "t", "lb", "kg"). */
+export function priceWeightName(unit: YieldUnit | RateUnit): string {
+  return unit === 'bu/ac' ? 'bu' : unit === 't/ha' ? 't' : unit === 'lb/ac' ? 'lb' : 'kg';
+}
+
+/** The prices turned into what the economics needs. */
+export interface PriceTerms {
+  /** Nutrient price, $ per kg of N. */
+  nutrientPricePerKg: number;
+  /** Grain price, $ per kg of grain at standard moisture. */
+  grainPricePerKg: number;
+  /** Price ratio, kg grain per kg N (canonical). */
+  priceRatioKgPerKg: number;
+  /** Price ratio in the report's yield unit per rate unit (e.g. bu per lb N). */
+  priceRatioDisplay: number;
+  /** Unit text of `priceRatioDisplay`, e.g. "bu/lb N". */
+  priceRatioUnit: string;
+  /** Nutrient price in the report's units ($/lb N or $/kg N). */
+  nutrientPriceDisplay: number;
+}
+
+/**
+ * Turns user prices into the nutrient and grain price per kg and the price ratio.
+ * PR = nutrient price / grain price (design notes, "Economic optimum").
+ * @param settings - units, crop and prices
+ * @returns prices per kg and the price ratio, canonical and in display units
+ * @throws {RangeError} when a price is missing, zero or negative (naming the option)
+ * @example
+ * // $0.50/lb N and $4.00/bu corn: PR = 0.125 bu/lb N
+ * priceTerms(settings).priceRatioDisplay // 0.125
+ */
+export function priceTerms(
+  settings: Pick<ReportSettings, 'units' | 'crop' | 'prices'>,
+): PriceTerms {
+  const { units, crop, prices } = settings;
+  if (!(prices.grainPrice > 0)) {
+    throw new RangeError(`The grain price must be a positive number; got ${prices.grainPrice}.`);
+  }
+  let nutrientPerRateWeight: number;
+  if (prices.product) {
+    if (!(prices.product.price > 0)) {
+      throw new RangeError(
+        `The product price must be a positive number; got ${prices.product.price}.`,
+      );
+    }
+    // Price of the nutrient in it: product price ÷ N fraction.
+    nutrientPerRateWeight = prices.product.price / (products(prices.product.id).nitrogenPct / 100);
+  } else {
+    if (prices.nutrientPrice === null || !(prices.nutrientPrice > 0)) {
+      throw new RangeError(
+        `The nutrient price must be a positive number; got ${String(prices.nutrientPrice)}.`,
+      );
+    }
+    nutrientPerRateWeight = prices.nutrientPrice;
+  }
+  const nutrientPricePerKg = nutrientPerRateWeight / rateUnitKg(units.rate);
+  const grainPricePerKg = prices.grainPrice / yieldUnitKg(units.yield, crop);
+  const priceRatioKgPerKg = nutrientPricePerKg / grainPricePerKg;
+  // The ratio is "yield per rate", so it converts like yield over rate.
+  const priceRatioDisplay =
+    yieldFromKgHa(priceRatioKgPerKg, units.yield, crop) / rateFromKgHa(1, units.rate);
+  return {
+    nutrientPricePerKg,
+    grainPricePerKg,
+    priceRatioKgPerKg,
+    priceRatioDisplay,
+    priceRatioUnit: `${priceWeightName(units.yield)}/${priceWeightName(units.rate)} N`,
+    nutrientPriceDisplay: nutrientPerRateWeight,
+  };
+}

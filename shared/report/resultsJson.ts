@@ -1,0 +1,156 @@
+/**
+ * The results file: a stable JSON schema for scripts and archives. Fields are
+ * only ever added, never renamed (README "Results format"). Every number is in
+ * the units named in `settings.units`; money in the currency the prices were
+ * given in, per acre with US rates and per hectare otherwise.
+ */
+import type { ModelName, FitStatus } from '../models/modelTypes';
+import type { TrialReport } from './trialReport';
+import { unitScale } from './unitScale';
+
+export interface ResultsModel {
+  model: ModelName;
+  status: FitStatus;
+  params: Record<string, number>;
+  stdErrors: Record<string, number>;
+  /** Residual sum of squares in (yield unit)². */
+  sse: number;
+  dfResidual: number;
+  aicc: number;
+  optimumRate: number | null;
+  optimumCI: [number, number] | null;
+  yieldAtOptimum: number | null;
+}
+
+export interface ResultsSite {
+  site: string;
+  n: number;
+  interceptTest: { t: number; F: number; df1: number; df2: number; p: number } | null;
+  lackOfFit: { model: ModelName; F: number; df1: number; df2: number; p: number } | null;
+  bestModel: ModelName | null;
+  models: ResultsModel[];
+  warnings: string[];
+}
+
+export interface ResultsJson {
+  tool: { name: string; version: string };
+  settings: {
+    units: { rate: string; yield: string };
+    crop: string;
+    grainPrice: number;
+    nutrientPrice: number;
+    priceRatio: number;
+    priceRatioUnit: string;
+    product: { id: string; price: number } | null;
+    boot: number;
+    seed: number;
+    blocks: string;
+  };
+  sites: ResultsSite[];
+  acrossSites: {
+    sites: string[];
+    bestRate: number;
+    profitableRange: [number, number];
+    bestMeanReturn: number;
+    returnUnit: string;
+    siteOptima: { site: string; rate: number }[];
+  } | null;
+}
+
+/** Rounds away binary noise (12 significant digits) so the file diffs cleanly. */
+function clean(v: number): number {
+  return Number.isFinite(v) ? Number(v.toPrecision(12)) : v;
+}
+
+function cleanOrNull(v: number | null): number | null {
+  return v === null || !Number.isFinite(v) ? null : clean(v);
+}
+
+/**
+ * Builds the results JSON value from a report.
+ * @param report - the assembled analysis (canonical units)
+ * @returns the schema value in the report's display units; `JSON.stringify` it to write
+ * @example
+ * resultsJson(report).settings.units // { rate: 'lb/ac', yield: 'bu/ac' }
+ */
+export function resultsJson(report: TrialReport): ResultsJson {
+  const u = unitScale(report.settings.units, report.crop);
+  const fy2 = u.yield(1) ** 2;
+  const { prices, settings } = report;
+  return {
+    tool: { ...report.tool },
+    settings: {
+      units: { rate: settings.units.rate, yield: settings.units.yield },
+      crop: report.crop,
+      grainPrice: clean(settings.prices.grainPrice),
+      nutrientPrice: clean(prices.nutrientPriceDisplay),
+      priceRatio: clean(prices.priceRatioDisplay),
+      priceRatioUnit: prices.priceRatioUnit,
+      product: settings.prices.product ? { ...settings.prices.product } : null,
+      boot: settings.boot,
+      seed: settings.seed,
+      blocks: settings.blocks,
+    },
+    sites: report.sites.map((s) => ({
+      site: s.site,
+      n: s.n,
+      interceptTest: s.interceptTest
+        ? {
+            t: clean(s.interceptTest.t),
+            F: clean(s.interceptTest.F),
+            df1: s.interceptTest.df1,
+            df2: s.interceptTest.df2,
+            p: clean(s.interceptTest.p),
+          }
+        : null,
+      lackOfFit: s.lackOfFit.available
+        ? {
+            model: s.lackOfFit.model,
+            F: clean(s.lackOfFit.F),
+            df1: s.lackOfFit.df1,
+            df2: s.lackOfFit.df2,
+            p: clean(s.lackOfFit.p),
+          }
+        : null,
+      bestModel: s.bestModel,
+      models: s.models.map((m) => ({
+        model: m.model,
+        status: m.status,
+        params: Object.fromEntries(
+          Object.entries(m.params).map(([k, v]) => [k, clean(u.param(m.model, k, v))]),
+        ),
+        stdErrors: Object.fromEntries(
+          Object.entries(m.stdErrors).map(([k, v]) => [k, clean(u.param(m.model, k, v))]),
+        ),
+        sse: clean(m.sse * fy2),
+        dfResidual: m.dfResidual,
+        // AICc changes by a constant with the unit (n·ln of the squared factor); keep it comparable within the file.
+        aicc: clean(m.aicc + s.n * Math.log(fy2)),
+        optimumRate: cleanOrNull(m.optimumRateKgHa === null ? null : u.rate(m.optimumRateKgHa)),
+        optimumCI: m.optimumCiKgHa
+          ? [clean(u.rate(m.optimumCiKgHa[0])), clean(u.rate(m.optimumCiKgHa[1]))]
+          : null,
+        yieldAtOptimum: cleanOrNull(
+          m.yieldAtOptimumKgHa === null ? null : u.yield(m.yieldAtOptimumKgHa),
+        ),
+      })),
+      warnings: [...s.warnings],
+    })),
+    acrossSites: report.acrossSites
+      ? {
+          sites: [...report.acrossSites.sites],
+          bestRate: clean(u.rate(report.acrossSites.bestRateKgHa)),
+          profitableRange: [
+            clean(u.rate(report.acrossSites.profitableRangeKgHa[0])),
+            clean(u.rate(report.acrossSites.profitableRangeKgHa[1])),
+          ],
+          bestMeanReturn: clean(u.perArea(report.acrossSites.bestMeanReturnPerHa)),
+          returnUnit: `currency/${u.areaName}`,
+          siteOptima: report.acrossSites.siteOptima.map((o) => ({
+            site: o.site,
+            rate: clean(u.rate(o.rateKgHa)),
+          })),
+        }
+      : null,
+  };
+}

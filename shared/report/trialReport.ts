@@ -1,0 +1,168 @@
+/**
+ * Everything the report writers (workbook, grower page, PDF, JSON) read: one
+ * value assembled from the engine's results by analyzeTrials. Numbers are in
+ * canonical units (rates and yields kg/ha, money per ha) with the unit in the
+ * field name; each writer converts to the display units in `settings.units`.
+ * Keeping the writers on this one summary means a change inside an engine
+ * stage touches only analyzeTrials, not every writer.
+ */
+import type { ModelName, FitStatus } from '../models/modelTypes';
+import type { Plot, SourceFile, CropId } from '../table/plotTable';
+import type { ReportSettings, PriceTerms } from './reportSettings';
+
+/** One model's fit at one site, as the model table and the JSON show it. */
+export interface ModelRow {
+  model: ModelName;
+  /** Human name, e.g. "Quadratic-plateau". */
+  label: string;
+  status: FitStatus;
+  /** One sentence on the status. */
+  message: string;
+  /** Curve parameters by name, canonical units (kg/ha, kg grain per kg N, ha/kg). */
+  params: Record<string, number>;
+  stdErrors: Record<string, number>;
+  /** Residual sum of squares, (kg/ha)². */
+  sse: number;
+  dfResidual: number;
+  aicc: number;
+  r2: number;
+  /** Economic optimum rate, kg/ha; null when the model gives none. */
+  optimumRateKgHa: number | null;
+  /** Interval of the optimum, kg/ha (bootstrap for the chosen model, else null). */
+  optimumCiKgHa: [number, number] | null;
+  /** Predicted yield at the optimum, kg/ha. */
+  yieldAtOptimumKgHa: number | null;
+  /** Why there is no optimum or it is capped, e.g. "corner: highest tested rate". */
+  optimumNote: string;
+  /** The fitted curve on a grid, kg/ha, for charts. */
+  curve: { rateKgHa: number[]; yieldKgHa: number[] };
+}
+
+/** The intercept test in the units-free form the report shows. */
+export interface InterceptSummary {
+  t: number;
+  F: number;
+  df1: number;
+  df2: number;
+  p: number;
+  interceptKgHa: number;
+  interceptSeKgHa: number;
+  interceptNeeded: boolean;
+  verdict: string;
+}
+
+/** Lack-of-fit of the chosen model against pure error, or why it is not available. */
+export type LackOfFitSummary =
+  | { available: true; model: ModelName; F: number; df1: number; df2: number; p: number }
+  | { available: false; model: ModelName | null; message: string };
+
+/** Treatment mean ± SE by rate, kg/ha. */
+export interface TreatmentMeanRow {
+  rateKgHa: number;
+  n: number;
+  meanKgHa: number;
+  seKgHa: number;
+}
+
+/** One ANOVA source line; ss and ms in (kg/ha)². */
+export interface AnovaRow {
+  source: string;
+  df: number;
+  ss: number;
+  ms: number | null;
+  F: number | null;
+  p: number | null;
+}
+
+export interface AnovaSummary {
+  design: 'rcbd' | 'oneWay';
+  rows: AnovaRow[];
+  cvPercent: number | null;
+  /** Fisher's LSD at 5 %, kg/ha; null when unbalanced (no single LSD). */
+  lsdKgHa: number | null;
+  notes: string[];
+}
+
+/** The bootstrap of the chosen model's optimum. */
+export interface BootstrapSummary {
+  /** Resamples asked for. */
+  count: number;
+  /** Resamples that gave an optimum. */
+  usable: number;
+  seed: number;
+  level: number;
+  ciKgHa: [number, number] | null;
+}
+
+export interface SiteReport {
+  site: string;
+  /** Plots used in the fits. */
+  n: number;
+  /** Every plot of the site, excluded ones too (with reasons). */
+  plots: Plot[];
+  interceptTest: InterceptSummary | null;
+  lackOfFit: LackOfFitSummary;
+  anova: AnovaSummary | null;
+  treatmentMeans: TreatmentMeanRow[];
+  models: ModelRow[];
+  /** Model the recommendation uses; null when none gives a usable optimum. */
+  bestModel: ModelName | null;
+  /** Why it was chosen, one sentence. */
+  bestModelReason: string;
+  bootstrap: BootstrapSummary | null;
+  /**
+   * Rates whose return over the check, from the chosen curve, is within
+   * `bandPerHa` of the best, kg/ha; null without a chosen model.
+   */
+  profitableRangeKgHa: [number, number] | null;
+  /** Net return over the check at the optimum, currency/ha; null without one. */
+  returnAtOptimumPerHa: number | null;
+  /** The site's treatment design in words for the reader, e.g. "4 blocks × 6 rates". */
+  designText: string;
+  /** Tested rates, kg/ha, ascending. */
+  ratesKgHa: number[];
+  /** Findings a reader must see next to the numbers. */
+  warnings: string[];
+}
+
+export interface AcrossSitesReport {
+  sites: string[];
+  /** Rate with the highest mean return over the sites, kg/ha. */
+  bestRateKgHa: number;
+  /** Rates whose mean return is within the band of the best, kg/ha. */
+  profitableRangeKgHa: [number, number];
+  /** Band below the best mean return that defines the range, currency/ha. */
+  bandPerHa: number;
+  bestMeanReturnPerHa: number;
+  meanYieldGainAtBestKgHa: number;
+  /** The regional mean return curve, for the chart. */
+  returnCurve: { rateKgHa: number[]; returnPerHa: number[] };
+  siteOptima: { site: string; rateKgHa: number; returnPerHa: number }[];
+  /** Pooling F-tests: does one response describe every site? */
+  tests: { question: string; F: number; df1: number; df2: number; p: number; verdict: string }[];
+  notes: string[];
+}
+
+/** What a user told import: which header went to which role, in which unit. */
+export interface MappingEntry {
+  file: string;
+  sheet: string;
+  role: string;
+  header: string;
+  unit: string;
+}
+
+export interface TrialReport {
+  tool: { name: string; version: string };
+  /** When the analysis ran, ISO 8601 (given by the caller so tests can fix it). */
+  createdAt: string;
+  crop: CropId;
+  settings: ReportSettings;
+  prices: PriceTerms;
+  sources: SourceFile[];
+  mapping: MappingEntry[];
+  sites: SiteReport[];
+  acrossSites: AcrossSitesReport | null;
+  /** Findings about the whole run (defaulted prices, skipped sites). */
+  warnings: string[];
+}

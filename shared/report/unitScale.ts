@@ -1,0 +1,88 @@
+/**
+ * Canonical numbers (kg/ha) into the report's display units, including the
+ * curve parameters, whose unit follows from their place in the formula: a
+ * yield (a, P, and the exponential's b), a yield per rate (slope b), per rate
+ * squared (c), a rate (x0) or a reciprocal rate (k). Every conversion here is
+ * a scale factor, so standard errors and interval ends convert the same way.
+ */
+import type { ModelName } from '../models/modelTypes';
+import type { CropId } from '../table/plotTable';
+import { rateFromKgHa } from '../units/convertRate';
+import { yieldFromKgHa } from '../units/convertYield';
+import { M2_PER_ACRE, M2_PER_HA } from '../units/unitConstants';
+import type { ReportUnits } from './reportSettings';
+
+/** The dimension of a curve parameter. */
+export type ParamDimension = 'yield' | 'yieldPerRate' | 'yieldPerRate2' | 'rate' | 'perRate';
+
+/**
+ * The dimension of one parameter of one model.
+ * @param model - the model
+ * @param name - the parameter name as the model reports it ("a", "b", "c", "P", "x0", "k")
+ * @returns its dimension
+ * @example
+ * paramDimension('exponential', 'b') // 'yield' (the rise to the asymptote)
+ */
+export function paramDimension(model: ModelName, name: string): ParamDimension {
+  if (name === 'x0') return 'rate';
+  if (name === 'k') return 'perRate';
+  if (name === 'c') return 'yieldPerRate2';
+  if (name === 'b') return model === 'exponential' ? 'yield' : 'yieldPerRate';
+  return 'yield';
+}
+
+/** Converters from canonical kg/ha to the report's units. */
+export interface UnitScale {
+  units: ReportUnits;
+  /** kg/ha of nutrient → display rate unit. */
+  rate: (kgHa: number) => number;
+  /** kg/ha of grain → display yield unit. */
+  yield: (kgHa: number) => number;
+  /** A curve parameter, canonical → display. */
+  param: (model: ModelName, name: string, value: number) => number;
+  /** Unit text of a curve parameter, e.g. "bu/ac per lb/ac". */
+  paramUnit: (model: ModelName, name: string) => string;
+  /** Currency per ha → currency per display area (ac or ha). */
+  perArea: (perHa: number) => number;
+  /** "ac" or "ha". */
+  areaName: string;
+}
+
+/**
+ * Builds the converters for one set of display units.
+ * @param units - display rate and yield units
+ * @param crop - the crop (bushel weight for bu/ac)
+ * @returns converters
+ * @example
+ * unitScale({ rate: 'lb/ac', yield: 'bu/ac' }, 'corn').rate(112.085) // ≈ 100
+ */
+export function unitScale(units: ReportUnits, crop: CropId): UnitScale {
+  const fy = yieldFromKgHa(1, units.yield, crop);
+  const fr = rateFromKgHa(1, units.rate);
+  const factor: Record<ParamDimension, number> = {
+    yield: fy,
+    yieldPerRate: fy / fr,
+    yieldPerRate2: fy / (fr * fr),
+    rate: fr,
+    perRate: 1 / fr,
+  };
+  const unitText: Record<ParamDimension, string> = {
+    yield: units.yield,
+    yieldPerRate: `${units.yield} per ${units.rate}`,
+    yieldPerRate2: `${units.yield} per (${units.rate})²`,
+    rate: units.rate,
+    perRate: `1/(${units.rate})`,
+  };
+  // lb/ac rates imply acres; every other rate unit here is per hectare or m².
+  const perAcre = units.rate === 'lb/ac';
+  const HA_PER_AC = M2_PER_ACRE / M2_PER_HA;
+  return {
+    units,
+    rate: (v) => v * fr,
+    yield: (v) => v * fy,
+    param: (model, name, value) => value * factor[paramDimension(model, name)],
+    paramUnit: (model, name) => unitText[paramDimension(model, name)],
+    perArea: (v) => (perAcre ? v * HA_PER_AC : v),
+    areaName: perAcre ? 'ac' : 'ha',
+  };
+}

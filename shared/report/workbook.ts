@@ -1,0 +1,76 @@
+/**
+ * The report workbook, written with exceljs to bytes (no file system here):
+ * Overview (with the cautions), one sheet per site, Across sites, Economics,
+ * Recommendations (print-ready grower pages) and Provenance. Numbers are in
+ * the report's display units, converted from canonical kg/ha.
+ */
+import ExcelJS from 'exceljs';
+import { growerPage, type GrowerPage } from './growerPage';
+import type { TrialReport } from './trialReport';
+import { unitScale } from './unitScale';
+import { workbookAcrossSites } from './workbookAcrossSites';
+import { workbookEconomics } from './workbookEconomics';
+import { sheetName } from './workbookFormat';
+import { workbookGrowerSheet } from './workbookGrowerSheet';
+import { workbookOverview } from './workbookOverview';
+import { workbookProvenance } from './workbookProvenance';
+import { workbookSite, type SheetImage } from './workbookSite';
+
+export interface WorkbookOptions {
+  /** Chart pictures by site name (PNG bytes drawn by the caller). */
+  siteCharts?: Record<string, SheetImage>;
+  /** The regional return chart picture. */
+  acrossChart?: SheetImage | null;
+}
+
+/**
+ * The grower pages a report prints: one per site with a recommendation, then the region.
+ * @param report - the analysis
+ * @returns the pages in print order
+ */
+export function reportGrowerPages(report: TrialReport): GrowerPage[] {
+  const pages = report.sites.map((s) => growerPage(report, s.site));
+  if (report.acrossSites) pages.push(growerPage(report, 'region'));
+  return pages;
+}
+
+/**
+ * Writes the report workbook.
+ * @param report - the assembled analysis (canonical units inside)
+ * @param options - chart pictures to embed
+ * @returns .xlsx bytes
+ * @example
+ * const bytes = await writeWorkbook(report, { siteCharts });
+ */
+export async function writeWorkbook(
+  report: TrialReport,
+  options: WorkbookOptions = {},
+): Promise<Uint8Array> {
+  const wb = new ExcelJS.Workbook();
+  wb.creator = `${report.tool.name} ${report.tool.version}`;
+  // A fixed time from the report (not "now") keeps the file the same for the same analysis.
+  const when = new Date(report.createdAt);
+  wb.created = when;
+  wb.modified = when;
+  const u = unitScale(report.settings.units, report.crop);
+  const paper = report.settings.units.rate === 'lb/ac' ? 'letter' : 'a4';
+  const taken = new Set(['overview', 'across sites', 'economics', 'recommendations', 'provenance']);
+  workbookOverview(wb, report, u, paper);
+  for (const s of report.sites) {
+    workbookSite(
+      wb,
+      sheetName(s.site, taken),
+      s,
+      report,
+      u,
+      paper,
+      options.siteCharts?.[s.site] ?? null,
+    );
+  }
+  workbookAcrossSites(wb, report, u, paper, options.acrossChart ?? null);
+  workbookEconomics(wb, report, paper);
+  workbookGrowerSheet(wb, reportGrowerPages(report), paper);
+  workbookProvenance(wb, report, paper);
+  const buf = await wb.xlsx.writeBuffer();
+  return new Uint8Array(buf as ArrayBuffer);
+}

@@ -1,0 +1,116 @@
+/**
+ * The across-site sheet: the regional rate and its profitable range, each
+ * site's own best rate, the pooling tests and the regional return curve.
+ */
+import type ExcelJS from 'exceljs';
+import type { TrialReport } from './trialReport';
+import type { UnitScale } from './unitScale';
+import type { SheetImage } from './workbookSite';
+import {
+  P_VALUE_FORMAT,
+  fitColumns,
+  rateFormat,
+  setupPage,
+  styleHeaderRow,
+  styleTitle,
+  yieldFormat,
+} from './workbookFormat';
+
+/**
+ * Adds the across-site sheet (or a sheet saying why there is none).
+ * @param wb - the workbook
+ * @param report - the analysis
+ * @param u - display-unit converters
+ * @param paper - paper for printing
+ * @param chart - the regional return chart picture, or null
+ * @returns the sheet
+ */
+export function workbookAcrossSites(
+  wb: ExcelJS.Workbook,
+  report: TrialReport,
+  u: UnitScale,
+  paper: 'letter' | 'a4',
+  chart: SheetImage | null,
+): ExcelJS.Worksheet {
+  const ws = wb.addWorksheet('Across sites');
+  const ru = u.units.rate;
+  const money = `currency/${u.areaName}`;
+  ws.getCell('A1').value = 'Across sites: one rate for the region';
+  styleTitle(ws.getCell('A1'), 14);
+  const a = report.acrossSites;
+  const titles = new Set<number>([1, 2]);
+  if (!a) {
+    ws.getCell('A3').value =
+      'Not computed: it needs at least two sites with a usable response curve.';
+    return ws;
+  }
+  ws.getCell('A2').value =
+    'Mean net return over the zero-N check across the sites’ fitted curves; the profitable range is every rate within the band of the best.';
+  let r = 4;
+  const facts: [string, number, string][] = [
+    [`Regional rate (${ru} N)`, u.rate(a.bestRateKgHa), rateFormat(ru)],
+    [`Profitable range low (${ru} N)`, u.rate(a.profitableRangeKgHa[0]), rateFormat(ru)],
+    [`Profitable range high (${ru} N)`, u.rate(a.profitableRangeKgHa[1]), rateFormat(ru)],
+    [`Band below the best return (${money})`, u.perArea(a.bandPerHa), '0.00'],
+    [
+      `Mean net return at the regional rate (${money})`,
+      u.perArea(a.bestMeanReturnPerHa),
+      '#,##0.00',
+    ],
+    [
+      `Mean yield gain at the regional rate (${u.units.yield})`,
+      u.yield(a.meanYieldGainAtBestKgHa),
+      yieldFormat(u.units.yield),
+    ],
+  ];
+  for (const [label, value, numFmt] of facts) {
+    ws.getCell(r, 1).value = label;
+    ws.getCell(r, 2).value = value;
+    ws.getCell(r, 2).numFmt = numFmt;
+    r++;
+  }
+  r++;
+  ws.getCell(r, 1).value = 'Best rate at each site';
+  styleTitle(ws.getCell(r, 1));
+  titles.add(r++);
+  const h = ws.getRow(r++);
+  h.values = ['Site', `Best rate (${ru} N)`, `Net return there (${money})`];
+  styleHeaderRow(h);
+  for (const o of a.siteOptima) {
+    const row = ws.getRow(r++);
+    row.values = [o.site, u.rate(o.rateKgHa), u.perArea(o.returnPerHa)];
+    row.getCell(2).numFmt = rateFormat(ru);
+    row.getCell(3).numFmt = '#,##0.00';
+  }
+  if (a.tests.length) {
+    r++;
+    ws.getCell(r, 1).value =
+      'Does one response describe every site? (extra-sum-of-squares F-tests)';
+    styleTitle(ws.getCell(r, 1));
+    titles.add(r++);
+    const th = ws.getRow(r++);
+    th.values = ['Question', 'F', 'df1', 'df2', 'p', 'Verdict'];
+    styleHeaderRow(th);
+    for (const t of a.tests) {
+      const row = ws.getRow(r++);
+      row.values = [t.question, t.F, t.df1, t.df2, t.p, t.verdict];
+      row.getCell(2).numFmt = '0.00';
+      row.getCell(5).numFmt = P_VALUE_FORMAT;
+    }
+  }
+  for (const n of a.notes) {
+    ws.getCell(r, 1).value = n;
+    titles.add(r++);
+  }
+  fitColumns(ws, 8, 50, titles);
+  if (chart) {
+    const id = wb.addImage({ buffer: chart.png as never, extension: 'png' });
+    ws.addImage(id, {
+      tl: { col: 4.2, row: 3 },
+      ext: { width: 600, height: (600 * chart.heightPx) / chart.widthPx },
+    });
+  }
+  ws.pageSetup.printArea = `A1:M${Math.max(r, 30)}`;
+  setupPage(ws, paper, 'landscape');
+  return ws;
+}

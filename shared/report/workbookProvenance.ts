@@ -1,0 +1,95 @@
+/**
+ * The provenance sheet: enough to run the same analysis again and get the
+ * same numbers: tool version, time, every source file with its SHA-256, the
+ * column mapping and units, the settings, the bootstrap seed and count, and
+ * every plot left out with its reason.
+ */
+import type ExcelJS from 'exceljs';
+import type { TrialReport } from './trialReport';
+import { fitColumns, setupPage, styleHeaderRow, styleTitle } from './workbookFormat';
+
+/**
+ * Adds the provenance sheet.
+ * @param wb - the workbook
+ * @param report - the analysis
+ * @param paper - paper for printing
+ * @returns the sheet
+ */
+export function workbookProvenance(
+  wb: ExcelJS.Workbook,
+  report: TrialReport,
+  paper: 'letter' | 'a4',
+): ExcelJS.Worksheet {
+  const ws = wb.addWorksheet('Provenance');
+  const s = report.settings;
+  const titles = new Set<number>([1]);
+  ws.getCell('A1').value = 'Provenance: how to repeat this analysis';
+  styleTitle(ws.getCell('A1'), 14);
+  let r = 3;
+  const kv: [string, string | number][] = [
+    ['Tool', report.tool.name],
+    ['Version', report.tool.version],
+    ['Created', report.createdAt],
+    ['Crop', report.crop],
+    ['Rate unit shown', `${s.units.rate} of N`],
+    ['Yield unit shown', s.units.yield],
+    ['Unit system', s.unitSystem ?? 'as in the input'],
+    ['Block terms in the curve fits', s.blocks],
+    ['Bootstrap resamples', s.boot],
+    ['Bootstrap seed', s.seed],
+    ['Interval level', s.intervalLevel],
+    ['Internal units', 'rates kg N/ha; yields kg/ha at the crop’s standard moisture'],
+  ];
+  for (const [k, v] of kv) {
+    ws.getCell(r, 1).value = k;
+    ws.getCell(r, 2).value = v;
+    r++;
+  }
+  r++;
+  ws.getCell(r, 1).value = 'Source files';
+  styleTitle(ws.getCell(r, 1));
+  titles.add(r++);
+  let h = ws.getRow(r++);
+  h.values = ['File', 'Bytes', 'SHA-256'];
+  styleHeaderRow(h);
+  for (const f of report.sources) {
+    ws.getRow(r++).values = [f.name, f.bytes, f.sha256];
+  }
+  r++;
+  ws.getCell(r, 1).value = 'Column mapping';
+  styleTitle(ws.getCell(r, 1));
+  titles.add(r++);
+  h = ws.getRow(r++);
+  h.values = ['File', 'Sheet', 'Role', 'Header', 'Unit'];
+  styleHeaderRow(h);
+  for (const m of report.mapping) {
+    ws.getRow(r++).values = [m.file, m.sheet, m.role, m.header, m.unit];
+  }
+  r++;
+  ws.getCell(r, 1).value = 'Plots left out';
+  styleTitle(ws.getCell(r, 1));
+  titles.add(r++);
+  h = ws.getRow(r++);
+  h.values = ['Site', 'Plot', 'Reason', 'Decided by', 'Source'];
+  styleHeaderRow(h);
+  let any = false;
+  for (const site of report.sites) {
+    for (const p of site.plots) {
+      if (!p.excluded) continue;
+      any = true;
+      const ref = p.original.yield?.ref ?? p.original.rate?.ref;
+      ws.getRow(r++).values = [
+        site.site,
+        p.plotLabel ?? p.id,
+        p.excluded.reason,
+        p.excluded.by,
+        ref ? `${ref.file} ${ref.sheet} ${ref.cell}`.trim() : p.id,
+      ];
+    }
+  }
+  if (!any) ws.getCell(r, 1).value = 'none';
+  fitColumns(ws, 8, 70, titles);
+  ws.views = [{ state: 'frozen', ySplit: 1 }];
+  setupPage(ws, paper, 'portrait');
+  return ws;
+}
