@@ -180,4 +180,21 @@ describe('p-value helpers', () => {
     expectWithin(fisherFUpperP(3.708, 3, 10), 0.05, 1e-4, 'p for F = 3.708 on (3, 10)');
     expectWithin(fisherFUpperP(Infinity, 3, 10), 0, 0, 'p for F = ∞');
   });
+  it('fisherFUpperP keeps its digits in the far tail: F(1, ν) = t² gives the two-sided t p-value', () => {
+    // Identity F(1, ν) = T²(ν) (Johnson, Kotz & Balakrishnan vol. 2, ch. 27); the t tail
+    // is computed directly, so it is an independent route. 1 − cdf would keep ~7 digits here.
+    for (const [t, df] of [
+      [26.9, 8],
+      [12, 30],
+      [40, 5],
+    ]) {
+      const viaT = studentTTwoSidedP(t, df);
+      expectWithin(
+        fisherFUpperP(t * t, 1, df),
+        viaT,
+        1e-11 * viaT,
+        `p for F = ${t}² on (1, ${df})`,
+      );
+    }
+  });
 });
