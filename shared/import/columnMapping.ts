@@ -1,0 +1,67 @@
+/**
+ * The mapping from a workbook's columns to meanings: plain JSON, so a screen
+ * can show it, the user can change any part, and a project can store it and
+ * reuse it for the next file of the same shape ({@link ColumnMapping.shapeSignature}).
+ */
+import type { ColumnRole } from '../table/plotTable';
+
+/** A column's meaning: a plot-table role, a treatment-key field, or nothing. */
+export type MappedRole = ColumnRole | 'product' | 'timing' | 'ignore';
+
+/** Units a header can name. Rates and yields per area; weights, areas, lengths per plot. */
+export type HeaderUnit =
+  | 'kg/ha'
+  | 'lb/ac'
+  | 'g/m2'
+  | 't/ha'
+  | 'bu/ac'
+  | '%'
+  | 'kg'
+  | 'g'
+  | 'lb'
+  | 'm2'
+  | 'ft2'
+  | 'ha'
+  | 'ac'
+  | 'm'
+  | 'ft'
+  | 'lb/bu'
+  | 'kg/hl';
+
+export interface ColumnAssignment {
+  /** 1-based column number. */
+  col: number;
+  /** Column letters, e.g. "D". */
+  letter: string;
+  /** The header text as written. */
+  header: string;
+  role: MappedRole;
+  /** The unit of the values, from the header or guessed from the values (see evidence). */
+  unit: HeaderUnit | null;
+  /** For a rate: product or nutrient (null: use the import settings). */
+  basis?: 'product' | 'nutrient' | null;
+  /** For a yield: "harvest" when weighed wet (adjust with the moisture column) or "standard" when already adjusted. */
+  moistureBasis?: 'harvest' | 'standard';
+  /** Why this role and unit, in words for the user. */
+  evidence: string;
+}
+
+export interface SheetMapping {
+  sheet: string;
+  /** "plots": one plot per row; "treatment-key": treatment number → rate; "ignore". */
+  use: 'plots' | 'treatment-key' | 'ignore';
+  /** 1-based row of the header; 0 when none was found. */
+  headerRow: number;
+  /** Where a plot's site name comes from. */
+  site: { from: 'column' } | { from: 'sheet-name' } | { from: 'fixed'; value: string };
+  columns: ColumnAssignment[];
+  /** Why the sheet got this use. */
+  evidence: string;
+}
+
+export interface ColumnMapping {
+  version: 1;
+  /** Hash of the sheets' uses and header texts: equal for files of the same shape. */
+  shapeSignature: string;
+  sheets: SheetMapping[];
+}

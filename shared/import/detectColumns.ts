@@ -1,0 +1,328 @@
+/**
+ * Finds, for every sheet, the header row (below any title and blank rows),
+ * what each column holds and in which unit, and whether the sheet holds plots,
+ * a treatment key or nothing to import. Every choice carries evidence text for
+ * the user, and the result is plain data the user can change.
+ */
+import type { ColumnRole } from '../table/plotTable';
+import type {
+  ColumnAssignment,
+  ColumnMapping,
+  HeaderUnit,
+  MappedRole,
+  SheetMapping,
+} from './columnMapping';
+import { cellNumber } from './cellNumber';
+import { normaliseHeader, roleFromHeader, unitFromHeader } from './headerWords';
+import { columnLetters, type RawSheet, type RawWorkbook } from './rawWorkbook';
+import { shapeSignature } from './shapeSignature';
+
+/** How many rows from the top are searched for the header. */
+const headerSearchRows = 30;
+
+function headerScore(sheet: RawSheet, r: number): number {
+  const row = sheet.rows[r - 1] ?? [];
+  const roles = new Set<string>();
+  let texts = 0;
+  for (const c of row) {
+    if (!c || c.kind !== 'text') continue;
+    texts++;
+    const m = roleFromHeader(c.text);
+    if (m) roles.add(m.role);
+  }
+  // A title row is one long cell; a header has several short labelled cells.
+  return roles.size >= 2 ? roles.size * 10 + Math.min(texts, 9) : 0;
+}
+
+function findHeaderRow(sheet: RawSheet): number {
+  let best = 0;
+  let bestScore = 0;
+  const last = Math.min(sheet.rows.length, headerSearchRows);
+  for (let r = 1; r <= last; r++) {
+    const s = headerScore(sheet, r);
+    if (s > bestScore) {
+      bestScore = s;
+      best = r;
+    }
+  }
+  return best;
+}
+
+interface ColumnValues {
+  numbers: number[];
+  texts: number;
+  filled: number;
+}
+
+function columnValues(sheet: RawSheet, headerRow: number, col: number): ColumnValues {
+  const out: ColumnValues = { numbers: [], texts: 0, filled: 0 };
+  const end = Math.min(sheet.rows.length, headerRow + 500);
+  for (let r = headerRow + 1; r <= end; r++) {
+    const cell = sheet.rows[r - 1]?.[col - 1];
+    if (!cell) continue;
+    const n = cellNumber(cell, sheet.decimalComma);
+    if (n.status === 'missing') continue;
+    out.filled++;
+    if (n.value !== null) out.numbers.push(n.value);
+    else out.texts++;
+  }
+  return out;
+}
+
+function median(xs: number[]): number {
+  if (xs.length === 0) return NaN;
+  const s = [...xs].sort((a, b) => a - b);
+  const m = s.length >> 1;
+  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
+}
+
+function valuesEvidence(v: ColumnValues): string {
+  return v.filled === 0
+    ? 'no values below the header'
+    : `${v.numbers.length} of ${v.filled} values are numbers`;
+}
+
+const numericRoles = new Set<MappedRole>([
+  'rate',
+  'yield',
+  'plotWeight',
+  'plotArea',
+  'plotLength',
+  'plotWidth',
+  'moisture',
+  'testWeight',
+  'year',
+]);
+
+const allowedUnits: Partial<Record<MappedRole, HeaderUnit[]>> = {
+  rate: ['kg/ha', 'lb/ac', 'g/m2'],
+  yield: ['kg/ha', 't/ha', 'lb/ac', 'bu/ac', 'g/m2'],
+  plotWeight: ['kg', 'g', 'lb'],
+  plotArea: ['m2', 'ft2', 'ha', 'ac'],
+  plotLength: ['m', 'ft'],
+  plotWidth: ['m', 'ft'],
+  moisture: ['%'],
+  testWeight: ['lb/bu', 'kg/hl'],
+};
+
+/** Roles a sheet holds at most one of; a second such column is left for the user to choose. */
+const singleRoles = new Set<MappedRole>([
+  'site',
+  'year',
+  'block',
+  'plot',
+  'treatment',
+  'rate',
+  'yield',
+  'plotWeight',
+  'plotArea',
+  'plotLength',
+  'plotWidth',
+  'moisture',
+  'testWeight',
+  'notes',
+  'exclude',
+  'product',
+  'timing',
+]);
+
+function guessYieldUnit(v: ColumnValues, usHints: boolean): { unit: HeaderUnit; why: string } {
+  const m = median(v.numbers);
+  if (m < 25)
+    return { unit: 't/ha', why: `no unit in the header; values near ${m.toFixed(1)} read as t/ha` };
+  if (m < 400)
+    return {
+      unit: 'bu/ac',
+      why: `no unit in the header; values near ${Math.round(m)} read as bu/ac`,
+    };
+  return usHints
+    ? {
+        unit: 'lb/ac',
+        why: `no unit in the header; values near ${Math.round(m)} with US units elsewhere read as lb/ac`,
+      }
+    : { unit: 'kg/ha', why: `no unit in the header; values near ${Math.round(m)} read as kg/ha` };
+}
+
+function mapSheet(sheet: RawSheet, multipleSheets: boolean): SheetMapping {
+  if (sheet.hidden) {
+    return {
+      sheet: sheet.name,
+      use: 'ignore',
+      headerRow: 0,
+      site: { from: 'sheet-name' },
+      columns: [],
+      evidence: 'hidden sheet; include it by hand if it holds plots',
+    };
+  }
+  const headerRow = findHeaderRow(sheet);
+  if (headerRow === 0) {
+    return {
+      sheet: sheet.name,
+      use: 'ignore',
+      headerRow: 0,
+      site: { from: 'sheet-name' },
+      columns: [],
+      evidence: `no row in the first ${headerSearchRows} names two or more known columns (plot, block, rate, yield, …)`,
+    };
+  }
+  const header = sheet.rows[headerRow - 1];
+  const usHints = header.some((c) => c && /\b(bu|lbs?|ac|acre)\b/.test(normaliseHeader(c.text)));
+  const columns: ColumnAssignment[] = [];
+  const taken = new Map<MappedRole, ColumnAssignment>();
+  header.forEach((cell, i) => {
+    if (!cell || cell.text.trim() === '') return;
+    const col = i + 1;
+    const letter = columnLetters(col);
+    const text = cell.text.trim();
+    const found = roleFromHeader(text);
+    const values = columnValues(sheet, headerRow, col);
+    const a: ColumnAssignment = {
+      col,
+      letter,
+      header: text,
+      role: 'ignore',
+      unit: null,
+      evidence: '',
+    };
+    if (!found) {
+      a.evidence = `header "${text}" names no known column; ${valuesEvidence(values)}`;
+      columns.push(a);
+      return;
+    }
+    a.role = found.role;
+    const why: string[] = [`header word "${found.word}"`];
+    const u = unitFromHeader(text);
+    const allowed = allowedUnits[a.role];
+    if (u && allowed?.includes(u.unit)) {
+      a.unit = u.unit;
+      why.push(`unit "${u.text}"`);
+    } else if (allowed) {
+      // No usable unit in the header: read it from the values.
+      if (a.role === 'yield' && values.numbers.length > 0) {
+        const g = guessYieldUnit(values, usHints);
+        a.unit = g.unit;
+        why.push(g.why);
+      } else if (a.role === 'rate') {
+        a.unit = usHints ? 'lb/ac' : 'kg/ha';
+        why.push(
+          `no unit in the header; ${usHints ? 'US units elsewhere, so lb/ac' : 'taken as kg/ha'}`,
+        );
+      } else if (a.role === 'moisture') {
+        a.unit = '%';
+      } else if (a.role === 'plotWeight') {
+        a.unit = usHints ? 'lb' : 'kg';
+        why.push(`no unit in the header; taken as ${a.unit}`);
+      } else if (a.role === 'plotArea') {
+        a.unit = usHints ? 'ft2' : 'm2';
+        why.push(`no unit in the header; taken as ${a.unit}`);
+      } else if (a.role === 'plotLength' || a.role === 'plotWidth') {
+        a.unit = usHints ? 'ft' : 'm';
+        why.push(`no unit in the header; taken as ${a.unit}`);
+      } else if (a.role === 'testWeight') {
+        a.unit = usHints ? 'lb/bu' : 'kg/hl';
+      }
+    }
+    if (a.role === 'rate') {
+      const h = normaliseHeader(text);
+      a.basis =
+        u?.basis ??
+        (/\bproduct\b/.test(h)
+          ? 'product'
+          : /\b(n|nitrogen)\b/.test(h.replace(/[([{].*?[)\]}]/g, ' '))
+            ? 'nutrient'
+            : null);
+      why.push(
+        a.basis === null
+          ? 'product or nutrient not stated; the import settings decide'
+          : `rates of ${a.basis === 'nutrient' ? 'nutrient (N)' : 'product'}`,
+      );
+    }
+    if (numericRoles.has(a.role)) why.push(valuesEvidence(values));
+    if (singleRoles.has(a.role)) {
+      const first = taken.get(a.role);
+      if (first) {
+        const h = normaliseHeader(text);
+        const std = /\b(dry|adj|adjusted|std|standard)\b|@|\bat\s*\d/.test(h);
+        if (a.role === 'yield' && std && first.moistureBasis !== 'standard') {
+          // An adjusted yield beats a wet one: no moisture arithmetic needed.
+          first.role = 'ignore';
+          first.evidence = `a second yield column ("${text}", ${letter}) is already at standard moisture and is used instead`;
+          taken.set(a.role, a);
+        } else {
+          const role = a.role;
+          a.role = 'ignore';
+          a.evidence = `another "${role}" column (${first.letter}, "${first.header}") comes first; choose this one by hand if it is the right one`;
+          columns.push(a);
+          return;
+        }
+      } else {
+        taken.set(a.role, a);
+      }
+    }
+    if (a.role === 'yield') {
+      const h = normaliseHeader(text);
+      if (/\b(dry|adj|adjusted|std|standard)\b|@|\bat\s*\d/.test(h)) a.moistureBasis = 'standard';
+      else if (/\b(wet|harvest|as is|field|fresh)\b/.test(h)) a.moistureBasis = 'harvest';
+    }
+    a.evidence = why.join('; ');
+    columns.push(a);
+  });
+  // Whether yields are wet follows from the header, or from the presence of a moisture column.
+  const hasMoisture = taken.has('moisture');
+  for (const a of columns) {
+    if (a.role !== 'yield' || a.moistureBasis) continue;
+    a.moistureBasis = hasMoisture ? 'harvest' : 'standard';
+    a.evidence += hasMoisture
+      ? '; a moisture column is present, so yields are taken as weighed at harvest moisture (set "standard" if already adjusted)'
+      : '; no moisture column, so yields are taken as already at standard moisture';
+  }
+  for (const a of columns) {
+    if (a.role === 'plotWeight')
+      a.evidence += '; plot weights are taken as weighed at harvest moisture';
+  }
+  const has = (r: ColumnRole | 'product') => taken.has(r);
+  let use: SheetMapping['use'] = 'ignore';
+  let evidence: string;
+  if (has('yield') || has('plotWeight')) {
+    use = 'plots';
+    evidence = `header in row ${headerRow} with a ${has('yield') ? 'yield' : 'plot weight'} column`;
+  } else if (has('treatment') && (has('rate') || has('product'))) {
+    use = 'treatment-key';
+    evidence = `header in row ${headerRow} with treatment and ${has('rate') ? 'rate' : 'product'} columns and no yield: a treatment key`;
+  } else {
+    evidence = `header in row ${headerRow} but no yield, plot weight or treatment key columns`;
+  }
+  const generic = /^(sheet\s*\d*|data|plots?|yields?|results?|raw|)$/i.test(sheet.name.trim());
+  const site: SheetMapping['site'] = has('site')
+    ? { from: 'column' }
+    : multipleSheets || !generic
+      ? { from: 'sheet-name' }
+      : { from: 'fixed', value: '' };
+  return { sheet: sheet.name, use, headerRow, site, columns, evidence };
+}
+
+/**
+ * Detects the layout of a workbook.
+ * @param raw - a workbook from readTrialFile
+ * @returns a mapping per sheet: header row, column roles and units with evidence, site source,
+ *   and the shape signature for reuse
+ * @example
+ * const m = detectColumns(raw);
+ * m.sheets.find((s) => s.use === 'treatment-key')?.sheet // 'Treatments'
+ */
+export function detectColumns(raw: RawWorkbook): ColumnMapping {
+  const plotsLike = raw.sheets.filter((s) => !s.hidden).length;
+  const sheets = raw.sheets.map((s) => mapSheet(s, plotsLike > 1));
+  const plotSheets = sheets.filter((s) => s.use === 'plots');
+  // One plots sheet without a site column in a file: the site is the file's name.
+  if (plotSheets.length === 1 && plotSheets[0].site.from === 'fixed') {
+    plotSheets[0].site = { from: 'fixed', value: raw.file.name.replace(/\.[^.]+$/, '') };
+  }
+  if (plotSheets.length > 1) {
+    for (const s of plotSheets) {
+      if (s.site.from === 'sheet-name')
+        s.evidence += '; the site is the sheet name (one sheet per site)';
+    }
+  }
+  return { version: 1, shapeSignature: shapeSignature(sheets), sheets };
+}

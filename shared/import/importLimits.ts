@@ -1,0 +1,46 @@
+/**
+ * The limits import holds every file to, so that a hostile or accidental file
+ * (a zip bomb, a sheet of a million rows) is refused with a message instead of
+ * exhausting memory. Each can be raised by the caller; each message names it.
+ */
+
+export interface ImportLimits {
+  /** Largest file accepted, bytes. */
+  maxFileBytes: number;
+  /** Largest total size of an .xlsx's contents once unzipped, bytes. */
+  maxUncompressedBytes: number;
+  /** Most rows accepted in one sheet or CSV file. */
+  maxRows: number;
+  /** Most entries accepted inside an .xlsx zip. */
+  maxZipEntries: number;
+}
+
+/**
+ * Defaults sized for trial sheets: a trial of 10 000 plots is a few MB; these
+ * leave a wide margin while keeping exceljs, which holds the whole unzipped
+ * workbook in memory at several times its size, well inside a desktop's RAM.
+ */
+export const importLimits: Readonly<ImportLimits> = {
+  maxFileBytes: 64 * 1024 * 1024,
+  maxUncompressedBytes: 256 * 1024 * 1024,
+  maxRows: 250_000,
+  maxZipEntries: 2_000,
+};
+
+/**
+ * Formats a byte count for a message ("64 MiB").
+ * @param bytes - a size, bytes
+ * @returns the size in B, KiB, MiB or GiB
+ * @example
+ * formatBytes(64 * 1024 * 1024) // '64 MiB'
+ */
+export function formatBytes(bytes: number): string {
+  const units = ['B', 'KiB', 'MiB', 'GiB'];
+  let v = bytes;
+  let i = 0;
+  while (v >= 1024 && i < units.length - 1) {
+    v /= 1024;
+    i++;
+  }
+  return `${Number.isInteger(v) ? v : v.toFixed(1)} ${units[i]}`;
+}
