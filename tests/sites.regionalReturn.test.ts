@@ -10,11 +10,10 @@ import {
   type SiteGainCurve,
 } from '../shared/sites/regionalReturn';
 import { rateGrid } from '../shared/sites/rateGrid';
-import {
-  regionalRecommendation,
-  REGIONAL_RATE_CAUTIONS,
-} from '../shared/sites/regionalRecommendation';
+import { regionalRecommendation } from '../shared/sites/regionalRecommendation';
+import { recommendationCautions } from '../shared/economics/recommendationCautions';
 import { SitesInputError } from '../shared/sites/sitesInputError';
+import { StatsInputError } from '../shared/stats/errors';
 
 /** A gain curve through the points (x, gain), straight between them. */
 function tabulated(site: string, xs: number[], gains: number[]): SiteGainCurve {
@@ -50,7 +49,7 @@ describe('regionalReturnAtPrices on a two-site example worked by hand', () => {
   const prepared = prepareRegionalReturn(curves, rateGrid(0, 150, 50));
   const r = regionalReturnAtPrices(
     prepared,
-    { grainPerKg: 0.2, nutrientPerKg: 1 },
+    { grainPricePerKg: 0.2, nutrientPricePerKg: 1 },
     { bandPerHa: 25 },
   );
 
@@ -92,7 +91,7 @@ describe('regionalReturnAtPrices on a two-site example worked by hand', () => {
     // the lower rate is taken.
     const dear = regionalReturnAtPrices(
       prepared,
-      { grainPerKg: 0.2, nutrientPerKg: 2 },
+      { grainPricePerKg: 0.2, nutrientPricePerKg: 2 },
       { bandPerHa: 0 },
     );
     expect(dear.bestRateKgHa).toBe(50);
@@ -100,7 +99,7 @@ describe('regionalReturnAtPrices on a two-site example worked by hand', () => {
   });
   it('uses a band of 1 per acre (≈ 2.471 per ha, common practice) by default', () => {
     expect(ONE_PER_ACRE_IN_PER_HA).toBeCloseTo(2.4710538, 6);
-    const d = regionalReturnAtPrices(prepared, { grainPerKg: 0.2, nutrientPerKg: 1 });
+    const d = regionalReturnAtPrices(prepared, { grainPricePerKg: 0.2, nutrientPricePerKg: 1 });
     expect(d.profitableRange.bandPerHa).toBe(ONE_PER_ACRE_IN_PER_HA);
     expect(d.profitableRange).toMatchObject({ lowKgHa: 100, highKgHa: 100 });
   });
@@ -117,12 +116,14 @@ describe('regionalReturnAtPrices properties (fast-check)', () => {
     gainKgHa: (x) => p.c * (Math.min(x - p.x0, 0) ** 2 - p.x0 ** 2),
   });
   const prices = fc.record({
-    grainPerKg: fc.double({ min: 0.08, max: 0.4, noNaN: true }),
-    nutrientPerKg: fc.double({ min: 0.3, max: 2.5, noNaN: true }),
+    grainPricePerKg: fc.double({ min: 0.08, max: 0.4, noNaN: true }),
+    nutrientPricePerKg: fc.double({ min: 0.3, max: 2.5, noNaN: true }),
   });
   const grid = rateGrid(0, 250, 1);
-  const best = (curves: SiteGainCurve[], p: { grainPerKg: number; nutrientPerKg: number }) =>
-    regionalReturnAtPrices(prepareRegionalReturn(curves, grid), p);
+  const best = (
+    curves: SiteGainCurve[],
+    p: { grainPricePerKg: number; nutrientPricePerKg: number },
+  ) => regionalReturnAtPrices(prepareRegionalReturn(curves, grid), p);
 
   it('regionalReturnAtPrices: the best rate and range do not depend on site order', () => {
     fc.assert(
@@ -171,7 +172,7 @@ describe('regionalReturnAtPrices properties (fast-check)', () => {
         expect(r.bestRateKgHa).toBe(r.siteOptima[0].rateKgHa);
         // Closed form for the quadratic-plateau: x* = x0 + PR/(2c), not below 0 (DESIGN.md);
         // the 1 kg/ha grid maximum of a concave curve lies within one step of it.
-        const pr = p.nutrientPerKg / p.grainPerKg;
+        const pr = p.nutrientPricePerKg / p.grainPricePerKg;
         const xStar = Math.min(Math.max(s.x0 + pr / (2 * s.c), 0), 250);
         expect(Math.abs(r.bestRateKgHa - xStar)).toBeLessThanOrEqual(1);
       }),
@@ -181,9 +182,11 @@ describe('regionalReturnAtPrices properties (fast-check)', () => {
 
 describe('regionalReturnAtPrices and rateGrid reject a caller mistake', () => {
   const prepared = prepareRegionalReturn([{ site: 'A', gainKgHa: (x) => x }], rateGrid(0, 10, 1));
-  it('throws bad-price for a zero grain price', () => {
-    expect(() => regionalReturnAtPrices(prepared, { grainPerKg: 0, nutrientPerKg: 1 })).toThrow(
-      new SitesInputError('bad-price', 'grainPerKg is 0; it must be a price above 0.'),
+  it('throws the economics price check for a zero grain price', () => {
+    expect(() =>
+      regionalReturnAtPrices(prepared, { grainPricePerKg: 0, nutrientPricePerKg: 1 }),
+    ).toThrow(
+      new StatsInputError('bad-argument', 'grainPricePerKg must be a positive number; got 0.'),
     );
   });
   it('throws bad-grid for a step of 0', () => {
@@ -191,7 +194,18 @@ describe('regionalReturnAtPrices and rateGrid reject a caller mistake', () => {
   });
   it('throws bad-argument for a negative band', () => {
     expect(() =>
-      regionalReturnAtPrices(prepared, { grainPerKg: 1, nutrientPerKg: 1 }, { bandPerHa: -1 }),
+      regionalReturnAtPrices(
+        prepared,
+        { grainPricePerKg: 1, nutrientPricePerKg: 1 },
+        { bandPerHa: -1 },
+      ),
+    ).toThrow(new SitesInputError('bad-argument', 'bandPerHa is -1; it must be 0 or more.'));
+    expect(() =>
+      regionalReturnAtPrices(
+        prepared,
+        { grainPricePerKg: 1, nutrientPricePerKg: 1 },
+        { bandPerHa: -1 },
+      ),
     ).toThrow(/bandPerHa is -1/);
   });
 });
@@ -205,13 +219,13 @@ describe('regionalRecommendation', () => {
     // PR = 1/0.2 = 5; x* = (5 − 30)/(2·−0.1) = 125 kg/ha.
     const r = regionalReturnAtPrices(
       prepared,
-      { grainPerKg: 0.2, nutrientPerKg: 1 },
+      { grainPricePerKg: 0.2, nutrientPricePerKg: 1 },
       { bandPerHa: 2 },
     );
     const text = regionalRecommendation(r);
     expect(text.sentence).toMatch(/^Across 1 site the highest mean net return .* is at 125 kg\/ha/);
     expect(text.sentence).toMatch(/price ratio of 5\.00 kg grain per kg N/);
-    expect(text.cautions).toBe(REGIONAL_RATE_CAUTIONS);
+    expect(text.cautions).toBe(recommendationCautions);
     expect(text.cautions.join(' ')).toMatch(/ground and surface water/);
     expect(text.cautions.join(' ')).toMatch(/licensed or certified agronomist/);
     expect(text.cautions.join(' ')).toMatch(/nutrient-management plan/);

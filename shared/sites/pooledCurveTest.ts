@@ -28,6 +28,8 @@ export interface CurvePart {
   rateKgHa: ArrayLike<number>;
   /** Yields, kg/ha. */
   yieldKgHa: ArrayLike<number>;
+  /** This part's own fit when already made (e.g. by the site table), so it is not fitted again. */
+  known?: CurveFitOutcome;
 }
 
 /** What a fitter gives back: the SSE and parameter count, or why it could not fit. */
@@ -72,7 +74,8 @@ export function pooledCurveTest(
   let sse = 0;
   let parameters = 0;
   for (const part of parts) {
-    const out = fit(Float64Array.from(part.rateKgHa), Float64Array.from(part.yieldKgHa));
+    const out =
+      part.known ?? fit(Float64Array.from(part.rateKgHa), Float64Array.from(part.yieldKgHa));
     if ('problem' in out) {
       partsLeftOut.push({ site: part.label, reason: out.problem });
       continue;

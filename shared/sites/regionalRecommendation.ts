@@ -3,18 +3,12 @@
  * fertilizer advice: the rate comes from these trials and these prices; soil,
  * weather and management differ; excess nitrogen costs money and can reach
  * ground and surface water; local regulations and nutrient-management plans
- * come first; a licensed or certified agronomist has the last word.
+ * come first; a licensed or certified agronomist has the last word. The
+ * sentences are shared/economics' recommendationCautions, the same list every
+ * rate in Plotrate carries.
  */
+import { recommendationCautions } from '../economics/recommendationCautions';
 import type { RegionalReturn } from './regionalReturn';
-
-/** The cautions that go with every regional rate, in reading order. */
-export const REGIONAL_RATE_CAUTIONS: readonly string[] = [
-  'This rate comes from these trials and the prices entered; it is not a prescription for any one field.',
-  'Soil, weather, previous crop and management differ from field to field and year to year, and so does the best rate.',
-  'Nitrogen beyond what the crop uses costs money and can be lost to ground and surface water.',
-  'Follow local regulations and any nutrient-management plan that applies to the field.',
-  'Ask a licensed or certified agronomist before acting on this rate.',
-];
 
 export interface RegionalRecommendationText {
   /** One or two sentences with the rate, the profitable range and how many sites stand behind it. */
@@ -40,7 +34,7 @@ export function regionalRecommendation(
   if (n === 0 || !Number.isFinite(regional.bestRateKgHa)) {
     return {
       sentence: 'No regional rate: no site has a fitted response to average.',
-      cautions: REGIONAL_RATE_CAUTIONS,
+      cautions: recommendationCautions,
     };
   }
   const { lowKgHa, highKgHa, bandPerHa, contiguous } = regional.profitableRange;
@@ -54,5 +48,5 @@ export function regionalRecommendation(
     `${formatRate(regional.bestRateKgHa)}, at a price ratio of ${pr} kg grain per kg N; ` +
     `rates from ${range} return within ${bandPerHa.toPrecision(3)} per ha of the best` +
     (contiguous ? '.' : ' (with gaps: the mean return curve has more than one peak).');
-  return { sentence, cautions: REGIONAL_RATE_CAUTIONS };
+  return { sentence, cautions: recommendationCautions };
 }

@@ -4,9 +4,10 @@
  * Iowa State University Extension PM 2015). At every rate x of a fine grid and
  * every site s, the net return over the site's zero-rate check is
  *
- *   R_s(x) = p_grain · (ŷ_s(x) − ŷ_s(0)) − p_N · x            (currency/ha)
+ *   R_s(x) = p_grain · (ŷ_s(x) − ŷ_s(0)) − p_N · x − A·[x > 0]     (currency/ha)
  *
- * from the site's fitted curve ŷ_s. The regional curve is the plain mean over
+ * from the site's fitted curve ŷ_s, with A the cost of making an application
+ * at all (shared/economics Prices, default 0). The regional curve is the plain mean over
  * sites, R̄(x) = (1/S) Σ_s R_s(x); the regional rate is the grid rate with the
  * highest R̄, and the profitable range is every grid rate whose R̄ is within a
  * band of that best (1 currency unit per acre, 2.471 per ha, is the usual
@@ -24,6 +25,7 @@
  *   highest rate with `contiguous: false`;
  * - a site optimum is the grid rate with the highest R_s (lowest on ties).
  */
+import { assertPrices, type Prices } from '../economics/priceRatio';
 import { sortedQuantile } from '../stats/quantile';
 import { M2_PER_ACRE, M2_PER_HA } from '../units/unitConstants';
 import { SitesInputError } from './sitesInputError';
@@ -37,14 +39,6 @@ export interface SiteGainCurve {
    * @returns gain, kg/ha
    */
   gainKgHa: (rateKgHa: number) => number;
-}
-
-/** Prices in one currency per kilogram. */
-export interface Prices {
-  /** Grain price, currency per kg of grain at standard moisture. */
-  grainPerKg: number;
-  /** Nutrient price, currency per kg of nutrient (N). */
-  nutrientPerKg: number;
 }
 
 /** A band of 1 currency unit per acre expressed per hectare (≈ 2.471); common practice. */
@@ -145,54 +139,42 @@ function argMaxLowest(values: ArrayLike<number>): number {
   return 0;
 }
 
-function checkPrices(prices: Prices): void {
-  const { grainPerKg, nutrientPerKg } = prices;
-  if (!(Number.isFinite(grainPerKg) && grainPerKg > 0)) {
-    throw new SitesInputError(
-      'bad-price',
-      `grainPerKg is ${grainPerKg}; it must be a price above 0.`,
-    );
-  }
-  if (!(Number.isFinite(nutrientPerKg) && nutrientPerKg >= 0)) {
-    throw new SitesInputError(
-      'bad-price',
-      `nutrientPerKg is ${nutrientPerKg}; it must be a price of 0 or more.`,
-    );
-  }
-}
-
 /**
  * Regional net return, best rate, profitable range and site optima at one set of prices.
  * @param prepared - from prepareRegionalReturn
- * @param prices - grain and nutrient prices, currency per kg
+ * @param prices - grain price (currency/kg grain), nutrient price (currency/kg N), optional
+ *   application cost (currency/ha)
  * @param options - the profitable band, currency/ha (default 1 per acre)
  * @returns the regional return curve and what it recommends
- * @throws {SitesInputError} "bad-price" for a grain price ≤ 0 or a negative nutrient price;
- *   "bad-argument" for a negative or non-finite band
+ * @throws {StatsInputError} "bad-argument" for a price that is not positive (shared/economics)
+ * @throws {SitesInputError} "bad-argument" for a negative or non-finite band
  * @example
- * regionalReturnAtPrices(prepared, { grainPerKg: 0.2, nutrientPerKg: 1 }).bestRateKgHa // e.g. 150
+ * regionalReturnAtPrices(prepared, { grainPricePerKg: 0.2, nutrientPricePerKg: 1 }).bestRateKgHa // e.g. 150
  */
 export function regionalReturnAtPrices(
   prepared: PreparedRegionalReturn,
   prices: Prices,
   options: RegionalReturnOptions = {},
 ): RegionalReturn {
-  checkPrices(prices);
+  assertPrices(prices);
   const bandPerHa = options.bandPerHa ?? ONE_PER_ACRE_IN_PER_HA;
   if (!(Number.isFinite(bandPerHa) && bandPerHa >= 0)) {
     throw new SitesInputError('bad-argument', `bandPerHa is ${bandPerHa}; it must be 0 or more.`);
   }
   const { gridKgHa, gains, meanGainKgHa, sites } = prepared;
-  const { grainPerKg: pg, nutrientPerKg: pn } = prices;
+  const { grainPricePerKg: pg, nutrientPricePerKg: pn } = prices;
+  const app = prices.applicationCostPerHa ?? 0;
   const g = gridKgHa.length;
+  // Nutrient and application cost per grid rate, shared by every site.
+  const cost = Float64Array.from(gridKgHa, (x) => pn * x + (x > 0 ? app : 0));
   const meanReturnPerHa = new Float64Array(g);
-  for (let j = 0; j < g; j++) meanReturnPerHa[j] = pg * meanGainKgHa[j] - pn * gridKgHa[j];
+  for (let j = 0; j < g; j++) meanReturnPerHa[j] = pg * meanGainKgHa[j] - cost[j];
 
   const siteOptima: SiteGridOptimum[] = [];
   const row = new Float64Array(g);
   for (let s = 0; s < gains.length; s++) {
     const gain = gains[s];
-    for (let j = 0; j < g; j++) row[j] = pg * gain[j] - pn * gridKgHa[j];
+    for (let j = 0; j < g; j++) row[j] = pg * gain[j] - cost[j];
     const k = argMaxLowest(row);
     siteOptima.push({ site: sites[s], rateKgHa: gridKgHa[k], returnPerHa: row[k] });
   }

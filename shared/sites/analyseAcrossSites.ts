@@ -1,0 +1,567 @@
+/**
+ * The whole across-site analysis of a plot table in one call: every site fitted
+ * with every model (shared/models), the side-by-side rows, the tests of whether
+ * the sites share one response, the regional rate by maximum return to N, the
+ * share of sites that responded, and the same per group (previous crop, soil,
+ * year) with tests of whether the groups differ. Everything that depends on
+ * prices is kept apart so that repriceAcrossSites() can follow a price slider
+ * without refitting.
+ *
+ * No site is dropped silently: a site with nothing to fit keeps its rows (status
+ * "not-fitted" and the reason), and every test or average that leaves a site out
+ * lists it with the reason.
+ *
+ * "Responded" is defined here as: the site's rate effect (one-way ANOVA of yield
+ * on rate as a factor, with blocks when present; siteRateEffect) is significant
+ * at alpha (default 0.05). It needs no curve, so it does not depend on which
+ * model wins. Sites where it cannot be tested are counted apart, not as "no".
+ */
+import { economicOptimum } from '../economics/economicOptimum';
+import { assertPrices, type Prices } from '../economics/priceRatio';
+import { curveValue } from '../models/curveValue';
+import { fitAllModels, type AllModelsFit } from '../models/fitAllModels';
+import { fitExponential } from '../models/exponential';
+import { fitLinearPlateau } from '../models/linearPlateau';
+import { fitQuadraticPlateau } from '../models/quadraticPlateau';
+import { MODEL_NAMES, type BlockTerms, type ModelFit, type ModelName } from '../models/modelTypes';
+import { StatsInputError } from '../stats/errors';
+import { testIntercept } from '../stats/interceptTest';
+import type { PlotTable } from '../table/plotTable';
+import {
+  testCommonResponse,
+  type CommonResponseTests,
+  type LevelTerms,
+  type SiteLeftOut,
+} from './commonResponseTests';
+import { groupResponseTest, type GroupResponseTest } from './groupResponseTest';
+import {
+  pooledCurveTest,
+  type CurveFitOutcome,
+  type CurvePart,
+  type PooledCurveTest,
+} from './pooledCurveTest';
+import { rateGrid } from './rateGrid';
+import {
+  ONE_PER_ACRE_IN_PER_HA,
+  prepareRegionalReturn,
+  regionalReturnAtPrices,
+  type PreparedRegionalReturn,
+  type RegionalReturn,
+  type SiteGainCurve,
+} from './regionalReturn';
+import { regionalRecommendation, type RegionalRecommendationText } from './regionalRecommendation';
+import { siteRateEffect, type SiteRateEffect } from './siteRateEffect';
+import type { SiteModelRow } from './siteModelRows';
+import { sitePlots, type SitePlots } from './sitePlots';
+import { SitesInputError } from './sitesInputError';
+
+/** Models compared across sites by pooled-versus-separate fits (not linear in all parameters). */
+export type PlateauModel = 'linearPlateau' | 'quadraticPlateau' | 'exponential';
+export const PLATEAU_MODELS: readonly PlateauModel[] = [
+  'linearPlateau',
+  'quadraticPlateau',
+  'exponential',
+];
+
+/** Which curve each site contributes to the regional return: its AICc winner, or one model for all. */
+export type RegionalModelChoice = 'best' | ModelName;
+
+export interface AcrossSiteOptions {
+  /** Grain and nutrient prices (currency/kg) and optional application cost (currency/ha). */
+  prices: Prices;
+  /** Block terms in the site fits: "auto" (default) uses fixed blocks where every plot has a label. */
+  blocks?: 'auto' | BlockTerms;
+  /** Default "best" (each site's AICc winner). */
+  regionalModel?: RegionalModelChoice;
+  /** Grid spacing, kg/ha; default 1 (1 lb/ac is 1.120851 kg/ha). */
+  gridStepKgHa?: number;
+  /** Grid start, kg/ha; default 0. */
+  gridFromKgHa?: number;
+  /** Grid end, kg/ha; default the lowest of the sites' highest tested rates (no curve extrapolated). */
+  gridToKgHa?: number;
+  /** Profitable band below the best mean return, currency/ha; default 1 per acre (common practice). */
+  bandPerHa?: number;
+  /** Significance level of every test and of "responded", default 0.05. */
+  alpha?: number;
+  /** Level terms of the common-response tests, default "site". */
+  levels?: LevelTerms;
+  /** Group columns to analyse (Plot.groups keys, or "year"); default every one present. */
+  groupKeys?: readonly string[];
+}
+
+export interface SiteAnalysis {
+  site: string;
+  /** Analysable plots. */
+  plots: number;
+  /** Why the site could not be fitted at all, or null. */
+  problem: string | null;
+  blocks: BlockTerms;
+  fits: AllModelsFit | null;
+  rateEffect: SiteRateEffect;
+  responded: boolean;
+  /** The straight line's intercept test, or why there is none. */
+  intercept: { p: number; needed: boolean; verdict: string } | { problem: string };
+  groups: Record<string, string | null>;
+}
+
+/** How many sites responded, by the definition in the file header. */
+export interface ResponseShare {
+  definition: string;
+  responded: number;
+  /** Sites where the rate effect could be tested. */
+  assessed: number;
+  /** responded / assessed (NaN when none was assessed). */
+  share: number;
+  notAssessed: SiteLeftOut[];
+}
+
+/** The regional rate of a set of sites and what stands behind it. */
+export interface RegionalAnalysis {
+  regional: RegionalReturn;
+  text: RegionalRecommendationText;
+  /** The site and the model it contributes. */
+  sitesUsed: { site: string; model: ModelName; note: string }[];
+  sitesLeftOut: SiteLeftOut[];
+  /** Price-free part, for repricing. */
+  prepared: PreparedRegionalReturn;
+}
+
+/** The tests of whether sites (or groups) share one response. */
+export interface SharedResponseTests {
+  linear: CommonResponseTests;
+  proportional: CommonResponseTests;
+  quadratic: CommonResponseTests;
+  plateau: Record<PlateauModel, PooledCurveTest>;
+}
+
+export interface GroupValueAnalysis {
+  value: string;
+  sites: string[];
+  regional: RegionalAnalysis;
+  response: ResponseShare;
+  sharedResponse: SharedResponseTests;
+}
+
+export interface GroupAnalysis {
+  key: string;
+  values: GroupValueAnalysis[];
+  /** Sites with no single value in this column, with the reason. */
+  sitesWithoutValue: SiteLeftOut[];
+  /** Do the groups differ? Linear-model tests with site levels, and pooled-vs-group plateau fits. */
+  differ: {
+    linear: GroupResponseTest;
+    quadratic: GroupResponseTest;
+    plateau: Record<PlateauModel, PooledCurveTest>;
+  };
+}
+
+export interface AcrossSiteAnalysis {
+  options: Required<Omit<AcrossSiteOptions, 'gridToKgHa' | 'groupKeys'>> & {
+    gridToKgHa: number | null;
+    groupKeys: readonly string[];
+  };
+  sites: SiteAnalysis[];
+  /** One row per site and model, at the current prices. */
+  rows: SiteModelRow[];
+  sharedResponse: SharedResponseTests;
+  regional: RegionalAnalysis;
+  response: ResponseShare;
+  groups: GroupAnalysis[];
+}
+
+const RESPONDED_DEFINITION =
+  'A site responded when its rate effect (one-way ANOVA of yield on rate as a factor, blocks included when present) is significant at the chosen level.';
+
+const PLATEAU_FITTERS: Record<PlateauModel, (x: Float64Array, y: Float64Array) => ModelFit> = {
+  linearPlateau: (x, y) => fitLinearPlateau({ rateKgHa: x, yieldKgHa: y }),
+  quadraticPlateau: (x, y) => fitQuadraticPlateau({ rateKgHa: x, yieldKgHa: y }),
+  exponential: (x, y) => fitExponential({ rateKgHa: x, yieldKgHa: y }),
+};
+
+const MODEL_LABEL: Record<ModelName, string> = {
+  linear: 'straight line',
+  proportional: 'line through the origin',
+  quadratic: 'quadratic',
+  linearPlateau: 'linear-plateau',
+  quadraticPlateau: 'quadratic-plateau',
+  exponential: 'exponential rise',
+};
+
+function outcomeOf(fit: ModelFit): CurveFitOutcome {
+  if (fit.status === 'too-few-rates') return { problem: fit.message };
+  if (!Number.isFinite(fit.sse))
+    return { problem: `the ${MODEL_LABEL[fit.model]} could not be fitted` };
+  return { sse: fit.sse, parameters: fit.parameterCount };
+}
+
+function siteBlocks(site: SitePlots, choice: 'auto' | BlockTerms): BlockTerms {
+  if (choice !== 'auto') return choice;
+  const labels = new Set(site.block);
+  return site.block.length > 0 && !labels.has(null) && !labels.has('') && labels.size >= 2
+    ? 'fixed'
+    : 'none';
+}
+
+function analyseSite(site: SitePlots, blocks: 'auto' | BlockTerms, alpha: number): SiteAnalysis {
+  const b = siteBlocks(site, blocks);
+  const rateEffect = siteRateEffect(site);
+  const responded = rateEffect.test.kind === 'f-test' && rateEffect.test.p < alpha;
+  let fits: AllModelsFit | null = null;
+  let problem = site.problem;
+  let intercept: SiteAnalysis['intercept'] = { problem: problem ?? '' };
+  if (!problem) {
+    try {
+      fits = fitAllModels(
+        { rateKgHa: site.rateKgHa, yieldKgHa: site.yieldKgHa, block: site.block },
+        { blocks: b },
+      );
+    } catch (e) {
+      // A value the models refuse (e.g. a negative rate) is a data problem of this site.
+      if (!(e instanceof StatsInputError)) throw e;
+      problem = e.message;
+    }
+    try {
+      const t = testIntercept(site.rateKgHa, site.yieldKgHa, alpha);
+      intercept = { p: t.p, needed: t.interceptNeeded, verdict: t.verdict };
+    } catch (e) {
+      if (!(e instanceof StatsInputError)) throw e;
+      intercept = { problem: e.message };
+    }
+  }
+  return {
+    site: site.site,
+    plots: site.yieldKgHa.length,
+    problem,
+    blocks: b,
+    fits,
+    rateEffect,
+    responded,
+    intercept,
+    groups: site.groups,
+  };
+}
+
+/**
+ * The side-by-side rows of a site at given prices.
+ * @param s - the site's analysis
+ * @param prices - canonical prices
+ * @returns one row per model, in MODEL_NAMES order
+ */
+export function siteModelRows(s: SiteAnalysis, prices: Prices): SiteModelRow[] {
+  const interceptP = 'p' in s.intercept ? s.intercept.p : null;
+  const interceptNeeded = 'p' in s.intercept ? s.intercept.needed : null;
+  const rateEffectP = s.rateEffect.test.kind === 'f-test' ? s.rateEffect.test.p : null;
+  const shared = {
+    site: s.site,
+    interceptP,
+    interceptNeeded,
+    cvPct: s.rateEffect.cvPct,
+    rateEffectP,
+    responded: s.responded,
+    groups: s.groups,
+  };
+  return MODEL_NAMES.map((model) => {
+    const fit = s.fits?.fits[model];
+    if (!s.fits || !fit) {
+      return {
+        ...shared,
+        model,
+        status: 'not-fitted',
+        message: s.problem ?? 'not fitted',
+        optimumRateKgHa: null,
+        optimumStatus: 'not-fitted',
+        yieldAtOptimumKgHa: null,
+        plateauYieldKgHa: null,
+        aicc: NaN,
+        aiccRank: null,
+        aiccWinner: false,
+      };
+    }
+    const opt = economicOptimum(fit, prices);
+    const rank = s.fits.ranking.find((r) => r.model === model)?.rank ?? null;
+    return {
+      ...shared,
+      model,
+      status: fit.status,
+      message: fit.message,
+      optimumRateKgHa: opt.rateKgHa,
+      optimumStatus: opt.status,
+      yieldAtOptimumKgHa: opt.yieldKgHa,
+      plateauYieldKgHa: fit.plateauYield?.estimate ?? null,
+      aicc: fit.aicc,
+      aiccRank: rank,
+      aiccWinner: rank === 1,
+    };
+  });
+}
+
+function responseShare(sites: readonly SiteAnalysis[]): ResponseShare {
+  const assessed = sites.filter((s) => s.rateEffect.test.kind === 'f-test');
+  const responded = assessed.filter((s) => s.responded).length;
+  return {
+    definition: RESPONDED_DEFINITION,
+    responded,
+    assessed: assessed.length,
+    share: assessed.length > 0 ? responded / assessed.length : NaN,
+    notAssessed: sites
+      .filter((s) => s.rateEffect.test.kind === 'no-test')
+      .map((s) => ({
+        site: s.site,
+        reason: s.rateEffect.test.kind === 'no-test' ? s.rateEffect.test.reason : '',
+      })),
+  };
+}
+
+/** Each site's gain curve for the regional return, or why it has none. */
+function regionalCurves(
+  sites: readonly SiteAnalysis[],
+  choice: RegionalModelChoice,
+): {
+  used: { site: string; model: ModelName; fit: ModelFit; note: string }[];
+  leftOut: SiteLeftOut[];
+} {
+  const used: { site: string; model: ModelName; fit: ModelFit; note: string }[] = [];
+  const leftOut: SiteLeftOut[] = [];
+  for (const s of sites) {
+    if (!s.fits) {
+      leftOut.push({ site: s.site, reason: s.problem ?? 'not fitted' });
+      continue;
+    }
+    const model = choice === 'best' ? s.fits.best : choice;
+    if (!model) {
+      const reasons = [...new Set(s.fits.ranking.map((r) => r.reason).filter((r) => r))].join(' ');
+      leftOut.push({ site: s.site, reason: `no model could be ranked by AICc. ${reasons}`.trim() });
+      continue;
+    }
+    const fit = s.fits.fits[model];
+    const at0 = curveValue(model, fit.params, 0);
+    const atTop = curveValue(model, fit.params, fit.testedRates.highestKgHa);
+    if (fit.status === 'too-few-rates' || !Number.isFinite(at0) || !Number.isFinite(atTop)) {
+      leftOut.push({
+        site: s.site,
+        reason: `the ${MODEL_LABEL[model]} gives no curve here: ${fit.message}`,
+      });
+      continue;
+    }
+    const note =
+      fit.testedRates.lowestKgHa > 0
+        ? `no plot at rate 0: the check is the ${MODEL_LABEL[model]}'s value at 0, below the lowest tested rate`
+        : '';
+    used.push({ site: s.site, model, fit, note });
+  }
+  return { used, leftOut };
+}
+
+function regionalAnalysis(
+  sites: readonly SiteAnalysis[],
+  o: AcrossSiteAnalysis['options'],
+): RegionalAnalysis {
+  const { used, leftOut } = regionalCurves(sites, o.regionalModel);
+  const top =
+    o.gridToKgHa ??
+    (used.length > 0
+      ? Math.min(...used.map((u) => u.fit.testedRates.highestKgHa))
+      : o.gridFromKgHa);
+  const grid = rateGrid(o.gridFromKgHa, Math.max(top, o.gridFromKgHa), o.gridStepKgHa);
+  const curves: SiteGainCurve[] = used.map((u) => {
+    const at0 = curveValue(u.model, u.fit.params, 0);
+    return { site: u.site, gainKgHa: (x) => curveValue(u.model, u.fit.params, x) - at0 };
+  });
+  const sitesUsed = used.map((u) => {
+    const beyond = u.fit.testedRates.highestKgHa < grid[grid.length - 1];
+    const extra = beyond
+      ? `the grid runs past the site's highest tested rate (${u.fit.testedRates.highestKgHa} kg/ha)`
+      : '';
+    return { site: u.site, model: u.model, note: [u.note, extra].filter((t) => t).join('; ') };
+  });
+  const prepared = prepareRegionalReturn(curves, grid);
+  const regional = regionalReturnAtPrices(prepared, o.prices, { bandPerHa: o.bandPerHa });
+  return {
+    regional,
+    text: regionalRecommendation(regional),
+    sitesUsed,
+    sitesLeftOut: leftOut,
+    prepared,
+  };
+}
+
+function plateauParts(
+  plots: readonly SitePlots[],
+  analyses: ReadonlyMap<string, SiteAnalysis>,
+  model: PlateauModel,
+): CurvePart[] {
+  return plots.map((p) => {
+    const a = analyses.get(p.site);
+    // Reuse the site's own fit when it was made without block terms (the pooled fit has none).
+    const fit = a?.fits && a.blocks === 'none' ? a.fits.fits[model] : undefined;
+    return {
+      label: p.site,
+      rateKgHa: p.rateKgHa,
+      yieldKgHa: p.yieldKgHa,
+      known: fit ? outcomeOf(fit) : undefined,
+    };
+  });
+}
+
+function sharedResponse(
+  plots: readonly SitePlots[],
+  analyses: ReadonlyMap<string, SiteAnalysis>,
+  o: AcrossSiteAnalysis['options'],
+): SharedResponseTests {
+  const usable = plots.filter((p) => !analyses.get(p.site)?.problem);
+  const fitter = (model: PlateauModel) => (x: Float64Array, y: Float64Array) =>
+    outcomeOf(PLATEAU_FITTERS[model](x, y));
+  const plateau = {} as Record<PlateauModel, PooledCurveTest>;
+  for (const model of PLATEAU_MODELS) {
+    const label = MODEL_LABEL[model];
+    plateau[model] = pooledCurveTest(
+      plateauParts(usable, analyses, model),
+      fitter(model),
+      {
+        comparison: `One ${label} per site against one ${label} fitted to the pooled plots`,
+        significant: 'the sites do not share one curve',
+        notSignificant: 'one common curve describes the sites as well',
+      },
+      o.alpha,
+    );
+    for (const p of plots) {
+      const problem = analyses.get(p.site)?.problem;
+      if (problem) plateau[model].partsLeftOut.push({ site: p.site, reason: problem });
+    }
+  }
+  return {
+    linear: testCommonResponse(plots, 'linear', { levels: o.levels, alpha: o.alpha }),
+    proportional: testCommonResponse(plots, 'proportional', { levels: o.levels, alpha: o.alpha }),
+    quadratic: testCommonResponse(plots, 'quadratic', { levels: o.levels, alpha: o.alpha }),
+    plateau,
+  };
+}
+
+function groupAnalysis(
+  key: string,
+  plots: readonly SitePlots[],
+  analyses: ReadonlyMap<string, SiteAnalysis>,
+  o: AcrossSiteAnalysis['options'],
+): GroupAnalysis {
+  const sitesWithoutValue: SiteLeftOut[] = [];
+  const byValue = new Map<string, SitePlots[]>();
+  for (const p of plots) {
+    const v = p.groups[key];
+    if (v === undefined || v === null) {
+      sitesWithoutValue.push({
+        site: p.site,
+        reason:
+          key in p.groups ? `its plots carry different values of ${key}` : `no value of ${key}`,
+      });
+      continue;
+    }
+    const list = byValue.get(v);
+    if (list) list.push(p);
+    else byValue.set(v, [p]);
+  }
+  const values: GroupValueAnalysis[] = [...byValue.entries()].map(([value, members]) => {
+    const sub = members.map((m) => analyses.get(m.site) as SiteAnalysis);
+    return {
+      value,
+      sites: members.map((m) => m.site),
+      regional: regionalAnalysis(sub, o),
+      response: responseShare(sub),
+      sharedResponse: sharedResponse(members, analyses, o),
+    };
+  });
+  const grouped = [...byValue.values()].flat();
+  const groupOf = new Map(grouped.map((p) => [p.site, p.groups[key] as string]));
+  const usable = grouped.filter((p) => !analyses.get(p.site)?.problem);
+  const plateau = {} as Record<PlateauModel, PooledCurveTest>;
+  for (const model of PLATEAU_MODELS) {
+    const label = MODEL_LABEL[model];
+    const parts: CurvePart[] = [...byValue.entries()].map(([value, members]) => {
+      const ok = members.filter((m) => !analyses.get(m.site)?.problem);
+      return {
+        label: value,
+        rateKgHa: Float64Array.from(ok.flatMap((m) => Array.from(m.rateKgHa))),
+        yieldKgHa: Float64Array.from(ok.flatMap((m) => Array.from(m.yieldKgHa))),
+      };
+    });
+    plateau[model] = pooledCurveTest(
+      usable.length > 0 ? parts : [],
+      (x, y) => outcomeOf(PLATEAU_FITTERS[model](x, y)),
+      {
+        comparison: `One ${label} per value of ${key} against one ${label} for all, on pooled plots`,
+        significant: `the groups of ${key} respond differently`,
+        notSignificant: `the groups of ${key} do not differ detectably`,
+      },
+      o.alpha,
+    );
+  }
+  return {
+    key,
+    values,
+    sitesWithoutValue,
+    differ: {
+      linear: groupResponseTest(grouped, groupOf, 'linear', key, o.alpha),
+      quadratic: groupResponseTest(grouped, groupOf, 'quadratic', key, o.alpha),
+      plateau,
+    },
+  };
+}
+
+/**
+ * The across-site analysis of a plot table.
+ * @param source - a plot table (rates and yields in kg/ha), or its sites from sitePlots()
+ * @param options - prices (currency/kg; application cost currency/ha), block terms, regional
+ *   model choice, grid (kg/ha), profitable band (currency/ha), alpha, level terms, group columns
+ * @returns sites, side-by-side rows, shared-response tests, regional rate, response share, groups
+ * @throws {StatsInputError} "bad-argument" for a price that is not positive (shared/economics)
+ * @throws {SitesInputError} "bad-grid" for a bad grid; "bad-argument" for alpha outside (0, 1) or a negative band
+ * @example
+ * const a = analyseAcrossSites(table, { prices: { grainPricePerKg: 0.18, nutrientPricePerKg: 1.1 } });
+ * a.regional.regional.bestRateKgHa   // e.g. 168
+ * a.regional.text.cautions           // always shown with the rate
+ */
+export function analyseAcrossSites(
+  source: PlotTable | readonly SitePlots[],
+  options: AcrossSiteOptions,
+): AcrossSiteAnalysis {
+  const alpha = options.alpha ?? 0.05;
+  if (!(alpha > 0 && alpha < 1)) {
+    throw new SitesInputError(
+      'bad-argument',
+      `alpha is ${alpha}; it must lie strictly between 0 and 1.`,
+    );
+  }
+  const plots = Array.isArray(source)
+    ? (source as readonly SitePlots[])
+    : sitePlots(source as PlotTable);
+  const keys = new Set<string>();
+  for (const p of plots) for (const k of Object.keys(p.groups)) keys.add(k);
+  const o: AcrossSiteAnalysis['options'] = {
+    prices: { ...options.prices },
+    blocks: options.blocks ?? 'auto',
+    regionalModel: options.regionalModel ?? 'best',
+    gridStepKgHa: options.gridStepKgHa ?? 1,
+    gridFromKgHa: options.gridFromKgHa ?? 0,
+    gridToKgHa: options.gridToKgHa ?? null,
+    bandPerHa: options.bandPerHa ?? ONE_PER_ACRE_IN_PER_HA,
+    alpha,
+    levels: options.levels ?? 'site',
+    groupKeys: options.groupKeys ?? [...keys],
+  };
+  // Check prices, band and grid once, before any fitting.
+  assertPrices(o.prices);
+  if (!(Number.isFinite(o.bandPerHa) && o.bandPerHa >= 0)) {
+    throw new SitesInputError('bad-argument', `bandPerHa is ${o.bandPerHa}; it must be 0 or more.`);
+  }
+  rateGrid(o.gridFromKgHa, o.gridToKgHa ?? o.gridFromKgHa, o.gridStepKgHa);
+  const sites = plots.map((p) => analyseSite(p, o.blocks, alpha));
+  const analyses = new Map(sites.map((s) => [s.site, s]));
+  return {
+    options: o,
+    sites,
+    rows: sites.flatMap((s) => siteModelRows(s, o.prices)),
+    sharedResponse: sharedResponse(plots, analyses, o),
+    regional: regionalAnalysis(sites, o),
+    response: responseShare(sites),
+    groups: o.groupKeys.map((k) => groupAnalysis(k, plots, analyses, o)),
+  };
+}

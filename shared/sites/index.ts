@@ -1,0 +1,54 @@
+/**
+ * Across sites: every site fitted with every model side by side, tests of
+ * whether the sites share one response, the regional rate by maximum return to
+ * N (Sawyer et al., 2006), the share of sites that responded, and the same per
+ * group (previous crop, soil, year). Rates and yields in kg/ha, prices in one
+ * currency per kg (shared/economics Prices), returns in currency/ha.
+ *
+ * ```ts
+ * analyseAcrossSites(source: PlotTable | SitePlots[], options: AcrossSiteOptions): AcrossSiteAnalysis
+ *   options = { prices: { grainPricePerKg, nutrientPricePerKg, applicationCostPerHa? },
+ *               blocks?: 'auto' | 'none' | 'fixed',        // 'auto': fixed where every plot has a block
+ *               regionalModel?: 'best' | ModelName,         // each site's AICc winner, or one model for all
+ *               gridStepKgHa?: 1, gridFromKgHa?: 0, gridToKgHa?: lowest of the sites' highest rates,
+ *               bandPerHa?: ONE_PER_ACRE_IN_PER_HA (≈ 2.471, $1/acre: common practice),
+ *               alpha?: 0.05, levels?: 'site' | 'blockWithinSite', groupKeys?: every Plot.groups key + 'year' }
+ *   result  = { sites: SiteAnalysis[]          // one per site, fits (AllModelsFit) or the problem
+ *               rows: SiteModelRow[]           // site × model: optimum, yield at optimum, plateau,
+ *                                              //   AICc rank/winner, intercept p, CV%, rate-effect p
+ *               sharedResponse: { linear, proportional, quadratic: CommonResponseTests,
+ *                                 plateau: { linearPlateau, quadraticPlateau, exponential: PooledCurveTest } }
+ *               regional: { regional: RegionalReturn, text: { sentence, cautions }, sitesUsed, sitesLeftOut }
+ *               response: { definition, responded, assessed, share, notAssessed }
+ *               groups: { key, values: [{ value, sites, regional, response, sharedResponse }],
+ *                         sitesWithoutValue, differ: { linear, quadratic, plateau } }[] }
+ * repriceAcrossSites(analysis, prices, { bandPerHa? }): AcrossSiteAnalysis   // no refit; slider speed
+ * sortSiteRows(rows, key: SiteRowKey, 'asc' | 'desc'): SiteModelRow[]       // stable, empty values last
+ * filterSiteRows(rows, { sites?, models?, statuses?, aiccWinnersOnly?, responded?, group?, siteContains?,
+ *                        optimumBetweenKgHa? }): SiteModelRow[]
+ * ```
+ *
+ * Every test is { result: { kind: 'f-test', df1, df2, f, p, extraSse } | { kind: 'no-test', reason },
+ * sentence } and lists the sites it left out with the reason. RegionalReturn holds the mean
+ * return curve (gridKgHa, meanReturnPerHa), bestRateKgHa, profitableRange { lowKgHa, highKgHa,
+ * bandPerHa, contiguous }, siteOptima and siteOptimumDistribution (min, quartiles, median, max).
+ * Show `regional.text.cautions` wherever the regional rate is shown.
+ *
+ * Building blocks, usable alone: sitePlots, testCommonResponse, groupResponseTest,
+ * pooledCurveTest, siteRateEffect, extraSumOfSquaresTest, prepareRegionalReturn +
+ * regionalReturnAtPrices, rateGrid, regionalRecommendation.
+ */
+export * from './sitesInputError';
+export * from './sitePlots';
+export * from './extraSumOfSquaresTest';
+export * from './describeFTest';
+export * from './commonResponseTests';
+export * from './groupResponseTest';
+export * from './pooledCurveTest';
+export * from './siteRateEffect';
+export * from './rateGrid';
+export * from './regionalReturn';
+export * from './regionalRecommendation';
+export * from './siteModelRows';
+export * from './analyseAcrossSites';
+export * from './repriceAcrossSites';

@@ -1,0 +1,53 @@
+/**
+ * The across-site result at new prices without refitting: the side-by-side
+ * rows' optima come from the stored parameters (shared/economics
+ * economicOptimum, closed forms) and the regional curves from the stored yield
+ * gains (regionalReturnAtPrices), so the cost is a few operations per site and
+ * grid rate, fast enough to follow a price slider (bench/sites.bench.ts).
+ */
+import type { Prices } from '../economics/priceRatio';
+import type { AcrossSiteAnalysis, RegionalAnalysis } from './analyseAcrossSites';
+import { siteModelRows } from './analyseAcrossSites';
+import { regionalReturnAtPrices } from './regionalReturn';
+import { regionalRecommendation } from './regionalRecommendation';
+
+export interface RepriceOptions {
+  /** New profitable band, currency/ha; default the analysis' band. */
+  bandPerHa?: number;
+}
+
+function reprice(r: RegionalAnalysis, prices: Prices, bandPerHa: number): RegionalAnalysis {
+  const regional = regionalReturnAtPrices(r.prepared, prices, { bandPerHa });
+  return { ...r, regional, text: regionalRecommendation(regional) };
+}
+
+/**
+ * The same analysis at other prices; the fits and tests are shared, not copied.
+ * @param analysis - from analyseAcrossSites
+ * @param prices - grain and nutrient price (currency/kg), optional application cost (currency/ha)
+ * @param options - a new profitable band (currency/ha)
+ * @returns a new analysis with rows, regional rates and group regional rates at these prices
+ * @throws {StatsInputError} "bad-argument" for a price that is not positive
+ * @throws {SitesInputError} "bad-argument" for a negative band
+ * @example
+ * const dearer = repriceAcrossSites(a, { grainPricePerKg: 0.18, nutrientPricePerKg: 1.4 });
+ * dearer.regional.regional.bestRateKgHa // lower than at 1.1 per kg N
+ */
+export function repriceAcrossSites(
+  analysis: AcrossSiteAnalysis,
+  prices: Prices,
+  options: RepriceOptions = {},
+): AcrossSiteAnalysis {
+  const bandPerHa = options.bandPerHa ?? analysis.options.bandPerHa;
+  const regional = reprice(analysis.regional, prices, bandPerHa);
+  return {
+    ...analysis,
+    options: { ...analysis.options, prices: { ...prices }, bandPerHa },
+    regional,
+    rows: analysis.sites.flatMap((s) => siteModelRows(s, prices)),
+    groups: analysis.groups.map((g) => ({
+      ...g,
+      values: g.values.map((v) => ({ ...v, regional: reprice(v.regional, prices, bandPerHa) })),
+    })),
+  };
+}

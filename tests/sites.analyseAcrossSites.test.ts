@@ -1,0 +1,146 @@
+// The across-site analysis as a whole, on the invented plots of
+// tests/fixtures/sites/pooled.plots.csv (written by pooled.R with R 4.2.2).
+import { describe, expect, it } from 'vitest';
+import { analyseAcrossSites } from '../shared/sites/analyseAcrossSites';
+import { repriceAcrossSites } from '../shared/sites/repriceAcrossSites';
+import { filterSiteRows, sortSiteRows } from '../shared/sites/siteModelRows';
+import { SitesInputError } from '../shared/sites/sitesInputError';
+import { recommendationCautions } from '../shared/economics/recommendationCautions';
+import { economicOptimum } from '../shared/economics/economicOptimum';
+import type { PlotTable } from '../shared/table/plotTable';
+import { pooledPlotTable, readRCsv } from './sites.fixtures';
+
+const prices = { grainPricePerKg: 0.18, nutrientPricePerKg: 1.1 };
+
+/** The fixture plus a seventh site whose plots are all excluded. */
+function tableWithEmptySite(): PlotTable {
+  const t = pooledPlotTable();
+  const extra = t.plots.slice(0, 3).map((p, i) => ({
+    ...p,
+    id: `extra|${i}`,
+    site: 'Gorse Lane',
+    excluded: { reason: 'hail', by: 'sheet' as const },
+  }));
+  return { ...t, plots: [...t.plots, ...extra] };
+}
+
+describe('analyseAcrossSites on the pooled fixture', () => {
+  const a = analyseAcrossSites(tableWithEmptySite(), { prices });
+
+  it('analyseAcrossSites keeps a site with no analysable plot, with its reason, in sites and rows', () => {
+    expect(a.sites.map((s) => s.site)).toEqual([
+      'Alder Flats',
+      'Birch Hollow',
+      'Cedar Rise',
+      'Dunmore East',
+      'Elm Crossing',
+      'Fallow Gate',
+      'Gorse Lane',
+    ]);
+    const gorse = a.rows.filter((r) => r.site === 'Gorse Lane');
+    expect(gorse).toHaveLength(6);
+    expect(
+      gorse.every((r) => r.status === 'not-fitted' && /none of the site's 3 plots/.test(r.message)),
+    ).toBe(true);
+    expect(a.regional.sitesLeftOut).toEqual([
+      { site: 'Gorse Lane', reason: expect.stringMatching(/excluded/) },
+    ]);
+    expect(a.sharedResponse.quadratic.sitesLeftOut.map((s) => s.site)).toEqual(['Gorse Lane']);
+    expect(a.sharedResponse.plateau.linearPlateau.partsLeftOut.map((s) => s.site)).toEqual([
+      'Gorse Lane',
+    ]);
+    expect(a.response.notAssessed.map((s) => s.site)).toEqual(['Gorse Lane']);
+  });
+
+  it("analyseAcrossSites rows carry each fit's EONR from shared/economics and mark one AICc winner per site", () => {
+    for (const s of a.sites.slice(0, 6)) {
+      const rows = a.rows.filter((r) => r.site === s.site);
+      expect(rows.filter((r) => r.aiccWinner).map((r) => r.model)).toEqual([s.fits!.best]);
+      const q = rows.find((r) => r.model === 'quadratic')!;
+      expect(q.optimumRateKgHa).toBe(economicOptimum(s.fits!.fits.quadratic, prices).rateKgHa);
+    }
+  });
+
+  it('analyseAcrossSites counts every fixture site as responded (R gives rate-effect p < 1e-5 at each)', () => {
+    const r = readRCsv('pooled.anova.csv').filter((x) => x.test === 'rate-effect');
+    expect(r.every((x) => Number(x.p) < 1e-5)).toBe(true);
+    expect(a.response).toMatchObject({ responded: 6, assessed: 6, share: 1 });
+  });
+
+  it("analyseAcrossSites puts the regional rate inside the sites' optimum range, with the cautions", () => {
+    const reg = a.regional.regional;
+    const d = reg.siteOptimumDistribution!;
+    expect(d.n).toBe(6);
+    expect(reg.bestRateKgHa).toBeGreaterThanOrEqual(d.minKgHa);
+    expect(reg.bestRateKgHa).toBeLessThanOrEqual(d.maxKgHa);
+    expect(reg.gridKgHa[reg.gridKgHa.length - 1]).toBe(225);
+    expect(reg.profitableRange.lowKgHa).toBeLessThanOrEqual(reg.bestRateKgHa);
+    expect(reg.profitableRange.highKgHa).toBeGreaterThanOrEqual(reg.bestRateKgHa);
+    expect(a.regional.text.cautions).toBe(recommendationCautions);
+  });
+
+  it('analyseAcrossSites analyses each previous crop and tests whether they differ', () => {
+    expect(a.groups.map((g) => g.key)).toEqual(['previousCrop']);
+    const g = a.groups[0];
+    expect(g.values.map((v) => [v.value, v.sites.length])).toEqual([
+      ['soybean', 3],
+      ['corn', 3],
+    ]);
+    expect(g.sitesWithoutValue).toEqual([
+      { site: 'Gorse Lane', reason: 'no value of previousCrop' },
+    ]);
+    const r = readRCsv('pooled.anova.csv').find(
+      (x) => x.test === 'groups' && x.model === 'quadratic',
+    )!;
+    const t = g.differ.quadratic.result;
+    expect(t.kind === 'f-test' && Math.abs(t.f - Number(r.F)) <= 1e-9 * Number(r.F)).toBe(true);
+    expect(g.differ.linearPlateau).toBeUndefined();
+    expect(g.differ.plateau.linearPlateau.partsUsed).toEqual(['soybean', 'corn']);
+  });
+
+  it('repriceAcrossSites gives what a fresh analysis at the new prices gives', () => {
+    const dear = { grainPricePerKg: 0.18, nutrientPricePerKg: 1.6 };
+    const again = analyseAcrossSites(tableWithEmptySite(), { prices: dear });
+    const re = repriceAcrossSites(a, dear);
+    expect(re.regional.regional.bestRateKgHa).toBe(again.regional.regional.bestRateKgHa);
+    expect(Array.from(re.regional.regional.meanReturnPerHa)).toEqual(
+      Array.from(again.regional.regional.meanReturnPerHa),
+    );
+    expect(re.rows.map((r) => r.optimumRateKgHa)).toEqual(again.rows.map((r) => r.optimumRateKgHa));
+    expect(re.groups[0].values[1].regional.regional.bestRateKgHa).toBe(
+      again.groups[0].values[1].regional.regional.bestRateKgHa,
+    );
+    // Dearer N never raises the best rate.
+    expect(re.regional.regional.bestRateKgHa).toBeLessThanOrEqual(a.regional.regional.bestRateKgHa);
+  });
+
+  it('analyseAcrossSites throws SitesInputError for alpha outside (0, 1)', () => {
+    expect(() => analyseAcrossSites(pooledPlotTable(), { prices, alpha: 1 })).toThrow(
+      new SitesInputError('bad-argument', 'alpha is 1; it must lie strictly between 0 and 1.'),
+    );
+  });
+});
+
+describe('sortSiteRows and filterSiteRows', () => {
+  const a = analyseAcrossSites(tableWithEmptySite(), { prices });
+  it('sortSiteRows orders by optimum, empty optima last in both directions', () => {
+    const asc = sortSiteRows(a.rows, 'optimumRateKgHa');
+    const desc = sortSiteRows(a.rows, 'optimumRateKgHa', 'desc');
+    const values = (rows: typeof asc) =>
+      rows.map((r) => r.optimumRateKgHa).filter((v) => v !== null);
+    expect(values(asc)).toEqual([...values(asc)].sort((x, y) => x! - y!));
+    expect(values(desc)).toEqual([...values(asc)].reverse());
+    expect(asc[asc.length - 1].optimumRateKgHa).toBeNull();
+    expect(desc[desc.length - 1].optimumRateKgHa).toBeNull();
+  });
+  it('filterSiteRows keeps the AICc winners of one previous crop', () => {
+    const rows = filterSiteRows(a.rows, {
+      aiccWinnersOnly: true,
+      group: { key: 'previousCrop', value: 'corn' },
+    });
+    expect(rows.map((r) => r.site)).toEqual(['Dunmore East', 'Elm Crossing', 'Fallow Gate']);
+  });
+  it('sortSiteRows throws for an unknown column', () => {
+    expect(() => sortSiteRows(a.rows, 'colour' as never)).toThrow(/"colour" is not a column/);
+  });
+});
