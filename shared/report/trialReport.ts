@@ -119,6 +119,8 @@ export interface SiteReport {
   returnAtOptimumPerHa: number | null;
   /** The site's treatment design in words for the reader, e.g. "4 blocks × 6 rates". */
   designText: string;
+  /** Residuals of the chosen model, one per plot used (kg/ha), for the residual panel. */
+  residuals: { rateKgHa: number; residualKgHa: number; block: string | null }[];
   /** Tested rates, kg/ha, ascending. */
   ratesKgHa: number[];
   /** Findings a reader must see next to the numbers. */
