@@ -11,8 +11,10 @@
  * non-zero rate; e^(−50) ≈ 2·10⁻²², full response by x₁), and Brent's method
  * refines every grid point lower than its neighbours. The two limits are
  * statuses, not numbers:
- * - k → 0: the curve tends to the straight line: "no-plateau"
+ * - k → 0: the curve tends to the straight line: "no-plateau" (best SSE not below the line's)
  * - k → ∞: the curve tends to check against the rest: "full-response-at-lowest-rate"
+ *   (best SSE not below check-vs-rest, or e^(−k x₁) < 10⁻³: 99.9 % of the gain by the
+ *   lowest non-zero rate x₁, which the higher rates cannot tell from a step)
  */
 import { minimizeBrent } from '../optimize/minimizeBrent';
 import { StatsInputError } from '../stats/errors';
@@ -121,8 +123,18 @@ export function fitExponentialPrepared(site: PreparedSite, options: FitOptions):
 
   let status: ModelFit['status'] = 'ok';
   let message = 'Exponential rise to a plateau fitted.';
-  const atLow = bestU <= uLow + 1e-6 * step;
-  const atHigh = bestU >= uHigh - 1e-6 * step;
+  // The limits are reached numerically well before the grid's ends: compare SSEs.
+  // k → 0: the straight line (b > 0); k → ∞: check against the rest, g = [x > 0].
+  const kBest = Math.exp(bestU);
+  const line = solver.sse(rates.map((r) => r));
+  const stepFit = rates[0] === 0 ? solver.sse(rates.map((r) => (r > 0 ? 1 : 0))) : Infinity;
+  const atLow = bestU <= uLow + 1e-6 * step || bestSse >= line * (1 - TIE);
+  // With 99.9 % of the gain reached by the lowest non-zero rate (e^(−k x₁) < 10⁻³),
+  // the other rates cannot tell k from infinity.
+  const atHigh =
+    bestU >= uHigh - 1e-6 * step ||
+    bestSse >= stepFit * (1 - TIE) ||
+    Math.exp(-kBest * rLow) < 1e-3;
   if (bestSse >= solver.flatSse * (1 - TIE)) {
     status = 'no-response';
     message = 'Yield does not rise with rate: the best exponential is flat.';
@@ -134,7 +146,7 @@ export function fitExponentialPrepared(site: PreparedSite, options: FitOptions):
     status = 'full-response-at-lowest-rate';
     message = `Full response by the lowest non-zero rate: the rate constant runs to infinity (check against the rest); the bend lies between ${rates[0]} and ${rLow} kg/ha.`;
   }
-  const k = Math.exp(bestU);
+  const k = kBest;
   const gFinal = rates.map((r) => -Math.expm1(-k * r));
   const coef = linearCoefficients(site, [gFinal], intercept);
   const params = intercept

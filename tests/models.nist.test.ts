@@ -1,0 +1,82 @@
+// Checks the profiled exponential fit against NIST StRD Misra1a (nonlinear least
+// squares, lower difficulty): y = b1 (1 − e^(−b2 x)), the exponential rise with
+// the intercept fixed at zero. Certified values from tests/fixtures/nist/Misra1a.txt.
+import { describe, expect, it } from 'vitest';
+import { readFileSync } from 'node:fs';
+import { fitExponential } from '../shared/models';
+import { fitGaussNewton } from '../shared/optimize/fitGaussNewton';
+
+function readMisra(): { x: number[]; y: number[] } {
+  const text = readFileSync(new URL('./fixtures/nist/Misra1a.txt', import.meta.url), 'utf8');
+  const lines = text.split(/\r?\n/);
+  const start = lines.findIndex((l) => /^Data/.test(l));
+  const x: number[] = [];
+  const y: number[] = [];
+  for (const line of lines.slice(start + 1)) {
+    const parts = line.trim().split(/\s+/).map(Number);
+    if (parts.length === 2 && parts.every(Number.isFinite)) {
+      y.push(parts[0]);
+      x.push(parts[1]);
+    }
+  }
+  return { x, y };
+}
+
+/** Agreement to `digits` significant digits: |a − b| ≤ 10^−digits · |b|. */
+function expectDigits(actual: number, certified: number, digits: number): void {
+  expect(Math.abs(actual - certified)).toBeLessThanOrEqual(10 ** -digits * Math.abs(certified));
+}
+
+// NIST StRD Misra1a certified values.
+const certified = {
+  b1: 2.3894212918e2,
+  b2: 5.5015643181e-4,
+  sdB1: 2.7070075241,
+  sdB2: 7.2668688436e-6,
+  rss: 1.2455138894e-1,
+  residualSd: 1.018787633e-1,
+};
+
+describe('fitExponential on NIST StRD Misra1a (intercept fixed at 0)', () => {
+  const { x, y } = readMisra();
+  const fit = fitExponential({ rateKgHa: x, yieldKgHa: y }, { exponentialIntercept: 'zero' });
+
+  it('reads the 14 observations and fits with 12 residual df', () => {
+    expect(fit.n).toBe(14);
+    expect(fit.dfResidual).toBe(12);
+    expect(fit.status).toBe('ok');
+  });
+  it('needs no starting values and reaches the certified parameters to 8 significant digits', () => {
+    expectDigits(fit.params.b, certified.b1, 8);
+    expectDigits(fit.params.k, certified.b2, 8);
+    expect(fit.params.a).toBe(0);
+  });
+  it('matches the certified standard deviations to 8 digits and the residual SS to 9', () => {
+    expectDigits(fit.stdErrors.b, certified.sdB1, 8);
+    expectDigits(fit.stdErrors.k, certified.sdB2, 8);
+    expectDigits(fit.sse, certified.rss, 9);
+    expectDigits(fit.rmse, certified.residualSd, 9);
+  });
+});
+
+describe('fitGaussNewton (Levenberg-Marquardt) on Misra1a from both NIST starting points', () => {
+  const { x, y } = readMisra();
+  const model = (p: Float64Array, xi: number): number => p[0] * -Math.expm1(-p[1] * xi);
+  const jacobian = (p: Float64Array, xi: number, out: Float64Array): void => {
+    out[0] = -Math.expm1(-p[1] * xi);
+    out[1] = p[0] * xi * Math.exp(-p[1] * xi);
+  };
+  // NIST Misra1a: start 1 (500, 1e-4), start 2 (250, 5e-4).
+  for (const start of [
+    [500, 1e-4],
+    [250, 5e-4],
+  ]) {
+    it(`from (${start.join(', ')}) reaches the certified values to 6 significant digits`, () => {
+      const r = fitGaussNewton({ x, y, start, model, jacobian });
+      expect(r.converged).toBe(true);
+      expectDigits(r.params[0], certified.b1, 6);
+      expectDigits(r.params[1], certified.b2, 6);
+      expectDigits(r.sse, certified.rss, 6);
+    });
+  }
+});
