@@ -1,0 +1,96 @@
+/**
+ * Checks of the trial's layout within each site: the same plot number twice,
+ * block × rate cells with no plot, and rates with unequal numbers of usable
+ * plots (which makes block-adjusted means differ from raw means).
+ */
+import type { Plot, PlotTable } from '../table/plotTable';
+import type { QualityFinding } from './qualityFinding';
+
+function rateLabel(p: Plot): string {
+  const kg = p.rateKgHa === null ? '' : `${Math.round(p.rateKgHa * 10) / 10} kg N/ha`;
+  return p.treatment !== null ? `treatment ${p.treatment}${kg ? ` (${kg})` : ''}` : kg;
+}
+
+/**
+ * Checks duplicates, missing plots and replication per site.
+ * @param table - the plot table
+ * @returns findings naming the site, the plots and their cells
+ * @example
+ * checkDesign(table).find((f) => f.code === 'missing-plot')?.message
+ * // 'Tarrowfield: block 3 has no plot of treatment 5 (201.7 kg N/ha); …'
+ */
+export function checkDesign(table: PlotTable): QualityFinding[] {
+  const out: QualityFinding[] = [];
+  const bySite = new Map<string, Plot[]>();
+  for (const p of table.plots) {
+    const k = p.site;
+    if (!bySite.has(k)) bySite.set(k, []);
+    bySite.get(k)!.push(p);
+  }
+  for (const [site, plots] of bySite) {
+    // Duplicate plot labels (within site and year).
+    const byLabel = new Map<string, Plot[]>();
+    for (const p of plots) {
+      if (p.plotLabel === null) continue;
+      const k = `${p.year ?? ''}|${p.plotLabel}`;
+      if (!byLabel.has(k)) byLabel.set(k, []);
+      byLabel.get(k)!.push(p);
+    }
+    for (const [, same] of byLabel) {
+      if (same.length < 2) continue;
+      const refs = same.map((p) => p.original.plot!.ref);
+      out.push({
+        code: 'duplicate-plot',
+        severity: 'warning',
+        message: `${site}: plot ${same[0].plotLabel} appears ${same.length} times (rows ${refs.map((r) => r.row).join(', ')}); correct the plot numbers or exclude the wrong row.`,
+        refs,
+        site,
+        plotIds: same.map((p) => p.id),
+      });
+    }
+    // Missing block × rate cells.
+    const withRate = plots.filter((p) => p.rateKgHa !== null);
+    const rateKey = (p: Plot) => p.rateKgHa!.toFixed(6);
+    const rates = new Map<string, Plot>();
+    for (const p of withRate) if (!rates.has(rateKey(p))) rates.set(rateKey(p), p);
+    const blocks = [
+      ...new Set(withRate.map((p) => p.block).filter((b): b is string => b !== null)),
+    ];
+    if (blocks.length > 1) {
+      const present = new Set(withRate.map((p) => `${p.block}|${rateKey(p)}`));
+      for (const b of blocks) {
+        for (const [rk, example] of rates) {
+          if (present.has(`${b}|${rk}`)) continue;
+          out.push({
+            code: 'missing-plot',
+            severity: 'warning',
+            message: `${site}: block ${b} has no plot of ${rateLabel(example)}; the site is unbalanced, so block-adjusted means are used.`,
+            refs: [],
+            site,
+          });
+        }
+      }
+    }
+    // Replication: usable plots per rate.
+    const counts = new Map<string, { n: number; example: Plot }>();
+    for (const p of withRate) {
+      if (p.excluded !== null || p.yieldKgHa === null) continue;
+      const c = counts.get(rateKey(p));
+      if (c) c.n++;
+      else counts.set(rateKey(p), { n: 1, example: p });
+    }
+    const ns = [...counts.values()].map((c) => c.n);
+    if (ns.length > 1 && Math.min(...ns) !== Math.max(...ns)) {
+      const most = Math.max(...ns);
+      const short = [...counts.values()].filter((c) => c.n < most);
+      out.push({
+        code: 'unequal-replication',
+        severity: 'warning',
+        message: `${site}: unequal replication — ${short.map((c) => `${rateLabel(c.example)} has ${c.n}`).join(', ')} usable plot${short.length === 1 && short[0].n === 1 ? '' : 's'} where the other rates have ${most}.`,
+        refs: [],
+        site,
+      });
+    }
+  }
+  return out;
+}

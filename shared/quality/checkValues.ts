@@ -1,0 +1,104 @@
+/**
+ * Plot-by-plot checks of single values: text where a number belongs, negative
+ * numbers, yields above the crop's plausible bound, moistures outside a range.
+ */
+import type { ColumnRole, Plot, PlotTable } from '../table/plotTable';
+import { crops } from '../units/crops';
+import { yieldFromKgHa } from '../units/convertYield';
+import { isMissingMarker, parseNumberText } from '../import/parseNumberText';
+import { describeRef, type QualityFinding } from './qualityFinding';
+
+const numericRoles: ColumnRole[] = [
+  'rate',
+  'yield',
+  'plotWeight',
+  'plotArea',
+  'plotLength',
+  'plotWidth',
+  'moisture',
+  'testWeight',
+  'year',
+];
+
+function isNumberText(text: string): boolean {
+  return parseNumberText(text, false) !== null || parseNumberText(text, true) !== null;
+}
+
+/**
+ * Checks every plot's values.
+ * @param table - the plot table
+ * @param moistureRangePct - [low, high] harvest moisture accepted, % (default 5–40)
+ * @returns findings with the cells concerned
+ * @example
+ * checkValues(table, [5, 40]).filter((f) => f.code === 'not-a-number')
+ */
+export function checkValues(
+  table: PlotTable,
+  moistureRangePct: [number, number],
+): QualityFinding[] {
+  const out: QualityFinding[] = [];
+  const crop = crops(table.crop);
+  const finding = (p: Plot, f: Omit<QualityFinding, 'site' | 'plotIds'>) =>
+    out.push({ ...f, site: p.site, plotIds: [p.id] });
+  for (const p of table.plots) {
+    for (const role of numericRoles) {
+      const o = p.original[role];
+      if (!o) continue;
+      const t = o.text.trim();
+      if (t === '' || isMissingMarker(t) || isNumberText(t)) continue;
+      finding(p, {
+        code: 'not-a-number',
+        severity: 'error',
+        message: `${describeRef(o.ref)} should hold the ${role === 'plotWeight' ? 'plot weight' : role} as a number but says "${t}"; the plot has no ${role} until the cell is corrected.`,
+        refs: [o.ref],
+      });
+    }
+    if (p.original.yield && p.yieldKgHa === null && isMissingMarker(p.original.yield.text)) {
+      finding(p, {
+        code: 'missing-value',
+        severity: 'info',
+        message: `${describeRef(p.original.yield.ref)}: plot ${p.plotLabel ?? ''} of ${p.site} has no yield${p.original.yield.text.trim() ? ` ("${p.original.yield.text.trim()}")` : ''}; it is left out of the fits.`,
+        refs: [p.original.yield.ref],
+      });
+    }
+    for (const [role, v] of [
+      ['yield', p.yieldKgHa],
+      ['rate', p.rateKgHa],
+    ] as const) {
+      if (v !== null && v < 0) {
+        const o = p.original[role];
+        finding(p, {
+          code: 'negative-value',
+          severity: 'error',
+          message: `${o ? describeRef(o.ref) : p.site}: the ${role} is negative (${o?.text ?? v}); a ${role} cannot be below zero. Correct the cell.`,
+          refs: o ? [o.ref] : [],
+        });
+      }
+    }
+    if (p.yieldKgHa !== null && p.yieldKgHa > crop.maxPlausibleYieldKgHa) {
+      const o = p.original.yield ?? p.original.plotWeight;
+      const bu = yieldFromKgHa(p.yieldKgHa, 'bu/ac', table.crop);
+      finding(p, {
+        code: 'implausible-yield',
+        severity: 'warning',
+        message: `${o ? describeRef(o.ref) : p.site}: a yield of ${Math.round(p.yieldKgHa).toLocaleString('en-US')} kg/ha (${bu.toFixed(0)} bu/ac) is above the ${Math.round(crop.maxPlausibleYieldKgHa).toLocaleString('en-US')} kg/ha plausible for ${crop.label.toLowerCase()}; check the cell and the yield unit.`,
+        refs: o ? [o.ref] : [],
+        value: p.yieldKgHa,
+      });
+    }
+    if (
+      p.moisturePct !== null &&
+      (p.moisturePct < moistureRangePct[0] || p.moisturePct > moistureRangePct[1])
+    ) {
+      const o = p.original.moisture;
+      finding(p, {
+        code: 'moisture-out-of-range',
+        severity: 'warning',
+        message: `${o ? describeRef(o.ref) : p.site}: a harvest moisture of ${p.moisturePct} % is outside ${moistureRangePct[0]}–${moistureRangePct[1]} %; check the cell (a fraction such as 0.18 should be written 18).`,
+        refs: o ? [o.ref] : [],
+        value: p.moisturePct,
+      });
+    }
+  }
+  return out;
+}
