@@ -6,6 +6,7 @@ export default defineConfig({
   resolve: process.env.VITEST ? { conditions: ['browser'] } : undefined,
   test: {
     include: ['tests/**/*.test.ts'],
+    reporters: ['default', './tests/support/plainSummaryReporter.ts'],
     environment: 'node',
     testTimeout: 60_000,
     hookTimeout: 180_000,
