@@ -442,6 +442,7 @@ function groupAnalysis(
   plots: readonly SitePlots[],
   analyses: ReadonlyMap<string, SiteAnalysis>,
   o: AcrossSiteAnalysis['options'],
+  whole: Pick<GroupValueAnalysis, 'regional' | 'response' | 'sharedResponse'> | null,
 ): GroupAnalysis {
   const sitesWithoutValue: SiteLeftOut[] = [];
   const byValue = new Map<string, SitePlots[]>();
@@ -460,6 +461,9 @@ function groupAnalysis(
     else byValue.set(v, [p]);
   }
   const values: GroupValueAnalysis[] = [...byValue.entries()].map(([value, members]) => {
+    // A value that every site shares (one year, one soil) is the whole analysis again: reuse it.
+    if (members.length === plots.length && whole)
+      return { value, sites: members.map((m) => m.site), ...whole };
     const sub = members.map((m) => analyses.get(m.site) as SiteAnalysis);
     return {
       value,
@@ -555,13 +559,16 @@ export function analyseAcrossSites(
   rateGrid(o.gridFromKgHa, o.gridToKgHa ?? o.gridFromKgHa, o.gridStepKgHa);
   const sites = plots.map((p) => analyseSite(p, o.blocks, alpha));
   const analyses = new Map(sites.map((s) => [s.site, s]));
+  const whole = {
+    sharedResponse: sharedResponse(plots, analyses, o),
+    regional: regionalAnalysis(sites, o),
+    response: responseShare(sites),
+  };
   return {
     options: o,
     sites,
     rows: sites.flatMap((s) => siteModelRows(s, o.prices)),
-    sharedResponse: sharedResponse(plots, analyses, o),
-    regional: regionalAnalysis(sites, o),
-    response: responseShare(sites),
-    groups: o.groupKeys.map((k) => groupAnalysis(k, plots, analyses, o)),
+    ...whole,
+    groups: o.groupKeys.map((k) => groupAnalysis(k, plots, analyses, o, whole)),
   };
 }

@@ -14,6 +14,12 @@ import { regionalRecommendation } from './regionalRecommendation';
 export interface RepriceOptions {
   /** New profitable band, currency/ha; default the analysis' band. */
   bandPerHa?: number;
+  /**
+   * Re-price the side-by-side rows too (default true). A slider that shows only the regional
+   * curve can pass false and re-price the rows when it stops: the rows cost one
+   * economicOptimum per site and model, most of the time at hundreds of sites.
+   */
+  rows?: boolean;
 }
 
 function reprice(r: RegionalAnalysis, prices: Prices, bandPerHa: number): RegionalAnalysis {
@@ -26,7 +32,8 @@ function reprice(r: RegionalAnalysis, prices: Prices, bandPerHa: number): Region
  * @param analysis - from analyseAcrossSites
  * @param prices - grain and nutrient price (currency/kg), optional application cost (currency/ha)
  * @param options - a new profitable band (currency/ha)
- * @returns a new analysis with rows, regional rates and group regional rates at these prices
+ * @returns a new analysis with rows (unless rows: false, when the old rows are kept), regional
+ *   rates and group regional rates at these prices
  * @throws {StatsInputError} "bad-argument" for a price that is not positive
  * @throws {SitesInputError} "bad-argument" for a negative band
  * @example
@@ -44,7 +51,10 @@ export function repriceAcrossSites(
     ...analysis,
     options: { ...analysis.options, prices: { ...prices }, bandPerHa },
     regional,
-    rows: analysis.sites.flatMap((s) => siteModelRows(s, prices)),
+    rows:
+      options.rows === false
+        ? analysis.rows
+        : analysis.sites.flatMap((s) => siteModelRows(s, prices)),
     groups: analysis.groups.map((g) => ({
       ...g,
       values: g.values.map((v) => ({ ...v, regional: reprice(v.regional, prices, bandPerHa) })),

@@ -4,7 +4,7 @@
  * whose plots are all excluded or incomplete still appears, with no plots and a
  * reason, so that no site ever vanishes from the across-site tables.
  */
-import { analysablePlots, siteNames, type PlotTable } from '../table/plotTable';
+import { analysablePlots, siteNames, type Plot, type PlotTable } from '../table/plotTable';
 
 export interface SitePlots {
   site: string;
@@ -37,9 +37,12 @@ export const YEAR_GROUP_KEY = 'year';
  * sitePlots(table).map((s) => s.site) // ['North Field', 'Creek Bend', …]
  */
 export function sitePlots(table: PlotTable): SitePlots[] {
-  const usable = analysablePlots(table);
-  return siteNames(table).map((site) => {
-    const plots = usable.filter((p) => p.site === site);
+  // One pass over the plots, not one per site: tables of hundreds of sites are common in benches.
+  const bySite = new Map<string, Plot[]>(siteNames(table).map((s) => [s, []]));
+  const allCount = new Map<string, number>();
+  for (const p of table.plots) allCount.set(p.site, (allCount.get(p.site) ?? 0) + 1);
+  for (const p of analysablePlots(table)) bySite.get(p.site)?.push(p);
+  return [...bySite.entries()].map(([site, plots]) => {
     const groups: Record<string, string | null> = {};
     const keys = new Set<string>();
     for (const p of plots) for (const k of Object.keys(p.groups)) keys.add(k);
@@ -51,7 +54,7 @@ export function sitePlots(table: PlotTable): SitePlots[] {
       const years = new Set(plots.map((p) => p.year));
       groups[YEAR_GROUP_KEY] = years.size === 1 && !years.has(null) ? String([...years][0]) : null;
     }
-    const all = table.plots.filter((p) => p.site === site).length;
+    const all = allCount.get(site) ?? 0;
     return {
       site,
       rateKgHa: Float64Array.from(plots, (p) => p.rateKgHa as number),
