@@ -11,3 +11,4 @@ const worker = new Worker(new URL('./worker/analysis.worker.ts', import.meta.url
 const workspace = new Workspace(chooseFileBridge(), worker);
 
 mount(App, { target: document.getElementById('app')!, props: { workspace } });
+void workspace.start();

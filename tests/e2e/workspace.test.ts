@@ -13,19 +13,14 @@ afterAll(async () => {
 });
 
 describe('the workspace in chromium', () => {
-  it('opens with the step rail and no page errors', async () => {
+  it('opens on the demo trial the first time and shows a site chart', async () => {
     const { page } = session;
     await page.getByRole('navigation', { name: 'Steps' }).waitFor();
-    await expect(page.getByRole('button', { name: /Trial files/ }).count()).resolves.toBe(1);
-    await shot(page, '00-frame');
-    expect(session.pageErrors).toEqual([]);
-  });
-
-  it('reads the demo workbook in the worker', async () => {
-    const { page } = session;
-    await page.getByRole('button', { name: 'Open the demo trial' }).click();
-    await page.getByText(/\d+ sheets/).waitFor({ timeout: 20_000 });
-    await shot(page, '01-demo-read');
+    const chart = page.locator('[data-testid="chart"] .main-svg').first();
+    await chart.waitFor({ timeout: 30_000 });
+    await page.getByTestId('site-optimum').waitFor();
+    await expect(page.getByTestId('site-optimum').textContent()).resolves.toMatch(/\d+ kg\/ha/);
+    await shot(page, '01-demo-site');
     expect(session.pageErrors).toEqual([]);
   });
 });

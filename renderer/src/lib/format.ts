@@ -8,6 +8,7 @@ import type { CropId } from '../../../shared/table/plotTable';
 import { rateFromKgHa, type RateUnit } from '../../../shared/units/convertRate';
 import { yieldFromKgHa, type YieldUnit } from '../../../shared/units/convertYield';
 import type { UnitSystem } from '../../../shared/units/displayUnits';
+import { M2_PER_ACRE, M2_PER_HA } from '../../../shared/units/unitConstants';
 
 /** The one switch between unit families ('metric' or 'us'), as shared/units names it. */
 export type { UnitSystem };
@@ -217,4 +218,27 @@ export function formatFileSize(bytes: number, locale?: string): string {
   return bytes < 1_000_000
     ? `${formatNumber(bytes / 1000, 1, locale)} kB`
     : `${formatNumber(bytes / 1_000_000, 1, locale)} MB`;
+}
+
+/**
+ * Money per area (net return, application cost), held per ha, shown per the
+ * display area: per acre when rates show in lb/ac, else per hectare.
+ * @param perHa - amount per hectare
+ * @param currency - ISO 4217 code
+ * @param rateUnit - the display rate unit, which decides the area
+ * @param locale - a BCP 47 tag
+ * @returns e.g. '$41.20/ac'
+ * @example
+ * formatMoneyPerArea(100, 'USD', 'lb/ac', 'en-US') // '$40.47/ac'
+ */
+export function formatMoneyPerArea(
+  perHa: number | null,
+  currency: string,
+  rateUnit: RateUnit,
+  locale?: string,
+): string {
+  if (perHa === null || !Number.isFinite(perHa)) return '–';
+  const perAcre = rateUnit === 'lb/ac';
+  const amount = perAcre ? (perHa * M2_PER_ACRE) / M2_PER_HA : perHa;
+  return `${formatMoney(amount, currency, locale)}/${perAcre ? 'ac' : 'ha'}`;
 }

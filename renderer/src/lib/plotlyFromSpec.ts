@@ -9,6 +9,7 @@ import {
   axisLabel,
   chartPalette,
   type ChartAxis,
+  type ChartModelName,
   type ChartPanel,
   type ChartSpec,
 } from '../../../shared/report/chartSpec';
@@ -29,8 +30,18 @@ const plotlySymbols: Record<(typeof chartPalette.symbols)[number], string> = {
   star: 'star',
 };
 
+/** One dash per model, so alternative curves are told apart without colour. */
+const MODEL_DASHES: Record<ChartModelName, string> = {
+  linear: 'dash',
+  proportional: 'longdashdot',
+  quadratic: 'dot',
+  linearPlateau: 'dashdot',
+  quadraticPlateau: 'longdash',
+  exponential: '4px,3px,1px,3px',
+};
+
 /** Gap between stacked panels, as a share of the plot height. */
-const PANEL_GAP = 0.07;
+const PANEL_GAP = 0.12;
 
 /** Axis names for panel i: 'x'/'y' for the first, 'x2'/'y2' for the second… */
 function axisIds(i: number): { x: string; y: string; xKey: string; yKey: string } {
@@ -93,7 +104,14 @@ export function plotlyFromSpec(spec: ChartSpec): PlotlyFigure {
   const domains = panelDomains(spec.panels);
   spec.panels.forEach((panel, i) => {
     const ids = axisIds(i);
-    layout[ids.xKey] = axisLayout(panel.x, { anchor: ids.y });
+    // Stacked panels over the same rates share the x axis: one title, at the bottom, and zoom together.
+    const next = spec.panels[i + 1];
+    const sharesX = next !== undefined && axisLabel(next.x) === axisLabel(panel.x);
+    layout[ids.xKey] = axisLayout(panel.x, {
+      anchor: ids.y,
+      ...(sharesX ? { title: { text: '' } } : {}),
+      ...(i > 0 && axisLabel(spec.panels[i - 1].x) === axisLabel(panel.x) ? { matches: 'x' } : {}),
+    });
     layout[ids.yKey] = axisLayout(panel.y, { anchor: ids.x, domain: domains[i] });
     if (panel.title) {
       annotations.push({
@@ -151,7 +169,11 @@ export function plotlyFromSpec(spec: ChartSpec): PlotlyFigure {
                 ? { color: chartPalette.chosen, width: 3 }
                 : layer.role === 'return'
                   ? { color: chartPalette.return, width: 2.5 }
-                  : { color: chartPalette.alternative, width: 1.5, dash: 'dot' },
+                  : {
+                      color: chartPalette.alternative,
+                      width: 1.5,
+                      dash: layer.model ? MODEL_DASHES[layer.model] : 'dot',
+                    },
           });
           break;
         case 'band':

@@ -5,6 +5,7 @@ import { isImportError } from '../../../shared/import/importError';
 import type { RawWorkbook } from '../../../shared/import/rawWorkbook';
 import { readTrialFile } from '../../../shared/import/readTrialFile';
 import type { JobContext, JobHandler } from '../lib/workerProtocol';
+import { analyseTable, type AnalysisInput, type AnalysisOutput } from '../analysis/siteAnalysis';
 
 /** One file's outcome: its sheets, or the message to show where the user is looking. */
 export type ReadOutcome =
@@ -33,6 +34,17 @@ export async function readFiles(files: TrialFileBytes[], ctx: JobContext): Promi
   return out;
 }
 
+/**
+ * Fits every site and runs the across-site tests.
+ * @param input - plot table and block terms
+ * @param ctx - progress per site, and cancel
+ * @returns plain-data results the window re-prices without refitting
+ */
+export function analyse(input: AnalysisInput, ctx: JobContext): Promise<AnalysisOutput> {
+  return analyseTable(input, (done, total, note) => ctx.progress(done, total, note));
+}
+
 export const jobHandlers: Record<string, JobHandler> = {
   readFiles: readFiles as JobHandler,
+  analyse: analyse as JobHandler,
 };

@@ -1,0 +1,179 @@
+/**
+ * The user's edits on top of what import detected: column mappings, import
+ * settings (crop, standard moisture, rate basis) and decisions on plots
+ * (exclude with a reason, or keep a flagged plot with a reason). Edits are
+ * plain JSON so they go to undo snapshots, localStorage and the project file
+ * unchanged. Every change returns a new value; nothing is edited in place.
+ */
+import type {
+  ColumnMapping,
+  HeaderUnit,
+  MappedRole,
+  SheetMapping,
+} from '../../../shared/import/columnMapping';
+import type { ImportSettings } from '../../../shared/import/importSettings';
+import type { Plot, PlotTable } from '../../../shared/table/plotTable';
+
+/** What the user decided about one plot. */
+export interface PlotDecision {
+  action: 'exclude' | 'keep';
+  reason: string;
+}
+
+export interface Edits {
+  /** File name → its column mapping. */
+  mappings: Record<string, ColumnMapping>;
+  settings: ImportSettings;
+  /** Plot id → decision. */
+  decisions: Record<string, PlotDecision>;
+}
+
+function updateSheet(
+  mapping: ColumnMapping,
+  sheet: string,
+  change: (s: SheetMapping) => SheetMapping,
+): ColumnMapping {
+  if (!mapping.sheets.some((s) => s.sheet === sheet)) {
+    throw new RangeError(`The mapping has no sheet called "${sheet}".`);
+  }
+  return { ...mapping, sheets: mapping.sheets.map((s) => (s.sheet === sheet ? change(s) : s)) };
+}
+
+/**
+ * Gives a column a new role. A role that must be unique in a sheet (rate,
+ * yield, site, block…) moves: the column that had it becomes "ignore", so the
+ * table never reads two yields.
+ * @param mapping - the file's mapping
+ * @param sheet - sheet name
+ * @param col - 1-based column number
+ * @param role - the new role
+ * @returns the changed mapping
+ * @throws {RangeError} when the sheet or column is not in the mapping
+ */
+export function setColumnRole(
+  mapping: ColumnMapping,
+  sheet: string,
+  col: number,
+  role: MappedRole,
+): ColumnMapping {
+  const repeatable: MappedRole[] = ['group', 'notes', 'ignore'];
+  return updateSheet(mapping, sheet, (s) => {
+    if (!s.columns.some((c) => c.col === col)) {
+      throw new RangeError(`Sheet "${sheet}" has no mapped column ${col}.`);
+    }
+    return {
+      ...s,
+      columns: s.columns.map((c) => {
+        if (c.col === col) {
+          return { ...c, role, evidence: `set by you (was ${c.role})` };
+        }
+        if (c.role === role && !repeatable.includes(role)) {
+          return {
+            ...c,
+            role: 'ignore',
+            evidence: `set aside: column ${col} now holds the ${role}`,
+          };
+        }
+        return c;
+      }),
+    };
+  });
+}
+
+/**
+ * Changes the unit a column's values are in.
+ * @param mapping - the file's mapping
+ * @param sheet - sheet name
+ * @param col - 1-based column number
+ * @param unit - the unit, or null for none
+ * @returns the changed mapping
+ */
+export function setColumnUnit(
+  mapping: ColumnMapping,
+  sheet: string,
+  col: number,
+  unit: HeaderUnit | null,
+): ColumnMapping {
+  return updateSheet(mapping, sheet, (s) => ({
+    ...s,
+    columns: s.columns.map((c) => (c.col === col ? { ...c, unit } : c)),
+  }));
+}
+
+/**
+ * Changes whether yields in a column were weighed at harvest moisture or are already at standard.
+ * @param mapping - the file's mapping
+ * @param sheet - sheet name
+ * @param col - 1-based column number
+ * @param basis - 'harvest' or 'standard'
+ * @returns the changed mapping
+ */
+export function setMoistureBasis(
+  mapping: ColumnMapping,
+  sheet: string,
+  col: number,
+  basis: 'harvest' | 'standard',
+): ColumnMapping {
+  return updateSheet(mapping, sheet, (s) => ({
+    ...s,
+    columns: s.columns.map((c) => (c.col === col ? { ...c, moistureBasis: basis } : c)),
+  }));
+}
+
+/**
+ * Changes what a sheet is used for (plots, treatment key, or ignore).
+ * @param mapping - the file's mapping
+ * @param sheet - sheet name
+ * @param use - the new use
+ * @returns the changed mapping
+ */
+export function setSheetUse(
+  mapping: ColumnMapping,
+  sheet: string,
+  use: SheetMapping['use'],
+): ColumnMapping {
+  return updateSheet(mapping, sheet, (s) => ({ ...s, use, evidence: `set by you (was ${s.use})` }));
+}
+
+/**
+ * Records a decision on plots (or withdraws it with null).
+ * @param decisions - current decisions
+ * @param plotIds - the plots
+ * @param decision - exclude/keep with a reason, or null to return to the sheet's own state
+ * @returns the new decisions
+ */
+export function decide(
+  decisions: Readonly<Record<string, PlotDecision>>,
+  plotIds: readonly string[],
+  decision: PlotDecision | null,
+): Record<string, PlotDecision> {
+  const next = { ...decisions };
+  for (const id of plotIds) {
+    if (decision) next[id] = decision;
+    else delete next[id];
+  }
+  return next;
+}
+
+/**
+ * The table with the user's decisions applied: "exclude" marks the plot
+ * excluded by the user with the reason; "keep" clears an exclusion the sheet
+ * made. Plots are never removed.
+ * @param table - the table as built from the files
+ * @param decisions - plot id → decision
+ * @returns a new table (plots without a decision are shared, not copied)
+ */
+export function applyDecisions(
+  table: PlotTable,
+  decisions: Readonly<Record<string, PlotDecision>>,
+): PlotTable {
+  const plots = table.plots.map((plot): Plot => {
+    const decision = decisions[plot.id];
+    if (!decision) return plot;
+    if (decision.action === 'exclude') {
+      return { ...plot, excluded: { reason: decision.reason, by: 'user' } };
+    }
+    return { ...plot, excluded: null };
+  });
+  return { ...table, plots };
+}

@@ -1,0 +1,265 @@
+/**
+ * The chart descriptions the screens draw (shared/report/chartSpec), built
+ * from the worker's fits and the re-priced optima in display units. Only
+ * conversion and layering happen here; every number comes from shared/.
+ */
+import type { EconomicOptimum } from '../../../shared/economics/economicOptimum';
+import type { ModelName } from '../../../shared/models/modelTypes';
+import type { ChartLayer, ChartSpec, PointLayer } from '../../../shared/report/chartSpec';
+import type { RegionalReturn } from '../../../shared/sites/regionalReturn';
+import type { CropId, Plot } from '../../../shared/table/plotTable';
+import { rateFromKgHa, type RateUnit } from '../../../shared/units/convertRate';
+import { yieldFromKgHa, type YieldUnit } from '../../../shared/units/convertYield';
+import { M2_PER_ACRE, M2_PER_HA } from '../../../shared/units/unitConstants';
+import type { SiteAnalysis } from './siteAnalysis';
+
+/** Units and crop a chart is drawn in. */
+export interface ChartUnits {
+  rate: RateUnit;
+  yield: YieldUnit;
+  crop: CropId;
+  /** Currency code for money axes. */
+  currency: string;
+}
+
+/** A rate unit as an axis names it: "kg N/ha", "lb N/ac". */
+export function nutrientRateUnit(unit: RateUnit): string {
+  return unit === 'g/m2' ? 'g N/m²' : unit.replace('/', ' N/');
+}
+
+function blockPoints(
+  plots: SiteAnalysis['plots'],
+  y: ArrayLike<number>,
+  units: ChartUnits,
+  yConvert: (v: number) => number,
+): PointLayer[] {
+  const labels = [...new Set(plots.block.map((b) => b ?? ''))];
+  return labels.map((label, groupIndex) => {
+    const idx = plots.block.flatMap((b, i) => ((b ?? '') === label ? [i] : []));
+    return {
+      kind: 'points',
+      name: label ? `Block ${label}` : 'Plots',
+      groupIndex,
+      x: idx.map((i) => rateFromKgHa(plots.rateKgHa[i], units.rate)),
+      y: idx.map((i) => yConvert(y[i])),
+      labels: idx.map((i) => `Plot ${plots.plotIds[i].split('|').pop()}`),
+    };
+  });
+}
+
+/** Human names of the models for legends. */
+export const MODEL_LABELS: Record<ModelName, string> = {
+  linear: 'Straight line',
+  proportional: 'Line through origin',
+  quadratic: 'Quadratic',
+  linearPlateau: 'Linear-plateau',
+  quadraticPlateau: 'Quadratic-plateau',
+  exponential: 'Exponential rise',
+};
+
+/**
+ * The one-site chart: yields by block, fitted curves (the leading one bold),
+ * the optimum and its interval, residuals of the leading model below.
+ * @param site - the site's price-free analysis
+ * @param leading - the model that leads
+ * @param optimum - its optimum at current prices, or null
+ * @param intervalKgHa - the optimum's interval (bootstrap), or null
+ * @param excluded - the site's excluded plots (drawn hollow)
+ * @param units - display units and crop
+ * @returns the chart description
+ */
+export function siteChartSpec(
+  site: SiteAnalysis,
+  leading: ModelName | null,
+  optimum: EconomicOptimum | null,
+  intervalKgHa: [number, number] | null,
+  excluded: readonly Plot[],
+  units: ChartUnits,
+): ChartSpec {
+  const r = (v: number) => rateFromKgHa(v, units.rate);
+  const yv = (v: number) => yieldFromKgHa(v, units.yield, units.crop);
+  const rateUnit = nutrientRateUnit(units.rate);
+  const response: ChartLayer[] = [];
+  if (intervalKgHa) {
+    response.push({
+      kind: 'band',
+      name: 'Optimum interval',
+      role: 'optimumInterval',
+      low: r(intervalKgHa[0]),
+      high: r(intervalKgHa[1]),
+    });
+  }
+  const ranked = site.ranking.filter((m) => m.rank !== null).map((m) => m.model);
+  for (const model of ranked) {
+    const fit = site.fits[model];
+    if (!fit || model === leading) continue;
+    response.push({
+      kind: 'curve',
+      name: MODEL_LABELS[model],
+      model,
+      role: 'alternative',
+      x: Array.from(fit.curve.rateKgHa, r),
+      y: Array.from(fit.curve.yieldKgHa, yv),
+    });
+  }
+  const lead = leading ? site.fits[leading] : undefined;
+  if (leading && lead) {
+    response.push({
+      kind: 'curve',
+      name: `${MODEL_LABELS[leading]} (leading)`,
+      model: leading,
+      role: 'chosen',
+      x: Array.from(lead.curve.rateKgHa, r),
+      y: Array.from(lead.curve.yieldKgHa, yv),
+    });
+  }
+  response.push(...blockPoints(site.plots, site.plots.yieldKgHa, units, yv));
+  const shownExcluded = excluded.filter((p) => p.rateKgHa !== null && p.yieldKgHa !== null);
+  if (shownExcluded.length > 0) {
+    response.push({
+      kind: 'points',
+      name: 'Excluded',
+      groupIndex: 0,
+      excluded: true,
+      x: shownExcluded.map((p) => r(p.rateKgHa!)),
+      y: shownExcluded.map((p) => yv(p.yieldKgHa!)),
+      labels: shownExcluded.map((p) => `Excluded: ${p.excluded?.reason ?? ''}`),
+    });
+  }
+  if (optimum?.rateKgHa !== null && optimum?.rateKgHa !== undefined) {
+    const shown = r(optimum.rateKgHa);
+    response.push({
+      kind: 'marker',
+      name: 'Economic optimum',
+      role: 'optimumRate',
+      x: shown,
+      label: `Optimum ${Math.round(shown)}`,
+    });
+  }
+  const panels: ChartSpec['panels'] = [
+    {
+      id: 'response',
+      title: '',
+      x: { title: 'N rate', unit: rateUnit },
+      y: { title: 'Yield', unit: units.yield },
+      heightShare: 3,
+      layers: response,
+    },
+  ];
+  if (lead) {
+    // Residuals are differences, so they scale like yields without an offset.
+    panels.push({
+      id: 'residuals',
+      title: `Residuals, ${MODEL_LABELS[leading!]}`,
+      x: { title: 'N rate', unit: rateUnit },
+      y: { title: 'Residual', unit: units.yield, zeroLine: true },
+      heightShare: 1,
+      layers: blockPoints(site.plots, lead.residuals, units, yv),
+    });
+  }
+  return {
+    title: `${site.site}: yield response to N`,
+    subtitle: leading ? `Leading model: ${MODEL_LABELS[leading]}` : 'No model could be fitted',
+    widthPx: 900,
+    heightPx: 560,
+    panels,
+    note: '',
+  };
+}
+
+/**
+ * The all-sites chart: every site's leading curve overlaid.
+ * @param sites - analyses with their leading model
+ * @param units - display units and crop
+ * @returns the chart description
+ */
+export function sitesOverlaySpec(
+  sites: readonly { site: SiteAnalysis; model: ModelName | null }[],
+  units: ChartUnits,
+): ChartSpec {
+  const layers: ChartLayer[] = [];
+  for (const { site, model } of sites) {
+    const fit = model ? site.fits[model] : undefined;
+    if (!fit) continue;
+    layers.push({
+      kind: 'curve',
+      name: `${site.site} (${MODEL_LABELS[model!]})`,
+      model,
+      role: 'alternative',
+      x: Array.from(fit.curve.rateKgHa, (v) => rateFromKgHa(v, units.rate)),
+      y: Array.from(fit.curve.yieldKgHa, (v) => yieldFromKgHa(v, units.yield, units.crop)),
+    });
+  }
+  return {
+    title: 'Leading curve of each site',
+    subtitle: '',
+    widthPx: 900,
+    heightPx: 460,
+    panels: [
+      {
+        id: 'curves',
+        title: '',
+        x: { title: 'N rate', unit: nutrientRateUnit(units.rate) },
+        y: { title: 'Yield', unit: units.yield },
+        heightShare: 1,
+        layers,
+      },
+    ],
+    note: '',
+  };
+}
+
+/**
+ * The regional return chart: mean net return over the checks against rate,
+ * with the best rate and the profitable range.
+ * @param regional - the regional return at current prices
+ * @param units - display units (money per display area)
+ * @returns the chart description
+ */
+export function regionalReturnSpec(regional: RegionalReturn, units: ChartUnits): ChartSpec {
+  const perArea = units.rate === 'lb/ac' ? 'ac' : 'ha';
+  // Money per ha → per acre: × ha per acre.
+  const money = (v: number) => (perArea === 'ac' ? (v * M2_PER_ACRE) / M2_PER_HA : v);
+  const r = (v: number) => rateFromKgHa(v, units.rate);
+  const best = r(regional.bestRateKgHa);
+  return {
+    title: 'Regional net return over the check',
+    subtitle: `Mean over ${regional.siteOptima.length} sites`,
+    widthPx: 900,
+    heightPx: 420,
+    panels: [
+      {
+        id: 'return',
+        title: '',
+        x: { title: 'N rate', unit: nutrientRateUnit(units.rate) },
+        y: { title: 'Net return over check', unit: `${units.currency}/${perArea}`, zeroLine: true },
+        heightShare: 1,
+        layers: [
+          {
+            kind: 'band',
+            name: 'Profitable range',
+            role: 'profitableRange',
+            low: r(regional.profitableRange.lowKgHa),
+            high: r(regional.profitableRange.highKgHa),
+          },
+          {
+            kind: 'curve',
+            name: 'Mean net return',
+            model: null,
+            role: 'return',
+            x: Array.from(regional.gridKgHa, r),
+            y: Array.from(regional.meanReturnPerHa, money),
+          },
+          {
+            kind: 'marker',
+            name: 'Best rate',
+            role: 'bestRate',
+            x: best,
+            label: `Best ${Math.round(best)}`,
+          },
+        ],
+      },
+    ],
+    note: '',
+  };
+}

@@ -1,0 +1,92 @@
+// Fits (from the worker, price-free) and everything re-priced from them on the main thread.
+import type { BlockTerms, ModelName } from '../../../shared/models/modelTypes';
+import type { PlotTable } from '../../../shared/table/plotTable';
+import {
+  prepareRegional,
+  regionalAtPrices,
+  siteOptima,
+  type SiteOptimum,
+} from '../analysis/pricing';
+import type { AnalysisOutput } from '../analysis/siteAnalysis';
+import { JobFailedError } from '../lib/workerProtocol';
+import type { Jobs } from './jobs.svelte';
+import type { Messages } from './messages.svelte';
+import type { Prices } from './prices.svelte';
+
+export class Analysis {
+  output = $state.raw<AnalysisOutput | null>(null);
+  /** Site → the model the user chose to lead (else the best by AICc). */
+  choices = $state<Record<string, ModelName>>({});
+  blocks = $state<BlockTerms>('fixed');
+  selectedSite = $state<string | null>(null);
+  /** Site → interval of the leading model's optimum, kg/ha (bootstrap, at the current prices). */
+  intervals = $state.raw<Record<string, [number, number]>>({});
+  /** The table the current output was fitted to (identity), to skip refitting the same one. */
+  #fittedTable: PlotTable | null = null;
+  #fittedBlocks: BlockTerms | null = null;
+
+  readonly #jobs: Jobs;
+  readonly #messages: Messages;
+  readonly #prices: Prices;
+
+  constructor(jobs: Jobs, messages: Messages, prices: Prices) {
+    this.#jobs = jobs;
+    this.#messages = messages;
+    this.#prices = prices;
+  }
+
+  optima: SiteOptimum[] = $derived.by(() => {
+    const priced = this.#prices.canonical;
+    if (!this.output || !priced.ok) return [];
+    return siteOptima(this.output.sites, this.choices, priced.prices);
+  });
+
+  /** Price-free regional gains: recomputed only when fits or model choices change. */
+  #prepared = $derived(this.output ? prepareRegional(this.output.sites, this.choices) : null);
+
+  regional = $derived.by(() => {
+    const priced = this.#prices.canonical;
+    return priced.ok ? regionalAtPrices(this.#prepared, priced.prices) : null;
+  });
+
+  /** The analysis of the selected site (the first one when none is selected). */
+  site = $derived(
+    this.output?.sites.find((s) => s.site === this.selectedSite) ?? this.output?.sites[0] ?? null,
+  );
+
+  siteOptimum = $derived(this.optima.find((o) => o.site === this.site?.site) ?? null);
+
+  /**
+   * Fits the table in the worker (cancelling a fit still running). A table
+   * with no plots clears the results.
+   */
+  async run(table: PlotTable | null): Promise<void> {
+    if (table === this.#fittedTable && this.blocks === this.#fittedBlocks) return;
+    this.#fittedTable = table;
+    this.#fittedBlocks = this.blocks;
+    if (!table || table.plots.length === 0) {
+      this.output = null;
+      return;
+    }
+    try {
+      const output = await this.#jobs.run<AnalysisOutput>('Fitting sites', 'analyse', {
+        table: $state.snapshot(table),
+        blocks: this.blocks,
+      });
+      if (output && this.#fittedTable === table) this.output = output;
+    } catch (error) {
+      const detail = error instanceof JobFailedError ? error.message : String(error);
+      this.#messages.add('error', 'The fits could not be completed', detail);
+    }
+  }
+
+  /** The optimum interval of a site's leading model, kg/ha, or null when not computed. */
+  intervalFor(site: string): [number, number] | null {
+    return this.intervals[site] ?? null;
+  }
+
+  /** Picks the model that leads at a site (its optimum, chart and report). */
+  choose(site: string, model: ModelName): void {
+    this.choices = { ...this.choices, [site]: model };
+  }
+}

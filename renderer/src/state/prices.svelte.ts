@@ -1,0 +1,31 @@
+// The prices every optimum and chart reads; stored canonical (per kg, per ha).
+import type { Prices as CanonicalPrices } from '../../../shared/economics/priceRatio';
+import { canonicalPrices, ILLUSTRATIVE_PRICES, type PriceSettings } from '../analysis/priceInputs';
+
+export class Prices {
+  settings = $state<PriceSettings>({ ...ILLUSTRATIVE_PRICES });
+  /** The canonical prices, or the reason they cannot be used (shown by the price fields). */
+  canonical: { ok: true; prices: CanonicalPrices } | { ok: false; reason: string } = $derived.by(
+    () => {
+      try {
+        const prices = canonicalPrices(this.settings);
+        if (!(prices.grainPricePerKg > 0))
+          return { ok: false, reason: 'Enter a grain price above 0.' };
+        if (!(prices.nutrientPricePerKg > 0)) {
+          return { ok: false, reason: 'Enter a product price above 0.' };
+        }
+        if (!(prices.applicationCostPerHa! >= 0)) {
+          return { ok: false, reason: 'The application cost cannot be negative.' };
+        }
+        return { ok: true, prices };
+      } catch (error) {
+        return { ok: false, reason: error instanceof Error ? error.message : String(error) };
+      }
+    },
+  );
+
+  /** Changes some inputs; any edit makes the prices the user's own. */
+  update(change: Partial<PriceSettings>): void {
+    this.settings = { ...this.settings, ...change, illustrative: false };
+  }
+}

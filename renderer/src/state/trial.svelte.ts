@@ -1,0 +1,107 @@
+// The trial as the user shaped it: mappings, import settings, plot decisions
+// (all undoable), and the plot table and findings that follow from them.
+import type { ColumnMapping } from '../../../shared/import/columnMapping';
+import { detectColumns } from '../../../shared/import/detectColumns';
+import { buildPlotTable } from '../../../shared/import/buildPlotTable';
+import { isImportError } from '../../../shared/import/importError';
+import type { RawWorkbook } from '../../../shared/import/rawWorkbook';
+import type { QualityFinding } from '../../../shared/quality/qualityFinding';
+import type { PlotTable } from '../../../shared/table/plotTable';
+import { applyDecisions, type Edits } from '../analysis/edits';
+import { UndoStack } from '../lib/undoStack';
+import type { Sources } from './sources.svelte';
+
+/** The plot table built from the files, or the message saying why it could not be. */
+export type Built =
+  { ok: true; table: PlotTable; findings: QualityFinding[] } | { ok: false; message: string };
+
+export const DEFAULT_EDITS: Edits = {
+  mappings: {},
+  settings: { crop: 'corn', rateBasis: 'nutrient' },
+  decisions: {},
+};
+
+export class Trial {
+  edits = $state.raw<Edits>(DEFAULT_EDITS);
+  undoLabel = $state<string | null>(null);
+  redoLabel = $state<string | null>(null);
+  readonly #undo = new UndoStack<Edits>();
+  readonly #sources: Sources;
+
+  constructor(sources: Sources) {
+    this.#sources = sources;
+  }
+
+  /** Workbooks that have a mapping, with their mappings, in file order. */
+  #mapped = $derived.by(() => {
+    const books: RawWorkbook[] = [];
+    const maps: ColumnMapping[] = [];
+    for (const book of this.#sources.workbooks) {
+      const mapping = this.edits.mappings[book.file.name];
+      if (mapping) {
+        books.push(book);
+        maps.push(mapping);
+      }
+    }
+    return { books, maps };
+  });
+
+  built: Built | null = $derived.by(() => {
+    const { books, maps } = this.#mapped;
+    if (books.length === 0) return null;
+    try {
+      return { ok: true, ...buildPlotTable(books, maps, this.edits.settings) };
+    } catch (error) {
+      const message =
+        isImportError(error) || error instanceof Error ? error.message : String(error);
+      return { ok: false, message };
+    }
+  });
+
+  /** The plot table with the user's decisions applied; null before any file is read. */
+  table: PlotTable | null = $derived(
+    this.built?.ok ? applyDecisions(this.built.table, this.edits.decisions) : null,
+  );
+
+  findings: QualityFinding[] = $derived(this.built?.ok ? this.built.findings : []);
+
+  /** Detects the columns of workbooks that have no mapping yet (not an undoable step). */
+  detectNew(): void {
+    const missing = this.#sources.workbooks.filter((b) => !this.edits.mappings[b.file.name]);
+    if (missing.length === 0) return;
+    const mappings = { ...this.edits.mappings };
+    for (const book of missing) mappings[book.file.name] = detectColumns(book);
+    this.edits = { ...this.edits, mappings };
+  }
+
+  /** Makes an undoable change. */
+  change(label: string, next: Edits): void {
+    this.#undo.record(label, this.edits, next);
+    this.edits = next;
+    this.#labels();
+  }
+
+  undo(): void {
+    const before = this.#undo.undo();
+    if (before) this.edits = before;
+    this.#labels();
+  }
+
+  redo(): void {
+    const after = this.#undo.redo();
+    if (after) this.edits = after;
+    this.#labels();
+  }
+
+  /** Replaces the edits wholesale (a restored session); forgets the undo history. */
+  restore(edits: Edits): void {
+    this.edits = edits;
+    this.#undo.clear();
+    this.#labels();
+  }
+
+  #labels(): void {
+    this.undoLabel = this.#undo.undoLabel;
+    this.redoLabel = this.#undo.redoLabel;
+  }
+}
