@@ -143,3 +143,33 @@ describe('sortSiteRows and filterSiteRows', () => {
     expect(() => sortSiteRows(a.rows, 'colour' as never)).toThrow(/"colour" is not a column/);
   });
 });
+
+describe('pooled plateau tests against R (tests/fixtures/sites/pooledPlateau.R, R 4.2.2)', () => {
+  // R profiles the join with optimize() on every interval between rates, inner fit lm();
+  // SSE agrees to 1e-7 relative (a flat minimum: SSE is insensitive to small x0 errors).
+  const r = readRCsv('pooledPlateau.csv');
+  const a = analyseAcrossSites(pooledPlotTable(), { prices });
+  for (const model of ['linearPlateau', 'quadraticPlateau'] as const) {
+    it(`the ${model} pooled-versus-site-curves F-test matches R's profiled fits`, () => {
+      const rows = r.filter((x) => x.model === model);
+      const pooledR = rows.find((x) => x.part === '(pooled)')!;
+      const separateR = rows
+        .filter((x) => x.part !== '(pooled)')
+        .reduce((s, x) => s + Number(x.sse), 0);
+      const t = a.sharedResponse.plateau[model];
+      expect(t.partsUsed).toHaveLength(6);
+      expect(Math.abs(t.pooled!.sse - Number(pooledR.sse))).toBeLessThanOrEqual(
+        1e-7 * Number(pooledR.sse),
+      );
+      expect(Math.abs(t.separate!.sse - separateR)).toBeLessThanOrEqual(1e-7 * separateR);
+      if (t.result.kind !== 'f-test') throw new Error('expected a test');
+      expect([t.result.df1, t.result.df2]).toEqual([Number(pooledR.df1), Number(pooledR.df2)]);
+      expect(Math.abs(t.result.f - Number(pooledR.F))).toBeLessThanOrEqual(
+        1e-6 * Number(pooledR.F),
+      );
+      expect(Math.abs(t.result.p - Number(pooledR.p))).toBeLessThanOrEqual(
+        1e-9 + 1e-5 * Number(pooledR.p),
+      );
+    });
+  }
+});
