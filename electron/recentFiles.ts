@@ -58,6 +58,12 @@ export class RecentFiles {
     );
   }
 
+  /** Empty the list and save it. */
+  async clear(): Promise<void> {
+    this.#entries = [];
+    await writeFileAtomic(this.file, `${JSON.stringify({ version: 1, entries: [] }, null, 2)}\n`);
+  }
+
   /** The list for the page, newest first. */
   list(): RecentFile[] {
     return this.#entries.map((e) => ({

@@ -1,4 +1,5 @@
 import type { BrowserWindowConstructorOptions } from 'electron';
+import { VERSION_SWITCH } from './ipcChannels';
 
 /**
  * The options of Plotrate's one window. Each security setting is written out
@@ -7,10 +8,12 @@ import type { BrowserWindowConstructorOptions } from 'electron';
  *
  * @param preloadPath absolute path of the bundled preload (dist-electron/preload.cjs)
  * @param iconPath absolute path of the window icon (Linux and Windows use it)
+ * @param appVersion Plotrate's version, handed to the sandboxed preload as a switch
  */
 export function buildWindowOptions(
   preloadPath: string,
   iconPath: string,
+  appVersion: string,
 ): BrowserWindowConstructorOptions {
   return {
     width: 1280,
@@ -23,6 +26,7 @@ export function buildWindowOptions(
     backgroundColor: '#f6f4ee',
     webPreferences: {
       preload: preloadPath,
+      additionalArguments: [`${VERSION_SWITCH}${appVersion}`],
       contextIsolation: true,
       sandbox: true,
       nodeIntegration: false,
