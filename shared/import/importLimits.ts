@@ -13,6 +13,12 @@ export interface ImportLimits {
   maxRows: number;
   /** Most entries accepted inside an .xlsx zip. */
   maxZipEntries: number;
+  /**
+   * Largest expansion of one zip part, unzipped ÷ zipped, checked once the part
+   * passes 8 MiB unzipped. Worksheet XML deflates about 5–50×; a zip bomb nears
+   * deflate's limit of about 1032×, so this refuses one after a few MB of work.
+   */
+  maxCompressionRatio: number;
 }
 
 /**
@@ -25,6 +31,7 @@ export const importLimits: Readonly<ImportLimits> = {
   maxUncompressedBytes: 256 * 1024 * 1024,
   maxRows: 250_000,
   maxZipEntries: 2_000,
+  maxCompressionRatio: 400,
 };
 
 /**

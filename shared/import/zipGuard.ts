@@ -52,7 +52,7 @@ function readEntries(name: string, bytes: Uint8Array, maxEntries: number): ZipEn
   if (count === 0xffff || cdOffset === 0xffffffff || cdSize === 0xffffffff) {
     throw new ImportError(
       'uncompressed-too-large',
-      `"${name}" is a ZIP64 archive, used only for contents over 4 GiB, far beyond the limit of ${formatBytes(importLimits.maxUncompressedBytes)} unzipped; split the workbook.`,
+      `"${name}" is a ZIP64 archive, a form used only for contents over 4 GiB or over 65 535 parts, far beyond any trial workbook; save a copy with only the trial sheets.`,
       { file: name },
     );
   }
@@ -118,7 +118,10 @@ class CapReached extends Error {}
 export function guardZip(
   name: string,
   bytes: Uint8Array,
-  limits: Pick<ImportLimits, 'maxUncompressedBytes' | 'maxZipEntries'> = importLimits,
+  limits: Pick<
+    ImportLimits,
+    'maxUncompressedBytes' | 'maxZipEntries' | 'maxCompressionRatio'
+  > = importLimits,
 ): number {
   const cap = limits.maxUncompressedBytes;
   const tooLarge = (what: string) =>
@@ -147,19 +150,34 @@ export function guardZip(
     }
     if (e.method !== 8)
       throw corrupt(name, `the part "${e.name}" uses an unknown compression method ${e.method}`);
+    let partOut = 0;
+    let partIn = 0;
+    const ratioCap = limits.maxCompressionRatio;
     const inflater = new Inflate((chunk) => {
       total += chunk.length;
-      if (total > cap) throw new CapReached();
+      partOut += chunk.length;
+      if (total > cap) throw new CapReached('total');
+      if (partOut > 8 * 1024 * 1024 && partOut / partIn > ratioCap) throw new CapReached('ratio');
     });
     // Small input chunks bound each push's output (deflate expands at most ~1032:1).
     const step = 4096;
     try {
       for (let i = start; i < end; i += step) {
-        inflater.push(bytes.subarray(i, Math.min(end, i + step)), i + step >= end);
+        const piece = bytes.subarray(i, Math.min(end, i + step));
+        partIn += piece.length;
+        inflater.push(piece, i + step >= end);
       }
     } catch (err) {
-      if (err instanceof CapReached)
+      if (err instanceof CapReached && err.message === 'ratio') {
+        throw new ImportError(
+          'uncompressed-too-large',
+          `"${name}" has a part ("${e.name}") that expands more than ${ratioCap}-fold when unzipped, the limit for a workbook part; real sheets expand 5–50-fold, so this file is built to exhaust memory (a "zip bomb"). It was not opened.`,
+          { file: name },
+        );
+      }
+      if (err instanceof CapReached) {
         throw tooLarge('unzips to more than that (its declared sizes are false)');
+      }
       throw corrupt(name, `the part "${e.name}" does not unzip`);
     }
   }
