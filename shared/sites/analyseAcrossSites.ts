@@ -85,7 +85,12 @@ export interface AcrossSiteOptions {
   alpha?: number;
   /** Level terms of the common-response tests, default "site". */
   levels?: LevelTerms;
-  /** Group columns to analyse (Plot.groups keys, or "year"); default every one present. */
+  /**
+   * Group columns to analyse (Plot.groups keys, or "year"). Default: every column that is a
+   * property of the site, i.e. whose value never differs between the plots of one site; a
+   * column that varies within sites (a treatment attribute such as source or timing) is
+   * listed in `groupKeysSkipped` with the reason.
+   */
   groupKeys?: readonly string[];
 }
 
@@ -161,6 +166,8 @@ export interface AcrossSiteAnalysis {
     groupKeys: readonly string[];
   };
   sites: SiteAnalysis[];
+  /** Group columns not analysed by default, with the reason. */
+  groupKeysSkipped: { key: string; reason: string }[];
   /** One row per site and model, at the current prices. */
   rows: SiteModelRow[];
   sharedResponse: SharedResponseTests;
@@ -343,10 +350,20 @@ function regionalCurves(
       });
       continue;
     }
-    const note =
-      fit.testedRates.lowestKgHa > 0
-        ? `no plot at rate 0: the check is the ${MODEL_LABEL[model]}'s value at 0, below the lowest tested rate`
-        : '';
+    const notes: string[] = [];
+    if (fit.testedRates.lowestKgHa > 0) {
+      notes.push(
+        `no plot at rate 0: the check is the ${MODEL_LABEL[model]}'s value at 0, below the lowest tested rate`,
+      );
+    }
+    if (fit.status === 'full-response-at-lowest-rate' && fit.joinBetweenKgHa) {
+      // DESIGN.md, identifiability: any join in the first interval fits equally well.
+      const [lo, hi] = fit.joinBetweenKgHa;
+      notes.push(
+        `full response by the lowest non-zero rate: the curve between ${lo} and ${hi} kg/ha is not fixed by the data`,
+      );
+    }
+    const note = notes.join('; ');
     used.push({ site: s.site, model, fit, note });
   }
   return { used, leftOut };
@@ -539,6 +556,16 @@ export function analyseAcrossSites(
     : sitePlots(source as PlotTable);
   const keys = new Set<string>();
   for (const p of plots) for (const k of Object.keys(p.groups)) keys.add(k);
+  // sitePlots maps a column that differs within a site to null for that site.
+  const groupKeysSkipped = options.groupKeys
+    ? []
+    : [...keys]
+        .filter((k) => plots.some((p) => k in p.groups && p.groups[k] === null))
+        .map((key) => ({
+          key,
+          reason: `its value differs between the plots of ${plots.filter((p) => key in p.groups && p.groups[key] === null).length} site(s), so it is not a property of the site`,
+        }));
+  const skipped = new Set(groupKeysSkipped.map((k) => k.key));
   const o: AcrossSiteAnalysis['options'] = {
     prices: { ...options.prices },
     blocks: options.blocks ?? 'auto',
@@ -549,7 +576,7 @@ export function analyseAcrossSites(
     bandPerHa: options.bandPerHa ?? ONE_PER_ACRE_IN_PER_HA,
     alpha,
     levels: options.levels ?? 'site',
-    groupKeys: options.groupKeys ?? [...keys],
+    groupKeys: options.groupKeys ?? [...keys].filter((k) => !skipped.has(k)),
   };
   // Check prices, band and grid once, before any fitting.
   assertPrices(o.prices);
@@ -567,6 +594,7 @@ export function analyseAcrossSites(
   return {
     options: o,
     sites,
+    groupKeysSkipped,
     rows: sites.flatMap((s) => siteModelRows(s, o.prices)),
     ...whole,
     groups: o.groupKeys.map((k) => groupAnalysis(k, plots, analyses, o, whole)),
