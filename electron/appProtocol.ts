@@ -32,7 +32,7 @@ export function resolveAppRequest(url: string, rootDir: string): string | null {
   } catch {
     return null;
   }
-  if (parsed.protocol !== `${APP_SCHEME}:` || parsed.host !== APP_HOST) return null;
+  if (parsed.protocol !== `${APP_SCHEME}:` || parsed.host.toLowerCase() !== APP_HOST) return null;
   // Encoded slashes or backslashes could smuggle a separator past URL normalisation.
   if (/%2f|%5c|%00/i.test(parsed.pathname)) return null;
   let relative: string;

@@ -20,8 +20,13 @@ export function isAppSender(frame: SenderFrameLike | null | undefined): boolean 
   if (!frame || frame.parent !== null || typeof frame.url !== 'string') return false;
   try {
     const url = new URL(frame.url);
-    // Node's URL gives a custom scheme the origin "null", so compare scheme and host.
-    return url.protocol === `${APP_SCHEME}:` && url.host === APP_HOST && url.username === '';
+    // Node's URL gives a custom scheme the origin "null" and keeps the host's case
+    // (Chromium lowers it for a standard scheme), so compare scheme and lower-cased host.
+    return (
+      url.protocol === `${APP_SCHEME}:` &&
+      url.host.toLowerCase() === APP_HOST &&
+      url.username === ''
+    );
   } catch {
     return false;
   }

@@ -11,7 +11,7 @@ import { APP_HOST, APP_SCHEME } from './appProtocol';
 export function isAppUrl(url: string): boolean {
   try {
     const u = new URL(url);
-    return u.protocol === `${APP_SCHEME}:` && u.host === APP_HOST;
+    return u.protocol === `${APP_SCHEME}:` && u.host.toLowerCase() === APP_HOST;
   } catch {
     return false;
   }
