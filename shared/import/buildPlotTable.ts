@@ -293,13 +293,17 @@ function readPlotsSheet(
     if (row.every((c) => !c || (c.kind === 'blank' && !c.formula) || c.text.trim() === ''))
       continue;
     const at = (a: ColumnAssignment | undefined) => (a ? (row[a.col - 1] ?? null) : null);
-    const hasPlotKeys = [cols.plot, cols.block, cols.treatment, cols.rate].some(
-      (a) => labelOf(at(a)) !== null,
-    );
+    // A summary row ("Mean", "CV %", "LSD 0.05") starts with such a word and has no plot,
+    // treatment or rate of its own.
     const first = row.find((c) => c && c.text.trim() !== '');
+    const hasPlotKeys = [cols.plot, cols.treatment, cols.rate].some((a) => {
+      const c = at(a);
+      return c !== first && labelOf(c) !== null;
+    });
     if (
       !hasPlotKeys &&
       first &&
+      first.kind === 'text' &&
       /^(mean|means|average|avg|cv|c\.v\.|lsd|total|sum|std|sd|se|s\.e\.|grand mean)\b/i.test(
         first.text.trim(),
       )

@@ -88,11 +88,10 @@ export interface UnitHint {
  */
 export function unitFromHeader(header: string): UnitHint | null {
   const h = normaliseHeader(header);
-  const perArea =
-    /\b(lbs?|pounds?|kg|g|t|mg|tonnes?|tons?|bu|bushels?)\.?\s*(?:of\s*)?([a-z0-9 ]*?)\s*(?:\/|per)\s*(ac|acre|a|ha|hectare|m2|sq\.? ?m)\b/.exec(
-      h,
-    );
-  if (perArea) {
+  // Every "<mass> [word] / <area>" in the header is tried until one is a known unit.
+  const perAreaRe =
+    /\b(lbs?|pounds?|kg|g|t|mg|tonnes?|tons?|bu|bushels?)\.?\s*(?:of\s*)?([a-z0-9]*)\s*(?:\/|per)\s*(ac|acre|a|ha|hectare|m2|sq\.? ?m)\b/g;
+  for (const perArea of h.matchAll(perAreaRe)) {
     const [text, massWord, middle, areaWord] = perArea;
     const perHa = areaWord === 'ha' || areaWord === 'hectare';
     const perM2 = areaWord.startsWith('m2') || areaWord.startsWith('sq');
@@ -100,12 +99,11 @@ export function unitFromHeader(header: string): UnitHint | null {
     const basis: UnitHint['basis'] =
       mid === 'n' || mid === 'nitrogen' ? 'nutrient' : mid === '' ? null : 'product';
     let unit: HeaderUnit | null = null;
-    if (/^(bu|bushels?)$/.test(massWord)) unit = 'bu/ac';
+    if (/^(bu|bushels?)$/.test(massWord)) unit = perHa || perM2 ? null : 'bu/ac';
     else if (/^(lbs?|pounds?)$/.test(massWord)) unit = perHa || perM2 ? null : 'lb/ac';
     else if (massWord === 'kg') unit = perHa ? 'kg/ha' : null;
     else if (massWord === 'g') unit = perM2 ? 'g/m2' : null;
-    else if (/^(t|mg|tonnes?)$/.test(massWord)) unit = perHa ? 't/ha' : null;
-    else if (/^tons?$/.test(massWord)) unit = perHa ? 't/ha' : null;
+    else if (/^(t|mg|tonnes?|tons?)$/.test(massWord)) unit = perHa ? 't/ha' : null;
     if (unit) return { unit, basis, text };
   }
   if (/\bbpa\b/.test(h)) return { unit: 'bu/ac', basis: null, text: 'bpa' };
