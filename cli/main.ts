@@ -1,2 +1,71 @@
-// Entry point of the `plotrate` command line; the commands arrive with the report issue.
-console.log('plotrate: yield-response analysis for fertilizer-rate trials (commands coming).');
+// Entry point of the `plotrate` command line: parse, dispatch, and turn every
+// failure into one line on stderr and an exit code (0 done, 1 analysis failed,
+// 2 bad input or usage).
+import { readFileSync } from 'node:fs';
+import { isImportError } from '../shared/import/importError';
+import { AnalysisFailed, analyzeCommand, type Console2 } from './analyzeCommand';
+import { demoCommand } from './demoCommand';
+import { helpText } from './helpText';
+import { parseArgs } from './parseArgs';
+import { UsageError } from './usageError';
+
+const version = (
+  JSON.parse(readFileSync(new URL('../package.json', import.meta.url), 'utf8')) as {
+    version: string;
+  }
+).version;
+
+const log: Console2 = {
+  out: (line) => process.stdout.write(`${line}\n`),
+  err: (line) => process.stderr.write(`${line}\n`),
+};
+
+/** One line: the reason, with no stack (the user can act on the message). */
+function oneLine(text: string): string {
+  return text.replace(/\s*\n\s*/g, ' ').trim();
+}
+
+async function main(argv: string[]): Promise<number> {
+  try {
+    const cmd = parseArgs(argv);
+    if (cmd.command === 'help') {
+      process.stdout.write(helpText(version));
+      return 0;
+    }
+    if (cmd.command === 'version') {
+      log.out(version);
+      return 0;
+    }
+    if (cmd.command === 'demo') {
+      await demoCommand(cmd.dir, log, version);
+      return 0;
+    }
+    await analyzeCommand(cmd, log, version);
+    return 0;
+  } catch (e) {
+    if (e instanceof UsageError) {
+      log.err(`plotrate: ${oneLine(e.message)}`);
+      return 2;
+    }
+    if (isImportError(e)) {
+      const where = e.where
+        ? [e.where.file, e.where.sheet, e.where.cell].filter(Boolean).join(' › ')
+        : '';
+      const msg = oneLine(e.message);
+      // The message usually names the place already; add it only when it does not.
+      log.err(
+        `plotrate: ${where && !msg.includes(e.where?.cell ?? '\u0000') && !msg.includes(e.where?.file ?? '\u0000') ? `${where}: ` : ''}${msg}`,
+      );
+      return 2;
+    }
+    if (e instanceof AnalysisFailed) {
+      log.err(`plotrate: analysis failed: ${oneLine(e.message)}`);
+      return 1;
+    }
+    log.err(`plotrate: analysis failed: ${oneLine(e instanceof Error ? e.message : String(e))}`);
+    if (process.env.PLOTRATE_DEBUG && e instanceof Error) log.err(e.stack ?? '');
+    return 1;
+  }
+}
+
+process.exitCode = await main(process.argv.slice(2));

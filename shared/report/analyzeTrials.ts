@@ -21,6 +21,7 @@ import { sitePlots } from '../sites/sitePlots';
 import { testIntercept } from '../stats/interceptTest';
 import { oneWayAnova } from '../stats/oneWayAnova';
 import { randomizedBlockAnova } from '../stats/randomizedBlockAnova';
+import { describeRef, type QualityFinding } from '../quality/qualityFinding';
 import { analysablePlots, siteNames, type PlotTable } from '../table/plotTable';
 import { bootstrapSiteOptimum } from './bootstrapSiteOptimum';
 import { priceTerms, type ReportSettings } from './reportSettings';
@@ -43,6 +44,8 @@ export interface AnalyzeMeta {
   mapping: MappingEntry[];
   /** Run-level findings from import (e.g. defaulted prices) to carry into the report. */
   warnings?: string[];
+  /** Quality findings from import and the checks; warnings and errors are shown by their site. */
+  findings?: readonly QualityFinding[];
   /** Called after each site with (done, total), for progress on long runs. */
   onProgress?: (done: number, total: number) => void;
 }
@@ -238,13 +241,26 @@ export function analyzeTrials(
   const names = siteNames(table);
   const sites: SiteReport[] = [];
   const chosenFits = new Map<string, ModelFit>();
+  const findingsBySite = new Map<string, string[]>();
+  const runFindings: string[] = [];
+  for (const f of meta.findings ?? []) {
+    if (f.severity === 'info') continue;
+    const text = f.refs.length ? `${f.message} (${describeRef(f.refs[0])})` : f.message;
+    if (f.site === undefined) runFindings.push(text);
+    else findingsBySite.set(f.site, [...(findingsBySite.get(f.site) ?? []), text]);
+  }
   names.forEach((site, index) => {
     const plots = table.plots.filter((p) => p.site === site);
     const used = usableAll.filter((p) => p.site === site);
     const rates = used.map((p) => p.rateKgHa!);
     const yields = used.map((p) => p.yieldKgHa!);
     const blocks = used.map((p) => p.block);
-    const warnings: string[] = [];
+    const found = findingsBySite.get(site) ?? [];
+    // A long list hides the important lines; the rest are in the quality report on screen.
+    const warnings: string[] =
+      found.length > 6
+        ? [...found.slice(0, 5), `… and ${found.length - 5} more findings about this site's data.`]
+        : [...found];
     const distinct = [...new Set(rates)].sort((a, b) => a - b);
     const blockCount = new Set(blocks.filter((b) => b !== null)).size;
     const designText = `${blockCount > 0 ? `${blockCount} block${blockCount === 1 ? '' : 's'} × ` : ''}${distinct.length} rate${distinct.length === 1 ? '' : 's'}`;
@@ -376,7 +392,7 @@ export function analyzeTrials(
   });
 
   const acrossSites = acrossSitesOf(table, chosenFits, prices, band);
-  const runWarnings = [...(meta.warnings ?? [])];
+  const runWarnings = [...(meta.warnings ?? []), ...runFindings.slice(0, 10)];
   if (settings.prices.defaulted)
     runWarnings.push(
       'No prices were given: illustrative prices were used. Give your own grain and nitrogen prices before acting on any rate.',

@@ -236,12 +236,16 @@ export function growerPage(report: TrialReport, which: string | 'region'): Growe
     (v) => `${formatQuantity(applicationRound(v, ru), ru, 0).replace(ru, nutrientUnit(ru))}`,
     s.bootstrap?.level ?? 0.9,
   );
+  const roundedRate = applicationRound(u.rate(opt), ru);
   return {
     ...base,
     subject: s.site,
-    recommendation: `Apply about ${fmtRate(opt)}`,
-    productRecommendation: productText(opt),
-    rate: applicationRound(u.rate(opt), ru),
+    recommendation:
+      roundedRate === 0
+        ? 'Apply no N: at these prices it did not pay here'
+        : `Apply about ${fmtRate(opt)}`,
+    productRecommendation: roundedRate === 0 ? '' : productText(opt),
+    rate: roundedRate,
     facts,
     certainty: cert,
     basis,

@@ -1,0 +1,279 @@
+/**
+ * `plotrate analyze`: read the files, call shared/ for everything else, write
+ * the outputs asked for. Outputs are written to a temporary name beside the
+ * target and renamed, so an interrupted run never leaves half a file, and no
+ * output may be one of the inputs.
+ */
+import { existsSync, readFileSync, realpathSync, renameSync, writeFileSync, rmSync } from 'node:fs';
+import path from 'node:path';
+import { defaultPrices } from '../shared/report/defaultPrices';
+import { analyzeTrials } from '../shared/report/analyzeTrials';
+import { regionalReturnChart } from '../shared/report/regionalReturnChart';
+import { resultsJson } from '../shared/report/resultsJson';
+import type { PriceInput, ReportSettings, ReportUnits } from '../shared/report/reportSettings';
+import { siteResponseChart } from '../shared/report/siteResponseChart';
+import { tableFromFiles } from '../shared/report/tableFromFiles';
+import { unitScale } from '../shared/report/unitScale';
+import type { TrialReport } from '../shared/report/trialReport';
+import { reportGrowerPages, writeWorkbook } from '../shared/report/workbook';
+import type { SheetImage } from '../shared/report/workbookSite';
+import { displayUnits } from '../shared/units/displayUnits';
+import { formatQuantity } from '../shared/units/formatQuantity';
+import { chartPng } from './chartPng';
+import { growerPdf } from './growerPdf';
+import type { AnalyzeArgs } from './parseArgs';
+import { UsageError } from './usageError';
+
+/** Thrown when the analysis ran but produced nothing usable: exit code 1. */
+export class AnalysisFailed extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = 'AnalysisFailed';
+  }
+}
+
+/** Where the command writes its messages; tests and the demo command pass their own. */
+export interface Console2 {
+  out: (line: string) => void;
+  err: (line: string) => void;
+}
+
+function resolved(p: string): string {
+  const abs = path.resolve(p);
+  try {
+    return realpathSync(abs);
+  } catch {
+    // Not there yet: compare the folder's real path with the name.
+    try {
+      return path.join(realpathSync(path.dirname(abs)), path.basename(abs));
+    } catch {
+      return abs;
+    }
+  }
+}
+
+function checkOutputs(args: AnalyzeArgs): void {
+  const inputs = new Map(args.files.map((f) => [resolved(f), f]));
+  const outs: [string, string | null, string][] = [
+    ['--out', args.out, '.xlsx'],
+    ['--pdf', args.pdf, '.pdf'],
+    ['--json', args.json, '.json'],
+  ];
+  const seen = new Map<string, string>();
+  for (const [option, p, ext] of outs) {
+    if (!p) continue;
+    const r = resolved(p);
+    const input = inputs.get(r);
+    if (input !== undefined) {
+      throw new UsageError(
+        `${option} ${p} is the input file "${input}"; choose another name, an input is never written over.`,
+      );
+    }
+    if (seen.has(r))
+      throw new UsageError(
+        `${option} ${p} is also given to ${seen.get(r)}; give each output its own file.`,
+      );
+    seen.set(r, option);
+    if (path.extname(p).toLowerCase() !== ext)
+      throw new UsageError(`${option} ${p}: name the file with ${ext}.`);
+    if (!existsSync(path.dirname(path.resolve(p)))) {
+      throw new UsageError(
+        `${option} ${p}: the folder ${path.dirname(path.resolve(p))} does not exist.`,
+      );
+    }
+  }
+}
+
+function writeAtomically(file: string, bytes: Uint8Array | string): void {
+  const tmp = path.join(
+    path.dirname(path.resolve(file)),
+    `.${path.basename(file)}.${process.pid}.part`,
+  );
+  try {
+    writeFileSync(tmp, bytes);
+    renameSync(tmp, file);
+  } catch (e) {
+    rmSync(tmp, { force: true });
+    throw e;
+  }
+}
+
+function readInputs(files: string[]): { name: string; bytes: Uint8Array }[] {
+  return files.map((f) => {
+    try {
+      return { name: path.basename(f), bytes: new Uint8Array(readFileSync(f)) };
+    } catch (e) {
+      const code = (e as NodeJS.ErrnoException).code;
+      const why =
+        code === 'ENOENT'
+          ? 'no such file'
+          : code === 'EISDIR'
+            ? 'it is a folder'
+            : code === 'EACCES'
+              ? 'permission denied'
+              : String((e as Error).message);
+      throw new UsageError(`Cannot read ${f}: ${why}.`);
+    }
+  });
+}
+
+/** Prices from the options, filling what is missing with the illustrative ones. */
+function pricesFrom(args: AnalyzeArgs, units: ReportUnits): PriceInput {
+  const d = defaultPrices(args.crop, units);
+  const nutrientGiven = args.nutrientPrice !== null || args.product !== null;
+  return {
+    grainPrice: args.grainPrice ?? d.grainPrice,
+    nutrientPrice: args.product ? null : (args.nutrientPrice ?? d.nutrientPrice),
+    product:
+      args.product && args.productPrice !== null
+        ? { id: args.product, price: args.productPrice }
+        : null,
+    defaulted: args.grainPrice === null || !nutrientGiven,
+  };
+}
+
+/** The report's charts as PNG, by site, and the regional one. */
+function drawCharts(
+  report: TrialReport,
+  log: Console2,
+): { sites: Record<string, SheetImage>; region: SheetImage | null } {
+  const sites: Record<string, SheetImage> = {};
+  report.sites.forEach((s, i) => {
+    const spec = siteResponseChart(report, s);
+    sites[s.site] = { png: chartPng(spec), widthPx: spec.widthPx, heightPx: spec.heightPx };
+    if (report.sites.length >= 50 && (i + 1) % Math.ceil(report.sites.length / 10) === 0) {
+      log.err(`plotrate: drawing charts ${i + 1}/${report.sites.length}`);
+    }
+  });
+  const rs = regionalReturnChart(report);
+  return {
+    sites,
+    region: rs ? { png: chartPng(rs), widthPx: rs.widthPx, heightPx: rs.heightPx } : null,
+  };
+}
+
+function summary(report: TrialReport): string[] {
+  const u = unitScale(report.settings.units, report.crop);
+  const ru = report.settings.units.rate;
+  const rate = (kgHa: number | null | undefined): string =>
+    kgHa == null ? '—' : formatQuantity(u.rate(kgHa), ru, 0);
+  const lines: string[] = [];
+  const show = report.sites.slice(0, 20);
+  for (const s of show) {
+    const m = s.models.find((x) => x.model === s.bestModel);
+    const ci = s.bootstrap?.ciKgHa;
+    const y = m?.yieldAtOptimumKgHa;
+    const text = m
+      ? `${m.label}, optimum ${rate(m.optimumRateKgHa)} N${ci ? ` (${rate(ci[0])} to ${rate(ci[1])})` : ''}${y != null ? `, yield ${formatQuantity(u.yield(y), report.settings.units.yield)}` : ''}`
+      : 'no rate (see the report)';
+    lines.push(`${s.site}: ${text}`);
+  }
+  if (report.sites.length > show.length)
+    lines.push(`… ${report.sites.length - show.length} more sites in the report.`);
+  const a = report.acrossSites;
+  if (a) {
+    lines.push(
+      `Across ${a.sites.length} sites: ${rate(a.bestRateKgHa)} N, profitable from ${rate(a.profitableRangeKgHa[0])} to ${rate(a.profitableRangeKgHa[1])}.`,
+    );
+  }
+  for (const w of report.warnings) lines.push(`Note: ${w}`);
+  return lines;
+}
+
+/**
+ * Runs the analyze command.
+ * @param args - parsed options
+ * @param log - where to print the summary (out) and progress (err)
+ * @param version - the app version for the reports
+ * @param extra - sheets to import (default all) and a fixed time stamp (the demo's)
+ * @returns the report (for the demo command)
+ * @throws {UsageError} for bad options or unreadable files; {ImportError} for files that cannot be used;
+ *   {AnalysisFailed} when no site could be fitted
+ */
+export async function analyzeCommand(
+  args: AnalyzeArgs,
+  log: Console2,
+  version: string,
+  extra: { sheets?: string[]; createdAt?: string } = {},
+): Promise<TrialReport> {
+  checkOutputs(args);
+  const files = readInputs(args.files);
+  log.err(`plotrate: reading ${files.map((f) => f.name).join(', ')}`);
+  const imported = await tableFromFiles(files, {
+    crop: args.crop,
+    overrides: args.map,
+    sheets: extra.sheets,
+  });
+  const units = args.units ? toReportUnits(args.units) : imported.inputUnits;
+  const prices = pricesFrom(args, units);
+  if (prices.defaulted) {
+    log.err(
+      `plotrate: no ${args.grainPrice === null ? 'grain' : 'nitrogen'} price given; using illustrative prices (see --grain-price, --nutrient-price).`,
+    );
+  }
+  const settings: ReportSettings = {
+    units,
+    unitSystem: args.units,
+    crop: args.crop,
+    prices,
+    boot: args.boot,
+    seed: args.seed,
+    blocks: args.blocks,
+    intervalLevel: 0.9,
+  };
+  const siteCount = new Set(imported.table.plots.map((p) => p.site)).size;
+  log.err(
+    `plotrate: ${imported.table.plots.length} plots at ${siteCount} site${siteCount === 1 ? '' : 's'}; fitting six models per site${args.boot ? ` with ${args.boot} bootstrap resamples` : ''}`,
+  );
+  const step = Math.max(1, Math.ceil(siteCount / 10));
+  const report = analyzeTrials(imported.table, settings, {
+    tool: { name: 'Plotrate', version },
+    createdAt: extra.createdAt ?? new Date().toISOString().replace(/\.\d+Z$/, 'Z'),
+    mapping: imported.mapping,
+    findings: imported.findings,
+    onProgress: (done, total) => {
+      if (total >= 20 && (done % step === 0 || done === total))
+        log.err(`plotrate: analysed ${done}/${total} sites`);
+    },
+  });
+  if (report.sites.every((s) => s.models.length === 0)) {
+    throw new AnalysisFailed(
+      `No site could be fitted: ${report.sites[0]?.warnings[0] ?? 'no plots with both a rate and a yield'}`,
+    );
+  }
+  const charts = args.out || args.pdf ? drawCharts(report, log) : null;
+  if (args.out && charts) {
+    log.err(`plotrate: writing ${args.out}`);
+    writeAtomically(
+      args.out,
+      await writeWorkbook(report, { siteCharts: charts.sites, acrossChart: charts.region }),
+    );
+  }
+  if (args.pdf && charts) {
+    log.err(`plotrate: writing ${args.pdf}`);
+    const pageCharts: Record<string, { png: Uint8Array; aspect: number }> = {};
+    for (const [site, c] of Object.entries(charts.sites))
+      pageCharts[site] = { png: c.png, aspect: c.heightPx / c.widthPx };
+    if (charts.region && report.acrossSites) {
+      pageCharts[`Region (${report.acrossSites.sites.length} sites)`] = {
+        png: charts.region.png,
+        aspect: charts.region.heightPx / charts.region.widthPx,
+      };
+    }
+    writeAtomically(
+      args.pdf,
+      await growerPdf(reportGrowerPages(report), pageCharts, new Date(report.createdAt)),
+    );
+  }
+  if (args.json) {
+    log.err(`plotrate: writing ${args.json}`);
+    writeAtomically(args.json, `${JSON.stringify(resultsJson(report), null, 2)}\n`);
+  }
+  for (const line of summary(report)) log.out(line);
+  return report;
+}
+
+function toReportUnits(system: 'us' | 'metric'): ReportUnits {
+  const d = displayUnits(system);
+  return { rate: d.rateUnit, yield: d.yieldUnit };
+}

@@ -1,0 +1,89 @@
+/**
+ * `plotrate demo`: writes the invented demo trial workbook and its full
+ * report (workbook, grower PDF, results JSON) for the corn sites in US units
+ * and for the wheat site in metric units, so a new user sees every output.
+ */
+import { mkdirSync, writeFileSync, existsSync } from 'node:fs';
+import path from 'node:path';
+import { demoTrial, writeDemoWorkbook, demoSheetNames } from '../shared/demo';
+import { analyzeCommand, type Console2 } from './analyzeCommand';
+import type { AnalyzeArgs } from './parseArgs';
+
+/** The demo workbook's file name (the same as the copy bundled in demo/). */
+export const demoFileName = 'wrenhollow-n-trials-2025.xlsx';
+
+/**
+ * Runs the demo command.
+ * @param dir - folder to write into (created when missing)
+ * @param log - where messages go
+ * @param version - the app version
+ */
+export async function demoCommand(dir: string, log: Console2, version: string): Promise<void> {
+  mkdirSync(dir, { recursive: true });
+  const trial = demoTrial();
+  const input = path.join(dir, demoFileName);
+  // The demo file is ours to write, but a user's edited copy of it is not: keep it.
+  if (existsSync(input)) {
+    log.err(`plotrate: ${input} exists; analysing that copy as it is.`);
+  } else {
+    writeFileSync(input, await writeDemoWorkbook(trial));
+    log.out(`Wrote ${input}`);
+  }
+  const base: Omit<
+    AnalyzeArgs,
+    'out' | 'pdf' | 'json' | 'crop' | 'units' | 'grainPrice' | 'nutrientPrice'
+  > = {
+    command: 'analyze',
+    files: [input],
+    product: null,
+    productPrice: null,
+    boot: 200,
+    seed: 1,
+    blocks: 'none',
+    map: [],
+  };
+  const createdAt = new Date().toISOString().replace(/\.\d+Z$/, 'Z');
+  const corn = trial.sites.filter((s) => s.crop === 'corn').map((s) => s.name);
+  const runs = [
+    {
+      name: 'corn',
+      crop: 'corn' as const,
+      units: 'us' as const,
+      grainPrice: 4.5,
+      nutrientPrice: 0.6,
+      sheets: corn,
+    },
+    {
+      name: 'wheat',
+      crop: 'wheat' as const,
+      units: 'metric' as const,
+      grainPrice: 220,
+      nutrientPrice: 1.3,
+      sheets: [demoSheetNames.wheat],
+    },
+  ];
+  for (const r of runs) {
+    const out = path.join(dir, `demo-${r.name}-report.xlsx`);
+    const pdf = path.join(dir, `demo-${r.name}-recommendation.pdf`);
+    const json = path.join(dir, `demo-${r.name}-results.json`);
+    log.out(
+      `\n${r.name === 'corn' ? 'Corn sites (US units, illustrative prices 4.50/bu and 0.60/lb N)' : 'Wheat sites (metric units, illustrative prices 220/t and 1.30/kg N)'}`,
+    );
+    await analyzeCommand(
+      {
+        ...base,
+        out,
+        pdf,
+        json,
+        crop: r.crop,
+        units: r.units,
+        grainPrice: r.grainPrice,
+        nutrientPrice: r.nutrientPrice,
+      },
+      log,
+      version,
+      { sheets: r.sheets, createdAt },
+    );
+    log.out(`Wrote ${out}, ${pdf}, ${json}`);
+  }
+}

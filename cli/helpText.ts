@@ -1,0 +1,74 @@
+/**
+ * The text of `plotrate --help`, with the same cautions the reports carry.
+ */
+import { recommendationCautions } from '../shared/economics/recommendationCautions';
+
+/**
+ * The help screen.
+ * @param version - the app version
+ * @returns the text, wrapped for an 80-column terminal
+ */
+export function helpText(version: string): string {
+  return `plotrate ${version}: yield response to fertilizer rate for small-plot trials
+
+Usage
+  plotrate analyze FILE... [options]   analyse trial sheets (.xlsx, .csv, .tsv)
+  plotrate demo [--dir DIR]            write the demo trial workbook and its report
+  plotrate --help                      this text
+  plotrate --version                   the version
+
+Options for analyze
+  --out FILE.xlsx        write the report workbook
+  --pdf FILE.pdf         write the grower recommendations (one page per site
+                         and one for the region; Letter with US units, A4 else)
+  --json FILE.json       write the results (schema in README, "Results format")
+  --crop NAME            corn (default), wheat, soybean, barley, sorghum, oats,
+                         canola
+  --units us|metric      show rates and yields in lb/ac and bu/ac, or kg/ha and
+                         t/ha; default: the units of the input
+  --grain-price N        grain price per bushel (bu/ac yields), per tonne
+                         (t/ha), per kg (kg/ha) or per lb (lb/ac)
+  --nutrient-price N     N price per lb of N (lb/ac rates) or per kg of N
+  --product NAME --product-price N
+                         price a product instead: urea, uan28, uan32,
+                         anhydrous, ammoniumSulfate, ammoniumNitrate; the price
+                         is per lb (lb/ac) or per kg of product, e.g. urea at
+                         600 per short ton is 0.30 per lb
+  --boot N               bootstrap resamples for the optimum interval
+                         (default 200; 0 for none)
+  --seed N               bootstrap seed (default 1): the same seed gives the
+                         same interval
+  --blocks none|fixed    fit block offsets in the curves (default none)
+  --map role=Header ...  say which column holds what, e.g. --map yield=Grain
+                         rate="N applied"; roles: site, year, block, plot,
+                         treatment, rate, yield, moisture, exclude, notes,
+                         plotWeight, plotArea, group, ignore
+
+Without prices the run uses illustrative prices and every report says so.
+A summary is printed either way; files are written only when asked for, and
+never over an input file.
+
+Exit codes
+  0  done    1  the analysis failed    2  bad input or usage (the message
+  names the file, sheet and cell to fix)
+
+Cautions
+${recommendationCautions.map((c) => wrap(`- ${c}`, 78, '  ')).join('\n')}
+`;
+}
+
+function wrap(text: string, width: number, indent: string): string {
+  const words = text.split(' ');
+  const lines: string[] = [];
+  let line = '';
+  for (const w of words) {
+    if (line && (line + ' ' + w).length > width) {
+      lines.push(line);
+      line = indent + w;
+    } else {
+      line = line ? `${line} ${w}` : w;
+    }
+  }
+  if (line) lines.push(line);
+  return lines.join('\n');
+}

@@ -1,0 +1,206 @@
+/**
+ * The command line's words → a typed command. Every mistake becomes a
+ * UsageError whose one line says which option and what is allowed.
+ */
+import type { MappedRole } from '../shared/import/columnMapping';
+import { mappableRoles, type RoleOverride } from '../shared/report/tableFromFiles';
+import type { CropId } from '../shared/table/plotTable';
+import { cropIds, isCropId } from '../shared/units/crops';
+import { productFromText, productIds, type ProductId } from '../shared/units/products';
+import { UsageError } from './usageError';
+
+export interface AnalyzeArgs {
+  command: 'analyze';
+  files: string[];
+  out: string | null;
+  pdf: string | null;
+  json: string | null;
+  crop: CropId;
+  units: 'us' | 'metric' | null;
+  grainPrice: number | null;
+  nutrientPrice: number | null;
+  product: ProductId | null;
+  productPrice: number | null;
+  boot: number;
+  seed: number;
+  blocks: 'none' | 'fixed';
+  map: RoleOverride[];
+}
+
+export type Command =
+  AnalyzeArgs | { command: 'demo'; dir: string } | { command: 'help' } | { command: 'version' };
+
+function number(
+  option: string,
+  text: string | undefined,
+  rule: (v: number) => boolean,
+  what: string,
+): number {
+  if (text === undefined || text.startsWith('--'))
+    throw new UsageError(`${option} needs a value: ${what}.`);
+  const v = Number(text);
+  if (!Number.isFinite(v) || !rule(v)) throw new UsageError(`${option} ${text}: ${what}.`);
+  return v;
+}
+
+/**
+ * Parses the arguments after `plotrate`.
+ * @param argv - the words, e.g. process.argv.slice(2)
+ * @returns the command
+ * @throws {UsageError} for an unknown command or option, a missing or bad value, or conflicting options
+ * @example
+ * parseArgs(['analyze', 'a.csv', '--units', 'us']).command // 'analyze'
+ */
+export function parseArgs(argv: readonly string[]): Command {
+  if (argv.length === 0 || argv.includes('--help') || argv.includes('-h') || argv[0] === 'help')
+    return { command: 'help' };
+  if (argv[0] === '--version' || argv[0] === '-v') return { command: 'version' };
+  const [cmd, ...rest] = argv;
+  if (cmd === 'demo') {
+    let dir = 'plotrate-demo';
+    for (let i = 0; i < rest.length; i++) {
+      if (rest[i] === '--dir') {
+        const v = rest[++i];
+        if (!v || v.startsWith('--')) throw new UsageError('--dir needs a folder name.');
+        dir = v;
+      } else throw new UsageError(`Unknown option for demo: ${rest[i]} (only --dir DIR).`);
+    }
+    return { command: 'demo', dir };
+  }
+  if (cmd !== 'analyze') {
+    throw new UsageError(
+      `Unknown command "${cmd}"; use "plotrate analyze FILE..." or "plotrate demo" (see plotrate --help).`,
+    );
+  }
+  const a: AnalyzeArgs = {
+    command: 'analyze',
+    files: [],
+    out: null,
+    pdf: null,
+    json: null,
+    crop: 'corn',
+    units: null,
+    grainPrice: null,
+    nutrientPrice: null,
+    product: null,
+    productPrice: null,
+    boot: 200,
+    seed: 1,
+    blocks: 'none',
+    map: [],
+  };
+  const path = (option: string, v: string | undefined): string => {
+    if (!v || v.startsWith('--')) throw new UsageError(`${option} needs a file name.`);
+    return v;
+  };
+  const positive = (v: number): boolean => v > 0;
+  for (let i = 0; i < rest.length; i++) {
+    const w = rest[i];
+    switch (w) {
+      case '--out':
+        a.out = path(w, rest[++i]);
+        break;
+      case '--pdf':
+        a.pdf = path(w, rest[++i]);
+        break;
+      case '--json':
+        a.json = path(w, rest[++i]);
+        break;
+      case '--crop': {
+        const v = (rest[++i] ?? '').toLowerCase();
+        if (!isCropId(v))
+          throw new UsageError(`--crop ${v || '(missing)'}: use one of ${cropIds.join(', ')}.`);
+        a.crop = v;
+        break;
+      }
+      case '--units': {
+        const v = rest[++i];
+        if (v !== 'us' && v !== 'metric')
+          throw new UsageError(`--units ${v ?? '(missing)'}: use us or metric.`);
+        a.units = v;
+        break;
+      }
+      case '--grain-price':
+        a.grainPrice = number(w, rest[++i], positive, 'a price above 0');
+        break;
+      case '--nutrient-price':
+        a.nutrientPrice = number(w, rest[++i], positive, 'a price above 0');
+        break;
+      case '--product-price':
+        a.productPrice = number(w, rest[++i], positive, 'a price above 0');
+        break;
+      case '--product': {
+        const v = rest[++i] ?? '';
+        const id = (productIds as readonly string[]).includes(v)
+          ? (v as ProductId)
+          : (productFromText(v)?.id ?? null);
+        if (!id || id === 'nitrogen') {
+          throw new UsageError(
+            `--product ${v || '(missing)'}: use one of ${productIds.filter((p) => p !== 'nitrogen').join(', ')}.`,
+          );
+        }
+        a.product = id;
+        break;
+      }
+      case '--boot':
+        a.boot = number(
+          w,
+          rest[++i],
+          (v) => Number.isInteger(v) && v >= 0 && v <= 100000,
+          'a whole number from 0 to 100000',
+        );
+        break;
+      case '--seed':
+        a.seed = number(
+          w,
+          rest[++i],
+          (v) => Number.isInteger(v) && v >= 0 && v <= 4294967295,
+          'a whole number from 0 to 4294967295',
+        );
+        break;
+      case '--blocks': {
+        const v = rest[++i];
+        if (v !== 'none' && v !== 'fixed')
+          throw new UsageError(`--blocks ${v ?? '(missing)'}: use none or fixed.`);
+        a.blocks = v;
+        break;
+      }
+      case '--map': {
+        let any = false;
+        while (i + 1 < rest.length && !rest[i + 1].startsWith('--')) {
+          const pair = rest[++i];
+          const eq = pair.indexOf('=');
+          const role = pair.slice(0, eq);
+          const header = pair.slice(eq + 1).trim();
+          if (eq < 1 || !header)
+            throw new UsageError(`--map ${pair}: write role=Header, e.g. --map yield=Grain.`);
+          if (!(mappableRoles as readonly string[]).includes(role)) {
+            throw new UsageError(
+              `--map ${pair}: "${role}" is not a role; use one of ${mappableRoles.join(', ')}.`,
+            );
+          }
+          a.map.push({ role: role as MappedRole, header });
+          any = true;
+        }
+        if (!any) throw new UsageError('--map needs at least one role=Header.');
+        break;
+      }
+      default:
+        if (w.startsWith('-')) throw new UsageError(`Unknown option ${w} (see plotrate --help).`);
+        a.files.push(w);
+    }
+  }
+  if (a.files.length === 0)
+    throw new UsageError('analyze needs at least one trial file (.xlsx, .csv or .tsv).');
+  if (a.nutrientPrice !== null && (a.product !== null || a.productPrice !== null)) {
+    throw new UsageError(
+      'Give either --nutrient-price or --product with --product-price, not both.',
+    );
+  }
+  if ((a.product === null) !== (a.productPrice === null)) {
+    throw new UsageError(
+      '--product and --product-price go together: name the product and its price.',
+    );
+  }
+  return a;
+}

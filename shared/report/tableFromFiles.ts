@@ -1,0 +1,166 @@
+/**
+ * File bytes → plot table for a batch run: read every file, detect its
+ * columns, apply the user's role overrides ("--map yield=Grain"), build the
+ * table and run the quality checks. Also reports the units the input used
+ * (results are shown in them unless the user picks a system) and the mapping
+ * in the flat form the provenance sheet lists. Pure: bytes in, values out.
+ */
+import { buildPlotTable } from '../import/buildPlotTable';
+import type { ColumnMapping, MappedRole } from '../import/columnMapping';
+import { detectColumns } from '../import/detectColumns';
+import { unitFromHeader } from '../import/headerWords';
+import { ImportError } from '../import/importError';
+import { readTrialFile } from '../import/readTrialFile';
+import { checkQuality } from '../quality/checkQuality';
+import type { QualityFinding } from '../quality/qualityFinding';
+import type { CropId, PlotTable } from '../table/plotTable';
+import { rateUnits, type RateUnit } from '../units/convertRate';
+import { yieldUnits, type YieldUnit } from '../units/convertYield';
+import type { ReportUnits } from './reportSettings';
+import type { MappingEntry } from './trialReport';
+
+/** Roles a user may assign with an override. */
+export const mappableRoles: readonly MappedRole[] = [
+  'site',
+  'year',
+  'block',
+  'plot',
+  'treatment',
+  'rate',
+  'yield',
+  'plotWeight',
+  'plotArea',
+  'plotLength',
+  'plotWidth',
+  'moisture',
+  'testWeight',
+  'notes',
+  'exclude',
+  'group',
+  'product',
+  'timing',
+  'ignore',
+];
+
+/** A user's "this header holds this role". */
+export interface RoleOverride {
+  role: MappedRole;
+  header: string;
+}
+
+export interface TableFromFilesResult {
+  table: PlotTable;
+  findings: QualityFinding[];
+  mapping: MappingEntry[];
+  /** Units of the first plots sheet's rate and yield columns, when they are rate/yield units. */
+  inputUnits: ReportUnits;
+}
+
+const norm = (s: string): string => s.trim().toLowerCase().replace(/\s+/g, ' ');
+
+/** Applies overrides to one file's mapping; returns the headers that matched. */
+function applyOverrides(mapping: ColumnMapping, overrides: readonly RoleOverride[]): Set<string> {
+  const matched = new Set<string>();
+  for (const sheet of mapping.sheets) {
+    if (sheet.use !== 'plots') continue;
+    for (const o of overrides) {
+      const col = sheet.columns.find((c) => norm(c.header) === norm(o.header));
+      if (!col) continue;
+      matched.add(norm(o.header));
+      // One column per role (except groups and ignore): the one named wins.
+      if (o.role !== 'group' && o.role !== 'ignore') {
+        for (const c of sheet.columns) if (c !== col && c.role === o.role) c.role = 'ignore';
+      }
+      col.role = o.role;
+      const hint = unitFromHeader(col.header);
+      if (hint) col.unit = hint.unit;
+      col.evidence = `set by the user (--map ${o.role}=${o.header})`;
+      if (o.role === 'site') sheet.site = { from: 'column' };
+    }
+  }
+  return matched;
+}
+
+/**
+ * Reads trial files into one plot table.
+ * @param files - names (no directories needed) and bytes of each file
+ * @param options - the crop, role overrides, and sheets to import (default every plots sheet)
+ * @returns the table, quality findings, the mapping as used and the input's units
+ * @throws {ImportError} for an unreadable file, an override naming a header no file has, or a
+ *   mapping that cannot build plots; the message names the file, sheet and cell
+ * @example
+ * const { table } = await tableFromFiles([{ name: 'trial.csv', bytes }], { crop: 'corn', overrides: [] });
+ */
+export async function tableFromFiles(
+  files: readonly { name: string; bytes: Uint8Array }[],
+  options: { crop: CropId; overrides: readonly RoleOverride[]; sheets?: string[] },
+): Promise<TableFromFilesResult> {
+  const raws = [];
+  const mappings: ColumnMapping[] = [];
+  const matched = new Set<string>();
+  for (const f of files) {
+    const raw = await readTrialFile({ name: f.name, bytes: f.bytes });
+    const mapping = detectColumns(raw);
+    for (const h of applyOverrides(mapping, options.overrides)) matched.add(h);
+    raws.push(raw);
+    mappings.push(mapping);
+  }
+  for (const o of options.overrides) {
+    if (matched.has(norm(o.header))) continue;
+    const headers = [
+      ...new Set(
+        mappings.flatMap((m) =>
+          m.sheets.filter((s) => s.use === 'plots').flatMap((s) => s.columns.map((c) => c.header)),
+        ),
+      ),
+    ];
+    throw new ImportError(
+      'bad-mapping',
+      `--map ${o.role}=${o.header}: no plot sheet in ${files.map((f) => `"${f.name}"`).join(', ')} has a column headed "${o.header}". The headers are: ${headers.map((h) => `"${h}"`).join(', ')}.`,
+      { file: files[0]?.name ?? '' },
+    );
+  }
+  const { table, findings } = buildPlotTable(raws, mappings, {
+    crop: options.crop,
+    rateBasis: 'nutrient',
+    ...(options.sheets ? { sheets: options.sheets } : {}),
+  });
+  const quality = checkQuality(table);
+  const entries: MappingEntry[] = [];
+  let rate: RateUnit | null = null;
+  let yld: YieldUnit | null = null;
+  raws.forEach((raw, i) => {
+    for (const s of mappings[i].sheets) {
+      if (s.use !== 'plots' || (options.sheets && !options.sheets.includes(s.sheet))) continue;
+      for (const c of s.columns) {
+        if (c.role === 'ignore') continue;
+        entries.push({
+          file: raw.file.name,
+          sheet: s.sheet,
+          role: c.role,
+          header: c.header,
+          unit: c.unit ?? '',
+        });
+        if (
+          c.role === 'rate' &&
+          !rate &&
+          c.unit &&
+          (rateUnits as readonly string[]).includes(c.unit)
+        )
+          rate = c.unit as RateUnit;
+        if (
+          c.role === 'yield' &&
+          !yld &&
+          c.unit &&
+          (yieldUnits as readonly string[]).includes(c.unit)
+        )
+          yld = c.unit as YieldUnit;
+      }
+    }
+  });
+  const inputUnits: ReportUnits = {
+    rate: rate ?? 'kg/ha',
+    yield: yld ?? (rate === 'lb/ac' ? 'bu/ac' : 't/ha'),
+  };
+  return { table, findings: [...findings, ...quality], mapping: entries, inputUnits };
+}
