@@ -100,16 +100,24 @@ export function checkPairs(x: ArrayLike<number>, y: ArrayLike<number>, fn: strin
 export function correlationOfCentred(x: ArrayLike<number>, y: ArrayLike<number>): number {
   const mx = sampleMean(x);
   const my = sampleMean(y);
+  // Deviations are divided by their largest size so the squares can neither
+  // underflow (values near 1e−150) nor overflow (near 1e+160): r is scale-free.
+  let scaleX = 0;
+  let scaleY = 0;
+  for (let i = 0; i < x.length; i++) {
+    scaleX = Math.max(scaleX, Math.abs(x[i] - mx));
+    scaleY = Math.max(scaleY, Math.abs(y[i] - my));
+  }
   let sxx = 0;
   let syy = 0;
   let sxy = 0;
   for (let i = 0; i < x.length; i++) {
-    const dx = x[i] - mx;
-    const dy = y[i] - my;
+    const dx = (x[i] - mx) / scaleX;
+    const dy = (y[i] - my) / scaleY;
     sxx += dx * dx;
     syy += dy * dy;
     sxy += dx * dy;
   }
-  const r = sxy / Math.sqrt(sxx * syy);
+  const r = sxy / (Math.sqrt(sxx) * Math.sqrt(syy));
   return Math.min(1, Math.max(-1, r));
 }
