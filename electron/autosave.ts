@@ -85,7 +85,15 @@ export async function readAutosave(
   } catch {
     return null;
   }
-  const envelope = JSON.parse(text) as AutosaveEnvelope;
+  let envelope: AutosaveEnvelope;
+  try {
+    envelope = JSON.parse(text) as AutosaveEnvelope;
+  } catch (e) {
+    throw new Error(
+      `${AUTOSAVE_FILE} is not readable JSON (${(e as Error).message}); it was probably cut short`,
+      { cause: e },
+    );
+  }
   if (envelope.format !== 'plotrate-autosave' || typeof envelope.projectText !== 'string')
     throw new Error(`${AUTOSAVE_FILE} is not an autosave copy`);
   const { project } = parseProject(envelope.projectText, AUTOSAVE_FILE);
