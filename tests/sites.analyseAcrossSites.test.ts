@@ -173,3 +173,23 @@ describe('pooled plateau tests against R (tests/fixtures/sites/pooledPlateau.R, 
     });
   }
 });
+
+describe('analyseAcrossSites with one model for all sites', () => {
+  // Cross-check of the grid search against shared/economics' closed form for the quadratic,
+  // x* = (PR − b)/(2c) (DESIGN.md): on a 1 kg/ha grid the best rate of a single site's
+  // concave quadratic is the grid rate nearest x*, so within 0.5 kg/ha.
+  const table = pooledPlotTable();
+  for (const site of ['Alder Flats', 'Dunmore East', 'Fallow Gate']) {
+    it(`the regional rate of ${site} alone is its quadratic EONR to the nearest kg/ha`, () => {
+      const one = { ...table, plots: table.plots.filter((p) => p.site === site) };
+      const a = analyseAcrossSites(one, { prices, regionalModel: 'quadratic' });
+      expect(a.regional.sitesUsed).toEqual([{ site, model: 'quadratic', note: '' }]);
+      const eonr = economicOptimum(a.sites[0].fits!.fits.quadratic, prices);
+      expect(eonr.status).toBe('interior');
+      expect(Math.abs(a.regional.regional.bestRateKgHa - eonr.rateKgHa!)).toBeLessThanOrEqual(0.5);
+      expect(a.regional.gridNote).toMatch(
+        /to 225 kg\/ha in steps of 1 kg\/ha: 225 kg\/ha is the highest rate tested/,
+      );
+    });
+  }
+});

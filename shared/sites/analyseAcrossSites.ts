@@ -127,6 +127,8 @@ export interface RegionalAnalysis {
   /** The site and the model it contributes. */
   sitesUsed: { site: string; model: ModelName; note: string }[];
   sitesLeftOut: SiteLeftOut[];
+  /** Where the rate grid ends and why, e.g. "… 225 kg/ha, the highest rate tested at every site …". */
+  gridNote: string;
   /** Price-free part, for repricing. */
   prepared: PreparedRegionalReturn;
 }
@@ -391,6 +393,16 @@ function regionalAnalysis(
       : '';
     return { site: u.site, model: u.model, note: [u.note, extra].filter((t) => t).join('; ') };
   });
+  const end = grid[grid.length - 1];
+  const lowest = used.filter((u) => u.fit.testedRates.highestKgHa === top).map((u) => u.site);
+  const gridNote =
+    o.gridToKgHa !== null
+      ? `The rate grid runs from ${o.gridFromKgHa} to ${end} kg/ha in steps of ${o.gridStepKgHa} kg/ha, as chosen.`
+      : `The rate grid runs from ${o.gridFromKgHa} to ${end} kg/ha in steps of ${o.gridStepKgHa} kg/ha: ${end} kg/ha is the highest rate tested at every site` +
+        (lowest.length > 0 && lowest.length < used.length
+          ? ` (${lowest.join(', ')} stopped there)`
+          : '') +
+        ', so no site curve is extended past its data.';
   const prepared = prepareRegionalReturn(curves, grid);
   const regional = regionalReturnAtPrices(prepared, o.prices, { bandPerHa: o.bandPerHa });
   return {
@@ -398,6 +410,7 @@ function regionalAnalysis(
     text: regionalRecommendation(regional),
     sitesUsed,
     sitesLeftOut: leftOut,
+    gridNote,
     prepared,
   };
 }
