@@ -193,3 +193,23 @@ describe('analyseAcrossSites with one model for all sites', () => {
     });
   }
 });
+
+describe('analyseAcrossSites does not depend on the order of the sites', () => {
+  it('reversing the sites leaves the regional rate, its range and every pooled F unchanged', () => {
+    const t = pooledPlotTable();
+    const a = analyseAcrossSites(t, { prices });
+    const b = analyseAcrossSites({ ...t, plots: [...t.plots].reverse() }, { prices });
+    expect(b.sites.map((s) => s.site)).toEqual(a.sites.map((s) => s.site).reverse());
+    expect(b.regional.regional.bestRateKgHa).toBe(a.regional.regional.bestRateKgHa);
+    expect(b.regional.regional.profitableRange).toEqual(a.regional.regional.profitableRange);
+    const fs = (x: typeof a) =>
+      [
+        ...x.sharedResponse.linear.tests,
+        ...x.sharedResponse.quadratic.tests,
+        ...x.sharedResponse.proportional.tests,
+        ...Object.values(x.sharedResponse.plateau),
+      ].map((test) => (test.result.kind === 'f-test' ? test.result.f : NaN));
+    const fa = fs(a);
+    fs(b).forEach((f, i) => expect(Math.abs(f - fa[i])).toBeLessThanOrEqual(1e-7 * fa[i]));
+  });
+});
