@@ -70,13 +70,13 @@ export function assertSameLength(
  * @throws {StatsInputError} code "too-few-points"
  * @example
  * assertAtLeast(2, 3, 'pearsonCorrelation: x and y', 'the t-test needs n − 2 ≥ 1')
- * // throws "pearsonCorrelation: x and y have 2 values; at least 3 are needed (the t-test needs n − 2 ≥ 1)."
+ * // throws "pearsonCorrelation: x and y: 2 values, but at least 3 are needed (the t-test needs n − 2 ≥ 1)."
  */
 export function assertAtLeast(count: number, needed: number, what: string, why: string): void {
   if (count < needed) {
     throw new StatsInputError(
       'too-few-points',
-      `${what} ${count === 1 ? 'has 1 value' : `have ${count} values`}; at least ${needed} are needed (${why}).`,
+      `${what}: ${count} value${count === 1 ? '' : 's'}, but at least ${needed} ${needed === 1 ? 'is' : 'are'} needed (${why}).`,
     );
   }
 }
