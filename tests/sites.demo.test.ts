@@ -10,6 +10,7 @@ import { buildPlotTable, detectColumns, readTrialFile } from '../shared/import';
 import { demoTrial } from '../shared/demo';
 import { analyseAcrossSites, type AcrossSiteAnalysis } from '../shared/sites';
 import type { PlotTable } from '../shared/table/plotTable';
+import { LB_AC_TO_KG_HA } from '../shared/units/unitConstants';
 
 const demo = demoTrial();
 const cornSites = demo.sites.filter((s) => s.crop === 'corn').map((s) => s.name);
@@ -93,5 +94,23 @@ describe('analyseAcrossSites on the demo wheat sites (metric)', () => {
       'f-test',
       'f-test',
     ]);
+  });
+});
+
+describe('analyseAcrossSites on a grid of 1 lb/ac steps', () => {
+  it('runs the grid from 0 to the highest demo rate in whole lb/ac, its end included', () => {
+    const top = Math.max(...demo.cornTreatments.map((t) => t.rateLbAc));
+    const lb = analyseAcrossSites(corn, {
+      prices: { grainPricePerKg: 0.18, nutrientPricePerKg: 1.1 },
+      gridStepKgHa: LB_AC_TO_KG_HA,
+    });
+    const grid = lb.regional.regional.gridKgHa;
+    expect(grid.length).toBe(top + 1);
+    expect(Math.abs(grid[grid.length - 1] - top * LB_AC_TO_KG_HA)).toBeLessThanOrEqual(1e-9);
+    // Each grid's best lies within one of its steps of the curve's true best (the mean return
+    // is concave near its peak), so the two differ by at most 1 kg/ha + 1 lb/ac.
+    expect(
+      Math.abs(lb.regional.regional.bestRateKgHa - a.regional.regional.bestRateKgHa),
+    ).toBeLessThanOrEqual(LB_AC_TO_KG_HA);
   });
 });
