@@ -65,8 +65,25 @@ const CURVES = new Set<ModelName>([
   'exponential',
 ]);
 
+/**
+ * The optimum's status in words without numbers: the writers show the rates
+ * in their own units (the economics stage's explanation speaks kg/ha).
+ */
 function optimumNote(o: EconomicOptimum): string {
-  return o.status === 'interior' ? '' : o.explanation;
+  switch (o.status) {
+    case 'interior':
+      return '';
+    case 'zero':
+      return 'At these prices nitrogen does not pay here: the first unit already returns less than it costs.';
+    case 'capped-at-highest':
+      return 'The optimum lies beyond the highest tested rate; the highest tested rate is given instead.';
+    case 'corner':
+      return 'A straight line never levels off, so it gives only a corner (no N or the highest tested rate); a curve says more.';
+    case 'join-in-first-interval':
+      return 'Full response by the lowest non-zero rate: the optimum lies between the two lowest rates and cannot be given as one number.';
+    case 'not-available':
+      return 'This fit has no economic optimum (no plateau, no maximum or no response).';
+  }
 }
 
 function chooseModel(
@@ -245,7 +262,8 @@ export function analyzeTrials(
   const runFindings: string[] = [];
   for (const f of meta.findings ?? []) {
     if (f.severity === 'info') continue;
-    const text = f.refs.length ? `${f.message} (${describeRef(f.refs[0])})` : f.message;
+    const ref = f.refs.length ? describeRef(f.refs[0]) : '';
+    const text = ref && !f.message.includes(f.refs[0].cell) ? `${f.message} (${ref})` : f.message;
     if (f.site === undefined) runFindings.push(text);
     else findingsBySite.set(f.site, [...(findingsBySite.get(f.site) ?? []), text]);
   }

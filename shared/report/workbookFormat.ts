@@ -64,19 +64,22 @@ export function magnitudeFormat(maxAbs: number): string {
 const forbidden = /[\\/?*[\]:]/g;
 
 /**
- * A sheet name Excel accepts (≤ 31 characters, none of \ / ? * [ ] :), unique in the workbook.
+ * A sheet name Excel accepts (≤ 31 characters, none of \ / ? * [ ] :, no straight apostrophe), unique in the workbook.
  * @param wanted - the name to use, e.g. a site name
  * @param taken - names already used (lower case compared, as Excel does); the result is added
  * @returns the cleaned, unique name
  * @example
  * sheetName('North/East [2025]', new Set()) // 'North-East (2025)'
+ * sheetName("Orrin's Bend", new Set()) // 'Orrin’s Bend'
  */
 export function sheetName(wanted: string, taken: Set<string>): string {
   let base = wanted
     .replace(/\[/g, '(')
     .replace(/]/g, ')')
     .replace(forbidden, '-')
-    .replace(/^'+|'+$/g, '')
+    // exceljs writes print areas as 'Name'!A1 without doubling an apostrophe inside the
+    // name, which makes the file unreadable; the typographic apostrophe looks the same.
+    .replace(/'/g, '’')
     .trim();
   if (!base) base = 'Sheet';
   let name = base.slice(0, 31);

@@ -1,0 +1,68 @@
+// The report every report.* test reads: the committed demo workbook (invented
+// data from the seeded generator) imported through the real import stage and
+// analysed by the real engine, in US or metric units.
+import { readFileSync } from 'node:fs';
+import path from 'node:path';
+import { demoTrial } from '../shared/demo';
+import { analyzeTrials } from '../shared/report/analyzeTrials';
+import { tableFromFiles } from '../shared/report/tableFromFiles';
+import type { TrialReport } from '../shared/report/trialReport';
+
+export const demoPath = path.join(__dirname, '..', 'demo', 'wrenhollow-n-trials-2025.xlsx');
+
+/**
+ * The US prices ($4.50/bu corn, urea 46 % N at $0.30/lb) restated per tonne of
+ * grain and per kg of N, from the exact pound (NIST SP 811: 0.45359237 kg) and
+ * the 56 lb corn bushel (USDA), so both unit systems price the same economics.
+ */
+export const METRIC_GRAIN_PER_T = 4.5 / ((56 * 0.45359237) / 1000);
+export const METRIC_N_PER_KG = 0.3 / 0.46 / 0.45359237;
+
+/**
+ * Analyses the demo's corn sites.
+ * @param units - 'us' (lb/ac, bu/ac, $4.50/bu, urea at $0.30/lb) or 'metric' (kg/ha, t/ha, the same prices per t and per kg N)
+ * @param boot - bootstrap resamples
+ */
+export async function demoReport(units: 'us' | 'metric', boot = 60): Promise<TrialReport> {
+  const bytes = new Uint8Array(readFileSync(demoPath));
+  const corn = demoTrial()
+    .sites.filter((s) => s.crop === 'corn')
+    .map((s) => s.name);
+  const imported = await tableFromFiles([{ name: path.basename(demoPath), bytes }], {
+    crop: 'corn',
+    overrides: [],
+    sheets: corn,
+  });
+  const us = units === 'us';
+  return analyzeTrials(
+    imported.table,
+    {
+      units: us ? { rate: 'lb/ac', yield: 'bu/ac' } : { rate: 'kg/ha', yield: 't/ha' },
+      unitSystem: units,
+      crop: 'corn',
+      prices: us
+        ? {
+            grainPrice: 4.5,
+            nutrientPrice: null,
+            product: { id: 'urea', price: 0.3 },
+            defaulted: false,
+          }
+        : {
+            grainPrice: METRIC_GRAIN_PER_T,
+            nutrientPrice: METRIC_N_PER_KG,
+            product: null,
+            defaulted: false,
+          },
+      boot,
+      seed: 11,
+      blocks: 'none',
+      intervalLevel: 0.9,
+    },
+    {
+      tool: { name: 'Plotrate', version: '0.1.0' },
+      createdAt: '2026-03-01T12:00:00Z',
+      mapping: imported.mapping,
+      findings: imported.findings,
+    },
+  );
+}

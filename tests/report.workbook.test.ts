@@ -1,0 +1,225 @@
+// The report workbook, read back two ways: exceljs (layout: frozen panes,
+// print setup, formats, images) and SheetJS, an independent .xlsx reader
+// (values and the text a spreadsheet shows). Expected optima are recomputed
+// from the fitted parameters with the closed forms in /work/shared design
+// notes ("Economic optimum"), in display units, so a wrong unit conversion of
+// a parameter or of the price ratio shows up as a wrong rate.
+import ExcelJS from 'exceljs';
+import { beforeAll, describe, expect, it } from 'vitest';
+import * as XLSX from 'xlsx';
+import { recommendationCautions } from '../shared/economics/recommendationCautions';
+import { resultsJson, type ResultsJson } from '../shared/report/resultsJson';
+import type { TrialReport } from '../shared/report/trialReport';
+import { writeWorkbook } from '../shared/report/workbook';
+import { P_VALUE_FORMAT, sheetName } from '../shared/report/workbookFormat';
+import { demoTrial } from '../shared/demo';
+import { demoReport } from './report.fixture';
+
+/** 1 lb/ac in kg/ha from the exact pound and acre (NIST SP 811; 1 ac = 43 560 ft²). */
+const KG_HA_PER_LB_AC = 0.45359237 / (43560 * 0.3048 * 0.3048 * 1e-4);
+
+// A 1×1 white PNG (the smallest valid image) stands in for the chart: the chart itself is tested in report.svgChart.
+const tinyPng = Uint8Array.from(
+  Buffer.from(
+    'iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mP8/5+hHgAHggJ/PchI7wAAAABJRU5ErkJggg==',
+    'base64',
+  ),
+);
+
+let us: TrialReport;
+let metric: TrialReport;
+let usBytes: Uint8Array;
+let metricBytes: Uint8Array;
+let usJson: ResultsJson;
+
+beforeAll(async () => {
+  us = await demoReport('us');
+  metric = await demoReport('metric');
+  const charts = Object.fromEntries(
+    us.sites.map((s) => [s.site, { png: tinyPng, widthPx: 800, heightPx: 560 }]),
+  );
+  usBytes = await writeWorkbook(us, {
+    siteCharts: charts,
+    acrossChart: { png: tinyPng, widthPx: 800, heightPx: 460 },
+  });
+  metricBytes = await writeWorkbook(metric);
+  usJson = resultsJson(us);
+});
+
+function findRow(ws: XLSX.WorkSheet, firstCell: string): number {
+  const range = XLSX.utils.decode_range(ws['!ref']!);
+  for (let r = range.s.r; r <= range.e.r; r++) {
+    const c = ws[XLSX.utils.encode_cell({ r, c: 0 })];
+    if (c && c.v === firstCell) return r;
+  }
+  throw new Error(`no row starting with "${firstCell}"`);
+}
+
+function cell(ws: XLSX.WorkSheet, r: number, c: number): XLSX.CellObject | undefined {
+  return ws[XLSX.utils.encode_cell({ r, c })];
+}
+
+describe('writeWorkbook read back by SheetJS', () => {
+  it('has the overview, one sheet per site, across sites, economics, recommendations and provenance', () => {
+    const wb = XLSX.read(usBytes);
+    const corn = demoTrial()
+      .sites.filter((s) => s.crop === 'corn')
+      .map((s) => s.name);
+    const taken = new Set<string>();
+    expect(wb.SheetNames).toEqual([
+      'Overview',
+      ...corn.map((n) => sheetName(n, taken)),
+      'Across sites',
+      'Economics',
+      'Recommendations',
+      'Provenance',
+    ]);
+    expect(wb.SheetNames).toContain('Orrin’s Bend');
+  });
+
+  it('puts every caution on the overview', () => {
+    const ws = XLSX.read(usBytes).Sheets['Overview'];
+    const text = XLSX.utils.sheet_to_csv(ws);
+    for (const c of recommendationCautions) expect(text).toContain(c);
+  });
+
+  it('names the unit in the headers and shows tiny p-values as "< 0.001"', () => {
+    const ws = XLSX.read(usBytes, { cellNF: true }).Sheets['Overview'];
+    const h = findRow(ws, 'Site');
+    const headers = [...Array(11).keys()].map((c) => String(cell(ws, h, c)?.v));
+    expect(headers).toContain('Optimum rate (lb/ac N)');
+    expect(headers).toContain('Yield at optimum (bu/ac)');
+    const pCol = headers.indexOf('Intercept p');
+    const p = cell(ws, h + 1, pCol)!;
+    // The number is kept in full; only the shown text is rounded.
+    expect(typeof p.v).toBe('number');
+    expect(p.v as number).toBeLessThan(0.001);
+    expect(p.w).toBe('< 0.001');
+  });
+
+  it("gives each site's optimum the closed form of its model at the price ratio, in lb N/ac", () => {
+    const ws = XLSX.read(usBytes).Sheets['Overview'];
+    const h = findRow(ws, 'Site');
+    const pr = usJson.settings.priceRatio; // bu per lb N
+    let checked = 0;
+    us.sites.forEach((s, i) => {
+      const js = usJson.sites[i];
+      const m = js.models.find((x) => x.model === js.bestModel);
+      if (!m || m.optimumRate === null) return;
+      const p = m.params;
+      let expected: number | null = null;
+      // Design notes, "Economic optimum": one closed form per model.
+      if (m.model === 'quadratic') expected = (pr - p.b) / (2 * p.c);
+      if (m.model === 'quadraticPlateau') expected = p.x0 + pr / (2 * p.c);
+      if (m.model === 'linearPlateau') expected = p.b > pr ? p.x0 : 0;
+      if (m.model === 'exponential')
+        expected = p.b * p.k > pr ? Math.log((p.b * p.k) / pr) / p.k : 0;
+      if (expected === null) return;
+      const lo = s.ratesKgHa[0] / KG_HA_PER_LB_AC;
+      const hi = s.ratesKgHa[s.ratesKgHa.length - 1] / KG_HA_PER_LB_AC;
+      expected = Math.min(Math.max(expected, lo), hi);
+      expect(cell(ws, h + 1 + i, 0)?.v).toBe(s.site);
+      // 0.01 lb/ac: rounding of the JSON's 12 digits only.
+      expect(Math.abs((cell(ws, h + 1 + i, 3)?.v as number) - expected)).toBeLessThan(0.01);
+      checked++;
+    });
+    expect(checked).toBeGreaterThanOrEqual(4);
+  });
+
+  it('shows rates as the demo generator wrote them (lb N/ac) and keeps excluded plots with their reason', () => {
+    const wb = XLSX.read(usBytes);
+    const trial = demoTrial();
+    const rateOf = new Map(trial.cornTreatments.map((t) => [t.treatment, t.rateLbAc]));
+    for (const site of ['Quillmere North', trial.quirks.excluded.site]) {
+      const ws = wb.Sheets[sheetName(site, new Set())];
+      const h = findRow(ws, 'Plot');
+      const plots = trial.cornPlots.filter((p) => p.site === site);
+      let matched = 0;
+      for (let r = h + 1; cell(ws, r, 0)?.v !== undefined && cell(ws, r, 0)?.v !== ''; r++) {
+        const label = String(cell(ws, r, 0)!.v);
+        const src = plots.find((p) => p.plot === label);
+        if (!src) continue;
+        expect(cell(ws, r, 3)?.v as number).toBeCloseTo(rateOf.get(src.treatment)!, 9);
+        if (label === trial.quirks.excluded.plot && site === trial.quirks.excluded.site) {
+          expect(cell(ws, r, 6)?.v).toBe('no');
+          expect(String(cell(ws, r, 7)?.v).length).toBeGreaterThan(0);
+        }
+        matched++;
+      }
+      expect(matched).toBe(plots.length);
+    }
+  });
+
+  it('gives the same optima in kg N/ha at the same prices, converted by the exact factor', () => {
+    const a = XLSX.read(usBytes).Sheets['Overview'];
+    const b = XLSX.read(metricBytes).Sheets['Overview'];
+    const ha = findRow(a, 'Site');
+    const hb = findRow(b, 'Site');
+    expect(cell(b, hb, 3)?.v).toBe('Optimum rate (kg/ha N)');
+    for (let i = 1; i <= us.sites.length; i++) {
+      const lb = cell(a, ha + i, 3)?.v as number | undefined;
+      const kg = cell(b, hb + i, 3)?.v as number | undefined;
+      if (lb === undefined) continue;
+      // Same data, seed and prices: only the unit differs (relative 1e-6 for the solver's tolerance).
+      expect(Math.abs(kg! - lb * KG_HA_PER_LB_AC)).toBeLessThan(1e-6 * Math.max(1, kg!) + 1e-6);
+    }
+  });
+
+  it('records the source file with its SHA-256 and the bootstrap seed on the provenance sheet', () => {
+    const ws = XLSX.read(usBytes).Sheets['Provenance'];
+    const text = XLSX.utils.sheet_to_csv(ws);
+    expect(text).toContain('wrenhollow-n-trials-2025.xlsx');
+    expect(text).toMatch(new RegExp(us.sources[0].sha256));
+    expect(us.sources[0].sha256).toMatch(/^[0-9a-f]{64}$/);
+    const seedRow = findRow(ws, 'Bootstrap seed');
+    expect(cell(ws, seedRow, 1)?.v).toBe(11);
+  });
+});
+
+describe('writeWorkbook read back by exceljs', () => {
+  it('freezes headers, sets print areas, Letter for US units and A4 for metric', async () => {
+    for (const [bytes, paper] of [
+      [usBytes, 1],
+      [metricBytes, 9],
+    ] as const) {
+      const wb = new ExcelJS.Workbook();
+      await wb.xlsx.load(Buffer.from(bytes) as never);
+      for (const ws of wb.worksheets) {
+        expect(ws.pageSetup.paperSize, ws.name).toBe(paper);
+        expect(ws.pageSetup.fitToWidth, ws.name).toBe(1);
+      }
+      const ov = wb.getWorksheet('Overview')!;
+      expect(ov.views[0]).toMatchObject({ state: 'frozen' });
+      expect(ov.pageSetup.printArea).toMatch(/^A1:K\d+$/);
+      const site = wb.getWorksheet('Quillmere North')!;
+      expect(site.views[0]).toMatchObject({ state: 'frozen', ySplit: 4 });
+    }
+  });
+
+  it('embeds one chart per site sheet and formats p-value cells', async () => {
+    const wb = new ExcelJS.Workbook();
+    await wb.xlsx.load(Buffer.from(usBytes) as never);
+    for (const s of us.sites) {
+      expect(wb.getWorksheet(sheetName(s.site, new Set()))!.getImages().length, s.site).toBe(1);
+    }
+    expect(wb.getWorksheet('Across sites')!.getImages().length).toBe(1);
+    const ov = wb.getWorksheet('Overview')!;
+    let formatted = 0;
+    ov.eachRow((row) => {
+      if (row.getCell(9).numFmt === P_VALUE_FORMAT) formatted++;
+    });
+    expect(formatted).toBe(us.sites.length);
+  });
+});
+
+describe('sheetName', () => {
+  it('drops the characters Excel forbids, keeps 31 characters and stays unique', () => {
+    const taken = new Set<string>();
+    expect(sheetName('North/East [2025]', taken)).toBe('North-East (2025)');
+    expect(sheetName('north/east [2025]', taken)).toBe('north-east (2025) (2)');
+    expect(sheetName("Orrin's Bend", taken)).toBe('Orrin’s Bend');
+    const long = sheetName('A'.repeat(40), taken);
+    expect(long.length).toBe(31);
+    expect(sheetName('A'.repeat(40), taken)).toBe(`${'A'.repeat(27)} (2)`);
+  });
+});
