@@ -20,7 +20,7 @@
  *
  * Computation: the level terms are absorbed by centring within each site or
  * block (Frisch–Waugh–Lovell theorem; Davidson & MacKinnon, Econometric Theory
- * and Methods, 2004, §2.4) and the site-specific model splits into one small fit
+ * and Methods, 2004, §2.4; section from memory) and the site-specific model splits into one small fit
  * per site, so the cost is linear in the number of plots.
  *
  * Sites with too few distinct rates for the model, or whose blocks are confounded

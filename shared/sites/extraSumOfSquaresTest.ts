@@ -1,6 +1,6 @@
 /**
  * The extra-sum-of-squares F-test between a reduced model and a fuller one that
- * contains it (Draper & Smith, Applied Regression Analysis, 3rd ed., §6.1):
+ * contains it (Draper & Smith, Applied Regression Analysis, 3rd ed., §6.1; section from memory):
  *
  *   F = [(SSE_reduced − SSE_full) / (df_reduced − df_full)] / (SSE_den / df_den)
  *

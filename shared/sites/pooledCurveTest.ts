@@ -9,7 +9,7 @@
  *
  * (Draper & Smith, Applied Regression Analysis, 3rd ed., §6.1, applied to
  * nonlinear least squares as in Bates & Watts, Nonlinear Regression Analysis
- * and Its Applications, 1988, §3.10: the F distribution then holds only
+ * and Its Applications, 1988, §3.10, section from memory: the F distribution then holds only
  * approximately, and for the plateau models the join point makes it rougher;
  * read p as a guide.) The parts are sites (do the sites share one curve?) or
  * groups of sites (do the groups differ?).

@@ -1,7 +1,7 @@
 /**
  * One rate for a region: the maximum-return-to-nitrogen approach (Sawyer et al.,
  * 2006, Concepts and Rationale for Regional Nitrogen Rate Guidelines for Corn,
- * Iowa State University Extension PM 2015). At every rate x of a fine grid and
+ * Iowa State University Extension PM 2015; title and number from memory). At every rate x of a fine grid and
  * every site s, the net return over the site's zero-rate check is
  *
  *   R_s(x) = p_grain · (ŷ_s(x) − ŷ_s(0)) − p_N · x − A·[x > 0]     (currency/ha)

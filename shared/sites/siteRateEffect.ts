@@ -3,7 +3,7 @@
  * of yield on rate taken as a factor (one mean per rate, no curve assumed),
  * with block terms when the plots carry blocks (the randomized complete block
  * ANOVA; Steel, Torrie & Dickey, Principles and Procedures of Statistics, 3rd
- * ed., ch. 9). The rate effect is the extra-sum-of-squares F-test of
+ * ed., ch. 9; chapter from memory). The rate effect is the extra-sum-of-squares F-test of
  * y ~ block + rate against y ~ block. The same fit gives the site's CV:
  *
  *   CV% = 100 · √(residual mean square) / mean yield
