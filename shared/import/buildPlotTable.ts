@@ -37,6 +37,7 @@ import type { ColumnAssignment, ColumnMapping, SheetMapping } from './columnMapp
 import { ImportError } from './importError';
 import type { ImportSettings } from './importSettings';
 import { isMissingMarker } from './parseNumberText';
+import { validateMapping } from './validateMapping';
 import type { RawCell, RawSheet, RawWorkbook } from './rawWorkbook';
 
 interface KeyEntry {
@@ -181,14 +182,7 @@ export function buildPlotTable(
   const plots: Plot[] = [];
   const sources: SourceFile[] = books.map((b) => b.file);
   books.forEach((raw, bi) => {
-    const mapping = maps[bi];
-    if (!mapping || !Array.isArray(mapping.sheets)) {
-      throw new ImportError(
-        'bad-mapping',
-        `The mapping for "${raw.file.name}" is not a column mapping; detect the columns again.`,
-        { file: raw.file.name },
-      );
-    }
+    const mapping = validateMapping(maps[bi], raw.file.name);
     const sheetOf = (name: string) => raw.sheets.find((s) => s.name === name);
     const keyMaps = mapping.sheets.filter((s) => s.use === 'treatment-key');
     const key = new Map<string, KeyEntry>();

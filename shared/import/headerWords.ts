@@ -5,6 +5,7 @@
  * and "plot area" is never a plot number. Grouping words come before the rate
  * words so that "Soil N" is a grouping column, not a rate.
  */
+import { productFromText } from '../units/products';
 import type { HeaderUnit, MappedRole } from './columnMapping';
 
 const rules: [Exclude<MappedRole, 'ignore'>, RegExp][] = [
@@ -67,7 +68,7 @@ export function roleFromHeader(
   // Units alone can name a role: "lb N/ac" is a rate, "bu/ac" a yield, "%" next to nothing is not enough.
   const u = unitFromHeader(header);
   if (u?.unit === 'bu/ac' || u?.unit === 't/ha') return { role: 'yield', word: u.text };
-  if (u?.basis === 'nutrient') return { role: 'rate', word: u.text };
+  if (u?.basis) return { role: 'rate', word: u.text };
   return null;
 }
 
@@ -97,7 +98,11 @@ export function unitFromHeader(header: string): UnitHint | null {
     const perM2 = areaWord.startsWith('m2') || areaWord.startsWith('sq');
     const mid = middle.trim();
     const basis: UnitHint['basis'] =
-      mid === 'n' || mid === 'nitrogen' ? 'nutrient' : mid === '' ? null : 'product';
+      mid === 'n' || mid === 'nitrogen'
+        ? 'nutrient'
+        : mid === 'product' || (mid !== '' && productFromText(mid) !== null)
+          ? 'product'
+          : null;
     let unit: HeaderUnit | null = null;
     if (/^(bu|bushels?)$/.test(massWord)) unit = perHa || perM2 ? null : 'bu/ac';
     else if (/^(lbs?|pounds?)$/.test(massWord)) unit = perHa || perM2 ? null : 'lb/ac';

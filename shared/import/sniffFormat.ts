@@ -121,5 +121,23 @@ export function sniffFormat(name: string, bytes: Uint8Array): SniffedFormat {
       );
     }
   }
+  // Web systems often export an HTML table or the 2003 XML format under an .xls name.
+  const start = new TextDecoder('utf-8', { fatal: false })
+    .decode(bytes.subarray(0, 2048))
+    .replace(/^\ufeff/, '')
+    .trimStart()
+    .toLowerCase();
+  if (start.startsWith('<')) {
+    const kind = /urn:schemas-microsoft-com:office:spreadsheet/.test(start)
+      ? 'an Excel 2003 XML spreadsheet'
+      : /<html|<table|<!doctype html/.test(start)
+        ? 'a web page (HTML) saved under a spreadsheet name'
+        : 'an XML or HTML file';
+    throw new ImportError(
+      'not-a-workbook',
+      `"${name}" is ${kind}, not a trial workbook; open it in your spreadsheet program and save it as .xlsx, then import that.`,
+      where,
+    );
+  }
   return 'text';
 }
