@@ -1,5 +1,9 @@
 // The workspace end to end in real chromium against the built renderer.
+import { mkdtemp, writeFile } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { syntheticWorkbook } from '../../shared/demo/syntheticTrial';
 import { openSession, shot, type Session } from './harness';
 
 let session: Session;
@@ -12,6 +16,13 @@ afterAll(async () => {
   await session?.close();
 });
 
+/** The number in a text such as "181 kg/ha" or "1,234 lb/ac". */
+function leadingNumber(text: string | null): number {
+  const m = /-?[\d,]+(\.\d+)?/.exec(text ?? '');
+  if (!m) throw new Error(`no number in "${text}"`);
+  return Number(m[0].replace(/,/g, ''));
+}
+
 describe('the workspace in chromium', () => {
   it('opens on the demo trial the first time and shows a site chart', async () => {
     const { page } = session;
@@ -21,6 +32,58 @@ describe('the workspace in chromium', () => {
     await page.getByTestId('site-optimum').waitFor();
     await expect(page.getByTestId('site-optimum').textContent()).resolves.toMatch(/\d+ kg\/ha/);
     await shot(page, '01-demo-site');
+    expect(session.pageErrors).toEqual([]);
+  });
+
+  it('takes a generated trial workbook through the file input', async () => {
+    const { page } = session;
+    const dir = await mkdtemp(path.join(tmpdir(), 'plotrate-e2e-file-'));
+    const file = path.join(dir, 'Synthetic three sites.xlsx');
+    await writeFile(file, await syntheticWorkbook({ sites: 3, seed: 11 }));
+    await page.getByRole('button', { name: /Trial files/ }).click();
+    await page.getByTestId('trial-file-input').setInputFiles(file);
+    await page.getByTestId('sheet-Plots').waitFor({ timeout: 20_000 });
+    // Demo (8 sites) plus three synthetic sites.
+    await expect(page.getByTestId('table-summary').textContent()).resolves.toMatch(/at 11 sites/);
+    await shot(page, '02-file-input-columns');
+    expect(session.pageErrors).toEqual([]);
+  });
+
+  it('changing a column role rebuilds the plot table, and undo brings it back', async () => {
+    const { page } = session;
+    const syntheticYield = page
+      .getByTestId('preview-row')
+      .filter({ hasText: 'Site 0001' })
+      .first()
+      .locator('td.num')
+      .nth(1);
+    const adjusted = await syntheticYield.textContent();
+    // Moisture column set aside: yields are no longer brought to standard moisture.
+    await page.getByTestId('role-Plots-G').selectOption('ignore');
+    await expect.poll(() => syntheticYield.textContent()).not.toBe(adjusted);
+    // The N rate column set aside: the synthetic sheet cannot be built, and the message names it.
+    await page.getByTestId('role-Plots-E').selectOption('ignore');
+    await page.getByTestId('build-problem').waitFor();
+    await expect(page.getByTestId('build-problem').textContent()).resolves.toMatch(/Plots/);
+    await shot(page, '03-column-role-changed');
+    await page.getByRole('button', { name: /^Undo/ }).click();
+    await page.getByTestId('build-problem').waitFor({ state: 'detached' });
+    await page.getByRole('button', { name: /^Undo/ }).click();
+    await expect.poll(() => syntheticYield.textContent()).toBe(adjusted);
+    expect(session.pageErrors).toEqual([]);
+  });
+
+  it('a price change moves the optimum on screen', async () => {
+    const { page } = session;
+    await page.getByRole('button', { name: /Prices/ }).click();
+    const cell = page.getByTestId('optimum-Quillmere North');
+    await cell.waitFor({ timeout: 30_000 });
+    const before = leadingNumber(await cell.textContent());
+    await page.getByTestId('product-price').fill('1.2');
+    await expect
+      .poll(async () => leadingNumber(await cell.textContent()), { timeout: 10_000 })
+      .toBeLessThan(before);
+    await shot(page, '04-price-changed');
     expect(session.pageErrors).toEqual([]);
   });
 });

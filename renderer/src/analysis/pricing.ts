@@ -19,14 +19,46 @@ import {
 } from '../../../shared/sites/regionalReturn';
 import type { FitData, SiteAnalysis } from './siteAnalysis';
 
-/** Which model leads at a site: the user's choice, else the best by AICc. */
+/** Optimum statuses that give a rate a page can print. */
+const GIVES_RATE = new Set(['interior', 'zero', 'capped-at-highest', 'corner']);
+/** Curves, preferred over straight lines (a line only gives a corner rate). */
+const CURVES = new Set<ModelName>([
+  'quadratic',
+  'linearPlateau',
+  'quadraticPlateau',
+  'exponential',
+]);
+
+/**
+ * Which model leads at a site: the user's choice; else the same rule the
+ * report writer uses (shared/report/analyzeTrials), so the screen and the
+ * workbook agree — the lowest-AICc curve whose optimum is a rate, else the
+ * lowest-AICc model with a rate, else the best by AICc.
+ * @param site - the site's analysis
+ * @param choices - site → model the user picked
+ * @param prices - canonical prices (which fits give a rate depends on them); null skips that test
+ * @returns the leading model, or null when nothing was fitted
+ */
 export function leadingModel(
   site: SiteAnalysis,
   choices: Readonly<Record<string, ModelName>>,
+  prices: Prices | null = null,
 ): ModelName | null {
   const chosen = choices[site.site];
   if (chosen && site.fits[chosen]) return chosen;
-  return site.best;
+  if (!prices) return site.best;
+  const ranked = site.ranking.filter((r) => r.rank !== null).map((r) => r.model);
+  const givesRate = (model: ModelName) => {
+    const fit = site.fits[model];
+    if (!fit) return false;
+    try {
+      return GIVES_RATE.has(economicOptimum(fit, prices).status);
+    } catch {
+      return false;
+    }
+  };
+  const usable = ranked.filter(givesRate);
+  return usable.find((m) => CURVES.has(m)) ?? usable[0] ?? site.best;
 }
 
 /** One site's optimum at the current prices, with the fit it comes from. */
@@ -52,7 +84,7 @@ export function siteOptima(
   prices: Prices,
 ): SiteOptimum[] {
   return sites.map((site) => {
-    const model = leadingModel(site, choices);
+    const model = leadingModel(site, choices, prices);
     const fit = model ? (site.fits[model] ?? null) : null;
     if (!model || !fit) {
       return {
@@ -84,17 +116,17 @@ export const REGIONAL_GRID_STEP_KG_HA = 1;
  * The price-free part of the regional curve: each site's leading curve as gain
  * over its own check, evaluated once on a rate grid across the tested range.
  * @param sites - price-free analyses
- * @param choices - site → model the user picked
+ * @param leading - site → its leading model (see siteOptima)
  * @returns the prepared gains, or null when no site has a usable curve
  */
 export function prepareRegional(
   sites: readonly SiteAnalysis[],
-  choices: Readonly<Record<string, ModelName>>,
+  leading: Readonly<Record<string, ModelName | null>>,
 ): PreparedRegionalReturn | null {
   const curves = [];
   let highest = 0;
   for (const site of sites) {
-    const model = leadingModel(site, choices);
+    const model = leading[site.site] ?? null;
     const fit = model ? site.fits[model] : undefined;
     if (!model || !fit) continue;
     highest = Math.max(highest, fit.testedRates.highestKgHa);

@@ -1,4 +1,5 @@
 // Fits (from the worker, price-free) and everything re-priced from them on the main thread.
+import { untrack } from 'svelte';
 import type { BlockTerms, ModelName } from '../../../shared/models/modelTypes';
 import type { PlotTable } from '../../../shared/table/plotTable';
 import {
@@ -41,8 +42,17 @@ export class Analysis {
     return siteOptima(this.output.sites, this.choices, priced.prices);
   });
 
-  /** Price-free regional gains: recomputed only when fits or model choices change. */
-  #prepared = $derived(this.output ? prepareRegional(this.output.sites, this.choices) : null);
+  /** Site → leading model; a string key, so the regional gains below are only re-prepared when a lead changes. */
+  #leadKey = $derived(this.optima.map((o) => `${o.site}\u0000${o.model ?? ''}`).join('\u0001'));
+
+  /** Price-free regional gains: recomputed only when fits or leading models change. */
+  #prepared = $derived.by(() => {
+    void this.#leadKey;
+    const leading = untrack(() =>
+      Object.fromEntries(this.optima.map((o) => [o.site, o.model] as const)),
+    );
+    return this.output ? prepareRegional(this.output.sites, leading) : null;
+  });
 
   regional = $derived.by(() => {
     const priced = this.#prices.canonical;
@@ -55,6 +65,11 @@ export class Analysis {
   );
 
   siteOptimum = $derived(this.optima.find((o) => o.site === this.site?.site) ?? null);
+
+  /** The leading model of a site at the current prices. */
+  leadOf(site: string): ModelName | null {
+    return this.optima.find((o) => o.site === site)?.model ?? null;
+  }
 
   /**
    * Fits the table in the worker (cancelling a fit still running). A table
