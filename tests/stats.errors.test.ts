@@ -13,6 +13,11 @@ import { lackOfFitTest } from '../shared/stats/lackOfFit';
 import { oneWayAnova } from '../shared/stats/oneWayAnova';
 import { randomizedBlockAnova } from '../shared/stats/randomizedBlockAnova';
 import { fisherLsd } from '../shared/stats/fisherLsd';
+import {
+  fisherFUpperP,
+  standardNormalQuantile,
+  studentTQuantile,
+} from '../shared/stats/distributions';
 
 function expectStatsError(run: () => unknown, code: StatsErrorCode, message: string): void {
   let caught: unknown;
@@ -213,6 +218,24 @@ const cases: Array<[string, () => unknown, StatsErrorCode, string]> = [
       }),
     'bad-argument',
     'fisherLsd: dfError is 0; comparisons need at least 1 error degree of freedom.',
+  ],
+  [
+    'studentTQuantile with 0 degrees of freedom',
+    () => studentTQuantile(0.975, 0),
+    'bad-argument',
+    'studentTQuantile: df is 0; degrees of freedom must be positive.',
+  ],
+  [
+    'fisherFUpperP with NaN denominator df',
+    () => fisherFUpperP(2, 3, NaN),
+    'bad-argument',
+    'fisherFUpperP: df2 is NaN; degrees of freedom must be positive.',
+  ],
+  [
+    'standardNormalQuantile with p = 95 (a percent)',
+    () => standardNormalQuantile(95),
+    'bad-argument',
+    'standardNormalQuantile: p is 95; a probability lies between 0 and 1.',
   ],
 ];
 

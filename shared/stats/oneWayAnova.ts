@@ -60,7 +60,7 @@ export interface OneWayAnovaResult {
  *   alpha outside (0, 1); "constant-values" when there is only one treatment or every y is equal;
  *   "too-few-points" when no treatment is replicated (no within-treatment df)
  * @example
- * oneWayAnova({ treatment: [0, 0, 60, 60], y: [5100, 5300, 6800, 7000] }).F // 228.1…
+ * oneWayAnova({ treatment: [0, 0, 60, 60], y: [5100, 5300, 6800, 7000] }).F // 144.5
  */
 export function oneWayAnova(input: OneWayAnovaInput): OneWayAnovaResult {
   const { treatment, y } = input;

@@ -49,7 +49,7 @@ export interface PearsonResult {
  * @throws {StatsInputError} "length-mismatch"; "non-finite"; "too-few-points" for n < 3;
  *   "constant-values" when x or y does not vary; "bad-argument" for a confidence outside (0, 1)
  * @example
- * pearsonCorrelation([0, 40, 80, 120], [5100, 6300, 7000, 7200]).r // ≈ 0.968
+ * pearsonCorrelation([0, 40, 80, 120], [5100, 6300, 7000, 7200]).r // ≈ 0.953
  */
 export function pearsonCorrelation(
   x: ArrayLike<number>,

@@ -81,7 +81,7 @@ export interface RandomizedBlockResult {
  *   outside (0, 1) or a cell with more than one plot; "too-few-points" for fewer than 2 treatments or
  *   blocks or no error df; "rank-deficient" when missing plots disconnect treatments from blocks
  * @example
- * randomizedBlockAnova({ treatment: [0, 60, 0, 60, 0, 60], block: [1, 1, 2, 2, 3, 3], y: [5, 7, 5.4, 7.1, 4.9, 6.8] }).F // ≈ 130
+ * randomizedBlockAnova({ treatment: [0, 60, 0, 60, 0, 60], block: [1, 1, 2, 2, 3, 3], y: [5, 7, 5.4, 7.1, 4.9, 6.8] }).F // ≈ 448
  */
 export function randomizedBlockAnova(input: RandomizedBlockInput): RandomizedBlockResult {
   const { treatment, block, y } = input;

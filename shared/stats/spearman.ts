@@ -31,7 +31,7 @@ export interface SpearmanResult {
  * @throws {StatsInputError} "length-mismatch"; "non-finite"; "too-few-points" for n < 3;
  *   "constant-values" when x or y does not vary
  * @example
- * spearmanCorrelation([0, 40, 80, 120], [5100, 6300, 7000, 6900]).rho // 0.8
+ * spearmanCorrelation([0, 40, 80, 120], [5100, 6300, 7000, 6900]).rho // ≈ 0.8
  */
 export function spearmanCorrelation(x: ArrayLike<number>, y: ArrayLike<number>): SpearmanResult {
   checkPairs(x, y, 'spearmanCorrelation');
