@@ -112,3 +112,85 @@ describe('import never throws anything but an ImportError', () => {
     );
   });
 });
+
+describe('buildPlotTable never throws anything but an ImportError for a damaged mapping or settings', () => {
+  it('random changes to the demo mapping and settings', async () => {
+    const raw = await readTrialFile({ name: 'demo.xlsx', bytes: demo });
+    const base = detectColumns(raw);
+    const anyValue = fc.oneof(
+      fc.constantFrom(
+        'plots',
+        'treatment-key',
+        'ignore',
+        'yield',
+        'rate',
+        'moisture',
+        'plotWeight',
+        'plotArea',
+        'group',
+        'kg/ha',
+        'bu/ac',
+        'lb/ac',
+        '%',
+        'product',
+        'nutrient',
+        'harvest',
+        'standard',
+        'column',
+        'sheet-name',
+      ),
+      fc.string({ maxLength: 6 }),
+      fc.integer({ min: -3, max: 40 }),
+      fc.constant(null),
+      fc.constant(undefined),
+    );
+    const edit = fc.record({
+      sheet: fc.nat(),
+      column: fc.nat(),
+      field: fc.constantFrom(
+        'use',
+        'headerRow',
+        'site',
+        'role',
+        'unit',
+        'basis',
+        'moistureBasis',
+        'col',
+      ),
+      value: anyValue,
+    });
+    await fc.assert(
+      fc.asyncProperty(
+        fc.array(edit, { minLength: 1, maxLength: 5 }),
+        fc.constantFrom('corn', 'wheat', 'rye'),
+        fc.constantFrom('product', 'nutrient', 'both'),
+        fc.option(fc.constantFrom('urea', 'uan28', 'gypsum')),
+        fc.option(fc.double({ min: -10, max: 120, noNaN: true })),
+        async (edits, crop, rateBasis, product, std) => {
+          const m = structuredClone(base) as unknown as { sheets: Record<string, unknown>[] };
+          for (const e of edits) {
+            const s = m.sheets[e.sheet % m.sheets.length] as {
+              columns: Record<string, unknown>[];
+            } & Record<string, unknown>;
+            if (['use', 'headerRow'].includes(e.field)) s[e.field] = e.value;
+            else if (e.field === 'site')
+              s.site = typeof e.value === 'string' ? { from: e.value, value: e.value } : e.value;
+            else if (s.columns.length > 0)
+              s.columns[e.column % s.columns.length][e.field] = e.value;
+          }
+          try {
+            buildPlotTable(raw, m as never, {
+              crop: crop as never,
+              rateBasis: rateBasis as never,
+              ...(product ? { product: product as never } : {}),
+              ...(std !== null ? { standardMoisturePct: std } : {}),
+            });
+          } catch (e) {
+            if (!isImportError(e)) throw e;
+          }
+        },
+      ),
+      { numRuns: 300 },
+    );
+  });
+});

@@ -30,7 +30,7 @@ import {
   type YieldUnit,
 } from '../units/convertYield';
 import { crops, isCropId } from '../units/crops';
-import { productFromText, products, type FertilizerProduct } from '../units/products';
+import { productFromText, productIds, products, type FertilizerProduct } from '../units/products';
 import type { QualityFinding } from '../quality/qualityFinding';
 import { cellNumber } from './cellNumber';
 import type { ColumnAssignment, ColumnMapping, SheetMapping } from './columnMapping';
@@ -94,7 +94,12 @@ function validate(settings: ImportSettings): number {
       `The rate basis must be "product" or "nutrient"; got "${String(settings.rateBasis)}".`,
     );
   }
-  if (settings.product !== undefined) products(settings.product);
+  if (settings.product !== undefined && !productIds.includes(settings.product)) {
+    throw new ImportError(
+      'bad-settings',
+      `The import settings name the product "${String(settings.product)}", which Plotrate does not know; choose one of ${productIds.join(', ')}.`,
+    );
+  }
   if (settings.plotAreaM2 !== undefined && !(settings.plotAreaM2 > 0)) {
     throw new ImportError(
       'bad-settings',
