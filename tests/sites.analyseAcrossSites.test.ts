@@ -213,3 +213,14 @@ describe('analyseAcrossSites does not depend on the order of the sites', () => {
     fs(b).forEach((f, i) => expect(Math.abs(f - fa[i])).toBeLessThanOrEqual(1e-7 * fa[i]));
   });
 });
+
+describe('analyseAcrossSites result as plain data', () => {
+  it('survives structuredClone (a worker can post it) and reprices the same after the copy', () => {
+    const a = analyseAcrossSites(pooledPlotTable(), { prices });
+    const copy = structuredClone(a);
+    const dear = { grainPricePerKg: 0.18, nutrientPricePerKg: 1.6 };
+    expect(repriceAcrossSites(copy, dear).regional.regional.bestRateKgHa).toBe(
+      repriceAcrossSites(a, dear).regional.regional.bestRateKgHa,
+    );
+  });
+});

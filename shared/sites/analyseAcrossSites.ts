@@ -6,6 +6,9 @@
  * year) with tests of whether the groups differ. Everything that depends on
  * prices is kept apart so that repriceAcrossSites() can follow a price slider
  * without refitting.
+ * The result is plain data (fits are stored without `predict`; curves are
+ * evaluated with curveValue from the parameters), so a worker can post it with
+ * structuredClone.
  *
  * No site is dropped silently: a site with nothing to fit keeps its rows (status
  * "not-fitted" and the reason), and every test or average that leaves a site out
@@ -94,6 +97,12 @@ export interface AcrossSiteOptions {
   groupKeys?: readonly string[];
 }
 
+/** A model fit as plain data: everything but `predict`, so the analysis can be posted from a worker. */
+export type FitData = Omit<ModelFit, 'predict'>;
+
+/** fitAllModels' result as plain data (fits without `predict`; curveValue gives the curve). */
+export type AllModelsFitData = Omit<AllModelsFit, 'fits'> & { fits: Record<ModelName, FitData> };
+
 export interface SiteAnalysis {
   site: string;
   /** Analysable plots. */
@@ -101,7 +110,7 @@ export interface SiteAnalysis {
   /** Why the site could not be fitted at all, or null. */
   problem: string | null;
   blocks: BlockTerms;
-  fits: AllModelsFit | null;
+  fits: AllModelsFitData | null;
   rateEffect: SiteRateEffect;
   responded: boolean;
   /** The straight line's intercept test, or why there is none. */
@@ -196,11 +205,21 @@ const MODEL_LABEL: Record<ModelName, string> = {
   exponential: 'exponential rise',
 };
 
-function outcomeOf(fit: ModelFit): CurveFitOutcome {
+function outcomeOf(fit: FitData): CurveFitOutcome {
   if (fit.status === 'too-few-rates') return { problem: fit.message };
   if (!Number.isFinite(fit.sse))
     return { problem: `the ${MODEL_LABEL[fit.model]} could not be fitted` };
   return { sse: fit.sse, parameters: fit.parameterCount };
+}
+
+/** Drops the predict closures (functions cannot be cloned to another thread). */
+function withoutPredict(fits: Record<ModelName, ModelFit>): Record<ModelName, FitData> {
+  const out = {} as Record<ModelName, FitData>;
+  for (const name of Object.keys(fits) as ModelName[]) {
+    const { predict: _predict, ...data } = fits[name];
+    out[name] = data;
+  }
+  return out;
 }
 
 function siteBlocks(site: SitePlots, choice: 'auto' | BlockTerms): BlockTerms {
@@ -215,15 +234,16 @@ function analyseSite(site: SitePlots, blocks: 'auto' | BlockTerms, alpha: number
   const b = siteBlocks(site, blocks);
   const rateEffect = siteRateEffect(site);
   const responded = rateEffect.test.kind === 'f-test' && rateEffect.test.p < alpha;
-  let fits: AllModelsFit | null = null;
+  let fits: AllModelsFitData | null = null;
   let problem = site.problem;
   let intercept: SiteAnalysis['intercept'] = { problem: problem ?? '' };
   if (!problem) {
     try {
-      fits = fitAllModels(
+      const all = fitAllModels(
         { rateKgHa: site.rateKgHa, yieldKgHa: site.yieldKgHa, block: site.block },
         { blocks: b },
       );
+      fits = { ...all, fits: withoutPredict(all.fits) };
     } catch (e) {
       // A value the models refuse (e.g. a negative rate) is a data problem of this site.
       if (!(e instanceof StatsInputError)) throw e;
@@ -326,10 +346,10 @@ function regionalCurves(
   sites: readonly SiteAnalysis[],
   choice: RegionalModelChoice,
 ): {
-  used: { site: string; model: ModelName; fit: ModelFit; note: string }[];
+  used: { site: string; model: ModelName; fit: FitData; note: string }[];
   leftOut: SiteLeftOut[];
 } {
-  const used: { site: string; model: ModelName; fit: ModelFit; note: string }[] = [];
+  const used: { site: string; model: ModelName; fit: FitData; note: string }[] = [];
   const leftOut: SiteLeftOut[] = [];
   for (const s of sites) {
     if (!s.fits) {

@@ -33,6 +33,8 @@
  * return curve (gridKgHa, meanReturnPerHa), bestRateKgHa, profitableRange { lowKgHa, highKgHa,
  * bandPerHa, contiguous }, siteOptima and siteOptimumDistribution (min, quartiles, median, max).
  * Show `regional.text.cautions` wherever the regional rate is shown.
+ * The analysis is plain data (fits without `predict`, see FitData): a worker can post it, and
+ * the window can call repriceAcrossSites on the copy.
  *
  * Building blocks, usable alone: sitePlots, testCommonResponse, groupResponseTest,
  * pooledCurveTest, siteRateEffect, extraSumOfSquaresTest, prepareRegionalReturn +
