@@ -103,6 +103,37 @@ function closedForm(fit: CurveSummary, pr: number): { x: number; agronomicMax: n
   }
 }
 
+/** A result without a single optimum rate (module level: no closure per call). */
+function noOptimum(
+  model: ModelName,
+  pr: number,
+  status: OptimumStatus,
+  explanation: string,
+): EconomicOptimum {
+  return {
+    model,
+    priceRatio: pr,
+    cautions: recommendationCautions,
+    status,
+    rateKgHa: null,
+    uncappedRateKgHa: NaN,
+    rangeKgHa: null,
+    yieldKgHa: null,
+    netReturnPerHa: null,
+    gainOverCheckPerHa: null,
+    agronomicMaxRateKgHa: null,
+    cappedAtHighest: false,
+    explanation,
+  };
+}
+
+const NO_OPTIMUM_REASON: Record<string, string> = {
+  'no-plateau': 'No plateau within the tested rates, so this model gives no optimum.',
+  convex: 'The quadratic opens upward, so it has no maximum and no optimum.',
+  'no-response': 'Yield does not rise with rate: no nutrient pays.',
+  'too-few-rates': 'The model could not be fitted to this site.',
+};
+
 function round(x: number): string {
   return String(Math.round(x * 10) / 10);
 }
@@ -122,25 +153,6 @@ function round(x: number): string {
 export function economicOptimum(fit: CurveSummary, prices: Prices): EconomicOptimum {
   assertPrices(prices);
   const pr = prices.nutrientPricePerKg / prices.grainPricePerKg;
-  const base = {
-    model: fit.model,
-    priceRatio: pr,
-    cautions: recommendationCautions,
-  };
-  const none = (status: OptimumStatus, explanation: string): EconomicOptimum => ({
-    ...base,
-    status,
-    rateKgHa: null,
-    uncappedRateKgHa: NaN,
-    rangeKgHa: null,
-    yieldKgHa: null,
-    netReturnPerHa: null,
-    gainOverCheckPerHa: null,
-    agronomicMaxRateKgHa: null,
-    cappedAtHighest: false,
-    explanation,
-  });
-
   if (fit.status === 'full-response-at-lowest-rate') {
     const [low, high] = fit.joinBetweenKgHa ?? [
       fit.testedRates.distinctKgHa[0],
@@ -153,7 +165,9 @@ export function economicOptimum(fit: CurveSummary, prices: Prices): EconomicOpti
     const atHigh = netReturn(fit, prices, high);
     if (!(atHigh > zero)) {
       return {
-        ...none(
+        ...noOptimum(
+          fit.model,
+          pr,
           'zero',
           `The full response is reached by ${high} kg/ha, but at these prices it does not pay for that rate.`,
         ),
@@ -165,7 +179,9 @@ export function economicOptimum(fit: CurveSummary, prices: Prices): EconomicOpti
       };
     }
     return {
-      ...none(
+      ...noOptimum(
+        fit.model,
+        pr,
         'join-in-first-interval',
         `Full response by the lowest non-zero rate: the optimum lies between ${low} and ${high} kg/ha; these rates cannot place it more precisely.`,
       ),
@@ -176,13 +192,12 @@ export function economicOptimum(fit: CurveSummary, prices: Prices): EconomicOpti
     };
   }
   if (fit.status !== 'ok') {
-    const why: Record<string, string> = {
-      'no-plateau': 'No plateau within the tested rates, so this model gives no optimum.',
-      convex: 'The quadratic opens upward, so it has no maximum and no optimum.',
-      'no-response': 'Yield does not rise with rate: no nutrient pays.',
-      'too-few-rates': 'The model could not be fitted to this site.',
-    };
-    return none('not-available', why[fit.status] ?? 'No optimum.');
+    return noOptimum(
+      fit.model,
+      pr,
+      'not-available',
+      NO_OPTIMUM_REASON[fit.status] ?? 'No optimum.',
+    );
   }
 
   const highest = fit.testedRates.highestKgHa;
@@ -222,7 +237,9 @@ export function economicOptimum(fit: CurveSummary, prices: Prices): EconomicOpti
     atX = zeroReturn;
   }
   return {
-    ...base,
+    model: fit.model,
+    priceRatio: pr,
+    cautions: recommendationCautions,
     status,
     rateKgHa: x,
     uncappedRateKgHa: raw,

@@ -20,3 +20,4 @@ export * from './priceRatio';
 export * from './economicOptimum';
 export * from './optimumAcrossModels';
 export * from './recommendationCautions';
+export * from './bootstrapOptimum';

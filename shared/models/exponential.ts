@@ -22,11 +22,12 @@ import {
   blankParameters,
   finishFit,
   tooFewRatesMessage,
+  unfittedEstimate,
   unfittedFit,
   type CurveSpec,
 } from './finishFit';
 import { linearCoefficients } from './linearCoefficients';
-import type { FitOptions, ModelFit, SiteData } from './modelTypes';
+import type { CurveEstimate, FitOptions, FitStatus, ModelFit, SiteData } from './modelTypes';
 import { prepareSite, type PreparedSite } from './prepareSite';
 import { profileSolver } from './profileSolver';
 
@@ -60,20 +61,24 @@ export const exponentialThroughOriginSpec: CurveSpec = {
   r2Kind: 'uncentered',
 };
 
-const GRID = 24;
+const GRID = 16;
 const TIE = 1e-10;
 
 /**
- * Fits the exponential to a prepared site.
+ * The exponential's estimate and status from the profiled search alone.
  * @param site - from prepareSite
- * @param options - exponentialIntercept, confidence level, curve grid
- * @returns the fit with its status; plateauYield (the asymptote a + b) when "ok"
- * @throws {StatsInputError} "bad-argument" for exponentialIntercept 'zero' with block terms
+ * @param interceptMode - 'free' (estimate a) or 'zero' (a = 0)
+ * @returns status, message, params {a, b, k} (a = 0 for 'zero'; k at the searched limit for
+ *   "no-plateau" or "full-response-at-lowest-rate") and SSE
+ * @throws {StatsInputError} "bad-argument" for 'zero' with block terms
  * @example
- * // see fitExponential
+ * estimateExponential(prepareSite({ rateKgHa: [0, 50, 100, 150, 200], yieldKgHa: [5000, 7256, 8494, 9174, 9546] }, 'none'), 'free').params.k // ≈ 0.012
  */
-export function fitExponentialPrepared(site: PreparedSite, options: FitOptions): ModelFit {
-  const intercept = (options.exponentialIntercept ?? 'free') === 'free';
+export function estimateExponential(
+  site: PreparedSite,
+  interceptMode: 'free' | 'zero' = 'free',
+): CurveEstimate {
+  const intercept = interceptMode === 'free';
   if (!intercept && site.blocks === 'fixed') {
     throw new StatsInputError(
       'bad-argument',
@@ -84,7 +89,7 @@ export function fitExponentialPrepared(site: PreparedSite, options: FitOptions):
   const rates = site.rates;
   const m = rates.length;
   const why = tooFewRatesMessage(site, spec, intercept ? 3 : 2);
-  if (why) return unfittedFit(site, spec, why);
+  if (why) return unfittedEstimate(site, spec, why);
   const rMax = rates[m - 1];
   const rLow = rates[0] > 0 ? rates[0] : rates[1];
   const uLow = Math.log(1e-3 / rMax);
@@ -97,36 +102,36 @@ export function fitExponentialPrepared(site: PreparedSite, options: FitOptions):
     for (let j = 0; j < m; j++) g[j] = -Math.expm1(-k * rates[j]);
     return solver.sse(g);
   };
-  const grid = new Float64Array(GRID);
-  const values = new Float64Array(GRID);
   const step = (uHigh - uLow) / (GRID - 1);
-  for (let i = 0; i < GRID; i++) {
-    grid[i] = uLow + i * step;
-    values[i] = sseAt(grid[i]);
-  }
-  let bestU = grid[0];
-  let bestSse = values[0];
-  for (let i = 0; i < GRID; i++) {
-    const left = i > 0 ? values[i - 1] : Infinity;
-    const right = i + 1 < GRID ? values[i + 1] : Infinity;
-    if (values[i] <= left && values[i] <= right) {
-      const r = minimizeBrent(sseAt, grid[Math.max(i - 1, 0)], grid[Math.min(i + 1, GRID - 1)], {
-        relativeTolerance: 1e-12,
-        absoluteTolerance: 1e-11,
-      });
+  let previous = sseAt(uLow);
+  let current = sseAt(uLow + step);
+  let bestU = uLow;
+  let bestSse = previous;
+  // Walk the grid keeping three values; refine every grid point lower than both neighbours.
+  for (let i = 1; i < GRID; i++) {
+    const next = i + 1 < GRID ? sseAt(uLow + (i + 1) * step) : Infinity;
+    const refine = (i === 1 && previous <= current) || (current <= previous && current <= next);
+    if (refine) {
+      const centre = i === 1 && previous <= current ? 0 : i;
+      const r = minimizeBrent(
+        sseAt,
+        uLow + Math.max(centre - 1, 0) * step,
+        uLow + Math.min(centre + 1, GRID - 1) * step,
+        { relativeTolerance: 1e-10, absoluteTolerance: 1e-10 },
+      );
       if (r.fx < bestSse) {
         bestSse = r.fx;
         bestU = r.x;
       }
     }
+    previous = current;
+    current = next;
   }
 
-  let status: ModelFit['status'] = 'ok';
-  let message = 'Exponential rise to a plateau fitted.';
   // The limits are reached numerically well before the grid's ends: compare SSEs.
   // k → 0: the straight line (b > 0); k → ∞: check against the rest, g = [x > 0].
   const kBest = Math.exp(bestU);
-  const line = solver.sse(rates.map((r) => r));
+  const line = solver.sse(rates);
   const stepFit = rates[0] === 0 ? solver.sse(rates.map((r) => (r > 0 ? 1 : 0))) : Infinity;
   const atLow = bestU <= uLow + 1e-6 * step || bestSse >= line * (1 - TIE);
   // With 99.9 % of the gain reached by the lowest non-zero rate (e^(−k x₁) < 10⁻³),
@@ -135,6 +140,9 @@ export function fitExponentialPrepared(site: PreparedSite, options: FitOptions):
     bestU >= uHigh - 1e-6 * step ||
     bestSse >= stepFit * (1 - TIE) ||
     Math.exp(-kBest * rLow) < 1e-3;
+
+  let status: FitStatus = 'ok';
+  let message = 'Exponential rise to a plateau fitted.';
   if (bestSse >= solver.flatSse * (1 - TIE)) {
     status = 'no-response';
     message = 'Yield does not rise with rate: the best exponential is flat.';
@@ -146,8 +154,35 @@ export function fitExponentialPrepared(site: PreparedSite, options: FitOptions):
     status = 'full-response-at-lowest-rate';
     message = `Full response by the lowest non-zero rate: the rate constant runs to infinity (check against the rest); the bend lies between ${rates[0]} and ${rLow} kg/ha.`;
   }
-  const k = kBest;
-  const gFinal = rates.map((r) => -Math.expm1(-k * r));
+  const sse = sseAt(bestU);
+  return {
+    model: 'exponential',
+    status,
+    message,
+    params: { a: solver.last.intercept, b: solver.last.beta, k: kBest },
+    sse,
+    testedRates: site.testedRates,
+    joinBetweenKgHa: status === 'full-response-at-lowest-rate' ? [rates[0], rLow] : null,
+  };
+}
+
+/**
+ * Fits the exponential to a prepared site.
+ * @param site - from prepareSite
+ * @param options - exponentialIntercept, confidence level, curve grid
+ * @returns the fit with its status; plateauYield (the asymptote a + b) when "ok"
+ * @throws {StatsInputError} "bad-argument" for exponentialIntercept 'zero' with block terms
+ * @example
+ * // see fitExponential
+ */
+export function fitExponentialPrepared(site: PreparedSite, options: FitOptions): ModelFit {
+  const intercept = (options.exponentialIntercept ?? 'free') === 'free';
+  const spec = intercept ? exponentialSpec : exponentialThroughOriginSpec;
+  const est = estimateExponential(site, intercept ? 'free' : 'zero');
+  if (est.status === 'too-few-rates') return unfittedFit(site, spec, est.message);
+  const { status } = est;
+  const k = est.params.k;
+  const gFinal = site.rates.map((r) => -Math.expm1(-k * r));
   const coef = linearCoefficients(site, [gFinal], intercept);
   const params = intercept
     ? Float64Array.of(coef.curve[0], coef.curve[1], k)
@@ -159,7 +194,7 @@ export function fitExponentialPrepared(site: PreparedSite, options: FitOptions):
     params,
     blockCoefficients: coef.blocks,
     status,
-    message,
+    message: est.message,
     options,
     plateauYield:
       ok || status === 'full-response-at-lowest-rate'
@@ -167,9 +202,9 @@ export function fitExponentialPrepared(site: PreparedSite, options: FitOptions):
           ? { value: params[0] + params[1], gradient: [1, 1, 0] }
           : { value: params[0], gradient: [1, 0] }
         : undefined,
-    joinBetweenKgHa: status === 'full-response-at-lowest-rate' ? [rates[0], rLow] : null,
+    joinBetweenKgHa: est.joinBetweenKgHa,
   });
-  if (status === 'no-plateau') blankParameters(fit, intercept ? ['b', 'k'] : ['b', 'k']);
+  if (status === 'no-plateau') blankParameters(fit, ['b', 'k']);
   else if (status === 'full-response-at-lowest-rate') blankParameters(fit, ['k']);
   if (!intercept) {
     // Economics reads params.a; the fixed intercept is exactly zero.

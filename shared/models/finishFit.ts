@@ -11,6 +11,7 @@
 import { fisherFUpperP, studentTQuantile } from '../stats/distributions';
 import { qrDecompose, unscaledCovariance } from '../stats/qr';
 import type {
+  CurveEstimate,
   FitOptions,
   FitStatus,
   IntervalEstimate,
@@ -327,4 +328,29 @@ export function blankParameters(fit: ModelFit, names: readonly string[]): ModelF
     fit.confidenceIntervals[name] = [NaN, NaN];
   }
   return fit;
+}
+
+/**
+ * The estimate of a model that could not be fitted (status "too-few-rates", NaN parameters).
+ * @param site - from prepareSite
+ * @param spec - the model's curve
+ * @param message - why
+ * @returns the placeholder estimate
+ */
+export function unfittedEstimate(
+  site: PreparedSite,
+  spec: CurveSpec,
+  message: string,
+): CurveEstimate {
+  const params: Record<string, number> = {};
+  for (const name of spec.paramNames) params[name] = NaN;
+  return {
+    model: spec.model,
+    status: 'too-few-rates',
+    message,
+    params,
+    sse: NaN,
+    testedRates: site.testedRates,
+    joinBetweenKgHa: null,
+  };
 }

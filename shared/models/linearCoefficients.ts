@@ -55,3 +55,61 @@ export function linearCoefficients(
   const b = solveUpperTriangular(qr, qty);
   return { curve: b.slice(0, qc), blocks: b.slice(qc), fullRank: true };
 }
+
+/**
+ * The curve coefficients alone, cheaply: with group sums available (no blocks,
+ * or blocks with proportional frequencies) a weighted least-squares fit of the
+ * m per-rate means with weights n_j gives the same coefficients as the plot-level
+ * fit (regressors depend on rate only), and SSE = SS_within + the weighted
+ * residual SS. Unbalanced block designs fall back to the full design.
+ * @param site - from prepareSite
+ * @param regressors - each one value per distinct rate
+ * @param intercept - put a column of ones first
+ * @returns curve coefficients (intercept first, if any; that of the block-adjusted
+ *   fit with blocks) and the SSE (block offsets included); NaN when rank-deficient
+ * @example
+ * groupLinearCoefficients(site, [site.rates], true).curve // [a, b] of the straight line
+ */
+export function groupLinearCoefficients(
+  site: PreparedSite,
+  regressors: Float64Array[],
+  intercept: boolean,
+): { curve: Float64Array; sse: number } {
+  const lead = intercept ? 1 : 0;
+  const p = lead + regressors.length;
+  if (site.design === 'full') {
+    const full = linearCoefficients(site, regressors, intercept);
+    let sse = 0;
+    if (full.fullRank) {
+      const nb = site.blockLabels.length;
+      for (let i = 0; i < site.n; i++) {
+        const j = site.groupOf[i];
+        let f = intercept ? full.curve[0] : 0;
+        for (let k = 0; k < regressors.length; k++) f += full.curve[lead + k] * regressors[k][j];
+        const b = site.blockOf[i];
+        if (b < nb - 1) f += full.blocks[b];
+        else for (let k = 0; k < nb - 1; k++) f -= full.blocks[k];
+        sse += (site.y[i] - f) ** 2;
+      }
+    }
+    return { curve: full.curve, sse: full.fullRank ? sse : NaN };
+  }
+  const { counts, means, ssWithin } = site;
+  const m = counts.length;
+  if (m < p) return { curve: new Float64Array(p).fill(NaN), sse: NaN };
+  const matrix = new Float64Array(m * p);
+  const rhs = new Float64Array(m);
+  for (let j = 0; j < m; j++) {
+    const w = Math.sqrt(counts[j]);
+    if (intercept) matrix[j] = w;
+    for (let k = 0; k < regressors.length; k++) matrix[(lead + k) * m + j] = w * regressors[k][j];
+    rhs[j] = w * means[j];
+  }
+  const qr = qrDecompose(matrix, m, p);
+  if (qr.rank < p) return { curve: new Float64Array(p).fill(NaN), sse: NaN };
+  applyQTranspose(qr, rhs);
+  const curve = solveUpperTriangular(qr, rhs);
+  let sse = ssWithin;
+  for (let j = p; j < m; j++) sse += rhs[j] * rhs[j];
+  return { curve, sse };
+}

@@ -18,13 +18,15 @@ import {
   blankParameters,
   finishFit,
   tooFewRatesMessage,
+  unfittedEstimate,
   unfittedFit,
   type CurveSpec,
 } from './finishFit';
 import { linearCoefficients } from './linearCoefficients';
-import type { FitOptions, ModelFit, SiteData } from './modelTypes';
+import type { CurveEstimate, FitOptions, FitStatus, ModelFit, SiteData } from './modelTypes';
 import { prepareSite, type PreparedSite } from './prepareSite';
 import { profileSolver } from './profileSolver';
+import { relaxedJoinBounds } from './relaxedJoinBounds';
 import { searchJoinPoint } from './searchJoinPoint';
 
 /** The linear-plateau curve, parameters [a, b, x0]. */
@@ -46,16 +48,16 @@ export const linearPlateauSpec: CurveSpec = {
 const TIE = 1e-10;
 
 /**
- * Fits the linear-plateau to a prepared site.
+ * The linear-plateau's estimate and status from the profiled search alone.
  * @param site - from prepareSite
- * @param options - confidence level, curve grid
- * @returns the fit with its status; join and plateau only when "ok"
+ * @returns status, message, params {a, b, x0} (x0 = highest rate for "no-plateau" and
+ *   "no-response", the second-lowest rate for "full-response-at-lowest-rate") and SSE
  * @example
- * // see fitLinearPlateau
+ * estimateLinearPlateau(prepareSite({ rateKgHa: [0, 40, 80, 120, 160], yieldKgHa: [6000, 7000, 8000, 8500, 8500] }, 'none')).params.x0 // ≈ 100
  */
-export function fitLinearPlateauPrepared(site: PreparedSite, options: FitOptions): ModelFit {
+export function estimateLinearPlateau(site: PreparedSite): CurveEstimate {
   const why = tooFewRatesMessage(site, linearPlateauSpec, 3);
-  if (why) return unfittedFit(site, linearPlateauSpec, why);
+  if (why) return unfittedEstimate(site, linearPlateauSpec, why);
   const rates = site.rates;
   const m = rates.length;
   const solver = profileSolver(site, { intercept: true, sign: 'positive' });
@@ -64,12 +66,13 @@ export function fitLinearPlateauPrepared(site: PreparedSite, options: FitOptions
     for (let j = 0; j < m; j++) g[j] = rates[j] < x0 ? rates[j] : x0;
     return solver.sse(g);
   };
-  const best = searchJoinPoint(rates, sseAt);
+  const bounds = site.design === 'full' ? undefined : relaxedJoinBounds(site, 1);
+  const best = searchJoinPoint(rates, sseAt, 1e-10, bounds);
   const rMax = rates[m - 1];
   const sseLine = sseAt(rMax);
 
   let x0 = best.x0;
-  let status: ModelFit['status'] = 'ok';
+  let status: FitStatus = 'ok';
   let message: string;
   if (best.sse >= solver.flatSse * (1 - TIE)) {
     status = 'no-response';
@@ -86,25 +89,53 @@ export function fitLinearPlateauPrepared(site: PreparedSite, options: FitOptions
   } else {
     message = 'Linear-plateau fitted; join point between tested rates.';
   }
-  const gFinal = rates.map((r) => Math.min(r, x0));
+  const sse = sseAt(x0);
+  return {
+    model: 'linearPlateau',
+    status,
+    message,
+    params: { a: solver.last.intercept, b: solver.last.beta, x0 },
+    sse,
+    testedRates: site.testedRates,
+    joinBetweenKgHa: status === 'full-response-at-lowest-rate' ? [rates[0], rates[1]] : null,
+  };
+}
+
+/**
+ * Fits the linear-plateau to a prepared site.
+ * @param site - from prepareSite
+ * @param options - confidence level, curve grid
+ * @returns the fit with its status; join and plateau only when "ok"
+ * @example
+ * // see fitLinearPlateau
+ */
+export function fitLinearPlateauPrepared(site: PreparedSite, options: FitOptions): ModelFit {
+  const est = estimateLinearPlateau(site);
+  if (est.status === 'too-few-rates') return unfittedFit(site, linearPlateauSpec, est.message);
+  const { status } = est;
+  const x0 = est.params.x0;
+  const gFinal = site.rates.map((r) => Math.min(r, x0));
   const coef = linearCoefficients(site, [gFinal], true);
-  const params = Float64Array.of(coef.curve[0], coef.curve[1], x0);
+  // A flat best fit has b = 0 exactly (the constrained optimum).
+  const flat = status === 'no-response';
+  const lin = flat ? linearCoefficients(site, [], true) : coef;
+  const params = Float64Array.of(lin.curve[0], flat ? 0 : coef.curve[1], x0);
   const [a, b] = params;
   const ok = status === 'ok';
   const fit = finishFit({
     site,
     spec: linearPlateauSpec,
     params,
-    blockCoefficients: coef.blocks,
+    blockCoefficients: lin.blocks,
     status,
-    message,
+    message: est.message,
     options,
     joinPoint: ok ? { value: x0, gradient: [0, 0, 1] } : undefined,
     plateauYield:
       ok || status === 'full-response-at-lowest-rate'
         ? { value: a + b * x0, gradient: [1, x0, b] }
         : undefined,
-    joinBetweenKgHa: status === 'full-response-at-lowest-rate' ? [rates[0], rates[1]] : null,
+    joinBetweenKgHa: est.joinBetweenKgHa,
     stdErrorNote: ok
       ? 'The x0 derivative jumps at each tested rate: the asymptotic errors assume x0 stays between the same two rates; prefer the bootstrap interval for the optimum.'
       : '',

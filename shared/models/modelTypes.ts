@@ -152,3 +152,16 @@ export interface ModelFit extends CurveSummary {
   /** The fitted curve (block average), kg/ha, at any rate in kg/ha. */
   predict: (rateKgHa: number) => number;
 }
+
+/**
+ * A model's estimate without the reporting (errors, residuals, curve): what a
+ * bootstrap resample or a quick re-fit needs. Parameters are the internal ones:
+ * where a status blanks a parameter in the full fit (x0 for "no-plateau"), the
+ * estimate keeps the limiting value used (x0 = the highest rate), so the curve
+ * can still be evaluated. With block terms the intercept is that of the
+ * block-adjusted fit.
+ */
+export interface CurveEstimate extends CurveSummary {
+  message: string;
+  sse: number;
+}

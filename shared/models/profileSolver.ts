@@ -25,6 +25,12 @@ export interface ProfileSolver {
   sse: (g: Float64Array) => number;
   /** SSE of the flat fit (β = 0): intercept and block offsets only (or zero without intercept). */
   flatSse: number;
+  /**
+   * The inner coefficients of the latest sse() call (overwritten by the next):
+   * intercept a (0 without one) and β (0 for the flat fit). With block terms, a
+   * is the intercept of the block-adjusted fit.
+   */
+  last: { intercept: number; beta: number };
 }
 
 export interface ProfileSolverOptions {
@@ -63,6 +69,12 @@ function groupSolver(site: PreparedSite, options: ProfileSolverOptions): Profile
     flatSse += counts[j] * d * d;
   }
   const sign = options.sign;
+  const last = { intercept: 0, beta: 0 };
+  const flat = (): number => {
+    last.intercept = options.intercept ? mBar : 0;
+    last.beta = 0;
+    return flatSse;
+  };
   const sse = options.intercept
     ? (g: Float64Array): number => {
         let gBar = 0;
@@ -78,11 +90,13 @@ function groupSolver(site: PreparedSite, options: ProfileSolverOptions): Profile
           gScale += counts[j] * g[j] * g[j];
         }
         // g constant (e.g. a join below the lowest rate): only the flat fit exists.
-        if (!(sgg > 1e-24 * gScale)) return flatSse;
+        if (!(sgg > 1e-24 * gScale)) return flat();
         const beta = sgm / sgg;
         if ((sign === 'positive' && beta <= 0) || (sign === 'negative' && beta >= 0)) {
-          return flatSse;
+          return flat();
         }
+        last.intercept = mBar - beta * gBar;
+        last.beta = beta;
         let s = ssWithin;
         for (let j = 0; j < m; j++) {
           const r = means[j] - mBar - beta * (g[j] - gBar);
@@ -97,11 +111,13 @@ function groupSolver(site: PreparedSite, options: ProfileSolverOptions): Profile
           sgg += counts[j] * g[j] * g[j];
           sgm += counts[j] * g[j] * means[j];
         }
-        if (!(sgg > 0)) return flatSse;
+        if (!(sgg > 0)) return flat();
         const beta = sgm / sgg;
         if ((sign === 'positive' && beta <= 0) || (sign === 'negative' && beta >= 0)) {
-          return flatSse;
+          return flat();
         }
+        last.intercept = 0;
+        last.beta = beta;
         let s = ssWithin;
         for (let j = 0; j < m; j++) {
           const r = means[j] - beta * g[j];
@@ -109,7 +125,7 @@ function groupSolver(site: PreparedSite, options: ProfileSolverOptions): Profile
         }
         return s;
       };
-  return { sse, flatSse };
+  return { sse, flatSse, last };
 }
 
 /** Effect-coded block columns (block b: +1, last block: −1), B − 1 of them. */
@@ -137,13 +153,16 @@ function fullDesignSolver(site: PreparedSite, options: ProfileSolverOptions): Pr
   if (options.intercept) base.fill(1, 0, n);
   blocks.forEach((c, k) => base.set(c, (lead + 1 + k) * n));
 
-  const residualSs = (matrix: Float64Array, cols: number): { sse: number; coef: number } => {
+  const residualSs = (
+    matrix: Float64Array,
+    cols: number,
+  ): { sse: number; coef: number; intercept: number } => {
     const qr = qrDecompose(matrix, n, cols);
     const qty = Float64Array.from(y);
     applyQTranspose(qr, qty);
     let s = 0;
     for (let i = cols; i < n; i++) s += qty[i] * qty[i];
-    if (qr.rank < cols) return { sse: NaN, coef: NaN };
+    if (qr.rank < cols) return { sse: NaN, coef: NaN, intercept: NaN };
     // β by back substitution only when it is needed (the sign check).
     const rAt = (i: number, j: number): number =>
       i === j ? qr.rDiagonal[i] : qr.packed[j * n + i];
@@ -153,20 +172,29 @@ function fullDesignSolver(site: PreparedSite, options: ProfileSolverOptions): Pr
       for (let j = i + 1; j < cols; j++) t -= rAt(i, j) * b[j];
       b[i] = t / qr.rDiagonal[i];
     }
-    return { sse: s, coef: b[lead] };
+    return { sse: s, coef: b[lead], intercept: options.intercept ? b[0] : 0 };
   };
 
   // Flat fit: drop the g column.
   const flatCols = p - 1;
   let flatSse = 0;
+  let flatIntercept = 0;
   if (flatCols === 0) {
     for (let i = 0; i < n; i++) flatSse += y[i] * y[i];
   } else {
     const flat = new Float64Array(n * flatCols);
     if (options.intercept) flat.fill(1, 0, n);
     blocks.forEach((c, k) => flat.set(c, (lead + k) * n));
-    flatSse = residualSs(flat, flatCols).sse;
+    const r = residualSs(flat, flatCols);
+    flatSse = r.sse;
+    flatIntercept = r.intercept;
   }
+  const last = { intercept: 0, beta: 0 };
+  const flatFit = (): number => {
+    last.intercept = flatIntercept;
+    last.beta = 0;
+    return flatSse;
+  };
   const work = new Float64Array(n * p);
   const sse = (g: Float64Array): number => {
     work.set(base);
@@ -180,14 +208,16 @@ function fullDesignSolver(site: PreparedSite, options: ProfileSolverOptions): Pr
     }
     const spread = gMax - gMin;
     if (options.intercept && !(spread > 1e-12 * Math.max(Math.abs(gMax), Math.abs(gMin)))) {
-      return flatSse;
+      return flatFit();
     }
-    const { sse: s, coef } = residualSs(work, p);
-    if (!Number.isFinite(s)) return flatSse;
+    const { sse: s, coef, intercept } = residualSs(work, p);
+    if (!Number.isFinite(s)) return flatFit();
     if ((options.sign === 'positive' && coef <= 0) || (options.sign === 'negative' && coef >= 0)) {
-      return flatSse;
+      return flatFit();
     }
+    last.intercept = intercept;
+    last.beta = coef;
     return s;
   };
-  return { sse, flatSse };
+  return { sse, flatSse, last };
 }

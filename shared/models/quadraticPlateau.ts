@@ -17,13 +17,15 @@ import {
   blankParameters,
   finishFit,
   tooFewRatesMessage,
+  unfittedEstimate,
   unfittedFit,
   type CurveSpec,
 } from './finishFit';
-import { linearCoefficients } from './linearCoefficients';
-import type { FitOptions, ModelFit, SiteData } from './modelTypes';
+import { groupLinearCoefficients, linearCoefficients } from './linearCoefficients';
+import type { CurveEstimate, FitOptions, FitStatus, ModelFit, SiteData } from './modelTypes';
 import { prepareSite, type PreparedSite } from './prepareSite';
 import { profileSolver } from './profileSolver';
+import { relaxedJoinBounds } from './relaxedJoinBounds';
 import { searchJoinPoint } from './searchJoinPoint';
 
 /** The quadratic-plateau curve, parameters [P, c, x0]. */
@@ -48,16 +50,16 @@ export const quadraticPlateauSpec: CurveSpec = {
 const TIE = 1e-10;
 
 /**
- * Fits the quadratic-plateau to a prepared site.
+ * The quadratic-plateau's estimate and status from the profiled search alone.
  * @param site - from prepareSite
- * @param options - confidence level, curve grid
- * @returns the fit with its status; join and plateau only when "ok"
+ * @returns status, message, params {P, c, x0} (x0 = highest rate for "no-plateau" and
+ *   "no-response", the second-lowest rate for "full-response-at-lowest-rate") and SSE
  * @example
- * // see fitQuadraticPlateau
+ * estimateQuadraticPlateau(prepareSite({ rateKgHa: [0, 50, 100, 150, 200], yieldKgHa: [6300, 7800, 8700, 9000, 9000] }, 'none')).params.x0 // ≈ 150
  */
-export function fitQuadraticPlateauPrepared(site: PreparedSite, options: FitOptions): ModelFit {
+export function estimateQuadraticPlateau(site: PreparedSite): CurveEstimate {
   const why = tooFewRatesMessage(site, quadraticPlateauSpec, 3);
-  if (why) return unfittedFit(site, quadraticPlateauSpec, why);
+  if (why) return unfittedEstimate(site, quadraticPlateauSpec, why);
   const rates = site.rates;
   const m = rates.length;
   const solver = profileSolver(site, { intercept: true, sign: 'negative' });
@@ -69,28 +71,32 @@ export function fitQuadraticPlateauPrepared(site: PreparedSite, options: FitOpti
     }
     return solver.sse(g);
   };
-  const best = searchJoinPoint(rates, sseAt);
+  const bounds = site.design === 'full' ? undefined : relaxedJoinBounds(site, 2);
+  const best = searchJoinPoint(rates, sseAt, 1e-10, bounds);
   const rMax = rates[m - 1];
 
   // The limit x0 ≥ r_max: the quadratic with its vertex past the data, or the
-  // rising straight line as x0 → ∞ with c → 0.
+  // rising straight line as x0 → ∞ with c → 0. Their SSEs come from the same
+  // solver with g = x (line; sign-free) and from the quadratic's own fit.
   let limitSse = sseAt(rMax);
-  const line = linearCoefficients(site, [rates], true);
-  if (line.curve[1] > 0) limitSse = Math.min(limitSse, sseOf(site, [1, rates], line));
-  const quad = linearCoefficients(site, [rates, rates.map((r) => r * r)], true);
+  const lineSolver = profileSolver(site, { intercept: true, sign: 'positive' });
+  limitSse = Math.min(limitSse, lineSolver.sse(rates));
+  const quad = groupLinearCoefficients(site, [rates, rates.map((r) => r * r)], true);
   if (quad.curve[2] < 0 && -quad.curve[1] / (2 * quad.curve[2]) >= rMax) {
-    limitSse = Math.min(limitSse, sseOf(site, [1, rates, rates.map((r) => r * r)], quad));
+    limitSse = Math.min(limitSse, quad.sse);
   }
 
   let x0 = best.x0;
-  let status: ModelFit['status'] = 'ok';
+  let status: FitStatus = 'ok';
   let message: string;
   if (best.sse >= solver.flatSse * (1 - TIE)) {
     status = 'no-response';
     message = 'Yield does not rise with rate: the best quadratic-plateau is flat.';
+    x0 = rMax;
   } else if (x0 >= rMax * (1 - 1e-9) || best.sse >= limitSse * (1 - TIE)) {
     status = 'no-plateau';
     message = `No plateau within the tested rates: the curve has not levelled off by the highest rate (${rMax} kg/ha).`;
+    x0 = rMax;
   } else if (x0 <= rates[1] * (1 + 1e-9)) {
     status = 'full-response-at-lowest-rate';
     message = `Full response by the lowest non-zero rate: the join lies between ${rates[0]} and ${rates[1]} kg/ha and these rates cannot place it more precisely.`;
@@ -98,59 +104,57 @@ export function fitQuadraticPlateauPrepared(site: PreparedSite, options: FitOpti
   } else {
     message = 'Quadratic-plateau fitted; join point between tested rates.';
   }
-  if (status === 'no-response' || status === 'no-plateau') x0 = rMax;
-  const gFinal = rates.map((r) => (r < x0 ? (r - x0) ** 2 : 0));
-  const coef = linearCoefficients(site, [gFinal], true);
+  const sse = sseAt(x0);
+  return {
+    model: 'quadraticPlateau',
+    status,
+    message,
+    params: { P: solver.last.intercept, c: solver.last.beta, x0 },
+    sse,
+    testedRates: site.testedRates,
+    joinBetweenKgHa: status === 'full-response-at-lowest-rate' ? [rates[0], rates[1]] : null,
+  };
+}
+
+/**
+ * Fits the quadratic-plateau to a prepared site.
+ * @param site - from prepareSite
+ * @param options - confidence level, curve grid
+ * @returns the fit with its status; join and plateau only when "ok"
+ * @example
+ * // see fitQuadraticPlateau
+ */
+export function fitQuadraticPlateauPrepared(site: PreparedSite, options: FitOptions): ModelFit {
+  const est = estimateQuadraticPlateau(site);
+  if (est.status === 'too-few-rates') return unfittedFit(site, quadraticPlateauSpec, est.message);
+  const { status } = est;
+  const x0 = est.params.x0;
+  const gFinal = site.rates.map((r) => (r < x0 ? (r - x0) ** 2 : 0));
+  const flat = status === 'no-response';
   // A flat best fit has c = 0 exactly (the constrained optimum).
-  const c = status === 'no-response' ? 0 : coef.curve[1];
-  const P = status === 'no-response' ? flatIntercept(site) : coef.curve[0];
+  const coef = linearCoefficients(site, flat ? [] : [gFinal], true);
+  const P = coef.curve[0];
+  const c = flat ? 0 : coef.curve[1];
   const params = Float64Array.of(P, c, x0);
   const ok = status === 'ok';
   const fit = finishFit({
     site,
     spec: quadraticPlateauSpec,
     params,
-    blockCoefficients:
-      status === 'no-response' ? linearCoefficients(site, [], true).blocks : coef.blocks,
+    blockCoefficients: coef.blocks,
     status,
-    message,
+    message: est.message,
     options,
     joinPoint: ok ? { value: x0, gradient: [0, 0, 1] } : undefined,
     plateauYield:
       ok || status === 'full-response-at-lowest-rate'
         ? { value: P, gradient: [1, 0, 0] }
         : undefined,
-    joinBetweenKgHa: status === 'full-response-at-lowest-rate' ? [rates[0], rates[1]] : null,
+    joinBetweenKgHa: est.joinBetweenKgHa,
   });
   if (status === 'full-response-at-lowest-rate') blankParameters(fit, ['c', 'x0']);
   else if (!ok) blankParameters(fit, ['x0']);
   return fit;
-}
-
-function flatIntercept(site: PreparedSite): number {
-  return linearCoefficients(site, [], true).curve[0];
-}
-
-/** SSE of a linear fit whose regressors are given per distinct rate (1 = a column of ones). */
-function sseOf(
-  site: PreparedSite,
-  columns: (1 | Float64Array)[],
-  coef: { curve: Float64Array; blocks: Float64Array },
-): number {
-  const nb = site.blockLabels.length;
-  let s = 0;
-  for (let i = 0; i < site.n; i++) {
-    const j = site.groupOf[i];
-    let f = 0;
-    columns.forEach((col, k) => (f += coef.curve[k] * (col === 1 ? 1 : col[j])));
-    const b = site.blockOf[i];
-    if (coef.blocks.length > 0) {
-      if (b < nb - 1) f += coef.blocks[b];
-      else for (let k = 0; k < nb - 1; k++) f -= coef.blocks[k];
-    }
-    s += (site.y[i] - f) ** 2;
-  }
-  return s;
 }
 
 /**

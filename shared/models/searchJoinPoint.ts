@@ -4,6 +4,12 @@
  * distinct rates and may have a kink at each, so it is minimised within every
  * interval [r_j, r_{j+1}] by Brent's method and the best of all intervals kept.
  * Its ends are evaluated too, so a join exactly at a rate is found.
+ *
+ * Speed (optional): a model may give a lower bound of SSE over each interval,
+ * from a relaxed fit in which the pieces left and right of the join need not
+ * meet. Intervals are then searched in order of their bound and an interval
+ * whose bound is not below the best SSE found so far is skipped: it cannot hold
+ * the minimum (branch and bound), so the result is the same, with fewer evaluations.
  */
 import { minimizeBrent } from '../optimize/minimizeBrent';
 
@@ -21,6 +27,7 @@ export interface JoinSearchResult {
  * @param rates - distinct rates ascending, kg/ha (at least 2)
  * @param sse - SSE as a function of the join point (kg/ha)
  * @param relativeTolerance - Brent's tolerance on x0, default 1e-10
+ * @param lowerBounds - optional: lowerBounds[j] ≤ SSE(x0) for every x0 in [r_j, r_{j+1}]
  * @returns the best join point and its SSE
  * @example
  * searchJoinPoint(new Float64Array([0, 50, 100]), (x0) => (x0 - 70) ** 2).x0 // ≈ 70
@@ -29,19 +36,32 @@ export function searchJoinPoint(
   rates: Float64Array,
   sse: (x0: number) => number,
   relativeTolerance = 1e-10,
+  lowerBounds?: Float64Array,
 ): JoinSearchResult {
-  let best: JoinSearchResult = { x0: NaN, sse: Infinity, interval: -1, evaluations: 0 };
+  const intervals = rates.length - 1;
+  const order: number[] = [];
+  for (let j = 0; j < intervals; j++) order.push(j);
+  if (lowerBounds) order.sort((p, q) => lowerBounds[p] - lowerBounds[q] || p - q);
+  let bestX = NaN;
+  let bestSse = Infinity;
+  let bestInterval = -1;
   let evaluations = 0;
-  for (let j = 0; j + 1 < rates.length; j++) {
+  for (const j of order) {
+    // A bound at or above the best cannot win (the margin absorbs rounding in the bound).
+    if (lowerBounds && lowerBounds[j] * (1 - 1e-7) >= bestSse) continue;
     const r = minimizeBrent(sse, rates[j], rates[j + 1], {
       relativeTolerance,
       absoluteTolerance: 1e-9 * (rates[j + 1] - rates[j]),
     });
     evaluations += r.evaluations;
-    // Strictly lower only: on a tie the lower join is kept, so a flat stretch
-    // (check against the rest) is reported from its first interval.
-    if (r.fx < best.sse * (1 - 1e-13)) best = { x0: r.x, sse: r.fx, interval: j, evaluations: 0 };
+    // On a tie the lower interval is kept, so a flat stretch (check against the
+    // rest) is reported from its first interval whatever the search order.
+    const tie = bestInterval >= 0 && Math.abs(r.fx - bestSse) <= 1e-13 * bestSse;
+    if ((r.fx < bestSse && !tie) || (tie && j < bestInterval)) {
+      bestX = r.x;
+      bestSse = r.fx;
+      bestInterval = j;
+    }
   }
-  best.evaluations = evaluations;
-  return best;
+  return { x0: bestX, sse: bestSse, interval: bestInterval, evaluations };
 }
