@@ -65,6 +65,8 @@ export function contentTypeFor(filePath: string): string {
     '.woff': 'font/woff',
     '.wasm': 'application/wasm',
     '.map': 'application/json',
+    '.csv': 'text/csv; charset=utf-8',
+    '.xlsx': 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
   };
   return types[path.extname(filePath).toLowerCase()] ?? 'application/octet-stream';
 }
