@@ -144,12 +144,13 @@ describe('sortSiteRows and filterSiteRows', () => {
   });
 });
 
-describe('pooled plateau tests against R (tests/fixtures/sites/pooledPlateau.R, R 4.2.2)', () => {
-  // R profiles the join with optimize() on every interval between rates, inner fit lm();
+describe('pooled plateau and exponential tests against R (tests/fixtures/sites/pooledPlateau.R, R 4.2.2)', () => {
+  // R profiles the join with optimize() on every interval between rates (the exponential: ln k
+  // on a grid, then optimize()), inner fit lm();
   // SSE agrees to 1e-7 relative (a flat minimum: SSE is insensitive to small x0 errors).
   const r = readRCsv('pooledPlateau.csv');
   const a = analyseAcrossSites(pooledPlotTable(), { prices });
-  for (const model of ['linearPlateau', 'quadraticPlateau'] as const) {
+  for (const model of ['linearPlateau', 'quadraticPlateau', 'exponential'] as const) {
     it(`the ${model} pooled-versus-site-curves F-test matches R's profiled fits`, () => {
       const rows = r.filter((x) => x.model === model);
       const pooledR = rows.find((x) => x.part === '(pooled)')!;
