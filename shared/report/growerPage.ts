@@ -61,12 +61,13 @@ function applicationRound(v: number, rateUnit: string): number {
   return Math.round(v / step) * step;
 }
 
-/** The price ratio at which the optimum is read, in words a grower uses. */
+/** How sure the optimum is, in words a grower uses, from its interval (display units). */
 function certaintyOf(
   opt: number,
   ci: [number, number] | null,
   fmt: (v: number) => string,
   level: number,
+  highestRate: number,
 ): GrowerPage['certainty'] {
   if (!ci) {
     return {
@@ -75,9 +76,12 @@ function certaintyOf(
     };
   }
   const half = (ci[1] - ci[0]) / 2;
-  const rel = opt > 0 ? half / opt : Infinity;
+  // Relative to the rate, but never to less than a quarter of the tested range: an
+  // optimum of 0 with an interval of 0 to 0 is a sure answer, not an infinitely wide one.
+  const rel = half / Math.max(opt, 0.25 * highestRate, 1e-9);
   const pct = Math.round(level * 100);
-  const range = `between ${fmt(ci[0])} and ${fmt(ci[1])}`;
+  const range =
+    fmt(ci[0]) === fmt(ci[1]) ? `at ${fmt(ci[0])}` : `between ${fmt(ci[0])} and ${fmt(ci[1])}`;
   if (rel <= 0.15) {
     return {
       level: 'fairly sure',
@@ -235,6 +239,7 @@ export function growerPage(report: TrialReport, which: string | 'region'): Growe
     ci ? [u.rate(ci[0]), u.rate(ci[1])] : null,
     (v) => `${formatQuantity(applicationRound(v, ru), ru, 0).replace(ru, nutrientUnit(ru))}`,
     s.bootstrap?.level ?? 0.9,
+    u.rate(rates[rates.length - 1] ?? 0),
   );
   const roundedRate = applicationRound(u.rate(opt), ru);
   return {

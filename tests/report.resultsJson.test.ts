@@ -1,0 +1,100 @@
+// The results JSON: its keys are the documented schema (README "Results
+// format"), its numbers are in the units it names, and the same seed gives the
+// same file. Unit factors from the exact pound and acre (NIST SP 811) and the
+// 56 lb corn bushel (USDA).
+import { beforeAll, describe, expect, it } from 'vitest';
+import { resultsJson, type ResultsJson } from '../shared/report/resultsJson';
+import type { TrialReport } from '../shared/report/trialReport';
+import { demoReport } from './report.fixture';
+
+const KG_HA_PER_LB_AC = 0.45359237 / (43560 * 0.3048 * 0.3048 * 1e-4);
+
+let us: TrialReport;
+let json: ResultsJson;
+
+beforeAll(async () => {
+  us = await demoReport('us', 40);
+  json = resultsJson(us);
+});
+
+describe('resultsJson', () => {
+  it('has exactly the documented fields', () => {
+    expect(Object.keys(json).sort()).toEqual(['acrossSites', 'settings', 'sites', 'tool']);
+    expect(Object.keys(json.tool).sort()).toEqual(['name', 'version']);
+    for (const k of [
+      'units',
+      'crop',
+      'grainPrice',
+      'nutrientPrice',
+      'priceRatio',
+      'boot',
+      'seed',
+    ]) {
+      expect(json.settings).toHaveProperty(k);
+    }
+    const site = json.sites[0];
+    for (const k of ['site', 'n', 'interceptTest', 'lackOfFit', 'bestModel', 'models'])
+      expect(site).toHaveProperty(k);
+    expect(Object.keys(site.interceptTest!).sort()).toEqual(['F', 'df1', 'df2', 'p', 't']);
+    for (const m of site.models) {
+      for (const k of [
+        'model',
+        'status',
+        'params',
+        'stdErrors',
+        'sse',
+        'dfResidual',
+        'aicc',
+        'optimumRate',
+        'optimumCI',
+        'yieldAtOptimum',
+      ]) {
+        expect(m).toHaveProperty(k);
+      }
+    }
+    expect(json.acrossSites).toHaveProperty('bestRate');
+    expect(json.acrossSites!.profitableRange).toHaveLength(2);
+  });
+
+  it('states the units and gives the price ratio as nutrient price over grain price in bu per lb N', () => {
+    expect(json.settings.units).toEqual({ rate: 'lb/ac', yield: 'bu/ac' });
+    // Urea 46 % N at 0.30 per lb: 0.30 / 0.46 per lb of N.
+    expect(json.settings.nutrientPrice).toBeCloseTo(0.3 / 0.46, 9);
+    expect(json.settings.priceRatio).toBeCloseTo(0.3 / 0.46 / 4.5, 9);
+  });
+
+  it('converts rates, yields and parameters from kg/ha by the exact factors', () => {
+    us.sites.forEach((s, i) => {
+      const js = json.sites[i];
+      expect(js.n).toBe(s.n);
+      s.models.forEach((m, j) => {
+        const jm = js.models[j];
+        expect(jm.model).toBe(m.model);
+        if (m.optimumRateKgHa !== null) {
+          expect(jm.optimumRate!).toBeCloseTo(m.optimumRateKgHa / KG_HA_PER_LB_AC, 8);
+        }
+        if (m.yieldAtOptimumKgHa !== null) {
+          expect(jm.yieldAtOptimum!).toBeCloseTo(m.yieldAtOptimumKgHa / (56 * KG_HA_PER_LB_AC), 8);
+        }
+        // A slope is yield per rate: kg grain/kg N → (bu/ac)/(lb/ac) = kg/kg × lb/bu-weight.
+        if (m.model === 'linear') {
+          expect(jm.params.b).toBeCloseTo(m.params.b / 56, 8);
+        }
+      });
+    });
+  });
+
+  it('reports the chosen model with its bootstrap interval around its optimum', () => {
+    for (const s of json.sites) {
+      const best = s.models.find((m) => m.model === s.bestModel);
+      if (!best?.optimumCI) continue;
+      expect(best.optimumCI[0]).toBeLessThanOrEqual(best.optimumRate! + 1e-9);
+      expect(best.optimumCI[1]).toBeGreaterThanOrEqual(best.optimumCI[0]);
+    }
+  });
+
+  it('gives the same file for the same seed', async () => {
+    const again = resultsJson(await demoReport('us', 40));
+    expect(JSON.stringify(again)).toBe(JSON.stringify(json));
+  });
+});
