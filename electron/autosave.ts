@@ -4,9 +4,12 @@
  * minute (atomically, like every save). A marker file `session-running`
  * exists from start-up until a clean shutdown; finding it at the next start
  * means the app ended without shutting down, and the autosaved copy — if any
- * — is offered back. Autosave never touches the user's own project file.
+ * — is moved to `recovered.json` and offered back. It stays there, offered
+ * at every start, until the user takes it or declines it (discardRecovery),
+ * so quitting without answering loses nothing. Autosave never touches the
+ * user's own project file.
  */
-import { readFile, rm, writeFile } from 'node:fs/promises';
+import { readFile, rename, rm, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { parseProject } from '../shared/project/parseProject';
 import type { PlotrateProject } from '../shared/project/projectFormat';
@@ -19,6 +22,7 @@ export const AUTOSAVE_INTERVAL_MS = 60_000;
 
 const AUTOSAVE_FILE = 'autosave.json';
 const MARKER_FILE = 'session-running';
+const RECOVERED_FILE = 'recovered.json';
 
 /** The autosave envelope: when, for which project file, and the project's own text. */
 interface AutosaveEnvelope {
@@ -33,7 +37,7 @@ interface AutosaveEnvelope {
 export interface StartupRecovery {
   /** The previous session ended without a clean shutdown. */
   uncleanExit: boolean;
-  /** Its unsaved work, when there was any and it is readable; null otherwise. */
+  /** Unsaved work of a session that crashed (this time or earlier, not yet answered); null when none. */
   recovered: (RecoveredProject & { projectPath: string | null }) | null;
   /** Why an autosave copy could not be read, when it could not. */
   unreadable: string | null;
@@ -52,14 +56,18 @@ export async function beginSession(dataDir: string, now: Date): Promise<StartupR
     () => true,
     () => false,
   );
+  if (uncleanExit) {
+    // Keep the crashed session's copy apart, so this session's autosaves cannot replace it.
+    await rename(path.join(dataDir, AUTOSAVE_FILE), path.join(dataDir, RECOVERED_FILE)).catch(
+      () => undefined,
+    );
+  }
   let recovered: StartupRecovery['recovered'] = null;
   let unreadable: string | null = null;
-  if (uncleanExit) {
-    try {
-      recovered = await readAutosave(dataDir);
-    } catch (e) {
-      unreadable = (e as Error).message;
-    }
+  try {
+    recovered = await readAutosave(dataDir, RECOVERED_FILE);
+  } catch (e) {
+    unreadable = (e as Error).message;
   }
   await writeFile(marker, `${process.pid} ${now.toISOString()}\n`);
   return { uncleanExit, recovered, unreadable };
@@ -75,13 +83,18 @@ export async function endSessionCleanly(dataDir: string): Promise<void> {
   await rm(path.join(dataDir, MARKER_FILE), { force: true });
 }
 
-/** Read the autosave copy, or null when there is none. @throws when it exists but is damaged */
+/**
+ * Read an autosave copy, or null when there is none.
+ * @param file "autosave.json" (this session's) or "recovered.json" (a crashed session's)
+ * @throws when it exists but is damaged
+ */
 export async function readAutosave(
   dataDir: string,
+  file: string = AUTOSAVE_FILE,
 ): Promise<(RecoveredProject & { projectPath: string | null }) | null> {
   let text: string;
   try {
-    text = await readFile(path.join(dataDir, AUTOSAVE_FILE), 'utf8');
+    text = await readFile(path.join(dataDir, file), 'utf8');
   } catch {
     return null;
   }
@@ -90,13 +103,13 @@ export async function readAutosave(
     envelope = JSON.parse(text) as AutosaveEnvelope;
   } catch (e) {
     throw new Error(
-      `${AUTOSAVE_FILE} is not readable JSON (${(e as Error).message}); it was probably cut short`,
+      `${file} is not readable JSON (${(e as Error).message}); it was probably cut short`,
       { cause: e },
     );
   }
   if (envelope.format !== 'plotrate-autosave' || typeof envelope.projectText !== 'string')
-    throw new Error(`${AUTOSAVE_FILE} is not an autosave copy`);
-  const { project } = parseProject(envelope.projectText, AUTOSAVE_FILE);
+    throw new Error(`${file} is not an autosave copy`);
+  const { project } = parseProject(envelope.projectText, file);
   const projectPath = typeof envelope.projectPath === 'string' ? envelope.projectPath : null;
   return {
     project,
@@ -123,7 +136,12 @@ export async function writeAutosave(
   await writeFileAtomic(path.join(dataDir, AUTOSAVE_FILE), JSON.stringify(envelope));
 }
 
-/** Remove the autosave copy, if any. */
+/** Remove a crashed session's copy: the user took it over or declined it. */
+export async function discardRecovered(dataDir: string): Promise<void> {
+  await rm(path.join(dataDir, RECOVERED_FILE), { force: true });
+}
+
+/** Remove this session's autosave copy, if any. */
 export async function discardAutosave(dataDir: string): Promise<void> {
   await rm(path.join(dataDir, AUTOSAVE_FILE), { force: true });
 }

@@ -24,6 +24,7 @@ import {
   Autosaver,
   beginSession,
   discardAutosave,
+  discardRecovered,
   endSessionCleanly,
   writeAutosave,
   type StartupRecovery,
@@ -318,7 +319,7 @@ function deps(): ShellDeps {
       pendingRecovery: () => recovery,
       async discardRecovery() {
         recovery = null;
-        if (!autosaver.dirty) await discardAutosave(dataDir());
+        await discardRecovered(dataDir());
       },
     },
     writeFile: writeFileAtomic,

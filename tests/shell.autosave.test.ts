@@ -9,6 +9,7 @@ import {
   Autosaver,
   beginSession,
   discardAutosave,
+  discardRecovered,
   endSessionCleanly,
   writeAutosave,
 } from '../electron/autosave';
@@ -62,6 +63,23 @@ describe('crash recovery', () => {
     // Autosave never touches the user's own file.
     expect(await readFile(projectFile, 'utf8')).toBe(savedText);
     saver.dispose();
+  });
+
+  it('keeps offering a crashed session’s work until the user answers, even across clean shutdowns', async () => {
+    await beginSession(dataDir, new Date());
+    const lost = { ...exampleProject(), notes: 'work from before the crash' };
+    await writeAutosave(dataDir, lost, null, new Date('2026-04-02T10:00:00.000Z'));
+    // Crash. The next session autosaves its own work and then shuts down cleanly without an answer.
+    expect((await beginSession(dataDir, new Date())).recovered?.project).toEqual(lost);
+    await writeAutosave(dataDir, { ...exampleProject(), notes: 'new session' }, null, new Date());
+    await endSessionCleanly(dataDir);
+    const third = await beginSession(dataDir, new Date());
+    expect(third.uncleanExit).toBe(false);
+    expect(third.recovered?.project).toEqual(lost);
+    // Declined (or taken over): gone for good.
+    await discardRecovered(dataDir);
+    await endSessionCleanly(dataDir);
+    expect((await beginSession(dataDir, new Date())).recovered).toBeNull();
   });
 
   it('offers nothing after a clean shutdown', async () => {
