@@ -76,6 +76,19 @@ describe('demo workbook', () => {
     expect(w.columns.find((c) => c.role === 'rate')!.unit).toBe('kg/ha');
   });
 
+  it('leaves the wheat sheet out of a corn table by the crop its title names, and says so', () => {
+    const m = detectColumns(raw);
+    expect(m.sheets.find((s) => s.sheet === 'Wheat (metric)')!.cropHint).toBe('wheat');
+    expect(m.sheets.find((s) => s.sheet === 'Tarrowfield')!.cropHint).toBe('corn');
+    const { table, findings } = buildPlotTable(raw, m, { crop: 'corn', rateBasis: 'nutrient' });
+    expect(table.plots.map((p) => p.id)).toEqual(corn.plots.map((p) => p.id));
+    expect(findings.find((f) => f.code === 'other-crop-sheet-skipped')!.message).toBe(
+      'Sheet "Wheat (metric)" of "wrenhollow-n-trials-2025.xlsx" is about wheat, not corn, and was left out of this table; import it with the crop set to wheat, or choose the sheet by name.',
+    );
+    const w = buildPlotTable(raw, m, { crop: 'wheat', rateBasis: 'nutrient' }).table;
+    expect(w.plots.map((p) => p.id)).toEqual(wheat.plots.map((p) => p.id));
+  });
+
   it('imports 6 corn sites with 143 plots (one missing) and 2 wheat sites with 40', () => {
     expect([...new Set(corn.plots.map((p) => p.site))]).toEqual(cornSheets);
     expect(corn.plots.length).toBe(6 * 24 - 1);

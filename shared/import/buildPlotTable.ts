@@ -195,9 +195,22 @@ export function buildPlotTable(
       const ks = sheetOf(km.sheet);
       if (ks) for (const [k, v] of readKey(raw, ks, km, findings)) if (!key.has(k)) key.set(k, v);
     }
+    // Sheets that name another crop stay out unless chosen by name, or unless nothing else is left.
+    const plotsSheets = mapping.sheets.filter((s) => s.use === 'plots');
+    const otherCrop = (s: SheetMapping) => !settings.sheets && !!s.cropHint && s.cropHint !== crop;
+    const skipOther = plotsSheets.some((s) => !otherCrop(s));
     for (const m of mapping.sheets) {
       if (m.use !== 'plots') continue;
       if (settings.sheets && !settings.sheets.includes(m.sheet)) continue;
+      if (skipOther && otherCrop(m)) {
+        findings.push({
+          code: 'other-crop-sheet-skipped',
+          severity: 'info',
+          message: `Sheet "${m.sheet}" of "${raw.file.name}" is about ${m.cropHint}, not ${crop}, and was left out of this table; import it with the crop set to ${m.cropHint}, or choose the sheet by name.`,
+          refs: [],
+        });
+        continue;
+      }
       const sheet = sheetOf(m.sheet);
       if (!sheet) {
         throw new ImportError(

@@ -3,7 +3,7 @@
  * can show it, the user can change any part, and a project can store it and
  * reuse it for the next file of the same shape ({@link ColumnMapping.shapeSignature}).
  */
-import type { ColumnRole } from '../table/plotTable';
+import type { ColumnRole, CropId } from '../table/plotTable';
 
 /** A column's meaning: a plot-table role, a treatment-key field, or nothing. */
 export type MappedRole = ColumnRole | 'product' | 'timing' | 'ignore';
@@ -57,6 +57,11 @@ export interface SheetMapping {
   columns: ColumnAssignment[];
   /** Why the sheet got this use. */
   evidence: string;
+  /**
+   * The crop the sheet's name or title rows name, if exactly one. A plots sheet of
+   * another crop than the import settings' is left out unless chosen by name.
+   */
+  cropHint?: CropId | null;
 }
 
 export interface ColumnMapping {

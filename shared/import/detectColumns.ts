@@ -16,6 +16,7 @@ import { cellNumber } from './cellNumber';
 import { normaliseHeader, roleFromHeader, unitFromHeader } from './headerWords';
 import { columnLetters, type RawSheet, type RawWorkbook } from './rawWorkbook';
 import { shapeSignature } from './shapeSignature';
+import { cropFromText } from './cropFromText';
 
 /** How many rows from the top are searched for the header. */
 const headerSearchRows = 30;
@@ -298,7 +299,13 @@ function mapSheet(sheet: RawSheet, multipleSheets: boolean): SheetMapping {
     : multipleSheets || !generic
       ? { from: 'sheet-name' }
       : { from: 'fixed', value: '' };
-  return { sheet: sheet.name, use, headerRow, site, columns, evidence };
+  // The crop named above the header (sheet name and title rows), if exactly one.
+  const above = sheet.rows
+    .slice(0, headerRow - 1)
+    .flatMap((r) => r.map((c) => (c && c.kind === 'text' ? c.text : '')))
+    .join(' ');
+  const cropHint = use === 'plots' ? (cropFromText(sheet.name) ?? cropFromText(above)) : null;
+  return { sheet: sheet.name, use, headerRow, site, columns, evidence, cropHint };
 }
 
 /**

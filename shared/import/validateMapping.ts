@@ -6,6 +6,7 @@
  */
 import type { ColumnMapping, HeaderUnit, MappedRole } from './columnMapping';
 import { ImportError } from './importError';
+import { isCropId } from '../units/crops';
 
 const roles: readonly MappedRole[] = [
   'site',
@@ -91,6 +92,9 @@ export function validateMapping(mapping: unknown, file: string): ColumnMapping {
       );
     }
     if (!Array.isArray(sh.columns)) throw bad(`has no columns for ${at}`, sh.sheet);
+    if (sh.cropHint !== undefined && sh.cropHint !== null && !isCropId(String(sh.cropHint))) {
+      throw bad(`gives ${at} the unknown crop "${String(sh.cropHint)}"`, sh.sheet);
+    }
     for (const c of sh.columns) {
       if (!c || !Number.isInteger(c.col) || c.col < 1 || c.col > 16384) {
         throw bad(`has a column of ${at} without a valid column number`, sh.sheet);

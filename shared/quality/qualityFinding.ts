@@ -17,6 +17,7 @@ export type FindingCode =
   | 'hidden-rows'
   | 'site-filled-down'
   | 'treatment-not-in-key'
+  | 'other-crop-sheet-skipped'
   | 'duplicate-plot'
   | 'missing-plot'
   | 'unequal-replication'
