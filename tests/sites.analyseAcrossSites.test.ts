@@ -155,7 +155,7 @@ describe('pooled plateau and exponential tests against R (tests/fixtures/sites/p
       const rows = r.filter((x) => x.model === model);
       const pooledR = rows.find((x) => x.part === '(pooled)')!;
       const separateR = rows
-        .filter((x) => x.part !== '(pooled)')
+        .filter((x) => !x.part.startsWith('('))
         .reduce((s, x) => s + Number(x.sse), 0);
       const t = a.sharedResponse.plateau[model];
       expect(t.partsUsed).toHaveLength(6);
@@ -170,6 +170,21 @@ describe('pooled plateau and exponential tests against R (tests/fixtures/sites/p
       );
       expect(Math.abs(t.result.p - Number(pooledR.p))).toBeLessThanOrEqual(
         1e-9 + 1e-5 * Number(pooledR.p),
+      );
+    });
+
+    it(`the ${model} test of one curve per previous crop against one for all matches R`, () => {
+      const testR = r.find((x) => x.model === model && x.part === '(previousCrop test)')!;
+      const g = a.groups[0].differ.plateau[model];
+      expect(g.partsUsed).toEqual(['soybean', 'corn']);
+      expect(Math.abs(g.separate!.sse - Number(testR.sse))).toBeLessThanOrEqual(
+        1e-7 * Number(testR.sse),
+      );
+      if (g.result.kind !== 'f-test') throw new Error('expected a test');
+      expect([g.result.df1, g.result.df2]).toEqual([Number(testR.df1), Number(testR.df2)]);
+      expect(Math.abs(g.result.f - Number(testR.F))).toBeLessThanOrEqual(1e-6 * Number(testR.F));
+      expect(Math.abs(g.result.p - Number(testR.p))).toBeLessThanOrEqual(
+        1e-9 + 1e-5 * Number(testR.p),
       );
     });
   }
