@@ -203,7 +203,7 @@ describe('workbook cells', () => {
     const q = checkQuality(table).find((x) => x.code === 'not-a-number')!;
     expect(q.refs[0].cell).toBe('D3');
     expect(findings.find((x) => x.code === 'hidden-rows')!.message).toBe(
-      'd.xlsx › Plots: row 4 is hidden in the sheet but were imported as plots; exclude them if they were hidden on purpose.',
+      'd.xlsx › Plots: row 4 is hidden in the sheet but was imported as a plot; exclude it if it was hidden on purpose.',
     );
   });
 });

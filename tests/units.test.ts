@@ -180,6 +180,7 @@ describe('formatQuantity', () => {
     expect(formatQuantity(17.25, '%')).toBe('17.3 %');
     expect(formatQuantity(-0.01, 'kg/ha')).toBe('0 kg/ha');
     expect(formatQuantity(null, 'kg/ha')).toBe('—');
+    expect(formatQuantity(179.34, 'lb N/ac')).toBe('179 lb N/ac');
     expect(formatQuantity(0.012345, 'mg')).toBe('0.012 mg');
   });
   it('shows canonical values in the chosen system', () => {

@@ -516,7 +516,7 @@ function readPlotsSheet(
     findings.push({
       code: 'hidden-rows',
       severity: 'warning',
-      message: `${where}: row${hiddenData.length > 1 ? 's' : ''} ${hiddenData.slice(0, 10).join(', ')}${hiddenData.length > 10 ? ', …' : ''} ${hiddenData.length > 1 ? 'are' : 'is'} hidden in the sheet but were imported as plots; exclude them if they were hidden on purpose.`,
+      message: `${where}: row${hiddenData.length > 1 ? 's' : ''} ${hiddenData.slice(0, 10).join(', ')}${hiddenData.length > 10 ? ', …' : ''} ${hiddenData.length > 1 ? 'are hidden in the sheet but were imported as plots; exclude them if they were' : 'is hidden in the sheet but was imported as a plot; exclude it if it was'} hidden on purpose.`,
       refs: hiddenData.map((r) => ({ file, sheet: sheet.name, cell: `A${r}`, row: r })),
     });
   }

@@ -7,6 +7,8 @@
 const decimalsByUnit: Record<string, number> = {
   'kg/ha': 0,
   'lb/ac': 0,
+  'kg N/ha': 0,
+  'lb N/ac': 0,
   'bu/ac': 1,
   't/ha': 2,
   'g/m2': 1,
