@@ -6,6 +6,7 @@
  */
 import { existsSync, readFileSync, realpathSync, renameSync, writeFileSync, rmSync } from 'node:fs';
 import path from 'node:path';
+import { describeRef } from '../shared/quality/qualityFinding';
 import { defaultPrices } from '../shared/report/defaultPrices';
 import { analyzeTrials } from '../shared/report/analyzeTrials';
 import { regionalReturnChart } from '../shared/report/regionalReturnChart';
@@ -204,6 +205,16 @@ export async function analyzeCommand(
     overrides: args.map,
     sheets: extra.sheets,
   });
+  // Data findings do not stop the run, but each names its file, sheet and cell so it can be fixed.
+  const serious = imported.findings.filter((f) => f.severity !== 'info');
+  for (const f of serious.slice(0, 10)) {
+    const where = f.refs.length ? describeRef(f.refs[0]) : '';
+    log.err(
+      `plotrate: ${f.severity}: ${where && !f.message.includes(f.refs[0].cell) ? `${where}: ` : ''}${f.message}`,
+    );
+  }
+  if (serious.length > 10)
+    log.err(`plotrate: … ${serious.length - 10} more findings; the workbook lists them by site.`);
   const units = args.units ? toReportUnits(args.units) : imported.inputUnits;
   const prices = pricesFrom(args, units);
   if (prices.defaulted) {

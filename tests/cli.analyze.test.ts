@@ -1,0 +1,231 @@
+// The real command line, run as a child process (node cli/plotrate.mjs) in a
+// temporary folder: exit codes, one-line reasons that name the file or cell,
+// inputs never written over, and the outputs read back by independent tools
+// (SheetJS for the workbook, poppler's pdfinfo for the PDF, JSON.parse).
+import { spawnSync } from 'node:child_process';
+import { createHash } from 'node:crypto';
+import { existsSync, mkdtempSync, readFileSync, readdirSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { beforeAll, describe, expect, it } from 'vitest';
+import * as XLSX from 'xlsx';
+import { syntheticCsv } from '../shared/demo';
+import { recommendationCautions } from '../shared/economics/recommendationCautions';
+
+const cli = path.join(__dirname, '..', 'cli', 'plotrate.mjs');
+const dir = mkdtempSync(path.join(tmpdir(), 'plotrate-cli-'));
+
+function run(args: string[]): { code: number | null; out: string; err: string } {
+  const r = spawnSync(process.execPath, [cli, ...args], {
+    cwd: dir,
+    encoding: 'utf8',
+    timeout: 120_000,
+  });
+  return { code: r.status, out: r.stdout, err: r.stderr };
+}
+
+const sha = (file: string): string => createHash('sha256').update(readFileSync(file)).digest('hex');
+
+beforeAll(() => {
+  // Invented trial from the seeded generator: 3 sites × 24 plots, lb N/ac and bu/ac.
+  writeFileSync(path.join(dir, 'trial.csv'), syntheticCsv({ sites: 3, seed: 5 }));
+  writeFileSync(
+    path.join(dir, 'badcell.csv'),
+    'Site,Block,N rate (lb N/ac),Yield (bu/ac)\nA,1,0,120\nA,1,100,170\nA,2,0,abc\nA,2,100,175\n',
+  );
+  writeFileSync(
+    path.join(dir, 'onerate.csv'),
+    'Site,Block,N rate (lb N/ac),Yield (bu/ac)\nA,1,100,120\nA,2,100,170\nA,3,100,160\n',
+  );
+});
+
+describe('plotrate --help', () => {
+  it('lists the commands and options and carries the cautions', () => {
+    const r = run(['--help']);
+    expect(r.code).toBe(0);
+    for (const o of [
+      'analyze',
+      'demo',
+      '--out',
+      '--pdf',
+      '--json',
+      '--crop',
+      '--grain-price',
+      '--nutrient-price',
+      '--product',
+      '--product-price',
+      '--units',
+      '--boot',
+      '--seed',
+      '--blocks',
+      '--map',
+    ]) {
+      expect(r.out).toContain(o);
+    }
+    const flat = r.out.replace(/\s+/g, ' ');
+    for (const c of recommendationCautions) expect(flat).toContain(c);
+  });
+});
+
+describe('plotrate analyze: bad input', () => {
+  it('exits 2 with one line for an unknown option', () => {
+    const r = run(['analyze', 'trial.csv', '--colour', 'red']);
+    expect(r.code).toBe(2);
+    expect(r.err.trim().split('\n')).toHaveLength(1);
+    expect(r.err).toMatch(/Unknown option --colour/);
+  });
+
+  it('exits 2 naming a file that does not exist', () => {
+    const r = run(['analyze', 'missing.csv']);
+    expect(r.code).toBe(2);
+    expect(r.err).toMatch(/Cannot read missing\.csv: no such file/);
+  });
+
+  it('refuses an --out that is the input and leaves the input as it was', () => {
+    const input = path.join(dir, 'trial.csv');
+    const before = sha(input);
+    const r = run(['analyze', 'trial.csv', '--json', './trial.csv']);
+    expect(r.code).toBe(2);
+    expect(r.err).toMatch(/--json \.\/trial\.csv is the input file "trial\.csv"/);
+    expect(sha(input)).toBe(before);
+  });
+
+  it('exits 2 naming the file and listing its headers when --map names a header it lacks', () => {
+    const r = run(['analyze', 'trial.csv', '--map', 'yield=Grain']);
+    expect(r.code).toBe(2);
+    expect(r.err).toMatch(
+      /--map yield=Grain: no plot sheet in "trial\.csv" has a column headed "Grain"/,
+    );
+    expect(r.err).toContain('"Yield (bu/ac)"');
+  });
+
+  it('names the cell of a yield that is not a number', () => {
+    const r = run([
+      'analyze',
+      'badcell.csv',
+      '--grain-price',
+      '4',
+      '--nutrient-price',
+      '0.5',
+      '--boot',
+      '0',
+    ]);
+    expect(r.err).toMatch(/badcell\.csv › D4 should hold the yield as a number but says "abc"/);
+  });
+
+  it('exits 1 when no site can be fitted', () => {
+    const r = run(['analyze', 'onerate.csv', '--grain-price', '4', '--nutrient-price', '0.5']);
+    expect(r.code).toBe(1);
+    expect(r.err).toMatch(/analysis failed: No site could be fitted: Only 1 distinct rate/);
+  });
+
+  it('exits 2 for conflicting price options', () => {
+    const r = run([
+      'analyze',
+      'trial.csv',
+      '--nutrient-price',
+      '1',
+      '--product',
+      'urea',
+      '--product-price',
+      '0.3',
+    ]);
+    expect(r.code).toBe(2);
+    expect(r.err).toMatch(/either --nutrient-price or --product/);
+  });
+});
+
+describe('plotrate analyze: a run with every output', () => {
+  let r: ReturnType<typeof run>;
+  beforeAll(() => {
+    r = run([
+      'analyze',
+      'trial.csv',
+      '--out',
+      'report.xlsx',
+      '--pdf',
+      'rec.pdf',
+      '--json',
+      'results.json',
+      '--units',
+      'metric',
+      '--grain-price',
+      '180',
+      '--nutrient-price',
+      '1.2',
+      '--boot',
+      '30',
+      '--seed',
+      '3',
+    ]);
+  });
+
+  it('exits 0, prints a summary and reports progress on stderr', () => {
+    expect(r.code, r.err).toBe(0);
+    expect(r.out).toMatch(/Site 0001: .*optimum \d+ kg\/ha N/);
+    expect(r.out).toMatch(/Across 3 sites:/);
+    expect(r.err).toMatch(/plotrate: 72 plots at 3 sites/);
+    expect(r.err).toMatch(/writing report\.xlsx/);
+  });
+
+  it('writes results JSON in the units asked for', () => {
+    const j = JSON.parse(readFileSync(path.join(dir, 'results.json'), 'utf8'));
+    expect(j.tool.name).toBe('Plotrate');
+    expect(j.settings.units).toEqual({ rate: 'kg/ha', yield: 't/ha' });
+    expect(j.settings.boot).toBe(30);
+    expect(j.settings.seed).toBe(3);
+    // 1.2 per kg N over 180 per t: 0.006667 t grain per kg N.
+    expect(j.settings.priceRatio).toBeCloseTo(1.2 / 180, 12);
+    expect(j.sites).toHaveLength(3);
+    expect(j.acrossSites.profitableRange[0]).toBeLessThanOrEqual(j.acrossSites.bestRate);
+  });
+
+  it('writes a workbook SheetJS can read, with one sheet per site', () => {
+    const wb = XLSX.read(readFileSync(path.join(dir, 'report.xlsx')));
+    expect(wb.SheetNames).toEqual([
+      'Overview',
+      'Site 0001',
+      'Site 0002',
+      'Site 0003',
+      'Across sites',
+      'Economics',
+      'Recommendations',
+      'Provenance',
+    ]);
+    const csv = XLSX.utils.sheet_to_csv(wb.Sheets['Provenance']);
+    expect(csv).toContain(sha(path.join(dir, 'trial.csv')));
+  });
+
+  it('writes an A4 PDF with one page per site and one for the region', () => {
+    const info = spawnSync('/usr/bin/pdfinfo', [path.join(dir, 'rec.pdf')], {
+      encoding: 'utf8',
+    }).stdout;
+    expect(info).toMatch(/Pages:\s+4\n/);
+    expect(info).toMatch(/Page size:\s+595\.2\d+ x 841\.8\d+ pts \(A4\)/);
+  });
+
+  it('leaves no partial files behind', () => {
+    expect(readdirSync(dir).filter((f) => f.endsWith('.part'))).toEqual([]);
+  });
+});
+
+describe('plotrate demo', () => {
+  it('writes the demo workbook and its reports', () => {
+    const r = run(['demo', '--dir', 'demo-out']);
+    expect(r.code, r.err).toBe(0);
+    for (const f of [
+      'wrenhollow-n-trials-2025.xlsx',
+      'demo-corn-report.xlsx',
+      'demo-corn-recommendation.pdf',
+      'demo-corn-results.json',
+      'demo-wheat-report.xlsx',
+    ]) {
+      expect(existsSync(path.join(dir, 'demo-out', f)), f).toBe(true);
+    }
+    const j = JSON.parse(
+      readFileSync(path.join(dir, 'demo-out', 'demo-corn-results.json'), 'utf8'),
+    );
+    expect(j.settings.units).toEqual({ rate: 'lb/ac', yield: 'bu/ac' });
+    expect(j.sites).toHaveLength(6);
+  });
+});
