@@ -11,7 +11,7 @@
  * A write that fails removes its temporary file and leaves the target alone.
  */
 import { randomBytes } from 'node:crypto';
-import { open, rename, unlink } from 'node:fs/promises';
+import { open, readdir, rename, stat, unlink } from 'node:fs/promises';
 import path from 'node:path';
 
 /** Bytes written per call, so a large project does not need one giant buffer copy. */
@@ -60,6 +60,46 @@ export async function writeFileAtomic(target: string, data: Uint8Array | string)
     throw e;
   }
   await syncFolder(path.dirname(target));
+  await removeStaleTemporaries(target);
+}
+
+/** Age after which another write's temporary file is taken as abandoned, ms. */
+export const STALE_TEMPORARY_MS = 10 * 60 * 1000;
+
+/**
+ * Remove temporary files an earlier, interrupted write of the same target
+ * left behind (a killed process cannot clean up after itself). Only names of
+ * this saver's own pattern for this target, and only when older than
+ * STALE_TEMPORARY_MS, so a write still running elsewhere is left alone.
+ *
+ * @returns the names removed
+ */
+export async function removeStaleTemporaries(
+  target: string,
+  now: number = Date.now(),
+): Promise<string[]> {
+  const dir = path.dirname(target);
+  const prefix = `.${path.basename(target)}.`;
+  const removed: string[] = [];
+  let names: string[];
+  try {
+    names = await readdir(dir);
+  } catch {
+    return removed;
+  }
+  for (const name of names) {
+    if (!name.startsWith(prefix) || !/^\d+-[0-9a-f]{8}\.tmp$/.test(name.slice(prefix.length)))
+      continue;
+    try {
+      const info = await stat(path.join(dir, name));
+      if (now - info.mtimeMs < STALE_TEMPORARY_MS) continue;
+      await unlink(path.join(dir, name));
+      removed.push(name);
+    } catch {
+      // Gone already, or not ours to remove: leave it.
+    }
+  }
+  return removed;
 }
 
 async function syncFolder(dir: string): Promise<void> {

@@ -1,10 +1,14 @@
 import { spawn } from 'node:child_process';
-import { mkdtemp, readdir, rm } from 'node:fs/promises';
+import { mkdtemp, readdir, rm, utimes, writeFile } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { writeFileAtomic } from '../electron/atomicWrite';
+import {
+  STALE_TEMPORARY_MS,
+  removeStaleTemporaries,
+  writeFileAtomic,
+} from '../electron/atomicWrite';
 import { readProjectFile, writeProjectFile } from '../electron/projectFiles';
 import { exampleProject } from './project.exampleProject';
 
@@ -102,5 +106,28 @@ describe('writeFileAtomic under a hard kill', () => {
     expect(await import('node:fs/promises').then((fs) => fs.readFile(existing, 'utf8'))).toBe(
       'second',
     );
+  });
+
+  it('clears what an interrupted write left behind once it is stale, and nothing else', async () => {
+    const target = path.join(dir, 'Marl Ridge.plotrate');
+    await writeFileAtomic(target, 'v1');
+    const old = path.join(dir, '.Marl Ridge.plotrate.4242-0a1b2c3d.tmp');
+    const fresh = path.join(dir, '.Marl Ridge.plotrate.4243-0a1b2c3e.tmp');
+    const otherTarget = path.join(dir, '.Other.plotrate.4242-0a1b2c3d.tmp');
+    const userFile = path.join(dir, '.Marl Ridge.plotrate.notes.tmp');
+    for (const f of [old, fresh, otherTarget, userFile]) await writeFile(f, 'partial');
+    const longAgo = (Date.now() - STALE_TEMPORARY_MS - 60_000) / 1000;
+    for (const f of [old, otherTarget, userFile]) await utimes(f, longAgo, longAgo);
+    await writeFileAtomic(target, 'v2');
+    const names = await readdir(dir);
+    expect(names).not.toContain(path.basename(old));
+    expect(names).toEqual(
+      expect.arrayContaining([
+        path.basename(fresh),
+        path.basename(otherTarget),
+        path.basename(userFile),
+      ]),
+    );
+    expect(await removeStaleTemporaries(target)).toEqual([]);
   });
 });
