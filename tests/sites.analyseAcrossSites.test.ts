@@ -240,3 +240,37 @@ describe('analyseAcrossSites result as plain data', () => {
     );
   });
 });
+
+describe('analyseAcrossSites with a site that never levels off', () => {
+  // An invented straight-line site (6000 + 18·x kg/ha with small symmetric deviations): the
+  // plateau models and the exponential reach no plateau, so their limit curve stands in
+  // (DESIGN.md: the straight line, or the quadratic for the quadratic-plateau).
+  const t = pooledPlotTable();
+  const rates = [0, 45, 90, 135, 180, 225];
+  const dev = [40, -25, -15, 0, 25, -40, 15, 0];
+  const line = rates.flatMap((r, i) =>
+    [0, 1, 2, 3].map((b) => ({
+      ...t.plots[0],
+      id: `line|${i}|${b}`,
+      site: 'Juniper Row',
+      block: `B${b + 1}`,
+      rateKgHa: r,
+      yieldKgHa: 6000 + 18 * r + dev[(i + b * 3) % 8] + (i % 2 ? 30 : -30) * (b % 2 ? 1 : -1),
+    })),
+  );
+  const table = { ...t, plots: [...t.plots, ...line] };
+  for (const [model, limit] of [
+    ['exponential', 'linear'],
+    ['linearPlateau', 'linear'],
+  ] as const) {
+    it(`keeps the site in the regional mean through the ${limit} when the ${model} has no plateau`, () => {
+      const a = analyseAcrossSites(table, { prices, regionalModel: model });
+      const fit = a.sites.find((s) => s.site === 'Juniper Row')!.fits!.fits[model];
+      expect(fit.status).toBe('no-plateau');
+      expect(a.regional.sitesLeftOut).toEqual([]);
+      const used = a.regional.sitesUsed.find((u) => u.site === 'Juniper Row')!;
+      expect(used.model).toBe(limit);
+      expect(used.note).toMatch(/reached no plateau, so its limit, the straight line, is used/);
+    });
+  }
+});

@@ -341,6 +341,21 @@ function responseShare(sites: readonly SiteAnalysis[]): ResponseShare {
   };
 }
 
+/** The model a curve reduces to when it reaches no plateau within the tested rates. */
+const LIMIT_MODEL: Partial<Record<ModelName, ModelName>> = {
+  linearPlateau: 'linear',
+  quadraticPlateau: 'quadratic',
+  exponential: 'linear',
+};
+
+/** True when the fit's parameters give a finite curve over its tested rates. */
+function gives(fit: FitData): boolean {
+  return (
+    Number.isFinite(curveValue(fit.model, fit.params, 0)) &&
+    Number.isFinite(curveValue(fit.model, fit.params, fit.testedRates.highestKgHa))
+  );
+}
+
 /** Each site's gain curve for the regional return, or why it has none. */
 function regionalCurves(
   sites: readonly SiteAnalysis[],
@@ -362,17 +377,25 @@ function regionalCurves(
       leftOut.push({ site: s.site, reason: `no model could be ranked by AICc. ${reasons}`.trim() });
       continue;
     }
-    const fit = s.fits.fits[model];
-    const at0 = curveValue(model, fit.params, 0);
-    const atTop = curveValue(model, fit.params, fit.testedRates.highestKgHa);
-    if (fit.status === 'too-few-rates' || !Number.isFinite(at0) || !Number.isFinite(atTop)) {
+    const notes: string[] = [];
+    let fit = s.fits.fits[model];
+    // A rise that never levels off within the tested rates is its limit curve
+    // (DESIGN.md: the straight line, or the quadratic for the quadratic-plateau);
+    // use that rather than drop a strongly responding site from the average.
+    const limit = LIMIT_MODEL[model];
+    if (fit.status === 'no-plateau' && !gives(fit) && limit && gives(s.fits.fits[limit])) {
+      notes.push(
+        `the ${MODEL_LABEL[model]} reached no plateau, so its limit, the ${MODEL_LABEL[limit]}, is used`,
+      );
+      fit = s.fits.fits[limit];
+    }
+    if (fit.status === 'too-few-rates' || !gives(fit)) {
       leftOut.push({
         site: s.site,
         reason: `the ${MODEL_LABEL[model]} gives no curve here: ${fit.message}`,
       });
       continue;
     }
-    const notes: string[] = [];
     if (fit.testedRates.lowestKgHa > 0) {
       notes.push(
         `no plot at rate 0: the check is the ${MODEL_LABEL[model]}'s value at 0, below the lowest tested rate`,
@@ -386,7 +409,7 @@ function regionalCurves(
       );
     }
     const note = notes.join('; ');
-    used.push({ site: s.site, model, fit, note });
+    used.push({ site: s.site, model: fit.model, fit, note });
   }
   return { used, leftOut };
 }
