@@ -185,6 +185,23 @@ describe('mapping checks and layouts', () => {
     );
   });
 
+  it('lists a column with values under a blank header and warns about a numeric column of text', async () => {
+    const raw = await readTrialFile({
+      name: 'b.csv',
+      bytes: new TextEncoder().encode(
+        'Plot,Rate (kg N/ha),Yield (kg/ha),\n1,0,lodged,x\n2,50,gone,y\n3,100,9000,z\n',
+      ),
+    });
+    const cols = detectColumns(raw).sheets[0].columns;
+    expect(cols[3]).toMatchObject({ col: 4, letter: 'D', header: '', role: 'ignore' });
+    expect(cols[3].evidence).toBe(
+      'column D has no header but holds values (0 of 3 values are numbers); give it a role by hand if it matters',
+    );
+    expect(cols[2].evidence).toMatch(
+      /1 of 3 values are numbers; most values are not numbers: check that this is the right column/,
+    );
+  });
+
   it('refuses an HTML table saved as .xls with a message saying what it is', async () => {
     const html = new TextEncoder().encode(
       '<html><body><table><tr><td>Plot</td></tr></table></body></html>',

@@ -170,11 +170,30 @@ function mapSheet(sheet: RawSheet, multipleSheets: boolean): SheetMapping {
   const usHints = header.some((c) => c && /\b(bu|lbs?|ac|acre)\b/.test(normaliseHeader(c.text)));
   const columns: ColumnAssignment[] = [];
   const taken = new Map<MappedRole, ColumnAssignment>();
-  header.forEach((cell, i) => {
-    if (!cell || cell.text.trim() === '') return;
+  // Columns with data under a blank header cell are listed too, so nothing is dropped unseen.
+  let width = header.length;
+  const end = Math.min(sheet.rows.length, headerRow + 500);
+  for (let r = headerRow + 1; r <= end; r++)
+    width = Math.max(width, sheet.rows[r - 1]?.length ?? 0);
+  const headerCells = Array.from({ length: width }, (_, i) => header[i] ?? null);
+  headerCells.forEach((cell, i) => {
     const col = i + 1;
     const letter = columnLetters(col);
-    const text = cell.text.trim();
+    const text = cell ? cell.text.trim() : '';
+    if (text === '') {
+      const v = columnValues(sheet, headerRow, col);
+      if (v.filled > 0) {
+        columns.push({
+          col,
+          letter,
+          header: '',
+          role: 'ignore',
+          unit: null,
+          evidence: `column ${letter} has no header but holds values (${valuesEvidence(v)}); give it a role by hand if it matters`,
+        });
+      }
+      return;
+    }
     const found = roleFromHeader(text);
     const values = columnValues(sheet, headerRow, col);
     const a: ColumnAssignment = {
@@ -238,7 +257,15 @@ function mapSheet(sheet: RawSheet, multipleSheets: boolean): SheetMapping {
           : `rates of ${a.basis === 'nutrient' ? 'nutrient (N)' : 'product'}`,
       );
     }
-    if (numericRoles.has(a.role)) why.push(valuesEvidence(values));
+    if (numericRoles.has(a.role)) {
+      why.push(valuesEvidence(values));
+      if (values.filled > 0 && values.numbers.length < values.filled / 2) {
+        why.push('most values are not numbers: check that this is the right column');
+      }
+      if (a.role === 'moisture' && values.numbers.length > 0 && Math.max(...values.numbers) <= 1) {
+        why.push('the values are at most 1, so they may be fractions rather than percentages');
+      }
+    }
     if (singleRoles.has(a.role)) {
       const first = taken.get(a.role);
       if (first) {
