@@ -17,6 +17,10 @@ describe('oneWayAnova with unequal replication against R 4.2.2', () => {
     expectDigits(result.F, ref.F[0], 12, 'F');
     expectDigits(result.p, ref.p[0], 10, 'p');
     expect(result.balanced).toBe(false);
+    expect(result.notes).toEqual([
+      'Unequal replication (3 to 5 plots per treatment): each mean has its own standard error and each pair its own LSD.',
+    ]);
+    expect(result.treatmentMeans).toBe(result.treatments);
   });
   it('matches the treatment means and the pairwise LSD for A (4 plots) against B (3)', () => {
     ref.means.forEach((m: number, i: number) =>

@@ -80,7 +80,12 @@ export interface LeastSquaresFit {
   fitted: Float64Array;
   residuals: Float64Array;
   leverage: Float64Array;
-  /** Internally studentized (standardized) residuals e / (σ √(1 − h)). */
+  /**
+   * Internally studentized (standardized) residuals e / (σ √(1 − h)). A point with
+   * leverage 1 (it alone fixes a parameter, e.g. the only plot at a rate) has no
+   * residual to judge: its entries here, in studentizedResiduals and in
+   * cooksDistance are NaN or ±Infinity, and a caller must skip them.
+   */
   standardizedResiduals: Float64Array;
   /** Externally studentized residuals, each with its own point left out of σ. */
   studentizedResiduals: Float64Array;
@@ -91,6 +96,10 @@ export interface LeastSquaresFit {
 
 /**
  * Fits y = Xb + e by least squares.
+ * @param input - the regressor columns (in their own units, e.g. rate in kg N/ha), the response
+ *   (e.g. yield in kg/ha), whether to add an intercept, and the confidence level of the intervals
+ * @returns coefficients with SEs, t, p and intervals; the ANOVA; R² (centered or uncentered, labelled);
+ *   information criteria; fitted values, residuals and influence measures
  * @throws {StatsInputError} "length-mismatch" when a column's length differs from y's;
  *   "non-finite" for NaN or ±Infinity; "too-few-points" when n ≤ parameters (no residual df);
  *   "rank-deficient" when a column is constant (with an intercept) or a combination of others.

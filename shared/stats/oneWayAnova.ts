@@ -35,6 +35,10 @@ export interface OneWayAnovaResult {
   n: number;
   /** Treatment means in order of first appearance. */
   treatments: TreatmentMean[];
+  /** The same list as `treatments`, under the name randomizedBlockAnova uses. */
+  treatmentMeans: TreatmentMean[];
+  /** Sentences for the screen about how the analysis was done (unequal replication). */
+  notes: string[];
   between: AnovaSource;
   within: AnovaSource;
   total: AnovaSource;
@@ -133,9 +137,16 @@ export function oneWayAnova(input: OneWayAnovaInput): OneWayAnovaResult {
     dfError: dfWithin,
     alpha,
   });
+  const balanced = counts.every((c) => c === counts[0]);
   return {
     n,
     treatments,
+    treatmentMeans: treatments,
+    notes: balanced
+      ? []
+      : [
+          `Unequal replication (${Math.min(...counts)} to ${Math.max(...counts)} plots per treatment): each mean has its own standard error and each pair its own LSD.`,
+        ],
     between: { df: dfBetween, ss: ssBetween, ms: msBetween },
     within: { df: dfWithin, ss: ssWithin, ms: msWithin },
     total: { df: n - 1, ss: ssTotal, ms: ssTotal / (n - 1) },
@@ -145,7 +156,7 @@ export function oneWayAnova(input: OneWayAnovaInput): OneWayAnovaResult {
     residualSd,
     grandMean,
     cvPercent: grandMean === 0 ? null : (100 * residualSd) / grandMean,
-    balanced: counts.every((c) => c === counts[0]),
+    balanced,
     lsd,
   };
 }

@@ -77,6 +77,11 @@ export function qrDecompose(matrix: Float64Array, rows: number, cols: number): Q
  * Applies Qᵀ to a vector in place (y ← Qᵀ y).
  * @param qr - a decomposition from qrDecompose
  * @param y - a vector of length qr.rows, overwritten
+ * @returns nothing; y holds Qᵀy, whose first cols entries give R b = Qᵀy and the rest the residual part
+ * @example
+ * const qr = qrDecompose(new Float64Array([1, 1, 1, 1, 2, 3]), 3, 2);
+ * const y = new Float64Array([2, 4, 6]);
+ * applyQTranspose(qr, y); // y[2] ≈ 0: the points lie on a line
  */
 export function applyQTranspose(qr: QrDecomposition, y: Float64Array): void {
   const { rows, cols, packed, beta } = qr;
@@ -92,6 +97,12 @@ export function applyQTranspose(qr: QrDecomposition, y: Float64Array): void {
 
 /**
  * Applies Q to a vector in place (y ← Q y), the reflections in reverse order.
+ * @param qr - a decomposition from qrDecompose
+ * @param y - a vector of length qr.rows, overwritten
+ * @returns nothing; y holds Qy
+ * @example
+ * const e = new Float64Array([1, 0, 0]);
+ * applyQ(qr, e); // e is now the first column of Q
  */
 export function applyQ(qr: QrDecomposition, y: Float64Array): void {
   const { rows, cols, packed, beta } = qr;
@@ -112,7 +123,11 @@ function rAt(qr: QrDecomposition, i: number, j: number): number {
 
 /**
  * Solves R b = c for the leading cols entries of c (back substitution).
+ * @param qr - a full-rank decomposition from qrDecompose
+ * @param c - Qᵀy (at least qr.cols entries)
  * @returns b, length qr.cols
+ * @example
+ * applyQTranspose(qr, y); const b = solveUpperTriangular(qr, y); // least-squares coefficients
  */
 export function solveUpperTriangular(qr: QrDecomposition, c: Float64Array): Float64Array {
   const p = qr.cols;
@@ -127,7 +142,10 @@ export function solveUpperTriangular(qr: QrDecomposition, c: Float64Array): Floa
 
 /**
  * (RᵀR)⁻¹ = R⁻¹R⁻ᵀ, the unscaled covariance (XᵀX)⁻¹, computed from R alone.
- * @returns a dense row-major cols × cols array of arrays
+ * @param qr - a full-rank decomposition from qrDecompose
+ * @returns a dense row-major cols × cols array of arrays; times σ² it is the coefficients' covariance
+ * @example
+ * unscaledCovariance(qrDecompose(new Float64Array([1, 1, 1, 1, 2, 3]), 3, 2))[1][1] // 0.5 = 1/Σ(x − x̄)²
  */
 export function unscaledCovariance(qr: QrDecomposition): number[][] {
   const p = qr.cols;
@@ -154,7 +172,10 @@ export function unscaledCovariance(qr: QrDecomposition): number[][] {
 
 /**
  * Diagonal of the hat matrix H = Q₁Q₁ᵀ (the leverages), from the rows of the thin Q.
- * @returns leverage h_i for every row, each in [0, 1]
+ * @param qr - a decomposition from qrDecompose
+ * @returns leverage h_i for every row, each in [0, 1], summing to the rank
+ * @example
+ * hatDiagonal(qrDecompose(new Float64Array([1, 1, 1, 1, 2, 3]), 3, 2)) // [5/6, 1/3, 5/6]
  */
 export function hatDiagonal(qr: QrDecomposition): Float64Array {
   const { rows, cols } = qr;
