@@ -49,3 +49,29 @@ export function entryFromUnknown(where: string, value: unknown): LogEntry {
     message: typeof value === 'string' ? value : (JSON.stringify(value) ?? String(value)),
   };
 }
+
+/**
+ * An uncaught error of the page, recognised in a console message. Chromium
+ * logs every uncaught exception and unhandled rejection of the page, its
+ * workers and any world as an error-level message starting "Uncaught", so
+ * this catches what window.onerror in the isolated preload cannot see.
+ *
+ * @param level the message's level as Electron reports it
+ * @param message the console text, e.g. "Uncaught TypeError: x is undefined"
+ * @param sourceId URL of the script
+ * @param line line number in that script
+ * @returns the log entry, or null for any other console message
+ * @example uncaughtFromConsole('error', 'Uncaught (in promise) Error: fit', 'app://plotrate/a.js', 3)?.where // 'page app://plotrate/a.js:3'
+ */
+export function uncaughtFromConsole(
+  level: string,
+  message: string,
+  sourceId: string,
+  line: number,
+): LogEntry | null {
+  if (level !== 'error' || !/^Uncaught\b/.test(message)) return null;
+  return {
+    where: `page ${sourceId}:${line}`,
+    message: message.replace(/^Uncaught (\(in promise\) )?/, ''),
+  };
+}

@@ -91,8 +91,8 @@ export interface ShellDeps {
   writeFile(target: string, data: Uint8Array | string): Promise<void>;
   /** Write a project file atomically, returning the savedAt written. */
   writeProject(target: string, project: PlotrateProject, now: Date): Promise<string>;
-  /** Log an error to the data folder's log; `fromPageGlobal` asks the shell to show it too. */
-  log(report: ErrorReport, fromPageGlobal: boolean): void;
+  /** Log an error the page reported to the data folder's log (the page shows its own message). */
+  log(report: ErrorReport): void;
   /** Default folder for the first save dialog (Documents). */
   documentsFolder: string;
   /** Told after each project open or save, e.g. to set the window title. */
@@ -294,9 +294,8 @@ export function createIpcHandlers(deps: ShellDeps, state: ShellState): Record<st
     }),
 
     [IPC.reportError]: guarded(IPC.reportError, async (...args): Promise<void> => {
-      if (args.length !== 1 && args.length !== 2) expectCount(IPC.reportError, args, 1);
-      const report = checkErrorReport(IPC.reportError, args[0]);
-      deps.log(report, args[1] === true);
+      expectCount(IPC.reportError, args, 1);
+      deps.log(checkErrorReport(IPC.reportError, args[0]));
     }),
 
     [IPC.filesDropped]: guarded(IPC.filesDropped, async (...args): Promise<FilesOpened> => {

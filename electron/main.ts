@@ -31,7 +31,7 @@ import {
 } from './autosave';
 import { CONTENT_SECURITY_POLICY } from './contentSecurityPolicy';
 import type { ErrorReport, FilesOpened, MenuCommand, RecoveredProject } from './desktopApi';
-import { appendErrorLog, entryFromUnknown, type LogEntry } from './errorLog';
+import { appendErrorLog, entryFromUnknown, uncaughtFromConsole, type LogEntry } from './errorLog';
 import { withExtension } from './fileKinds';
 import { IPC_EVENTS } from './ipcChannels';
 import { createIpcHandlers, openPaths, type ShellDeps, type ShellState } from './ipcHandlers';
@@ -199,6 +199,10 @@ function createWindow(): void {
     const paths = waitingPaths.splice(0);
     if (paths.length > 0) openFromOutside(paths);
   });
+  win.webContents.on('console-message', (event) => {
+    const entry = uncaughtFromConsole(event.level, event.message, event.sourceId, event.lineNumber);
+    if (entry) reportAndShow(entry);
+  });
   win.webContents.on('render-process-gone', (_event, details) => {
     reportAndShow({ where: 'renderer', message: `The window's page stopped (${details.reason}).` });
     if (details.reason !== 'clean-exit' && !win.isDestroyed()) win.webContents.reload();
@@ -324,15 +328,12 @@ function deps(): ShellDeps {
     },
     writeFile: writeFileAtomic,
     writeProject: writeProjectFile,
-    log: (report: ErrorReport, fromPageGlobal: boolean) => {
-      const entry = {
-        where: `page: ${report.where}`,
-        message: report.message,
-        stack: report.stack,
-      };
-      if (fromPageGlobal) reportAndShow(entry);
-      else void appendErrorLog(dataDir(), entry, new Date());
-    },
+    log: (report: ErrorReport) =>
+      void appendErrorLog(
+        dataDir(),
+        { where: `page: ${report.where}`, message: report.message, stack: report.stack },
+        new Date(),
+      ),
     documentsFolder: app.getPath('documents'),
     onProjectPathChanged: (projectPath) => {
       window?.setTitle(projectPath ? `${path.basename(projectPath)} — Plotrate` : 'Plotrate');

@@ -1,8 +1,10 @@
 /**
  * The preload: runs sandboxed in the window before the page and puts the
  * typed DesktopApi on window.plotrate through contextBridge — nothing else,
- * no ipcRenderer, no Node. It also catches the page's uncaught errors and
- * files dropped on the window, which the page may leave to the shell.
+ * no ipcRenderer, no Node. It also takes files dropped on the window, which
+ * the page may leave to the shell. (The page's uncaught errors reach the shell
+ * through its console, see uncaughtFromConsole: listeners here, in the
+ * isolated world, would not see them.)
  */
 import { contextBridge, ipcRenderer, webUtils } from 'electron';
 import type { PlotrateProject } from '../shared/project/projectFormat';
@@ -73,25 +75,6 @@ const api: DesktopApi = {
 };
 
 contextBridge.exposeInMainWorld('plotrate', api);
-
-// Uncaught errors of the page: logged and shown by the shell, so the window never just goes blank.
-window.addEventListener('error', (event) => {
-  const report: ErrorReport = {
-    message: event.message || String(event.error),
-    stack: event.error instanceof Error ? event.error.stack : undefined,
-    where: `window.onerror ${event.filename}:${event.lineno}`,
-  };
-  void ipcRenderer.invoke(IPC.reportError, report, true);
-});
-window.addEventListener('unhandledrejection', (event) => {
-  const reason: unknown = event.reason;
-  const report: ErrorReport = {
-    message: reason instanceof Error ? reason.message : String(reason),
-    stack: reason instanceof Error ? reason.stack : undefined,
-    where: 'unhandled promise rejection',
-  };
-  void ipcRenderer.invoke(IPC.reportError, report, true);
-});
 
 // Files dropped on the window: a drop the page handled itself (preventDefault)
 // is left alone; any other is read by the shell and delivered to onFilesOpened.

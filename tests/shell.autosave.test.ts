@@ -13,7 +13,7 @@ import {
   endSessionCleanly,
   writeAutosave,
 } from '../electron/autosave';
-import { appendErrorLog, entryFromUnknown } from '../electron/errorLog';
+import { appendErrorLog, entryFromUnknown, uncaughtFromConsole } from '../electron/errorLog';
 import { writeProjectFile } from '../electron/projectFiles';
 import { exampleProject } from './project.exampleProject';
 
@@ -190,5 +190,33 @@ describe('appendErrorLog', () => {
         new Date(),
       ),
     ).resolves.toMatch(/errors\.log$/);
+  });
+});
+
+describe('uncaughtFromConsole', () => {
+  it('recognises Chromium’s uncaught-error lines and nothing else', () => {
+    expect(
+      uncaughtFromConsole(
+        'error',
+        'Uncaught TypeError: x is undefined',
+        'app://plotrate/assets/index.js',
+        12,
+      ),
+    ).toEqual({
+      where: 'page app://plotrate/assets/index.js:12',
+      message: 'TypeError: x is undefined',
+    });
+    expect(
+      uncaughtFromConsole(
+        'error',
+        'Uncaught (in promise) Error: worker gone',
+        'app://plotrate/w.js',
+        1,
+      )?.message,
+    ).toBe('Error: worker gone');
+    expect(
+      uncaughtFromConsole('error', 'Failed to load resource', 'app://plotrate/x', 0),
+    ).toBeNull();
+    expect(uncaughtFromConsole('warning', 'Uncaught but only a warning', 'x', 0)).toBeNull();
   });
 });

@@ -31,7 +31,7 @@ let handlers: Record<string, IpcHandler>;
 let state: ShellState;
 let openAnswers: string[][];
 let saveAnswers: (string | null)[];
-let logged: { report: ErrorReport; shown: boolean }[];
+let logged: ErrorReport[];
 let noted: (PlotrateProject | null)[];
 let dialogCalls: number;
 
@@ -71,7 +71,7 @@ beforeEach(async () => {
     },
     writeFile: writeFileAtomic,
     writeProject: writeProjectFile,
-    log: (report, shown) => void logged.push({ report, shown }),
+    log: (report) => void logged.push(report),
     documentsFolder: dir,
     onProjectPathChanged: () => undefined,
   };
@@ -304,12 +304,8 @@ describe('saving and exporting', () => {
 });
 
 describe('error reports', () => {
-  it('are logged, and shown only when they come from the page’s global handler', async () => {
-    await call(IPC.reportError, { message: 'fit failed', where: 'fit screen' });
-    await call(IPC.reportError, { message: 'boom', where: 'window.onerror', stack: 'at x' }, true);
-    expect(logged).toEqual([
-      { report: { message: 'fit failed', where: 'fit screen' }, shown: false },
-      { report: { message: 'boom', where: 'window.onerror', stack: 'at x' }, shown: true },
-    ]);
+  it('are logged with what the page said and where', async () => {
+    await call(IPC.reportError, { message: 'fit failed', where: 'fit screen', stack: 'at fit' });
+    expect(logged).toEqual([{ message: 'fit failed', where: 'fit screen', stack: 'at fit' }]);
   });
 });
