@@ -141,6 +141,8 @@ export interface DesktopApi {
    * Tell the shell the project has unsaved changes (give the current state) or
    * that it is clean (null, after a save or when the work is discarded). While
    * unsaved, the shell writes an autosave copy every minute and asks before closing.
+   * The shell checks the whole project on each call, so call it once changes
+   * settle (debounced by a second or so), not on every keystroke.
    */
   noteUnsavedChanges(project: PlotrateProject | null): void;
   /** Unsaved work from a session that ended without a clean shutdown, or null. */
