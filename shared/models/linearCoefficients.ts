@@ -30,6 +30,17 @@ export function linearCoefficients(
   regressors: Float64Array[],
   intercept: boolean,
 ): LinearCoefficients {
+  const offsets = site.orthogonalBlockOffsets;
+  if (offsets) {
+    // Orthogonal blocks (or none): the weighted fit of the per-rate means gives the
+    // curve, and the effect-coded block coefficients are ȳ_block − ȳ.
+    const fast = groupLinearCoefficients(site, regressors, intercept);
+    return {
+      curve: fast.curve,
+      blocks: offsets.slice(0, Math.max(offsets.length - 1, 0)),
+      fullRank: Number.isFinite(fast.sse),
+    };
+  }
   const { n, groupOf } = site;
   const blocks = site.blocks === 'fixed' ? blockColumns(site) : [];
   const lead = intercept ? 1 : 0;

@@ -35,6 +35,13 @@ export interface PreparedSite {
   means: Float64Array;
   /** Σ (yGroup − group mean)² within rates. */
   ssWithin: number;
+  /**
+   * Block offsets ȳ_block − ȳ when they are orthogonal to every function of rate
+   * and to the intercept (equal block sizes with the same rates in each): then the
+   * curve is fitted on group sums alone and the offsets are known in advance.
+   * Empty without block terms; null when the full design is needed.
+   */
+  orthogonalBlockOffsets: Float64Array | null;
   /** Residual df taken by the block offsets (B − 1, or 0). */
   blockDf: number;
   testedRates: TestedRates;
@@ -92,6 +99,7 @@ export function prepareSite(data: SiteData, blocks: BlockTerms): PreparedSite {
   const blockOf = new Int32Array(n);
   let design: PreparedSite['design'] = 'groups';
   let yGroup = y;
+  let orthogonalBlockOffsets: Float64Array | null = new Float64Array(0);
   if (blocks === 'fixed') {
     const labels = data.block;
     if (!labels || labels.length !== n) {
@@ -146,8 +154,13 @@ export function prepareSite(data: SiteData, blocks: BlockTerms): PreparedSite {
       for (let i = 0; i < n; i++) {
         yGroup[i] = y[i] - blockSum[blockOf[i]] / blockSize[blockOf[i]] + grand;
       }
+      const equalSizes = blockSize.every((v) => v === blockSize[0]);
+      orthogonalBlockOffsets = equalSizes
+        ? blockSum.map((sum, b) => sum / blockSize[b] - grand)
+        : null;
     } else {
       design = 'full';
+      orthogonalBlockOffsets = null;
     }
   }
   const { means, ssWithin } = rateGroupMoments(yGroup, groupOf, counts);
@@ -165,6 +178,7 @@ export function prepareSite(data: SiteData, blocks: BlockTerms): PreparedSite {
     yGroup,
     means,
     ssWithin,
+    orthogonalBlockOffsets,
     blockDf: blocks === 'fixed' ? blockLabels.length - 1 : 0,
     testedRates: {
       lowestKgHa: m > 0 ? rates[0] : NaN,
