@@ -118,3 +118,25 @@ describe('randomizedBlockAnova with one plot missing against R 4.2.2 (blocks fit
     expectDigits(n120.rawMean, (6480 + 6620 + 6790) / 3, 14, 'raw mean N120');
   });
 });
+
+describe('randomizedBlockAnova with no error variation', () => {
+  it('calls a varying treatment infinitely significant and a flat one F = 0, p = 1', () => {
+    // Exactly additive yields: block + treatment, no error (hand-made, worked in the head).
+    const varying = randomizedBlockAnova({
+      treatment: [0, 60, 0, 60, 0, 60],
+      block: [1, 1, 2, 2, 3, 3],
+      y: [5, 7, 6, 8, 4, 6],
+    });
+    expect(varying.error.ss).toBeLessThan(1e-20);
+    expect(varying.F).toBe(Infinity);
+    expect(varying.p).toBe(0);
+    const flat = randomizedBlockAnova({
+      treatment: [0, 60, 0, 60, 0, 60],
+      block: [1, 1, 2, 2, 3, 3],
+      y: [5, 5, 6, 6, 4, 4],
+    });
+    expect(flat.F).toBe(0);
+    expect(flat.p).toBe(1);
+    expect(flat.blockF).toBe(Infinity);
+  });
+});

@@ -112,6 +112,12 @@ const cases: Array<[string, () => unknown, StatsErrorCode, string]> = [
     'constant-values',
     'oneWayAnova: y: all 4 values equal 5; there is no variation to analyse.',
   ],
+  [
+    'randomizedBlockAnova with every y equal',
+    () => randomizedBlockAnova({ treatment: [0, 60, 0, 60], block: [1, 1, 2, 2], y: [5, 5, 5, 5] }),
+    'constant-values',
+    'randomizedBlockAnova: y: all 4 values equal 5; there is no variation to analyse.',
+  ],
   // Non-finite values
   [
     'testIntercept with NaN in y',

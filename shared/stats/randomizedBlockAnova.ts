@@ -78,7 +78,7 @@ export interface RandomizedBlockResult {
  * @param input - treatment and block labels, responses, alpha
  * @returns the ANOVA table, treatment F-test, means with SEs, CV%, Fisher's LSD and missing-plot notes
  * @throws {StatsInputError} "length-mismatch"; "non-finite" in y; "bad-argument" for a missing label, alpha
- *   outside (0, 1) or a cell with more than one plot; "too-few-points" for fewer than 2 treatments or
+ *   outside (0, 1) or a cell with more than one plot; "constant-values" when every y is equal; "too-few-points" for fewer than 2 treatments or
  *   blocks or no error df; "rank-deficient" when missing plots disconnect treatments from blocks
  * @example
  * randomizedBlockAnova({ treatment: [0, 60, 0, 60, 0, 60], block: [1, 1, 2, 2, 3, 3], y: [5, 7, 5.4, 7.1, 4.9, 6.8] }).F // ≈ 448
@@ -119,6 +119,12 @@ export function randomizedBlockAnova(input: RandomizedBlockInput): RandomizedBlo
       `randomizedBlockAnova: ${n} plots for ${t} treatments in ${b} blocks leave no error degrees of freedom.`,
     );
   }
+  if (y.every((v) => v === y[0])) {
+    throw new StatsInputError(
+      'constant-values',
+      `randomizedBlockAnova: y: all ${n} values equal ${String(y[0])}; there is no variation to analyse.`,
+    );
+  }
   const shift = y[0];
   const complete = n === t * b;
   const core = complete
@@ -133,8 +139,12 @@ export function randomizedBlockAnova(input: RandomizedBlockInput): RandomizedBlo
     ms: core.ssTreatments / (t - 1),
   };
   const ssTotal = core.ssTotal;
-  const F = msError > 0 ? treatments.ms / msError : Infinity;
-  const blockF = msError > 0 ? blocks.ms / msError : Infinity;
+  // With no error variation a source that varies is infinitely significant; one
+  // that does not vary either gets F = 0 (p = 1), the only reading that does not
+  // claim a difference the data do not show.
+  const ratio = (ms: number) => (msError > 0 ? ms / msError : ms > 0 ? Infinity : 0);
+  const F = ratio(treatments.ms);
+  const blockF = ratio(blocks.ms);
   const grandMean = shift + core.grandShifted;
   const residualSd = Math.sqrt(msError);
   const rawSums = new Float64Array(t);
