@@ -119,7 +119,7 @@ export function randomizedBlockAnova(input: RandomizedBlockInput): RandomizedBlo
       `randomizedBlockAnova: ${n} plots for ${t} treatments in ${b} blocks leave no error degrees of freedom.`,
     );
   }
-  if (y.every((v) => v === y[0])) {
+  if (Array.prototype.every.call(y, (v: number) => v === y[0])) {
     throw new StatsInputError(
       'constant-values',
       `randomizedBlockAnova: y: all ${n} values equal ${String(y[0])}; there is no variation to analyse.`,
