@@ -9,7 +9,8 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 
 const root = path.join(path.dirname(fileURLToPath(import.meta.url)), '..');
-const out = path.join(root, 'dist-electron');
+// PLOTRATE_SHELL_OUT builds elsewhere (the packaging test uses a temporary folder).
+const out = process.env.PLOTRATE_SHELL_OUT ?? path.join(root, 'dist-electron');
 await mkdir(out, { recursive: true });
 
 const common = {
@@ -33,4 +34,6 @@ await build({
   outfile: path.join(out, 'preload.cjs'),
 });
 await copyFile(path.join(root, 'build/icon.png'), path.join(out, 'icon.png'));
-console.log('Shell built in dist-electron/ (main.cjs, preload.cjs, icon.png).');
+console.log(
+  `Shell built in ${path.relative(root, out) || out}/ (main.cjs, preload.cjs, icon.png).`,
+);

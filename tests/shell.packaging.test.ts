@@ -1,6 +1,7 @@
 // electron-builder.yml checked by electron-builder's own loader and schema
 // validator (app-builder-lib, installed with electron-builder), without
 // building packages: that needs the Electron runtime, absent here.
+import { spawnSync } from 'node:child_process';
 import { mkdtemp, readFile, readdir, rm, writeFile } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
@@ -98,5 +99,30 @@ describe('icons', () => {
         height: size,
       });
     }
+  });
+});
+
+describe('scripts/buildShell.mjs', () => {
+  it('bundles main and preload into single files that need only electron and Node’s own modules', async () => {
+    const out = path.join(scratch, 'shell');
+    const run = spawnSync(process.execPath, [path.join(root, 'scripts/buildShell.mjs')], {
+      env: { ...process.env, PLOTRATE_SHELL_OUT: out },
+      encoding: 'utf8',
+    });
+    expect(run.status, run.stderr).toBe(0);
+    expect((await readdir(out)).sort()).toEqual([
+      'icon.png',
+      'main.cjs',
+      'main.cjs.map',
+      'preload.cjs',
+      'preload.cjs.map',
+    ]);
+    const requires = (code: string) => [
+      ...new Set([...code.matchAll(/require\("([^"]+)"\)/g)].map((m) => m[1])),
+    ];
+    const main = requires(await readFile(path.join(out, 'main.cjs'), 'utf8'));
+    expect(main).toContain('electron');
+    for (const name of main) expect(name, name).toMatch(/^(electron|node:[a-z/_]+)$/);
+    expect(requires(await readFile(path.join(out, 'preload.cjs'), 'utf8'))).toEqual(['electron']);
   });
 });
