@@ -137,3 +137,38 @@ describe('groupResponseTest against R anova(lm(y ~ site + g(x)), lm(y ~ site + p
     });
   }
 });
+
+describe('unbalanced sites against R (pooled.R leaves out CSV data rows 1, 30 and 77)', () => {
+  // Here the three plots are excluded in the plot table, as the sheet or the user would.
+  const t = pooledPlotTable();
+  const cut = new Set([0, 29, 76]);
+  const unbalanced = sitePlots({
+    ...t,
+    plots: t.plots.map((p, i) =>
+      cut.has(i) ? { ...p, excluded: { reason: 'lodged', by: 'user' } } : p,
+    ),
+  });
+
+  it('testCommonResponse matches anova(m0, m1, m2) for the quadratic with block-within-site levels', () => {
+    const res = testCommonResponse(unbalanced, 'quadratic', { levels: 'blockWithinSite' });
+    const byQ = Object.fromEntries(res.tests.map((x) => [x.question, x]));
+    for (const q of ['common-vs-levels', 'levels-vs-site-curves', 'common-vs-site-curves']) {
+      expectSameTest(fTest(byQ[q]), rRow(q, 'quadratic', 'blockWithinSite-unbalanced'));
+    }
+    expect(res.siteCurves?.df).toBe(
+      rRow('common-vs-site-curves', 'quadratic', 'blockWithinSite-unbalanced').resDf,
+    );
+  });
+
+  for (const site of ['Alder Flats', 'Birch Hollow', 'Dunmore East']) {
+    it(`siteRateEffect matches R with a plot missing at ${site}`, () => {
+      const r = rRow('rate-effect-unbalanced', site, 'blocks');
+      const e = siteRateEffect(unbalanced.find((s) => s.site === site)!);
+      if (e.test.kind !== 'f-test') throw new Error('expected a test');
+      expect([e.test.df1, e.test.df2]).toEqual([5, r.resDf]);
+      expect(Math.abs(e.test.f - r.F)).toBeLessThanOrEqual(1e-9 * r.F);
+      expect(Math.abs(e.test.p - r.p)).toBeLessThanOrEqual(1e-9 + 1e-7 * r.p);
+      expect(Math.abs(e.cvPct - r.ss)).toBeLessThanOrEqual(1e-9 * r.ss);
+    });
+  }
+});
