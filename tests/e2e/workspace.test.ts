@@ -3,6 +3,7 @@ import { mkdtemp, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import ExcelJS from 'exceljs';
 import { syntheticWorkbook } from '../../shared/demo/syntheticTrial';
 import { openSession, shot, type Session } from './harness';
 
@@ -40,11 +41,19 @@ describe('the workspace in chromium', () => {
     const dir = await mkdtemp(path.join(tmpdir(), 'plotrate-e2e-file-'));
     const file = path.join(dir, 'Synthetic three sites.xlsx');
     await writeFile(file, await syntheticWorkbook({ sites: 3, seed: 11 }));
+    await page.getByRole('button', { name: /Columns/ }).click();
+    const counts = async () => {
+      const m = /(\d+) plots at (\d+) sites/.exec(
+        (await page.getByTestId('table-summary').textContent()) ?? '',
+      );
+      return m ? [Number(m[1]), Number(m[2])] : null;
+    };
+    const [plots, sites] = (await counts())!;
     await page.getByRole('button', { name: /Trial files/ }).click();
     await page.getByTestId('trial-file-input').setInputFiles(file);
     await page.getByTestId('sheet-Plots').waitFor({ timeout: 20_000 });
-    // Demo (8 sites) plus three synthetic sites.
-    await expect(page.getByTestId('table-summary').textContent()).resolves.toMatch(/at 11 sites/);
+    // The demo's sites plus three synthetic sites of 24 plots each.
+    await expect.poll(counts, { timeout: 10_000 }).toEqual([plots + 72, sites + 3]);
     await shot(page, '02-file-input-columns');
     expect(session.pageErrors).toEqual([]);
   });
@@ -84,6 +93,53 @@ describe('the workspace in chromium', () => {
       .poll(async () => leadingNumber(await cell.textContent()), { timeout: 10_000 })
       .toBeLessThan(before);
     await shot(page, '04-price-changed');
+    expect(session.pageErrors).toEqual([]);
+  });
+
+  it('shows every site together with the regional rate and the pooling tests', async () => {
+    const { page } = session;
+    await page.getByRole('button', { name: /All sites/ }).click();
+    await page.getByTestId('best-rate').waitFor();
+    await expect(page.getByTestId('best-rate').textContent()).resolves.toMatch(/\d+ kg\/ha/);
+    await page.getByText('Do the sites share a response?').waitFor();
+    await shot(page, '05-all-sites');
+    expect(session.pageErrors).toEqual([]);
+  });
+
+  it('previews the grower page and exports a workbook with the optimum shown on screen', async () => {
+    const { page } = session;
+    await page.getByRole('button', { name: /Prices/ }).click();
+    const onScreen = leadingNumber(await page.getByTestId('optimum-Quillmere North').textContent());
+    await page.getByRole('button', { name: /Report/ }).click();
+    await page.getByTestId('grower-page').waitFor({ timeout: 60_000 });
+    await expect(page.getByTestId('grower-recommendation').textContent()).resolves.toMatch(/\d/);
+    await shot(page, '06-grower-page');
+    const [download] = await Promise.all([
+      page.waitForEvent('download', { timeout: 60_000 }),
+      page.getByTestId('export-workbook').click(),
+    ]);
+    const dir = await mkdtemp(path.join(tmpdir(), 'plotrate-e2e-download-'));
+    const saved = path.join(dir, download.suggestedFilename());
+    await download.saveAs(saved);
+    expect(saved).toMatch(/\.xlsx$/);
+    const book = new ExcelJS.Workbook();
+    await book.xlsx.readFile(saved);
+    const overview = book.worksheets[0];
+    let header: string[] = [];
+    let optimum: number | null = null;
+    overview.eachRow((row) => {
+      const values = (row.values as unknown[]).slice(1).map((v) => String(v ?? ''));
+      if (values[0] === 'Site') header = values;
+      if (values[0] === 'Quillmere North') {
+        optimum = Number(
+          row.getCell(header.findIndex((h) => h.startsWith('Optimum rate')) + 1).value,
+        );
+      }
+    });
+    expect(header.some((h) => h.startsWith('Optimum rate (kg/ha'))).toBe(true);
+    expect(optimum).not.toBeNull();
+    // The screen shows whole kg/ha; the workbook keeps the full number.
+    expect(Math.abs(optimum! - onScreen)).toBeLessThanOrEqual(0.5);
     expect(session.pageErrors).toEqual([]);
   });
 });

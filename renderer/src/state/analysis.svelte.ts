@@ -83,6 +83,7 @@ export class Analysis {
       this.output = null;
       return;
     }
+    this.intervals = {};
     try {
       const output = await this.#jobs.run<AnalysisOutput>('Fitting sites', 'analyse', {
         table: $state.snapshot(table),
@@ -92,6 +93,42 @@ export class Analysis {
     } catch (error) {
       const detail = error instanceof JobFailedError ? error.message : String(error);
       this.#messages.add('error', 'The fits could not be completed', detail);
+    }
+  }
+
+  /**
+   * Bootstraps every site's optimum interval in the worker at the current
+   * prices and leading models (cancelling a run still going).
+   */
+  async refreshIntervals(): Promise<void> {
+    const output = this.output;
+    const priced = this.#prices.canonical;
+    if (!output || !priced.ok) return;
+    const leads = untrack(() => this.optima);
+    const sites = output.sites.flatMap((s, index) => {
+      const model = leads.find((o) => o.site === s.site)?.model;
+      return model
+        ? [
+            {
+              site: s.site,
+              index,
+              model,
+              rateKgHa: s.plots.rateKgHa,
+              yieldKgHa: s.plots.yieldKgHa,
+              block: s.plots.block,
+            },
+          ]
+        : [];
+    });
+    try {
+      const found = await this.#jobs.run<Record<string, [number, number]>>(
+        'Optimum intervals',
+        'intervals',
+        { sites, blocks: this.blocks, prices: { ...priced.prices } },
+      );
+      if (found && this.output === output) this.intervals = found;
+    } catch (error) {
+      this.#messages.add('warning', 'The optimum intervals could not be computed', String(error));
     }
   }
 

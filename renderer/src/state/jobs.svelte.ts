@@ -9,10 +9,11 @@ export interface JobProgress {
 }
 
 export class Jobs {
-  /** The job shown in the status bar, or null when idle. */
+  /** The most recent job still running, shown in the status bar; null when idle. */
   current = $state<JobProgress | null>(null);
   readonly #client: JobClient;
-  #running: RunningJob<unknown> | null = null;
+  /** One running job per lane: a newer request in a lane makes the older answer useless. */
+  readonly #lanes: Record<string, { job: RunningJob<unknown>; progress: JobProgress }> = {};
 
   /** @param port - the analysis Worker */
   constructor(port: Port) {
@@ -20,33 +21,47 @@ export class Jobs {
   }
 
   /**
-   * Runs a job, cancelling the one still running (a newer request makes the
-   * older answer useless, and one job at a time keeps the second core free).
+   * Runs a job, cancelling the one still running in the same lane.
+   * @param label - what the status bar says, e.g. "Fitting sites"
+   * @param kind - the worker's job name
+   * @param input - structured-cloneable input
+   * @param lane - jobs in one lane replace each other; the kind unless told
    * @returns the output, or null when the job was cancelled
    * @throws JobFailedError when the worker reports a failure
    */
-  async run<T>(label: string, kind: string, input: unknown): Promise<T | null> {
-    this.#running?.cancel();
-    this.current = { label, done: 0, total: 1, note: '' };
+  async run<T>(label: string, kind: string, input: unknown, lane = kind): Promise<T | null> {
+    this.#lanes[lane]?.job.cancel();
+    const progress: JobProgress = { label, done: 0, total: 1, note: '' };
     const job = this.#client.run<T>(kind, input, (done, total, note) => {
-      if (this.#running === job) this.current = { label, done, total, note };
+      const entry = this.#lanes[lane];
+      if (entry?.job !== job) return;
+      entry.progress = { label, done, total, note };
+      this.#show();
     });
-    this.#running = job as RunningJob<unknown>;
+    this.#lanes[lane] = { job: job as RunningJob<unknown>, progress };
+    this.#show();
     try {
       return await job.result;
     } catch (error) {
       if (error instanceof JobCancelledError) return null;
       throw error;
     } finally {
-      if (this.#running === job) {
-        this.#running = null;
-        this.current = null;
-      }
+      if (this.#lanes[lane]?.job === job) delete this.#lanes[lane];
+      this.#show();
     }
   }
 
-  /** Stops the running job (the status bar's Cancel). */
+  /** Stops every running job (the status bar's Cancel). */
   cancel(): void {
-    this.#running?.cancel();
+    for (const lane of Object.keys(this.#lanes)) {
+      this.#lanes[lane].job.cancel();
+      delete this.#lanes[lane];
+    }
+    this.#show();
+  }
+
+  #show(): void {
+    const running = Object.values(this.#lanes);
+    this.current = running.length > 0 ? running[running.length - 1].progress : null;
   }
 }

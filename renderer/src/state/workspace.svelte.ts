@@ -7,6 +7,7 @@ import { Analysis } from './analysis.svelte';
 import { Jobs } from './jobs.svelte';
 import { Messages } from './messages.svelte';
 import { Prices } from './prices.svelte';
+import { Report } from './report.svelte';
 import { Settings } from './settings.svelte';
 import { Sources } from './sources.svelte';
 import type { StepId } from './steps';
@@ -21,6 +22,7 @@ export class Workspace {
   readonly sources: Sources;
   readonly trial: Trial;
   readonly analysis: Analysis;
+  readonly report: Report;
   readonly bridge: FileBridge;
   /** Drawn chart elements by key, for Plotly.toImage at export (not reactive: only read on export). */
   readonly charts: Record<string, HTMLElement> = {};
@@ -31,6 +33,7 @@ export class Workspace {
     this.sources = new Sources(this.jobs, this.messages);
     this.trial = new Trial(this.sources);
     this.analysis = new Analysis(this.jobs, this.messages, this.prices);
+    this.report = new Report(this);
   }
 
   /** The crop of the current table (the import setting until a table exists). */

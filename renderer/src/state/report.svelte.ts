@@ -1,0 +1,128 @@
+// The report: assembled in the worker at the current prices, previewed as the
+// grower page, exported as the workbook, printed or saved as PDF.
+import Plotly from 'plotly.js-dist-min';
+import { growerPage, type GrowerPage } from '../../../shared/report/growerPage';
+import { regionalReturnChart } from '../../../shared/report/regionalReturnChart';
+import { siteResponseChart } from '../../../shared/report/siteResponseChart';
+import type { TrialReport } from '../../../shared/report/trialReport';
+import type { SheetImage } from '../../../shared/report/workbookSite';
+import type { ChartSpec } from '../../../shared/report/chartSpec';
+import { reportSettings } from '../analysis/reportInput';
+import { plotlyFromSpec } from '../lib/plotlyFromSpec';
+import { JobFailedError } from '../lib/workerProtocol';
+import type { Workspace } from './workspace.svelte';
+
+/** Version written into reports (the desktop shell's own when present). */
+const APP_VERSION =
+  typeof window !== 'undefined' ? (window.plotrate?.appVersion ?? '0.1.0') : '0.1.0';
+
+async function chartPng(spec: ChartSpec): Promise<SheetImage> {
+  const { data, layout } = plotlyFromSpec(spec);
+  const url = await Plotly.toImage(
+    { data, layout: { ...layout, width: spec.widthPx, height: spec.heightPx } },
+    { format: 'png', width: spec.widthPx, height: spec.heightPx, scale: 2 },
+  );
+  const bytes = Uint8Array.from(atob(url.split(',')[1]), (c) => c.charCodeAt(0));
+  return { png: bytes, widthPx: spec.widthPx, heightPx: spec.heightPx };
+}
+
+export class Report {
+  report = $state.raw<TrialReport | null>(null);
+  /** The page shown: a site name or "region". */
+  which = $state<string>('region');
+  busy = $state(false);
+  readonly #ws: Workspace;
+
+  constructor(ws: Workspace) {
+    this.#ws = ws;
+  }
+
+  /** Grower page of the chosen site or region, or null before the report exists. */
+  page: GrowerPage | null = $derived.by(() => {
+    const r = this.report;
+    if (!r) return null;
+    const which = this.which === 'region' && !r.acrossSites ? r.sites[0]?.site : this.which;
+    if (!which) return null;
+    try {
+      return growerPage(r, which);
+    } catch {
+      return null;
+    }
+  });
+
+  /** Assembles the report at the current prices (cancelling one in progress). */
+  async prepare(): Promise<void> {
+    const ws = this.#ws;
+    const table = ws.trial.table;
+    if (!table || !ws.prices.canonical.ok) return;
+    const settings = reportSettings(
+      $state.snapshot(ws.prices.settings),
+      ws.settings.units,
+      ws.settings.unitSystem,
+      table.crop,
+      ws.analysis.blocks,
+    );
+    const mapping = Object.entries(ws.trial.edits.mappings).flatMap(([file, m]) =>
+      m.sheets.flatMap((s) =>
+        s.columns
+          .filter((c) => c.role !== 'ignore' && s.use !== 'ignore')
+          .map((c) => ({
+            file,
+            sheet: s.sheet,
+            role: c.role,
+            header: c.header,
+            unit: c.unit ?? '',
+          })),
+      ),
+    );
+    try {
+      const report = await ws.jobs.run<TrialReport>('Preparing the report', 'report', {
+        table: $state.snapshot(table),
+        settings,
+        meta: {
+          tool: { name: 'Plotrate', version: APP_VERSION },
+          createdAt: new Date().toISOString(),
+          mapping,
+        },
+      });
+      if (report) this.report = report;
+    } catch (error) {
+      ws.messages.add(
+        'error',
+        'The report could not be prepared',
+        error instanceof JobFailedError ? error.message : String(error),
+      );
+    }
+  }
+
+  /** Draws the charts, writes the workbook in the worker and hands it to the shell or a download. */
+  async exportWorkbook(): Promise<string | null> {
+    const ws = this.#ws;
+    const report = this.report;
+    if (!report) return null;
+    this.busy = true;
+    try {
+      const siteCharts: Record<string, SheetImage> = {};
+      for (const site of report.sites)
+        siteCharts[site.site] = await chartPng(siteResponseChart(report, site));
+      const regional = regionalReturnChart(report);
+      const acrossChart = regional ? await chartPng(regional) : null;
+      const bytes = await ws.jobs.run<Uint8Array>('Writing the workbook', 'workbook', {
+        report,
+        options: { siteCharts, acrossChart },
+      });
+      if (!bytes) return null;
+      const stamp = report.createdAt.slice(0, 10);
+      return await ws.bridge.exportFile(`Plotrate report ${stamp}.xlsx`, bytes, 'xlsx');
+    } catch (error) {
+      ws.messages.add(
+        'error',
+        'The workbook could not be written',
+        error instanceof Error ? error.message : String(error),
+      );
+      return null;
+    } finally {
+      this.busy = false;
+    }
+  }
+}
