@@ -16,6 +16,11 @@ import type { Workspace } from './workspace.svelte';
 const APP_VERSION =
   typeof window !== 'undefined' ? (window.plotrate?.appVersion ?? '0.1.0') : '0.1.0';
 
+/** The time now, ISO 8601 (a plain timestamp, not reactive state). */
+function nowIso(): string {
+  return new Date(Date.now()).toISOString();
+}
+
 async function chartPng(spec: ChartSpec): Promise<SheetImage> {
   const { data, layout } = plotlyFromSpec(spec);
   const url = await Plotly.toImage(
@@ -81,7 +86,7 @@ export class Report {
         settings,
         meta: {
           tool: { name: 'Plotrate', version: APP_VERSION },
-          createdAt: new Date().toISOString(),
+          createdAt: nowIso(),
           mapping,
         },
       });
