@@ -274,3 +274,24 @@ describe('analyseAcrossSites with a site that never levels off', () => {
     });
   }
 });
+
+describe('analyseAcrossSites with nothing to fit', () => {
+  it('lists every site with its reason and gives no regional rate, cautions still attached', () => {
+    const t = pooledPlotTable();
+    const none = {
+      ...t,
+      plots: t.plots.map((p) => ({ ...p, excluded: { reason: 'flooded', by: 'user' as const } })),
+    };
+    const a = analyseAcrossSites(none, { prices });
+    expect(a.sites).toHaveLength(6);
+    expect(a.sites.every((s) => s.problem !== null && s.fits === null)).toBe(true);
+    expect(a.regional.sitesLeftOut).toHaveLength(6);
+    expect(a.regional.regional.bestRateKgHa).toBeNaN();
+    expect(a.regional.text.sentence).toBe(
+      'No regional rate: no site has a fitted response to average.',
+    );
+    expect(a.regional.text.cautions.length).toBeGreaterThanOrEqual(5);
+    expect(a.response).toMatchObject({ responded: 0, assessed: 0 });
+    expect(a.sharedResponse.quadratic.tests.every((x) => x.result.kind === 'no-test')).toBe(true);
+  });
+});
