@@ -231,3 +231,25 @@ describe('regionalRecommendation', () => {
     expect(text.cautions.join(' ')).toMatch(/nutrient-management plan/);
   });
 });
+
+describe('regionalRecommendation wording of the profitable range', () => {
+  const prepared = prepareRegionalReturn(
+    [{ site: 'A', gainKgHa: (x) => 30 * x - 0.1 * x * x }],
+    rateGrid(0, 200, 1),
+  );
+  const prices = { grainPricePerKg: 0.2, nutrientPricePerKg: 1 };
+  it('names the range when several rates are within the band', () => {
+    // Mean return 0.2·(30x − 0.1x²) − x = 5x − 0.02x²; at 125 it is 312.5; within 2 of it:
+    // 0.02(x − 125)² ≤ 2 → |x − 125| ≤ 10, so 115–135 kg/ha.
+    const r = regionalReturnAtPrices(prepared, prices, { bandPerHa: 2 });
+    expect(regionalRecommendation(r).sentence).toMatch(
+      /rates from 115 kg\/ha to 135 kg\/ha return within 2\.00 per ha of the best\.$/,
+    );
+  });
+  it('says so when only the best rate is within the band', () => {
+    const r = regionalReturnAtPrices(prepared, prices, { bandPerHa: 0 });
+    expect(regionalRecommendation(r).sentence).toMatch(
+      /no other rate returns within 0\.00 per ha of the best\.$/,
+    );
+  });
+});

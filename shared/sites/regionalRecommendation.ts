@@ -38,15 +38,13 @@ export function regionalRecommendation(
     };
   }
   const { lowKgHa, highKgHa, bandPerHa, contiguous } = regional.profitableRange;
-  const range =
-    lowKgHa === highKgHa
-      ? formatRate(lowKgHa)
-      : `${formatRate(lowKgHa)} to ${formatRate(highKgHa)}`;
   const pr = regional.priceRatio.toPrecision(3);
   const sentence =
     `Across ${n} site${n === 1 ? '' : 's'} the highest mean net return over the zero-rate check is at ` +
     `${formatRate(regional.bestRateKgHa)}, at a price ratio of ${pr} kg grain per kg N; ` +
-    `rates from ${range} return within ${bandPerHa.toPrecision(3)} per ha of the best` +
+    (lowKgHa === highKgHa
+      ? `no other rate returns within ${bandPerHa.toPrecision(3)} per ha of the best`
+      : `rates from ${formatRate(lowKgHa)} to ${formatRate(highKgHa)} return within ${bandPerHa.toPrecision(3)} per ha of the best`) +
     (contiguous ? '.' : ' (with gaps: the mean return curve has more than one peak).');
   return { sentence, cautions: recommendationCautions };
 }
