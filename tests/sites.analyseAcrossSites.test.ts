@@ -295,3 +295,32 @@ describe('analyseAcrossSites with nothing to fit', () => {
     expect(a.sharedResponse.quadratic.tests.every((x) => x.result.kind === 'no-test')).toBe(true);
   });
 });
+
+describe('analyseAcrossSites with a site the models refuse', () => {
+  it("keeps a site with a negative rate, with the models' reason, out of every pooled test", () => {
+    const t = pooledPlotTable();
+    const bad = t.plots
+      .filter((p) => p.site === 'Alder Flats')
+      .map((p, i) => ({
+        ...p,
+        id: `bad|${i}`,
+        site: 'Hazel Patch',
+        rateKgHa: i === 0 ? -10 : p.rateKgHa,
+      }));
+    const a = analyseAcrossSites({ ...t, plots: [...t.plots, ...bad] }, { prices });
+    const hazel = a.sites.find((s) => s.site === 'Hazel Patch')!;
+    expect(hazel.fits).toBeNull();
+    expect(hazel.problem).toMatch(/a rate cannot be negative/);
+    for (const x of [
+      a.sharedResponse.linear,
+      a.sharedResponse.quadratic,
+      a.sharedResponse.proportional,
+    ]) {
+      expect(x.sitesLeftOut).toEqual([{ site: 'Hazel Patch', reason: hazel.problem }]);
+    }
+    expect(a.regional.sitesLeftOut.map((s) => s.site)).toEqual(['Hazel Patch']);
+    expect(
+      a.rows.filter((r) => r.site === 'Hazel Patch').every((r) => r.status === 'not-fitted'),
+    ).toBe(true);
+  });
+});

@@ -642,8 +642,12 @@ export function analyseAcrossSites(
   rateGrid(o.gridFromKgHa, o.gridToKgHa ?? o.gridFromKgHa, o.gridStepKgHa);
   const sites = plots.map((p) => analyseSite(p, o.blocks, alpha));
   const analyses = new Map(sites.map((s) => [s.site, s]));
+  // A site the models refused (e.g. a negative rate) carries that reason into every pooled test.
+  const checked = plots.map((p, i) =>
+    sites[i].problem && !p.problem ? { ...p, problem: sites[i].problem } : p,
+  );
   const whole = {
-    sharedResponse: sharedResponse(plots, analyses, o),
+    sharedResponse: sharedResponse(checked, analyses, o),
     regional: regionalAnalysis(sites, o),
     response: responseShare(sites),
   };
@@ -653,6 +657,6 @@ export function analyseAcrossSites(
     groupKeysSkipped,
     rows: sites.flatMap((s) => siteModelRows(s, o.prices)),
     ...whole,
-    groups: o.groupKeys.map((k) => groupAnalysis(k, plots, analyses, o, whole)),
+    groups: o.groupKeys.map((k) => groupAnalysis(k, checked, analyses, o, whole)),
   };
 }
