@@ -17,6 +17,7 @@
  * Every result carries `recommendationCautions`: show them with any rate.
  */
 export * from './priceRatio';
+export * from './pricesFromMarket';
 export * from './economicOptimum';
 export * from './optimumAcrossModels';
 export * from './recommendationCautions';

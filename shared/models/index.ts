@@ -52,3 +52,7 @@ export { fitExponential } from './exponential';
 export { curveValue } from './curveValue';
 export { prepareSite } from './prepareSite';
 export type { PreparedSite } from './prepareSite';
+export { fitResponseOverCheck } from './responseOverCheck';
+export type { ResponseOverCheck } from './responseOverCheck';
+export { siteDataFromPlots } from './siteDataFromPlots';
+export { estimateCurve } from './estimateCurve';
