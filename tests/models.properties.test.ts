@@ -16,7 +16,10 @@ import {
 const RATES = [0, 40, 80, 120, 160, 200];
 const LB_AC_TO_KG_HA = (0.45359237 * 10000) / 4046.8564224; // 1.12085116…
 
-function exactSite(curve: (x: number) => number, blocks = 3): SiteData {
+function exactSite(
+  curve: (x: number) => number,
+  blocks = 3,
+): { rateKgHa: number[]; yieldKgHa: number[]; block: string[] } {
   const rateKgHa: number[] = [];
   const yieldKgHa: number[] = [];
   const block: string[] = [];
