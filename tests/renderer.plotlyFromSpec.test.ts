@@ -111,3 +111,28 @@ describe('plotlyFromSpec', () => {
     );
   });
 });
+
+describe('plotlyFromSpec options', () => {
+  it('colourCurves gives each alternative curve its own palette colour', () => {
+    const base = spec();
+    const curve = (name: string) => ({
+      kind: 'curve' as const,
+      name,
+      model: 'quadratic' as const,
+      role: 'alternative' as const,
+      x: [0, 1],
+      y: [1, 2],
+    });
+    base.panels[0].layers = [curve('Site A'), curve('Site B')];
+    const colours = (fig: ReturnType<typeof plotlyFromSpec>) =>
+      fig.data.filter((d) => d.mode === 'lines').map((d) => (d.line as { color: string }).color);
+    expect(colours(plotlyFromSpec(base, { colourCurves: true }))).toEqual([
+      chartPalette.groups[0],
+      chartPalette.groups[1],
+    ]);
+    expect(colours(plotlyFromSpec(base))).toEqual([
+      chartPalette.alternative,
+      chartPalette.alternative,
+    ]);
+  });
+});

@@ -8,7 +8,16 @@ import { Workspace } from './state/workspace.svelte';
 const worker = new Worker(new URL('./worker/analysis.worker.ts', import.meta.url), {
   type: 'module',
 });
+/** localStorage, or null where the browser refuses it (private modes, blocked storage). */
+function storage(): Storage | null {
+  try {
+    return window.localStorage;
+  } catch {
+    return null;
+  }
+}
+
 const workspace = new Workspace(chooseFileBridge(), worker);
 
 mount(App, { target: document.getElementById('app')!, props: { workspace } });
-void workspace.start();
+void workspace.start(storage());

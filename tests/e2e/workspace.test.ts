@@ -142,4 +142,38 @@ describe('the workspace in chromium', () => {
     expect(Math.abs(optimum! - onScreen)).toBeLessThanOrEqual(0.5);
     expect(session.pageErrors).toEqual([]);
   });
+
+  it('a file that is not a workbook gets a message naming it, and the other files stay open', async () => {
+    const { page } = session;
+    const dir = await mkdtemp(path.join(tmpdir(), 'plotrate-e2e-bad-'));
+    // Starts like a zip (as an .xlsx does) but is cut off: a damaged download.
+    const file = path.join(dir, 'North field 2025.xlsx');
+    await writeFile(file, Buffer.concat([Buffer.from('PK\x03\x04'), Buffer.alloc(200, 7)]));
+    const notes = path.join(dir, 'Field notes.csv');
+    await writeFile(notes, 'Walked the plots on Tuesday\nAll looked even\n');
+    await page.getByRole('button', { name: /Trial files/ }).click();
+    await page.getByTestId('trial-file-input').setInputFiles([file, notes]);
+    const alert = page.getByRole('alert').filter({ hasText: 'North field 2025.xlsx' }).first();
+    await alert.waitFor({ timeout: 20_000 });
+    await expect(alert.textContent()).resolves.toMatch(/could not|damaged|not .*workbook/i);
+    await page.getByText('No plot data found in Field notes.csv').waitFor();
+    await page.getByRole('button', { name: /Trial files/ }).click();
+    await expect(page.getByText('Synthetic three sites.xlsx').count()).resolves.toBeGreaterThan(0);
+    await shot(page, '07-bad-file');
+    expect(session.pageErrors).toEqual([]);
+  });
+
+  it('keeps the work across a reload', async () => {
+    const { page } = session;
+    await page.getByRole('button', { name: /Prices/ }).click();
+    await expect(page.getByTestId('product-price').inputValue()).resolves.toBe('1.2');
+    // Let the session be written (it is kept a moment after the last change).
+    await page.waitForTimeout(800);
+    await page.reload();
+    await page.getByTestId('product-price').waitFor({ timeout: 30_000 });
+    await expect(page.getByTestId('product-price').inputValue()).resolves.toBe('1.2');
+    await page.getByRole('button', { name: /Trial files/ }).click();
+    await expect(page.getByText('Synthetic three sites.xlsx').count()).resolves.toBeGreaterThan(0);
+    await shot(page, '08-after-reload');
+  });
 });

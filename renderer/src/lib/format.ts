@@ -215,6 +215,7 @@ export function rateDecimalsFor(unit: RateUnit): number {
  * formatFileSize(20602, 'en-US') // '20.1 kB'
  */
 export function formatFileSize(bytes: number, locale?: string): string {
+  if (bytes < 1000) return `${formatNumber(bytes, 0, locale)} bytes`;
   return bytes < 1_000_000
     ? `${formatNumber(bytes / 1000, 1, locale)} kB`
     : `${formatNumber(bytes / 1_000_000, 1, locale)} MB`;

@@ -20,6 +20,14 @@ export interface PlotlyFigure {
   layout: Record<string, unknown>;
 }
 
+export interface FigureOptions {
+  /**
+   * Colour alternative curves by their order (shared palette, with the model's
+   * dash), for charts where each curve is its own site rather than a rival fit.
+   */
+  colourCurves?: boolean;
+}
+
 /** Plotly's names for the shared palette's marker shapes. */
 const plotlySymbols: Record<(typeof chartPalette.symbols)[number], string> = {
   circle: 'circle',
@@ -80,11 +88,13 @@ function axisLayout(axis: ChartAxis, extra: Record<string, unknown>): Record<str
 /**
  * Builds the Plotly figure for a chart description.
  * @param spec - the engine's chart description, numbers already in display units
+ * @param options - drawing choices the description leaves open
  * @returns data traces and layout for Plotly.react
  * @example
  * plotlyFromSpec(spec).data.length // one trace per point or curve layer
  */
-export function plotlyFromSpec(spec: ChartSpec): PlotlyFigure {
+export function plotlyFromSpec(spec: ChartSpec, options: FigureOptions = {}): PlotlyFigure {
+  let curveIndex = 0;
   const data: Record<string, unknown>[] = [];
   const shapes: Record<string, unknown>[] = [];
   const annotations: Record<string, unknown>[] = [];
@@ -98,7 +108,8 @@ export function plotlyFromSpec(spec: ChartSpec): PlotlyFigure {
     paper_bgcolor: '#ffffff',
     plot_bgcolor: '#ffffff',
     margin: { l: 70, r: 20, t: spec.subtitle ? 70 : 50, b: 50 },
-    legend: { orientation: 'h', y: -0.12, yanchor: 'top' },
+    // To the right of the plot: below it, a long legend runs into the x-axis title.
+    legend: { orientation: 'v', x: 1.02, xanchor: 'left', y: 1, yanchor: 'top' },
     hovermode: 'closest',
   };
   const domains = panelDomains(spec.panels);
@@ -170,7 +181,9 @@ export function plotlyFromSpec(spec: ChartSpec): PlotlyFigure {
                 : layer.role === 'return'
                   ? { color: chartPalette.return, width: 2.5 }
                   : {
-                      color: chartPalette.alternative,
+                      color: options.colourCurves
+                        ? chartPalette.groups[curveIndex++ % chartPalette.groups.length]
+                        : chartPalette.alternative,
                       width: 1.5,
                       dash: layer.model ? MODEL_DASHES[layer.model] : 'dot',
                     },

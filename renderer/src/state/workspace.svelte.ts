@@ -10,11 +10,21 @@ import { Prices } from './prices.svelte';
 import { Report } from './report.svelte';
 import { Settings } from './settings.svelte';
 import { Sources } from './sources.svelte';
-import type { StepId } from './steps';
+import { isStepId, type StepId } from './steps';
+import { checkSession, type Session } from '../lib/session';
+import {
+  base64ToBytes,
+  bytesToBase64,
+  loadSession,
+  saveSession,
+  type KeyValueStore,
+} from '../lib/persistence';
 import { Trial } from './trial.svelte';
 
 export class Workspace {
   step = $state<StepId>('files');
+  /** False until start-up has restored or opened something (nothing is kept before that). */
+  ready = $state(false);
   readonly settings = new Settings();
   readonly messages = new Messages();
   readonly prices = new Prices();
@@ -41,9 +51,71 @@ export class Workspace {
     return this.trial.table?.crop ?? this.trial.edits.settings.crop;
   }
 
-  /** First start: opens the demo trial so a new user sees an analysis at once. */
-  async start(): Promise<void> {
-    if (this.sources.files.length === 0) await this.openDemo();
+  /**
+   * Start-up: restores the work this browser kept; the first time (or when the
+   * kept record cannot be read, which is said) opens the demo trial.
+   * @param store - localStorage, or null where there is none
+   */
+  async start(store: KeyValueStore | null): Promise<void> {
+    try {
+      await this.#startFrom(store);
+    } finally {
+      this.ready = true;
+    }
+  }
+
+  async #startFrom(store: KeyValueStore | null): Promise<void> {
+    const loaded = store ? loadSession(store, checkSession) : { kind: 'empty' as const };
+    if (loaded.kind === 'loaded') {
+      await this.restore(loaded.session);
+      if (this.sources.files.length > 0) return;
+    }
+    if (loaded.kind === 'unreadable') {
+      this.messages.add('warning', 'Your earlier work could not be restored', loaded.message);
+    }
+    await this.openDemo();
+  }
+
+  /** The session as it stands, for localStorage. */
+  session(): Session {
+    return {
+      version: 1,
+      files: this.sources.files.map((f) => ({ name: f.name, base64: bytesToBase64(f.bytes) })),
+      edits: this.trial.edits,
+      prices: this.prices.settings,
+      unitSystem: this.settings.unitSystem,
+      locale: this.settings.locale,
+      choices: this.analysis.choices,
+      blocks: this.analysis.blocks,
+      step: this.step,
+      selectedSite: this.analysis.selectedSite,
+    };
+  }
+
+  /** Brings a saved session back: files are read again, then the edits laid over them. */
+  async restore(session: Session): Promise<void> {
+    this.settings.unitSystem = session.unitSystem;
+    this.settings.locale = session.locale;
+    this.prices.settings = session.prices;
+    this.analysis.choices = session.choices;
+    this.analysis.blocks = session.blocks;
+    this.analysis.selectedSite = session.selectedSite;
+    this.trial.restore(session.edits);
+    const files = session.files.map((f) => ({ name: f.name, bytes: base64ToBytes(f.base64) }));
+    if (files.length > 0) await this.sources.add(files);
+    this.trial.detectNew();
+    if (isStepId(session.step)) this.step = session.step;
+  }
+
+  #storageWarned = false;
+
+  /** Writes the session to the store; a refusal (full quota) is said once. */
+  persist(store: KeyValueStore): void {
+    const problem = saveSession(store, this.session());
+    if (problem && !this.#storageWarned) {
+      this.#storageWarned = true;
+      this.messages.add('warning', 'This browser is not keeping your work', problem);
+    }
   }
 
   /** Opens trial files, detects their columns and shows the column review. */
@@ -51,6 +123,17 @@ export class Workspace {
     const before = this.sources.workbooks.length;
     await this.sources.add(files);
     this.trial.detectNew();
+    for (const file of files) {
+      const mapping = this.trial.edits.mappings[file.name];
+      if (mapping && !mapping.sheets.some((s) => s.use === 'plots')) {
+        this.messages.add(
+          'warning',
+          `No plot data found in ${file.name}`,
+          `No sheet of “${file.name}” has a header row with a yield column near its top, so it adds no plots. ` +
+            'If it does hold plots, set the sheet’s use to “plots” in the Columns step and give the yield column its role.',
+        );
+      }
+    }
     if (this.sources.workbooks.length > before) this.step = 'columns';
   }
 
