@@ -20,7 +20,7 @@ import { reportGrowerPages, writeWorkbook } from '../shared/report/workbook';
 import type { SheetImage } from '../shared/report/workbookSite';
 import { displayUnits } from '../shared/units/displayUnits';
 import { formatQuantity } from '../shared/units/formatQuantity';
-import { chartPng } from './chartPng';
+import { chartPngs } from './chartPng';
 import { growerPdf } from './growerPdf';
 import type { AnalyzeArgs } from './parseArgs';
 import { UsageError } from './usageError';
@@ -134,22 +134,30 @@ function pricesFrom(args: AnalyzeArgs, units: ReportUnits): PriceInput {
 }
 
 /** The report's charts as PNG, by site, and the regional one. */
-function drawCharts(
+async function drawCharts(
   report: TrialReport,
   log: Console2,
-): { sites: Record<string, SheetImage>; region: SheetImage | null } {
-  const sites: Record<string, SheetImage> = {};
-  report.sites.forEach((s, i) => {
-    const spec = siteResponseChart(report, s);
-    sites[s.site] = { png: chartPng(spec), widthPx: spec.widthPx, heightPx: spec.heightPx };
-    if (report.sites.length >= 50 && (i + 1) % Math.ceil(report.sites.length / 10) === 0) {
-      log.err(`plotrate: drawing charts ${i + 1}/${report.sites.length}`);
+): Promise<{ sites: Record<string, SheetImage>; region: SheetImage | null }> {
+  const specs = report.sites.map((s) => siteResponseChart(report, s));
+  const rs = regionalReturnChart(report);
+  if (rs) specs.push(rs);
+  // Print sharpness (2×) for a report someone reads page by page; 1× past 100 sites keeps a big run small.
+  const scale = report.sites.length > 100 ? 1 : 2;
+  const every = Math.ceil(specs.length / 10);
+  let next = every;
+  const pngs = await chartPngs(specs, scale, (done) => {
+    if (specs.length >= 50 && done >= next) {
+      log.err(`plotrate: drew ${done}/${specs.length} charts`);
+      next += every;
     }
   });
-  const rs = regionalReturnChart(report);
+  const sites: Record<string, SheetImage> = {};
+  report.sites.forEach((s, i) => {
+    sites[s.site] = { png: pngs[i], widthPx: specs[i].widthPx, heightPx: specs[i].heightPx };
+  });
   return {
     sites,
-    region: rs ? { png: chartPng(rs), widthPx: rs.widthPx, heightPx: rs.heightPx } : null,
+    region: rs ? { png: pngs[pngs.length - 1], widthPx: rs.widthPx, heightPx: rs.heightPx } : null,
   };
 }
 
@@ -252,7 +260,7 @@ export async function analyzeCommand(
       `No site could be fitted: ${report.sites[0]?.warnings[0] ?? 'no plots with both a rate and a yield'}`,
     );
   }
-  const charts = args.out || args.pdf ? drawCharts(report, log) : null;
+  const charts = args.out || args.pdf ? await drawCharts(report, log) : null;
   if (args.out && charts) {
     log.err(`plotrate: writing ${args.out}`);
     writeAtomically(

@@ -5,6 +5,7 @@
  * which package to install instead of a chart with blank labels.
  */
 import { existsSync } from 'node:fs';
+import { Worker } from 'node:worker_threads';
 import { Resvg } from '@resvg/resvg-js';
 import { renderChartSvg } from '../shared/report/svgChart';
 import type { ChartSpec } from '../shared/report/chartSpec';
@@ -32,7 +33,10 @@ let cachedFonts: string[] | null = null;
  */
 export function chartFontFiles(): string[] {
   if (cachedFonts) return cachedFonts;
-  const found = fontCandidates.filter((f) => existsSync(f));
+  const present = fontCandidates.filter((f) => existsSync(f));
+  // One family (regular and bold) is enough: every font file loaded is parsed again for each chart.
+  const family = present.length ? familyOf(present[0]) : '';
+  const found = present.filter((f) => familyOf(f) === family);
   if (found.length === 0) {
     throw new Error(
       'No font for chart labels was found (looked for DejaVu Sans, Liberation Sans, Arial). ' +
@@ -69,4 +73,54 @@ export function chartPng(spec: ChartSpec, scale = 2): Uint8Array {
     background: '#ffffff',
   });
   return new Uint8Array(resvg.render().asPng());
+}
+
+/** Charts drawn per worker thread before it is ended and its memory returned. */
+const BATCH = 24;
+
+/**
+ * Draws many charts as PNG in worker threads, a batch at a time. resvg keeps
+ * its pixel buffers outside the JavaScript heap, where the collector does not
+ * see them (measured here: about 8 MB kept per 1600 px chart, gigabytes for a
+ * thousand sites); ending the thread after each batch gives that memory back.
+ * @param specs - the charts (display units)
+ * @param scale - pixel density, as for {@link chartPng}
+ * @param onBatch - called with the number drawn so far, for progress
+ * @returns PNG bytes in the order of `specs`
+ * @throws {Error} when no font can be found
+ */
+export async function chartPngs(
+  specs: readonly ChartSpec[],
+  scale = 2,
+  onBatch?: (done: number) => void,
+): Promise<Uint8Array[]> {
+  const fontFiles = chartFontFiles();
+  const family = familyOf(fontFiles[0]);
+  const worker = new URL('./chartWorker.mjs', import.meta.url);
+  const out: Uint8Array[] = [];
+  for (let i = 0; i < specs.length; i += BATCH) {
+    const batch = specs.slice(i, i + BATCH);
+    const pngs = await new Promise<Uint8Array[]>((resolve, reject) => {
+      const w = new Worker(worker, {
+        workerData: {
+          svgs: batch.map((s) => renderChartSvg(s)),
+          widthsPx: batch.map((s) => Math.round(s.widthPx * scale)),
+          fontFiles,
+          family,
+        },
+      });
+      w.once('message', (m: Uint8Array[]) => {
+        resolve(m);
+        void w.terminate();
+      });
+      w.once('error', reject);
+      w.once('exit', (code) => {
+        if (code !== 0 && code !== 1)
+          reject(new Error(`The chart worker stopped with code ${code}.`));
+      });
+    });
+    out.push(...pngs);
+    onBatch?.(out.length);
+  }
+  return out;
 }

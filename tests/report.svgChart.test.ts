@@ -3,7 +3,7 @@
 // at, and that the labels were drawn with a real font.
 import { Resvg } from '@resvg/resvg-js';
 import { describe, expect, it } from 'vitest';
-import { chartFontFiles, chartPng } from '../cli/chartPng';
+import { chartFontFiles, chartPng, chartPngs } from '../cli/chartPng';
 import { chartPalette, type ChartSpec } from '../shared/report/chartSpec';
 import { niceTicks } from '../shared/report/niceTicks';
 import { renderChartSvg } from '../shared/report/svgChart';
@@ -135,5 +135,16 @@ describe('chartPng', () => {
     const view = new DataView(png.buffer, png.byteOffset);
     expect(view.getUint32(16)).toBe(1200);
     expect(view.getUint32(20)).toBe(800);
+  });
+});
+
+describe('chartPngs', () => {
+  it('draws many charts in worker batches, in order, each the same as one drawn alone', async () => {
+    const specs = Array.from({ length: 30 }, (_, i) => spec(`Chart ${i}`, [i * 5, 5]));
+    const pngs = await chartPngs(specs, 1);
+    expect(pngs).toHaveLength(30);
+    // The same renderer with the same fonts gives the same bytes (checked for a chart past the first batch).
+    expect(Buffer.from(pngs[27]).equals(Buffer.from(chartPng(specs[27], 1)))).toBe(true);
+    expect(Buffer.from(pngs[0]).equals(Buffer.from(pngs[1]))).toBe(false);
   });
 });
