@@ -150,9 +150,15 @@ export function bootstrapOptimum(
       `withinAmountPerHa must be zero or positive; got ${margin}.`,
     );
   }
-  const fitOptions: FitOptions = { exponentialIntercept: options.exponentialIntercept };
   const site = prepareSite(data, options.blocks ?? 'none');
-  const original = estimateCurve(site, model, fitOptions);
+  // The point estimate with the full fits' precision; resamples need less.
+  const original = estimateCurve(site, model, {
+    exponentialIntercept: options.exponentialIntercept,
+  });
+  const fitOptions: FitOptions = {
+    exponentialIntercept: options.exponentialIntercept,
+    searchTolerance: 1e-7,
+  };
   const pointEstimate = economicOptimum(original, prices);
 
   const highest = site.testedRates.highestKgHa;

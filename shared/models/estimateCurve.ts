@@ -19,7 +19,7 @@ import { tooFewRatesMessage, unfittedEstimate } from './finishFit';
  * Estimates one model on a prepared site.
  * @param site - from prepareSite
  * @param model - which model
- * @param options - only exponentialIntercept is read
+ * @param options - exponentialIntercept and searchTolerance are read
  * @returns status, params by name, SSE, tested rates
  * @throws {StatsInputError} "bad-argument" for exponentialIntercept 'zero' with block terms
  * @example
@@ -32,11 +32,15 @@ export function estimateCurve(
 ): CurveEstimate {
   switch (model) {
     case 'linearPlateau':
-      return estimateLinearPlateau(site);
+      return estimateLinearPlateau(site, options.searchTolerance);
     case 'quadraticPlateau':
-      return estimateQuadraticPlateau(site);
+      return estimateQuadraticPlateau(site, options.searchTolerance);
     case 'exponential':
-      return estimateExponential(site, options.exponentialIntercept ?? 'free');
+      return estimateExponential(
+        site,
+        options.exponentialIntercept ?? 'free',
+        options.searchTolerance,
+      );
     case 'linear': {
       const why = tooFewRatesMessage(site, linearSpec, 2);
       if (why) return unfittedEstimate(site, linearSpec, why);

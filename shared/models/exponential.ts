@@ -68,6 +68,7 @@ const TIE = 1e-10;
  * The exponential's estimate and status from the profiled search alone.
  * @param site - from prepareSite
  * @param interceptMode - 'free' (estimate a) or 'zero' (a = 0)
+ * @param tolerance - Brent's tolerance on ln k, default 1e-10 (the bootstrap uses 1e-7)
  * @returns status, message, params {a, b, k} (a = 0 for 'zero'; k at the searched limit for
  *   "no-plateau" or "full-response-at-lowest-rate") and SSE
  * @throws {StatsInputError} "bad-argument" for 'zero' with block terms
@@ -77,6 +78,7 @@ const TIE = 1e-10;
 export function estimateExponential(
   site: PreparedSite,
   interceptMode: 'free' | 'zero' = 'free',
+  tolerance = 1e-10,
 ): CurveEstimate {
   const intercept = interceptMode === 'free';
   if (!intercept && site.blocks === 'fixed') {
@@ -117,7 +119,7 @@ export function estimateExponential(
         sseAt,
         uLow + Math.max(centre - 1, 0) * step,
         uLow + Math.min(centre + 1, GRID - 1) * step,
-        { relativeTolerance: 1e-10, absoluteTolerance: 1e-10 },
+        { relativeTolerance: tolerance, absoluteTolerance: tolerance },
       );
       if (r.fx < bestSse) {
         bestSse = r.fx;

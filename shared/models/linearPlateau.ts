@@ -50,12 +50,13 @@ const TIE = 1e-10;
 /**
  * The linear-plateau's estimate and status from the profiled search alone.
  * @param site - from prepareSite
+ * @param tolerance - Brent's relative tolerance on x0, default 1e-10 (the bootstrap uses 1e-7)
  * @returns status, message, params {a, b, x0} (x0 = highest rate for "no-plateau" and
  *   "no-response", the second-lowest rate for "full-response-at-lowest-rate") and SSE
  * @example
  * estimateLinearPlateau(prepareSite({ rateKgHa: [0, 40, 80, 120, 160], yieldKgHa: [6000, 7000, 8000, 8500, 8500] }, 'none')).params.x0 // ≈ 100
  */
-export function estimateLinearPlateau(site: PreparedSite): CurveEstimate {
+export function estimateLinearPlateau(site: PreparedSite, tolerance = 1e-10): CurveEstimate {
   const why = tooFewRatesMessage(site, linearPlateauSpec, 3);
   if (why) return unfittedEstimate(site, linearPlateauSpec, why);
   const rates = site.rates;
@@ -67,7 +68,7 @@ export function estimateLinearPlateau(site: PreparedSite): CurveEstimate {
     return solver.sse(g);
   };
   const bounds = site.design === 'full' ? undefined : relaxedJoinBounds(site, 1);
-  const best = searchJoinPoint(rates, sseAt, 1e-10, bounds);
+  const best = searchJoinPoint(rates, sseAt, tolerance, bounds);
   const rMax = rates[m - 1];
   const sseLine = sseAt(rMax);
 

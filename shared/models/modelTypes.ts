@@ -64,6 +64,11 @@ export interface FitOptions {
   exponentialIntercept?: 'free' | 'zero';
   /** Points on the fitted-curve grid from the lowest to the highest rate, default 61. */
   curvePoints?: number;
+  /**
+   * Relative tolerance of Brent's search on x0 or ln k in estimateCurve, default 1e-10.
+   * The bootstrap uses 1e-7: ample for percentiles, and fewer evaluations.
+   */
+  searchTolerance?: number;
 }
 
 /** An estimate with its asymptotic standard error and confidence interval. */
@@ -89,7 +94,7 @@ export interface TestedRates {
   lowestKgHa: number;
   highestKgHa: number;
   /** Every distinct rate, ascending. */
-  distinctKgHa: number[];
+  distinctKgHa: readonly number[];
 }
 
 /**

@@ -52,12 +52,13 @@ const TIE = 1e-10;
 /**
  * The quadratic-plateau's estimate and status from the profiled search alone.
  * @param site - from prepareSite
+ * @param tolerance - Brent's relative tolerance on x0, default 1e-10 (the bootstrap uses 1e-7)
  * @returns status, message, params {P, c, x0} (x0 = highest rate for "no-plateau" and
  *   "no-response", the second-lowest rate for "full-response-at-lowest-rate") and SSE
  * @example
  * estimateQuadraticPlateau(prepareSite({ rateKgHa: [0, 50, 100, 150, 200], yieldKgHa: [6300, 7800, 8700, 9000, 9000] }, 'none')).params.x0 // ≈ 150
  */
-export function estimateQuadraticPlateau(site: PreparedSite): CurveEstimate {
+export function estimateQuadraticPlateau(site: PreparedSite, tolerance = 1e-10): CurveEstimate {
   const why = tooFewRatesMessage(site, quadraticPlateauSpec, 3);
   if (why) return unfittedEstimate(site, quadraticPlateauSpec, why);
   const rates = site.rates;
@@ -72,7 +73,7 @@ export function estimateQuadraticPlateau(site: PreparedSite): CurveEstimate {
     return solver.sse(g);
   };
   const bounds = site.design === 'full' ? undefined : relaxedJoinBounds(site, 2);
-  const best = searchJoinPoint(rates, sseAt, 1e-10, bounds);
+  const best = searchJoinPoint(rates, sseAt, tolerance, bounds);
   const rMax = rates[m - 1];
 
   // The limit x0 ≥ r_max: the quadratic with its vertex past the data, or the
