@@ -6,6 +6,7 @@
  * regional rate and the pooling tests. Pure: no I/O, the caller passes the
  * tool version, the time and the mapping it used.
  */
+import { bootstrapOptimum } from '../economics/bootstrapOptimum';
 import { economicOptimum, type EconomicOptimum } from '../economics/economicOptimum';
 import type { Prices } from '../economics/priceRatio';
 import { fitAllModels, type AllModelsFit } from '../models/fitAllModels';
@@ -23,7 +24,6 @@ import { oneWayAnova } from '../stats/oneWayAnova';
 import { randomizedBlockAnova } from '../stats/randomizedBlockAnova';
 import { describeRef, type QualityFinding } from '../quality/qualityFinding';
 import { analysablePlots, siteNames, type PlotTable } from '../table/plotTable';
-import { bootstrapSiteOptimum } from './bootstrapSiteOptimum';
 import { priceTerms, type ReportSettings } from './reportSettings';
 import type {
   AcrossSitesReport,
@@ -320,29 +320,28 @@ export function analyzeTrials(
     let bootstrap: SiteReport['bootstrap'] = null;
     if (bestFit && settings.boot > 0) {
       // One seed per site, derived from the run's seed, so a site's interval does not depend on the sites before it.
-      const b = bootstrapSiteOptimum(
+      const b = bootstrapOptimum(
+        { rateKgHa: rates, yieldKgHa: yields, block: blocks },
+        bestFit.model,
+        prices,
         {
-          rateKgHa: rates,
-          yieldKgHa: yields,
-          block: blocks,
-          model: bestFit.model,
+          resamples: settings.boot,
+          seed: (settings.seed + index * 7919) >>> 0,
+          confidence: settings.intervalLevel,
           blocks: blocksMode,
-          prices,
         },
-        settings.boot,
-        (settings.seed + index * 7919) >>> 0,
-        settings.intervalLevel,
       );
+      const usable = b.rateSamplesKgHa.filter((v) => Number.isFinite(v)).length;
       bootstrap = {
-        count: b.count,
-        usable: b.usable,
+        count: b.resamples,
+        usable,
         seed: b.seed,
-        level: b.level,
+        level: b.confidence,
         ciKgHa: b.ciKgHa,
       };
       if (!b.ciKgHa)
         warnings.push(
-          `Only ${b.usable} of ${b.count} bootstrap resamples gave an optimum: no interval is reported.`,
+          `Only ${usable} of ${b.resamples} bootstrap resamples gave an optimum: no interval is reported.`,
         );
     }
     const order = all ? all.ranking.map((r) => r.model) : [];
