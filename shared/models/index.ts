@@ -29,11 +29,23 @@
  * come straight from a ModelFit; optimumRate, optimumCI and yieldAtOptimum from
  * shared/economics (economicOptimum, bootstrapOptimum).
  *
- * Other entries: `fitLinear`, `fitProportional`, `fitQuadratic`, `fitLinearPlateau`,
- * `fitQuadraticPlateau`, `fitExponential` (each `(data, options) → ModelFit`),
- * `fitResponseOverCheck` (gain over the check plot, intercept test),
- * `curveValue(model, params, rateKgHa)`, `siteDataFromPlots(plots)`,
- * `prepareSite` + `fitAllModelsPrepared` to prepare once and refit.
+ * Other entries:
+ * - `fitLinear`, `fitProportional`, `fitQuadratic`, `fitLinearPlateau`, `fitQuadraticPlateau`,
+ *   `fitExponential`: each `(data: SiteData, options?: FitOptions) → ModelFit`
+ * - `fitResponseOverCheck(data, { alpha? }) → ResponseOverCheck`: gains over the same
+ *   block's zero-rate plot, the line through the origin fitted to them, and the intercept
+ *   test (t-test of the straight line's intercept, F = t²) in `gainAtZeroPresent`
+ * - `estimateCurve(site: PreparedSite, model, options?) → CurveEstimate`: status, params and
+ *   SSE only (no errors/residuals/curve), ~5× cheaper; what the bootstrap refits
+ * - `curveValue(model, params, rateKgHa) → kg/ha`: a curve from stored parameters
+ * - `siteDataFromPlots(tableOrPlots, site?) → SiteData & { plotIds }`
+ * - `prepareSite(data, blocks) → PreparedSite` + `fitAllModelsPrepared(site, options)`:
+ *   prepare once and refit; `rankByAicc(fits)`
+ *
+ * Blocks: 'fixed' adds effect-coded block offsets (they sum to zero, so `params` and
+ * `predict` are the block-average curve). Balanced blocks are handled on group sums;
+ * unbalanced ones with the full design. Exponential with `exponentialIntercept: 'zero'`
+ * fits y = b(1 − e^(−k x)) (NIST StRD Misra1a); `params.a` is then 0.
  *
  * Method: the one nonlinear parameter (x0, or ln k) is profiled exactly with the
  * inner linear fit by QR least squares; each interval between distinct rates is
