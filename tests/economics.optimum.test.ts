@@ -6,6 +6,7 @@ import { describe, expect, it } from 'vitest';
 import {
   economicOptimum,
   netReturn,
+  optimumAcrossModels,
   priceRatio,
   pricesFromMarket,
   recommendationCautions,
@@ -216,5 +217,44 @@ describe('pricesFromMarket', () => {
         nutrient: { per: 'tonne', price: 500, analysisPct: 0 },
       }),
     ).toThrow(/nutrient.analysisPct/);
+  });
+});
+
+describe('optimumAcrossModels', () => {
+  const fit = (model: ModelName, params: Record<string, number>) => summary(model, params);
+  const fits = {
+    // Optima at PR = 6: 110 (join), 125 (x0 + PR/2c) and 170 ((PR − b)/2c), derived above.
+    linearPlateau: fit('linearPlateau', { a: 6000, b: 30, x0: 110 }),
+    quadraticPlateau: fit('quadraticPlateau', { P: 9400, c: -0.12, x0: 150 }),
+    quadratic: fit('quadratic', { a: 5000, b: 40, c: -0.1 }),
+    linear: fit('linear', { a: 6000, b: 14 }),
+  } as unknown as Parameters<typeof optimumAcrossModels>[0];
+  const rank = (model: ModelName, r: number | null, delta: number) => ({
+    model,
+    rank: r,
+    aicc: 100 + delta,
+    deltaAicc: delta,
+    weight: 0,
+    reason: '',
+  });
+  const ranking = [
+    rank('linearPlateau', 1, 0),
+    rank('quadraticPlateau', 2, 1.5),
+    rank('quadratic', 3, 6),
+    rank('linear', 4, 30),
+  ];
+  it('warns when the candidate curves’ optima spread more than the tolerance (110 to 170 kg/ha)', () => {
+    const c = optimumAcrossModels(fits, ranking, prices);
+    expect(c.candidates).toEqual(['linearPlateau', 'quadraticPlateau', 'quadratic']);
+    expect(c.lowestRateKgHa).toBeCloseTo(110, 9);
+    expect(c.highestRateKgHa).toBeCloseTo(170, 9);
+    expect(c.warning).toMatch(/110 to 170 kg\/ha/);
+    // The straight line's corner is priced but never a candidate.
+    expect(c.optima.map((o) => o.model)).toContain('linear');
+  });
+  it('says nothing when the candidates within ΔAICc 2 agree within 20 kg/ha (110 and 125)', () => {
+    const c = optimumAcrossModels(fits, ranking, prices, { maxDeltaAicc: 2 });
+    expect(c.candidates).toEqual(['linearPlateau', 'quadraticPlateau']);
+    expect(c.warning).toBeNull();
   });
 });

@@ -38,6 +38,9 @@ export const exponentialSpec: CurveSpec = {
   formula: 'a + b·(1 − e^(−k·x))',
   paramNames: ['a', 'b', 'k'],
   value: (x, p) => p[0] + p[1] * -Math.expm1(-p[2] * x),
+  values: (xs, p, out) => {
+    for (let i = 0; i < xs.length; i++) out[i] = p[0] + p[1] * -Math.expm1(-p[2] * xs[i]);
+  },
   gradient: (x, p, out) => {
     const e = Math.exp(-p[2] * x);
     out[0] = 1;
@@ -54,6 +57,9 @@ export const exponentialThroughOriginSpec: CurveSpec = {
   formula: 'b·(1 − e^(−k·x))',
   paramNames: ['b', 'k'],
   value: (x, p) => p[0] * -Math.expm1(-p[1] * x),
+  values: (xs, p, out) => {
+    for (let i = 0; i < xs.length; i++) out[i] = p[0] * -Math.expm1(-p[1] * xs[i]);
+  },
   gradient: (x, p, out) => {
     out[0] = -Math.expm1(-p[1] * x);
     out[1] = p[0] * x * Math.exp(-p[1] * x);

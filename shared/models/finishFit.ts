@@ -32,6 +32,11 @@ export interface CurveSpec {
   paramNames: string[];
   /** Curve value at rate x (kg/ha) for parameters p. */
   value: (x: number, p: Float64Array) => number;
+  /**
+   * The same at many rates at once (one call per curve rather than per point: the
+   * call from finishFit sees all six models, so per-point calls cannot be inlined).
+   */
+  values: (xs: ArrayLike<number>, p: Float64Array, out: Float64Array) => void;
   /** ∂curve/∂p_k at x, written into out (length paramNames.length). */
   gradient: (x: number, p: Float64Array, out: Float64Array) => void;
   /** R² about the mean, or about zero for a curve through the origin. */
@@ -99,7 +104,7 @@ export function finishFit(input: FinishInput): ModelFit {
   // Curve values once per distinct rate, then per plot with its block offset.
   const m = site.rates.length;
   const atRate = new Float64Array(m);
-  for (let j = 0; j < m; j++) atRate[j] = spec.value(site.rates[j], params);
+  spec.values(site.rates, params, atRate);
   const fitted = new Float64Array(n);
   const residuals = new Float64Array(n);
   let sse = 0;
@@ -208,11 +213,8 @@ export function finishFit(input: FinishInput): ModelFit {
   const curveRate = new Float64Array(points);
   const curveYield = new Float64Array(points);
   const frozen = Float64Array.from(params);
-  for (let i = 0; i < points; i++) {
-    const r = lo + ((hi - lo) * i) / (points - 1);
-    curveRate[i] = r;
-    curveYield[i] = spec.value(r, frozen);
-  }
+  for (let i = 0; i < points; i++) curveRate[i] = lo + ((hi - lo) * i) / (points - 1);
+  spec.values(curveRate, frozen, curveYield);
   const blockOffsets: Record<string, number> = {};
   if (nbCoef > 0) site.blockLabels.forEach((label, b) => (blockOffsets[label] = offsets[b]));
 

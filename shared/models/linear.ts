@@ -14,6 +14,9 @@ export const linearSpec: CurveSpec = {
   formula: 'a + b·x',
   paramNames: ['a', 'b'],
   value: (x, p) => p[0] + p[1] * x,
+  values: (xs, p, out) => {
+    for (let i = 0; i < xs.length; i++) out[i] = p[0] + p[1] * xs[i];
+  },
   gradient: (x, _p, out) => {
     out[0] = 1;
     out[1] = x;

@@ -36,6 +36,9 @@ export const linearPlateauSpec: CurveSpec = {
   formula: 'a + b·min(x, x0)',
   paramNames: ['a', 'b', 'x0'],
   value: (x, p) => p[0] + p[1] * Math.min(x, p[2]),
+  values: (xs, p, out) => {
+    for (let i = 0; i < xs.length; i++) out[i] = p[0] + p[1] * Math.min(xs[i], p[2]);
+  },
   gradient: (x, p, out) => {
     out[0] = 1;
     out[1] = Math.min(x, p[2]);

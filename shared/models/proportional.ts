@@ -16,6 +16,9 @@ export const proportionalSpec: CurveSpec = {
   formula: 'b·x',
   paramNames: ['b'],
   value: (x, p) => p[0] * x,
+  values: (xs, p, out) => {
+    for (let i = 0; i < xs.length; i++) out[i] = p[0] * xs[i];
+  },
   gradient: (x, _p, out) => {
     out[0] = x;
   },

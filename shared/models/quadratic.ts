@@ -15,6 +15,9 @@ export const quadraticSpec: CurveSpec = {
   formula: 'a + b·x + c·x²',
   paramNames: ['a', 'b', 'c'],
   value: (x, p) => p[0] + x * (p[1] + p[2] * x),
+  values: (xs, p, out) => {
+    for (let i = 0; i < xs.length; i++) out[i] = p[0] + xs[i] * (p[1] + p[2] * xs[i]);
+  },
   gradient: (x, _p, out) => {
     out[0] = 1;
     out[1] = x;

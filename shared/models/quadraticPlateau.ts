@@ -38,6 +38,12 @@ export const quadraticPlateauSpec: CurveSpec = {
     const d = x < p[2] ? x - p[2] : 0;
     return p[0] + p[1] * d * d;
   },
+  values: (xs, p, out) => {
+    for (let i = 0; i < xs.length; i++) {
+      const d = xs[i] < p[2] ? xs[i] - p[2] : 0;
+      out[i] = p[0] + p[1] * d * d;
+    }
+  },
   gradient: (x, p, out) => {
     const d = x < p[2] ? x - p[2] : 0;
     out[0] = 1;
