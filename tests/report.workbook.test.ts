@@ -87,7 +87,7 @@ describe('writeWorkbook read back by SheetJS', () => {
     const ws = XLSX.read(usBytes, { cellNF: true }).Sheets['Overview'];
     const h = findRow(ws, 'Site');
     const headers = [...Array(11).keys()].map((c) => String(cell(ws, h, c)?.v));
-    expect(headers).toContain('Optimum rate (lb/ac N)');
+    expect(headers).toContain('Optimum rate (lb N/ac)');
     expect(headers).toContain('Yield at optimum (bu/ac)');
     const pCol = headers.indexOf('Intercept p');
     const p = cell(ws, h + 1, pCol)!;
@@ -155,7 +155,7 @@ describe('writeWorkbook read back by SheetJS', () => {
     const b = XLSX.read(metricBytes).Sheets['Overview'];
     const ha = findRow(a, 'Site');
     const hb = findRow(b, 'Site');
-    expect(cell(b, hb, 3)?.v).toBe('Optimum rate (kg/ha N)');
+    expect(cell(b, hb, 3)?.v).toBe('Optimum rate (kg N/ha)');
     for (let i = 1; i <= us.sites.length; i++) {
       const lb = cell(a, ha + i, 3)?.v as number | undefined;
       const kg = cell(b, hb + i, 3)?.v as number | undefined;

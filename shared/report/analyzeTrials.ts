@@ -6,7 +6,6 @@
  * regional rate and the pooling tests. Pure: no I/O, the caller passes the
  * tool version, the time and the mapping it used.
  */
-import { bootstrapOptimum } from '../economics/bootstrapOptimum';
 import { economicOptimum, type EconomicOptimum } from '../economics/economicOptimum';
 import type { Prices } from '../economics/priceRatio';
 import { fitAllModels, type AllModelsFit } from '../models/fitAllModels';
@@ -24,6 +23,7 @@ import { oneWayAnova } from '../stats/oneWayAnova';
 import { randomizedBlockAnova } from '../stats/randomizedBlockAnova';
 import { describeRef, type QualityFinding } from '../quality/qualityFinding';
 import { analysablePlots, siteNames, type PlotTable } from '../table/plotTable';
+import { bootstrapSiteOptimum } from './bootstrapSiteOptimum';
 import { priceTerms, type ReportSettings } from './reportSettings';
 import type {
   AcrossSitesReport,
@@ -99,17 +99,17 @@ function chooseModel(
       model: curve.model,
       reason:
         first && first.model === curve.model
-          ? `lowest AICc of the models fitted (Akaike weight ${curve.weight.toFixed(2)}).`
-          : `lowest AICc among the curves with an economic optimum (ΔAICc ${curve.deltaAicc.toFixed(1)} from the best).`,
+          ? `lowest AICc of the models fitted, Akaike weight ${curve.weight.toFixed(2)}`
+          : `lowest AICc among the curves with an economic optimum, ΔAICc ${curve.deltaAicc.toFixed(1)} from the best`,
     };
   }
   if (usable.length) {
     return {
       model: usable[0].model,
-      reason: 'no curve gave an optimum; a straight line gives only a corner rate.',
+      reason: 'no curve gave an optimum; a straight line gives only a corner rate',
     };
   }
-  return { model: null, reason: 'no model gave an economic optimum.' };
+  return { model: null, reason: 'no model gave an economic optimum' };
 }
 
 function anovaSummary(
@@ -146,7 +146,11 @@ function anovaSummary(
           ],
           cvPercent: a.cvPercent,
           lsdKgHa: a.lsd.lsd,
-          notes: a.notes,
+          notes: [],
+          missingPlots: a.missingPlots.map((m) => ({
+            rateKgHa: Number(m.treatment),
+            block: m.block,
+          })),
         },
         means: a.treatmentMeans
           .map((m) => toRow(m.level, m.n, m.mean, m.se))
@@ -172,6 +176,7 @@ function anovaSummary(
         cvPercent: a.cvPercent,
         lsdKgHa: a.lsd.lsd,
         notes: [],
+        missingPlots: [],
       },
       means: a.treatments
         .map((m) => toRow(m.level, m.n, m.mean, m.se))
@@ -315,33 +320,28 @@ export function analyzeTrials(
       for (const f of Object.values(all.fits)) optima.set(f.model, economicOptimum(f, prices));
     const choice = all
       ? chooseModel(all, optima)
-      : { model: null, reason: 'no model could be fitted.' };
+      : { model: null, reason: 'no model could be fitted' };
     const bestFit = all && choice.model ? all.fits[choice.model] : null;
     let bootstrap: SiteReport['bootstrap'] = null;
     if (bestFit && settings.boot > 0) {
       // One seed per site, derived from the run's seed, so a site's interval does not depend on the sites before it.
-      const b = bootstrapOptimum(
-        { rateKgHa: rates, yieldKgHa: yields, block: blocks },
-        bestFit.model,
-        prices,
+      const b = bootstrapSiteOptimum(
         {
-          resamples: settings.boot,
-          seed: (settings.seed + index * 7919) >>> 0,
-          confidence: settings.intervalLevel,
+          rateKgHa: rates,
+          yieldKgHa: yields,
+          block: blocks,
+          model: bestFit.model,
           blocks: blocksMode,
+          prices,
         },
+        settings.boot,
+        (settings.seed + index * 7919) >>> 0,
+        settings.intervalLevel,
       );
-      const usable = b.rateSamplesKgHa.filter((v) => Number.isFinite(v)).length;
-      bootstrap = {
-        count: b.resamples,
-        usable,
-        seed: b.seed,
-        level: b.confidence,
-        ciKgHa: b.ciKgHa,
-      };
+      bootstrap = b;
       if (!b.ciKgHa)
         warnings.push(
-          `Only ${usable} of ${b.resamples} bootstrap resamples gave an optimum: no interval is reported.`,
+          `Only ${b.usable} of ${b.count} bootstrap resamples gave an optimum: no interval is reported.`,
         );
     }
     const order = all ? all.ranking.map((r) => r.model) : [];

@@ -81,6 +81,8 @@ export interface AnovaSummary {
   /** Fisher's LSD at 5 %, kg/ha; null when unbalanced (no single LSD). */
   lsdKgHa: number | null;
   notes: string[];
+  /** Plots missing from a complete block design (rate, kg/ha, and block): the means are block-adjusted. */
+  missingPlots: { rateKgHa: number; block: string }[];
 }
 
 /** The bootstrap of the chosen model's optimum. */
@@ -107,7 +109,7 @@ export interface SiteReport {
   models: ModelRow[];
   /** Model the recommendation uses; null when none gives a usable optimum. */
   bestModel: ModelName | null;
-  /** Why it was chosen, one sentence. */
+  /** Why it was chosen, a phrase without a final stop ("lowest AICc of the models fitted, …"). */
   bestModelReason: string;
   bootstrap: BootstrapSummary | null;
   /**

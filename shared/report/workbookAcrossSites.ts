@@ -34,6 +34,8 @@ export function workbookAcrossSites(
 ): ExcelJS.Worksheet {
   const ws = wb.addWorksheet('Across sites');
   const ru = u.units.rate;
+  // "lb N/ac": the rate is of nutrient, written the way agronomists write it.
+  const rN = ru.replace('/', ' N/');
   const money = `currency/${u.areaName}`;
   ws.getCell('A1').value = 'Across sites: one rate for the region';
   styleTitle(ws.getCell('A1'), 14);
@@ -48,9 +50,9 @@ export function workbookAcrossSites(
     'Mean net return over the zero-N check across the sites’ fitted curves; the profitable range is every rate within the band of the best.';
   let r = 4;
   const facts: [string, number, string][] = [
-    [`Regional rate (${ru} N)`, u.rate(a.bestRateKgHa), rateFormat(ru)],
-    [`Profitable range low (${ru} N)`, u.rate(a.profitableRangeKgHa[0]), rateFormat(ru)],
-    [`Profitable range high (${ru} N)`, u.rate(a.profitableRangeKgHa[1]), rateFormat(ru)],
+    [`Regional rate (${rN})`, u.rate(a.bestRateKgHa), rateFormat(ru)],
+    [`Profitable range low (${rN})`, u.rate(a.profitableRangeKgHa[0]), rateFormat(ru)],
+    [`Profitable range high (${rN})`, u.rate(a.profitableRangeKgHa[1]), rateFormat(ru)],
     [`Band below the best return (${money})`, u.perArea(a.bandPerHa), '0.00'],
     [
       `Mean net return at the regional rate (${money})`,
@@ -74,7 +76,7 @@ export function workbookAcrossSites(
   styleTitle(ws.getCell(r, 1));
   titles.add(r++);
   const h = ws.getRow(r++);
-  h.values = ['Site', `Best rate (${ru} N)`, `Net return there (${money})`];
+  h.values = ['Site', `Best rate (${rN})`, `Net return there (${money})`];
   styleHeaderRow(h);
   for (const o of a.siteOptima) {
     const row = ws.getRow(r++);

@@ -33,6 +33,8 @@ export function workbookOverview(
 ): ExcelJS.Worksheet {
   const ws = wb.addWorksheet('Overview');
   const ru = u.units.rate;
+  // "lb N/ac": the rate is of nutrient, written the way agronomists write it.
+  const rN = ru.replace('/', ' N/');
   const yu = u.units.yield;
   ws.getCell('A1').value = 'Nitrogen rate trial report';
   styleTitle(ws.getCell('A1'), 14);
@@ -66,9 +68,9 @@ export function workbookOverview(
     'Site',
     'Plots used',
     'Chosen model',
-    `Optimum rate (${ru} N)`,
-    `Interval low (${ru} N)`,
-    `Interval high (${ru} N)`,
+    `Optimum rate (${rN})`,
+    `Interval low (${rN})`,
+    `Interval high (${rN})`,
     `Yield at optimum (${yu})`,
     'Intercept needed?',
     'Intercept p',
@@ -112,7 +114,7 @@ export function workbookOverview(
     r++;
     const row = ws.getRow(r++);
     row.values = [
-      `Regional rate (${ru} N)`,
+      `Regional rate (${rN})`,
       u.rate(a.bestRateKgHa),
       'Profitable range',
       u.rate(a.profitableRangeKgHa[0]),

@@ -59,6 +59,8 @@ export function workbookSite(
 ): ExcelJS.Worksheet {
   const ws = wb.addWorksheet(name);
   const ru = u.units.rate;
+  // "lb N/ac": the rate is of nutrient, written the way agronomists write it.
+  const rN = ru.replace('/', ' N/');
   const yu = u.units.yield;
   const titles = new Set<number>();
   ws.getCell('A1').value = `${site.site}: ${report.crop} nitrogen response`;
@@ -72,7 +74,7 @@ export function workbookSite(
     'Plot',
     'Block',
     'Treatment',
-    `N rate (${ru} N)`,
+    `N rate (${rN})`,
     `Yield (${yu})`,
     'Moisture (%)',
     'Used',
@@ -107,7 +109,7 @@ export function workbookSite(
   // Treatment means ± SE.
   r++;
   title(ws, r++, 'Treatment means ± standard error', titles);
-  header(ws, r++, [`N rate (${ru} N)`, 'Plots', `Mean yield (${yu})`, `SE (${yu})`]);
+  header(ws, r++, [`N rate (${rN})`, 'Plots', `Mean yield (${yu})`, `SE (${yu})`]);
   for (const m of site.treatmentMeans) {
     const row = ws.getRow(r++);
     row.values = [u.rate(m.rateKgHa), m.n, u.yield(m.meanKgHa), u.yield(m.seKgHa)];
@@ -165,6 +167,13 @@ export function workbookSite(
     for (const note of a.notes) {
       ws.getCell(r++, 1).value = note;
     }
+    if (a.missingPlots.length) {
+      const list = a.missingPlots
+        .map((m) => `${formatRate(u.rate(m.rateKgHa))} ${rN} in block ${m.block}`)
+        .join('; ');
+      ws.getCell(r++, 1).value =
+        `Unbalanced: ${a.missingPlots.length} plot${a.missingPlots.length === 1 ? '' : 's'} missing (${list}); the rate sum of squares is adjusted for blocks and the means above are least-squares means.`;
+    }
   } else {
     title(ws, r++, 'Analysis of variance', titles);
     ws.getCell(r++, 1).value = 'Not available: fewer than two rates with plots.';
@@ -181,9 +190,9 @@ export function workbookSite(
     'Residual df',
     'AICc',
     'R²',
-    `Optimum rate (${ru} N)`,
-    `Interval low (${ru} N)`,
-    `Interval high (${ru} N)`,
+    `Optimum rate (${rN})`,
+    `Interval low (${rN})`,
+    `Interval high (${rN})`,
     `Yield at optimum (${yu})`,
     'Note',
   ]);
@@ -220,7 +229,7 @@ export function workbookSite(
     row.getCell(11).numFmt = yieldFormat(yu);
     if (m.model === site.bestModel) row.font = { bold: true };
   }
-  ws.getCell(r++, 1).value = `Chosen: ${site.bestModelReason}`;
+  ws.getCell(r++, 1).value = `Chosen: ${site.bestModelReason}.`;
   if (site.bootstrap) {
     const b = site.bootstrap;
     ws.getCell(r++, 1).value =
@@ -290,6 +299,11 @@ export function workbookSite(
   ws.pageSetup.printTitlesRow = '1:2';
   setupPage(ws, paper, 'landscape');
   return ws;
+}
+
+/** A rate for a sentence: whole units (one decimal below 10). */
+function formatRate(v: number): string {
+  return Math.abs(v) < 10 ? v.toFixed(1) : String(Math.round(v));
 }
 
 /** Four significant digits, no binary noise, for parameters written into text. */
