@@ -29,6 +29,7 @@ interface RSite {
   naiveStart?: Record<string, NaiveResult>;
   guessStart?: Record<string, NaiveResult>;
   linearPlateauProfile?: { joins: number[]; sse: number[]; gridArgmin: number };
+  blocksProfiled?: Record<string, Record<string, number>>;
   [model: string]: unknown;
 }
 const reference = JSON.parse(
@@ -108,6 +109,27 @@ for (const [siteName, site] of Object.entries(reference.sites)) {
           }
         });
       }
+
+      it('with fixed blocks matches R: lm(y ~ g + block, contr.sum) profiled by grid and optimize()', () => {
+        const blocked = fitAllModels(data, { blocks: 'fixed', models: profiledModels });
+        for (const model of profiledModels) {
+          const r = site.blocksProfiled![model];
+          const fit = blocked.fits[model];
+          expect(fit.status).toBe('ok');
+          expect(fit.dfResidual).toBe(r.dfResidual);
+          // optimize() stops on its own tolerance, so it can only be at or above the minimum.
+          expect(fit.sse).toBeLessThanOrEqual(r.sse * (1 + 1e-10));
+          expect(relativeDifference(fit.sse, r.sse)).toBeLessThan(1e-9);
+          const theta = model === 'exponential' ? 'k' : 'x0';
+          expect(Math.abs(fit.params[theta] - r[theta])).toBeLessThan(1e-3 * fit.stdErrors[theta]);
+          for (const name of Object.keys(r).filter(
+            (k) => !['sse', 'dfResidual', theta].includes(k),
+          )) {
+            expect(Math.abs(fit.params[name] - r[name])).toBeLessThan(1e-3 * fit.stdErrors[name]);
+          }
+          expect(Object.values(fit.blockOffsets)).toHaveLength(4);
+        }
+      });
 
       it("is never worse than R's nls from naive or guessed starting values, and R fails on some", () => {
         const tried = [site.naiveStart!, site.guessStart!];
