@@ -3,12 +3,18 @@
 // analysed by the real engine, in US or metric units.
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { demoTrial } from '../shared/demo';
 import { analyzeTrials } from '../shared/report/analyzeTrials';
 import { tableFromFiles } from '../shared/report/tableFromFiles';
 import type { TrialReport } from '../shared/report/trialReport';
 
-export const demoPath = path.join(__dirname, '..', 'demo', 'wrenhollow-n-trials-2025.xlsx');
+export const demoPath = path.join(
+  path.dirname(fileURLToPath(import.meta.url)),
+  '..',
+  'demo',
+  'wrenhollow-n-trials-2025.xlsx',
+);
 
 /**
  * The US prices ($4.50/bu corn, urea 46 % N at $0.30/lb) restated per tonne of

@@ -107,6 +107,16 @@ export function siteResponseChart(report: TrialReport, site: SiteReport): ChartS
       };
     })
     .filter((l) => l.x.length > 0);
+  // The y range follows the plots and the chosen curve, so a poor alternative (a line
+  // through the origin) cannot squash the data into a band; alternatives are clipped.
+  const ys = [
+    ...pointLayers.flatMap((l) => l.y),
+    ...excluded.map((p) => u.yield(p.yieldKgHa!)),
+    ...(best ? best.curve.yieldKgHa.map(u.yield) : []),
+  ].filter(Number.isFinite);
+  const yLo = ys.length ? Math.min(...ys) : 0;
+  const yHi = ys.length ? Math.max(...ys) : 1;
+  const pad = 0.08 * Math.max(yHi - yLo, 1e-9);
   const pr = report.prices;
   return {
     title: `${site.site}: yield response to N`,
@@ -121,7 +131,7 @@ export function siteResponseChart(report: TrialReport, site: SiteReport): ChartS
         id: 'response',
         title: '',
         x: { title: 'N rate', unit: rateUnit, min: 0 },
-        y: { title: 'Yield', unit: yu },
+        y: { title: 'Yield', unit: yu, min: Math.max(0, yLo - pad), max: yHi + pad },
         heightShare: 3,
         layers,
       },
