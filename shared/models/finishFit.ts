@@ -197,13 +197,19 @@ export function finishFit(input: FinishInput): ModelFit {
   if (pe.df > 0 && dfLack > 0) {
     const ssLack = Math.max(sse - pe.ss, 0);
     const f = ssLack / dfLack / (pe.ss / pe.df);
+    // The p-value (an incomplete beta, about a microsecond) is computed on first
+    // read: batch runs that only rank and price the fits never need it.
+    let p: number | null = null;
     lackOfFit = {
       ssLackOfFit: ssLack,
       dfLackOfFit: dfLack,
       ssPureError: pe.ss,
       dfPureError: pe.df,
       f,
-      p: fisherFUpperP(f, dfLack, pe.df),
+      get p(): number {
+        if (p === null) p = fisherFUpperP(f, dfLack, pe.df);
+        return p;
+      },
     };
   }
 
