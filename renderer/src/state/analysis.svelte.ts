@@ -45,14 +45,18 @@ export class Analysis {
   /** Site → leading model; a string key, so the regional gains below are only re-prepared when a lead changes. */
   #leadKey = $derived(this.optima.map((o) => `${o.site}\u0000${o.model ?? ''}`).join('\u0001'));
 
-  /** Price-free regional gains: recomputed only when fits or leading models change. */
-  #prepared = $derived.by(() => {
+  /**
+   * Site → leading model. Changes only when a lead changes (not on every price
+   * tick), so what depends on leads alone — the regional gains, the overlay of
+   * curves — is not rebuilt while a price slider moves.
+   */
+  leads: Record<string, ModelName | null> = $derived.by(() => {
     void this.#leadKey;
-    const leading = untrack(() =>
-      Object.fromEntries(this.optima.map((o) => [o.site, o.model] as const)),
-    );
-    return this.output ? prepareRegional(this.output.sites, leading) : null;
+    return untrack(() => Object.fromEntries(this.optima.map((o) => [o.site, o.model] as const)));
   });
+
+  /** Price-free regional gains: recomputed only when fits or leading models change. */
+  #prepared = $derived(this.output ? prepareRegional(this.output.sites, this.leads) : null);
 
   regional = $derived.by(() => {
     const priced = this.#prices.canonical;
@@ -68,7 +72,7 @@ export class Analysis {
 
   /** The leading model of a site at the current prices. */
   leadOf(site: string): ModelName | null {
-    return this.optima.find((o) => o.site === site)?.model ?? null;
+    return this.leads[site] ?? null;
   }
 
   /**

@@ -121,6 +121,7 @@ export class Workspace {
   /** Opens trial files, detects their columns and shows the column review. */
   async openFiles(files: TrialFileBytes[]): Promise<void> {
     const before = this.sources.workbooks.length;
+    const stepBefore = this.step;
     await this.sources.add(files);
     this.trial.detectNew();
     for (const file of files) {
@@ -134,7 +135,8 @@ export class Workspace {
         );
       }
     }
-    if (this.sources.workbooks.length > before) this.step = 'columns';
+    // Show the column review, unless the user went elsewhere while the files were read.
+    if (this.sources.workbooks.length > before && this.step === stepBefore) this.step = 'columns';
   }
 
   /** Opens the invented demo trial shipped with the app and shows its first site. */

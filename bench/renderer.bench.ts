@@ -1,0 +1,119 @@
+// Browser bench: with 50 fitted sites, the time from a price change to the
+// redrawn optimum and charts, in headless chromium against the built renderer.
+// Measured inside the page: from dispatching the price field's input event to
+// the frame after every chart on screen has finished Plotly's redraw.
+import { mkdtemp, writeFile } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import type { Page } from 'playwright-core';
+import { syntheticWorkbook } from '../shared/demo/syntheticTrial';
+import { openSession } from '../tests/e2e/harness';
+
+const SITES = 50;
+const REPEATS = 21;
+
+/** Changes the product price REPEATS times and returns each time to redraw, ms. */
+async function timePriceChanges(page: Page, charts: number): Promise<number[]> {
+  return page.evaluate(
+    async ({ repeats, charts }) => {
+      const input = document.querySelector<HTMLInputElement>('[data-testid="product-price"]');
+      const plots = [...document.querySelectorAll('[data-testid="chart"]')].slice(
+        0,
+        charts,
+      ) as (HTMLElement & {
+        on(event: string, fn: () => void): void;
+        removeAllListeners(event: string): void;
+      })[];
+      if (!input || plots.length < charts) throw new Error('price field or charts missing');
+      const times: number[] = [];
+      for (let i = 0; i < repeats; i++) {
+        const drawn = plots.map(
+          (gd) =>
+            new Promise<void>((resolve) => {
+              gd.removeAllListeners('plotly_afterplot');
+              gd.on('plotly_afterplot', () => resolve());
+            }),
+        );
+        const t0 = performance.now();
+        input.value = (0.9 + 0.4 * (i % 2) + 0.01 * i).toFixed(2);
+        input.dispatchEvent(new Event('input', { bubbles: true }));
+        await Promise.all(drawn);
+        await new Promise((resolve) => requestAnimationFrame(() => resolve(null)));
+        times.push(performance.now() - t0);
+        await new Promise((resolve) => setTimeout(resolve, 30));
+      }
+      return times;
+    },
+    { repeats: REPEATS, charts },
+  );
+}
+
+function summary(label: string, times: number[]): void {
+  const sorted = [...times].sort((a, b) => a - b);
+  const q = (p: number) => sorted[Math.min(sorted.length - 1, Math.floor(p * sorted.length))];
+  console.log(
+    `${label}: median ${q(0.5).toFixed(1)} ms, p90 ${q(0.9).toFixed(1)} ms, max ${sorted.at(-1)!.toFixed(1)} ms (${times.length} changes)`,
+  );
+}
+
+export async function run(): Promise<void> {
+  const session = await openSession();
+  const { page } = session;
+  try {
+    await page.goto(session.url);
+    await page.getByTestId('site-optimum').waitFor({ timeout: 60_000 });
+    // Replace the demo with 50 synthetic sites.
+    await page.getByRole('button', { name: /Trial files/ }).click();
+    await page.getByRole('button', { name: /^Close wrenhollow/ }).click();
+    const dir = await mkdtemp(path.join(tmpdir(), 'plotrate-bench-'));
+    const file = path.join(dir, `Synthetic ${SITES} sites.xlsx`);
+    await writeFile(file, await syntheticWorkbook({ sites: SITES, seed: 3 }));
+    const t0 = Date.now();
+    await page.getByTestId('trial-file-input').setInputFiles(file);
+    await page.getByTestId('sheet-Plots').waitFor({ timeout: 60_000 });
+    await page.getByRole('button', { name: /Prices/ }).click();
+    await page
+      .getByTestId(`optimum-Site ${String(SITES).padStart(4, '0')}`)
+      .waitFor({ timeout: 30_000 });
+    console.log(`read, mapped and fitted ${SITES} sites in the worker: ${Date.now() - t0} ms`);
+    await page.getByText('Ready').waitFor({ timeout: 120_000 });
+
+    // The prices step has no chart: time to the re-priced table of 50 optima.
+    const tableTimes = await page.evaluate(async (repeats) => {
+      const input = document.querySelector<HTMLInputElement>('[data-testid="product-price"]')!;
+      const times: number[] = [];
+      for (let i = 0; i < repeats; i++) {
+        const t0 = performance.now();
+        input.value = (0.9 + 0.4 * (i % 2) + 0.01 * i).toFixed(2);
+        input.dispatchEvent(new Event('input', { bubbles: true }));
+        await new Promise((resolve) => requestAnimationFrame(() => resolve(null)));
+        times.push(performance.now() - t0);
+      }
+      return times;
+    }, REPEATS);
+    summary(`prices step, ${SITES} site optima and regional rate re-priced`, tableTimes);
+
+    // The chart steps carry the same price fields above their charts.
+    for (const [step, charts] of [
+      ['One site', 1],
+      // The regional return chart; the overlaid curves depend on the leading models only.
+      ['All sites', 1],
+    ] as const) {
+      await page.getByRole('button', { name: new RegExp(step) }).click();
+      await page
+        .locator('[data-testid="chart"] .main-svg')
+        .nth(charts - 1)
+        .waitFor();
+      await page.getByText('Ready').waitFor({ timeout: 120_000 });
+      summary(
+        `${step} step, price change to redrawn optimum and charts`,
+        await timePriceChanges(page, charts),
+      );
+    }
+  } catch (error) {
+    await page.screenshot({ path: path.join(tmpdir(), 'plotrate-bench-failure.png') });
+    throw error;
+  } finally {
+    await session.close();
+  }
+}
