@@ -135,6 +135,58 @@ describe('plotrate analyze: bad input', () => {
   });
 });
 
+describe('plotrate analyze --map', () => {
+  it('fails without the mapping and succeeds when --map names the rate, site and block columns', () => {
+    // Headers the detector cannot read as a rate, a site or a block.
+    const rows = ['Field,Rep,Amount,Harvest (t/ha)'];
+    for (let b = 1; b <= 3; b++) {
+      for (const x of [0, 50, 100, 150, 200])
+        rows.push(`Elm Hollow,${b},${x},${(6 + 0.03 * Math.min(x, 120) + 0.05 * b).toFixed(2)}`);
+    }
+    writeFileSync(path.join(dir, 'map.csv'), `${rows.join('\n')}\n`);
+    const plain = run([
+      'analyze',
+      'map.csv',
+      '--boot',
+      '0',
+      '--grain-price',
+      '200',
+      '--nutrient-price',
+      '1.2',
+    ]);
+    expect(plain.code).toBe(2);
+    expect(plain.err).toMatch(/"map\.csv" has no rate column/);
+    const mapped = run([
+      'analyze',
+      'map.csv',
+      '--boot',
+      '0',
+      '--grain-price',
+      '200',
+      '--nutrient-price',
+      '1.2',
+      '--map',
+      'rate=Amount',
+      'site=Field',
+      'block=Rep',
+      '--blocks',
+      'fixed',
+      '--json',
+      'map.json',
+    ]);
+    expect(mapped.code, mapped.err).toBe(0);
+    const j = JSON.parse(readFileSync(path.join(dir, 'map.json'), 'utf8'));
+    expect(j.settings.blocks).toBe('fixed');
+    expect(j.sites.map((x: { site: string }) => x.site)).toEqual(['Elm Hollow']);
+    expect(j.sites[0].n).toBe(15);
+    // The generating line rises 0.03 t/ha per kg N up to 120 kg/ha: the linear-plateau's join is found there.
+    const lp = j.sites[0].models.find((m: { model: string }) => m.model === 'linearPlateau');
+    expect(lp.params.x0).toBeGreaterThan(100);
+    expect(lp.params.x0).toBeLessThanOrEqual(150);
+    expect(lp.params.b).toBeCloseTo(0.03, 6);
+  });
+});
+
 describe('plotrate analyze: a run with every output', () => {
   let r: ReturnType<typeof run>;
   beforeAll(() => {
