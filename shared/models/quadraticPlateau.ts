@@ -83,11 +83,10 @@ export function estimateQuadraticPlateau(site: PreparedSite, tolerance = 1e-10):
   const rMax = rates[m - 1];
 
   // The limit x0 ≥ r_max: the quadratic with its vertex past the data, or the
-  // rising straight line as x0 → ∞ with c → 0. Their SSEs come from the same
-  // solver with g = x (line; sign-free) and from the quadratic's own fit.
+  // rising straight line as x0 → ∞ with c → 0 (each from its own least-squares fit).
   let limitSse = sseAt(rMax);
-  const lineSolver = profileSolver(site, { intercept: true, sign: 'positive' });
-  limitSse = Math.min(limitSse, lineSolver.sse(rates));
+  const line = groupLinearCoefficients(site, [rates], true);
+  if (line.curve[1] > 0) limitSse = Math.min(limitSse, line.sse);
   const quad = groupLinearCoefficients(site, [rates, rates.map((r) => r * r)], true);
   if (quad.curve[2] < 0 && -quad.curve[1] / (2 * quad.curve[2]) >= rMax) {
     limitSse = Math.min(limitSse, quad.sse);

@@ -63,21 +63,18 @@ export function minimizeBrent(
       `minimizeBrent: the interval [${lower}, ${upper}] must have finite ends with lower ≤ upper.`,
     );
   }
-  const g = (x: number): number => {
-    const v = f(x);
-    return Number.isNaN(v) ? Infinity : v;
-  };
   const rel = options.relativeTolerance ?? 1e-10;
   const absTol = options.absoluteTolerance ?? 1e-12 * (Math.abs(lower) + Math.abs(upper)) + 1e-300;
   const maxIterations = options.maxIterations ?? 200;
-  if (upper === lower) return { x: lower, fx: g(lower), evaluations: 1, converged: true };
+  if (upper === lower)
+    return { x: lower, fx: orInfinity(f(lower)), evaluations: 1, converged: true };
 
   let a = lower;
   let b = upper;
   let x = a + GOLDEN * (b - a);
   let w = x;
   let v = x;
-  let fx = g(x);
+  let fx = orInfinity(f(x));
   let fw = fx;
   let fv = fx;
   let d = 0;
@@ -116,7 +113,7 @@ export function minimizeBrent(
       d = GOLDEN * e;
     }
     const u = x + (Math.abs(d) >= tol ? d : d > 0 ? tol : -tol);
-    const fu = g(u);
+    const fu = orInfinity(f(u));
     evaluations++;
     if (fu <= fx) {
       if (u < x) b = x;
@@ -142,10 +139,15 @@ export function minimizeBrent(
     }
   }
   // The ends are candidates too: a minimum at an end is common for profiled SSEs.
-  const fLower = g(lower);
-  const fUpper = g(upper);
+  const fLower = orInfinity(f(lower));
+  const fUpper = orInfinity(f(upper));
   evaluations += 2;
   if (fLower < fx) return { x: lower, fx: fLower, evaluations, converged };
   if (fUpper < fx) return { x: upper, fx: fUpper, evaluations, converged };
   return { x, fx, evaluations, converged };
+}
+
+/** NaN counts as +Infinity, so it is never chosen. */
+function orInfinity(v: number): number {
+  return v === v ? v : Infinity;
 }
