@@ -5,12 +5,13 @@
 // notes ("Economic optimum"), in display units, so a wrong unit conversion of
 // a parameter or of the price ratio shows up as a wrong rate.
 import ExcelJS from 'exceljs';
+import { strFromU8, unzipSync } from 'fflate';
 import { beforeAll, describe, expect, it } from 'vitest';
 import * as XLSX from 'xlsx';
 import { recommendationCautions } from '../shared/economics/recommendationCautions';
 import { resultsJson, type ResultsJson } from '../shared/report/resultsJson';
 import type { TrialReport } from '../shared/report/trialReport';
-import { writeWorkbook } from '../shared/report/workbook';
+import { reportGrowerPages, writeWorkbook } from '../shared/report/workbook';
 import { P_VALUE_FORMAT, sheetName } from '../shared/report/workbookFormat';
 import { demoTrial } from '../shared/demo';
 import { demoReport } from './report.fixture';
@@ -209,6 +210,19 @@ describe('writeWorkbook read back by exceljs', () => {
       if (row.getCell(9).numFmt === P_VALUE_FORMAT) formatted++;
     });
     expect(formatted).toBe(us.sites.length);
+  });
+});
+
+describe('the Recommendations sheet', () => {
+  it('breaks the page before every recommendation but the first (the sheet XML, ECMA-376 rowBreaks)', () => {
+    const files = unzipSync(usBytes);
+    const book = strFromU8(files['xl/workbook.xml']);
+    const names = [...book.matchAll(/<sheet [^>]*name="([^"]+)"/g)].map((m) => m[1]);
+    const index = names.indexOf('Recommendations') + 1;
+    const xml = strFromU8(files[`xl/worksheets/sheet${index}.xml`]);
+    const breaks = Number(/<rowBreaks count="(\d+)"/.exec(xml)?.[1]);
+    expect(breaks).toBe(reportGrowerPages(us).length - 1);
+    expect(xml).toMatch(/<pageSetup [^>]*paperSize="1"[^>]*orientation="portrait"/);
   });
 });
 
