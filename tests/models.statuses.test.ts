@@ -181,3 +181,56 @@ describe('fitResponseOverCheck', () => {
     );
   });
 });
+
+describe('blocks of unequal size with the same mix of rates (proportional frequencies)', () => {
+  // Block A holds every rate twice, block B once: group sums still apply, the offsets do not.
+  const rates = [0, 40, 80, 120, 160, 200];
+  const rateKgHa: number[] = [];
+  const yieldKgHa: number[] = [];
+  const block: string[] = [];
+  let i = 0;
+  for (const [b, copies] of [
+    ['A', 2],
+    ['B', 1],
+  ] as const) {
+    for (let c = 0; c < copies; c++) {
+      for (const r of rates) {
+        i++;
+        rateKgHa.push(r);
+        yieldKgHa.push(
+          6000 + 26 * Math.min(r, 125) + (b === 'B' ? 400 : 0) + 250 * Math.sin(3.1 * i),
+        );
+        block.push(b);
+      }
+    }
+  }
+  const data = { rateKgHa, yieldKgHa, block };
+  const dummy = block.map((v) => (v === 'B' ? 1 : 0));
+
+  it('prepareSite uses group sums but no precomputed offsets', () => {
+    const site = prepareSite(data, 'fixed');
+    expect(site.design).toBe('balanced-blocks');
+    expect(site.orthogonalBlockOffsets).toBeNull();
+  });
+  it('the linear-plateau matches fitLeastSquares with a block dummy on a 0.05 kg/ha grid of joins', () => {
+    const fit = fitLinearPlateau(data, { blocks: 'fixed' });
+    let gridBest = Infinity;
+    for (let x0 = 40.05; x0 < 200; x0 += 0.05) {
+      const g = rateKgHa.map((r) => Math.min(r, x0));
+      gridBest = Math.min(
+        gridBest,
+        fitLeastSquares({ columns: [g, dummy], y: yieldKgHa, intercept: true }).sse,
+      );
+    }
+    expect(fit.status).toBe('ok');
+    expect(fit.sse).toBeLessThanOrEqual(gridBest * (1 + 1e-12));
+    const atJoin = fitLeastSquares({
+      columns: [rateKgHa.map((r) => Math.min(r, fit.params.x0)), dummy],
+      y: yieldKgHa,
+      intercept: true,
+    });
+    expect(fit.sse / atJoin.sse).toBeCloseTo(1, 12);
+    expect(fit.params.b).toBeCloseTo(atJoin.coefficients[1].estimate, 8);
+    expect(fit.stdErrors.b).toBeGreaterThan(0);
+  });
+});
