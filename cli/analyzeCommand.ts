@@ -165,7 +165,7 @@ function summary(report: TrialReport): string[] {
   const u = unitScale(report.settings.units, report.crop);
   const ru = report.settings.units.rate;
   const rate = (kgHa: number | null | undefined): string =>
-    kgHa == null ? '—' : formatQuantity(u.rate(kgHa), ru, 0);
+    kgHa == null ? '—' : formatQuantity(u.rate(kgHa), ru, 0).replace(ru, ru.replace('/', ' N/'));
   const lines: string[] = [];
   const show = report.sites.slice(0, 20);
   for (const s of show) {
@@ -173,7 +173,7 @@ function summary(report: TrialReport): string[] {
     const ci = s.bootstrap?.ciKgHa;
     const y = m?.yieldAtOptimumKgHa;
     const text = m
-      ? `${m.label}, optimum ${rate(m.optimumRateKgHa)} N${ci ? ` (${rate(ci[0])} to ${rate(ci[1])})` : ''}${y != null ? `, yield ${formatQuantity(u.yield(y), report.settings.units.yield)}` : ''}`
+      ? `${m.label}, optimum ${rate(m.optimumRateKgHa)}${ci ? ` (${rate(ci[0])} to ${rate(ci[1])})` : ''}${y != null ? `, yield ${formatQuantity(u.yield(y), report.settings.units.yield)}` : ''}`
       : 'no rate (see the report)';
     lines.push(`${s.site}: ${text}`);
   }
@@ -182,7 +182,7 @@ function summary(report: TrialReport): string[] {
   const a = report.acrossSites;
   if (a) {
     lines.push(
-      `Across ${a.sites.length} sites: ${rate(a.bestRateKgHa)} N, profitable from ${rate(a.profitableRangeKgHa[0])} to ${rate(a.profitableRangeKgHa[1])}.`,
+      `Across ${a.sites.length} sites: ${rate(a.bestRateKgHa)}, profitable from ${rate(a.profitableRangeKgHa[0])} to ${rate(a.profitableRangeKgHa[1])}.`,
     );
   }
   for (const w of report.warnings) lines.push(`Note: ${w}`);

@@ -1,11 +1,14 @@
 /**
  * Draws grower pages into one PDF with pdfkit, one page each. The layout
  * comes from shared/report/growerPageLayout; this file only measures and
- * draws. pdfkit's standard Helvetica needs no font file (its metrics ship with
- * pdfkit), but it only encodes WinAnsi characters, so text goes through a
- * small substitution first (≈ → ~, − → -, ² → 2 where it is not in WinAnsi).
+ * draws. The text face is the chart font (DejaVu or Liberation Sans, embedded
+ * as a subset) so any site name prints as typed; without one, pdfkit's
+ * standard Helvetica, which encodes only WinAnsi characters, so text then goes
+ * through a small substitution first (≈ → ~, − → -).
  */
+import { existsSync } from 'node:fs';
 import PDFDocument from 'pdfkit';
+import { chartFontFiles } from './chartPng';
 import type { GrowerPage } from '../shared/report/growerPage';
 import {
   growerPageLayout,
@@ -24,14 +27,32 @@ const substitutes: [RegExp, string][] = [
   [/Δ/g, 'delta '],
 ];
 
-function winAnsi(text: string): string {
+/** Embedded regular and bold faces, when the machine has them; null = Helvetica. */
+let faces: { regular: string; bold: string } | null | undefined;
+
+function embeddedFaces(): { regular: string; bold: string } | null {
+  if (faces !== undefined) return faces;
+  try {
+    const files = chartFontFiles();
+    const regular = files.find((f) => !/bold/i.test(f));
+    const bold = files.find((f) => /bold/i.test(f)) ?? regular;
+    faces = regular && bold && existsSync(regular) ? { regular, bold } : null;
+  } catch {
+    faces = null;
+  }
+  return faces;
+}
+
+function printable(text: string): string {
+  if (embeddedFaces()) return text;
   let t = text;
   for (const [re, s] of substitutes) t = t.replace(re, s);
   return t;
 }
 
 function font(doc: PDFKit.PDFDocument, bold: boolean): void {
-  doc.font(bold ? 'Helvetica-Bold' : 'Helvetica');
+  const f = embeddedFaces();
+  doc.font(f ? (bold ? f.bold : f.regular) : bold ? 'Helvetica-Bold' : 'Helvetica');
 }
 
 /** Height of a block at a scale, pt (pdfkit measures wrapped text). */
@@ -47,7 +68,7 @@ function blockHeight(
       font(doc, b.bold);
       doc.fontSize(b.sizePt * s);
       return (
-        (b.text ? doc.heightOfString(winAnsi(b.text), { width }) : b.sizePt * s) + b.gapAfterPt * s
+        (b.text ? doc.heightOfString(printable(b.text), { width }) : b.sizePt * s) + b.gapAfterPt * s
       );
     case 'facts': {
       let h = 0;
@@ -56,8 +77,8 @@ function blockHeight(
         doc.fontSize(b.sizePt * s);
         h +=
           Math.max(
-            doc.heightOfString(winAnsi(r.value), { width: width * 0.62 }),
-            doc.heightOfString(winAnsi(r.label), { width: width * 0.36 }),
+            doc.heightOfString(printable(r.value), { width: width * 0.62 }),
+            doc.heightOfString(printable(r.label), { width: width * 0.36 }),
           ) +
           2 * s;
       }
@@ -70,7 +91,7 @@ function blockHeight(
       font(doc, false);
       doc.fontSize(b.sizePt * s);
       for (const l of b.lines)
-        h += doc.heightOfString(winAnsi(`• ${l}`), { width: width - 16 }) + 2 * s;
+        h += doc.heightOfString(printable(`• ${l}`), { width: width - 16 }) + 2 * s;
       return h + 16 + b.gapAfterPt * s;
     }
     case 'chart':
@@ -98,17 +119,17 @@ function drawPage(
     if (b.kind === 'text') {
       font(doc, b.bold);
       doc.fontSize(b.sizePt * s).fillColor(b.color);
-      if (b.text) doc.text(winAnsi(b.text), m, y, { width });
+      if (b.text) doc.text(printable(b.text), m, y, { width });
       y += blockHeight(doc, b, width, s, null);
     } else if (b.kind === 'facts') {
       for (const r of b.rows) {
         doc.fontSize(b.sizePt * s).fillColor('#111111');
         font(doc, true);
-        doc.text(winAnsi(r.label), m, y, { width: width * 0.36 });
-        const hl = doc.heightOfString(winAnsi(r.label), { width: width * 0.36 });
+        doc.text(printable(r.label), m, y, { width: width * 0.36 });
+        const hl = doc.heightOfString(printable(r.label), { width: width * 0.36 });
         font(doc, false);
-        doc.text(winAnsi(r.value), m + width * 0.38, y, { width: width * 0.62 });
-        const hv = doc.heightOfString(winAnsi(r.value), { width: width * 0.62 });
+        doc.text(printable(r.value), m + width * 0.38, y, { width: width * 0.62 });
+        const hv = doc.heightOfString(printable(r.value), { width: width * 0.62 });
         y += Math.max(hl, hv) + 2 * s;
       }
       y += b.gapAfterPt * s;
@@ -123,8 +144,8 @@ function drawPage(
       font(doc, false);
       doc.fontSize(b.sizePt * s);
       for (const l of b.lines) {
-        doc.text(winAnsi(`• ${l}`), m + 8, yy, { width: width - 16 });
-        yy += doc.heightOfString(winAnsi(`• ${l}`), { width: width - 16 }) + 2 * s;
+        doc.text(printable(`• ${l}`), m + 8, yy, { width: width - 16 });
+        yy += doc.heightOfString(printable(`• ${l}`), { width: width - 16 }) + 2 * s;
       }
       y += h + b.gapAfterPt * s;
     } else if (chart) {
@@ -137,7 +158,7 @@ function drawPage(
   font(doc, false);
   doc.fontSize(7.5).fillColor('#777777');
   // Footer inside the bottom margin; lineBreak off so pdfkit never starts a new page for it.
-  doc.text(winAnsi(layout.footer), m, layout.heightPt - m + 14, {
+  doc.text(printable(layout.footer), m, layout.heightPt - m + 14, {
     width,
     lineBreak: false,
     height: 10,
