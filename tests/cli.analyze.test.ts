@@ -214,7 +214,7 @@ describe('plotrate analyze: a run with every output', () => {
 
   it('exits 0, prints a summary and reports progress on stderr', () => {
     expect(r.code, r.err).toBe(0);
-    expect(r.out).toMatch(/Site 0001: .*optimum \d+ kg\/ha N/);
+    expect(r.out).toMatch(/Site 0001: .*optimum \d+ kg N\/ha/);
     expect(r.out).toMatch(/Across 3 sites:/);
     expect(r.err).toMatch(/plotrate: 72 plots at 3 sites/);
     expect(r.err).toMatch(/writing report\.xlsx/);
