@@ -68,7 +68,8 @@ function blockHeight(
       font(doc, b.bold);
       doc.fontSize(b.sizePt * s);
       return (
-        (b.text ? doc.heightOfString(printable(b.text), { width }) : b.sizePt * s) + b.gapAfterPt * s
+        (b.text ? doc.heightOfString(printable(b.text), { width }) : b.sizePt * s) +
+        b.gapAfterPt * s
       );
     case 'facts': {
       let h = 0;
