@@ -20,6 +20,9 @@ export interface Prices {
  * @param prices - the prices to check
  * @throws {StatsInputError} "bad-argument" naming the price that is not a positive finite
  *   number (application cost: not negative)
+ * @returns nothing; returns normally when the prices are valid
+ * @example
+ * assertPrices({ grainPricePerKg: 0.2, nutrientPricePerKg: 1.1 }) // no error
  */
 export function assertPrices(prices: Prices): void {
   for (const key of ['grainPricePerKg', 'nutrientPricePerKg'] as const) {

@@ -325,6 +325,8 @@ export function unfittedFit(site: PreparedSite, spec: CurveSpec, message: string
  * @param spec - the model's curve
  * @param minRates - distinct rates the model needs
  * @returns a message for "too-few-rates", or null
+ * @example
+ * tooFewRatesMessage(site, quadraticSpec, 3) // null when the site has 3 or more rates and enough plots
  */
 export function tooFewRatesMessage(
   site: PreparedSite,
@@ -348,6 +350,8 @@ export function tooFewRatesMessage(
  * @param fit - a finished fit
  * @param names - parameters to blank
  * @returns the same fit, changed in place
+ * @example
+ * blankParameters(fit, ['x0']).params.x0 // NaN
  */
 export function blankParameters(fit: ModelFit, names: readonly string[]): ModelFit {
   for (const name of names) {
@@ -364,6 +368,8 @@ export function blankParameters(fit: ModelFit, names: readonly string[]): ModelF
  * @param spec - the model's curve
  * @param message - why
  * @returns the placeholder estimate
+ * @example
+ * unfittedEstimate(site, quadraticSpec, 'needs 3 rates').status // 'too-few-rates'
  */
 export function unfittedEstimate(
   site: PreparedSite,

@@ -78,6 +78,9 @@ export function fitAllModels(
  * @param site - from prepareSite
  * @param options - as for fitAllModels
  * @returns fits by name, ranking, best
+ * @example
+ * const site = prepareSite(data, 'none');
+ * fitAllModelsPrepared(site, { models: ['linearPlateau'] }).fits.linearPlateau.status // e.g. 'ok'
  */
 export function fitAllModelsPrepared(
   site: PreparedSite,
@@ -106,6 +109,8 @@ function unrankedReason(fit: ModelFit): string {
  * Ranks fits by AICc.
  * @param fits - fits by model name (any subset)
  * @returns the ranking (ranked first, best first) and the best model
+ * @example
+ * rankByAicc(fitAllModels(data).fits).best // e.g. 'quadraticPlateau'
  */
 export function rankByAicc(fits: Partial<Record<ModelName, ModelFit>>): {
   ranking: ModelRank[];

@@ -195,6 +195,8 @@ export function prepareSite(data: SiteData, blocks: BlockTerms): PreparedSite {
  * @param groupOf - group index of each plot
  * @param counts - plots per group (every count > 0)
  * @returns group means and Σ (y − ȳ_group)²
+ * @example
+ * rateGroupMoments([5, 6, 8, 9], new Int32Array([0, 0, 1, 1]), new Float64Array([2, 2])) // { means: [5.5, 8.5], ssWithin: 1 }
  */
 export function rateGroupMoments(
   y: ArrayLike<number>,

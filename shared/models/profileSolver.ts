@@ -128,7 +128,13 @@ function groupSolver(site: PreparedSite, options: ProfileSolverOptions): Profile
   return { sse, flatSse, last };
 }
 
-/** Effect-coded block columns (block b: +1, last block: −1), B − 1 of them. */
+/**
+ * Effect-coded block columns (block b: +1, last block: −1), B − 1 of them.
+ * @param site - from prepareSite, with block terms
+ * @returns B − 1 columns of length n
+ * @example
+ * blockColumns(prepareSite({ rateKgHa: [0, 0], yieldKgHa: [1, 2], block: ['a', 'b'] }, 'fixed')) // [[1, −1]]
+ */
 export function blockColumns(site: PreparedSite): Float64Array[] {
   const nb = site.blockLabels.length;
   const cols: Float64Array[] = [];

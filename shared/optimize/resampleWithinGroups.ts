@@ -38,6 +38,7 @@ export function strataOf(groupOf: Int32Array, groups: number): Strata {
  * @param out - receives item indices, length = members.length
  * @example
  * resampleWithinGroups(strataOf(groupOf, m), seededRandom(1), out)
+ * @returns nothing; `out` is filled
  */
 export function resampleWithinGroups(strata: Strata, random: SeededRandom, out: Int32Array): void {
   const { members, starts } = strata;
