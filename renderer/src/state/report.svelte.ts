@@ -1,6 +1,5 @@
 // The report: assembled in the worker at the current prices, previewed as the
 // grower page, exported as the workbook, printed or saved as PDF.
-import Plotly from 'plotly.js-dist-min';
 import { growerPage, type GrowerPage } from '../../../shared/report/growerPage';
 import { regionalReturnChart } from '../../../shared/report/regionalReturnChart';
 import { siteResponseChart } from '../../../shared/report/siteResponseChart';
@@ -22,6 +21,8 @@ function nowIso(): string {
 }
 
 async function chartPng(spec: ChartSpec): Promise<SheetImage> {
+  // Loaded on first export, so this state class stays importable where there is no DOM (tests).
+  const { default: Plotly } = await import('plotly.js-dist-min');
   const { data, layout } = plotlyFromSpec(spec);
   const url = await Plotly.toImage(
     { data, layout: { ...layout, width: spec.widthPx, height: spec.heightPx } },

@@ -1,0 +1,99 @@
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { buildPlotTable } from '../shared/import/buildPlotTable';
+import { detectColumns } from '../shared/import/detectColumns';
+import { readTrialFile } from '../shared/import/readTrialFile';
+import { syntheticCsv } from '../shared/demo/syntheticTrial';
+import {
+  applyDecisions,
+  decide,
+  setColumnRole,
+  setColumnUnit,
+  setSheetUse,
+} from '../renderer/src/analysis/edits';
+
+async function synthetic() {
+  const bytes = new TextEncoder().encode(syntheticCsv({ sites: 2, seed: 5 }));
+  const raw = await readTrialFile({ name: 'two sites.csv', bytes });
+  return { raw, mapping: detectColumns(raw) };
+}
+
+describe('renderer edits', () => {
+  it('setColumnRole moves a unique role: the column that had it is set aside', async () => {
+    const { mapping } = await synthetic();
+    const sheet = mapping.sheets[0];
+    const yieldCol = sheet.columns.find((c) => c.role === 'yield')!;
+    const moistureCol = sheet.columns.find((c) => c.role === 'moisture')!;
+    const next = setColumnRole(mapping, sheet.sheet, moistureCol.col, 'yield');
+    const cols = next.sheets[0].columns;
+    expect(cols.find((c) => c.col === moistureCol.col)!.role).toBe('yield');
+    expect(cols.find((c) => c.col === yieldCol.col)!.role).toBe('ignore');
+    expect(cols.filter((c) => c.role === 'yield')).toHaveLength(1);
+    // The original is untouched (undo snapshots rely on it).
+    expect(mapping.sheets[0].columns.find((c) => c.col === yieldCol.col)!.role).toBe('yield');
+  });
+
+  it('a repeatable role (group) does not push other columns aside', async () => {
+    const { mapping } = await synthetic();
+    const sheet = mapping.sheets[0];
+    const year = sheet.columns.find((c) => c.role === 'year')!;
+    const plot = sheet.columns.find((c) => c.role === 'plot')!;
+    let next = setColumnRole(mapping, sheet.sheet, year.col, 'group');
+    next = setColumnRole(next, sheet.sheet, plot.col, 'group');
+    expect(next.sheets[0].columns.filter((c) => c.role === 'group')).toHaveLength(2);
+  });
+
+  it('a unit change reaches the plot table: the same numbers read as kg/ha instead of lb/ac', async () => {
+    const { raw, mapping } = await synthetic();
+    const sheet = mapping.sheets[0];
+    const rate = sheet.columns.find((c) => c.role === 'rate')!;
+    expect(rate.unit).toBe('lb/ac');
+    const settings = { crop: 'corn', rateBasis: 'nutrient' } as const;
+    const before = buildPlotTable(raw, mapping, settings).table;
+    const after = buildPlotTable(
+      raw,
+      setColumnUnit(mapping, sheet.sheet, rate.col, 'kg/ha'),
+      settings,
+    ).table;
+    const i = before.plots.findIndex((p) => (p.rateKgHa ?? 0) > 0);
+    expect(after.plots[i].rateKgHa! / before.plots[i].rateKgHa!).toBeCloseTo(1 / 1.120851, 5);
+  });
+
+  it('setSheetUse to ignore leaves no plots, and unknown sheets are refused by name', async () => {
+    const { mapping } = await synthetic();
+    const sheetName = mapping.sheets[0].sheet;
+    expect(setSheetUse(mapping, sheetName, 'ignore').sheets[0].use).toBe('ignore');
+    expect(() => setSheetUse(mapping, 'Nowhere', 'plots')).toThrow(
+      'The mapping has no sheet called "Nowhere".',
+    );
+  });
+
+  it('applyDecisions excludes with the reason, keep clears a sheet exclusion, nothing is removed', () => {
+    const demo = new Uint8Array(
+      readFileSync(new URL('../demo/wrenhollow-n-trials-2025.xlsx', import.meta.url)),
+    );
+    return readTrialFile({ name: 'demo.xlsx', bytes: demo }).then((raw) => {
+      const { table } = buildPlotTable(raw, detectColumns(raw), {
+        crop: 'corn',
+        rateBasis: 'nutrient',
+      });
+      const sheetExcluded = table.plots.find((p) => p.excluded?.by === 'sheet')!;
+      const ordinary = table.plots.find((p) => p.excluded === null)!;
+      let decisions = decide({}, [ordinary.id], { action: 'exclude', reason: 'hail strip' });
+      decisions = decide(decisions, [sheetExcluded.id], {
+        action: 'keep',
+        reason: 'note was wrong',
+      });
+      const out = applyDecisions(table, decisions);
+      expect(out.plots).toHaveLength(table.plots.length);
+      expect(out.plots.find((p) => p.id === ordinary.id)!.excluded).toEqual({
+        reason: 'hail strip',
+        by: 'user',
+      });
+      expect(out.plots.find((p) => p.id === sheetExcluded.id)!.excluded).toBeNull();
+      // Withdrawing a decision returns the plot to the sheet's own state.
+      const back = applyDecisions(table, decide(decisions, [sheetExcluded.id], null));
+      expect(back.plots.find((p) => p.id === sheetExcluded.id)!.excluded?.by).toBe('sheet');
+    });
+  });
+});

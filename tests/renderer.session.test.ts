@@ -1,0 +1,57 @@
+import { describe, expect, it } from 'vitest';
+import { checkSession } from '../renderer/src/lib/session';
+import { ILLUSTRATIVE_PRICES } from '../renderer/src/analysis/priceInputs';
+import { reportSettings } from '../renderer/src/analysis/reportInput';
+import { priceTerms } from '../shared/report/reportSettings';
+import { canonicalPrices } from '../renderer/src/analysis/priceInputs';
+
+const good = {
+  version: 1,
+  files: [{ name: 'a.csv', base64: 'aGk=' }],
+  edits: { mappings: {}, settings: { crop: 'corn', rateBasis: 'nutrient' }, decisions: {} },
+  prices: ILLUSTRATIVE_PRICES,
+  unitSystem: 'us',
+  locale: 'en-US',
+  choices: {},
+  blocks: 'fixed',
+  step: 'site',
+  selectedSite: null,
+};
+
+describe('checkSession', () => {
+  it('accepts a session this build wrote', () => {
+    expect(checkSession(JSON.parse(JSON.stringify(good)))).toEqual(good);
+  });
+
+  it.each([
+    ['another version', { ...good, version: 2 }],
+    ['files without bytes', { ...good, files: [{ name: 'a.csv' }] }],
+    ['prices as text', { ...good, prices: { ...ILLUSTRATIVE_PRICES, grainPerKg: '0.2' } }],
+    ['an unknown unit system', { ...good, unitSystem: 'imperial' }],
+    ['edits without decisions', { ...good, edits: { ...good.edits, decisions: undefined } }],
+  ])('refuses %s', (_label, data) => {
+    expect(checkSession(data)).toBeNull();
+  });
+});
+
+describe('reportSettings', () => {
+  it.each([
+    ['as listed (urea 46 %)', { ...ILLUSTRATIVE_PRICES }],
+    ['with a changed analysis', { ...ILLUSTRATIVE_PRICES, analysisPct: 40 }],
+    [
+      'with application cost 0 and another product',
+      { ...ILLUSTRATIVE_PRICES, productId: 'uan32' as const, analysisPct: 32 },
+    ],
+  ])('gives the report the nitrogen and grain prices the screen uses, %s', (_label, prices) => {
+    for (const [system, units] of [
+      ['us', { rate: 'lb/ac', yield: 'bu/ac' }],
+      ['metric', { rate: 'kg/ha', yield: 't/ha' }],
+    ] as const) {
+      const settings = reportSettings(prices, units, system, 'corn', 'fixed');
+      const terms = priceTerms(settings);
+      const screen = canonicalPrices(prices);
+      expect(terms.nutrientPricePerKg).toBeCloseTo(screen.nutrientPricePerKg, 10);
+      expect(terms.grainPricePerKg).toBeCloseTo(screen.grainPricePerKg, 10);
+    }
+  });
+});

@@ -1,0 +1,108 @@
+// The workspace's state classes with a real job server on a MessageChannel
+// (the same handlers the worker serves), no browser.
+import { afterEach, describe, expect, it } from 'vitest';
+import { syntheticCsv } from '../shared/demo/syntheticTrial';
+import { setColumnRole } from '../renderer/src/analysis/edits';
+import type { FileBridge } from '../renderer/src/lib/fileBridge';
+import { serveJobs, type Port } from '../renderer/src/lib/workerProtocol';
+import { Workspace } from '../renderer/src/state/workspace.svelte';
+import { jobHandlers } from '../renderer/src/worker/jobs';
+
+const channels: MessageChannel[] = [];
+function workspace(): Workspace {
+  const channel = new MessageChannel();
+  channels.push(channel);
+  serveJobs(channel.port2 as unknown as Port, jobHandlers);
+  channel.port1.start();
+  channel.port2.start();
+  const bridge: FileBridge = {
+    isDesktop: false,
+    openTrialFiles: async () => [],
+    exportFile: async (name) => name,
+    print: async () => {},
+    savePdf: async () => null,
+  };
+  return new Workspace(bridge, channel.port1 as unknown as Port);
+}
+afterEach(() => {
+  for (const c of channels.splice(0)) {
+    c.port1.close();
+    c.port2.close();
+  }
+});
+
+const file = () => ({
+  name: 'Four sites.csv',
+  bytes: new TextEncoder().encode(syntheticCsv({ sites: 4, seed: 21 })),
+});
+
+describe('Workspace state', () => {
+  it('opening a file detects its columns, builds the table and shows the column review', async () => {
+    const ws = workspace();
+    await ws.openFiles([file()]);
+    expect(ws.step).toBe('columns');
+    expect(ws.trial.table?.plots).toHaveLength(96);
+  });
+
+  it('a mapping change is undone and redone with the table following', async () => {
+    const ws = workspace();
+    await ws.openFiles([file()]);
+    const mapping = ws.trial.edits.mappings['Four sites.csv'];
+    const moisture = mapping.sheets[0].columns.find((c) => c.role === 'moisture')!;
+    const adjusted = ws.trial.table!.plots[0].yieldKgHa;
+    ws.trial.change('Moisture aside', {
+      ...ws.trial.edits,
+      mappings: {
+        'Four sites.csv': setColumnRole(mapping, mapping.sheets[0].sheet, moisture.col, 'ignore'),
+      },
+    });
+    expect(ws.trial.undoLabel).toBe('Moisture aside');
+    const raw = ws.trial.table!.plots[0].yieldKgHa;
+    expect(raw).not.toBe(adjusted);
+    ws.trial.undo();
+    expect(ws.trial.table!.plots[0].yieldKgHa).toBe(adjusted);
+    expect(ws.trial.redoLabel).toBe('Moisture aside');
+    ws.trial.redo();
+    expect(ws.trial.table!.plots[0].yieldKgHa).toBe(raw);
+  });
+
+  it('fits in the worker, then a price change re-prices the optima without a refit', async () => {
+    const ws = workspace();
+    await ws.openFiles([file()]);
+    await ws.analysis.run(ws.trial.table);
+    const output = ws.analysis.output;
+    expect(output?.sites).toHaveLength(4);
+    const before = ws.analysis.optima.map((o) => o.optimum?.rateKgHa ?? NaN);
+    ws.prices.update({ productPerKg: ws.prices.settings.productPerKg * 3 });
+    const after = ws.analysis.optima.map((o) => o.optimum?.rateKgHa ?? NaN);
+    expect(ws.analysis.output).toBe(output);
+    after.forEach((rate, i) => expect(rate).toBeLessThanOrEqual(before[i]));
+    expect(after.some((rate, i) => rate < before[i])).toBe(true);
+    expect(ws.prices.settings.illustrative).toBe(false);
+  });
+
+  it('a saved session restores the same files, edits and prices into a fresh workspace', async () => {
+    const ws = workspace();
+    await ws.openFiles([file()]);
+    const id = ws.trial.table!.plots[3].id;
+    ws.trial.change('Exclude', {
+      ...ws.trial.edits,
+      decisions: { [id]: { action: 'exclude', reason: 'wheel track' } },
+    });
+    ws.prices.update({ grainPerKg: 0.21 });
+    ws.settings.unitSystem = 'us';
+    ws.step = 'prices';
+    const saved = JSON.parse(JSON.stringify(ws.session()));
+
+    const again = workspace();
+    await again.restore(saved);
+    expect(again.sources.files[0].bytes).toEqual(ws.sources.files[0].bytes);
+    expect(again.trial.table!.plots.find((p) => p.id === id)!.excluded).toEqual({
+      reason: 'wheel track',
+      by: 'user',
+    });
+    expect(again.prices.settings.grainPerKg).toBe(0.21);
+    expect(again.settings.unitSystem).toBe('us');
+    expect(again.step).toBe('prices');
+  });
+});
