@@ -151,6 +151,21 @@ describe('writeWorkbook read back by SheetJS', () => {
     }
   });
 
+  it('writes no floating-point noise into text cells (numbers stay numbers, text is rounded)', () => {
+    for (const bytes of [usBytes, metricBytes]) {
+      const wb = XLSX.read(bytes);
+      for (const name of wb.SheetNames) {
+        const ws = wb.Sheets[name];
+        for (const key of Object.keys(ws)) {
+          if (key.startsWith('!')) continue;
+          const c = ws[key] as XLSX.CellObject;
+          // Eight or more decimals in prose is binary noise such as 201.75320811500205.
+          if (c.t === 's') expect(String(c.v), `${name}!${key}`).not.toMatch(/\d\.\d{8,}/);
+        }
+      }
+    }
+  });
+
   it('gives the same optima in kg N/ha at the same prices, converted by the exact factor', () => {
     const a = XLSX.read(usBytes).Sheets['Overview'];
     const b = XLSX.read(metricBytes).Sheets['Overview'];

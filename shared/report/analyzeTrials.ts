@@ -66,6 +66,29 @@ const CURVES = new Set<ModelName>([
 ]);
 
 /**
+ * A fit's status in words without numbers, for the same reason as the
+ * optimum note: the models stage writes its rates in kg/ha.
+ */
+function fitMessage(f: ModelFit): string {
+  switch (f.status) {
+    case 'ok':
+      return f.model === 'proportional'
+        ? 'R² is uncentered (about zero, not the mean): do not compare it with the others.'
+        : '';
+    case 'no-plateau':
+      return 'No plateau within the tested rates: the straight line (or the quadratic) fits as well.';
+    case 'full-response-at-lowest-rate':
+      return 'Full response by the lowest non-zero rate: the join lies between the two lowest rates and cannot be placed more precisely.';
+    case 'convex':
+      return 'The quadratic opens upward, so it has no maximum.';
+    case 'no-response':
+      return 'Yield does not rise with rate: the best curve is flat.';
+    case 'too-few-rates':
+      return f.message;
+  }
+}
+
+/**
  * The optimum's status in words without numbers: the writers show the rates
  * in their own units (the economics stage's explanation speaks kg/ha).
  */
@@ -353,7 +376,7 @@ export function analyzeTrials(
             model: name,
             label: f.label,
             status: f.status,
-            message: f.message,
+            message: fitMessage(f),
             params: { ...f.params },
             stdErrors: { ...f.stdErrors },
             sse: f.sse,
