@@ -1,0 +1,98 @@
+// parseArgs: every mistake in the command line becomes one sentence naming
+// the option and what is allowed; good input becomes the typed command.
+import { describe, expect, it } from 'vitest';
+import { parseArgs } from '../cli/parseArgs';
+
+describe('parseArgs', () => {
+  it('reads an analyze command with every option', () => {
+    const c = parseArgs([
+      'analyze',
+      'a.csv',
+      'b.xlsx',
+      '--out',
+      'r.xlsx',
+      '--pdf',
+      'r.pdf',
+      '--json',
+      'r.json',
+      '--crop',
+      'wheat',
+      '--units',
+      'metric',
+      '--grain-price',
+      '220',
+      '--product',
+      'UAN 32',
+      '--product-price',
+      '0.35',
+      '--boot',
+      '50',
+      '--seed',
+      '9',
+      '--blocks',
+      'fixed',
+      '--map',
+      'yield=Grain (t/ha)',
+      'block=Rep',
+    ]);
+    expect(c).toEqual({
+      command: 'analyze',
+      files: ['a.csv', 'b.xlsx'],
+      out: 'r.xlsx',
+      pdf: 'r.pdf',
+      json: 'r.json',
+      crop: 'wheat',
+      units: 'metric',
+      grainPrice: 220,
+      nutrientPrice: null,
+      product: 'uan32',
+      productPrice: 0.35,
+      boot: 50,
+      seed: 9,
+      blocks: 'fixed',
+      map: [
+        { role: 'yield', header: 'Grain (t/ha)' },
+        { role: 'block', header: 'Rep' },
+      ],
+    });
+  });
+
+  it('has defaults: corn, input units, 200 resamples, seed 1, no block terms', () => {
+    const c = parseArgs(['analyze', 'a.csv']);
+    expect(c).toMatchObject({
+      crop: 'corn',
+      units: null,
+      boot: 200,
+      seed: 1,
+      blocks: 'none',
+      out: null,
+    });
+  });
+
+  it.each([
+    [['analyze'], /at least one trial file/],
+    [['analyze', 'a.csv', '--boot', '-1'], /--boot -1: a whole number from 0 to 100000/],
+    [['analyze', 'a.csv', '--boot'], /--boot needs a value/],
+    [['analyze', 'a.csv', '--units', 'imperial'], /--units imperial: use us or metric/],
+    [['analyze', 'a.csv', '--crop', 'rice'], /--crop rice: use one of corn, wheat/],
+    [['analyze', 'a.csv', '--grain-price', '0'], /--grain-price 0: a price above 0/],
+    [['analyze', 'a.csv', '--map', 'colour=Red'], /"colour" is not a role/],
+    [['analyze', 'a.csv', '--map', 'yield'], /write role=Header/],
+    [
+      ['analyze', 'a.csv', '--product', 'water', '--product-price', '1'],
+      /--product water: use one of urea/,
+    ],
+    [['analyze', 'a.csv', '--product', 'urea'], /--product and --product-price go together/],
+    [['analyse', 'a.csv'], /Unknown command "analyse"/],
+    [['demo', '--folder', 'x'], /Unknown option for demo: --folder/],
+  ])('refuses %j', (argv, message) => {
+    expect(() => parseArgs(argv)).toThrow(message);
+  });
+
+  it('answers help and version', () => {
+    expect(parseArgs([])).toEqual({ command: 'help' });
+    expect(parseArgs(['analyze', '--help'])).toEqual({ command: 'help' });
+    expect(parseArgs(['--version'])).toEqual({ command: 'version' });
+    expect(parseArgs(['demo'])).toEqual({ command: 'demo', dir: 'plotrate-demo' });
+  });
+});
