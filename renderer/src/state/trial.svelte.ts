@@ -23,6 +23,8 @@ export const DEFAULT_EDITS: Edits = {
 
 export class Trial {
   edits = $state.raw<Edits>(DEFAULT_EDITS);
+  /** The table of an opened project, used while its spreadsheets are not open. */
+  projectTable = $state.raw<PlotTable | null>(null);
   undoLabel = $state<string | null>(null);
   redoLabel = $state<string | null>(null);
   readonly #undo = new UndoStack<Edits>();
@@ -48,7 +50,9 @@ export class Trial {
 
   built: Built | null = $derived.by(() => {
     const { books, maps } = this.#mapped;
-    if (books.length === 0) return null;
+    if (books.length === 0) {
+      return this.projectTable ? { ok: true, table: this.projectTable, findings: [] } : null;
+    }
     try {
       return { ok: true, ...buildPlotTable(books, maps, this.edits.settings) };
     } catch (error) {
