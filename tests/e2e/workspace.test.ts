@@ -96,6 +96,41 @@ describe('the workspace in chromium', () => {
     expect(session.pageErrors).toEqual([]);
   });
 
+  it('lists quality findings with their cells, and an exclusion from the list refits the site', async () => {
+    const { page } = session;
+    await page.getByRole('button', { name: /Quality/ }).click();
+    await page.getByRole('heading', { name: /Findings \(\d+\)/ }).waitFor();
+    // The demo stores a yield as text; its finding names the sheet and cell.
+    const finding = page.locator('li.finding', { hasText: 'stored as text' }).first();
+    await expect(finding.textContent()).resolves.toMatch(/› [A-Z]+\d+/);
+    await finding.getByRole('button', { name: 'Show row' }).click();
+    const row = page.locator('tr.focus');
+    await row.waitFor();
+    await page.getByPlaceholder('e.g. hail damage').fill('lodged after storm');
+    await row.getByRole('button', { name: 'Exclude' }).click();
+    await expect(row.textContent()).resolves.toContain('excluded (user): lodged after storm');
+    await shot(page, '05a-quality');
+    await page.getByRole('button', { name: /^Undo/ }).click();
+    await expect(page.locator('tr.focus').textContent()).resolves.toContain('in the fit');
+    expect(session.pageErrors).toEqual([]);
+  });
+
+  it('the US switch shows rates in lb/ac and yields in bu/ac everywhere', async () => {
+    const { page } = session;
+    await page.getByRole('button', { name: /One site/ }).click();
+    await page.getByText('US', { exact: true }).click();
+    await expect(page.getByTestId('site-optimum').textContent()).resolves.toMatch(/\d+ lb\/ac/);
+    await expect(page.getByTestId('model-table').textContent()).resolves.toContain('bu/ac');
+    await expect(page.getByTestId('price-ratio').first().textContent()).resolves.toMatch(
+      /bu\/lb N/,
+    );
+    await page.locator('[data-testid="chart"] .main-svg').first().waitFor();
+    await page.waitForTimeout(500);
+    await shot(page, '05b-us-units');
+    await page.getByText('Metric', { exact: true }).click();
+    await expect(page.getByTestId('site-optimum').textContent()).resolves.toMatch(/\d+ kg\/ha/);
+  });
+
   it('shows every site together with the regional rate and the pooling tests', async () => {
     const { page } = session;
     await page.getByRole('button', { name: /All sites/ }).click();
