@@ -32,6 +32,13 @@ describe('the workspace in chromium', () => {
     await chart.waitFor({ timeout: 30_000 });
     await page.getByTestId('site-optimum').waitFor();
     await expect(page.getByTestId('site-optimum').textContent()).resolves.toMatch(/\d+ kg\/ha/);
+    // The bootstrap interval arrives from the worker and is drawn as a band.
+    await page.getByText(/90 % interval \d+ kg\/ha to \d+ kg\/ha/).waitFor({ timeout: 60_000 });
+    await expect
+      // Before the interval the optimum line is the only shape; with the band there are two.
+      .poll(() => page.locator('[data-testid="chart"] .shapelayer path').count())
+      .toBeGreaterThanOrEqual(2);
+    await page.waitForTimeout(300);
     await shot(page, '01-demo-site');
     expect(session.pageErrors).toEqual([]);
   });
