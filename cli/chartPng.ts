@@ -5,6 +5,7 @@
  * which package to install instead of a chart with blank labels.
  */
 import { existsSync } from 'node:fs';
+import { availableParallelism } from 'node:os';
 import { Worker } from 'node:worker_threads';
 import { Resvg } from '@resvg/resvg-js';
 import { renderChartSvg } from '../shared/report/svgChart';
@@ -97,10 +98,8 @@ export async function chartPngs(
   const fontFiles = chartFontFiles();
   const family = familyOf(fontFiles[0]);
   const worker = new URL('./chartWorker.mjs', import.meta.url);
-  const out: Uint8Array[] = [];
-  for (let i = 0; i < specs.length; i += BATCH) {
-    const batch = specs.slice(i, i + BATCH);
-    const pngs = await new Promise<Uint8Array[]>((resolve, reject) => {
+  const draw = (batch: readonly ChartSpec[]): Promise<Uint8Array[]> =>
+    new Promise<Uint8Array[]>((resolve, reject) => {
       const w = new Worker(worker, {
         workerData: {
           svgs: batch.map((s) => renderChartSvg(s)),
@@ -119,8 +118,22 @@ export async function chartPngs(
           reject(new Error(`The chart worker stopped with code ${code}.`));
       });
     });
-    out.push(...pngs);
-    onBatch?.(out.length);
-  }
-  return out;
+  const batches: ChartSpec[][] = [];
+  for (let i = 0; i < specs.length; i += BATCH) batches.push(specs.slice(i, i + BATCH));
+  const results: Uint8Array[][] = new Array(batches.length);
+  // Two threads at most: enough to use a second core, few enough to leave the machine usable.
+  const lanes = Math.max(1, Math.min(2, availableParallelism(), batches.length));
+  let next = 0;
+  let done = 0;
+  await Promise.all(
+    Array.from({ length: lanes }, async () => {
+      while (next < batches.length) {
+        const k = next++;
+        results[k] = await draw(batches[k]);
+        done += results[k].length;
+        onBatch?.(done);
+      }
+    }),
+  );
+  return results.flat();
 }

@@ -21,6 +21,8 @@ export interface WorkbookOptions {
   siteCharts?: Record<string, SheetImage>;
   /** The regional return chart picture. */
   acrossChart?: SheetImage | null;
+  /** Deflate level 1–9 for the zip (exceljs's default when omitted). */
+  zipLevel?: number;
 }
 
 /**
@@ -71,6 +73,13 @@ export async function writeWorkbook(
   workbookEconomics(wb, report, paper);
   workbookGrowerSheet(wb, reportGrowerPages(report), paper);
   workbookProvenance(wb, report, paper);
-  const buf = await wb.xlsx.writeBuffer();
+  const buf = await wb.xlsx.writeBuffer(
+    // Level 1: the bulk is chart PNGs, already compressed, so harder deflating only costs time.
+    options.zipLevel === undefined
+      ? undefined
+      : ({
+          zip: { compression: 'DEFLATE', compressionOptions: { level: options.zipLevel } },
+        } as never),
+  );
   return new Uint8Array(buf as ArrayBuffer);
 }

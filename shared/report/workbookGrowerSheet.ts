@@ -1,13 +1,13 @@
 /**
  * The print-ready recommendation sheet: every grower page one after another,
- * a page break between them, in a portrait layout that prints one
- * recommendation per sheet of paper.
+ * a page break between them, portrait, one recommendation per sheet of paper.
+ * Two columns (a label, then the text wrapped in a wide column) instead of
+ * merged cells: exceljs checks every new merge against all earlier ones, which
+ * made a thousand-site workbook take most of a minute on this sheet alone.
  */
 import type ExcelJS from 'exceljs';
 import type { GrowerPage } from './growerPage';
 import { setupPage } from './workbookFormat';
-
-const COLS = 6;
 
 /**
  * Adds the recommendations sheet.
@@ -22,60 +22,57 @@ export function workbookGrowerSheet(
   paper: 'letter' | 'a4',
 ): ExcelJS.Worksheet {
   const ws = wb.addWorksheet('Recommendations');
-  ws.getColumn(1).width = 30;
-  for (let c = 2; c <= COLS; c++) ws.getColumn(c).width = 14;
+  ws.getColumn(1).width = 26;
+  ws.getColumn(2).width = 78;
   let r = 1;
-  const line = (text: string, font: Partial<ExcelJS.Font> = {}, height?: number): void => {
-    ws.mergeCells(r, 1, r, COLS);
-    const cell = ws.getCell(r, 1);
-    cell.value = text;
-    cell.font = font;
-    cell.alignment = { wrapText: true, vertical: 'top' };
-    if (height) ws.getRow(r).height = height;
-    r++;
-  };
-  const pair = (label: string, value: string): void => {
-    ws.getCell(r, 1).value = label;
-    ws.getCell(r, 1).font = { bold: true };
-    ws.mergeCells(r, 2, r, COLS);
-    ws.getCell(r, 2).value = value;
-    ws.getCell(r, 2).alignment = { wrapText: true };
+  /** A label (bold) and a wrapped text beside it; the row grows for long text. */
+  const line = (label: string, text: string, font: Partial<ExcelJS.Font> = {}): void => {
+    const a = ws.getCell(r, 1);
+    a.value = label;
+    a.font = { bold: true };
+    a.alignment = { vertical: 'top', wrapText: true };
+    const b = ws.getCell(r, 2);
+    b.value = text;
+    b.font = font;
+    b.alignment = { wrapText: true, vertical: 'top' };
+    // Excel does not grow a row for wrapped text written by a program: about 78 characters a line.
+    const lines = Math.max(1, Math.ceil(text.length / 78));
+    ws.getRow(r).height = Math.max(15, 15 * lines * ((font.size ?? 11) / 11));
     r++;
   };
   pages.forEach((p, i) => {
-    if (i > 0) {
-      ws.getRow(r - 1).addPageBreak();
-    }
-    line(`${p.heading}: ${p.subject}`, { bold: true, size: 16 }, 24);
-    line(p.cropLabel, { size: 11, color: { argb: 'FF555555' } });
+    if (i > 0) ws.getRow(r - 1).addPageBreak();
+    const title = ws.getCell(r, 1);
+    title.value = `${p.heading}: ${p.subject}`;
+    title.font = { bold: true, size: 16 };
+    ws.getRow(r).height = 24;
     r++;
-    line(p.recommendation, { bold: true, size: 20 }, 30);
-    if (p.productRecommendation) line(p.productRecommendation, { size: 13 });
+    ws.getCell(r, 1).value = p.cropLabel;
+    ws.getCell(r, 1).font = { color: { argb: 'FF555555' } };
+    r += 2;
+    line('Recommendation', p.recommendation, { bold: true, size: 16 });
+    if (p.productRecommendation) line('As product', p.productRecommendation);
+    for (const f of p.facts) line(f.label, f.value);
     r++;
-    for (const f of p.facts) pair(f.label, f.value);
+    line('How sure is this?', p.certainty.text);
     r++;
-    line('How sure is this?', { bold: true, size: 12 });
-    line(p.certainty.text, {}, 32);
+    for (const f of p.prices) line(f.label, f.value);
     r++;
-    line('Prices assumed', { bold: true, size: 12 });
-    for (const f of p.prices) pair(f.label, f.value);
-    r++;
-    line('What this rests on', { bold: true, size: 12 });
-    for (const b of p.basis) line(b, {}, 30);
+    p.basis.forEach((b, k) => line(k === 0 ? 'What this rests on' : '', b));
     if (p.warnings.length) {
       r++;
-      line('Please note', { bold: true, size: 12, color: { argb: 'FF9C4A00' } });
-      for (const w of p.warnings) line(w, { color: { argb: 'FF9C4A00' } }, 30);
+      p.warnings.forEach((w, k) =>
+        line(k === 0 ? 'Please note' : '', w, { color: { argb: 'FF9C4A00' } }),
+      );
     }
     r++;
-    line('Cautions', { bold: true, size: 12 });
-    for (const c of p.cautions) line(`• ${c}`, {}, 30);
+    p.cautions.forEach((c, k) => line(k === 0 ? 'Cautions' : '', `• ${c}`));
     r++;
-    line(p.footer, { size: 8, color: { argb: 'FF777777' } });
-    r++;
+    ws.getCell(r, 1).value = p.footer;
+    ws.getCell(r, 1).font = { size: 8, color: { argb: 'FF777777' } };
+    r += 2;
   });
-  ws.pageSetup.printArea = `A1:F${Math.max(1, r - 1)}`;
+  ws.pageSetup.printArea = `A1:B${Math.max(1, r - 1)}`;
   setupPage(ws, paper, 'portrait');
-  // One recommendation per page: fit width only, let page breaks split.
   return ws;
 }
