@@ -265,7 +265,12 @@ export async function analyzeCommand(
     log.err(`plotrate: writing ${args.out}`);
     writeAtomically(
       args.out,
-      await writeWorkbook(report, { siteCharts: charts.sites, acrossChart: charts.region }),
+      await writeWorkbook(report, {
+        siteCharts: charts.sites,
+        acrossChart: charts.region,
+        // Fast deflate for big runs: most bytes are PNGs that do not shrink further.
+        zipLevel: report.sites.length > 100 ? 1 : undefined,
+      }),
     );
   }
   if (args.pdf && charts) {
