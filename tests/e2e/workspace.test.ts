@@ -156,6 +156,15 @@ describe('the workspace in chromium', () => {
     await page.getByTestId('grower-page').waitFor({ timeout: 60_000 });
     await expect(page.getByTestId('grower-recommendation').textContent()).resolves.toMatch(/\d/);
     await shot(page, '06-grower-page');
+    // Printed: the grower page alone, with its cautions; the workspace around it stays off paper.
+    await page.emulateMedia({ media: 'print' });
+    await expect(page.getByRole('navigation', { name: 'Steps' }).isVisible()).resolves.toBe(false);
+    await expect(page.getByTestId('export-workbook').isVisible()).resolves.toBe(false);
+    await expect(page.getByTestId('grower-page').getByText('Cautions').isVisible()).resolves.toBe(
+      true,
+    );
+    await shot(page, '06b-grower-page-print');
+    await page.emulateMedia({ media: 'screen' });
     const [download] = await Promise.all([
       page.waitForEvent('download', { timeout: 60_000 }),
       page.getByTestId('export-workbook').click(),
