@@ -5,6 +5,7 @@ import { detectColumns } from '../../../shared/import/detectColumns';
 import { buildPlotTable } from '../../../shared/import/buildPlotTable';
 import { isImportError } from '../../../shared/import/importError';
 import type { RawWorkbook } from '../../../shared/import/rawWorkbook';
+import { checkQuality } from '../../../shared/quality/checkQuality';
 import type { QualityFinding } from '../../../shared/quality/qualityFinding';
 import type { PlotTable } from '../../../shared/table/plotTable';
 import { applyDecisions, type Edits } from '../analysis/edits';
@@ -67,7 +68,28 @@ export class Trial {
     this.built?.ok ? applyDecisions(this.built.table, this.edits.decisions) : null,
   );
 
-  findings: QualityFinding[] = $derived(this.built?.ok ? this.built.findings : []);
+  /**
+   * Findings from reading the cells and from the data checks. The checks run on
+   * the table as built (before the user's decisions), so a finding stays listed
+   * with the decision taken on it.
+   */
+  findings: QualityFinding[] = $derived.by(() => {
+    const built = this.built;
+    if (!built?.ok) return [];
+    try {
+      return [...built.findings, ...checkQuality(built.table)];
+    } catch (error) {
+      return [
+        ...built.findings,
+        {
+          code: 'model-not-fitted',
+          severity: 'warning',
+          message: `The data checks could not run: ${error instanceof Error ? error.message : String(error)}`,
+          refs: [],
+        },
+      ];
+    }
+  });
 
   /** Detects the columns of workbooks that have no mapping yet (not an undoable step). */
   detectNew(): void {
