@@ -51,3 +51,11 @@ describe('renderer format', () => {
     expect(formatMoney(1.2, 'bushels-of-goodwill', 'en-US')).toBe('1.20 bushels-of-goodwill');
   });
 });
+
+describe('plotlySeparators', () => {
+  it('takes the decimal and group marks from the locale', async () => {
+    const { plotlySeparators } = await import('../renderer/src/lib/format');
+    expect(plotlySeparators('en-US')).toBe('.,');
+    expect(plotlySeparators('de-DE')).toBe(',.');
+  });
+});

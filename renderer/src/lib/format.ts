@@ -243,3 +243,18 @@ export function formatMoneyPerArea(
   const amount = perAcre ? (perHa * M2_PER_ACRE) / M2_PER_HA : perHa;
   return `${formatMoney(amount, currency, locale)}/${perAcre ? 'ac' : 'ha'}`;
 }
+
+/**
+ * Plotly's `separators` layout value (decimal mark then group mark) for a locale,
+ * so chart ticks read like the numbers beside them.
+ * @param locale - a BCP 47 tag
+ * @returns e.g. '.,' for en-US, ',.' for de-DE
+ * @example
+ * plotlySeparators('fr-FR') // ', ' (a narrow no-break space groups thousands)
+ */
+export function plotlySeparators(locale?: string): string {
+  const parts = new Intl.NumberFormat(locale).formatToParts(12345.6);
+  const decimal = parts.find((p) => p.type === 'decimal')?.value ?? '.';
+  const group = parts.find((p) => p.type === 'group')?.value ?? ',';
+  return decimal + group;
+}
