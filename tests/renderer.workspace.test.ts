@@ -106,3 +106,17 @@ describe('Workspace state', () => {
     expect(again.step).toBe('prices');
   });
 });
+
+describe('Workspace reopening a file', () => {
+  it('a file opened again under the same name gets a mapping for its new layout', async () => {
+    const ws = workspace();
+    await ws.openFiles([file()]);
+    // Same name, different layout: plot weights instead of yields would break the old mapping.
+    const csv =
+      'Site,Block,N (kg N/ha),Yield (t/ha)\nA,1,0,7.1\nA,1,100,9.9\nA,2,0,6.8\nA,2,100,10.2\n';
+    await ws.openFiles([{ name: 'Four sites.csv', bytes: new TextEncoder().encode(csv) }]);
+    expect(ws.trial.built?.ok).toBe(true);
+    expect(ws.trial.table!.plots).toHaveLength(4);
+    expect(ws.trial.table!.plots[1].rateKgHa).toBe(100);
+  });
+});

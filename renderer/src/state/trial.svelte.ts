@@ -2,6 +2,7 @@
 // (all undoable), and the plot table and findings that follow from them.
 import type { ColumnMapping } from '../../../shared/import/columnMapping';
 import { detectColumns } from '../../../shared/import/detectColumns';
+import { reuseMapping } from '../../../shared/import/reuseMapping';
 import { buildPlotTable } from '../../../shared/import/buildPlotTable';
 import { isImportError } from '../../../shared/import/importError';
 import type { RawWorkbook } from '../../../shared/import/rawWorkbook';
@@ -91,12 +92,22 @@ export class Trial {
     }
   });
 
-  /** Detects the columns of workbooks that have no mapping yet (not an undoable step). */
-  detectNew(): void {
-    const missing = this.#sources.workbooks.filter((b) => !this.edits.mappings[b.file.name]);
-    if (missing.length === 0) return;
+  /**
+   * Detects the columns of workbooks that have no mapping yet (not an undoable
+   * step). A file opened again under the same name keeps the user's column
+   * choices when its layout is the same (reuseMapping), else is detected afresh.
+   * @param reopened - names of files just read again
+   */
+  detectNew(reopened: readonly string[] = []): void {
+    const books = this.#sources.workbooks.filter(
+      (b) => !this.edits.mappings[b.file.name] || reopened.includes(b.file.name),
+    );
+    if (books.length === 0) return;
     const mappings = { ...this.edits.mappings };
-    for (const book of missing) mappings[book.file.name] = detectColumns(book);
+    for (const book of books) {
+      const saved = mappings[book.file.name];
+      mappings[book.file.name] = saved ? reuseMapping(book, saved).mapping : detectColumns(book);
+    }
     this.edits = { ...this.edits, mappings };
   }
 

@@ -122,8 +122,9 @@ export class Workspace {
   async openFiles(files: TrialFileBytes[]): Promise<void> {
     const before = this.sources.workbooks.length;
     const stepBefore = this.step;
+    const reopened = files.map((f) => f.name).filter((n) => this.trial.edits.mappings[n]);
     await this.sources.add(files);
-    this.trial.detectNew();
+    this.trial.detectNew(reopened);
     for (const file of files) {
       const mapping = this.trial.edits.mappings[file.name];
       if (mapping && !mapping.sheets.some((s) => s.use === 'plots')) {
