@@ -120,3 +120,18 @@ describe('Workspace reopening a file', () => {
     expect(ws.trial.table!.plots[1].rateKgHa).toBe(100);
   });
 });
+
+describe('Workspace stopping the fits', () => {
+  it('Cancel stops the fits, says so, and a new run fits the same table', async () => {
+    const ws = workspace();
+    await ws.openFiles([file()]);
+    const running = ws.analysis.run(ws.trial.table);
+    ws.jobs.cancel();
+    await running;
+    expect(ws.analysis.stopped).toBe(true);
+    expect(ws.analysis.output).toBeNull();
+    await ws.analysis.run(ws.trial.table);
+    expect(ws.analysis.stopped).toBe(false);
+    expect(ws.analysis.output?.sites).toHaveLength(4);
+  });
+});

@@ -20,6 +20,8 @@ export class Analysis {
   choices = $state<Record<string, ModelName>>({});
   blocks = $state<BlockTerms>('fixed');
   selectedSite = $state<string | null>(null);
+  /** True when the user stopped the fits before they finished. */
+  stopped = $state(false);
   /** Site → interval of the leading model's optimum, kg/ha (bootstrap, at the current prices). */
   intervals = $state.raw<Record<string, [number, number]>>({});
   /** The table the current output was fitted to (identity), to skip refitting the same one. */
@@ -88,12 +90,19 @@ export class Analysis {
       return;
     }
     this.intervals = {};
+    this.stopped = false;
     try {
       const output = await this.#jobs.run<AnalysisOutput>('Fitting sites', 'analyse', {
         table: $state.snapshot(table),
         blocks: this.blocks,
       });
       if (output && this.#fittedTable === table) this.output = output;
+      if (!output && this.#fittedTable === table) {
+        // Stopped from the status bar: forget the table so "Fit again" (or any change) refits it.
+        this.#fittedTable = null;
+        this.output = null;
+        this.stopped = true;
+      }
     } catch (error) {
       const detail = error instanceof JobFailedError ? error.message : String(error);
       this.#messages.add('error', 'The fits could not be completed', detail);
