@@ -1,39 +1,45 @@
 /**
- * Runs every analysis stage on a plot table and assembles the one summary the
- * report writers read (TrialReport): per site the intercept test, the ANOVA
- * with treatment means ± SE, the six model fits with their optima, the chosen
- * model and its bootstrap interval, the profitable range; across sites the
- * regional rate and the pooling tests. Pure: no I/O, the caller passes the
- * tool version, the time and the mapping it used.
+ * The report summary (TrialReport) every writer reads, built on the one
+ * across-site analysis: analyseAcrossSites (shared/sites) fits every site with
+ * every model, ranks them, picks each site's recommendation model
+ * (recommendationModel), prices the optima and computes the regional rate and
+ * the pooling tests. On top of that this module adds only what the report
+ * needs: the ANOVA with treatment means ± SE (siteAnova), the bootstrap
+ * interval of the recommendation model's optimum, the site's profitable range,
+ * and notes in words without numbers, so that each writer can show the rates in
+ * its own display units. Pure: no I/O, the caller passes the tool version, the
+ * time and the mapping it used.
  */
-import { economicOptimum, type EconomicOptimum } from '../economics/economicOptimum';
 import type { Prices } from '../economics/priceRatio';
-import { fitAllModels, type AllModelsFit } from '../models/fitAllModels';
-import type { ModelFit, ModelName } from '../models/modelTypes';
-import { testCommonResponse } from '../sites/commonResponseTests';
+import type { ModelName } from '../models/modelTypes';
+import { curveValue } from '../models/curveValue';
+import { describeRef, type QualityFinding } from '../quality/qualityFinding';
+import {
+  analyseAcrossSites,
+  type AcrossSiteAnalysis,
+  type FitData,
+  type SiteAnalysis,
+} from '../sites/analyseAcrossSites';
 import { rateGrid } from '../sites/rateGrid';
 import {
+  ONE_PER_ACRE_IN_PER_HA,
   prepareRegionalReturn,
   regionalReturnAtPrices,
-  ONE_PER_ACRE_IN_PER_HA,
 } from '../sites/regionalReturn';
-import { sitePlots } from '../sites/sitePlots';
-import { testIntercept } from '../stats/interceptTest';
-import { oneWayAnova } from '../stats/oneWayAnova';
-import { randomizedBlockAnova } from '../stats/randomizedBlockAnova';
-import { describeRef, type QualityFinding } from '../quality/qualityFinding';
-import { analysablePlots, siteNames, type PlotTable } from '../table/plotTable';
+import type { SiteModelRow } from '../sites/siteModelRows';
+import { sitePlots, type SitePlots } from '../sites/sitePlots';
+import type { Plot, PlotTable } from '../table/plotTable';
 import { bootstrapSiteOptimum } from './bootstrapSiteOptimum';
+import { fitMessage, optimumNote } from './modelNotes';
 import { priceTerms, type ReportSettings } from './reportSettings';
+import { siteAnova } from './siteAnova';
 import type {
   AcrossSitesReport,
-  AnovaSummary,
   InterceptSummary,
   LackOfFitSummary,
   MappingEntry,
   ModelRow,
   SiteReport,
-  TreatmentMeanRow,
   TrialReport,
 } from './trialReport';
 
@@ -50,184 +56,36 @@ export interface AnalyzeMeta {
   onProgress?: (done: number, total: number) => void;
 }
 
-/** Optima that are a rate the page can print (the others explain why there is none). */
-const HAS_RATE = new Set<EconomicOptimum['status']>([
-  'interior',
-  'zero',
-  'capped-at-highest',
-  'corner',
-]);
-/** Curves preferred over the straight lines when both give a rate (a line only gives a corner). */
-const CURVES = new Set<ModelName>([
-  'quadratic',
-  'linearPlateau',
-  'quadraticPlateau',
-  'exponential',
-]);
+/** Points on each fitted curve for the charts and files of the report. */
+const REPORT_CURVE_POINTS = 81;
 
-/**
- * A fit's status in words without numbers, for the same reason as the
- * optimum note: the models stage writes its rates in kg/ha.
- */
-function fitMessage(f: ModelFit): string {
-  switch (f.status) {
-    case 'ok':
-      return f.model === 'proportional'
-        ? 'R² is uncentered (about zero, not the mean): do not compare it with the others.'
-        : '';
-    case 'no-plateau':
-      return 'No plateau within the tested rates: the straight line (or the quadratic) fits as well.';
-    case 'full-response-at-lowest-rate':
-      return 'Full response by the lowest non-zero rate: the join lies between the two lowest rates and cannot be placed more precisely.';
-    case 'convex':
-      return 'The quadratic opens upward, so it has no maximum.';
-    case 'no-response':
-      return 'Yield does not rise with rate: the best curve is flat.';
-    case 'too-few-rates':
-      return f.message;
+/** The intercept test as the report shows it; null with too few plots or rates to test. */
+function interceptSummary(
+  s: SiteAnalysis,
+  plots: SitePlots,
+  distinctRates: number,
+  warnings: string[],
+): InterceptSummary | null {
+  if (plots.rateKgHa.length < 3 || distinctRates < 2) return null;
+  const t = s.intercept;
+  if ('problem' in t) {
+    warnings.push(`Intercept test not possible: ${t.problem}`);
+    return null;
   }
-}
-
-/**
- * The optimum's status in words without numbers: the writers show the rates
- * in their own units (the economics stage's explanation speaks kg/ha).
- */
-function optimumNote(o: EconomicOptimum): string {
-  switch (o.status) {
-    case 'interior':
-      return '';
-    case 'zero':
-      return 'At these prices nitrogen does not pay here: the first unit already returns less than it costs.';
-    case 'capped-at-highest':
-      return 'The optimum lies beyond the highest tested rate; the highest tested rate is given instead.';
-    case 'corner':
-      return 'A straight line never levels off, so it gives only a corner (no N or the highest tested rate); a curve says more.';
-    case 'join-in-first-interval':
-      return 'Full response by the lowest non-zero rate: the optimum lies between the two lowest rates and cannot be given as one number.';
-    case 'not-available':
-      return 'This fit has no economic optimum (no plateau, no maximum or no response).';
-  }
-}
-
-function chooseModel(
-  all: AllModelsFit,
-  optima: Map<ModelName, EconomicOptimum>,
-): { model: ModelName | null; reason: string } {
-  const ranked = all.ranking.filter((r) => r.rank !== null);
-  const usable = ranked.filter((r) => HAS_RATE.has(optima.get(r.model)!.status));
-  const curve = usable.find((r) => CURVES.has(r.model));
-  if (curve) {
-    const first = ranked[0];
-    return {
-      model: curve.model,
-      reason:
-        first && first.model === curve.model
-          ? `lowest AICc of the models fitted, Akaike weight ${curve.weight.toFixed(2)}`
-          : `lowest AICc among the curves with an economic optimum, ΔAICc ${curve.deltaAicc.toFixed(1)} from the best`,
-    };
-  }
-  if (usable.length) {
-    return {
-      model: usable[0].model,
-      reason: 'no curve gave an optimum; a straight line gives only a corner rate',
-    };
-  }
-  return { model: null, reason: 'no model gave an economic optimum' };
-}
-
-function anovaSummary(
-  rates: number[],
-  yields: number[],
-  blocks: (string | null)[],
-): { anova: AnovaSummary | null; means: TreatmentMeanRow[] } {
-  const distinct = new Set(rates).size;
-  if (distinct < 2 || rates.length <= distinct) return { anova: null, means: [] };
-  const hasBlocks = blocks.every((b) => b !== null) && new Set(blocks).size > 1;
-  const toRow = (level: string, n: number, mean: number, se: number): TreatmentMeanRow => ({
-    rateKgHa: Number(level),
-    n,
-    meanKgHa: mean,
-    seKgHa: se,
-  });
-  try {
-    if (hasBlocks) {
-      const a = randomizedBlockAnova({ treatment: rates, block: blocks as string[], y: yields });
-      const line = (
-        source: string,
-        s: { df: number; ss: number; ms: number },
-        F: number | null,
-        p: number | null,
-      ) => ({ source, df: s.df, ss: s.ss, ms: s.ms, F, p });
-      return {
-        anova: {
-          design: 'rcbd',
-          rows: [
-            line('Blocks', a.blocks, a.blockF, a.blockP),
-            line('N rate', a.treatments, a.F, a.p),
-            line('Error', a.error, null, null),
-            { ...line('Total', a.total, null, null), ms: null },
-          ],
-          cvPercent: a.cvPercent,
-          lsdKgHa: a.lsd.lsd,
-          notes: [],
-          missingPlots: a.missingPlots.map((m) => ({
-            rateKgHa: Number(m.treatment),
-            block: m.block,
-          })),
-        },
-        means: a.treatmentMeans
-          .map((m) => toRow(m.level, m.n, m.mean, m.se))
-          .sort((x, y) => x.rateKgHa - y.rateKgHa),
-      };
-    }
-    const a = oneWayAnova({ treatment: rates, y: yields });
-    return {
-      anova: {
-        design: 'oneWay',
-        rows: [
-          {
-            source: 'N rate',
-            df: a.between.df,
-            ss: a.between.ss,
-            ms: a.between.ms,
-            F: a.F,
-            p: a.p,
-          },
-          { source: 'Error', df: a.within.df, ss: a.within.ss, ms: a.within.ms, F: null, p: null },
-          { source: 'Total', df: a.total.df, ss: a.total.ss, ms: null, F: null, p: null },
-        ],
-        cvPercent: a.cvPercent,
-        lsdKgHa: a.lsd.lsd,
-        notes: [],
-        missingPlots: [],
-      },
-      means: a.treatments
-        .map((m) => toRow(m.level, m.n, m.mean, m.se))
-        .sort((x, y) => x.rateKgHa - y.rateKgHa),
-    };
-  } catch {
-    // Too few replicates or identical yields: no ANOVA, which the sheet says.
-    return { anova: null, means: [] };
-  }
-}
-
-function interceptSummary(rates: number[], yields: number[]): InterceptSummary | null {
-  if (rates.length < 3 || new Set(rates).size < 2) return null;
-  const t = testIntercept(rates, yields);
   return {
     t: t.t,
     F: t.F,
     df1: t.df1,
     df2: t.df2,
     p: t.p,
-    interceptKgHa: t.intercept.estimate,
-    interceptSeKgHa: t.intercept.stdError,
-    interceptNeeded: t.interceptNeeded,
+    interceptKgHa: t.interceptKgHa,
+    interceptSeKgHa: t.interceptSeKgHa,
+    interceptNeeded: t.needed,
     verdict: t.verdict,
   };
 }
 
-function lackOfFitOf(fit: ModelFit | null): LackOfFitSummary {
+function lackOfFitOf(fit: FitData | null): LackOfFitSummary {
   if (!fit) return { available: false, model: null, message: 'No chosen model.' };
   const l = fit.lackOfFit;
   if (!l) {
@@ -249,15 +107,58 @@ function lackOfFitOf(fit: ModelFit | null): LackOfFitSummary {
 }
 
 /** Rates within `band` of the best return on the chosen curve, kg/ha. */
-function siteProfitableRange(fit: ModelFit, prices: Prices, band: number): [number, number] {
+function siteProfitableRange(fit: FitData, prices: Prices, band: number): [number, number] {
   const t = fit.testedRates;
   const step = Math.max((t.highestKgHa - t.lowestKgHa) / 400, 0.25);
+  const at0 = curveValue(fit.model, fit.params, 0);
   const prepared = prepareRegionalReturn(
-    [{ site: 's', gainKgHa: (x) => fit.predict(x) - fit.predict(0) }],
+    [{ site: 's', gainKgHa: (x) => curveValue(fit.model, fit.params, x) - at0 }],
     rateGrid(t.lowestKgHa, t.highestKgHa, step),
   );
   const r = regionalReturnAtPrices(prepared, prices, { bandPerHa: band });
   return [r.profitableRange.lowKgHa, r.profitableRange.highKgHa];
+}
+
+/** Quality findings of warning or error severity as lines, by site and for the whole run. */
+function findingLines(findings: readonly QualityFinding[]): {
+  bySite: Map<string, string[]>;
+  run: string[];
+} {
+  const bySite = new Map<string, string[]>();
+  const run: string[] = [];
+  for (const f of findings) {
+    if (f.severity === 'info') continue;
+    const ref = f.refs.length ? describeRef(f.refs[0]) : '';
+    const text = ref && !f.message.includes(f.refs[0].cell) ? `${f.message} (${ref})` : f.message;
+    if (f.site === undefined) run.push(text);
+    else bySite.set(f.site, [...(bySite.get(f.site) ?? []), text]);
+  }
+  return { bySite, run };
+}
+
+/** One model's row of the report, from the analysis' fit and its priced row. */
+function modelRow(f: FitData, row: SiteModelRow, ciKgHa: [number, number] | null): ModelRow {
+  return {
+    model: f.model,
+    label: f.label,
+    status: f.status,
+    message: fitMessage(f),
+    params: { ...f.params },
+    stdErrors: { ...f.stdErrors },
+    sse: f.sse,
+    dfResidual: f.dfResidual,
+    aicc: f.aicc,
+    r2: f.r2,
+    optimumRateKgHa: row.optimumRateKgHa,
+    optimumCiKgHa: ciKgHa,
+    yieldAtOptimumKgHa: row.yieldAtOptimumKgHa,
+    optimumNote:
+      row.optimumStatus === 'not-fitted' ? '' : optimumNote({ status: row.optimumStatus }),
+    curve: {
+      rateKgHa: Array.from(f.curve.rateKgHa),
+      yieldKgHa: Array.from(f.curve.yieldKgHa),
+    },
+  };
 }
 
 /**
@@ -282,157 +183,39 @@ export function analyzeTrials(
     nutrientPricePerKg: terms.nutrientPricePerKg,
   };
   const band = ONE_PER_ACRE_IN_PER_HA;
-  const usableAll = analysablePlots(table);
-  const names = siteNames(table);
-  const sites: SiteReport[] = [];
-  const chosenFits = new Map<string, ModelFit>();
-  const findingsBySite = new Map<string, string[]>();
-  const runFindings: string[] = [];
-  for (const f of meta.findings ?? []) {
-    if (f.severity === 'info') continue;
-    const ref = f.refs.length ? describeRef(f.refs[0]) : '';
-    const text = ref && !f.message.includes(f.refs[0].cell) ? `${f.message} (${ref})` : f.message;
-    if (f.site === undefined) runFindings.push(text);
-    else findingsBySite.set(f.site, [...(findingsBySite.get(f.site) ?? []), text]);
+  const plotsOf = sitePlots(table);
+  // Fixed blocks where every plot of the site has a label; the report's groups are not needed.
+  const analysis = analyseAcrossSites(plotsOf, {
+    prices,
+    blocks: settings.blocks === 'fixed' ? 'auto' : 'none',
+    bandPerHa: band,
+    groupKeys: [],
+    curvePoints: REPORT_CURVE_POINTS,
+  });
+  const tablePlots = new Map<string, Plot[]>(plotsOf.map((p) => [p.site, []]));
+  for (const p of table.plots) tablePlots.get(p.site)?.push(p);
+  const rowsOf = new Map<string, Map<ModelName, SiteModelRow>>();
+  for (const r of analysis.rows) {
+    const m = rowsOf.get(r.site) ?? new Map<ModelName, SiteModelRow>();
+    m.set(r.model, r);
+    rowsOf.set(r.site, m);
   }
-  names.forEach((site, index) => {
-    const plots = table.plots.filter((p) => p.site === site);
-    const used = usableAll.filter((p) => p.site === site);
-    const rates = used.map((p) => p.rateKgHa!);
-    const yields = used.map((p) => p.yieldKgHa!);
-    const blocks = used.map((p) => p.block);
-    const found = findingsBySite.get(site) ?? [];
-    // A long list hides the important lines; the rest are in the quality report on screen.
-    const warnings: string[] =
-      found.length > 6
-        ? [...found.slice(0, 5), `… and ${found.length - 5} more findings about this site's data.`]
-        : [...found];
-    const distinct = [...new Set(rates)].sort((a, b) => a - b);
-    const blockCount = new Set(blocks.filter((b) => b !== null)).size;
-    const designText = `${blockCount > 0 ? `${blockCount} block${blockCount === 1 ? '' : 's'} × ` : ''}${distinct.length} rate${distinct.length === 1 ? '' : 's'}`;
-    const blocksMode =
-      settings.blocks === 'fixed' && blocks.every((b) => b !== null) ? 'fixed' : 'none';
-    if (settings.blocks === 'fixed' && blocksMode === 'none')
-      warnings.push(
-        'Some plots have no block label, so the curves were fitted without block terms.',
-      );
-    const { anova, means } = anovaSummary(rates, yields, blocks);
-    let interceptTest: InterceptSummary | null = null;
-    try {
-      interceptTest = interceptSummary(rates, yields);
-    } catch (e) {
-      warnings.push(`Intercept test not possible: ${(e as Error).message}`);
-    }
-    let all: AllModelsFit | null = null;
-    if (distinct.length >= 2) {
-      try {
-        all = fitAllModels(
-          { rateKgHa: rates, yieldKgHa: yields, block: blocks },
-          { blocks: blocksMode, curvePoints: 81 },
-        );
-      } catch (e) {
-        warnings.push(`The curves could not be fitted: ${(e as Error).message}`);
-      }
-    } else {
-      warnings.push(
-        `Only ${distinct.length} distinct rate${distinct.length === 1 ? '' : 's'} with usable plots: no response curve can be fitted.`,
-      );
-    }
-    const optima = new Map<ModelName, EconomicOptimum>();
-    if (all)
-      for (const f of Object.values(all.fits)) optima.set(f.model, economicOptimum(f, prices));
-    const choice = all
-      ? chooseModel(all, optima)
-      : { model: null, reason: 'no model could be fitted' };
-    const bestFit = all && choice.model ? all.fits[choice.model] : null;
-    let bootstrap: SiteReport['bootstrap'] = null;
-    if (bestFit && settings.boot > 0) {
+  const found = findingLines(meta.findings ?? []);
+  const sites: SiteReport[] = analysis.sites.map((s, index) => {
+    const report = siteReport(s, plotsOf[index], tablePlots.get(s.site) ?? [], {
+      rows: rowsOf.get(s.site)!,
+      findings: found.bySite.get(s.site) ?? [],
+      settings,
+      prices,
+      band,
       // One seed per site, derived from the run's seed, so a site's interval does not depend on the sites before it.
-      const b = bootstrapSiteOptimum(
-        {
-          rateKgHa: rates,
-          yieldKgHa: yields,
-          block: blocks,
-          model: bestFit.model,
-          blocks: blocksMode,
-          prices,
-        },
-        settings.boot,
-        (settings.seed + index * 7919) >>> 0,
-        settings.intervalLevel,
-      );
-      bootstrap = b;
-      if (!b.ciKgHa)
-        warnings.push(
-          `Only ${b.usable} of ${b.count} bootstrap resamples gave an optimum: no interval is reported.`,
-        );
-    }
-    const order = all ? all.ranking.map((r) => r.model) : [];
-    const models: ModelRow[] = all
-      ? order.map((name) => {
-          const f = all!.fits[name];
-          const o = optima.get(name)!;
-          return {
-            model: name,
-            label: f.label,
-            status: f.status,
-            message: fitMessage(f),
-            params: { ...f.params },
-            stdErrors: { ...f.stdErrors },
-            sse: f.sse,
-            dfResidual: f.dfResidual,
-            aicc: f.aicc,
-            r2: f.r2,
-            optimumRateKgHa: o.rateKgHa,
-            optimumCiKgHa: name === choice.model ? (bootstrap?.ciKgHa ?? null) : null,
-            yieldAtOptimumKgHa: o.yieldKgHa,
-            optimumNote: optimumNote(o),
-            curve: {
-              rateKgHa: Array.from(f.curve.rateKgHa),
-              yieldKgHa: Array.from(f.curve.yieldKgHa),
-            },
-          };
-        })
-      : [];
-    if (bestFit) {
-      chosenFits.set(site, bestFit);
-      const o = optima.get(bestFit.model)!;
-      if (o.cappedAtHighest)
-        warnings.push(
-          'The optimum lies at or beyond the highest tested rate; the trial did not test high enough to find it.',
-        );
-    }
-    const bestOpt = bestFit ? optima.get(bestFit.model)! : null;
-    sites.push({
-      site,
-      n: used.length,
-      plots,
-      interceptTest,
-      lackOfFit: lackOfFitOf(bestFit),
-      anova,
-      treatmentMeans: means,
-      models,
-      bestModel: choice.model,
-      bestModelReason: choice.reason,
-      bootstrap,
-      profitableRangeKgHa: bestFit ? siteProfitableRange(bestFit, prices, band) : null,
-      returnAtOptimumPerHa: bestOpt?.gainOverCheckPerHa ?? null,
-      designText,
-      residuals: bestFit
-        ? used.map((p, i) => ({
-            rateKgHa: rates[i],
-            residualKgHa: bestFit.residuals[i],
-            block: p.block,
-          }))
-        : [],
-      ratesKgHa: distinct,
-      warnings,
+      seed: (settings.seed + index * 7919) >>> 0,
     });
-    meta.onProgress?.(index + 1, names.length);
+    meta.onProgress?.(index + 1, analysis.sites.length);
+    return report;
   });
 
-  const acrossSites = acrossSitesOf(table, chosenFits, prices, band);
-  const runWarnings = [...(meta.warnings ?? []), ...runFindings.slice(0, 10)];
+  const runWarnings = [...(meta.warnings ?? []), ...found.run.slice(0, 10)];
   if (settings.prices.defaulted)
     runWarnings.push(
       'No prices were given: illustrative prices were used. Give your own grain and nitrogen prices before acting on any rate.',
@@ -446,73 +229,168 @@ export function analyzeTrials(
     sources: table.sources,
     mapping: meta.mapping,
     sites,
-    acrossSites,
+    acrossSites: acrossSitesOf(analysis),
     warnings: runWarnings,
   };
 }
 
-function acrossSitesOf(
-  table: PlotTable,
-  fits: Map<string, ModelFit>,
-  prices: Prices,
-  band: number,
-): AcrossSitesReport | null {
-  if (fits.size < 2) return null;
-  const list = [...fits.entries()];
-  const lo = Math.min(...list.map(([, f]) => f.testedRates.lowestKgHa));
-  // The common grid stops at the highest rate every site tested, so no curve is extrapolated.
-  const hi = Math.min(...list.map(([, f]) => f.testedRates.highestKgHa));
+/** One site's part of the report, from its analysis. */
+function siteReport(
+  s: SiteAnalysis,
+  used: SitePlots,
+  plots: Plot[],
+  c: {
+    rows: ReadonlyMap<ModelName, SiteModelRow>;
+    findings: string[];
+    settings: ReportSettings;
+    prices: Prices;
+    band: number;
+    seed: number;
+  },
+): SiteReport {
+  const rates = Array.from(used.rateKgHa);
+  const yields = Array.from(used.yieldKgHa);
+  const blocks = used.block;
+  // A long list hides the important lines; the rest are in the quality report on screen.
+  const warnings: string[] =
+    c.findings.length > 6
+      ? [
+          ...c.findings.slice(0, 5),
+          `… and ${c.findings.length - 5} more findings about this site's data.`,
+        ]
+      : [...c.findings];
+  const distinct = [...new Set(rates)].sort((a, b) => a - b);
+  const blockCount = new Set(blocks.filter((b) => b !== null)).size;
+  const designText = `${blockCount > 0 ? `${blockCount} block${blockCount === 1 ? '' : 's'} × ` : ''}${distinct.length} rate${distinct.length === 1 ? '' : 's'}`;
+  if (c.settings.blocks === 'fixed' && blocks.some((b) => b === null || b === ''))
+    warnings.push('Some plots have no block label, so the curves were fitted without block terms.');
+  const { anova, means } = siteAnova(rates, yields, blocks);
+  const interceptTest = interceptSummary(s, used, distinct.length, warnings);
+  // A site with fewer than two rates has no curve to show, whatever the models returned.
+  const all = distinct.length >= 2 ? s.fits : null;
+  if (distinct.length < 2)
+    warnings.push(
+      `Only ${distinct.length} distinct rate${distinct.length === 1 ? '' : 's'} with usable plots: no response curve can be fitted.`,
+    );
+  else if (!all) warnings.push(`The curves could not be fitted: ${s.problem ?? 'not fitted'}`);
+  const choice = all ? s.recommended : { model: null, reason: 'no model could be fitted' };
+  const bestFit = all && choice.model ? all.fits[choice.model] : null;
+  let bootstrap: SiteReport['bootstrap'] = null;
+  if (bestFit && c.settings.boot > 0) {
+    const b = bootstrapSiteOptimum(
+      {
+        rateKgHa: rates,
+        yieldKgHa: yields,
+        block: blocks,
+        model: bestFit.model,
+        blocks: s.blocks,
+        prices: c.prices,
+      },
+      c.settings.boot,
+      c.seed,
+      c.settings.intervalLevel,
+    );
+    bootstrap = b;
+    if (!b.ciKgHa)
+      warnings.push(
+        `Only ${b.usable} of ${b.count} bootstrap resamples gave an optimum: no interval is reported.`,
+      );
+  }
+  const models: ModelRow[] = all
+    ? all.ranking.map(({ model }) =>
+        modelRow(
+          all.fits[model],
+          c.rows.get(model)!,
+          model === choice.model ? (bootstrap?.ciKgHa ?? null) : null,
+        ),
+      )
+    : [];
+  const bestRow = bestFit ? c.rows.get(bestFit.model)! : null;
+  if (bestRow?.optimumStatus === 'capped-at-highest')
+    warnings.push(
+      'The optimum lies at or beyond the highest tested rate; the trial did not test high enough to find it.',
+    );
+  return {
+    site: s.site,
+    n: used.rateKgHa.length,
+    plots,
+    interceptTest,
+    lackOfFit: lackOfFitOf(bestFit),
+    anova,
+    treatmentMeans: means,
+    models,
+    bestModel: choice.model,
+    bestModelReason: choice.reason,
+    bootstrap,
+    profitableRangeKgHa: bestFit ? siteProfitableRange(bestFit, c.prices, c.band) : null,
+    returnAtOptimumPerHa: bestRow?.gainOverCheckPerHa ?? null,
+    designText,
+    residuals: bestFit
+      ? rates.map((rateKgHa, i) => ({
+          rateKgHa,
+          residualKgHa: bestFit.residuals[i],
+          block: blocks[i],
+        }))
+      : [],
+    ratesKgHa: distinct,
+    warnings,
+  };
+}
+
+/**
+ * The across-site part of the report from the analysis' regional return (each
+ * site's recommendation model) and its quadratic pooling tests, with notes in
+ * words only (the analysis' grid note speaks kg/ha).
+ */
+function acrossSitesOf(analysis: AcrossSiteAnalysis): AcrossSitesReport | null {
+  const { regional, sitesUsed, sitesLeftOut } = analysis.regional;
+  if (sitesUsed.length < 2) return null;
+  const bySite = new Map(analysis.sites.map((s) => [s.site, s]));
+  const highest = sitesUsed.map(
+    (u) => bySite.get(u.site)!.fits!.fits[u.model].testedRates.highestKgHa,
+  );
   const notes: string[] = [];
-  if (Math.max(...list.map(([, f]) => f.testedRates.highestKgHa)) > hi) {
+  if (new Set(highest).size > 1) {
     notes.push(
       'Sites tested different highest rates; the regional curve stops at the lowest of them.',
     );
   }
-  const grid = rateGrid(lo, hi, Math.max((hi - lo) / 500, 0.25));
-  const prepared = prepareRegionalReturn(
-    list.map(([site, f]) => ({ site, gainKgHa: (x: number) => f.predict(x) - f.predict(0) })),
-    grid,
-  );
-  const r = regionalReturnAtPrices(prepared, prices, { bandPerHa: band });
-  if (!r.profitableRange.contiguous)
+  if (!regional.profitableRange.contiguous)
     notes.push('The profitable range has gaps: the mean return curve is not single-peaked.');
-  const tests: AcrossSitesReport['tests'] = [];
-  try {
-    const t = testCommonResponse(
-      sitePlots(table).filter((s) => fits.has(s.site)),
-      'quadratic',
+  if (sitesLeftOut.length > 0)
+    notes.push(
+      `Not in the regional mean (no fitted curve with a usable rate): ${sitesLeftOut.map((s) => s.site).join(', ')}.`,
     );
-    for (const x of t.tests) {
-      if (x.result.kind !== 'f-test') continue;
-      tests.push({
-        question: x.question,
-        F: x.result.f,
-        df1: x.result.df1,
-        df2: x.result.df2,
-        p: x.result.p,
-        verdict: x.sentence,
-      });
-    }
-  } catch (e) {
-    notes.push(`Pooling tests not possible: ${(e as Error).message}`);
+  const tests: AcrossSitesReport['tests'] = [];
+  for (const x of analysis.sharedResponse.quadratic.tests) {
+    if (x.result.kind !== 'f-test') continue;
+    tests.push({
+      question: x.question,
+      F: x.result.f,
+      df1: x.result.df1,
+      df2: x.result.df2,
+      p: x.result.p,
+      verdict: x.sentence,
+    });
   }
   // Thin the curve for charts and files: about 200 points is smooth at report sizes.
+  const grid = regional.gridKgHa;
   const every = Math.max(1, Math.floor(grid.length / 200));
   const rateKgHa: number[] = [];
   const returnPerHa: number[] = [];
   for (let i = 0; i < grid.length; i += every) {
     rateKgHa.push(grid[i]);
-    returnPerHa.push(r.meanReturnPerHa[i]);
+    returnPerHa.push(regional.meanReturnPerHa[i]);
   }
   return {
-    sites: list.map(([s]) => s),
-    bestRateKgHa: r.bestRateKgHa,
-    profitableRangeKgHa: [r.profitableRange.lowKgHa, r.profitableRange.highKgHa],
-    bandPerHa: band,
-    bestMeanReturnPerHa: r.bestMeanReturnPerHa,
-    meanYieldGainAtBestKgHa: r.meanYieldGainAtBestKgHa,
+    sites: sitesUsed.map((u) => u.site),
+    bestRateKgHa: regional.bestRateKgHa,
+    profitableRangeKgHa: [regional.profitableRange.lowKgHa, regional.profitableRange.highKgHa],
+    bandPerHa: regional.profitableRange.bandPerHa,
+    bestMeanReturnPerHa: regional.bestMeanReturnPerHa,
+    meanYieldGainAtBestKgHa: regional.meanYieldGainAtBestKgHa,
     returnCurve: { rateKgHa, returnPerHa },
-    siteOptima: r.siteOptima.map((o) => ({
+    siteOptima: regional.siteOptima.map((o) => ({
       site: o.site,
       rateKgHa: o.rateKgHa,
       returnPerHa: o.returnPerHa,

@@ -10,6 +10,11 @@
  * evaluated with curveValue from the parameters), so a worker can post it with
  * structuredClone.
  *
+ * This is the one place where sites are fitted and their models ranked: the
+ * report (shared/report/analyzeTrials) builds on this result, and each site's
+ * recommendation model comes from recommendationModel, so the report and the
+ * regional return ('best') speak of the same curve.
+ *
  * No site is dropped silently: a site with nothing to fit keeps its rows (status
  * "not-fitted" and the reason), and every test or average that leaves a site out
  * lists it with the reason.
@@ -52,6 +57,7 @@ import {
   type RegionalReturn,
   type SiteGainCurve,
 } from './regionalReturn';
+import { recommendationModel, type RecommendationModel } from './recommendationModel';
 import { regionalRecommendation, type RegionalRecommendationText } from './regionalRecommendation';
 import { siteRateEffect, type SiteRateEffect } from './siteRateEffect';
 import type { SiteModelRow } from './siteModelRows';
@@ -66,7 +72,12 @@ export const PLATEAU_MODELS: readonly PlateauModel[] = [
   'exponential',
 ];
 
-/** Which curve each site contributes to the regional return: its AICc winner, or one model for all. */
+/**
+ * Which curve each site contributes to the regional return: "best" is the site's
+ * recommendation model (recommendationModel: the lowest-AICc curve with a usable
+ * rate, else a straight line), the same model the report recommends from; or
+ * one model for all sites.
+ */
 export type RegionalModelChoice = 'best' | ModelName;
 
 export interface AcrossSiteOptions {
@@ -74,8 +85,10 @@ export interface AcrossSiteOptions {
   prices: Prices;
   /** Block terms in the site fits: "auto" (default) uses fixed blocks where every plot has a label. */
   blocks?: 'auto' | BlockTerms;
-  /** Default "best" (each site's AICc winner). */
+  /** Default "best" (each site's recommendation model, see recommendationModel). */
   regionalModel?: RegionalModelChoice;
+  /** Points on each fitted curve kept for charts; default that of shared/models (61). */
+  curvePoints?: number;
   /** Grid spacing, kg/ha; default 1 (1 lb/ac is 1.120851 kg/ha). */
   gridStepKgHa?: number;
   /** Grid start, kg/ha; default 0. */
@@ -113,9 +126,26 @@ export interface SiteAnalysis {
   fits: AllModelsFitData | null;
   rateEffect: SiteRateEffect;
   responded: boolean;
-  /** The straight line's intercept test, or why there is none. */
-  intercept: { p: number; needed: boolean; verdict: string } | { problem: string };
+  /** The model the site's recommendation uses and why (recommendationModel). */
+  recommended: RecommendationModel;
+  /** The straight line's intercept test (stats/interceptTest), or why there is none. */
+  intercept: InterceptOutcome | { problem: string };
   groups: Record<string, string | null>;
+}
+
+/** The straight line's intercept test of one site, as plain data. */
+export interface InterceptOutcome {
+  p: number;
+  needed: boolean;
+  verdict: string;
+  /** t of the intercept and the extra-sum-of-squares F against the line through the origin. */
+  t: number;
+  F: number;
+  df1: number;
+  df2: number;
+  /** The straight line's intercept and its standard error, kg/ha. */
+  interceptKgHa: number;
+  interceptSeKgHa: number;
 }
 
 /** How many sites responded, by the definition in the file header. */
@@ -172,9 +202,10 @@ export interface GroupAnalysis {
 }
 
 export interface AcrossSiteAnalysis {
-  options: Required<Omit<AcrossSiteOptions, 'gridToKgHa' | 'groupKeys'>> & {
+  options: Required<Omit<AcrossSiteOptions, 'gridToKgHa' | 'groupKeys' | 'curvePoints'>> & {
     gridToKgHa: number | null;
     groupKeys: readonly string[];
+    curvePoints?: number;
   };
   sites: SiteAnalysis[];
   /** Group columns not analysed by default, with the reason. */
@@ -230,7 +261,12 @@ function siteBlocks(site: SitePlots, choice: 'auto' | BlockTerms): BlockTerms {
     : 'none';
 }
 
-function analyseSite(site: SitePlots, blocks: 'auto' | BlockTerms, alpha: number): SiteAnalysis {
+function analyseSite(
+  site: SitePlots,
+  blocks: 'auto' | BlockTerms,
+  alpha: number,
+  curvePoints: number | undefined,
+): SiteAnalysis {
   const b = siteBlocks(site, blocks);
   const rateEffect = siteRateEffect(site);
   const responded = rateEffect.test.kind === 'f-test' && rateEffect.test.p < alpha;
@@ -241,7 +277,7 @@ function analyseSite(site: SitePlots, blocks: 'auto' | BlockTerms, alpha: number
     try {
       const all = fitAllModels(
         { rateKgHa: site.rateKgHa, yieldKgHa: site.yieldKgHa, block: site.block },
-        { blocks: b },
+        { blocks: b, curvePoints },
       );
       fits = { ...all, fits: withoutPredict(all.fits) };
     } catch (e) {
@@ -251,7 +287,17 @@ function analyseSite(site: SitePlots, blocks: 'auto' | BlockTerms, alpha: number
     }
     try {
       const t = testIntercept(site.rateKgHa, site.yieldKgHa, alpha);
-      intercept = { p: t.p, needed: t.interceptNeeded, verdict: t.verdict };
+      intercept = {
+        p: t.p,
+        needed: t.interceptNeeded,
+        verdict: t.verdict,
+        t: t.t,
+        F: t.F,
+        df1: t.df1,
+        df2: t.df2,
+        interceptKgHa: t.intercept.estimate,
+        interceptSeKgHa: t.intercept.stdError,
+      };
     } catch (e) {
       if (!(e instanceof StatsInputError)) throw e;
       intercept = { problem: e.message };
@@ -263,6 +309,9 @@ function analyseSite(site: SitePlots, blocks: 'auto' | BlockTerms, alpha: number
     problem,
     blocks: b,
     fits,
+    recommended: fits
+      ? recommendationModel(fits)
+      : { model: null, reason: `no model could be fitted: ${problem ?? 'not fitted'}` },
     rateEffect,
     responded,
     intercept,
@@ -300,6 +349,7 @@ export function siteModelRows(s: SiteAnalysis, prices: Prices): SiteModelRow[] {
         optimumRateKgHa: null,
         optimumStatus: 'not-fitted',
         yieldAtOptimumKgHa: null,
+        gainOverCheckPerHa: null,
         plateauYieldKgHa: null,
         aicc: NaN,
         aiccRank: null,
@@ -316,6 +366,7 @@ export function siteModelRows(s: SiteAnalysis, prices: Prices): SiteModelRow[] {
       optimumRateKgHa: opt.rateKgHa,
       optimumStatus: opt.status,
       yieldAtOptimumKgHa: opt.yieldKgHa,
+      gainOverCheckPerHa: opt.gainOverCheckPerHa,
       plateauYieldKgHa: fit.plateauYield?.estimate ?? null,
       aicc: fit.aicc,
       aiccRank: rank,
@@ -371,10 +422,10 @@ function regionalCurves(
       leftOut.push({ site: s.site, reason: s.problem ?? 'not fitted' });
       continue;
     }
-    const model = choice === 'best' ? s.fits.best : choice;
+    const model = choice === 'best' ? s.recommended.model : choice;
     if (!model) {
       const reasons = [...new Set(s.fits.ranking.map((r) => r.reason).filter((r) => r))].join(' ');
-      leftOut.push({ site: s.site, reason: `no model could be ranked by AICc. ${reasons}`.trim() });
+      leftOut.push({ site: s.site, reason: `${s.recommended.reason}. ${reasons}`.trim() });
       continue;
     }
     const notes: string[] = [];
@@ -626,6 +677,7 @@ export function analyseAcrossSites(
     prices: { ...options.prices },
     blocks: options.blocks ?? 'auto',
     regionalModel: options.regionalModel ?? 'best',
+    curvePoints: options.curvePoints,
     gridStepKgHa: options.gridStepKgHa ?? 1,
     gridFromKgHa: options.gridFromKgHa ?? 0,
     gridToKgHa: options.gridToKgHa ?? null,
@@ -640,7 +692,7 @@ export function analyseAcrossSites(
     throw new SitesInputError('bad-argument', `bandPerHa is ${o.bandPerHa}; it must be 0 or more.`);
   }
   rateGrid(o.gridFromKgHa, o.gridToKgHa ?? o.gridFromKgHa, o.gridStepKgHa);
-  const sites = plots.map((p) => analyseSite(p, o.blocks, alpha));
+  const sites = plots.map((p) => analyseSite(p, o.blocks, alpha, o.curvePoints));
   const analyses = new Map(sites.map((s) => [s.site, s]));
   // A site the models refused (e.g. a negative rate) carries that reason into every pooled test.
   const checked = plots.map((p, i) =>

@@ -9,12 +9,14 @@
  * analyseAcrossSites(source: PlotTable | SitePlots[], options: AcrossSiteOptions): AcrossSiteAnalysis
  *   options = { prices: { grainPricePerKg, nutrientPricePerKg, applicationCostPerHa? },
  *               blocks?: 'auto' | 'none' | 'fixed',        // 'auto': fixed where every plot has a block
- *               regionalModel?: 'best' | ModelName,         // each site's AICc winner, or one model for all
+ *               regionalModel?: 'best' | ModelName,         // each site's recommendationModel, or one model for all
+ *               curvePoints?: 61,                           // points kept on each fitted curve
  *               gridStepKgHa?: 1, gridFromKgHa?: 0, gridToKgHa?: lowest of the sites' highest rates,
  *               bandPerHa?: ONE_PER_ACRE_IN_PER_HA (≈ 2.471, $1/acre: common practice),
  *               alpha?: 0.05, levels?: 'site' | 'blockWithinSite', groupKeys?: every site-level Plot.groups key + 'year' }
- *   result  = { sites: SiteAnalysis[]          // one per site: fits (AllModelsFitData), rateEffect,
- *                                              //   responded, intercept, groups, or the problem
+ *   result  = { sites: SiteAnalysis[]          // one per site: fits (AllModelsFitData), recommended
+ *                                              //   (recommendationModel), rateEffect, responded,
+ *                                              //   intercept, groups, or the problem
  *               groupKeysSkipped: { key, reason }[]  // columns varying within a site (treatment attributes)
  *               rows: SiteModelRow[]           // site × model: optimum, yield at optimum, plateau,
  *                                              //   AICc rank/winner, intercept p, CV%, rate-effect p
@@ -42,6 +44,10 @@
  * The analysis is plain data (fits without `predict`, see FitData): a worker can post it, and
  * the window can call repriceAcrossSites on the copy.
  *
+ * recommendationModel(fits): { model, reason }  // the one "chosen model" of a site: the lowest-AICc
+ *   // curve whose optimum is a rate, else a straight line (a corner only); the report, the JSON's
+ *   // bestModel and regionalModel 'best' all use it
+ *
  * Building blocks, usable alone: sitePlots, testCommonResponse, groupResponseTest,
  * pooledCurveTest, siteRateEffect, extraSumOfSquaresTest, prepareRegionalReturn +
  * regionalReturnAtPrices, rateGrid, regionalRecommendation.
@@ -57,6 +63,7 @@ export * from './siteRateEffect';
 export * from './rateGrid';
 export * from './regionalReturn';
 export * from './regionalRecommendation';
+export * from './recommendationModel';
 export * from './siteModelRows';
 export * from './analyseAcrossSites';
 export * from './repriceAcrossSites';

@@ -22,6 +22,8 @@ export interface SiteModelRow {
   optimumStatus: OptimumStatus | 'not-fitted';
   /** Fitted yield at the optimum, kg/ha. */
   yieldAtOptimumKgHa: number | null;
+  /** Net return over the zero-rate check at the optimum, currency/ha; null when there is none. */
+  gainOverCheckPerHa: number | null;
   /** Plateau (or asymptote) yield, kg/ha; null when the model has none or it was not reached. */
   plateauYieldKgHa: number | null;
   aicc: number;

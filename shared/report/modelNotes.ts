@@ -1,0 +1,59 @@
+/**
+ * The report's notes on a fit and on its optimum, in words without numbers, so
+ * that every writer can show them beside rates in its own display units (the
+ * models and economics stages write their messages in kg/ha).
+ */
+import type { EconomicOptimum } from '../economics/economicOptimum';
+import type { ModelFit } from '../models/modelTypes';
+
+/**
+ * A fit's status in words without numbers, for the same reason as the
+ * optimum note: the models stage writes its rates in kg/ha.
+ * @param f - the fit (model, status, and the models stage's message for too few rates)
+ * @returns one sentence, or "" for a plain fit
+ * @example
+ * fitMessage({ model: 'quadratic', status: 'convex', message: '' }) // 'The quadratic opens upward, so it has no maximum.'
+ */
+export function fitMessage(f: Pick<ModelFit, 'model' | 'status' | 'message'>): string {
+  switch (f.status) {
+    case 'ok':
+      return f.model === 'proportional'
+        ? 'R² is uncentered (about zero, not the mean): do not compare it with the others.'
+        : '';
+    case 'no-plateau':
+      return 'No plateau within the tested rates: the straight line (or the quadratic) fits as well.';
+    case 'full-response-at-lowest-rate':
+      return 'Full response by the lowest non-zero rate: the join lies between the two lowest rates and cannot be placed more precisely.';
+    case 'convex':
+      return 'The quadratic opens upward, so it has no maximum.';
+    case 'no-response':
+      return 'Yield does not rise with rate: the best curve is flat.';
+    case 'too-few-rates':
+      return f.message;
+  }
+}
+
+/**
+ * The optimum's status in words without numbers: the writers show the rates
+ * in their own units (the economics stage's explanation speaks kg/ha).
+ * @param o - the optimum (its status)
+ * @returns one sentence, or "" for an interior optimum
+ * @example
+ * optimumNote({ status: 'zero' }) // 'At these prices nitrogen does not pay here: …'
+ */
+export function optimumNote(o: Pick<EconomicOptimum, 'status'>): string {
+  switch (o.status) {
+    case 'interior':
+      return '';
+    case 'zero':
+      return 'At these prices nitrogen does not pay here: the first unit already returns less than it costs.';
+    case 'capped-at-highest':
+      return 'The optimum lies beyond the highest tested rate; the highest tested rate is given instead.';
+    case 'corner':
+      return 'A straight line never levels off, so it gives only a corner (no N or the highest tested rate); a curve says more.';
+    case 'join-in-first-interval':
+      return 'Full response by the lowest non-zero rate: the optimum lies between the two lowest rates and cannot be given as one number.';
+    case 'not-available':
+      return 'This fit has no economic optimum (no plateau, no maximum or no response).';
+  }
+}
