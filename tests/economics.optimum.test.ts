@@ -184,6 +184,45 @@ describe('economicOptimum on fits with a data status', () => {
   });
 });
 
+describe('economicOptimum explanations write rates with the caller’s format', () => {
+  // lb/ac from kg/ha: 1 lb = 0.45359237 kg, 1 acre = 4046.8564224 m² (NIST SP 811, Appendix B).
+  const kgHaPerLbAc = (0.45359237 * 10000) / 4046.8564224;
+  const lbAc = {
+    number: (kgHa: number) => String(Math.round(kgHa / kgHaPerLbAc)),
+    unit: 'lb N/ac',
+  };
+  // (6 − 80) / (2 · −0.1) = 370 kg/ha past the highest rate, 200 kg/ha.
+  const capped = summary('quadratic', { a: 5000, b: 80, c: -0.1 });
+  it('defaults to kg/ha, rounded', () => {
+    expect(economicOptimum(capped, prices).explanation).toContain('The formula gives 370 kg/ha');
+  });
+  it('uses a lb/ac format for every rate and leaves kg out', () => {
+    const text = economicOptimum(capped, prices, { rateFormat: lbAc }).explanation;
+    // 370 / 1.12085 = 330.1 and 200 / 1.12085 = 178.4 lb/ac
+    expect(text).toContain('330 lb N/ac');
+    expect(text).toContain('(178 lb N/ac)');
+    expect(text).not.toMatch(/kg/);
+  });
+  it('never writes a rate or price ratio with floating-point noise', () => {
+    // An interior optimum with an irrational rate: ln(b k / PR) / k, PR = 6.
+    const fits: CurveSummary[] = [
+      summary('exponential', { a: 5500, b: 4000, k: 0.015 }),
+      summary('quadratic', { a: 5000, b: 40.123456789, c: -0.1 }),
+      summary('linear', { a: 6000, b: 14.987654321 }),
+      summary('linearPlateau', { a: 6000, b: 5.55555, x0: 110.987654 }),
+      {
+        ...summary('linearPlateau', { a: 6500, b: 65, x0: 40 }),
+        status: 'full-response-at-lowest-rate',
+        joinBetweenKgHa: [0, 40.000000001],
+      },
+    ];
+    for (const fit of fits) {
+      const text = economicOptimum(fit, prices).explanation;
+      expect(text, text).not.toMatch(/\d\.\d{2,}/);
+    }
+  });
+});
+
 describe('pricesFromMarket', () => {
   it('converts a corn price per bushel and urea per short ton (USDA 56 lb bushel; urea 46 % N)', () => {
     const p = pricesFromMarket({

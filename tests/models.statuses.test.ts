@@ -50,6 +50,30 @@ describe('statuses a screen can explain', () => {
   });
 });
 
+describe('status messages write rates with the caller’s format', () => {
+  // A straight rise with no plateau up to a highest rate stored with floating-point noise.
+  const top = 269.0042774866694;
+  const data = {
+    rateKgHa: [0, 90, 180, top, 0, 90, 180, top],
+    yieldKgHa: [6000, 7800, 9600, 11380, 6100, 7700, 9650, 11420],
+  };
+  it('fitLinearPlateau writes the highest rate rounded, in kg/ha by default', () => {
+    const fit = fitLinearPlateau(data);
+    expect(fit.status).toBe('no-plateau');
+    expect(fit.message).toContain('(269 kg/ha)');
+    expect(fit.message).not.toMatch(/\d\.\d{2,}/);
+  });
+  it('fitQuadraticPlateau takes a lb/ac format', () => {
+    // 1 lb = 0.45359237 kg, 1 acre = 4046.8564224 m² (NIST SP 811, Appendix B): 269.004 kg/ha = 240.0 lb/ac.
+    const kgHaPerLbAc = (0.45359237 * 10000) / 4046.8564224;
+    const rateFormat = { number: (v: number) => (v / kgHaPerLbAc).toFixed(0), unit: 'lb N/ac' };
+    const fit = fitQuadraticPlateau(data, { rateFormat });
+    expect(fit.status).toBe('no-plateau');
+    expect(fit.message).toContain('(240 lb N/ac)');
+    expect(fit.message).not.toMatch(/kg/);
+  });
+});
+
 describe('typed errors for a caller’s mistakes', () => {
   it('names the lengths that differ', () => {
     expect(() => fitAllModels({ rateKgHa: [0, 1], yieldKgHa: [1] })).toThrow(

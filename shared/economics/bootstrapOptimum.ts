@@ -50,6 +50,8 @@ export interface BootstrapOptions {
   withinAmountPerHa?: number;
   /** Rates to evaluate that probability at, kg/ha; default 51 even steps from 0 to the highest rate. */
   candidateRatesKgHa?: ArrayLike<number>;
+  /** How the point estimate's explanation writes rates; default kg/ha rounded. */
+  rateFormat?: FitOptions['rateFormat'];
 }
 
 export interface BootstrapOptimum {
@@ -154,12 +156,13 @@ export function bootstrapOptimum(
   // The point estimate with the full fits' precision; resamples need less.
   const original = estimateCurve(site, model, {
     exponentialIntercept: options.exponentialIntercept,
+    rateFormat: options.rateFormat,
   });
   const fitOptions: FitOptions = {
     exponentialIntercept: options.exponentialIntercept,
     searchTolerance: 1e-7,
   };
-  const pointEstimate = economicOptimum(original, prices);
+  const pointEstimate = economicOptimum(original, prices, { rateFormat: options.rateFormat });
 
   const highest = site.testedRates.highestKgHa;
   const candidates = options.candidateRatesKgHa

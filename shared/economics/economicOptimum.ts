@@ -21,6 +21,7 @@
  */
 import { curveValue } from '../models/curveValue';
 import type { CurveSummary, ModelName } from '../models/modelTypes';
+import { KG_HA_FORMAT, rateRangeText, rateText, type RateFormat } from '../models/rateFormat';
 import { assertPrices, type Prices } from './priceRatio';
 import { recommendationCautions } from './recommendationCautions';
 
@@ -57,7 +58,11 @@ export interface EconomicOptimum {
   agronomicMaxRateKgHa: number | null;
   /** True when the optimum was capped at the highest tested rate. */
   cappedAtHighest: boolean;
-  /** One or two sentences for the screen and reports. */
+  /**
+   * One or two sentences for the screen and reports. Rates are written with the
+   * caller's RateFormat (default kg/ha, rounded); the price ratio is named, not
+   * given as a number, since its unit depends on the display units.
+   */
   explanation: string;
   /** The cautions that go with any recommended rate. */
   cautions: readonly string[];
@@ -134,8 +139,9 @@ const NO_OPTIMUM_REASON: Record<string, string> = {
   'too-few-rates': 'The model could not be fitted to this site.',
 };
 
-function round(x: number): string {
-  return String(Math.round(x * 10) / 10);
+export interface EconomicOptimumOptions {
+  /** How the explanation writes rates; default kg/ha rounded (shared/models/rateFormat). */
+  rateFormat?: RateFormat;
 }
 
 /**
@@ -143,6 +149,7 @@ function round(x: number): string {
  * @param fit - a ModelFit or any CurveSummary (model, status, params, tested rates)
  * @param prices - grain price (currency/kg grain), nutrient price (currency/kg nutrient),
  *   optional application cost (currency/ha)
+ * @param options - rateFormat: how the explanation writes rates (default kg/ha, rounded)
  * @returns the optimum with its status, yield, net return and gain over the check
  * @throws {StatsInputError} "bad-argument" for a price that is not positive
  * @example
@@ -150,8 +157,13 @@ function round(x: number): string {
  *   testedRates: { lowestKgHa: 0, highestKgHa: 200, distinctKgHa: [0, 50, 100, 150, 200] }, joinBetweenKgHa: null } as const;
  * economicOptimum(lp, { grainPricePerKg: 0.2, nutrientPricePerKg: 1 }).rateKgHa // 100
  */
-export function economicOptimum(fit: CurveSummary, prices: Prices): EconomicOptimum {
+export function economicOptimum(
+  fit: CurveSummary,
+  prices: Prices,
+  options: EconomicOptimumOptions = {},
+): EconomicOptimum {
   assertPrices(prices);
+  const format = options.rateFormat ?? KG_HA_FORMAT;
   const pr = prices.nutrientPricePerKg / prices.grainPricePerKg;
   if (fit.status === 'full-response-at-lowest-rate') {
     const [low, high] = fit.joinBetweenKgHa ?? [
@@ -169,7 +181,7 @@ export function economicOptimum(fit: CurveSummary, prices: Prices): EconomicOpti
           fit.model,
           pr,
           'zero',
-          `The full response is reached by ${high} kg/ha, but at these prices it does not pay for that rate.`,
+          `The full response is reached by ${rateText(format, high)}, but at these prices it does not pay for that rate.`,
         ),
         rateKgHa: 0,
         uncappedRateKgHa: 0,
@@ -183,7 +195,7 @@ export function economicOptimum(fit: CurveSummary, prices: Prices): EconomicOpti
         fit.model,
         pr,
         'join-in-first-interval',
-        `Full response by the lowest non-zero rate: the optimum lies between ${low} and ${high} kg/ha; these rates cannot place it more precisely.`,
+        `Full response by the lowest non-zero rate: the optimum lies between ${rateRangeText(format, low, high)}; these rates cannot place it more precisely.`,
       ),
       rangeKgHa: [low, high],
       yieldKgHa: curveValue(fit.model, fit.params, high),
@@ -209,28 +221,29 @@ export function economicOptimum(fit: CurveSummary, prices: Prices): EconomicOpti
   if (!(x > 0)) {
     x = 0;
     status = 'zero';
-    explanation = `At a price ratio of ${round(pr)} kg grain per kg nutrient the first kilogram already returns less than it costs: the optimum is no nutrient.`;
+    explanation =
+      'At this price ratio the first unit of nutrient already returns less than it costs: the optimum is no nutrient.';
   } else if (x > highest) {
     x = highest;
     capped = true;
     status = 'capped-at-highest';
-    explanation = `The formula gives ${round(raw)} kg/ha, past the highest tested rate; the curve is not known there, so the highest tested rate (${highest} kg/ha) is given and flagged.`;
+    explanation = `The formula gives ${rateText(format, raw)}, past the highest tested rate; the curve is not known there, so the highest tested rate (${rateText(format, highest)}) is given and flagged.`;
   } else {
-    explanation = `Economic optimum ${round(x)} kg/ha, where the curve's slope equals the price ratio of ${round(pr)} kg grain per kg nutrient.`;
+    explanation = `Economic optimum ${rateText(format, x)}, where the curve's slope equals the price ratio (nutrient price over grain price).`;
   }
   if (fit.model === 'linear' || fit.model === 'proportional') {
     status = x > 0 || capped ? 'corner' : 'zero';
     capped = false;
     explanation =
       x > 0
-        ? `A straight line never levels off: its slope (${round(fit.params.b)}) stays above the price ratio (${round(pr)}), so the optimum is the corner at the highest tested rate, ${highest} kg/ha; a curve with a plateau says more.`
-        : `A straight line's slope (${round(fit.params.b)}) below the price ratio (${round(pr)}) puts the optimum at the corner, no nutrient.`;
+        ? `A straight line never levels off: its slope stays above the price ratio, so the optimum is the corner at the highest tested rate, ${rateText(format, highest)}; a curve with a plateau says more.`
+        : "A straight line's slope below the price ratio puts the optimum at the corner, no nutrient.";
   }
   const zeroReturn = netReturn(fit, prices, 0);
   let atX = netReturn(fit, prices, x);
   if (x > 0 && !(atX > zeroReturn)) {
     // The application cost is larger than what the nutrient returns.
-    explanation = `At ${round(x)} kg/ha the gain does not cover the nutrient and application cost, so the optimum is no application.`;
+    explanation = `At ${rateText(format, x)} the gain does not cover the nutrient and application cost, so the optimum is no application.`;
     x = 0;
     status = 'zero';
     capped = false;

@@ -7,6 +7,7 @@
  */
 import type { ModelFit, ModelName } from '../models/modelTypes';
 import type { ModelRank } from '../models/fitAllModels';
+import { KG_HA_FORMAT, rateText, type RateFormat } from '../models/rateFormat';
 import { economicOptimum, type EconomicOptimum } from './economicOptimum';
 import type { Prices } from './priceRatio';
 
@@ -27,6 +28,8 @@ export interface OptimumComparisonOptions {
   toleranceKgHa?: number;
   /** Models within this ΔAICc of the best are candidates; default Infinity (all ranked models). */
   maxDeltaAicc?: number;
+  /** How the warning and the explanations write rates; default kg/ha rounded. */
+  rateFormat?: RateFormat;
 }
 
 /**
@@ -34,7 +37,7 @@ export interface OptimumComparisonOptions {
  * @param fits - fits by model name (from fitAllModels)
  * @param ranking - the AICc ranking (from fitAllModels)
  * @param prices - canonical prices (currency/kg grain, currency/kg nutrient, currency/ha)
- * @param options - tolerance (kg/ha) and ΔAICc cut-off
+ * @param options - tolerance (kg/ha), ΔAICc cut-off and how rates are written
  * @returns every optimum, the spread and a warning when it exceeds the tolerance
  * @throws {StatsInputError} "bad-argument" for a price that is not positive
  * @example
@@ -49,6 +52,7 @@ export function optimumAcrossModels(
 ): OptimumComparison {
   const tolerance = options.toleranceKgHa ?? 20;
   const maxDelta = options.maxDeltaAicc ?? Infinity;
+  const format = options.rateFormat ?? KG_HA_FORMAT;
   const optima: EconomicOptimum[] = [];
   const candidates: ModelName[] = [];
   let lo = Infinity;
@@ -56,7 +60,7 @@ export function optimumAcrossModels(
   for (const line of ranking) {
     const fit = fits[line.model];
     if (!fit) continue;
-    const opt = economicOptimum(fit, prices);
+    const opt = economicOptimum(fit, prices, { rateFormat: format });
     optima.push(opt);
     // The straight lines' corners are not estimates of a response optimum.
     const isCurve = line.model !== 'linear' && line.model !== 'proportional';
@@ -69,7 +73,7 @@ export function optimumAcrossModels(
   const spread = hi - lo;
   const warning =
     candidates.length > 1 && spread > tolerance
-      ? `The candidate models' optimum rates range from ${Math.round(lo)} to ${Math.round(hi)} kg/ha (${Math.round(spread)} kg/ha apart, more than ${tolerance} kg/ha): the choice of model matters here.`
+      ? `The candidate models' optimum rates range from ${format.number(lo)} to ${rateText(format, hi)} (${rateText(format, spread)} apart, more than ${rateText(format, tolerance)}): the choice of model matters here.`
       : null;
   return {
     optima,

@@ -19,7 +19,7 @@ import { tooFewRatesMessage, unfittedEstimate } from './finishFit';
  * Estimates one model on a prepared site.
  * @param site - from prepareSite
  * @param model - which model
- * @param options - exponentialIntercept and searchTolerance are read
+ * @param options - exponentialIntercept, searchTolerance and rateFormat are read
  * @returns status, params by name, SSE, tested rates
  * @throws {StatsInputError} "bad-argument" for exponentialIntercept 'zero' with block terms
  * @example
@@ -32,14 +32,15 @@ export function estimateCurve(
 ): CurveEstimate {
   switch (model) {
     case 'linearPlateau':
-      return estimateLinearPlateau(site, options.searchTolerance);
+      return estimateLinearPlateau(site, options.searchTolerance, options.rateFormat);
     case 'quadraticPlateau':
-      return estimateQuadraticPlateau(site, options.searchTolerance);
+      return estimateQuadraticPlateau(site, options.searchTolerance, options.rateFormat);
     case 'exponential':
       return estimateExponential(
         site,
         options.exponentialIntercept ?? 'free',
         options.searchTolerance,
+        options.rateFormat,
       );
     case 'linear': {
       const why = tooFewRatesMessage(site, linearSpec, 2);

@@ -30,6 +30,7 @@ import { linearCoefficients } from './linearCoefficients';
 import type { CurveEstimate, FitOptions, FitStatus, ModelFit, SiteData } from './modelTypes';
 import { prepareSite, type PreparedSite } from './prepareSite';
 import { profileSolver } from './profileSolver';
+import { KG_HA_FORMAT, rateRangeText, type RateFormat } from './rateFormat';
 
 /** The exponential curve, parameters [a, b, k]. */
 export const exponentialSpec: CurveSpec = {
@@ -75,6 +76,7 @@ const TIE = 1e-10;
  * @param site - from prepareSite
  * @param interceptMode - 'free' (estimate a) or 'zero' (a = 0)
  * @param tolerance - Brent's tolerance on ln k, default 1e-10 (the bootstrap uses 1e-7)
+ * @param rateFormat - how messages write rates, default kg/ha rounded
  * @returns status, message, params {a, b, k} (a = 0 for 'zero'; k at the searched limit for
  *   "no-plateau" or "full-response-at-lowest-rate") and SSE
  * @throws {StatsInputError} "bad-argument" for 'zero' with block terms
@@ -85,6 +87,7 @@ export function estimateExponential(
   site: PreparedSite,
   interceptMode: 'free' | 'zero' = 'free',
   tolerance = 1e-10,
+  rateFormat: RateFormat = KG_HA_FORMAT,
 ): CurveEstimate {
   const intercept = interceptMode === 'free';
   if (!intercept && site.blocks === 'fixed') {
@@ -160,7 +163,7 @@ export function estimateExponential(
       'No plateau within the tested rates: the rate constant tends to zero and the curve to the straight line.';
   } else if (atHigh) {
     status = 'full-response-at-lowest-rate';
-    message = `Full response by the lowest non-zero rate: the rate constant runs to infinity (check against the rest); the bend lies between ${rates[0]} and ${rLow} kg/ha.`;
+    message = `Full response by the lowest non-zero rate: the rate constant runs to infinity (check against the rest); the bend lies between ${rateRangeText(rateFormat, rates[0], rLow)}.`;
   }
   const sse = sseAt(bestU);
   return {
@@ -186,7 +189,7 @@ export function estimateExponential(
 export function fitExponentialPrepared(site: PreparedSite, options: FitOptions): ModelFit {
   const intercept = (options.exponentialIntercept ?? 'free') === 'free';
   const spec = intercept ? exponentialSpec : exponentialThroughOriginSpec;
-  const est = estimateExponential(site, intercept ? 'free' : 'zero');
+  const est = estimateExponential(site, intercept ? 'free' : 'zero', undefined, options.rateFormat);
   if (est.status === 'too-few-rates') return unfittedFit(site, spec, est.message);
   const { status } = est;
   const k = est.params.k;

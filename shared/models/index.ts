@@ -5,7 +5,8 @@
  * ```ts
  * fitAllModels(data: SiteData, options?: FitOptions & { models?: ModelName[] }): AllModelsFit
  *   data    = { rateKgHa: number[], yieldKgHa: number[], block?: (string | null)[] }  // one entry per plot
- *   options = { blocks?: 'none' | 'fixed', confidence?: 0.95, exponentialIntercept?: 'free' | 'zero', curvePoints?: 61 }
+ *   options = { blocks?: 'none' | 'fixed', confidence?: 0.95, exponentialIntercept?: 'free' | 'zero', curvePoints?: 61,
+ *               rateFormat?: RateFormat }   // how messages write rates; default kg/ha rounded
  *   result  = { fits: Record<ModelName, ModelFit>, ranking: ModelRank[], best: ModelName | null, n, distinctRates }
  * ```
  *
@@ -68,3 +69,5 @@ export { fitResponseOverCheck } from './responseOverCheck';
 export type { ResponseOverCheck } from './responseOverCheck';
 export { siteDataFromPlots } from './siteDataFromPlots';
 export { estimateCurve } from './estimateCurve';
+export { KG_HA_FORMAT, rateRangeText, rateText, roundedKgHa } from './rateFormat';
+export type { RateFormat } from './rateFormat';

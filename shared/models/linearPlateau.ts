@@ -23,9 +23,11 @@ import {
   type CurveSpec,
 } from './finishFit';
 import { linearCoefficients } from './linearCoefficients';
-import type { CurveEstimate, FitOptions, FitStatus, ModelFit, SiteData } from './modelTypes';
+import type { CurveEstimate, FitOptions, ModelFit, SiteData } from './modelTypes';
+import { plateauEstimate } from './plateauEstimate';
 import { prepareSite, type PreparedSite } from './prepareSite';
 import { profileSolver } from './profileSolver';
+import type { RateFormat } from './rateFormat';
 import { relaxedJoinBounds } from './relaxedJoinBounds';
 import { searchJoinPoint } from './searchJoinPoint';
 
@@ -47,19 +49,21 @@ export const linearPlateauSpec: CurveSpec = {
   r2Kind: 'centered',
 };
 
-/** Relative SSE difference below which two fits count as equally good. */
-const TIE = 1e-10;
-
 /**
  * The linear-plateau's estimate and status from the profiled search alone.
  * @param site - from prepareSite
  * @param tolerance - Brent's relative tolerance on x0, default 1e-10 (the bootstrap uses 1e-7)
+ * @param rateFormat - how messages write rates, default kg/ha rounded
  * @returns status, message, params {a, b, x0} (x0 = highest rate for "no-plateau" and
  *   "no-response", the second-lowest rate for "full-response-at-lowest-rate") and SSE
  * @example
  * estimateLinearPlateau(prepareSite({ rateKgHa: [0, 40, 80, 120, 160], yieldKgHa: [6000, 7000, 8000, 8500, 8500] }, 'none')).params.x0 // ≈ 100
  */
-export function estimateLinearPlateau(site: PreparedSite, tolerance = 1e-10): CurveEstimate {
+export function estimateLinearPlateau(
+  site: PreparedSite,
+  tolerance = 1e-10,
+  rateFormat?: RateFormat,
+): CurveEstimate {
   const why = tooFewRatesMessage(site, linearPlateauSpec, 3);
   if (why) return unfittedEstimate(site, linearPlateauSpec, why);
   const rates = site.rates;
@@ -72,37 +76,18 @@ export function estimateLinearPlateau(site: PreparedSite, tolerance = 1e-10): Cu
   };
   const bounds = site.design === 'full' ? undefined : relaxedJoinBounds(site, 1);
   const best = searchJoinPoint(rates, sseAt, tolerance, bounds);
-  const rMax = rates[m - 1];
-  const sseLine = sseAt(rMax);
-
-  let x0 = best.x0;
-  let status: FitStatus = 'ok';
-  let message: string;
-  if (best.sse >= solver.flatSse * (1 - TIE)) {
-    status = 'no-response';
-    message = 'Yield does not rise with rate: the best linear-plateau is flat.';
-    x0 = rMax;
-  } else if (x0 >= rMax * (1 - 1e-9) || best.sse >= sseLine * (1 - TIE)) {
-    status = 'no-plateau';
-    message = `No plateau within the tested rates: the join lies at or past the highest rate (${rMax} kg/ha), so the straight line fits as well.`;
-    x0 = rMax;
-  } else if (x0 <= rates[1] * (1 + 1e-9)) {
-    status = 'full-response-at-lowest-rate';
-    message = `Full response by the lowest non-zero rate: the join lies between ${rates[0]} and ${rates[1]} kg/ha and these rates cannot place it more precisely.`;
-    x0 = rates[1];
-  } else {
-    message = 'Linear-plateau fitted; join point between tested rates.';
-  }
-  const sse = sseAt(x0);
-  return {
-    model: 'linearPlateau',
-    status,
-    message,
-    params: { a: solver.last.intercept, b: solver.last.beta, x0 },
-    sse,
-    testedRates: site.testedRates,
-    joinBetweenKgHa: status === 'full-response-at-lowest-rate' ? [rates[0], rates[1]] : null,
-  };
+  return plateauEstimate({
+    site,
+    spec: linearPlateauSpec,
+    solver,
+    sseAt,
+    best,
+    // The limit x0 ≥ r_max is the straight line.
+    limitSse: sseAt(rates[m - 1]),
+    noPlateauDetail: (highest) =>
+      `the join lies at or past the highest rate (${highest}), so the straight line fits as well.`,
+    rateFormat,
+  });
 }
 
 /**
@@ -114,7 +99,7 @@ export function estimateLinearPlateau(site: PreparedSite, tolerance = 1e-10): Cu
  * // see fitLinearPlateau
  */
 export function fitLinearPlateauPrepared(site: PreparedSite, options: FitOptions): ModelFit {
-  const est = estimateLinearPlateau(site);
+  const est = estimateLinearPlateau(site, undefined, options.rateFormat);
   if (est.status === 'too-few-rates') return unfittedFit(site, linearPlateauSpec, est.message);
   const { status } = est;
   const x0 = est.params.x0;

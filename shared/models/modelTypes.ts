@@ -5,6 +5,7 @@
  * parameter's unit follows from its formula (b of the straight line is kg grain
  * per kg nutrient, x0 is kg/ha, k is ha/kg).
  */
+import type { RateFormat } from './rateFormat';
 
 /** The six response models, by the name every other part of Plotrate uses. */
 export type ModelName =
@@ -69,6 +70,11 @@ export interface FitOptions {
    * The bootstrap uses 1e-7: ample for percentiles, and fewer evaluations.
    */
   searchTolerance?: number;
+  /**
+   * How status messages write rates (number and unit); default kg/ha rounded to
+   * whole kilograms from 100 up (shared/models/rateFormat).
+   */
+  rateFormat?: RateFormat;
 }
 
 /** An estimate with its asymptotic standard error and confidence interval. */

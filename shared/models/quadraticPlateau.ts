@@ -22,9 +22,11 @@ import {
   type CurveSpec,
 } from './finishFit';
 import { groupLinearCoefficients, linearCoefficients } from './linearCoefficients';
-import type { CurveEstimate, FitOptions, FitStatus, ModelFit, SiteData } from './modelTypes';
+import type { CurveEstimate, FitOptions, ModelFit, SiteData } from './modelTypes';
+import { plateauEstimate } from './plateauEstimate';
 import { prepareSite, type PreparedSite } from './prepareSite';
 import { profileSolver } from './profileSolver';
+import type { RateFormat } from './rateFormat';
 import { relaxedJoinBounds } from './relaxedJoinBounds';
 import { searchJoinPoint } from './searchJoinPoint';
 
@@ -53,18 +55,21 @@ export const quadraticPlateauSpec: CurveSpec = {
   r2Kind: 'centered',
 };
 
-const TIE = 1e-10;
-
 /**
  * The quadratic-plateau's estimate and status from the profiled search alone.
  * @param site - from prepareSite
  * @param tolerance - Brent's relative tolerance on x0, default 1e-10 (the bootstrap uses 1e-7)
+ * @param rateFormat - how messages write rates, default kg/ha rounded
  * @returns status, message, params {P, c, x0} (x0 = highest rate for "no-plateau" and
  *   "no-response", the second-lowest rate for "full-response-at-lowest-rate") and SSE
  * @example
  * estimateQuadraticPlateau(prepareSite({ rateKgHa: [0, 50, 100, 150, 200], yieldKgHa: [6300, 7800, 8700, 9000, 9000] }, 'none')).params.x0 // ≈ 150
  */
-export function estimateQuadraticPlateau(site: PreparedSite, tolerance = 1e-10): CurveEstimate {
+export function estimateQuadraticPlateau(
+  site: PreparedSite,
+  tolerance = 1e-10,
+  rateFormat?: RateFormat,
+): CurveEstimate {
   const why = tooFewRatesMessage(site, quadraticPlateauSpec, 3);
   if (why) return unfittedEstimate(site, quadraticPlateauSpec, why);
   const rates = site.rates;
@@ -92,34 +97,17 @@ export function estimateQuadraticPlateau(site: PreparedSite, tolerance = 1e-10):
     limitSse = Math.min(limitSse, quad.sse);
   }
 
-  let x0 = best.x0;
-  let status: FitStatus = 'ok';
-  let message: string;
-  if (best.sse >= solver.flatSse * (1 - TIE)) {
-    status = 'no-response';
-    message = 'Yield does not rise with rate: the best quadratic-plateau is flat.';
-    x0 = rMax;
-  } else if (x0 >= rMax * (1 - 1e-9) || best.sse >= limitSse * (1 - TIE)) {
-    status = 'no-plateau';
-    message = `No plateau within the tested rates: the curve has not levelled off by the highest rate (${rMax} kg/ha).`;
-    x0 = rMax;
-  } else if (x0 <= rates[1] * (1 + 1e-9)) {
-    status = 'full-response-at-lowest-rate';
-    message = `Full response by the lowest non-zero rate: the join lies between ${rates[0]} and ${rates[1]} kg/ha and these rates cannot place it more precisely.`;
-    x0 = rates[1];
-  } else {
-    message = 'Quadratic-plateau fitted; join point between tested rates.';
-  }
-  const sse = sseAt(x0);
-  return {
-    model: 'quadraticPlateau',
-    status,
-    message,
-    params: { P: solver.last.intercept, c: solver.last.beta, x0 },
-    sse,
-    testedRates: site.testedRates,
-    joinBetweenKgHa: status === 'full-response-at-lowest-rate' ? [rates[0], rates[1]] : null,
-  };
+  return plateauEstimate({
+    site,
+    spec: quadraticPlateauSpec,
+    solver,
+    sseAt,
+    best,
+    limitSse,
+    noPlateauDetail: (highest) =>
+      `the curve has not levelled off by the highest rate (${highest}).`,
+    rateFormat,
+  });
 }
 
 /**
@@ -131,7 +119,7 @@ export function estimateQuadraticPlateau(site: PreparedSite, tolerance = 1e-10):
  * // see fitQuadraticPlateau
  */
 export function fitQuadraticPlateauPrepared(site: PreparedSite, options: FitOptions): ModelFit {
-  const est = estimateQuadraticPlateau(site);
+  const est = estimateQuadraticPlateau(site, undefined, options.rateFormat);
   if (est.status === 'too-few-rates') return unfittedFit(site, quadraticPlateauSpec, est.message);
   const { status } = est;
   const x0 = est.params.x0;
