@@ -7,7 +7,7 @@ import { mkdirSync, writeFileSync, existsSync } from 'node:fs';
 import path from 'node:path';
 import { demoTrial, writeDemoWorkbook, demoSheetNames } from '../shared/demo';
 import { analyzeCommand, type Console2 } from './analyzeCommand';
-import type { AnalyzeArgs } from './parseArgs';
+import { analyzeDefaults } from './parseArgs';
 
 /** The demo workbook's file name (the same as the copy bundled in demo/). */
 export const demoFileName = 'wrenhollow-n-trials-2025.xlsx';
@@ -29,19 +29,8 @@ export async function demoCommand(dir: string, log: Console2, version: string): 
     writeFileSync(input, await writeDemoWorkbook(trial));
     log.out(`Wrote ${input}`);
   }
-  const base: Omit<
-    AnalyzeArgs,
-    'out' | 'pdf' | 'json' | 'crop' | 'units' | 'grainPrice' | 'nutrientPrice'
-  > = {
-    command: 'analyze',
-    files: [input],
-    product: null,
-    productPrice: null,
-    boot: 200,
-    seed: 1,
-    blocks: 'none',
-    map: [],
-  };
+  // The command line's own defaults, so the demo shows what a plain run gives.
+  const base = analyzeDefaults([input]);
   const createdAt = new Date().toISOString().replace(/\.\d+Z$/, 'Z');
   const corn = trial.sites.filter((s) => s.crop === 'corn').map((s) => s.name);
   const runs = [

@@ -27,6 +27,35 @@ export interface AnalyzeArgs {
   map: RoleOverride[];
 }
 
+/**
+ * The analyze command's settings before any option is read: no outputs, corn,
+ * the input's own units, no prices, 200 bootstrap resamples with seed 1, no
+ * block terms, no role overrides.
+ * @param files - the input files
+ * @returns a fresh AnalyzeArgs (the map list is the caller's own)
+ * @example
+ * analyzeDefaults(['a.csv']).boot // 200
+ */
+export function analyzeDefaults(files: string[] = []): AnalyzeArgs {
+  return {
+    command: 'analyze',
+    files,
+    out: null,
+    pdf: null,
+    json: null,
+    crop: 'corn',
+    units: null,
+    grainPrice: null,
+    nutrientPrice: null,
+    product: null,
+    productPrice: null,
+    boot: 200,
+    seed: 1,
+    blocks: 'none',
+    map: [],
+  };
+}
+
 export type Command =
   AnalyzeArgs | { command: 'demo'; dir: string } | { command: 'help' } | { command: 'version' };
 
@@ -72,23 +101,7 @@ export function parseArgs(argv: readonly string[]): Command {
       `Unknown command "${cmd}"; use "plotrate analyze FILE..." or "plotrate demo" (see plotrate --help).`,
     );
   }
-  const a: AnalyzeArgs = {
-    command: 'analyze',
-    files: [],
-    out: null,
-    pdf: null,
-    json: null,
-    crop: 'corn',
-    units: null,
-    grainPrice: null,
-    nutrientPrice: null,
-    product: null,
-    productPrice: null,
-    boot: 200,
-    seed: 1,
-    blocks: 'none',
-    map: [],
-  };
+  const a = analyzeDefaults();
   const path = (option: string, v: string | undefined): string => {
     if (!v || v.startsWith('--')) throw new UsageError(`${option} needs a file name.`);
     return v;

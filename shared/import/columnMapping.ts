@@ -3,10 +3,17 @@
  * can show it, the user can change any part, and a project can store it and
  * reuse it for the next file of the same shape ({@link ColumnMapping.shapeSignature}).
  */
-import type { ColumnRole, CropId } from '../table/plotTable';
+import { COLUMN_ROLES, type CropId } from '../table/plotTable';
+
+/**
+ * Every meaning a column can be given: the plot-table roles, the treatment-key
+ * fields (product, timing) and "ignore"; the one list that detection,
+ * validation and the command line's --map check against.
+ */
+export const MAPPED_ROLES = [...COLUMN_ROLES, 'product', 'timing', 'ignore'] as const;
 
 /** A column's meaning: a plot-table role, a treatment-key field, or nothing. */
-export type MappedRole = ColumnRole | 'product' | 'timing' | 'ignore';
+export type MappedRole = (typeof MAPPED_ROLES)[number];
 
 /** Units a header can name. Rates and yields per area; weights, areas, lengths per plot. */
 export type HeaderUnit =
@@ -27,6 +34,18 @@ export type HeaderUnit =
   | 'ft'
   | 'lb/bu'
   | 'kg/hl';
+
+/** The units a column of each role may carry; a role not listed has no unit. */
+export const UNITS_BY_ROLE: Readonly<Partial<Record<MappedRole, readonly HeaderUnit[]>>> = {
+  rate: ['kg/ha', 'lb/ac', 'g/m2'],
+  yield: ['kg/ha', 't/ha', 'lb/ac', 'bu/ac', 'g/m2'],
+  plotWeight: ['kg', 'g', 'lb'],
+  plotArea: ['m2', 'ft2', 'ha', 'ac'],
+  plotLength: ['m', 'ft'],
+  plotWidth: ['m', 'ft'],
+  moisture: ['%'],
+  testWeight: ['lb/bu', 'kg/hl'],
+};
 
 export interface ColumnAssignment {
   /** 1-based column number. */

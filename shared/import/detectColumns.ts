@@ -4,13 +4,15 @@
  * a treatment key or nothing to import. Every choice carries evidence text for
  * the user, and the result is plain data the user can change.
  */
-import type { ColumnRole } from '../table/plotTable';
-import type {
-  ColumnAssignment,
-  ColumnMapping,
-  HeaderUnit,
-  MappedRole,
-  SheetMapping,
+import { NUMERIC_COLUMN_ROLES, type ColumnRole } from '../table/plotTable';
+import {
+  MAPPED_ROLES,
+  UNITS_BY_ROLE,
+  type ColumnAssignment,
+  type ColumnMapping,
+  type HeaderUnit,
+  type MappedRole,
+  type SheetMapping,
 } from './columnMapping';
 import { cellNumber } from './cellNumber';
 import { normaliseHeader, roleFromHeader, unitFromHeader } from './headerWords';
@@ -83,49 +85,12 @@ function valuesEvidence(v: ColumnValues): string {
     : `${v.numbers.length} of ${v.filled} values are numbers`;
 }
 
-const numericRoles = new Set<MappedRole>([
-  'rate',
-  'yield',
-  'plotWeight',
-  'plotArea',
-  'plotLength',
-  'plotWidth',
-  'moisture',
-  'testWeight',
-  'year',
-]);
-
-const allowedUnits: Partial<Record<MappedRole, HeaderUnit[]>> = {
-  rate: ['kg/ha', 'lb/ac', 'g/m2'],
-  yield: ['kg/ha', 't/ha', 'lb/ac', 'bu/ac', 'g/m2'],
-  plotWeight: ['kg', 'g', 'lb'],
-  plotArea: ['m2', 'ft2', 'ha', 'ac'],
-  plotLength: ['m', 'ft'],
-  plotWidth: ['m', 'ft'],
-  moisture: ['%'],
-  testWeight: ['lb/bu', 'kg/hl'],
-};
+const numericRoles = new Set<MappedRole>(NUMERIC_COLUMN_ROLES);
 
 /** Roles a sheet holds at most one of; a second such column is left for the user to choose. */
-const singleRoles = new Set<MappedRole>([
-  'site',
-  'year',
-  'block',
-  'plot',
-  'treatment',
-  'rate',
-  'yield',
-  'plotWeight',
-  'plotArea',
-  'plotLength',
-  'plotWidth',
-  'moisture',
-  'testWeight',
-  'notes',
-  'exclude',
-  'product',
-  'timing',
-]);
+const singleRoles = new Set<MappedRole>(
+  MAPPED_ROLES.filter((r) => r !== 'group' && r !== 'ignore'),
+);
 
 function guessYieldUnit(v: ColumnValues, usHints: boolean): { unit: HeaderUnit; why: string } {
   const m = median(v.numbers);
@@ -144,27 +109,27 @@ function guessYieldUnit(v: ColumnValues, usHints: boolean): { unit: HeaderUnit; 
     : { unit: 'kg/ha', why: `no unit in the header; values near ${Math.round(m)} read as kg/ha` };
 }
 
+/** A sheet left out of the import, with the reason the user sees. */
+function ignoredSheet(sheet: RawSheet, evidence: string): SheetMapping {
+  return {
+    sheet: sheet.name,
+    use: 'ignore',
+    headerRow: 0,
+    site: { from: 'sheet-name' },
+    columns: [],
+    evidence,
+  };
+}
+
 function mapSheet(sheet: RawSheet, multipleSheets: boolean): SheetMapping {
-  if (sheet.hidden) {
-    return {
-      sheet: sheet.name,
-      use: 'ignore',
-      headerRow: 0,
-      site: { from: 'sheet-name' },
-      columns: [],
-      evidence: 'hidden sheet; include it by hand if it holds plots',
-    };
-  }
+  if (sheet.hidden)
+    return ignoredSheet(sheet, 'hidden sheet; include it by hand if it holds plots');
   const headerRow = findHeaderRow(sheet);
   if (headerRow === 0) {
-    return {
-      sheet: sheet.name,
-      use: 'ignore',
-      headerRow: 0,
-      site: { from: 'sheet-name' },
-      columns: [],
-      evidence: `no row in the first ${headerSearchRows} names two or more known columns (plot, block, rate, yield, …)`,
-    };
+    return ignoredSheet(
+      sheet,
+      `no row in the first ${headerSearchRows} names two or more known columns (plot, block, rate, yield, …)`,
+    );
   }
   const header = sheet.rows[headerRow - 1];
   const usHints = header.some((c) => c && /\b(bu|lbs?|ac|acre)\b/.test(normaliseHeader(c.text)));
@@ -212,7 +177,7 @@ function mapSheet(sheet: RawSheet, multipleSheets: boolean): SheetMapping {
     a.role = found.role;
     const why: string[] = [`header word "${found.word}"`];
     const u = unitFromHeader(text);
-    const allowed = allowedUnits[a.role];
+    const allowed = UNITS_BY_ROLE[a.role];
     if (u && allowed?.includes(u.unit)) {
       a.unit = u.unit;
       why.push(`unit "${u.text}"`);

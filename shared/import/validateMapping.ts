@@ -4,42 +4,9 @@
  * field is checked and a wrong one is named (sheet, column) in an ImportError
  * rather than failing later with a TypeError.
  */
-import type { ColumnMapping, HeaderUnit, MappedRole } from './columnMapping';
+import { MAPPED_ROLES, UNITS_BY_ROLE, type ColumnMapping } from './columnMapping';
 import { ImportError } from './importError';
 import { isCropId } from '../units/crops';
-
-const roles: readonly MappedRole[] = [
-  'site',
-  'year',
-  'block',
-  'plot',
-  'treatment',
-  'rate',
-  'yield',
-  'plotWeight',
-  'plotArea',
-  'plotLength',
-  'plotWidth',
-  'moisture',
-  'testWeight',
-  'notes',
-  'exclude',
-  'group',
-  'product',
-  'timing',
-  'ignore',
-];
-
-const unitsByRole: Partial<Record<MappedRole, readonly HeaderUnit[]>> = {
-  rate: ['kg/ha', 'lb/ac', 'g/m2'],
-  yield: ['kg/ha', 't/ha', 'lb/ac', 'bu/ac', 'g/m2'],
-  plotWeight: ['kg', 'g', 'lb'],
-  plotArea: ['m2', 'ft2', 'ha', 'ac'],
-  plotLength: ['m', 'ft'],
-  plotWidth: ['m', 'ft'],
-  moisture: ['%'],
-  testWeight: ['lb/bu', 'kg/hl'],
-};
 
 /**
  * Validates a column mapping.
@@ -100,9 +67,9 @@ export function validateMapping(mapping: unknown, file: string): ColumnMapping {
         throw bad(`has a column of ${at} without a valid column number`, sh.sheet);
       }
       const col = `column ${c.letter ?? c.col} ("${c.header ?? ''}") of ${at}`;
-      if (!roles.includes(c.role))
+      if (!MAPPED_ROLES.includes(c.role))
         throw bad(`gives ${col} the unknown role "${String(c.role)}"`, sh.sheet);
-      const units = unitsByRole[c.role];
+      const units = UNITS_BY_ROLE[c.role];
       if (units && c.unit !== null && c.unit !== undefined && !units.includes(c.unit)) {
         throw bad(
           `gives ${col} the unit "${String(c.unit)}", which is not a unit for ${c.role} (${units.join(', ')})`,

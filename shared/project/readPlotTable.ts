@@ -1,12 +1,13 @@
-import type {
-  CellRef,
-  ColumnRole,
-  CropId,
-  Exclusion,
-  OriginalCell,
-  Plot,
-  PlotTable,
-  SourceFile,
+import {
+  COLUMN_ROLES,
+  type CellRef,
+  type ColumnRole,
+  type CropId,
+  type Exclusion,
+  type OriginalCell,
+  type Plot,
+  type PlotTable,
+  type SourceFile,
 } from '../table/plotTable';
 import type { FieldReader } from './fieldReader';
 
@@ -20,30 +21,10 @@ const CROPS = [
   'canola',
 ] as const satisfies readonly CropId[];
 
-const ROLES = [
-  'site',
-  'year',
-  'block',
-  'plot',
-  'treatment',
-  'rate',
-  'yield',
-  'plotWeight',
-  'plotArea',
-  'plotLength',
-  'plotWidth',
-  'moisture',
-  'testWeight',
-  'notes',
-  'exclude',
-  'group',
-] as const satisfies readonly ColumnRole[];
-
 const EXCLUDERS = ['sheet', 'user', 'quality-check'] as const satisfies readonly Exclusion['by'][];
 
-// If the plot table gains a crop or a role, these lines stop compiling until the lists above follow.
+// If the plot table gains a crop, this line stops compiling until the list above follows.
 const _allCrops: Exclude<CropId, (typeof CROPS)[number]> extends never ? true : never = true;
-const _allRoles: Exclude<ColumnRole, (typeof ROLES)[number]> extends never ? true : never = true;
 
 /**
  * Read the list of source files (name, size in bytes, SHA-256 hex).
@@ -101,8 +82,8 @@ function readPlot(p: FieldReader): Plot {
   const original: Partial<Record<ColumnRole, OriginalCell>> = {};
   const o = p.field('original');
   for (const key of Object.keys(o.object())) {
-    if (!(ROLES as readonly string[]).includes(key))
-      o.fail(`names "${key}", which is not a column role (${ROLES.join(', ')})`);
+    if (!(COLUMN_ROLES as readonly string[]).includes(key))
+      o.fail(`names "${key}", which is not a column role (${COLUMN_ROLES.join(', ')})`);
     const cell = o.field(key);
     original[key as ColumnRole] = {
       text: cell.field('text').string(),

@@ -2,23 +2,11 @@
  * Plot-by-plot checks of single values: text where a number belongs, negative
  * numbers, yields above the crop's plausible bound, moistures outside a range.
  */
-import type { ColumnRole, Plot, PlotTable } from '../table/plotTable';
+import { NUMERIC_COLUMN_ROLES, type Plot, type PlotTable } from '../table/plotTable';
 import { crops } from '../units/crops';
 import { yieldFromKgHa } from '../units/convertYield';
 import { isMissingMarker, parseNumberText } from '../import/parseNumberText';
 import { describeRef, type QualityFinding } from './qualityFinding';
-
-const numericRoles: ColumnRole[] = [
-  'rate',
-  'yield',
-  'plotWeight',
-  'plotArea',
-  'plotLength',
-  'plotWidth',
-  'moisture',
-  'testWeight',
-  'year',
-];
 
 function isNumberText(text: string): boolean {
   return parseNumberText(text, false) !== null || parseNumberText(text, true) !== null;
@@ -41,7 +29,7 @@ export function checkValues(
   const finding = (p: Plot, f: Omit<QualityFinding, 'site' | 'plotIds'>) =>
     out.push({ ...f, site: p.site, plotIds: [p.id] });
   for (const p of table.plots) {
-    for (const role of numericRoles) {
+    for (const role of NUMERIC_COLUMN_ROLES) {
       const o = p.original[role];
       if (!o) continue;
       const t = o.text.trim();

@@ -6,7 +6,7 @@
  * in the flat form the provenance sheet lists. Pure: bytes in, values out.
  */
 import { buildPlotTable } from '../import/buildPlotTable';
-import type { ColumnMapping, MappedRole } from '../import/columnMapping';
+import { MAPPED_ROLES, type ColumnMapping, type MappedRole } from '../import/columnMapping';
 import { detectColumns } from '../import/detectColumns';
 import { unitFromHeader } from '../import/headerWords';
 import { ImportError } from '../import/importError';
@@ -19,28 +19,8 @@ import { yieldUnits, type YieldUnit } from '../units/convertYield';
 import type { ReportUnits } from './reportSettings';
 import type { MappingEntry } from './trialReport';
 
-/** Roles a user may assign with an override. */
-export const mappableRoles: readonly MappedRole[] = [
-  'site',
-  'year',
-  'block',
-  'plot',
-  'treatment',
-  'rate',
-  'yield',
-  'plotWeight',
-  'plotArea',
-  'plotLength',
-  'plotWidth',
-  'moisture',
-  'testWeight',
-  'notes',
-  'exclude',
-  'group',
-  'product',
-  'timing',
-  'ignore',
-];
+/** Roles a user may assign with an override: every role a column can have. */
+export const mappableRoles: readonly MappedRole[] = MAPPED_ROLES;
 
 /** A user's "this header holds this role". */
 export interface RoleOverride {

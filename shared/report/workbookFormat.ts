@@ -19,6 +19,24 @@ export const P_VALUE_FORMAT = '[<0.001]"< 0.001";0.000';
 export const PERCENT_VALUE_FORMAT = '0.0" %"';
 
 /**
+ * The headers of the optimum columns that the overview and each site's model
+ * table share: the rate, its interval and the yield there.
+ * @param rateUnitN - the rate unit written of nutrient, e.g. "lb N/ac"
+ * @param yieldUnit - the display yield unit
+ * @returns four headers, in column order
+ * @example
+ * optimumHeaders('kg N/ha', 't/ha')[0] // 'Optimum rate (kg N/ha)'
+ */
+export function optimumHeaders(rateUnitN: string, yieldUnit: YieldUnit): string[] {
+  return [
+    `Optimum rate (${rateUnitN})`,
+    `Interval low (${rateUnitN})`,
+    `Interval high (${rateUnitN})`,
+    `Yield at optimum (${yieldUnit})`,
+  ];
+}
+
+/**
  * Number format for a rate column.
  * @param unit - the display rate unit
  * @returns whole numbers for lb/ac and kg/ha (plot rates are set in whole units), 0.0 for g/m²

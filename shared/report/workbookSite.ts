@@ -11,6 +11,7 @@ import {
   P_VALUE_FORMAT,
   fitColumns,
   magnitudeFormat,
+  optimumHeaders,
   rateFormat,
   setupPage,
   styleHeaderRow,
@@ -190,10 +191,7 @@ export function workbookSite(
     'Residual df',
     'AICc',
     'R²',
-    `Optimum rate (${rN})`,
-    `Interval low (${rN})`,
-    `Interval high (${rN})`,
-    `Yield at optimum (${yu})`,
+    ...optimumHeaders(rN, yu),
     'Note',
   ]);
   const f2 = u.yield(1) ** 2;

@@ -18,24 +18,47 @@ export interface CellRef {
   row: number;
 }
 
-/** The column roles import can assign. */
-export type ColumnRole =
-  | 'site'
-  | 'year'
-  | 'block'
-  | 'plot'
-  | 'treatment'
-  | 'rate'
-  | 'yield'
-  | 'plotWeight'
-  | 'plotArea'
-  | 'plotLength'
-  | 'plotWidth'
-  | 'moisture'
-  | 'testWeight'
-  | 'notes'
-  | 'exclude'
-  | 'group';
+/**
+ * The column roles import can assign, in the order screens and messages list
+ * them; the one list every stage checks roles against.
+ */
+export const COLUMN_ROLES = [
+  'site',
+  'year',
+  'block',
+  'plot',
+  'treatment',
+  'rate',
+  'yield',
+  'plotWeight',
+  'plotArea',
+  'plotLength',
+  'plotWidth',
+  'moisture',
+  'testWeight',
+  'notes',
+  'exclude',
+  'group',
+] as const;
+
+/** A column role of the plot table. */
+export type ColumnRole = (typeof COLUMN_ROLES)[number];
+
+/** The roles whose cells hold text: names, labels, notes and exclusion flags. */
+const TEXT_COLUMN_ROLES: ReadonlySet<ColumnRole> = new Set<ColumnRole>([
+  'site',
+  'block',
+  'plot',
+  'treatment',
+  'notes',
+  'exclude',
+  'group',
+]);
+
+/** The roles whose cells hold numbers (import reads them as numbers, quality checks them as such). */
+export const NUMERIC_COLUMN_ROLES: readonly ColumnRole[] = COLUMN_ROLES.filter(
+  (r) => !TEXT_COLUMN_ROLES.has(r),
+);
 
 /** The original cell behind one value: its text as shown in the sheet and its address. */
 export interface OriginalCell {
