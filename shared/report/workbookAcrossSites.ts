@@ -11,7 +11,7 @@ import {
   fitColumns,
   rateFormat,
   setupPage,
-  styleHeaderRow,
+  tableHeading,
   styleTitle,
   yieldFormat,
 } from './workbookFormat';
@@ -72,12 +72,13 @@ export function workbookAcrossSites(
     r++;
   }
   r++;
-  ws.getCell(r, 1).value = 'Best rate at each site';
-  styleTitle(ws.getCell(r, 1));
-  titles.add(r++);
-  const h = ws.getRow(r++);
-  h.values = ['Site', `Best rate (${rN})`, `Net return there (${money})`];
-  styleHeaderRow(h);
+  r = tableHeading(
+    ws,
+    r,
+    'Best rate at each site',
+    ['Site', `Best rate (${rN})`, `Net return there (${money})`],
+    titles,
+  );
   for (const o of a.siteOptima) {
     const row = ws.getRow(r++);
     row.values = [o.site, u.rate(o.rateKgHa), u.perArea(o.returnPerHa)];
@@ -86,13 +87,13 @@ export function workbookAcrossSites(
   }
   if (a.tests.length) {
     r++;
-    ws.getCell(r, 1).value =
-      'Does one response describe every site? (extra-sum-of-squares F-tests)';
-    styleTitle(ws.getCell(r, 1));
-    titles.add(r++);
-    const th = ws.getRow(r++);
-    th.values = ['Question', 'F', 'df1', 'df2', 'p', 'Verdict'];
-    styleHeaderRow(th);
+    r = tableHeading(
+      ws,
+      r,
+      'Does one response describe every site? (extra-sum-of-squares F-tests)',
+      ['Question', 'F', 'df1', 'df2', 'p', 'Verdict'],
+      titles,
+    );
     for (const t of a.tests) {
       const row = ws.getRow(r++);
       row.values = [t.question, t.F, t.df1, t.df2, t.p, t.verdict];

@@ -125,6 +125,64 @@ export function styleTitle(cell: ExcelJS.Cell, size = 12): void {
 }
 
 /**
+ * Writes a section title in column A and notes its row (fitColumns leaves title rows out
+ * of the column widths).
+ * @param ws - the worksheet
+ * @param r - the 1-based row
+ * @param text - the title
+ * @param titles - the sheet's title rows, to which r is added
+ * @example
+ * titleRow(ws, 5, 'Source files', titles)
+ */
+export function titleRow(
+  ws: ExcelJS.Worksheet,
+  r: number,
+  text: string,
+  titles: Set<number>,
+): void {
+  ws.getCell(r, 1).value = text;
+  styleTitle(ws.getCell(r, 1));
+  titles.add(r);
+}
+
+/**
+ * Writes a styled header row.
+ * @param ws - the worksheet
+ * @param r - the 1-based row
+ * @param values - the column headers
+ * @example
+ * headerRow(ws, 6, ['File', 'Bytes', 'SHA-256'])
+ */
+export function headerRow(ws: ExcelJS.Worksheet, r: number, values: string[]): void {
+  const row = ws.getRow(r);
+  row.values = values;
+  styleHeaderRow(row);
+}
+
+/**
+ * A titled table's heading: the title row, then the header row.
+ * @param ws - the worksheet
+ * @param r - the title's 1-based row
+ * @param text - the title
+ * @param headers - the column headers
+ * @param titles - the sheet's title rows
+ * @returns the first row of the table's body
+ * @example
+ * r = tableHeading(ws, r, 'Source files', ['File', 'Bytes', 'SHA-256'], titles)
+ */
+export function tableHeading(
+  ws: ExcelJS.Worksheet,
+  r: number,
+  text: string,
+  headers: string[],
+  titles: Set<number>,
+): number {
+  titleRow(ws, r, text, titles);
+  headerRow(ws, r + 1, headers);
+  return r + 2;
+}
+
+/**
  * Page setup for printing: fit to one page wide, landscape or portrait, paper by units.
  * @param sheet - the worksheet
  * @param paper - 'letter' (US units) or 'a4'

@@ -6,7 +6,7 @@
  */
 import type ExcelJS from 'exceljs';
 import type { TrialReport } from './trialReport';
-import { fitColumns, setupPage, styleHeaderRow, styleTitle } from './workbookFormat';
+import { fitColumns, setupPage, styleTitle, tableHeading } from './workbookFormat';
 
 /**
  * Adds the provenance sheet.
@@ -46,32 +46,23 @@ export function workbookProvenance(
     r++;
   }
   r++;
-  ws.getCell(r, 1).value = 'Source files';
-  styleTitle(ws.getCell(r, 1));
-  titles.add(r++);
-  let h = ws.getRow(r++);
-  h.values = ['File', 'Bytes', 'SHA-256'];
-  styleHeaderRow(h);
+  r = tableHeading(ws, r, 'Source files', ['File', 'Bytes', 'SHA-256'], titles);
   for (const f of report.sources) {
     ws.getRow(r++).values = [f.name, f.bytes, f.sha256];
   }
   r++;
-  ws.getCell(r, 1).value = 'Column mapping';
-  styleTitle(ws.getCell(r, 1));
-  titles.add(r++);
-  h = ws.getRow(r++);
-  h.values = ['File', 'Sheet', 'Role', 'Header', 'Unit'];
-  styleHeaderRow(h);
+  r = tableHeading(ws, r, 'Column mapping', ['File', 'Sheet', 'Role', 'Header', 'Unit'], titles);
   for (const m of report.mapping) {
     ws.getRow(r++).values = [m.file, m.sheet, m.role, m.header, m.unit];
   }
   r++;
-  ws.getCell(r, 1).value = 'Plots left out';
-  styleTitle(ws.getCell(r, 1));
-  titles.add(r++);
-  h = ws.getRow(r++);
-  h.values = ['Site', 'Plot', 'Reason', 'Decided by', 'Source'];
-  styleHeaderRow(h);
+  r = tableHeading(
+    ws,
+    r,
+    'Plots left out',
+    ['Site', 'Plot', 'Reason', 'Decided by', 'Source'],
+    titles,
+  );
   let any = false;
   for (const site of report.sites) {
     for (const p of site.plots) {

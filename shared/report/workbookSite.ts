@@ -14,7 +14,8 @@ import {
   optimumHeaders,
   rateFormat,
   setupPage,
-  styleHeaderRow,
+  headerRow,
+  titleRow,
   styleTitle,
   yieldFormat,
 } from './workbookFormat';
@@ -24,18 +25,6 @@ export interface SheetImage {
   png: Uint8Array;
   widthPx: number;
   heightPx: number;
-}
-
-function header(ws: ExcelJS.Worksheet, r: number, values: string[]): void {
-  const row = ws.getRow(r);
-  row.values = values;
-  styleHeaderRow(row);
-}
-
-function title(ws: ExcelJS.Worksheet, r: number, text: string, titles: Set<number>): void {
-  ws.getCell(r, 1).value = text;
-  styleTitle(ws.getCell(r, 1));
-  titles.add(r);
 }
 
 /**
@@ -71,7 +60,7 @@ export function workbookSite(
 
   // Plot data.
   let r = 4;
-  header(ws, r, [
+  headerRow(ws, r, [
     'Plot',
     'Block',
     'Treatment',
@@ -109,8 +98,8 @@ export function workbookSite(
 
   // Treatment means ± SE.
   r++;
-  title(ws, r++, 'Treatment means ± standard error', titles);
-  header(ws, r++, [`N rate (${rN})`, 'Plots', `Mean yield (${yu})`, `SE (${yu})`]);
+  titleRow(ws, r++, 'Treatment means ± standard error', titles);
+  headerRow(ws, r++, [`N rate (${rN})`, 'Plots', `Mean yield (${yu})`, `SE (${yu})`]);
   for (const m of site.treatmentMeans) {
     const row = ws.getRow(r++);
     row.values = [u.rate(m.rateKgHa), m.n, u.yield(m.meanKgHa), u.yield(m.seKgHa)];
@@ -123,7 +112,7 @@ export function workbookSite(
   r++;
   if (site.anova) {
     const a = site.anova;
-    title(
+    titleRow(
       ws,
       r++,
       a.design === 'rcbd'
@@ -131,7 +120,7 @@ export function workbookSite(
         : 'Analysis of variance (one-way)',
       titles,
     );
-    header(ws, r++, [
+    headerRow(ws, r++, [
       'Source',
       'df',
       `Sum of squares ((${yu})²)`,
@@ -176,14 +165,14 @@ export function workbookSite(
         `Unbalanced: ${a.missingPlots.length} plot${a.missingPlots.length === 1 ? '' : 's'} missing (${list}); the rate sum of squares is adjusted for blocks and the means above are least-squares means.`;
     }
   } else {
-    title(ws, r++, 'Analysis of variance', titles);
+    titleRow(ws, r++, 'Analysis of variance', titles);
     ws.getCell(r++, 1).value = 'Not available: fewer than two rates with plots.';
   }
 
   // Models.
   r++;
-  title(ws, r++, 'Response models (ranked by AICc; smaller is better)', titles);
-  header(ws, r++, [
+  titleRow(ws, r++, 'Response models (ranked by AICc; smaller is better)', titles);
+  headerRow(ws, r++, [
     'Model',
     'Status',
     'Parameters',
@@ -245,7 +234,7 @@ export function workbookSite(
 
   // Intercept test.
   r++;
-  title(
+  titleRow(
     ws,
     r++,
     'Is the intercept needed? (straight line against the line through the origin)',
@@ -253,7 +242,7 @@ export function workbookSite(
   );
   if (site.interceptTest) {
     const t = site.interceptTest;
-    header(ws, r++, [`Intercept (${yu})`, `SE (${yu})`, 't', 'F', 'df1', 'df2', 'p', 'Verdict']);
+    headerRow(ws, r++, [`Intercept (${yu})`, `SE (${yu})`, 't', 'F', 'df1', 'df2', 'p', 'Verdict']);
     const row = ws.getRow(r++);
     row.values = [
       u.yield(t.interceptKgHa),
@@ -275,7 +264,7 @@ export function workbookSite(
   }
   if (site.warnings.length) {
     r++;
-    title(ws, r++, 'Warnings', titles);
+    titleRow(ws, r++, 'Warnings', titles);
     for (const w of site.warnings) ws.getCell(r++, 1).value = w;
   }
   const lastRow = r - 1;
