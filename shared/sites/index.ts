@@ -39,8 +39,9 @@
  * return curve (gridKgHa, meanReturnPerHa), bestRateKgHa, profitableRange { lowKgHa, highKgHa,
  * bandPerHa, contiguous }, siteOptima and siteOptimumDistribution (min, quartiles, median, max).
  * Show `regional.text.cautions` wherever the regional rate is shown. "Responded" = the site's rate
- * effect (yield on rate as a factor, with blocks) is significant at alpha. A site whose chosen
- * model reaches no plateau enters the regional mean through its limit curve, with a note.
+ * effect (yield on rate as a factor, with blocks) is significant at alpha. With one model for all
+ * sites, a site where that model reaches no plateau enters the regional mean through its limit
+ * curve, with a note ('best' never picks such a fit: recommendationModel wants a usable rate).
  * The analysis is plain data (fits without `predict`, see FitData): a worker can post it, and
  * the window can call repriceAcrossSites on the copy.
  *
