@@ -131,7 +131,11 @@ function findingLines(findings: readonly QualityFinding[]): {
     const ref = f.refs.length ? describeRef(f.refs[0]) : '';
     const text = ref && !f.message.includes(f.refs[0].cell) ? `${f.message} (${ref})` : f.message;
     if (f.site === undefined) run.push(text);
-    else bySite.set(f.site, [...(bySite.get(f.site) ?? []), text]);
+    else {
+      const list = bySite.get(f.site);
+      if (list) list.push(text);
+      else bySite.set(f.site, [text]);
+    }
   }
   return { bySite, run };
 }
