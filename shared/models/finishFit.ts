@@ -9,7 +9,7 @@
  * on a grid and a prediction function.
  */
 import { fisherFUpperP, studentTQuantile } from '../stats/distributions';
-import { qrDecompose, unscaledCovariance } from '../stats/qr';
+import { qrDecompose, type QrDecomposition } from '../stats/qr';
 import type {
   CurveEstimate,
   FitOptions,
@@ -21,6 +21,7 @@ import type {
 } from './modelTypes';
 import { pureError } from './pureError';
 import type { PreparedSite } from './prepareSite';
+import { exactScratch } from './exactScratch';
 import { blockColumns } from './profileSolver';
 
 /** How a model's curve is evaluated and differentiated. */
@@ -63,6 +64,12 @@ export interface FinishInput {
   plateauYield?: DerivedQuantity;
   joinBetweenKgHa?: [number, number] | null;
   stdErrorNote?: string;
+  /**
+   * For a curve linear in its parameters (straight lines, quadratic): the QR of
+   * its least-squares design, which is also the QR of its Jacobian, so it is not
+   * decomposed twice (linearCoefficients returns it).
+   */
+  designQr?: QrDecomposition;
 }
 
 const tCache = new Map<number, number>();
@@ -102,11 +109,18 @@ export function finishFit(input: FinishInput): ModelFit {
   }
 
   // Curve values once per distinct rate, then per plot with its block offset.
+  // Fitted values, residuals and the curve grid share one buffer: a typed array
+  // of more than a few numbers gets its own off-heap store, which costs more to
+  // allocate and collect than the numbers it holds.
   const m = site.rates.length;
-  const atRate = new Float64Array(m);
+  const points = Math.max(options.curvePoints ?? 61, 2);
+  const store = new ArrayBuffer(8 * (2 * n + 2 * points));
+  const fitted = new Float64Array(store, 0, n);
+  const residuals = new Float64Array(store, 8 * n, n);
+  const curveRate = new Float64Array(store, 16 * n, points);
+  const curveYield = new Float64Array(store, 16 * n + 8 * points, points);
+  const atRate = scratch(AT_RATE, m);
   spec.values(site.rates, params, atRate);
-  const fitted = new Float64Array(n);
-  const residuals = new Float64Array(n);
   let sse = 0;
   for (let i = 0; i < n; i++) {
     const f = atRate[site.groupOf[i]] + offsets[blockOf[i]];
@@ -122,10 +136,12 @@ export function finishFit(input: FinishInput): ModelFit {
   // orthogonal blocks (or none) JᵀJ is block diagonal and the curve block is
   // Σ_j n_j J_j J_jᵀ over distinct rates, so the QR of the m rows √n_j·J_j gives
   // the same covariance of the curve parameters at a fraction of the cost.
-  const row = new Float64Array(q);
-  let qr;
-  if (site.orthogonalBlockOffsets) {
-    const jac = new Float64Array(m * q);
+  const row = scratch(ROW, q);
+  let qr: QrDecomposition;
+  if (input.designQr) {
+    qr = input.designQr;
+  } else if (site.orthogonalBlockOffsets) {
+    const jac = exactScratch(m * q);
     for (let j = 0; j < m; j++) {
       spec.gradient(site.rates[j], params, row);
       const w = Math.sqrt(site.counts[j]);
@@ -142,39 +158,20 @@ export function finishFit(input: FinishInput): ModelFit {
     qr = qrDecompose(jac, n, p);
   }
   const identified = qr.rank === qr.cols;
-  const unscaled = identified ? unscaledCovariance(qr) : null;
-  const covariance: number[][] = [];
-  for (let a = 0; a < q; a++) {
-    const r: number[] = [];
-    for (let b = 0; b < q; b++) r.push(unscaled ? unscaled[a][b] * s2 : NaN);
-    covariance.push(r);
-  }
+  const covariance = curveCovariance(qr, q, identified ? s2 : NaN);
 
   const level = options.confidence ?? 0.95;
   const tCrit = dfResidual > 0 ? tCritical(level, dfResidual) : NaN;
   const paramRecord: Record<string, number> = {};
   const stdErrors: Record<string, number> = {};
   const confidenceIntervals: Record<string, [number, number]> = {};
-  spec.paramNames.forEach((name, k) => {
+  for (let k = 0; k < q; k++) {
+    const name = spec.paramNames[k];
     const se = Math.sqrt(covariance[k][k]);
     paramRecord[name] = params[k];
     stdErrors[name] = se;
     confidenceIntervals[name] = [params[k] - tCrit * se, params[k] + tCrit * se];
-  });
-  const derived = (d: DerivedQuantity | undefined): IntervalEstimate | null => {
-    if (!d) return null;
-    let v = 0;
-    for (let a = 0; a < q; a++) {
-      for (let b = 0; b < q; b++) v += d.gradient[a] * covariance[a][b] * d.gradient[b];
-    }
-    const se = Math.sqrt(v);
-    return {
-      estimate: d.value,
-      stdError: se,
-      ciLow: d.value - tCrit * se,
-      ciHigh: d.value + tCrit * se,
-    };
-  };
+  }
 
   let mean = 0;
   if (spec.r2Kind === 'centered') {
@@ -191,46 +188,20 @@ export function finishFit(input: FinishInput): ModelFit {
   const aicc = n - k - 1 > 0 ? aic + (2 * k * (k + 1)) / (n - k - 1) : Infinity;
   const bic = -2 * logLik + k * Math.log(n);
 
-  const pe = pureError(site);
-  let lackOfFit: LackOfFit | null = null;
-  const dfLack = dfResidual - pe.df;
-  if (pe.df > 0 && dfLack > 0) {
-    const ssLack = Math.max(sse - pe.ss, 0);
-    const f = ssLack / dfLack / (pe.ss / pe.df);
-    // The p-value (an incomplete beta, about a microsecond) is computed on first
-    // read: batch runs that only rank and price the fits never need it.
-    let p: number | null = null;
-    lackOfFit = {
-      ssLackOfFit: ssLack,
-      dfLackOfFit: dfLack,
-      ssPureError: pe.ss,
-      dfPureError: pe.df,
-      f,
-      get p(): number {
-        if (p === null) p = fisherFUpperP(f, dfLack, pe.df);
-        return p;
-      },
-    };
-  }
-
-  const points = Math.max(options.curvePoints ?? 61, 2);
-  const lo = site.testedRates.lowestKgHa;
-  const hi = site.testedRates.highestKgHa;
-  const curveRate = new Float64Array(points);
-  const curveYield = new Float64Array(points);
-  const frozen = Float64Array.from(params);
-  for (let i = 0; i < points; i++) curveRate[i] = lo + ((hi - lo) * i) / (points - 1);
-  spec.values(curveRate, frozen, curveYield);
   const blockOffsets: Record<string, number> = {};
   if (nbCoef > 0) site.blockLabels.forEach((label, b) => (blockOffsets[label] = offsets[b]));
 
-  const notes: string[] = [];
-  if (input.stdErrorNote) notes.push(input.stdErrorNote);
+  let stdErrorNote = input.stdErrorNote ?? '';
   if (!identified) {
-    notes.push(
-      'The parameters are not all identified by these rates, so no standard errors are given.',
-    );
+    stdErrorNote +=
+      (stdErrorNote ? ' ' : '') +
+      'The parameters are not all identified by these rates, so no standard errors are given.';
   }
+  const lo = site.testedRates.lowestKgHa;
+  const hi = site.testedRates.highestKgHa;
+  for (let i = 0; i < points; i++) curveRate[i] = lo + ((hi - lo) * i) / (points - 1);
+  spec.values(curveRate, params, curveYield);
+  // `params` is the caller's fresh array and is not changed later, so predict keeps it.
   return {
     model: spec.model,
     label: spec.label,
@@ -242,10 +213,10 @@ export function finishFit(input: FinishInput): ModelFit {
     stdErrors,
     confidenceIntervals,
     blockOffsets,
-    joinPoint: derived(input.joinPoint),
-    plateauYield: derived(input.plateauYield),
+    joinPoint: intervalOf(input.joinPoint, covariance, tCrit),
+    plateauYield: intervalOf(input.plateauYield, covariance, tCrit),
     joinBetweenKgHa: input.joinBetweenKgHa ?? null,
-    stdErrorNote: notes.join(' '),
+    stdErrorNote,
     testedRates: site.testedRates,
     n,
     parameterCount: p,
@@ -256,13 +227,107 @@ export function finishFit(input: FinishInput): ModelFit {
     r2Kind: spec.r2Kind,
     aicc,
     bic,
-    lackOfFit,
+    lackOfFit: lackOfFitTest(site, sse, dfResidual),
     residuals,
     fitted,
     curve: { rateKgHa: curveRate, yieldKgHa: curveYield },
     covariance,
     paramNames: spec.paramNames.slice(),
-    predict: (rateKgHa: number) => spec.value(rateKgHa, frozen),
+    predict: (rateKgHa: number) => spec.value(rateKgHa, params),
+  };
+}
+
+/** Reused buffers, one per purpose (the engine is single-threaded within a worker). */
+const ROW = { buffer: new Float64Array(8) };
+const R_INVERSE = { buffer: new Float64Array(64) };
+const AT_RATE = { buffer: new Float64Array(16) };
+function scratch(holder: { buffer: Float64Array }, length: number): Float64Array {
+  if (holder.buffer.length < length) holder.buffer = new Float64Array(2 * length);
+  return holder.buffer;
+}
+
+/**
+ * s²·(RᵀR)⁻¹ for the first q parameters, from R of the Jacobian's QR: R⁻¹ by
+ * back substitution, then (R⁻¹R⁻ᵀ)_ab = Σ_k R⁻¹_ak R⁻¹_bk (the same sums, in the
+ * same order, as shared/stats unscaledCovariance, which builds all p × p).
+ * @param qr - QR of the Jacobian (curve columns first)
+ * @param q - curve parameters
+ * @param s2 - residual variance; NaN when the parameters are not identified
+ * @returns q × q covariance, row-major arrays
+ */
+function curveCovariance(qr: QrDecomposition, q: number, s2: number): number[][] {
+  const covariance: number[][] = [];
+  if (!(s2 === s2)) {
+    for (let a = 0; a < q; a++) covariance.push(new Array<number>(q).fill(NaN));
+    return covariance;
+  }
+  const p = qr.cols;
+  const rows = qr.rows;
+  const { packed, rDiagonal } = qr;
+  const rInv = scratch(R_INVERSE, p * p);
+  for (let col = 0; col < p; col++) {
+    for (let i = col; i >= 0; i--) {
+      let s = i === col ? 1 : 0;
+      for (let j = i + 1; j <= col; j++) s -= packed[j * rows + i] * rInv[j * p + col];
+      rInv[i * p + col] = s / rDiagonal[i];
+    }
+  }
+  for (let a = 0; a < q; a++) covariance.push(new Array<number>(q));
+  for (let a = 0; a < q; a++) {
+    for (let b = a; b < q; b++) {
+      let s = 0;
+      for (let k = b; k < p; k++) s += rInv[a * p + k] * rInv[b * p + k];
+      covariance[a][b] = s * s2;
+      covariance[b][a] = s * s2;
+    }
+  }
+  return covariance;
+}
+
+/** A derived quantity with its delta-method standard error and t interval. */
+function intervalOf(
+  d: DerivedQuantity | undefined,
+  covariance: number[][],
+  tCrit: number,
+): IntervalEstimate | null {
+  if (!d) return null;
+  const q = covariance.length;
+  let v = 0;
+  for (let a = 0; a < q; a++) {
+    for (let b = 0; b < q; b++) v += d.gradient[a] * covariance[a][b] * d.gradient[b];
+  }
+  const se = Math.sqrt(v);
+  return {
+    estimate: d.value,
+    stdError: se,
+    ciLow: d.value - tCrit * se,
+    ciHigh: d.value + tCrit * se,
+  };
+}
+
+/**
+ * The lack-of-fit F test from the site's pure error (the within-rate SS of the
+ * prepared group sums, or the saturated fit's for the full design).
+ */
+function lackOfFitTest(site: PreparedSite, sse: number, dfResidual: number): LackOfFit | null {
+  const pe = pureError(site);
+  const dfLack = dfResidual - pe.df;
+  if (!(pe.df > 0 && dfLack > 0)) return null;
+  const ssLack = Math.max(sse - pe.ss, 0);
+  const f = ssLack / dfLack / (pe.ss / pe.df);
+  // The p-value (an incomplete beta, about a microsecond) is computed on first
+  // read: batch runs that only rank and price the fits never need it.
+  let p: number | null = null;
+  return {
+    ssLackOfFit: ssLack,
+    dfLackOfFit: dfLack,
+    ssPureError: pe.ss,
+    dfPureError: pe.df,
+    f,
+    get p(): number {
+      if (p === null) p = fisherFUpperP(f, dfLack, pe.df);
+      return p;
+    },
   };
 }
 

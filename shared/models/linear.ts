@@ -41,6 +41,7 @@ export function fitLinearPrepared(site: PreparedSite, options: FitOptions): Mode
     spec: linearSpec,
     params: coef.curve,
     blockCoefficients: coef.blocks,
+    designQr: coef.qr ?? undefined,
     status: 'ok',
     message: 'Straight line fitted.',
     options,

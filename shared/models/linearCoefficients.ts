@@ -3,7 +3,13 @@
  * the full design by Householder QR (the profiled search only needed SSE):
  * columns [1], the curve's regressors, then effect-coded block columns.
  */
-import { applyQTranspose, qrDecompose, solveUpperTriangular } from '../stats/qr';
+import {
+  applyQTranspose,
+  qrDecompose,
+  solveUpperTriangular,
+  type QrDecomposition,
+} from '../stats/qr';
+import { exactScratch } from './exactScratch';
 import type { PreparedSite } from './prepareSite';
 import { blockColumns } from './profileSolver';
 
@@ -14,6 +20,12 @@ export interface LinearCoefficients {
   blocks: Float64Array;
   /** False when the design is rank-deficient (then the coefficients are NaN). */
   fullRank: boolean;
+  /**
+   * QR of the design the coefficients came from (the weighted per-rate rows with
+   * orthogonal blocks, the plot rows otherwise): for a curve linear in its
+   * parameters it is also the QR of the Jacobian finishFit needs.
+   */
+  qr: QrDecomposition | null;
 }
 
 /**
@@ -39,6 +51,7 @@ export function linearCoefficients(
       curve: fast.curve,
       blocks: offsets.slice(0, Math.max(offsets.length - 1, 0)),
       fullRank: Number.isFinite(fast.sse),
+      qr: fast.qr,
     };
   }
   const { n, groupOf } = site;
@@ -59,12 +72,13 @@ export function linearCoefficients(
       curve: new Float64Array(qc).fill(NaN),
       blocks: new Float64Array(blocks.length).fill(NaN),
       fullRank: false,
+      qr,
     };
   }
   const qty = Float64Array.from(site.y);
   applyQTranspose(qr, qty);
   const b = solveUpperTriangular(qr, qty);
-  return { curve: b.slice(0, qc), blocks: b.slice(qc), fullRank: true };
+  return { curve: b.slice(0, qc), blocks: b.slice(qc), fullRank: true, qr };
 }
 
 /**
@@ -77,7 +91,8 @@ export function linearCoefficients(
  * @param regressors - each one value per distinct rate
  * @param intercept - put a column of ones first
  * @returns curve coefficients (intercept first, if any; that of the block-adjusted
- *   fit with blocks) and the SSE (block offsets included); NaN when rank-deficient
+ *   fit with blocks), the SSE (block offsets included; NaN when rank-deficient) and the
+ *   QR of the weighted per-rate design (null for the full design)
  * @example
  * groupLinearCoefficients(site, [site.rates], true).curve // [a, b] of the straight line
  */
@@ -85,7 +100,7 @@ export function groupLinearCoefficients(
   site: PreparedSite,
   regressors: Float64Array[],
   intercept: boolean,
-): { curve: Float64Array; sse: number } {
+): { curve: Float64Array; sse: number; qr: QrDecomposition | null } {
   const lead = intercept ? 1 : 0;
   const p = lead + regressors.length;
   if (site.design === 'full') {
@@ -103,12 +118,13 @@ export function groupLinearCoefficients(
         sse += (site.y[i] - f) ** 2;
       }
     }
-    return { curve: full.curve, sse: full.fullRank ? sse : NaN };
+    return { curve: full.curve, sse: full.fullRank ? sse : NaN, qr: null };
   }
   const { counts, means, ssWithin } = site;
   const m = counts.length;
-  if (m < p) return { curve: new Float64Array(p).fill(NaN), sse: NaN };
-  const matrix = new Float64Array(m * p);
+  if (m < p) return { curve: new Float64Array(p).fill(NaN), sse: NaN, qr: null };
+  // qrDecompose copies the matrix, so a reused buffer serves.
+  const matrix = exactScratch(m * p);
   const rhs = new Float64Array(m);
   for (let j = 0; j < m; j++) {
     const w = Math.sqrt(counts[j]);
@@ -117,10 +133,10 @@ export function groupLinearCoefficients(
     rhs[j] = w * means[j];
   }
   const qr = qrDecompose(matrix, m, p);
-  if (qr.rank < p) return { curve: new Float64Array(p).fill(NaN), sse: NaN };
+  if (qr.rank < p) return { curve: new Float64Array(p).fill(NaN), sse: NaN, qr };
   applyQTranspose(qr, rhs);
   const curve = solveUpperTriangular(qr, rhs);
   let sse = ssWithin;
   for (let j = p; j < m; j++) sse += rhs[j] * rhs[j];
-  return { curve, sse };
+  return { curve, sse, qr };
 }

@@ -46,6 +46,7 @@ export function fitProportionalPrepared(site: PreparedSite, options: FitOptions)
     spec: proportionalSpec,
     params: coef.curve,
     blockCoefficients: coef.blocks,
+    designQr: coef.qr ?? undefined,
     status: 'ok',
     message: 'Line through the origin fitted (R² is uncentered: about zero, not the mean).',
     options,

@@ -47,6 +47,7 @@ export function fitQuadraticPrepared(site: PreparedSite, options: FitOptions): M
     spec: quadraticSpec,
     params: coef.curve,
     blockCoefficients: coef.blocks,
+    designQr: coef.qr ?? undefined,
     status: convex ? 'convex' : 'ok',
     message: convex
       ? 'The quadratic opens upward (c ≥ 0): it has no maximum, so it gives no optimum.'

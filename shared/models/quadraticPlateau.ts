@@ -90,11 +90,17 @@ export function estimateQuadraticPlateau(
   // The limit x0 ≥ r_max: the quadratic with its vertex past the data, or the
   // rising straight line as x0 → ∞ with c → 0 (each from its own least-squares fit).
   let limitSse = sseAt(rMax);
-  const line = groupLinearCoefficients(site, [rates], true);
-  if (line.curve[1] > 0) limitSse = Math.min(limitSse, line.sse);
-  const quad = groupLinearCoefficients(site, [rates, rates.map((r) => r * r)], true);
-  if (quad.curve[2] < 0 && -quad.curve[1] / (2 * quad.curve[2]) >= rMax) {
-    limitSse = Math.min(limitSse, quad.sse);
+  // Both are quadratics through all rates, so their SSE is at least the bound of the
+  // last interval (a quadratic through all rates but the highest): a best join
+  // clearly below that bound beats them, and the two fits need not be made.
+  const lastBound = bounds ? bounds[m - 2] * (1 - 1e-7) : -Infinity;
+  if (!(best.sse < lastBound)) {
+    const line = groupLinearCoefficients(site, [rates], true);
+    if (line.curve[1] > 0) limitSse = Math.min(limitSse, line.sse);
+    const quad = groupLinearCoefficients(site, [rates, rates.map((r) => r * r)], true);
+    if (quad.curve[2] < 0 && -quad.curve[1] / (2 * quad.curve[2]) >= rMax) {
+      limitSse = Math.min(limitSse, quad.sse);
+    }
   }
 
   return plateauEstimate({

@@ -27,9 +27,10 @@ export interface RateFormat {
  */
 export function roundedKgHa(rateKgHa: number): string {
   if (!Number.isFinite(rateKgHa)) return String(rateKgHa);
-  const digits = Math.abs(rateKgHa) >= 100 ? 0 : 1;
-  // Number() drops a trailing ".0"; adding 0 turns −0 into 0.
-  return String(Number(rateKgHa.toFixed(digits)) + 0);
+  // A whole number over 10 prints without noise (String gives the shortest
+  // digits that round-trip); adding 0 turns −0 into 0.
+  const rounded = Math.abs(rateKgHa) >= 100 ? Math.round(rateKgHa) : Math.round(rateKgHa * 10) / 10;
+  return String(rounded + 0);
 }
 
 /** The default: kg/ha, rounded by roundedKgHa. */

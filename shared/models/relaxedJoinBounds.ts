@@ -9,6 +9,7 @@
  * for every x0 in the interval. Weighted by the plots per rate; only for sites
  * fitted on group sums (the full block design gets no bounds).
  */
+import { exactScratch } from './exactScratch';
 import type { PreparedSite } from './prepareSite';
 
 /**
@@ -25,7 +26,7 @@ export function relaxedJoinBounds(site: PreparedSite, degree: 1 | 2): Float64Arr
   const bounds = new Float64Array(m - 1);
   // Right pieces: weighted SS about the mean of groups j+1 … m−1, by a backward pass
   // with Welford's update (no cancellation).
-  const right = new Float64Array(m);
+  const right = exactScratch(m);
   let w = 0;
   let mean = 0;
   let ss = 0;
@@ -40,7 +41,7 @@ export function relaxedJoinBounds(site: PreparedSite, degree: 1 | 2): Float64Arr
   const cols = degree + 1;
   const scale = rates[m - 1] > 0 ? rates[m - 1] : 1;
   // Buffers for the augmented matrix [A | b], reused for every interval.
-  const a = new Float64Array(m * (cols + 1));
+  const a = exactScratch(m * (cols + 1));
   for (let j = 0; j < m - 1; j++) {
     const rows = j + 1;
     let left = 0;
