@@ -34,6 +34,7 @@ import { fitQuadraticPlateau } from '../models/quadraticPlateau';
 import { MODEL_NAMES, type BlockTerms, type ModelFit, type ModelName } from '../models/modelTypes';
 import { StatsInputError } from '../stats/errors';
 import { testIntercept } from '../stats/interceptTest';
+import { pearsonCorrelation, type PearsonResult } from '../stats/pearson';
 import type { PlotTable } from '../table/plotTable';
 import {
   testCommonResponse,
@@ -57,6 +58,7 @@ import {
   type RegionalReturn,
   type SiteGainCurve,
 } from './regionalReturn';
+import { leadingModel } from './leadingModel';
 import { recommendationModel, type RecommendationModel } from './recommendationModel';
 import { regionalRecommendation, type RegionalRecommendationText } from './regionalRecommendation';
 import { siteRateEffect, type SiteRateEffect } from './siteRateEffect';
@@ -87,6 +89,11 @@ export interface AcrossSiteOptions {
   blocks?: 'auto' | BlockTerms;
   /** Default "best" (each site's recommendation model, see recommendationModel). */
   regionalModel?: RegionalModelChoice;
+  /**
+   * The user's model per site, used instead of the site's recommendation model wherever "best"
+   * applies (a model the site has no fit of is ignored); default none. See leadingModel.
+   */
+  siteModels?: Readonly<Record<string, ModelName>>;
   /** Points on each fitted curve kept for charts; default that of shared/models (61). */
   curvePoints?: number;
   /** Grid spacing, kg/ha; default 1 (1 lb/ac is 1.120851 kg/ha). */
@@ -130,6 +137,8 @@ export interface SiteAnalysis {
   recommended: RecommendationModel;
   /** The straight line's intercept test (stats/interceptTest), or why there is none. */
   intercept: InterceptOutcome | { problem: string };
+  /** Pearson's r of yield on rate with its t-test and 95 % interval (stats/pearson), or why there is none. */
+  correlation: PearsonResult | { problem: string };
   groups: Record<string, string | null>;
 }
 
@@ -146,6 +155,8 @@ export interface InterceptOutcome {
   /** The straight line's intercept and its standard error, kg/ha. */
   interceptKgHa: number;
   interceptSeKgHa: number;
+  /** AICc of the line through the origin minus that of the straight line; null when not defined. */
+  aiccDifference: number | null;
 }
 
 /** How many sites responded, by the definition in the file header. */
@@ -201,12 +212,17 @@ export interface GroupAnalysis {
   };
 }
 
+/** The options of an analysis with every default filled in. */
+export type AcrossSiteSettings = Required<
+  Omit<AcrossSiteOptions, 'gridToKgHa' | 'groupKeys' | 'curvePoints'>
+> & {
+  gridToKgHa: number | null;
+  groupKeys: readonly string[];
+  curvePoints?: number;
+};
+
 export interface AcrossSiteAnalysis {
-  options: Required<Omit<AcrossSiteOptions, 'gridToKgHa' | 'groupKeys' | 'curvePoints'>> & {
-    gridToKgHa: number | null;
-    groupKeys: readonly string[];
-    curvePoints?: number;
-  };
+  options: AcrossSiteSettings;
   sites: SiteAnalysis[];
   /** Group columns not analysed by default, with the reason. */
   groupKeysSkipped: { key: string; reason: string }[];
@@ -261,18 +277,40 @@ function siteBlocks(site: SitePlots, choice: 'auto' | BlockTerms): BlockTerms {
     : 'none';
 }
 
-function analyseSite(
+/** A stats call whose input mistake is a data problem of this site: the result, or the reason. */
+function orProblem<T>(compute: () => T): T | { problem: string } {
+  try {
+    return compute();
+  } catch (e) {
+    if (!(e instanceof StatsInputError)) throw e;
+    return { problem: e.message };
+  }
+}
+
+/**
+ * The per-site step of the analysis: one site fitted with every model, its recommendation
+ * model, rate effect, intercept test and correlation. Price-free; a caller that wants progress
+ * per site calls this site by site and then acrossSites().
+ * @param site - one site's plots from sitePlots() (kg/ha)
+ * @param settings - the plan's settings (planAcrossSites): block terms, alpha, curve points
+ * @returns the site's analysis; a site the models refuse keeps its rows with the reason
+ * @example
+ * const plan = planAcrossSites(table, { prices });
+ * const first = analyseSite(plan.plots[0], plan.options);
+ * first.recommended.model // e.g. 'quadraticPlateau'
+ */
+export function analyseSite(
   site: SitePlots,
-  blocks: 'auto' | BlockTerms,
-  alpha: number,
-  curvePoints: number | undefined,
+  settings: Pick<AcrossSiteSettings, 'blocks' | 'alpha' | 'curvePoints'>,
 ): SiteAnalysis {
+  const { blocks, alpha, curvePoints } = settings;
   const b = siteBlocks(site, blocks);
   const rateEffect = siteRateEffect(site);
   const responded = rateEffect.test.kind === 'f-test' && rateEffect.test.p < alpha;
   let fits: AllModelsFitData | null = null;
   let problem = site.problem;
   let intercept: SiteAnalysis['intercept'] = { problem: problem ?? '' };
+  let correlation: SiteAnalysis['correlation'] = { problem: problem ?? '' };
   if (!problem) {
     try {
       const all = fitAllModels(
@@ -285,9 +323,9 @@ function analyseSite(
       if (!(e instanceof StatsInputError)) throw e;
       problem = e.message;
     }
-    try {
+    intercept = orProblem(() => {
       const t = testIntercept(site.rateKgHa, site.yieldKgHa, alpha);
-      intercept = {
+      return {
         p: t.p,
         needed: t.interceptNeeded,
         verdict: t.verdict,
@@ -297,11 +335,10 @@ function analyseSite(
         df2: t.df2,
         interceptKgHa: t.intercept.estimate,
         interceptSeKgHa: t.intercept.stdError,
+        aiccDifference: t.aiccDifference,
       };
-    } catch (e) {
-      if (!(e instanceof StatsInputError)) throw e;
-      intercept = { problem: e.message };
-    }
+    });
+    correlation = orProblem(() => pearsonCorrelation(site.rateKgHa, site.yieldKgHa));
   }
   return {
     site: site.site,
@@ -315,6 +352,7 @@ function analyseSite(
     rateEffect,
     responded,
     intercept,
+    correlation,
     groups: site.groups,
   };
 }
@@ -411,6 +449,7 @@ function gives(fit: FitData): boolean {
 function regionalCurves(
   sites: readonly SiteAnalysis[],
   choice: RegionalModelChoice,
+  siteModels: Readonly<Record<string, ModelName>>,
 ): {
   used: { site: string; model: ModelName; fit: FitData; note: string }[];
   leftOut: SiteLeftOut[];
@@ -422,7 +461,7 @@ function regionalCurves(
       leftOut.push({ site: s.site, reason: s.problem ?? 'not fitted' });
       continue;
     }
-    const model = choice === 'best' ? s.recommended.model : choice;
+    const model = choice === 'best' ? leadingModel(s, siteModels) : choice;
     if (!model) {
       const reasons = [...new Set(s.fits.ranking.map((r) => r.reason).filter((r) => r))].join(' ');
       leftOut.push({ site: s.site, reason: `${s.recommended.reason}. ${reasons}`.trim() });
@@ -465,11 +504,17 @@ function regionalCurves(
   return { used, leftOut };
 }
 
-function regionalAnalysis(
+/**
+ * The regional rate of a set of analysed sites at the settings' prices, models and grid.
+ * @param sites - the sites' analyses
+ * @param o - the analysis settings (prices, regional model, site models, grid, band)
+ * @returns the regional return, its sentence and cautions, sites used and left out
+ */
+export function regionalAnalysis(
   sites: readonly SiteAnalysis[],
-  o: AcrossSiteAnalysis['options'],
+  o: AcrossSiteSettings,
 ): RegionalAnalysis {
-  const { used, leftOut } = regionalCurves(sites, o.regionalModel);
+  const { used, leftOut } = regionalCurves(sites, o.regionalModel, o.siteModels);
   const top =
     o.gridToKgHa ??
     (used.length > 0
@@ -530,7 +575,7 @@ function plateauParts(
 function sharedResponse(
   plots: readonly SitePlots[],
   analyses: ReadonlyMap<string, SiteAnalysis>,
-  o: AcrossSiteAnalysis['options'],
+  o: AcrossSiteSettings,
 ): SharedResponseTests {
   const usable = plots.filter((p) => !analyses.get(p.site)?.problem);
   const fitter = (model: PlateauModel) => (x: Float64Array, y: Float64Array) =>
@@ -565,7 +610,7 @@ function groupAnalysis(
   key: string,
   plots: readonly SitePlots[],
   analyses: ReadonlyMap<string, SiteAnalysis>,
-  o: AcrossSiteAnalysis['options'],
+  o: AcrossSiteSettings,
   whole: Pick<GroupValueAnalysis, 'regional' | 'response' | 'sharedResponse'> | null,
 ): GroupAnalysis {
   const sitesWithoutValue: SiteLeftOut[] = [];
@@ -634,23 +679,31 @@ function groupAnalysis(
   };
 }
 
+/** What the per-site and across steps share: the sites' plots and the settings with defaults. */
+export interface AcrossSitePlan {
+  plots: readonly SitePlots[];
+  options: AcrossSiteSettings;
+  groupKeysSkipped: { key: string; reason: string }[];
+}
+
 /**
- * The across-site analysis of a plot table.
+ * Checks the options and lays out the analysis, before any fitting: the first of the three
+ * steps analyseAcrossSites() takes in one call (planAcrossSites, analyseSite per site,
+ * acrossSites), for a caller that reports progress per site or can stop between sites.
  * @param source - a plot table (rates and yields in kg/ha), or its sites from sitePlots()
- * @param options - prices (currency/kg; application cost currency/ha), block terms, regional
- *   model choice, grid (kg/ha), profitable band (currency/ha), alpha, level terms, group columns
- * @returns sites, side-by-side rows, shared-response tests, regional rate, response share, groups
+ * @param options - as analyseAcrossSites
+ * @returns the sites' plots, the settings with every default, the group columns left out
  * @throws {StatsInputError} "bad-argument" for a price that is not positive (shared/economics)
  * @throws {SitesInputError} "bad-grid" for a bad grid; "bad-argument" for alpha outside (0, 1) or a negative band
  * @example
- * const a = analyseAcrossSites(table, { prices: { grainPricePerKg: 0.18, nutrientPricePerKg: 1.1 } });
- * a.regional.regional.bestRateKgHa   // e.g. 168
- * a.regional.text.cautions           // always shown with the rate
+ * const plan = planAcrossSites(table, { prices });
+ * const sites = plan.plots.map((p) => analyseSite(p, plan.options));
+ * acrossSites(plan, sites).regional.regional.bestRateKgHa // as analyseAcrossSites(table, { prices })
  */
-export function analyseAcrossSites(
+export function planAcrossSites(
   source: PlotTable | readonly SitePlots[],
   options: AcrossSiteOptions,
-): AcrossSiteAnalysis {
+): AcrossSitePlan {
   const alpha = options.alpha ?? 0.05;
   if (!(alpha > 0 && alpha < 1)) {
     throw new SitesInputError(
@@ -673,10 +726,11 @@ export function analyseAcrossSites(
           reason: `its value differs between the plots of ${plots.filter((p) => key in p.groups && p.groups[key] === null).length} site(s), so it is not a property of the site`,
         }));
   const skipped = new Set(groupKeysSkipped.map((k) => k.key));
-  const o: AcrossSiteAnalysis['options'] = {
+  const o: AcrossSiteSettings = {
     prices: { ...options.prices },
     blocks: options.blocks ?? 'auto',
     regionalModel: options.regionalModel ?? 'best',
+    siteModels: { ...options.siteModels },
     curvePoints: options.curvePoints,
     gridStepKgHa: options.gridStepKgHa ?? 1,
     gridFromKgHa: options.gridFromKgHa ?? 0,
@@ -692,7 +746,30 @@ export function analyseAcrossSites(
     throw new SitesInputError('bad-argument', `bandPerHa is ${o.bandPerHa}; it must be 0 or more.`);
   }
   rateGrid(o.gridFromKgHa, o.gridToKgHa ?? o.gridFromKgHa, o.gridStepKgHa);
-  const sites = plots.map((p) => analyseSite(p, o.blocks, alpha, o.curvePoints));
+  return { plots, options: o, groupKeysSkipped };
+}
+
+/**
+ * The across step: from the sites' analyses (analyseSite, in the plan's order) to the rows,
+ * the shared-response tests, the regional rate, the response share and the groups.
+ * @param plan - from planAcrossSites
+ * @param sites - analyseSite of each of plan.plots, same order
+ * @returns the whole analysis, as analyseAcrossSites
+ * @throws {SitesInputError} "bad-argument" when the sites do not match the plan's plots
+ * @example
+ * acrossSites(plan, plan.plots.map((p) => analyseSite(p, plan.options))).response.share // e.g. 0.75
+ */
+export function acrossSites(
+  plan: AcrossSitePlan,
+  sites: readonly SiteAnalysis[],
+): AcrossSiteAnalysis {
+  const { plots, options: o, groupKeysSkipped } = plan;
+  if (sites.length !== plots.length || sites.some((s, i) => s.site !== plots[i].site)) {
+    throw new SitesInputError(
+      'bad-argument',
+      `sites must be the analyses of the plan's ${plots.length} site(s), in the plan's order.`,
+    );
+  }
   const analyses = new Map(sites.map((s) => [s.site, s]));
   // A site the models refused (e.g. a negative rate) carries that reason into every pooled test.
   const checked = plots.map((p, i) =>
@@ -705,10 +782,36 @@ export function analyseAcrossSites(
   };
   return {
     options: o,
-    sites,
+    sites: [...sites],
     groupKeysSkipped,
     rows: sites.flatMap((s) => siteModelRows(s, o.prices)),
     ...whole,
     groups: o.groupKeys.map((k) => groupAnalysis(k, checked, analyses, o, whole)),
   };
+}
+
+/**
+ * The across-site analysis of a plot table, in one call (planAcrossSites, analyseSite for
+ * every site, acrossSites).
+ * @param source - a plot table (rates and yields in kg/ha), or its sites from sitePlots()
+ * @param options - prices (currency/kg; application cost currency/ha), block terms, regional
+ *   model choice, the user's site models, grid (kg/ha), profitable band (currency/ha), alpha,
+ *   level terms, group columns
+ * @returns sites, side-by-side rows, shared-response tests, regional rate, response share, groups
+ * @throws {StatsInputError} "bad-argument" for a price that is not positive (shared/economics)
+ * @throws {SitesInputError} "bad-grid" for a bad grid; "bad-argument" for alpha outside (0, 1) or a negative band
+ * @example
+ * const a = analyseAcrossSites(table, { prices: { grainPricePerKg: 0.18, nutrientPricePerKg: 1.1 } });
+ * a.regional.regional.bestRateKgHa   // e.g. 168
+ * a.regional.text.cautions           // always shown with the rate
+ */
+export function analyseAcrossSites(
+  source: PlotTable | readonly SitePlots[],
+  options: AcrossSiteOptions,
+): AcrossSiteAnalysis {
+  const plan = planAcrossSites(source, options);
+  return acrossSites(
+    plan,
+    plan.plots.map((p) => analyseSite(p, plan.options)),
+  );
 }

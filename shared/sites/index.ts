@@ -45,6 +45,11 @@
  * The analysis is plain data (fits without `predict`, see FitData): a worker can post it, and
  * the window can call repriceAcrossSites on the copy.
  *
+ * In steps, for progress per site: planAcrossSites(source, options) → analyseSite(plot, plan.options)
+ * for each plan.plots[i] → acrossSites(plan, sites); analyseAcrossSites is the one-call form.
+ * chooseSiteModels(analysis, { site: model }) rebuilds the regional rates with the user's model at
+ * those sites (no refit); leadingModel(site, choices) is that model, else the recommendation model.
+ *
  * recommendationModel(fits): { model, reason }  // the one "chosen model" of a site: the lowest-AICc
  *   // curve whose optimum is a rate, else a straight line (a corner only); the report, the JSON's
  *   // bestModel and regionalModel 'best' all use it
@@ -67,4 +72,6 @@ export * from './regionalRecommendation';
 export * from './recommendationModel';
 export * from './siteModelRows';
 export * from './analyseAcrossSites';
+export * from './leadingModel';
+export * from './chooseSiteModels';
 export * from './repriceAcrossSites';

@@ -1,0 +1,97 @@
+// The across-site analysis in steps (as the workspace's worker runs it) and with the user's
+// model at a site, on the invented plots of tests/fixtures/sites/pooled.plots.csv.
+import { describe, expect, it } from 'vitest';
+import {
+  acrossSites,
+  analyseAcrossSites,
+  analyseSite,
+  planAcrossSites,
+} from '../shared/sites/analyseAcrossSites';
+import { chooseSiteModels } from '../shared/sites/chooseSiteModels';
+import { leadingModel } from '../shared/sites/leadingModel';
+import { repriceAcrossSites } from '../shared/sites/repriceAcrossSites';
+import { SitesInputError } from '../shared/sites/sitesInputError';
+import { pearsonCorrelation } from '../shared/stats/pearson';
+import { sitePlots } from '../shared/sites/sitePlots';
+import { pooledPlotTable } from './sites.fixtures';
+
+const prices = { grainPricePerKg: 0.18, nutrientPricePerKg: 1.1 };
+const table = pooledPlotTable();
+const whole = analyseAcrossSites(table, { prices });
+
+describe('planAcrossSites, analyseSite and acrossSites', () => {
+  it('site by site give the same analysis as the one-call form', () => {
+    const plan = planAcrossSites(table, { prices });
+    const steps = acrossSites(
+      plan,
+      plan.plots.map((p) => analyseSite(p, plan.options)),
+    );
+    expect(steps.regional.regional.bestRateKgHa).toBe(whole.regional.regional.bestRateKgHa);
+    expect(steps.sites.map((s) => s.recommended.model)).toEqual(
+      whole.sites.map((s) => s.recommended.model),
+    );
+    expect(steps.rows.map((r) => r.optimumRateKgHa)).toEqual(
+      whole.rows.map((r) => r.optimumRateKgHa),
+    );
+    expect(steps.sharedResponse.quadratic.tests.map((t) => t.sentence)).toEqual(
+      whole.sharedResponse.quadratic.tests.map((t) => t.sentence),
+    );
+  });
+
+  it('acrossSites refuses sites that are not the plan’s, in its order', () => {
+    const plan = planAcrossSites(table, { prices });
+    const sites = plan.plots.map((p) => analyseSite(p, plan.options));
+    expect(() => acrossSites(plan, [...sites].reverse())).toThrow(SitesInputError);
+    expect(() => acrossSites(plan, sites.slice(1))).toThrow(/in the plan's order/);
+  });
+
+  it("analyseSite gives each site's Pearson r of yield on rate, as stats/pearson computes it", () => {
+    const plots = sitePlots(table);
+    for (const [i, s] of whole.sites.entries()) {
+      const r = pearsonCorrelation(plots[i].rateKgHa, plots[i].yieldKgHa);
+      expect(s.correlation).toEqual(r);
+      // The fixture's sites all respond: yield rises with rate.
+      expect('r' in s.correlation && s.correlation.r).toBeGreaterThan(0.5);
+    }
+  });
+});
+
+describe('leadingModel and chooseSiteModels', () => {
+  const first = whole.sites[0];
+  const other = first.recommended.model === 'quadratic' ? 'linearPlateau' : 'quadratic';
+
+  it("leadingModel is the user's model when fitted, else the recommendation model", () => {
+    expect(leadingModel(first, {})).toBe(first.recommended.model);
+    expect(leadingModel(first, { [first.site]: other })).toBe(other);
+    expect(leadingModel(first, { 'no such site': other })).toBe(first.recommended.model);
+  });
+
+  it('chooseSiteModels returns the analysis itself when nothing is chosen', () => {
+    expect(chooseSiteModels(whole, {})).toBe(whole);
+  });
+
+  it("chooseSiteModels puts the user's model in the regional mean, as a fresh analysis with that choice", () => {
+    const mine = chooseSiteModels(whole, { [first.site]: other });
+    expect(mine.regional.sitesUsed.find((u) => u.site === first.site)?.model).toBe(other);
+    const fresh = analyseAcrossSites(table, { prices, siteModels: { [first.site]: other } });
+    expect(mine.regional.regional.meanReturnPerHa).toEqual(fresh.regional.regional.meanReturnPerHa);
+    expect(mine.regional.regional.siteOptima).toEqual(fresh.regional.regional.siteOptima);
+    // The other sites keep their recommendation models.
+    for (const u of mine.regional.sitesUsed.filter((x) => x.site !== first.site))
+      expect(u.model).toBe(whole.sites.find((s) => s.site === u.site)?.recommended.model);
+  });
+
+  it('repriceAcrossSites after chooseSiteModels matches a fresh analysis at the new prices and choice', () => {
+    const dearer = { ...prices, nutrientPricePerKg: 1.6, applicationCostPerHa: 12 };
+    const moved = repriceAcrossSites(chooseSiteModels(whole, { [first.site]: other }), dearer);
+    const fresh = analyseAcrossSites(table, {
+      prices: dearer,
+      siteModels: { [first.site]: other },
+    });
+    expect(moved.regional.regional.bestRateKgHa).toBe(fresh.regional.regional.bestRateKgHa);
+    expect(moved.regional.regional.bestMeanReturnPerHa).toBeCloseTo(
+      fresh.regional.regional.bestMeanReturnPerHa,
+      9,
+    );
+  });
+});
