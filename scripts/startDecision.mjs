@@ -10,10 +10,9 @@ export const RUNTIME_MISSING_MESSAGE = [
   '',
   'Plotrate cannot open its desktop window: the Electron runtime (the small browser the app runs in)',
   'is not on this computer, and fetching it failed — usually because this machine cannot reach the',
-  "download server, or because npm did not run electron's install script (npm 11 and later ask a",
-  'project to approve install scripts first: `npm install-scripts approve electron`).',
-  'On a connected machine run `node node_modules/electron/install.js` (or `npm install` again) and',
-  'then `npm start`. Meanwhile the same app runs in your browser:',
+  "download server. Electron's package fetches the runtime on first use rather than at install;",
+  'on a connected machine run `node node_modules/electron/install.js` once and then `npm start`.',
+  'Meanwhile the same app runs in your browser:',
   '',
   '    npm run web',
   '',
@@ -56,11 +55,21 @@ function readPathFile(electronDir) {
 export function runElectronInstaller(electronDir, env) {
   const installer = path.join(electronDir, 'install.js');
   if (!existsSync(installer)) return null;
+  // The installer's own progress goes to the terminal; its stack trace on a
+  // failed download does not: one line says why, the paragraph says what to do.
   const result = spawnSync(process.execPath, [installer], {
-    stdio: 'inherit',
+    stdio: ['ignore', 'inherit', 'pipe'],
+    encoding: 'utf8',
     env: { ...env, ELECTRON_SKIP_BINARY_DOWNLOAD: '' },
     timeout: 10 * 60 * 1000,
   });
+  if (result.status !== 0) {
+    const reason = (result.stderr ?? '')
+      .split('\n')
+      .map((line) => line.trim())
+      .find((line) => /error/i.test(line) && !line.startsWith('at '));
+    if (reason) console.error(`Plotrate: electron's installer said: ${reason}`);
+  }
   return result.status;
 }
 
