@@ -25,8 +25,9 @@ import {
   unfittedEstimate,
   unfittedFit,
   type CurveSpec,
+  type FitStore,
 } from './finishFit';
-import { linearCoefficients } from './linearCoefficients';
+import { profiledCoefficients } from './linearCoefficients';
 import type { CurveEstimate, FitOptions, FitStatus, ModelFit, SiteData } from './modelTypes';
 import { prepareSite, type PreparedSite } from './prepareSite';
 import { profileSolver } from './profileSolver';
@@ -181,12 +182,17 @@ export function estimateExponential(
  * Fits the exponential to a prepared site.
  * @param site - from prepareSite
  * @param options - exponentialIntercept, confidence level, curve grid
+ * @param store - optional shared buffer for fitted values, residuals and curve (fitAllModelsPrepared passes one per site)
  * @returns the fit with its status; plateauYield (the asymptote a + b) when "ok"
  * @throws {StatsInputError} "bad-argument" for exponentialIntercept 'zero' with block terms
  * @example
  * // see fitExponential
  */
-export function fitExponentialPrepared(site: PreparedSite, options: FitOptions): ModelFit {
+export function fitExponentialPrepared(
+  site: PreparedSite,
+  options: FitOptions,
+  store?: FitStore,
+): ModelFit {
   const intercept = (options.exponentialIntercept ?? 'free') === 'free';
   const spec = intercept ? exponentialSpec : exponentialThroughOriginSpec;
   const est = estimateExponential(site, intercept ? 'free' : 'zero', undefined, options.rateFormat);
@@ -194,7 +200,7 @@ export function fitExponentialPrepared(site: PreparedSite, options: FitOptions):
   const { status } = est;
   const k = est.params.k;
   const gFinal = site.rates.map((r) => -Math.expm1(-k * r));
-  const coef = linearCoefficients(site, [gFinal], intercept);
+  const coef = profiledCoefficients(site, est.params.a, est.params.b, gFinal, intercept);
   const params = intercept
     ? Float64Array.of(coef.curve[0], coef.curve[1], k)
     : Float64Array.of(coef.curve[0], k);
@@ -207,6 +213,7 @@ export function fitExponentialPrepared(site: PreparedSite, options: FitOptions):
     status,
     message: est.message,
     options,
+    store,
     plateauYield:
       ok || status === 'full-response-at-lowest-rate'
         ? intercept

@@ -70,6 +70,39 @@ export interface FinishInput {
    * decomposed twice (linearCoefficients returns it).
    */
   designQr?: QrDecomposition;
+  /** Where the fitted values, residuals and curve go; a buffer of their own by default. */
+  store?: FitStore;
+}
+
+/**
+ * One buffer shared by the fits of one site (fitAllModelsPrepared makes it): each
+ * finishFit takes its numbers from `byteOffset` on and moves it along.
+ */
+export interface FitStore {
+  buffer: ArrayBuffer;
+  byteOffset: number;
+}
+
+/**
+ * Doubles needed per fit in a FitStore.
+ * @param n - plots
+ * @param options - curvePoints is read
+ * @returns fitted values, residuals and the two curve arrays, in doubles
+ * @example
+ * fitStoreDoubles(24, {}) // 2·24 + 2·61 = 170
+ */
+export function fitStoreDoubles(n: number, options: FitOptions): number {
+  return 2 * n + 2 * Math.max(options.curvePoints ?? 61, 2);
+}
+
+function carve(store: FitStore | undefined, doubles: number): FitStore {
+  const bytes = 8 * doubles;
+  if (store && store.buffer.byteLength - store.byteOffset >= bytes) {
+    const part = { buffer: store.buffer, byteOffset: store.byteOffset };
+    store.byteOffset += bytes;
+    return part;
+  }
+  return { buffer: new ArrayBuffer(bytes), byteOffset: 0 };
 }
 
 const tCache = new Map<number, number>();
@@ -114,11 +147,11 @@ export function finishFit(input: FinishInput): ModelFit {
   // allocate and collect than the numbers it holds.
   const m = site.rates.length;
   const points = Math.max(options.curvePoints ?? 61, 2);
-  const store = new ArrayBuffer(8 * (2 * n + 2 * points));
-  const fitted = new Float64Array(store, 0, n);
-  const residuals = new Float64Array(store, 8 * n, n);
-  const curveRate = new Float64Array(store, 16 * n, points);
-  const curveYield = new Float64Array(store, 16 * n + 8 * points, points);
+  const { buffer: store, byteOffset: at } = carve(input.store, 2 * n + 2 * points);
+  const fitted = new Float64Array(store, at, n);
+  const residuals = new Float64Array(store, at + 8 * n, n);
+  const curveRate = new Float64Array(store, at + 16 * n, points);
+  const curveYield = new Float64Array(store, at + 16 * n + 8 * points, points);
   const atRate = scratch(AT_RATE, m);
   spec.values(site.rates, params, atRate);
   let sse = 0;

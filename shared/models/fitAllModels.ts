@@ -7,6 +7,7 @@
  * same yields by least squares; the proportional model's R² is not (uncentered).
  */
 import { fitExponentialPrepared } from './exponential';
+import { fitStoreDoubles, type FitStore } from './finishFit';
 import { fitLinearPrepared } from './linear';
 import { fitLinearPlateauPrepared } from './linearPlateau';
 import type { FitOptions, ModelFit, ModelName, SiteData } from './modelTypes';
@@ -41,7 +42,10 @@ export interface AllModelsFit {
   distinctRates: number;
 }
 
-const fitters: Record<ModelName, (site: PreparedSite, options: FitOptions) => ModelFit> = {
+const fitters: Record<
+  ModelName,
+  (site: PreparedSite, options: FitOptions, store?: FitStore) => ModelFit
+> = {
   linear: fitLinearPrepared,
   proportional: fitProportionalPrepared,
   quadratic: fitQuadraticPrepared,
@@ -88,7 +92,13 @@ export function fitAllModelsPrepared(
 ): AllModelsFit {
   const names = options.models ?? MODEL_NAMES;
   const fits = {} as Record<ModelName, ModelFit>;
-  for (const name of names) fits[name] = fitters[name](site, options);
+  // One buffer for the fitted values, residuals and curves of all the site's fits:
+  // every typed array with its own store costs an allocation the GC must track.
+  const store: FitStore = {
+    buffer: new ArrayBuffer(8 * fitStoreDoubles(site.n, options) * names.length),
+    byteOffset: 0,
+  };
+  for (const name of names) fits[name] = fitters[name](site, options, store);
   return { fits, ...rankByAicc(fits), n: site.n, distinctRates: site.rates.length };
 }
 

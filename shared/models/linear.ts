@@ -2,7 +2,13 @@
  * The straight line y = a + b x (a: yield at rate 0, kg/ha; b: kg grain per kg
  * nutrient), fitted by least squares through Householder QR.
  */
-import { finishFit, tooFewRatesMessage, unfittedFit, type CurveSpec } from './finishFit';
+import {
+  finishFit,
+  tooFewRatesMessage,
+  unfittedFit,
+  type CurveSpec,
+  type FitStore,
+} from './finishFit';
 import { linearCoefficients } from './linearCoefficients';
 import type { FitOptions, ModelFit, SiteData } from './modelTypes';
 import { prepareSite, type PreparedSite } from './prepareSite';
@@ -28,11 +34,16 @@ export const linearSpec: CurveSpec = {
  * Fits the straight line to a prepared site.
  * @param site - from prepareSite
  * @param options - confidence level, curve grid
+ * @param store - optional shared buffer for fitted values, residuals and curve (fitAllModelsPrepared passes one per site)
  * @returns the fit; status "too-few-rates" with fewer than 2 distinct rates
  * @example
  * fitLinearPrepared(prepareSite({ rateKgHa: [0, 50, 100], yieldKgHa: [5000, 6000, 7100] }, 'none'), {}).params.b // ≈ 21
  */
-export function fitLinearPrepared(site: PreparedSite, options: FitOptions): ModelFit {
+export function fitLinearPrepared(
+  site: PreparedSite,
+  options: FitOptions,
+  store?: FitStore,
+): ModelFit {
   const why = tooFewRatesMessage(site, linearSpec, 2);
   if (why) return unfittedFit(site, linearSpec, why);
   const coef = linearCoefficients(site, [site.rates], true);
@@ -45,6 +56,7 @@ export function fitLinearPrepared(site: PreparedSite, options: FitOptions): Mode
     status: 'ok',
     message: 'Straight line fitted.',
     options,
+    store,
   });
 }
 

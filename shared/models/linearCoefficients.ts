@@ -140,3 +140,35 @@ export function groupLinearCoefficients(
   for (let j = p; j < m; j++) sse += rhs[j] * rhs[j];
   return { curve, sse, qr };
 }
+
+/**
+ * The inner coefficients at the estimate's nonlinear parameter. On group sums
+ * (orthogonal blocks or none) the profiled search already solved this exact
+ * least-squares problem at the reported parameter, so its intercept and β are
+ * taken as they are; the full design, or a fit where the search's sign
+ * constraint held β at 0 while the unconstrained fit is wanted, is solved again.
+ * @param site - from prepareSite
+ * @param intercept - estimate's intercept (0 without one)
+ * @param beta - estimate's coefficient of the regressor
+ * @param regressor - the regressor at the estimate, one value per distinct rate
+ * @param withIntercept - whether the model has an intercept
+ * @returns curve coefficients ([intercept,] β) and block coefficients
+ * @example
+ * // fitLinearPlateauPrepared: profiledCoefficients(site, est.params.a, est.params.b, g, true)
+ */
+export function profiledCoefficients(
+  site: PreparedSite,
+  intercept: number,
+  beta: number,
+  regressor: Float64Array,
+  withIntercept: boolean,
+): { curve: Float64Array; blocks: Float64Array } {
+  const offsets = site.orthogonalBlockOffsets;
+  if (offsets && beta !== 0 && Number.isFinite(beta) && Number.isFinite(intercept)) {
+    return {
+      curve: withIntercept ? Float64Array.of(intercept, beta) : Float64Array.of(beta),
+      blocks: offsets.slice(0, Math.max(offsets.length - 1, 0)),
+    };
+  }
+  return linearCoefficients(site, [regressor], withIntercept);
+}

@@ -21,8 +21,9 @@ import {
   unfittedEstimate,
   unfittedFit,
   type CurveSpec,
+  type FitStore,
 } from './finishFit';
-import { linearCoefficients } from './linearCoefficients';
+import { linearCoefficients, profiledCoefficients } from './linearCoefficients';
 import type { CurveEstimate, FitOptions, ModelFit, SiteData } from './modelTypes';
 import { plateauEstimate } from './plateauEstimate';
 import { prepareSite, type PreparedSite } from './prepareSite';
@@ -94,17 +95,22 @@ export function estimateLinearPlateau(
  * Fits the linear-plateau to a prepared site.
  * @param site - from prepareSite
  * @param options - confidence level, curve grid
+ * @param store - optional shared buffer for fitted values, residuals and curve (fitAllModelsPrepared passes one per site)
  * @returns the fit with its status; join and plateau only when "ok"
  * @example
  * // see fitLinearPlateau
  */
-export function fitLinearPlateauPrepared(site: PreparedSite, options: FitOptions): ModelFit {
+export function fitLinearPlateauPrepared(
+  site: PreparedSite,
+  options: FitOptions,
+  store?: FitStore,
+): ModelFit {
   const est = estimateLinearPlateau(site, undefined, options.rateFormat);
   if (est.status === 'too-few-rates') return unfittedFit(site, linearPlateauSpec, est.message);
   const { status } = est;
   const x0 = est.params.x0;
   const gFinal = site.rates.map((r) => Math.min(r, x0));
-  const coef = linearCoefficients(site, [gFinal], true);
+  const coef = profiledCoefficients(site, est.params.a, est.params.b, gFinal, true);
   // A flat best fit has b = 0 exactly (the constrained optimum).
   const flat = status === 'no-response';
   const lin = flat ? linearCoefficients(site, [], true) : coef;
@@ -119,6 +125,7 @@ export function fitLinearPlateauPrepared(site: PreparedSite, options: FitOptions
     status,
     message: est.message,
     options,
+    store,
     joinPoint: ok ? { value: x0, gradient: [0, 0, 1] } : undefined,
     plateauYield:
       ok || status === 'full-response-at-lowest-rate'

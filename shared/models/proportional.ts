@@ -4,7 +4,13 @@
  * uncentered one (about zero), labelled so: it must never be ranked against a
  * centered R².
  */
-import { finishFit, tooFewRatesMessage, unfittedFit, type CurveSpec } from './finishFit';
+import {
+  finishFit,
+  tooFewRatesMessage,
+  unfittedFit,
+  type CurveSpec,
+  type FitStore,
+} from './finishFit';
 import { linearCoefficients } from './linearCoefficients';
 import type { FitOptions, ModelFit, SiteData } from './modelTypes';
 import { prepareSite, type PreparedSite } from './prepareSite';
@@ -30,11 +36,16 @@ export const proportionalSpec: CurveSpec = {
  * zero, so the curve still passes through the origin on average.
  * @param site - from prepareSite
  * @param options - confidence level, curve grid
+ * @param store - optional shared buffer for fitted values, residuals and curve (fitAllModelsPrepared passes one per site)
  * @returns the fit; "too-few-rates" unless some rate is above zero
  * @example
  * fitProportionalPrepared(prepareSite({ rateKgHa: [50, 100], yieldKgHa: [100, 210] }, 'none'), {}).params.b // ≈ 2.08
  */
-export function fitProportionalPrepared(site: PreparedSite, options: FitOptions): ModelFit {
+export function fitProportionalPrepared(
+  site: PreparedSite,
+  options: FitOptions,
+  store?: FitStore,
+): ModelFit {
   const why =
     site.testedRates.highestKgHa > 0
       ? tooFewRatesMessage(site, proportionalSpec, 1)
@@ -50,6 +61,7 @@ export function fitProportionalPrepared(site: PreparedSite, options: FitOptions)
     status: 'ok',
     message: 'Line through the origin fitted (R² is uncentered: about zero, not the mean).',
     options,
+    store,
   });
 }
 

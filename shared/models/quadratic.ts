@@ -3,7 +3,13 @@
  * fitted by least squares through Householder QR. With c ≥ 0 the curve opens
  * upward and has no maximum: status "convex".
  */
-import { finishFit, tooFewRatesMessage, unfittedFit, type CurveSpec } from './finishFit';
+import {
+  finishFit,
+  tooFewRatesMessage,
+  unfittedFit,
+  type CurveSpec,
+  type FitStore,
+} from './finishFit';
 import { linearCoefficients } from './linearCoefficients';
 import type { FitOptions, ModelFit, SiteData } from './modelTypes';
 import { prepareSite, type PreparedSite } from './prepareSite';
@@ -30,11 +36,16 @@ export const quadraticSpec: CurveSpec = {
  * Fits the quadratic to a prepared site.
  * @param site - from prepareSite
  * @param options - confidence level, curve grid
+ * @param store - optional shared buffer for fitted values, residuals and curve (fitAllModelsPrepared passes one per site)
  * @returns the fit; "convex" when c ≥ 0; "too-few-rates" with fewer than 3 rates
  * @example
  * fitQuadraticPrepared(prepareSite({ rateKgHa: [0, 100, 200, 0, 100, 200], yieldKgHa: [5, 8, 9, 5.2, 8.1, 8.9] }, 'none'), {}).status // 'ok'
  */
-export function fitQuadraticPrepared(site: PreparedSite, options: FitOptions): ModelFit {
+export function fitQuadraticPrepared(
+  site: PreparedSite,
+  options: FitOptions,
+  store?: FitStore,
+): ModelFit {
   const why = tooFewRatesMessage(site, quadraticSpec, 3);
   if (why) return unfittedFit(site, quadraticSpec, why);
   const x2 = site.rates.map((r) => r * r);
@@ -53,6 +64,7 @@ export function fitQuadraticPrepared(site: PreparedSite, options: FitOptions): M
       ? 'The quadratic opens upward (c ≥ 0): it has no maximum, so it gives no optimum.'
       : 'Quadratic fitted.',
     options,
+    store,
     // The vertex −b/(2c) and its yield a − b²/(4c) play the join and plateau roles.
     joinPoint: convex ? undefined : { value: xMax, gradient: [0, -1 / (2 * c), b / (2 * c * c)] },
     plateauYield: convex

@@ -20,8 +20,13 @@ import {
   unfittedEstimate,
   unfittedFit,
   type CurveSpec,
+  type FitStore,
 } from './finishFit';
-import { groupLinearCoefficients, linearCoefficients } from './linearCoefficients';
+import {
+  groupLinearCoefficients,
+  linearCoefficients,
+  profiledCoefficients,
+} from './linearCoefficients';
 import type { CurveEstimate, FitOptions, ModelFit, SiteData } from './modelTypes';
 import { plateauEstimate } from './plateauEstimate';
 import { prepareSite, type PreparedSite } from './prepareSite';
@@ -120,11 +125,16 @@ export function estimateQuadraticPlateau(
  * Fits the quadratic-plateau to a prepared site.
  * @param site - from prepareSite
  * @param options - confidence level, curve grid
+ * @param store - optional shared buffer for fitted values, residuals and curve (fitAllModelsPrepared passes one per site)
  * @returns the fit with its status; join and plateau only when "ok"
  * @example
  * // see fitQuadraticPlateau
  */
-export function fitQuadraticPlateauPrepared(site: PreparedSite, options: FitOptions): ModelFit {
+export function fitQuadraticPlateauPrepared(
+  site: PreparedSite,
+  options: FitOptions,
+  store?: FitStore,
+): ModelFit {
   const est = estimateQuadraticPlateau(site, undefined, options.rateFormat);
   if (est.status === 'too-few-rates') return unfittedFit(site, quadraticPlateauSpec, est.message);
   const { status } = est;
@@ -132,7 +142,9 @@ export function fitQuadraticPlateauPrepared(site: PreparedSite, options: FitOpti
   const gFinal = site.rates.map((r) => (r < x0 ? (r - x0) ** 2 : 0));
   const flat = status === 'no-response';
   // A flat best fit has c = 0 exactly (the constrained optimum).
-  const coef = linearCoefficients(site, flat ? [] : [gFinal], true);
+  const coef = flat
+    ? linearCoefficients(site, [], true)
+    : profiledCoefficients(site, est.params.P, est.params.c, gFinal, true);
   const P = coef.curve[0];
   const c = flat ? 0 : coef.curve[1];
   const params = Float64Array.of(P, c, x0);
@@ -145,6 +157,7 @@ export function fitQuadraticPlateauPrepared(site: PreparedSite, options: FitOpti
     status,
     message: est.message,
     options,
+    store,
     joinPoint: ok ? { value: x0, gradient: [0, 0, 1] } : undefined,
     plateauYield:
       ok || status === 'full-response-at-lowest-rate'
