@@ -68,8 +68,14 @@ export function prepareSite(data: SiteData, blocks: BlockTerms): PreparedSite {
   }
   assertFinite(data.rateKgHa, 'rateKgHa');
   assertFinite(data.yieldKgHa, 'yieldKgHa');
-  const x = copyOf(data.rateKgHa);
-  const y = copyOf(data.yieldKgHa);
+  // Rates and yields in one buffer, group and block indices in another: each
+  // typed array with a store of its own is an allocation the GC must track.
+  const numbers = new ArrayBuffer(16 * n);
+  const x = new Float64Array(numbers, 0, n);
+  const y = new Float64Array(numbers, 8 * n, n);
+  copyInto(data.rateKgHa, x);
+  copyInto(data.yieldKgHa, y);
+  const indices = new ArrayBuffer(8 * n);
   for (let i = 0; i < n; i++) {
     if (x[i] < 0) {
       throw new StatsInputError(
@@ -80,7 +86,7 @@ export function prepareSite(data: SiteData, blocks: BlockTerms): PreparedSite {
   }
   const rates = distinctSorted(x);
   const m = rates.length;
-  const groupOf = new Int32Array(n);
+  const groupOf = new Int32Array(indices, 0, n);
   const counts = new Float64Array(m);
   for (let i = 0; i < n; i++) {
     // Binary search: rates are few but sites are many.
@@ -96,7 +102,7 @@ export function prepareSite(data: SiteData, blocks: BlockTerms): PreparedSite {
   }
 
   const blockLabels: string[] = [];
-  const blockOf = new Int32Array(n);
+  const blockOf = new Int32Array(indices, 4 * n, n);
   let design: PreparedSite['design'] = 'groups';
   let yGroup = y;
   let orthogonalBlockOffsets: Float64Array | null = new Float64Array(0);
@@ -193,17 +199,15 @@ export function prepareSite(data: SiteData, blocks: BlockTerms): PreparedSite {
 }
 
 /**
- * A Float64Array copy (the typed-array constructor copies an array directly;
- * Float64Array.from goes through the iterator protocol, several times slower).
- * @param values - numbers
- * @returns their copy
+ * Copies numbers into a Float64Array by index (Float64Array.from goes through
+ * the iterator protocol, several times slower for a plain array).
+ * @param values - numbers, as many as `out` holds
+ * @param out - receives them
  * @example
- * copyOf([1, 2]) // Float64Array [1, 2]
+ * copyInto([1, 2], new Float64Array(2)) // out is [1, 2]
  */
-function copyOf(values: ArrayLike<number>): Float64Array {
-  return Array.isArray(values) || values instanceof Float64Array
-    ? new Float64Array(values)
-    : Float64Array.from(values);
+function copyInto(values: ArrayLike<number>, out: Float64Array): void {
+  for (let i = 0; i < out.length; i++) out[i] = values[i];
 }
 
 /**
