@@ -1,14 +1,16 @@
 import { describe, expect, it } from 'vitest';
 import { syntheticPlotTable } from '../shared/demo/syntheticTrial';
 import { economicOptimum } from '../shared/economics/economicOptimum';
-import { analyseTable } from '../renderer/src/analysis/siteAnalysis';
+import { analyseAcrossSites } from '../shared/sites/analyseAcrossSites';
+import { sitePlots } from '../shared/sites/sitePlots';
+import { analyseTable, poolingTests, siteViews } from '../renderer/src/analysis/siteAnalysis';
 import {
-  leadingModel,
   modelOptima,
-  prepareRegional,
   regionalAtPrices,
+  siteLeads,
   siteOptima,
 } from '../renderer/src/analysis/pricing';
+import { chooseSiteModels } from '../shared/sites/chooseSiteModels';
 import {
   canonicalPrices,
   grainPriceFromShown,
@@ -20,72 +22,101 @@ import {
 } from '../renderer/src/analysis/priceInputs';
 
 const noProgress = async () => {};
+const illustrative = canonicalPrices(ILLUSTRATIVE_PRICES);
 
 describe('renderer analysis and re-pricing', () => {
-  it('analyseTable fits every site as plain data (no functions cross to the window)', async () => {
+  it('analyseTable runs the pipeline site by site as plain data (no functions cross to the window)', async () => {
     const seen: string[] = [];
+    const table = syntheticPlotTable({ sites: 3 });
     const out = await analyseTable(
-      { table: syntheticPlotTable({ sites: 3 }), blocks: 'fixed' },
+      { table, blocks: 'fixed', prices: illustrative },
       async (_d, _t, note) => {
         seen.push(note);
       },
     );
-    expect(out.sites.map((s) => s.site)).toEqual(['Site 0001', 'Site 0002', 'Site 0003']);
+    const sites = siteViews(out);
+    expect(sites.map((s) => s.site)).toEqual(['Site 0001', 'Site 0002', 'Site 0003']);
     expect(seen).toEqual(['Site 0001', 'Site 0002', 'Site 0003', 'across sites']);
-    for (const s of out.sites) {
-      expect(s.best).not.toBeNull();
+    // The same analysis as the one-call form with the same options.
+    const whole = analyseAcrossSites(table, {
+      prices: illustrative,
+      blocks: 'auto',
+      groupKeys: [],
+    });
+    expect(out.analysis.regional.regional.bestRateKgHa).toBe(whole.regional.regional.bestRateKgHa);
+    expect(out.plots).toEqual(sitePlots(table));
+    for (const [i, s] of sites.entries()) {
+      expect(s.recommended).toBe(whole.sites[i].recommended.model);
+      expect(s.recommended).not.toBeNull();
       expect(s.intercept.ok).toBe(true);
       expect(s.correlation.ok).toBe(true);
       for (const fit of Object.values(s.fits)) expect('predict' in fit!).toBe(false);
     }
     expect(() => structuredClone(out)).not.toThrow();
-    expect(out.across.tests).toHaveLength(2);
+    expect(poolingTests(out.analysis).map((t) => t.model)).toEqual(['linear', 'quadratic']);
   });
 
   it('a higher nitrogen price never raises a site optimum, and the regional rate follows', async () => {
     const out = await analyseTable(
-      { table: syntheticPlotTable({ sites: 4, seed: 9 }), blocks: 'none' },
+      { table: syntheticPlotTable({ sites: 4, seed: 9 }), blocks: 'none', prices: illustrative },
       noProgress,
     );
     const cheap = canonicalPrices({ ...ILLUSTRATIVE_PRICES, productPerKg: 0.4 });
     const dear = canonicalPrices({ ...ILLUSTRATIVE_PRICES, productPerKg: 1.6 });
-    const a = siteOptima(out.sites, {}, cheap);
-    const b = siteOptima(out.sites, {}, dear);
+    const leads = siteLeads(out.analysis, {});
+    const a = siteOptima(siteViews(out), leads, cheap);
+    const b = siteOptima(siteViews(out), leads, dear);
     for (let i = 0; i < a.length; i++) {
       expect(a[i].model).toBe(b[i].model);
       expect(b[i].optimum!.rateKgHa!).toBeLessThanOrEqual(a[i].optimum!.rateKgHa!);
     }
-    const leads = Object.fromEntries(a.map((o) => [o.site, o.model]));
-    const prepared = prepareRegional(out.sites, leads);
-    const rc = regionalAtPrices(prepared, cheap)!;
-    const rd = regionalAtPrices(prepared, dear)!;
+    const rc = regionalAtPrices(out.analysis, cheap)!;
+    const rd = regionalAtPrices(out.analysis, dear)!;
     expect(rd.bestRateKgHa).toBeLessThan(rc.bestRateKgHa);
     expect(rc.profitableRange.lowKgHa).toBeLessThanOrEqual(rc.bestRateKgHa);
     expect(rc.profitableRange.highKgHa).toBeGreaterThanOrEqual(rc.bestRateKgHa);
+    // The regional rate is the pipeline's at those prices.
+    const fresh = analyseAcrossSites(syntheticPlotTable({ sites: 4, seed: 9 }), {
+      prices: dear,
+      blocks: 'none',
+      groupKeys: [],
+    });
+    expect(rd.bestRateKgHa).toBe(fresh.regional.regional.bestRateKgHa);
   });
 
   it('the site optimum is the closed-form optimum of its leading fit at the same prices', async () => {
     const out = await analyseTable(
-      { table: syntheticPlotTable({ sites: 1, seed: 2 }), blocks: 'none' },
+      { table: syntheticPlotTable({ sites: 1, seed: 2 }), blocks: 'none', prices: illustrative },
       noProgress,
     );
-    const prices = canonicalPrices(ILLUSTRATIVE_PRICES);
-    const [entry] = siteOptima(out.sites, {}, prices);
-    const direct = economicOptimum(out.sites[0].fits[entry.model!]!, prices);
+    const [site] = siteViews(out);
+    const [entry] = siteOptima([site], siteLeads(out.analysis, {}), illustrative);
+    const direct = economicOptimum(site.fits[entry.model!]!, illustrative);
     expect(entry.optimum!.rateKgHa).toBe(direct.rateKgHa);
-    expect(modelOptima(out.sites[0], prices)[entry.model!]!.rateKgHa).toBe(direct.rateKgHa);
+    expect(modelOptima(site, illustrative)[entry.model!]!.rateKgHa).toBe(direct.rateKgHa);
   });
 
-  it('leadingModel prefers a curve with a rate, and the user choice wins', async () => {
+  it("the leading model is the pipeline's recommendation, the user's choice wins, and the regional mean follows it", async () => {
     const out = await analyseTable(
-      { table: syntheticPlotTable({ sites: 1, seed: 4 }), blocks: 'none' },
+      { table: syntheticPlotTable({ sites: 2, seed: 4 }), blocks: 'none', prices: illustrative },
       noProgress,
     );
-    const site = out.sites[0];
-    const prices = canonicalPrices(ILLUSTRATIVE_PRICES);
-    const lead = leadingModel(site, {}, prices)!;
-    expect(['quadratic', 'linearPlateau', 'quadraticPlateau', 'exponential']).toContain(lead);
-    expect(leadingModel(site, { [site.site]: 'linear' }, prices)).toBe('linear');
+    const [site] = siteViews(out);
+    expect(siteLeads(out.analysis, {})[site.site]).toBe(site.recommended);
+    expect(['quadratic', 'linearPlateau', 'quadraticPlateau', 'exponential']).toContain(
+      site.recommended,
+    );
+    const mine = { [site.site]: 'linear' as const };
+    expect(siteLeads(out.analysis, mine)[site.site]).toBe('linear');
+    const chosen = regionalAtPrices(chooseSiteModels(out.analysis, mine), illustrative)!;
+    const fresh = analyseAcrossSites(syntheticPlotTable({ sites: 2, seed: 4 }), {
+      prices: illustrative,
+      blocks: 'none',
+      groupKeys: [],
+      siteModels: mine,
+    });
+    expect(chosen.siteOptima).toEqual(fresh.regional.regional.siteOptima);
+    expect(chosen.bestRateKgHa).toBe(fresh.regional.regional.bestRateKgHa);
   });
 });
 

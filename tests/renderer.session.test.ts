@@ -42,16 +42,20 @@ describe('reportSettings', () => {
       'with application cost 0 and another product',
       { ...ILLUSTRATIVE_PRICES, productId: 'uan32' as const, analysisPct: 32 },
     ],
+    ['with an application cost', { ...ILLUSTRATIVE_PRICES, applicationPerHa: 14.5 }],
   ])('gives the report the nitrogen and grain prices the screen uses, %s', (_label, prices) => {
     for (const [system, units] of [
       ['us', { rate: 'lb/ac', yield: 'bu/ac' }],
       ['metric', { rate: 'kg/ha', yield: 't/ha' }],
     ] as const) {
-      const settings = reportSettings(prices, units, system, 'corn', 'fixed');
+      const picks = { 'Site 0001': 'quadratic' as const };
+      const settings = reportSettings(prices, units, system, 'corn', 'fixed', picks);
       const terms = priceTerms(settings);
       const screen = canonicalPrices(prices);
       expect(terms.nutrientPricePerKg).toBeCloseTo(screen.nutrientPricePerKg, 10);
       expect(terms.grainPricePerKg).toBeCloseTo(screen.grainPricePerKg, 10);
+      expect(terms.applicationCostPerHa).toBe(screen.applicationCostPerHa);
+      expect(settings.siteModels).toEqual(picks);
     }
   });
 });

@@ -20,7 +20,9 @@ import {
   type FitData,
   type SiteAnalysis,
 } from '../sites/analyseAcrossSites';
+import { leadingModel } from '../sites/leadingModel';
 import { rateGrid } from '../sites/rateGrid';
+import type { RecommendationModel } from '../sites/recommendationModel';
 import {
   ONE_PER_ACRE_IN_PER_HA,
   prepareRegionalReturn,
@@ -168,7 +170,8 @@ function modelRow(f: FitData, row: SiteModelRow, ciKgHa: [number, number] | null
 /**
  * Analyses every site of a plot table and assembles the report summary.
  * @param table - the plot table (canonical kg/ha)
- * @param settings - display units, prices, bootstrap size and seed, block terms
+ * @param settings - display units, prices (with the application cost), bootstrap size and seed,
+ *   block terms, the user's model per site
  * @param meta - tool name/version, time stamp, mapping, progress callback
  * @returns the TrialReport every writer reads
  * @throws {RangeError} for prices that are missing or not positive
@@ -185,6 +188,7 @@ export function analyzeTrials(
   const prices: Prices = {
     grainPricePerKg: terms.grainPricePerKg,
     nutrientPricePerKg: terms.nutrientPricePerKg,
+    applicationCostPerHa: terms.applicationCostPerHa,
   };
   const band = ONE_PER_ACRE_IN_PER_HA;
   const plotsOf = sitePlots(table);
@@ -195,6 +199,7 @@ export function analyzeTrials(
     bandPerHa: band,
     groupKeys: [],
     curvePoints: REPORT_CURVE_POINTS,
+    siteModels: settings.siteModels ?? {},
   });
   const tablePlots = new Map<string, Plot[]>(plotsOf.map((p) => [p.site, []]));
   for (const p of table.plots) tablePlots.get(p.site)?.push(p);
@@ -238,6 +243,17 @@ export function analyzeTrials(
   };
 }
 
+/** The site's leading model: the user's pick (leadingModel) or the recommendation model, and why. */
+function siteChoice(s: SiteAnalysis, settings: ReportSettings): RecommendationModel {
+  const model = leadingModel(s, settings.siteModels ?? {});
+  return model === s.recommended.model
+    ? s.recommended
+    : {
+        model,
+        reason: `picked by the user; the recommendation model would be ${s.recommended.model ? s.fits?.fits[s.recommended.model].label : 'none'} (${s.recommended.reason})`,
+      };
+}
+
 /** One site's part of the report, from its analysis. */
 function siteReport(
   s: SiteAnalysis,
@@ -277,7 +293,9 @@ function siteReport(
       `Only ${distinct.length} distinct rate${distinct.length === 1 ? '' : 's'} with usable plots: no response curve can be fitted.`,
     );
   else if (!all) warnings.push(`The curves could not be fitted: ${s.problem ?? 'not fitted'}`);
-  const choice = all ? s.recommended : { model: null, reason: 'no model could be fitted' };
+  const choice = all
+    ? siteChoice(s, c.settings)
+    : { model: null, reason: 'no model could be fitted' };
   const bestFit = all && choice.model ? all.fits[choice.model] : null;
   let bootstrap: SiteReport['bootstrap'] = null;
   if (bestFit && c.settings.boot > 0) {

@@ -5,7 +5,7 @@
  * kg of N, or a product per lb or kg of product) and turned here into the one
  * price ratio the economics uses.
  */
-import type { BlockTerms } from '../models/modelTypes';
+import type { BlockTerms, ModelName } from '../models/modelTypes';
 import type { CropId } from '../table/plotTable';
 import { rateFromKgHa, type RateUnit } from '../units/convertRate';
 import { yieldFromKgHa, type YieldUnit } from '../units/convertYield';
@@ -29,6 +29,8 @@ export interface PriceInput {
   product: { id: ProductId; price: number } | null;
   /** True when the prices are the built-in illustrative ones, not the user's. */
   defaulted: boolean;
+  /** Cost of making an application at all, currency per ha, charged when the rate is above 0; default 0. */
+  applicationCostPerHa?: number;
 }
 
 export interface ReportSettings {
@@ -43,6 +45,11 @@ export interface ReportSettings {
   blocks: BlockTerms;
   /** Level of the optimum interval, e.g. 0.9. */
   intervalLevel: number;
+  /**
+   * Site → the model the user picked to lead that site; the others lead with their
+   * recommendation model (shared/sites leadingModel). Default none.
+   */
+  siteModels?: Readonly<Record<string, ModelName>>;
 }
 
 /**
@@ -102,6 +109,8 @@ export interface PriceTerms {
   priceRatioUnit: string;
   /** Nutrient price in the report's units ($/lb N or $/kg N). */
   nutrientPriceDisplay: number;
+  /** Cost of making an application at all, $ per ha (0 when none was given). */
+  applicationCostPerHa: number;
 }
 
 /**
@@ -109,7 +118,8 @@ export interface PriceTerms {
  * PR = nutrient price / grain price (design notes, "Economic optimum").
  * @param settings - units, crop and prices
  * @returns prices per kg and the price ratio, canonical and in display units
- * @throws {RangeError} when a price is missing, zero or negative (naming the option)
+ * @throws {RangeError} when a price is missing, zero or negative, or the application cost is
+ *   negative (naming the option)
  * @example
  * // $0.50/lb N and $4.00/bu corn: PR = 0.125 bu/lb N
  * priceTerms(settings).priceRatioDisplay // 0.125
@@ -138,6 +148,12 @@ export function priceTerms(
     }
     nutrientPerRateWeight = prices.nutrientPrice;
   }
+  const applicationCostPerHa = prices.applicationCostPerHa ?? 0;
+  if (!(Number.isFinite(applicationCostPerHa) && applicationCostPerHa >= 0)) {
+    throw new RangeError(
+      `The application cost must be 0 or a positive number; got ${applicationCostPerHa}.`,
+    );
+  }
   const nutrientPricePerKg = nutrientPerRateWeight / rateUnitKg(units.rate);
   const grainPricePerKg = prices.grainPrice / yieldUnitKg(units.yield, crop);
   const priceRatioKgPerKg = nutrientPricePerKg / grainPricePerKg;
@@ -151,5 +167,6 @@ export function priceTerms(
     priceRatioDisplay,
     priceRatioUnit: `${priceWeightName(units.yield)}/${priceWeightName(units.rate)} N`,
     nutrientPriceDisplay: nutrientPerRateWeight,
+    applicationCostPerHa,
   };
 }

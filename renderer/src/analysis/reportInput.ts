@@ -1,9 +1,9 @@
 /**
  * What the report writer needs from the workspace: display units, crop, the
- * prices in the form the report quotes them, and the bootstrap settings the
- * screen also uses.
+ * prices in the form the report quotes them (with the application cost), the
+ * bootstrap settings the screen also uses and the models the user picked.
  */
-import type { BlockTerms } from '../../../shared/models/modelTypes';
+import type { BlockTerms, ModelName } from '../../../shared/models/modelTypes';
 import type { ReportSettings } from '../../../shared/report/reportSettings';
 import { yieldUnitKg, rateUnitKg } from '../../../shared/report/reportSettings';
 import type { CropId } from '../../../shared/table/plotTable';
@@ -20,8 +20,10 @@ import { BOOTSTRAP } from './intervals';
  * @param system - 'us' or 'metric'
  * @param crop - the table's crop
  * @param blocks - block terms of the fits
+ * @param siteModels - site → the model the user picked on screen
  * @returns settings for analyzeTrials; a product whose analysis the user changed
- *   is passed as its nutrient price, so the report prices N exactly as the screen does
+ *   is passed as its nutrient price, so the report prices N exactly as the screen does,
+ *   with the screen's application cost and the screen's leading model at every site
  */
 export function reportSettings(
   prices: PriceSettings,
@@ -29,6 +31,7 @@ export function reportSettings(
   system: 'us' | 'metric',
   crop: CropId,
   blocks: BlockTerms,
+  siteModels: Readonly<Record<string, ModelName>>,
 ): ReportSettings {
   const asListed = products(prices.productId).nitrogenPct === prices.analysisPct;
   const nutrientPerKg = prices.productPerKg / (prices.analysisPct / 100);
@@ -43,10 +46,12 @@ export function reportSettings(
         ? { id: prices.productId, price: prices.productPerKg * rateUnitKg(units.rate) }
         : null,
       defaulted: prices.illustrative,
+      applicationCostPerHa: prices.applicationPerHa,
     },
     boot: BOOTSTRAP.count,
     seed: BOOTSTRAP.seed,
     blocks,
     intervalLevel: BOOTSTRAP.level,
+    siteModels: { ...siteModels },
   };
 }

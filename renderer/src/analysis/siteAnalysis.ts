@@ -1,25 +1,30 @@
 /**
- * The price-free part of the analysis, one site at a time: every response
- * model with its AICc ranking, the intercept question and the rate–yield
- * correlation, plus the across-site tests of a common response. It runs in
- * the worker (fitting 50 sites takes a while); the results are plain data, so
- * re-pricing on the main thread needs no refit.
+ * The price-free analysis in the worker, site by site: the one pipeline of
+ * shared/sites (planAcrossSites, analyseSite per site, acrossSites), with a
+ * progress report after each site so a cancel can arrive between sites. The
+ * result is plain data; the window re-prices it (repriceAcrossSites) and
+ * applies the user's model choices (chooseSiteModels) without refitting.
+ *
+ * The views below only reshape the pipeline's result for the components; the
+ * fits, tests and model choice all come from shared/sites.
  */
-import type { AllModelsFit, ModelRank } from '../../../shared/models/fitAllModels';
-import { fitAllModels } from '../../../shared/models/fitAllModels';
-import type { BlockTerms, ModelFit, ModelName } from '../../../shared/models/modelTypes';
+import type { Prices } from '../../../shared/economics/priceRatio';
+import type { ModelRank } from '../../../shared/models/fitAllModels';
+import type { BlockTerms, ModelName } from '../../../shared/models/modelTypes';
 import {
-  testCommonResponse,
-  type CommonResponseTests,
-  type PooledLinearModel,
-} from '../../../shared/sites/commonResponseTests';
-import { sitePlots, type SitePlots } from '../../../shared/sites/sitePlots';
-import { testIntercept } from '../../../shared/stats/interceptTest';
-import { pearsonCorrelation, type PearsonResult } from '../../../shared/stats/pearson';
+  acrossSites,
+  analyseSite as analysePipelineSite,
+  planAcrossSites,
+  type AcrossSiteAnalysis,
+  type FitData,
+  type SiteAnalysis as PipelineSite,
+} from '../../../shared/sites/analyseAcrossSites';
+import type { CommonResponseTests } from '../../../shared/sites/commonResponseTests';
+import type { SitePlots } from '../../../shared/sites/sitePlots';
+import type { PearsonResult } from '../../../shared/stats/pearson';
 import type { PlotTable } from '../../../shared/table/plotTable';
 
-/** A model fit as plain data: everything but the predict function (which cannot cross to the window). */
-export type FitData = Omit<ModelFit, 'predict'>;
+export type { FitData };
 
 /** The intercept question in one sentence, with the numbers behind it. */
 export interface InterceptSummary {
@@ -36,6 +41,7 @@ export interface InterceptSummary {
 /** Either a result, or why it could not be had for this site. */
 export type Maybe<T> = { ok: true; value: T } | { ok: false; reason: string };
 
+/** One site as the screen shows it: its plots beside the pipeline's analysis of them. */
 export interface SiteAnalysis {
   site: string;
   plots: SitePlots;
@@ -43,118 +49,94 @@ export interface SiteAnalysis {
   problem: string | null;
   fits: Partial<Record<ModelName, FitData>>;
   ranking: ModelRank[];
-  best: ModelName | null;
+  /** The pipeline's recommendation model (shared/sites recommendationModel), price-independent. */
+  recommended: ModelName | null;
   intercept: Maybe<InterceptSummary>;
   correlation: Maybe<PearsonResult>;
-}
-
-export interface AcrossSites {
-  /** Tests of whether sites share a straight-line and a quadratic response. */
-  tests: Maybe<CommonResponseTests>[];
 }
 
 export interface AnalysisInput {
   table: PlotTable;
   blocks: BlockTerms;
+  /** Prices of the first pricing; the window re-prices without refitting. */
+  prices: Prices;
 }
 
 export interface AnalysisOutput {
-  sites: SiteAnalysis[];
-  across: AcrossSites;
+  /** The pipeline's result (fits, rows, pooling tests, regional rate). */
+  analysis: AcrossSiteAnalysis;
+  /** The sites' plots, in the analysis' order (charts and bootstrap intervals read them). */
+  plots: SitePlots[];
 }
 
-function attempt<T>(compute: () => T): Maybe<T> {
-  try {
-    return { ok: true, value: compute() };
-  } catch (error) {
-    return { ok: false, reason: error instanceof Error ? error.message : String(error) };
-  }
+/** The common-response tests the all-sites step shows, or none with fewer than two sites. */
+export function poolingTests(analysis: AcrossSiteAnalysis): CommonResponseTests[] {
+  return analysis.sites.length < 2
+    ? []
+    : [analysis.sharedResponse.linear, analysis.sharedResponse.quadratic];
 }
 
-function withoutPredict(all: AllModelsFit): Partial<Record<ModelName, FitData>> {
-  const out: Partial<Record<ModelName, FitData>> = {};
-  for (const [name, fit] of Object.entries(all.fits) as [ModelName, ModelFit][]) {
-    const { predict: _predict, ...data } = fit;
-    out[name] = data;
-  }
-  return out;
-}
-
-/**
- * Analyses one site's plots (price-free).
- * @param plots - the site's analysable plots, kg/ha
- * @param blocks - block terms for the curve fits
- * @returns fits, ranking, intercept test and correlation; failures become reasons
- */
-export function analyseSite(plots: SitePlots, blocks: BlockTerms): SiteAnalysis {
-  const base = { site: plots.site, plots };
-  if (plots.problem) {
-    const reason = plots.problem;
-    return {
-      ...base,
-      problem: reason,
-      fits: {},
-      ranking: [],
-      best: null,
-      intercept: { ok: false, reason },
-      correlation: { ok: false, reason },
-    };
-  }
-  const blockTerms = blocks === 'fixed' && plots.block.every((b) => b !== null) ? 'fixed' : 'none';
-  const all = attempt(() =>
-    fitAllModels(
-      { rateKgHa: plots.rateKgHa, yieldKgHa: plots.yieldKgHa, block: plots.block },
-      { blocks: blockTerms },
-    ),
-  );
-  const intercept = attempt((): InterceptSummary => {
-    const t = testIntercept(plots.rateKgHa, plots.yieldKgHa);
-    return {
-      verdict: t.verdict,
-      interceptKgHa: t.intercept.estimate,
-      stdErrorKgHa: t.intercept.stdError,
-      t: t.t,
-      p: t.p,
-      df: t.df2,
-      aiccDifference: t.aiccDifference,
-      interceptNeeded: t.interceptNeeded,
-    };
-  });
-  const correlation = attempt(() => pearsonCorrelation(plots.rateKgHa, plots.yieldKgHa));
+function siteView(s: PipelineSite, plots: SitePlots): SiteAnalysis {
+  const t = s.intercept;
+  const c = s.correlation;
   return {
-    ...base,
-    problem: all.ok ? null : all.reason,
-    fits: all.ok ? withoutPredict(all.value) : {},
-    ranking: all.ok ? all.value.ranking : [],
-    best: all.ok ? all.value.best : null,
-    intercept,
-    correlation,
+    site: s.site,
+    plots,
+    problem: s.problem,
+    fits: s.fits?.fits ?? {},
+    ranking: s.fits?.ranking ?? [],
+    recommended: s.recommended.model,
+    intercept:
+      'problem' in t
+        ? { ok: false, reason: t.problem }
+        : {
+            ok: true,
+            value: {
+              verdict: t.verdict,
+              interceptKgHa: t.interceptKgHa,
+              stdErrorKgHa: t.interceptSeKgHa,
+              t: t.t,
+              p: t.p,
+              df: t.df2,
+              aiccDifference: t.aiccDifference,
+              interceptNeeded: t.needed,
+            },
+          },
+    correlation: 'problem' in c ? { ok: false, reason: c.problem } : { ok: true, value: c },
   };
 }
 
-/** The pooled models whose common-response tests the all-sites step shows. */
-export const POOLED_MODELS: readonly PooledLinearModel[] = ['linear', 'quadratic'];
+/**
+ * The sites as the screen shows them.
+ * @param output - the worker's result
+ * @returns one view per site, in the analysis' order
+ */
+export function siteViews(output: AnalysisOutput): SiteAnalysis[] {
+  return output.analysis.sites.map((s, i) => siteView(s, output.plots[i]));
+}
 
 /**
- * Analyses every site, then the across-site tests, reporting progress per site.
- * @param input - the plot table and block terms
- * @param progress - awaited after each site (the worker yields there so a cancel can arrive)
- * @returns per-site results in table order and the across-site tests
+ * Analyses every site, then the across-site step, reporting progress per site.
+ * @param input - the plot table, block terms ("fixed": fixed blocks where every plot has one)
+ *   and canonical prices
+ * @param progress - awaited before each site (the worker yields there so a cancel can arrive)
+ * @returns the pipeline's analysis and the sites' plots
  */
 export async function analyseTable(
   input: AnalysisInput,
   progress: (done: number, total: number, note: string) => Promise<void>,
 ): Promise<AnalysisOutput> {
-  const sites = sitePlots(input.table);
-  const out: SiteAnalysis[] = [];
-  for (const [i, plots] of sites.entries()) {
-    await progress(i, sites.length + 1, plots.site);
-    out.push(analyseSite(plots, input.blocks));
+  // The screen's groups step does not exist, so the group analyses are not asked for.
+  const plan = planAcrossSites(input.table, {
+    prices: input.prices,
+    blocks: input.blocks === 'fixed' ? 'auto' : 'none',
+    groupKeys: [],
+  });
+  const sites: PipelineSite[] = [];
+  for (const [i, plots] of plan.plots.entries()) {
+    await progress(i, plan.plots.length + 1, plots.site);
+    sites.push(analysePipelineSite(plots, plan.options));
   }
-  await progress(sites.length, sites.length + 1, 'across sites');
-  const tests =
-    sites.length < 2
-      ? []
-      : POOLED_MODELS.map((model) => attempt(() => testCommonResponse(sites, model)));
-  return { sites: out, across: { tests } };
+  await progress(plan.plots.length, plan.plots.length + 1, 'across sites');
+  return { analysis: acrossSites(plan, sites), plots: [...plan.plots] };
 }

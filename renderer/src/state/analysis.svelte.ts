@@ -1,14 +1,16 @@
 // Fits (from the worker, price-free) and everything re-priced from them on the main thread.
 import { untrack } from 'svelte';
 import type { BlockTerms, ModelName } from '../../../shared/models/modelTypes';
+import { ILLUSTRATIVE_PRICES, canonicalPrices } from '../analysis/priceInputs';
+import { chooseSiteModels } from '../../../shared/sites/chooseSiteModels';
 import type { PlotTable } from '../../../shared/table/plotTable';
+import { regionalAtPrices, siteLeads, siteOptima, type SiteOptimum } from '../analysis/pricing';
 import {
-  prepareRegional,
-  regionalAtPrices,
-  siteOptima,
-  type SiteOptimum,
-} from '../analysis/pricing';
-import type { AnalysisOutput } from '../analysis/siteAnalysis';
+  poolingTests,
+  siteViews,
+  type AnalysisOutput,
+  type SiteAnalysis,
+} from '../analysis/siteAnalysis';
 import { JobFailedError } from '../lib/workerProtocol';
 import type { Jobs } from './jobs.svelte';
 import type { Messages } from './messages.svelte';
@@ -16,7 +18,7 @@ import type { Prices } from './prices.svelte';
 
 export class Analysis {
   output = $state.raw<AnalysisOutput | null>(null);
-  /** Site → the model the user chose to lead (else the best by AICc). */
+  /** Site → the model the user chose to lead (else the pipeline's recommendation model). */
   choices = $state<Record<string, ModelName>>({});
   blocks = $state<BlockTerms>('fixed');
   selectedSite = $state<string | null>(null);
@@ -38,37 +40,37 @@ export class Analysis {
     this.#prices = prices;
   }
 
-  optima: SiteOptimum[] = $derived.by(() => {
-    const priced = this.#prices.canonical;
-    if (!this.output || !priced.ok) return [];
-    return siteOptima(this.output.sites, this.choices, priced.prices);
-  });
+  /** The sites as the screen shows them (plots beside the pipeline's fits and tests). */
+  sites: SiteAnalysis[] = $derived(this.output ? siteViews(this.output) : []);
 
-  /** Site → leading model; a string key, so the regional gains below are only re-prepared when a lead changes. */
-  #leadKey = $derived(this.optima.map((o) => `${o.site}\u0000${o.model ?? ''}`).join('\u0001'));
+  /** The common-response tests of the all-sites step. */
+  pooling = $derived(this.output ? poolingTests(this.output.analysis) : []);
 
   /**
-   * Site → leading model. Changes only when a lead changes (not on every price
-   * tick), so what depends on leads alone — the regional gains, the overlay of
-   * curves — is not rebuilt while a price slider moves.
+   * Site → leading model: the user's pick, else the pipeline's recommendation model. It does
+   * not depend on prices, so what depends on leads alone (the regional gains, the overlay of
+   * curves) is not rebuilt while a price slider moves.
    */
-  leads: Record<string, ModelName | null> = $derived.by(() => {
-    void this.#leadKey;
-    return untrack(() => Object.fromEntries(this.optima.map((o) => [o.site, o.model] as const)));
-  });
+  leads: Record<string, ModelName | null> = $derived(
+    this.output ? siteLeads(this.output.analysis, this.choices) : {},
+  );
 
-  /** Price-free regional gains: recomputed only when fits or leading models change. */
-  #prepared = $derived(this.output ? prepareRegional(this.output.sites, this.leads) : null);
+  /** The pipeline's analysis with the user's models: rebuilt only when fits or choices change. */
+  #chosen = $derived(this.output ? chooseSiteModels(this.output.analysis, this.choices) : null);
+
+  optima: SiteOptimum[] = $derived.by(() => {
+    const priced = this.#prices.canonical;
+    if (!priced.ok) return [];
+    return siteOptima(this.sites, this.leads, priced.prices);
+  });
 
   regional = $derived.by(() => {
     const priced = this.#prices.canonical;
-    return priced.ok ? regionalAtPrices(this.#prepared, priced.prices) : null;
+    return priced.ok && this.#chosen ? regionalAtPrices(this.#chosen, priced.prices) : null;
   });
 
   /** The analysis of the selected site (the first one when none is selected). */
-  site = $derived(
-    this.output?.sites.find((s) => s.site === this.selectedSite) ?? this.output?.sites[0] ?? null,
-  );
+  site = $derived(this.sites.find((s) => s.site === this.selectedSite) ?? this.sites[0] ?? null);
 
   siteOptimum = $derived(this.optima.find((o) => o.site === this.site?.site) ?? null);
 
@@ -92,9 +94,12 @@ export class Analysis {
     this.intervals = {};
     this.stopped = false;
     try {
+      // Any valid prices do for the first pricing: the window re-prices without refitting.
+      const priced = untrack(() => this.#prices.canonical);
       const output = await this.#jobs.run<AnalysisOutput>('Fitting sites', 'analyse', {
         table: $state.snapshot(table),
         blocks: this.blocks,
+        prices: priced.ok ? { ...priced.prices } : canonicalPrices(ILLUSTRATIVE_PRICES),
       });
       if (output && this.#fittedTable === table) this.output = output;
       if (!output && this.#fittedTable === table) {
@@ -117,9 +122,9 @@ export class Analysis {
     const output = this.output;
     const priced = this.#prices.canonical;
     if (!output || !priced.ok) return;
-    const leads = untrack(() => this.optima);
-    const sites = output.sites.flatMap((s, index) => {
-      const model = leads.find((o) => o.site === s.site)?.model;
+    const leads = untrack(() => this.leads);
+    const sites = untrack(() => this.sites).flatMap((s, index) => {
+      const model = leads[s.site];
       return model
         ? [
             {

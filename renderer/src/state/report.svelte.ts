@@ -67,6 +67,7 @@ export class Report {
       ws.settings.unitSystem,
       table.crop,
       ws.analysis.blocks,
+      $state.snapshot(ws.analysis.choices),
     );
     const mapping = Object.entries(ws.trial.edits.mappings).flatMap(([file, m]) =>
       m.sheets.flatMap((s) =>
