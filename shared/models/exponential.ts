@@ -30,7 +30,7 @@ import {
 import { profiledCoefficients } from './linearCoefficients';
 import type { CurveEstimate, FitOptions, FitStatus, ModelFit, SiteData } from './modelTypes';
 import { prepareSite, type PreparedSite } from './prepareSite';
-import { profileSolver } from './profileSolver';
+import { profileSolver, type ProfileSolver } from './profileSolver';
 import { KG_HA_FORMAT, rateRangeText, type RateFormat } from './rateFormat';
 
 /** The exponential curve, parameters [a, b, k]. */
@@ -108,12 +108,7 @@ export function estimateExponential(
   const uHigh = Math.log(50 / rLow);
 
   const solver = profileSolver(site, { intercept, sign: 'positive' });
-  const g = new Float64Array(m);
-  const sseAt = (u: number): number => {
-    const k = Math.exp(u);
-    for (let j = 0; j < m; j++) g[j] = -Math.expm1(-k * rates[j]);
-    return solver.sse(g);
-  };
+  const sseAt = rateConstantSse(rates, solver);
   const step = (uHigh - uLow) / (GRID - 1);
   let previous = sseAt(uLow);
   let current = sseAt(uLow + step);
@@ -175,6 +170,18 @@ export function estimateExponential(
     sse,
     testedRates: site.testedRates,
     joinBetweenKgHa: status === 'full-response-at-lowest-rate' ? [rates[0], rLow] : null,
+  };
+}
+
+/** SSE at u = ln k: g = 1 − e^(−k r) per distinct rate. */
+function rateConstantSse(rates: Float64Array, solver: ProfileSolver): (u: number) => number {
+  const m = rates.length;
+  const g = new Float64Array(m);
+  // Returned unnamed: see profileSolver on tools that keep function names.
+  return (u) => {
+    const k = Math.exp(u);
+    for (let j = 0; j < m; j++) g[j] = -Math.expm1(-k * rates[j]);
+    return solver.sse(g);
   };
 }
 

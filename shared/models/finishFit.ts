@@ -266,7 +266,10 @@ export function finishFit(input: FinishInput): ModelFit {
     curve: { rateKgHa: curveRate, yieldKgHa: curveYield },
     covariance,
     paramNames: spec.paramNames.slice(),
-    predict: (rateKgHa: number) => spec.value(rateKgHa, params),
+    // A method, not a named arrow: see profileSolver on tools that keep function names.
+    predict(rateKgHa: number): number {
+      return spec.value(rateKgHa, params);
+    },
   };
 }
 

@@ -27,7 +27,7 @@ import { linearCoefficients, profiledCoefficients } from './linearCoefficients';
 import type { CurveEstimate, FitOptions, ModelFit, SiteData } from './modelTypes';
 import { plateauEstimate } from './plateauEstimate';
 import { prepareSite, type PreparedSite } from './prepareSite';
-import { profileSolver } from './profileSolver';
+import { profileSolver, type ProfileSolver } from './profileSolver';
 import type { RateFormat } from './rateFormat';
 import { relaxedJoinBounds } from './relaxedJoinBounds';
 import { searchJoinPoint } from './searchJoinPoint';
@@ -70,11 +70,7 @@ export function estimateLinearPlateau(
   const rates = site.rates;
   const m = rates.length;
   const solver = profileSolver(site, { intercept: true, sign: 'positive' });
-  const g = new Float64Array(m);
-  const sseAt = (x0: number): number => {
-    for (let j = 0; j < m; j++) g[j] = rates[j] < x0 ? rates[j] : x0;
-    return solver.sse(g);
-  };
+  const sseAt = joinSse(rates, solver);
   const bounds = site.design === 'full' ? undefined : relaxedJoinBounds(site, 1);
   const best = searchJoinPoint(rates, sseAt, tolerance, bounds);
   return plateauEstimate({
@@ -85,10 +81,24 @@ export function estimateLinearPlateau(
     best,
     // The limit x0 ≥ r_max is the straight line.
     limitSse: sseAt(rates[m - 1]),
-    noPlateauDetail: (highest) =>
-      `the join lies at or past the highest rate (${highest}), so the straight line fits as well.`,
+    noPlateauDetail,
     rateFormat,
   });
+}
+
+/** SSE at a join point x0 (kg/ha): g = min(r, x0) per distinct rate. */
+function joinSse(rates: Float64Array, solver: ProfileSolver): (x0: number) => number {
+  const m = rates.length;
+  const g = new Float64Array(m);
+  // Returned unnamed: see profileSolver on tools that keep function names.
+  return (x0) => {
+    for (let j = 0; j < m; j++) g[j] = rates[j] < x0 ? rates[j] : x0;
+    return solver.sse(g);
+  };
+}
+
+function noPlateauDetail(highest: string): string {
+  return `the join lies at or past the highest rate (${highest}), so the straight line fits as well.`;
 }
 
 /**

@@ -68,64 +68,94 @@ function groupSolver(site: PreparedSite, options: ProfileSolverOptions): Profile
     const d = options.intercept ? means[j] - mBar : means[j];
     flatSse += counts[j] * d * d;
   }
-  const sign = options.sign;
   const last = { intercept: 0, beta: 0 };
-  const flat = (): number => {
-    last.intercept = options.intercept ? mBar : 0;
-    last.beta = 0;
-    return flatSse;
-  };
+  // The evaluators come from module-level factories: a closure bound to a name
+  // here would be renamed on every call by tools that keep function names (tsx,
+  // which runs the command line), at a cost comparable to the evaluation itself.
   const sse = options.intercept
-    ? (g: Float64Array): number => {
-        let gBar = 0;
-        for (let j = 0; j < m; j++) gBar += counts[j] * g[j];
-        gBar /= w;
-        let sgg = 0;
-        let sgm = 0;
-        let gScale = 0;
-        for (let j = 0; j < m; j++) {
-          const dg = g[j] - gBar;
-          sgg += counts[j] * dg * dg;
-          sgm += counts[j] * dg * (means[j] - mBar);
-          gScale += counts[j] * g[j] * g[j];
-        }
-        // g constant (e.g. a join below the lowest rate): only the flat fit exists.
-        if (!(sgg > 1e-24 * gScale)) return flat();
-        const beta = sgm / sgg;
-        if ((sign === 'positive' && beta <= 0) || (sign === 'negative' && beta >= 0)) {
-          return flat();
-        }
-        last.intercept = mBar - beta * gBar;
-        last.beta = beta;
-        let s = ssWithin;
-        for (let j = 0; j < m; j++) {
-          const r = means[j] - mBar - beta * (g[j] - gBar);
-          s += counts[j] * r * r;
-        }
-        return s;
-      }
-    : (g: Float64Array): number => {
-        let sgg = 0;
-        let sgm = 0;
-        for (let j = 0; j < m; j++) {
-          sgg += counts[j] * g[j] * g[j];
-          sgm += counts[j] * g[j] * means[j];
-        }
-        if (!(sgg > 0)) return flat();
-        const beta = sgm / sgg;
-        if ((sign === 'positive' && beta <= 0) || (sign === 'negative' && beta >= 0)) {
-          return flat();
-        }
-        last.intercept = 0;
-        last.beta = beta;
-        let s = ssWithin;
-        for (let j = 0; j < m; j++) {
-          const r = means[j] - beta * g[j];
-          s += counts[j] * r * r;
-        }
-        return s;
-      };
+    ? centredSse(site, options.sign, w, mBar, flatSse, last)
+    : originSse(site, options.sign, flatSse, last);
   return { sse, flatSse, last };
+}
+
+/** SSE(g) with an intercept: centred sums, explicit residuals. */
+function centredSse(
+  site: PreparedSite,
+  sign: ProfileSolverOptions['sign'],
+  w: number,
+  mBar: number,
+  flatSse: number,
+  last: ProfileSolver['last'],
+): (g: Float64Array) => number {
+  const { counts, means, ssWithin } = site;
+  const m = counts.length;
+  return (g) => {
+    let gBar = 0;
+    for (let j = 0; j < m; j++) gBar += counts[j] * g[j];
+    gBar /= w;
+    let sgg = 0;
+    let sgm = 0;
+    let gScale = 0;
+    for (let j = 0; j < m; j++) {
+      const dg = g[j] - gBar;
+      sgg += counts[j] * dg * dg;
+      sgm += counts[j] * dg * (means[j] - mBar);
+      gScale += counts[j] * g[j] * g[j];
+    }
+    const beta = sgm / sgg;
+    // g constant (e.g. a join below the lowest rate): only the flat fit exists;
+    // β of the wrong sign: the constrained optimum is the flat fit too.
+    if (
+      !(sgg > 1e-24 * gScale) ||
+      (sign === 'positive' && beta <= 0) ||
+      (sign === 'negative' && beta >= 0)
+    ) {
+      last.intercept = mBar;
+      last.beta = 0;
+      return flatSse;
+    }
+    last.intercept = mBar - beta * gBar;
+    last.beta = beta;
+    let s = ssWithin;
+    for (let j = 0; j < m; j++) {
+      const r = means[j] - mBar - beta * (g[j] - gBar);
+      s += counts[j] * r * r;
+    }
+    return s;
+  };
+}
+
+/** SSE(g) through the origin (no intercept). */
+function originSse(
+  site: PreparedSite,
+  sign: ProfileSolverOptions['sign'],
+  flatSse: number,
+  last: ProfileSolver['last'],
+): (g: Float64Array) => number {
+  const { counts, means, ssWithin } = site;
+  const m = counts.length;
+  return (g) => {
+    let sgg = 0;
+    let sgm = 0;
+    for (let j = 0; j < m; j++) {
+      sgg += counts[j] * g[j] * g[j];
+      sgm += counts[j] * g[j] * means[j];
+    }
+    const beta = sgm / sgg;
+    if (!(sgg > 0) || (sign === 'positive' && beta <= 0) || (sign === 'negative' && beta >= 0)) {
+      last.intercept = 0;
+      last.beta = 0;
+      return flatSse;
+    }
+    last.intercept = 0;
+    last.beta = beta;
+    let s = ssWithin;
+    for (let j = 0; j < m; j++) {
+      const r = means[j] - beta * g[j];
+      s += counts[j] * r * r;
+    }
+    return s;
+  };
 }
 
 /**

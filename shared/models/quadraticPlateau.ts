@@ -30,7 +30,7 @@ import {
 import type { CurveEstimate, FitOptions, ModelFit, SiteData } from './modelTypes';
 import { plateauEstimate } from './plateauEstimate';
 import { prepareSite, type PreparedSite } from './prepareSite';
-import { profileSolver } from './profileSolver';
+import { profileSolver, type ProfileSolver } from './profileSolver';
 import type { RateFormat } from './rateFormat';
 import { relaxedJoinBounds } from './relaxedJoinBounds';
 import { searchJoinPoint } from './searchJoinPoint';
@@ -80,14 +80,7 @@ export function estimateQuadraticPlateau(
   const rates = site.rates;
   const m = rates.length;
   const solver = profileSolver(site, { intercept: true, sign: 'negative' });
-  const g = new Float64Array(m);
-  const sseAt = (x0: number): number => {
-    for (let j = 0; j < m; j++) {
-      const d = rates[j] < x0 ? rates[j] - x0 : 0;
-      g[j] = d * d;
-    }
-    return solver.sse(g);
-  };
+  const sseAt = joinSse(rates, solver);
   const bounds = site.design === 'full' ? undefined : relaxedJoinBounds(site, 2);
   const best = searchJoinPoint(rates, sseAt, tolerance, bounds);
   const rMax = rates[m - 1];
@@ -115,10 +108,27 @@ export function estimateQuadraticPlateau(
     sseAt,
     best,
     limitSse,
-    noPlateauDetail: (highest) =>
-      `the curve has not levelled off by the highest rate (${highest}).`,
+    noPlateauDetail,
     rateFormat,
   });
+}
+
+/** SSE at a join point x0 (kg/ha): g = min(r − x0, 0)² per distinct rate. */
+function joinSse(rates: Float64Array, solver: ProfileSolver): (x0: number) => number {
+  const m = rates.length;
+  const g = new Float64Array(m);
+  // Returned unnamed: see profileSolver on tools that keep function names.
+  return (x0) => {
+    for (let j = 0; j < m; j++) {
+      const d = rates[j] < x0 ? rates[j] - x0 : 0;
+      g[j] = d * d;
+    }
+    return solver.sse(g);
+  };
+}
+
+function noPlateauDetail(highest: string): string {
+  return `the curve has not levelled off by the highest rate (${highest}).`;
 }
 
 /**
