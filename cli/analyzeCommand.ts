@@ -194,7 +194,8 @@ function summary(report: TrialReport): string[] {
  * @param args - parsed options
  * @param log - where to print the summary (out) and progress (err)
  * @param version - the app version for the reports
- * @param extra - sheets to import (default all) and a fixed time stamp (the demo's)
+ * @param extra - sheets to import (default all), a fixed time stamp and run notes for every
+ *   output (the demo's)
  * @returns the report (for the demo command)
  * @throws {UsageError} for bad options or unreadable files; {ImportError} for files that cannot be used;
  *   {AnalysisFailed} when no site could be fitted
@@ -203,7 +204,7 @@ export async function analyzeCommand(
   args: AnalyzeArgs,
   log: Console2,
   version: string,
-  extra: { sheets?: string[]; createdAt?: string } = {},
+  extra: { sheets?: string[]; createdAt?: string; warnings?: string[] } = {},
 ): Promise<TrialReport> {
   checkOutputs(args);
   const files = readInputs(args.files);
@@ -249,6 +250,7 @@ export async function analyzeCommand(
     tool: { name: 'Plotrate', version },
     createdAt: extra.createdAt ?? new Date().toISOString().replace(/\.\d+Z$/, 'Z'),
     mapping: imported.mapping,
+    warnings: extra.warnings,
     findings: imported.findings,
     onProgress: (done, total) => {
       if (total >= 20 && (done % step === 0 || done === total))

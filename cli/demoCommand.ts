@@ -2,12 +2,18 @@
  * `plotrate demo`: writes the invented demo trial workbook and its full
  * report (workbook, grower PDF, results JSON) for the corn sites in US units
  * and for the wheat site in metric units, so a new user sees every output.
+ * Nitrogen is bought as urea (46 % N), so the grower page gives the rate in
+ * product as well as in N; the prices are illustrative and every output says so.
  */
 import { mkdirSync, writeFileSync, existsSync } from 'node:fs';
 import path from 'node:path';
 import { demoTrial, writeDemoWorkbook, demoSheetNames } from '../shared/demo';
 import { analyzeCommand, type Console2 } from './analyzeCommand';
 import { analyzeDefaults } from './parseArgs';
+
+/** The note every demo output carries beside its prices. */
+export const DEMO_PRICE_NOTE =
+  'Demo prices (grain and urea) are illustrative, not market prices: give your own before acting on any rate.';
 
 /** The demo workbook's file name (the same as the copy bundled in demo/). */
 export const demoFileName = 'wrenhollow-n-trials-2025.xlsx';
@@ -39,7 +45,9 @@ export async function demoCommand(dir: string, log: Console2, version: string): 
       crop: 'corn' as const,
       units: 'us' as const,
       grainPrice: 4.5,
-      nutrientPrice: 0.6,
+      // Illustrative: urea at 0.28 per lb of product is 0.61 per lb of N.
+      ureaPrice: 0.28,
+      heading: 'Corn sites (US units, illustrative prices 4.50/bu and urea at 0.28/lb, 0.61/lb N)',
       sheets: corn,
     },
     {
@@ -47,7 +55,10 @@ export async function demoCommand(dir: string, log: Console2, version: string): 
       crop: 'wheat' as const,
       units: 'metric' as const,
       grainPrice: 220,
-      nutrientPrice: 1.3,
+      // Illustrative: urea at 0.60 per kg of product is 1.30 per kg of N.
+      ureaPrice: 0.6,
+      heading:
+        'Wheat sites (metric units, illustrative prices 220/t and urea at 0.60/kg, 1.30/kg N)',
       sheets: [demoSheetNames.wheat],
     },
   ];
@@ -55,9 +66,7 @@ export async function demoCommand(dir: string, log: Console2, version: string): 
     const out = path.join(dir, `demo-${r.name}-report.xlsx`);
     const pdf = path.join(dir, `demo-${r.name}-recommendation.pdf`);
     const json = path.join(dir, `demo-${r.name}-results.json`);
-    log.out(
-      `\n${r.name === 'corn' ? 'Corn sites (US units, illustrative prices 4.50/bu and 0.60/lb N)' : 'Wheat sites (metric units, illustrative prices 220/t and 1.30/kg N)'}`,
-    );
+    log.out(`\n${r.heading}`);
     await analyzeCommand(
       {
         ...base,
@@ -67,11 +76,13 @@ export async function demoCommand(dir: string, log: Console2, version: string): 
         crop: r.crop,
         units: r.units,
         grainPrice: r.grainPrice,
-        nutrientPrice: r.nutrientPrice,
+        nutrientPrice: null,
+        product: 'urea',
+        productPrice: r.ureaPrice,
       },
       log,
       version,
-      { sheets: r.sheets, createdAt },
+      { sheets: r.sheets, createdAt, warnings: [DEMO_PRICE_NOTE] },
     );
     log.out(`Wrote ${out}, ${pdf}, ${json}`);
   }

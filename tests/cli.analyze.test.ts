@@ -226,8 +226,9 @@ describe('plotrate analyze: a run with every output', () => {
     expect(j.settings.units).toEqual({ rate: 'kg/ha', yield: 't/ha' });
     expect(j.settings.boot).toBe(30);
     expect(j.settings.seed).toBe(3);
-    // 1.2 per kg N over 180 per t: 0.006667 t grain per kg N.
-    expect(j.settings.priceRatio).toBeCloseTo(1.2 / 180, 12);
+    // 1.2 per kg N over 180 per t (0.18 per kg): 6.667 kg grain per kg N.
+    expect(j.settings.priceRatio).toBeCloseTo(1.2 / 0.18, 10);
+    expect(j.settings.priceRatioUnit).toBe('kg/kg N');
     expect(j.sites).toHaveLength(3);
     expect(j.acrossSites.profitableRange[0]).toBeLessThanOrEqual(j.acrossSites.bestRate);
   });
@@ -279,5 +280,32 @@ describe('plotrate demo', () => {
     );
     expect(j.settings.units).toEqual({ rate: 'lb/ac', yield: 'bu/ac' });
     expect(j.sites).toHaveLength(6);
+    expect(r.out).toContain('Demo prices (grain and urea) are illustrative');
+  });
+
+  it("prints the demo's grower pages with the rate in urea and N, one page per site and the region", () => {
+    for (const [name, pages, product, ratio] of [
+      // Urea at 0.28/lb over 4.50/bu: 0.28 / 0.46 / 4.5 = 0.1353 bu/lb N; at 0.60/kg over 220/t: 0.60 / 0.46 / 0.22 = 5.929 kg/kg N.
+      ['corn', 7, /≈ [\d,]+ lb\/ac of Urea 46-0-0/, /0\.135 bu\/lb N/],
+      ['wheat', 3, /≈ [\d,]+ kg\/ha of Urea 46-0-0/, /5\.93 kg\/kg N/],
+    ] as const) {
+      const pdf = path.join(dir, 'demo-out', `demo-${name}-recommendation.pdf`);
+      const info = spawnSync('/usr/bin/pdfinfo', [pdf], { encoding: 'utf8' }).stdout;
+      expect(info).toMatch(new RegExp(`Pages:\\s+${pages}\\n`));
+      for (let page = 1; page <= pages; page++) {
+        const text = spawnSync(
+          '/usr/bin/pdftotext',
+          ['-f', String(page), '-l', String(page), '-layout', pdf, '-'],
+          { encoding: 'utf8' },
+        ).stdout.replace(/\s+/g, ' ');
+        // A page that advises no N has no product amount; every other page gives both.
+        if (text.includes('Apply no N')) expect(text).not.toMatch(product);
+        else expect(text).toMatch(product);
+        expect(text).toMatch(ratio);
+        expect(text).toContain('Demo prices (grain and urea) are illustrative');
+        // The cautions end each page: nothing spilled onto a next one.
+        expect(text).toContain('Defer to a licensed or certified agronomist');
+      }
+    }
   });
 });

@@ -7,8 +7,8 @@
  */
 import type { BlockTerms, ModelName } from '../models/modelTypes';
 import type { CropId } from '../table/plotTable';
-import { rateFromKgHa, type RateUnit } from '../units/convertRate';
-import { yieldFromKgHa, type YieldUnit } from '../units/convertYield';
+import type { RateUnit } from '../units/convertRate';
+import type { YieldUnit } from '../units/convertYield';
 import { crops } from '../units/crops';
 import { products, type ProductId } from '../units/products';
 import { KG_PER_LB, KG_PER_T } from '../units/unitConstants';
@@ -95,6 +95,31 @@ export function priceWeightName(unit: YieldUnit | RateUnit): string {
   return unit === 'bu/ac' ? 'bu' : unit === 't/ha' ? 't' : unit === 'lb/ac' ? 'lb' : 'kg';
 }
 
+/**
+ * The price ratio as the trade quotes it: grain per unit weight of N, the grain in bushels
+ * (bu/ac yields), pounds (lb/ac) or kilograms (t/ha and kg/ha: "0.0147 t/kg N" reads as
+ * nothing a grower uses, 14.7 kg/kg N does), the N in pounds (lb/ac rates) or kilograms.
+ * @param ratioKgPerKg - PR = nutrient price / grain price, kg grain per kg N
+ * @param units - the display units
+ * @param crop - the crop, for the bushel weight
+ * @returns the value and its unit text
+ * @example
+ * priceRatioQuote(7.47, { rate: 'lb/ac', yield: 'bu/ac' }, 'corn') // { value: ≈ 0.1334, unit: 'bu/lb N' }
+ * priceRatioQuote(14.7, { rate: 'kg/ha', yield: 't/ha' }, 'wheat') // { value: 14.7, unit: 'kg/kg N' }
+ */
+export function priceRatioQuote(
+  ratioKgPerKg: number,
+  units: ReportUnits,
+  crop: CropId,
+): { value: number; unit: string } {
+  const grain = units.yield === 't/ha' ? 'kg' : priceWeightName(units.yield);
+  const grainKg = units.yield === 't/ha' ? 1 : yieldUnitKg(units.yield, crop);
+  return {
+    value: (ratioKgPerKg * rateUnitKg(units.rate)) / grainKg,
+    unit: `${grain}/${priceWeightName(units.rate)} N`,
+  };
+}
+
 /** The prices turned into what the economics needs. */
 export interface PriceTerms {
   /** Nutrient price, $ per kg of N. */
@@ -103,9 +128,9 @@ export interface PriceTerms {
   grainPricePerKg: number;
   /** Price ratio, kg grain per kg N (canonical). */
   priceRatioKgPerKg: number;
-  /** Price ratio in the report's yield unit per rate unit (e.g. bu per lb N). */
+  /** Price ratio as the trade quotes it (priceRatioQuote): bu per lb N, kg grain per kg N. */
   priceRatioDisplay: number;
-  /** Unit text of `priceRatioDisplay`, e.g. "bu/lb N". */
+  /** Unit text of `priceRatioDisplay`, e.g. "bu/lb N" or "kg/kg N". */
   priceRatioUnit: string;
   /** Nutrient price in the report's units ($/lb N or $/kg N). */
   nutrientPriceDisplay: number;
@@ -157,15 +182,13 @@ export function priceTerms(
   const nutrientPricePerKg = nutrientPerRateWeight / rateUnitKg(units.rate);
   const grainPricePerKg = prices.grainPrice / yieldUnitKg(units.yield, crop);
   const priceRatioKgPerKg = nutrientPricePerKg / grainPricePerKg;
-  // The ratio is "yield per rate", so it converts like yield over rate.
-  const priceRatioDisplay =
-    yieldFromKgHa(priceRatioKgPerKg, units.yield, crop) / rateFromKgHa(1, units.rate);
+  const quote = priceRatioQuote(priceRatioKgPerKg, units, crop);
   return {
     nutrientPricePerKg,
     grainPricePerKg,
     priceRatioKgPerKg,
-    priceRatioDisplay,
-    priceRatioUnit: `${priceWeightName(units.yield)}/${priceWeightName(units.rate)} N`,
+    priceRatioDisplay: quote.value,
+    priceRatioUnit: quote.unit,
     nutrientPriceDisplay: nutrientPerRateWeight,
     applicationCostPerHa,
   };

@@ -5,10 +5,15 @@
  * US/metric switch changes what is shown, never the optimum.
  */
 import type { Prices } from '../../../shared/economics/priceRatio';
-import { rateUnitKg, yieldUnitKg } from '../../../shared/report/reportSettings';
+import {
+  priceRatioQuote,
+  rateUnitKg,
+  yieldUnitKg,
+  type ReportUnits,
+} from '../../../shared/report/reportSettings';
 import type { CropId } from '../../../shared/table/plotTable';
-import { rateFromKgHa, type RateUnit } from '../../../shared/units/convertRate';
-import { yieldFromKgHa, type YieldUnit } from '../../../shared/units/convertYield';
+import type { RateUnit } from '../../../shared/units/convertRate';
+import type { YieldUnit } from '../../../shared/units/convertYield';
 import type { ProductId } from '../../../shared/units/products';
 import { M2_PER_ACRE, M2_PER_HA } from '../../../shared/units/unitConstants';
 
@@ -95,28 +100,9 @@ export function applicationFromShown(shown: number, unit: RateUnit): number {
 }
 
 /**
- * The price ratio in display units (yield unit's weight per rate unit's weight of N).
- * @param ratioKgPerKg - PR, kg grain per kg N
- * @param yieldUnit - e.g. 'bu/ac'
- * @param rateUnit - e.g. 'lb/ac'
- * @param crop - the crop, for the bushel weight
- * @returns e.g. bu per lb N
- * @example
- * priceRatioShown(7.47, 'bu/ac', 'lb/ac', 'corn') // ≈ 0.133 bu/lb N
- */
-export function priceRatioShown(
-  ratioKgPerKg: number,
-  yieldUnit: YieldUnit,
-  rateUnit: RateUnit,
-  crop: CropId,
-): number {
-  // A ratio of yield per rate converts like a yield over a rate.
-  return yieldFromKgHa(ratioKgPerKg, yieldUnit, crop) / rateFromKgHa(1, rateUnit);
-}
-
-/**
- * The price ratio as the trade quotes it: bushels per pound of N in US units,
- * kilograms of grain per kilogram of N in metric.
+ * The price ratio as the trade quotes it (shared/report priceRatioQuote, as the
+ * report prints it): bushels per pound of N in US units, kilograms of grain per
+ * kilogram of N in metric.
  * @param ratioKgPerKg - PR, kg grain per kg N
  * @param system - 'us' or 'metric'
  * @param crop - the crop, for the bushel weight
@@ -129,7 +115,7 @@ export function priceRatioDisplay(
   system: 'us' | 'metric',
   crop: CropId,
 ): { value: number; unit: string } {
-  return system === 'us'
-    ? { value: priceRatioShown(ratioKgPerKg, 'bu/ac', 'lb/ac', crop), unit: 'bu/lb N' }
-    : { value: ratioKgPerKg, unit: 'kg/kg N' };
+  const units: ReportUnits =
+    system === 'us' ? { rate: 'lb/ac', yield: 'bu/ac' } : { rate: 'kg/ha', yield: 't/ha' };
+  return priceRatioQuote(ratioKgPerKg, units, crop);
 }
