@@ -152,7 +152,11 @@ export interface ModelFit extends CurveSummary {
   bic: number;
   /** Null when no rate is replicated or the model has as many parameters as rates. */
   lackOfFit: LackOfFit | null;
-  /** Observed minus fitted, one per plot in input order, kg/ha. */
+  /**
+   * Observed minus fitted, one per plot in input order, kg/ha. `residuals`, `fitted` and
+   * `curve` are views into one buffer shared by the fits of a site (fitAllModels), so
+   * transfer a copy, not `.buffer`, to another thread.
+   */
   residuals: Float64Array;
   fitted: Float64Array;
   /** The fitted curve (block average) on an even grid of rates across the tested range. */
