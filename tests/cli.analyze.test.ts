@@ -144,7 +144,7 @@ describe('plotrate analyze --map', () => {
         rows.push(`Elm Hollow,${b},${x},${(6 + 0.03 * Math.min(x, 120) + 0.05 * b).toFixed(2)}`);
     }
     writeFileSync(path.join(dir, 'map.csv'), `${rows.join('\n')}\n`);
-    const plain = run([
+    const priced = [
       'analyze',
       'map.csv',
       '--boot',
@@ -153,18 +153,12 @@ describe('plotrate analyze --map', () => {
       '200',
       '--nutrient-price',
       '1.2',
-    ]);
+    ];
+    const plain = run(priced);
     expect(plain.code).toBe(2);
     expect(plain.err).toMatch(/"map\.csv" has no rate column/);
     const mapped = run([
-      'analyze',
-      'map.csv',
-      '--boot',
-      '0',
-      '--grain-price',
-      '200',
-      '--nutrient-price',
-      '1.2',
+      ...priced,
       '--map',
       'rate=Amount',
       'site=Field',

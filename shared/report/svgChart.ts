@@ -201,23 +201,32 @@ function drawPanel(
   const sx = (v: number): number => box.x + ((v - xt.min) / (xt.max - xt.min)) * box.w;
   const sy = (v: number): number => box.y + box.h - ((v - yt.min) / (yt.max - yt.min)) * box.h;
 
+  // One grid line from (x1, y1) to (x2, y2) and its tick label at `at`.
+  const tick = (
+    line: [number, number, number, number],
+    at: [number, number],
+    anchor: 'end' | 'middle',
+    label: string,
+  ): void => {
+    const [x1, y1, x2, y2] = line;
+    out.push(
+      `<line x1="${n(x1)}" y1="${n(y1)}" x2="${n(x2)}" y2="${n(y2)}" stroke="${chartPalette.grid}" stroke-width="1"/>`,
+      `<text x="${n(at[0])}" y="${n(at[1])}" font-size="${n(size * 0.9)}" text-anchor="${anchor}">${esc(label)}</text>`,
+    );
+  };
   for (const t of yt.ticks) {
     const y = sy(t);
-    out.push(
-      `<line x1="${n(box.x)}" y1="${n(y)}" x2="${n(box.x + box.w)}" y2="${n(y)}" stroke="${chartPalette.grid}" stroke-width="1"/>`,
-    );
-    out.push(
-      `<text x="${n(box.x - 6)}" y="${n(y + size * 0.35)}" font-size="${n(size * 0.9)}" text-anchor="end">${esc(formatTick(t, yt.decimals))}</text>`,
+    tick(
+      [box.x, y, box.x + box.w, y],
+      [box.x - 6, y + size * 0.35],
+      'end',
+      formatTick(t, yt.decimals),
     );
   }
   for (const t of xt.ticks) {
     const x = sx(t);
-    out.push(
-      `<line x1="${n(x)}" y1="${n(box.y)}" x2="${n(x)}" y2="${n(box.y + box.h)}" stroke="${chartPalette.grid}" stroke-width="1"/>`,
-    );
-    out.push(
-      `<text x="${n(x)}" y="${n(box.y + box.h + size * 1.2)}" font-size="${n(size * 0.9)}" text-anchor="middle">${esc(formatTick(t, xt.decimals))}</text>`,
-    );
+    const label = formatTick(t, xt.decimals);
+    tick([x, box.y, x, box.y + box.h], [x, box.y + box.h + size * 1.2], 'middle', label);
   }
   if (panel.y.zeroLine) {
     out.push(
