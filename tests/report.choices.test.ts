@@ -5,6 +5,7 @@ import { describe, expect, it } from 'vitest';
 import { syntheticPlotTable } from '../shared/demo/syntheticTrial';
 import { economicOptimum } from '../shared/economics/economicOptimum';
 import { analyzeTrials } from '../shared/report/analyzeTrials';
+import { growerPage } from '../shared/report/growerPage';
 import type { ReportSettings } from '../shared/report/reportSettings';
 import { priceTerms } from '../shared/report/reportSettings';
 import { analyseAcrossSites } from '../shared/sites/analyseAcrossSites';
@@ -44,8 +45,15 @@ describe('analyzeTrials with the user’s site models', () => {
 
   it('leads the picked site with the picked model and says so', () => {
     expect(picked.sites[0].bestModel).toBe(other);
-    expect(picked.sites[0].bestModelReason).toMatch(
-      /^picked by the user; the recommendation model would be /,
+    expect(picked.sites[0].bestModelPicked).toBe(true);
+    const recommended = first.models.find((m) => m.model === first.bestModel)!.label;
+    expect(picked.sites[0].bestModelReason).toBe(
+      `picked by the analyst instead of the ${recommended.toLowerCase()} (${first.bestModelReason})`,
+    );
+    expect(plain.sites.every((s) => !s.bestModelPicked)).toBe(true);
+    // The grower page says the curve was picked, not chosen by the rule.
+    expect(growerPage(picked, first.site).basis.join(' ')).toContain(
+      `, picked by the analyst instead of the ${recommended.toLowerCase()}`,
     );
     // The other sites keep their recommendation models.
     expect(picked.sites.slice(1).map((s) => s.bestModel)).toEqual(

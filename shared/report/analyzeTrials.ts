@@ -244,14 +244,17 @@ export function analyzeTrials(
 }
 
 /** The site's leading model: the user's pick (leadingModel) or the recommendation model, and why. */
-function siteChoice(s: SiteAnalysis, settings: ReportSettings): RecommendationModel {
+function siteChoice(
+  s: SiteAnalysis,
+  settings: ReportSettings,
+): RecommendationModel & { picked: boolean } {
   const model = leadingModel(s, settings.siteModels ?? {});
-  return model === s.recommended.model
-    ? s.recommended
-    : {
-        model,
-        reason: `picked by the user; the recommendation model would be ${s.recommended.model ? s.fits?.fits[s.recommended.model].label : 'none'} (${s.recommended.reason})`,
-      };
+  const rec = s.recommended.model;
+  if (model === rec) return { ...s.recommended, picked: false };
+  const instead = rec
+    ? `the ${s.fits!.fits[rec].label.toLowerCase()} (${s.recommended.reason})`
+    : `no model (${s.recommended.reason})`;
+  return { model, reason: `picked by the analyst instead of ${instead}`, picked: true };
 }
 
 /** One site's part of the report, from its analysis. */
@@ -295,7 +298,7 @@ function siteReport(
   else if (!all) warnings.push(`The curves could not be fitted: ${s.problem ?? 'not fitted'}`);
   const choice = all
     ? siteChoice(s, c.settings)
-    : { model: null, reason: 'no model could be fitted' };
+    : { model: null, reason: 'no model could be fitted', picked: false };
   const bestFit = all && choice.model ? all.fits[choice.model] : null;
   let bootstrap: SiteReport['bootstrap'] = null;
   if (bestFit && c.settings.boot > 0) {
@@ -343,6 +346,7 @@ function siteReport(
     models,
     bestModel: choice.model,
     bestModelReason: choice.reason,
+    bestModelPicked: choice.picked,
     bootstrap,
     profitableRangeKgHa: bestFit ? siteProfitableRange(bestFit, c.prices, c.band) : null,
     returnAtOptimumPerHa: bestRow?.gainOverCheckPerHa ?? null,

@@ -201,7 +201,7 @@ export function growerPage(report: TrialReport, which: string | 'region'): Growe
       ? `${nExcl} plot${nExcl === 1 ? '' : 's'} left out: ${[...new Set(s.plots.filter((p) => p.excluded).map((p) => p.excluded!.reason))].join('; ')}.`
       : 'No plots were left out.',
     best
-      ? `Response curve: ${best.label.toLowerCase()}, chosen for the ${s.bestModelReason}.`
+      ? `Response curve: ${best.label.toLowerCase()}, ${s.bestModelPicked ? s.bestModelReason : `chosen for the ${s.bestModelReason}`}.`
       : 'No response curve gave a usable optimum.',
   ];
   if (!best || best.optimumRateKgHa === null) {

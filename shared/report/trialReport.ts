@@ -111,6 +111,8 @@ export interface SiteReport {
   bestModel: ModelName | null;
   /** Why it was chosen, a phrase without a final stop ("lowest AICc of the models fitted, …"). */
   bestModelReason: string;
+  /** True when the analyst picked bestModel over the recommendation model (the reason says which). */
+  bestModelPicked: boolean;
   bootstrap: BootstrapSummary | null;
   /**
    * Rates whose return over the check, from the chosen curve, is within
