@@ -195,6 +195,32 @@ describe('the workspace in chromium', () => {
     expect(session.pageErrors).toEqual([]);
   });
 
+  it('a model picked on screen leads the grower page too, with the optimum the screen shows', async () => {
+    const { page } = session;
+    await page.getByRole('button', { name: /One site/ }).click();
+    await page.getByTestId('site-picker').selectOption('Quillmere North');
+    await page.getByRole('radio', { name: 'Lead with Linear-plateau' }).check();
+    await expect
+      .poll(() => page.getByTestId('model-table').locator('tr.lead').textContent())
+      .toContain('Linear-plateau');
+    const onScreen = leadingNumber(await page.getByTestId('site-optimum').textContent());
+    await page.getByRole('button', { name: /Report/ }).click();
+    await page.getByTestId('page-for').selectOption('Quillmere North');
+    const sheet = page.getByTestId('grower-page');
+    await sheet
+      .getByText(/linear-plateau, picked by the analyst instead of the quadratic/)
+      .waitFor({
+        timeout: 60_000,
+      });
+    // The page rounds the rate to 5 kg/ha for a spreader; the screen shows whole kg/ha.
+    const printed = leadingNumber(await page.getByTestId('grower-recommendation').textContent());
+    expect(Math.abs(printed - onScreen)).toBeLessThanOrEqual(2.5);
+    // Back to the rule's model, so the steps after this one see the demo as it opens.
+    await page.getByRole('button', { name: /One site/ }).click();
+    await page.getByRole('radio', { name: 'Lead with Quadratic', exact: true }).check();
+    expect(session.pageErrors).toEqual([]);
+  });
+
   it('a file that is not a workbook gets a message naming it, and the other files stay open', async () => {
     const { page } = session;
     const dir = await mkdtemp(path.join(tmpdir(), 'plotrate-e2e-bad-'));
