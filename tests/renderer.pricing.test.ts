@@ -11,6 +11,9 @@ import {
   siteOptima,
 } from '../renderer/src/analysis/pricing';
 import { chooseSiteModels } from '../shared/sites/chooseSiteModels';
+import { analyzeTrials } from '../shared/report/analyzeTrials';
+import { siteIntervals } from '../renderer/src/analysis/intervals';
+import { reportSettings } from '../renderer/src/analysis/reportInput';
 import {
   canonicalPrices,
   grainPriceFromShown,
@@ -117,6 +120,38 @@ describe('renderer analysis and re-pricing', () => {
     });
     expect(chosen.siteOptima).toEqual(fresh.regional.regional.siteOptima);
     expect(chosen.bestRateKgHa).toBe(fresh.regional.regional.bestRateKgHa);
+  });
+});
+
+describe('renderer optimum intervals', () => {
+  it('siteIntervals gives each site the interval the report prints for its leading model', async () => {
+    const table = syntheticPlotTable({ sites: 2, seed: 3 });
+    const out = await analyseTable({ table, blocks: 'fixed', prices: illustrative }, noProgress);
+    const leads = siteLeads(out.analysis, {});
+    const sites = siteViews(out).map((s, index) => ({
+      site: s.site,
+      index,
+      model: leads[s.site]!,
+      blocks: out.analysis.sites[index].blocks,
+      rateKgHa: s.plots.rateKgHa,
+      yieldKgHa: s.plots.yieldKgHa,
+      block: s.plots.block,
+    }));
+    const onScreen = await siteIntervals({ sites, prices: illustrative }, noProgress);
+    const units = { rate: 'kg/ha', yield: 'kg/ha' } as const;
+    const report = analyzeTrials(
+      table,
+      reportSettings(ILLUSTRATIVE_PRICES, units, 'metric', table.crop, 'fixed', {}),
+      {
+        tool: { name: 'Plotrate', version: 'test' },
+        createdAt: '2026-01-01T00:00:00Z',
+        mapping: [],
+      },
+    );
+    for (const s of report.sites) {
+      expect(s.bootstrap?.ciKgHa).toBeTruthy();
+      expect(onScreen[s.site]).toEqual(s.bootstrap!.ciKgHa);
+    }
   });
 });
 

@@ -16,6 +16,8 @@ export interface IntervalSite {
   /** Position of the site in the table's site order (the report seeds by it). */
   index: number;
   model: ModelName;
+  /** The block terms the site was fitted with (the pipeline's choice for this site). */
+  blocks: BlockTerms;
   rateKgHa: Float64Array;
   yieldKgHa: Float64Array;
   block: (string | null)[];
@@ -23,13 +25,12 @@ export interface IntervalSite {
 
 export interface IntervalInput {
   sites: IntervalSite[];
-  blocks: BlockTerms;
   prices: Prices;
 }
 
 /**
  * Bootstraps every site's optimum.
- * @param input - the sites' plots and leading models, block terms, canonical prices
+ * @param input - the sites' plots, leading models and block terms, canonical prices
  * @param progress - awaited after each site (lets a cancel arrive)
  * @returns site → interval, kg/ha (sites without a usable interval are absent)
  */
@@ -40,7 +41,6 @@ export async function siteIntervals(
   const out: Record<string, [number, number]> = {};
   for (const [i, s] of input.sites.entries()) {
     await progress(i, input.sites.length, s.site);
-    const blocks = input.blocks === 'fixed' && s.block.every((b) => b !== null) ? 'fixed' : 'none';
     try {
       const b = bootstrapSiteOptimum(
         {
@@ -48,7 +48,7 @@ export async function siteIntervals(
           yieldKgHa: s.yieldKgHa,
           block: s.block,
           model: s.model,
-          blocks,
+          blocks: s.blocks,
           prices: input.prices,
         },
         BOOTSTRAP.count,

@@ -125,12 +125,14 @@ export class Analysis {
     const leads = untrack(() => this.leads);
     const sites = untrack(() => this.sites).flatMap((s, index) => {
       const model = leads[s.site];
+      const blocks = output.analysis.sites[index].blocks;
       return model
         ? [
             {
               site: s.site,
               index,
               model,
+              blocks,
               rateKgHa: s.plots.rateKgHa,
               yieldKgHa: s.plots.yieldKgHa,
               block: s.plots.block,
@@ -142,7 +144,7 @@ export class Analysis {
       const found = await this.#jobs.run<Record<string, [number, number]>>(
         'Optimum intervals',
         'intervals',
-        { sites, blocks: this.blocks, prices: { ...priced.prices } },
+        { sites, prices: { ...priced.prices } },
       );
       if (found && this.output === output) this.intervals = found;
     } catch (error) {
