@@ -367,48 +367,31 @@ export function siteModelRows(s: SiteAnalysis, prices: Prices): SiteModelRow[] {
   const interceptP = 'p' in s.intercept ? s.intercept.p : null;
   const interceptNeeded = 'p' in s.intercept ? s.intercept.needed : null;
   const rateEffectP = s.rateEffect.test.kind === 'f-test' ? s.rateEffect.test.p : null;
-  const shared = {
-    site: s.site,
-    interceptP,
-    interceptNeeded,
-    cvPct: s.rateEffect.cvPct,
-    rateEffectP,
-    responded: s.responded,
-    groups: s.groups,
-  };
-  return MODEL_NAMES.map((model) => {
+  // Every row is written out field by field: V8 builds object-spread copies of
+  // the site columns slowly enough to dominate re-pricing thousands of rows.
+  return MODEL_NAMES.map((model): SiteModelRow => {
     const fit = s.fits?.fits[model];
-    if (!s.fits || !fit) {
-      return {
-        ...shared,
-        model,
-        status: 'not-fitted',
-        message: s.problem ?? 'not fitted',
-        optimumRateKgHa: null,
-        optimumStatus: 'not-fitted',
-        yieldAtOptimumKgHa: null,
-        gainOverCheckPerHa: null,
-        plateauYieldKgHa: null,
-        aicc: NaN,
-        aiccRank: null,
-        aiccWinner: false,
-      };
-    }
-    const opt = economicOptimum(fit, prices);
-    const rank = s.fits.ranking.find((r) => r.model === model)?.rank ?? null;
+    const opt = s.fits && fit ? economicOptimum(fit, prices) : null;
+    const rank = (fit && s.fits?.ranking.find((r) => r.model === model)?.rank) ?? null;
     return {
-      ...shared,
+      site: s.site,
       model,
-      status: fit.status,
-      message: fit.message,
-      optimumRateKgHa: opt.rateKgHa,
-      optimumStatus: opt.status,
-      yieldAtOptimumKgHa: opt.yieldKgHa,
-      gainOverCheckPerHa: opt.gainOverCheckPerHa,
-      plateauYieldKgHa: fit.plateauYield?.estimate ?? null,
-      aicc: fit.aicc,
+      status: fit ? fit.status : 'not-fitted',
+      message: fit ? fit.message : (s.problem ?? 'not fitted'),
+      optimumRateKgHa: opt ? opt.rateKgHa : null,
+      optimumStatus: opt ? opt.status : 'not-fitted',
+      yieldAtOptimumKgHa: opt ? opt.yieldKgHa : null,
+      gainOverCheckPerHa: opt ? opt.gainOverCheckPerHa : null,
+      plateauYieldKgHa: fit?.plateauYield?.estimate ?? null,
+      aicc: fit ? fit.aicc : NaN,
       aiccRank: rank,
       aiccWinner: rank === 1,
+      interceptP,
+      interceptNeeded,
+      cvPct: s.rateEffect.cvPct,
+      rateEffectP,
+      responded: s.responded,
+      groups: s.groups,
     };
   });
 }
