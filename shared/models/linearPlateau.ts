@@ -31,6 +31,7 @@ import { profileSolver, type ProfileSolver } from './profileSolver';
 import type { RateFormat } from './rateFormat';
 import { relaxedJoinBounds } from './relaxedJoinBounds';
 import { searchJoinPoint } from './searchJoinPoint';
+import { stationaryJoinPoints } from './stationaryJoinPoints';
 
 /** The linear-plateau curve, parameters [a, b, x0]. */
 export const linearPlateauSpec: CurveSpec = {
@@ -72,7 +73,8 @@ export function estimateLinearPlateau(
   const solver = profileSolver(site, { intercept: true, sign: 'positive' });
   const sseAt = joinSse(rates, solver);
   const bounds = site.design === 'full' ? undefined : relaxedJoinBounds(site, 1);
-  const best = searchJoinPoint(rates, sseAt, tolerance, bounds);
+  const stationary = bounds ? stationaryJoinPoints(site, 1) : undefined;
+  const best = searchJoinPoint(rates, sseAt, tolerance, bounds, stationary);
   return plateauEstimate({
     site,
     spec: linearPlateauSpec,

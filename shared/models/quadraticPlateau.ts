@@ -34,6 +34,7 @@ import { profileSolver, type ProfileSolver } from './profileSolver';
 import type { RateFormat } from './rateFormat';
 import { relaxedJoinBounds } from './relaxedJoinBounds';
 import { searchJoinPoint } from './searchJoinPoint';
+import { stationaryJoinPoints } from './stationaryJoinPoints';
 
 /** The quadratic-plateau curve, parameters [P, c, x0]. */
 export const quadraticPlateauSpec: CurveSpec = {
@@ -82,7 +83,8 @@ export function estimateQuadraticPlateau(
   const solver = profileSolver(site, { intercept: true, sign: 'negative' });
   const sseAt = joinSse(rates, solver);
   const bounds = site.design === 'full' ? undefined : relaxedJoinBounds(site, 2);
-  const best = searchJoinPoint(rates, sseAt, tolerance, bounds);
+  const stationary = bounds ? stationaryJoinPoints(site, 2) : undefined;
+  const best = searchJoinPoint(rates, sseAt, tolerance, bounds, stationary);
   const rMax = rates[m - 1];
 
   // The limit x0 ≥ r_max: the quadratic with its vertex past the data, or the
