@@ -16,10 +16,10 @@
  *   `groupIndex`), and {@link chartPalette} maps those to colours, so both
  *   renderers agree without the spec fixing a look.
  */
+import type { ModelName } from '../models/modelTypes';
 
-/** The response models a curve layer can stand for (the models stage's names). */
-export type ChartModelName =
-  'linear' | 'proportional' | 'quadratic' | 'linearPlateau' | 'quadraticPlateau' | 'exponential';
+/** The response models a curve layer can stand for: the models stage's own names. */
+export type ChartModelName = ModelName;
 
 /** One axis: its title with the unit, and an optional fixed range. */
 export interface ChartAxis {
