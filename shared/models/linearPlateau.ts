@@ -54,7 +54,8 @@ export const linearPlateauSpec: CurveSpec = {
 /**
  * The linear-plateau's estimate and status from the profiled search alone.
  * @param site - from prepareSite
- * @param tolerance - Brent's relative tolerance on x0, default 1e-10 (the bootstrap uses 1e-7)
+ * @param tolerance - Brent's relative tolerance on x0, default 1e-10 (the bootstrap uses 1e-7);
+ *   only the full block design searches by Brent, group sums give the join in closed form
  * @param rateFormat - how messages write rates, default kg/ha rounded
  * @returns status, message, params {a, b, x0} (x0 = highest rate for "no-plateau" and
  *   "no-response", the second-lowest rate for "full-response-at-lowest-rate") and SSE

@@ -67,7 +67,8 @@ export interface FitOptions {
   curvePoints?: number;
   /**
    * Relative tolerance of Brent's search on x0 or ln k in estimateCurve, default 1e-10.
-   * The bootstrap uses 1e-7: ample for percentiles, and fewer evaluations.
+   * The bootstrap uses 1e-7: ample for percentiles, and fewer evaluations. The plateau
+   * models on group sums find their join in closed form and do not use it.
    */
   searchTolerance?: number;
   /**
