@@ -1,11 +1,11 @@
 /** Reading and writing `.plotrate` files: the I/O around shared/project. */
-import { readFile, stat } from 'node:fs/promises';
 import path from 'node:path';
 import { parseProject, type ParsedProject } from '../shared/project/parseProject';
 import type { PlotrateProject } from '../shared/project/projectFormat';
 import { serialiseProject } from '../shared/project/serialiseProject';
 import { writeFileAtomic } from './atomicWrite';
 import { MAX_PROJECT_FILE_BYTES } from './fileKinds';
+import { readCappedFile } from './readCappedFile';
 import { OpenFileError } from './shellErrors';
 
 /**
@@ -18,22 +18,11 @@ import { OpenFileError } from './shellErrors';
  */
 export async function readProjectFile(filePath: string): Promise<ParsedProject> {
   const name = path.basename(filePath);
-  let info;
-  try {
-    info = await stat(filePath);
-  } catch (e) {
-    throw new OpenFileError(
-      filePath,
-      `cannot be read (${(e as NodeJS.ErrnoException).code ?? (e as Error).message})`,
-    );
-  }
-  if (!info.isFile()) throw new OpenFileError(filePath, 'is not a file');
-  if (info.size > MAX_PROJECT_FILE_BYTES)
-    throw new OpenFileError(
-      filePath,
-      `is ${info.size} bytes, more than the ${MAX_PROJECT_FILE_BYTES} a project can be`,
-    );
-  const bytes = await readFile(filePath);
+  const bytes = await readCappedFile(
+    filePath,
+    MAX_PROJECT_FILE_BYTES,
+    (size) => `is ${size} bytes, more than the ${MAX_PROJECT_FILE_BYTES} a project can be`,
+  );
   let text: string;
   try {
     text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);

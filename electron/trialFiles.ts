@@ -1,8 +1,7 @@
-import { readFile, stat } from 'node:fs/promises';
 import path from 'node:path';
 import type { TrialFileBytes } from './desktopApi';
 import { MAX_TRIAL_FILE_BYTES } from './fileKinds';
-import { OpenFileError } from './shellErrors';
+import { readCappedFile } from './readCappedFile';
 
 /**
  * Read a trial spreadsheet's bytes for the page to import. Read only: the
@@ -12,22 +11,11 @@ import { OpenFileError } from './shellErrors';
  * @throws OpenFileError when it is missing, not a file or larger than MAX_TRIAL_FILE_BYTES
  */
 export async function readTrialFile(filePath: string): Promise<TrialFileBytes> {
-  let info;
-  try {
-    info = await stat(filePath);
-  } catch (e) {
-    throw new OpenFileError(
-      filePath,
-      `cannot be read (${(e as NodeJS.ErrnoException).code ?? (e as Error).message})`,
-    );
-  }
-  if (!info.isFile()) throw new OpenFileError(filePath, 'is not a file');
-  if (info.size > MAX_TRIAL_FILE_BYTES)
-    throw new OpenFileError(
-      filePath,
-      `is ${info.size} bytes; trial sheets above ${MAX_TRIAL_FILE_BYTES} bytes are not read`,
-    );
-  const buffer = await readFile(filePath);
+  const buffer = await readCappedFile(
+    filePath,
+    MAX_TRIAL_FILE_BYTES,
+    (size) => `is ${size} bytes; trial sheets above ${MAX_TRIAL_FILE_BYTES} bytes are not read`,
+  );
   return {
     name: path.basename(filePath),
     bytes: new Uint8Array(buffer.buffer, buffer.byteOffset, buffer.byteLength),
