@@ -100,6 +100,14 @@ describe('readTrialFile refuses files it cannot read, saying what to do', () => 
     );
   });
 
+  it('plain text under a workbook name', async () => {
+    const e = await refusal('renamed.xlsx', new TextEncoder().encode('Plot,Yield\n101,201.5\n'));
+    expect(e.code).toBe('not-a-workbook');
+    expect(e.message).toBe(
+      '"renamed.xlsx" is named as an .xlsx workbook but holds plain text, not a workbook: it is damaged or was renamed. If it is a CSV export, rename it to .csv; otherwise save it again as .xlsx from your spreadsheet program.',
+    );
+  });
+
   it('a workbook with damaged compressed data', async () => {
     const bad = demo.slice();
     for (let i = 2000; i < 2400; i++) bad[i] ^= 0x5a;

@@ -139,5 +139,14 @@ export function sniffFormat(name: string, bytes: Uint8Array): SniffedFormat {
       where,
     );
   }
+  // Text under a workbook's name is more often a damaged or half-copied file than
+  // a renamed CSV; guessing would turn it into "no plot rows found".
+  if (/\.xls[xm]$/i.test(name)) {
+    throw new ImportError(
+      'not-a-workbook',
+      `"${name}" is named as an .xlsx workbook but holds plain text, not a workbook: it is damaged or was renamed. If it is a CSV export, rename it to .csv; otherwise save it again as .xlsx from your spreadsheet program.`,
+      where,
+    );
+  }
   return 'text';
 }
