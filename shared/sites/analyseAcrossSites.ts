@@ -63,6 +63,7 @@ import { recommendationModel, type RecommendationModel } from './recommendationM
 import { regionalRecommendation, type RegionalRecommendationText } from './regionalRecommendation';
 import { siteRateEffect, type SiteRateEffect } from './siteRateEffect';
 import type { SiteModelRow } from './siteModelRows';
+import { siteResponseOverCheck, type ResponseOverCheckOutcome } from './siteResponseOverCheck';
 import { sitePlots, type SitePlots } from './sitePlots';
 import { SitesInputError } from './sitesInputError';
 
@@ -139,6 +140,11 @@ export interface SiteAnalysis {
   intercept: InterceptOutcome | { problem: string };
   /** Pearson's r of yield on rate with its t-test and 95 % interval (stats/pearson), or why there is none. */
   correlation: PearsonResult | { problem: string };
+  /**
+   * Gains over the zero-rate plot of the same block: the line through the origin fitted to them
+   * and whether a gain at rate zero is present (siteResponseOverCheck), or why there is none.
+   */
+  responseOverCheck: ResponseOverCheckOutcome | { problem: string };
   groups: Record<string, string | null>;
 }
 
@@ -289,7 +295,7 @@ function orProblem<T>(compute: () => T): T | { problem: string } {
 
 /**
  * The per-site step of the analysis: one site fitted with every model, its recommendation
- * model, rate effect, intercept test and correlation. Price-free; a caller that wants progress
+ * model, rate effect, intercept test, correlation and response over the check. Price-free; a caller that wants progress
  * per site calls this site by site and then acrossSites().
  * @param site - one site's plots from sitePlots() (kg/ha)
  * @param settings - the plan's settings (planAcrossSites): block terms, alpha, curve points
@@ -311,6 +317,7 @@ export function analyseSite(
   let problem = site.problem;
   let intercept: SiteAnalysis['intercept'] = { problem: problem ?? '' };
   let correlation: SiteAnalysis['correlation'] = { problem: problem ?? '' };
+  let responseOverCheck: SiteAnalysis['responseOverCheck'] = { problem: problem ?? '' };
   if (!problem) {
     try {
       const all = fitAllModels(
@@ -339,6 +346,7 @@ export function analyseSite(
       };
     });
     correlation = orProblem(() => pearsonCorrelation(site.rateKgHa, site.yieldKgHa));
+    responseOverCheck = siteResponseOverCheck(site, alpha);
   }
   return {
     site: site.site,
@@ -353,6 +361,7 @@ export function analyseSite(
     responded,
     intercept,
     correlation,
+    responseOverCheck,
     groups: site.groups,
   };
 }
