@@ -8,6 +8,8 @@ import { demoTrial } from '../shared/demo';
 import { analyzeTrials } from '../shared/report/analyzeTrials';
 import { tableFromFiles } from '../shared/report/tableFromFiles';
 import type { TrialReport } from '../shared/report/trialReport';
+import { fitLeastSquares, type LeastSquaresFit } from '../shared/stats/leastSquares';
+import type { Plot } from '../shared/table/plotTable';
 
 export const demoPath = path.join(
   path.dirname(fileURLToPath(import.meta.url)),
@@ -71,4 +73,37 @@ export async function demoReport(units: 'us' | 'metric', boot = 60): Promise<Tri
       findings: imported.findings,
     },
   );
+}
+
+/**
+ * The gains over the check worked directly from a site's plots, for checking the report against:
+ * each used fertilized plot's yield minus the mean of the used zero-rate plots of its own block
+ * (kg/ha), with the line through the origin and the straight line fitted to them by
+ * fitLeastSquares, independently of shared/sites and shared/models.
+ * @param plots - every plot of one site (excluded ones are skipped)
+ * @returns the rates and gains, and the two fits
+ */
+export function gainsOverBlockCheck(plots: readonly Plot[]): {
+  rateKgHa: number[];
+  gainKgHa: number[];
+  origin: LeastSquaresFit;
+  line: LeastSquaresFit;
+} {
+  const used = plots.filter((p) => !p.excluded && p.rateKgHa !== null && p.yieldKgHa !== null);
+  const checks = new Map<string, number[]>();
+  for (const p of used) {
+    if (p.rateKgHa === 0) checks.set(p.block!, [...(checks.get(p.block!) ?? []), p.yieldKgHa!]);
+  }
+  const fertilized = used.filter((p) => p.rateKgHa! > 0);
+  const rateKgHa = fertilized.map((p) => p.rateKgHa!);
+  const gainKgHa = fertilized.map((p) => {
+    const c = checks.get(p.block!)!;
+    return p.yieldKgHa! - c.reduce((a, b) => a + b, 0) / c.length;
+  });
+  return {
+    rateKgHa,
+    gainKgHa,
+    origin: fitLeastSquares({ columns: [rateKgHa], y: gainKgHa, intercept: false }),
+    line: fitLeastSquares({ columns: [rateKgHa], y: gainKgHa, intercept: true }),
+  };
 }

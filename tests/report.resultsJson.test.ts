@@ -5,7 +5,7 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { resultsJson, type ResultsJson } from '../shared/report/resultsJson';
 import type { TrialReport } from '../shared/report/trialReport';
-import { demoReport } from './report.fixture';
+import { demoReport, gainsOverBlockCheck } from './report.fixture';
 
 const KG_HA_PER_LB_AC = 0.45359237 / (43560 * 0.3048 * 0.3048 * 1e-4);
 
@@ -33,9 +33,30 @@ describe('resultsJson', () => {
       expect(json.settings).toHaveProperty(k);
     }
     const site = json.sites[0];
-    for (const k of ['site', 'n', 'interceptTest', 'lackOfFit', 'bestModel', 'models'])
+    for (const k of [
+      'site',
+      'n',
+      'interceptTest',
+      'responseOverCheck',
+      'lackOfFit',
+      'bestModel',
+      'models',
+    ])
       expect(site).toHaveProperty(k);
     expect(Object.keys(site.interceptTest!).sort()).toEqual(['F', 'df1', 'df2', 'p', 't']);
+    expect(Object.keys(site.responseOverCheck!).sort()).toEqual([
+      'biasPresent',
+      'interceptTest',
+      'slope',
+      'slopeCI',
+    ]);
+    expect(Object.keys(site.responseOverCheck!.interceptTest).sort()).toEqual([
+      'F',
+      'df1',
+      'df2',
+      'p',
+      't',
+    ]);
     for (const m of site.models) {
       for (const k of [
         'model',
@@ -82,6 +103,39 @@ describe('resultsJson', () => {
         }
       });
     });
+  });
+
+  it('gives the gain over the check in bu/lb N as fitLeastSquares gives it on the gains', () => {
+    us.sites.forEach((s, i) => {
+      const r = json.sites[i].responseOverCheck!;
+      const { origin, line } = gainsOverBlockCheck(s.plots);
+      const b = origin.coefficients[0];
+      const a = line.coefficients[0];
+      // kg grain/kg N → bu/lb N: ÷ 56 (the 56 lb corn bushel; the pound cancels).
+      expect(r.slope).toBeCloseTo(b.estimate / 56, 9);
+      expect(r.slopeCI[0]).toBeCloseTo(b.ciLow / 56, 9);
+      expect(r.slopeCI[1]).toBeCloseTo(b.ciHigh / 56, 9);
+      expect(r.interceptTest.t).toBeCloseTo(a.t, 9);
+      expect(r.interceptTest.F).toBeCloseTo(a.t * a.t, 8);
+      expect(r.interceptTest.df1).toBe(1);
+      expect(r.interceptTest.df2).toBe(line.dfResidual);
+      expect(r.interceptTest.p).toBeCloseTo(a.p, 11);
+      expect(r.biasPresent).toBe(a.p < 0.05);
+    });
+    expect(json.settings.priceRatioUnit).toBe('bu/lb N');
+  });
+
+  it('writes null for a site whose gain over the check is not available', () => {
+    const [first, ...rest] = us.sites;
+    const without = resultsJson({
+      ...us,
+      sites: [
+        { ...first, responseOverCheck: { available: false, message: 'no blocks.' } },
+        ...rest,
+      ],
+    });
+    expect(without.sites[0].responseOverCheck).toBeNull();
+    expect(without.sites[1].responseOverCheck).toEqual(json.sites[1].responseOverCheck);
   });
 
   it('reports the chosen model with its bootstrap interval around its optimum', () => {

@@ -14,7 +14,7 @@ import type { TrialReport } from '../shared/report/trialReport';
 import { reportGrowerPages, writeWorkbook } from '../shared/report/workbook';
 import { P_VALUE_FORMAT, sheetName } from '../shared/report/workbookFormat';
 import { demoTrial } from '../shared/demo';
-import { demoReport } from './report.fixture';
+import { demoReport, gainsOverBlockCheck } from './report.fixture';
 
 /** 1 lb/ac in kg/ha from the exact pound and acre (NIST SP 811; 1 ac = 43 560 ft²). */
 const KG_HA_PER_LB_AC = 0.45359237 / (43560 * 0.3048 * 0.3048 * 1e-4);
@@ -225,6 +225,48 @@ describe('writeWorkbook read back by exceljs', () => {
       if (row.getCell(9).numFmt === P_VALUE_FORMAT) formatted++;
     });
     expect(formatted).toBe(us.sites.length);
+  });
+
+  it("shows each site's gain over the check as fitLeastSquares gives it on the gains, in bu/lb N and kg/kg N", async () => {
+    // kg grain/kg N → bu/lb N: × 0.45359237 kg N per lb N ÷ (56 × 0.45359237) kg per corn bushel
+    // (USDA) = ÷ 56; metric quotes kg grain per kg N as it is. Yields: kg/ha → lb/ac (NIST SP 811
+    // factor above), then ÷ 56 lb per bushel.
+    const cases = [
+      [usBytes, us, 'bu/lb N', 'bu/ac', 1 / 56, 1 / KG_HA_PER_LB_AC / 56],
+      [metricBytes, metric, 'kg/kg N', 't/ha', 1, 1 / 1000],
+    ] as const;
+    for (const [bytes, report, slopeUnit, yieldUnit, perN, perYield] of cases) {
+      const wb = new ExcelJS.Workbook();
+      await wb.xlsx.load(Buffer.from(bytes) as never);
+      for (const s of report.sites) {
+        const ws = wb.getWorksheet(sheetName(s.site, new Set()))!;
+        let title = 0;
+        ws.eachRow((row, n) => {
+          if (String(row.getCell(1).value).startsWith('Gain over the check')) title = n;
+        });
+        expect(title, s.site).toBeGreaterThan(0);
+        const header = ws.getRow(title + 1);
+        expect(header.getCell(1).value).toBe(`Slope (${slopeUnit})`);
+        expect(header.getCell(2).value).toBe(`95 % low (${slopeUnit})`);
+        expect(header.getCell(4).value).toBe(`Gain at rate 0 (${yieldUnit})`);
+        expect(header.getCell(10).value).toBe('p');
+        const row = ws.getRow(title + 2);
+        const { origin, line } = gainsOverBlockCheck(s.plots);
+        const b = origin.coefficients[0];
+        const a = line.coefficients[0];
+        const num = (c: number) => row.getCell(c).value as number;
+        expect(num(1)).toBeCloseTo(b.estimate * perN, 9);
+        expect(num(2)).toBeCloseTo(b.ciLow * perN, 9);
+        expect(num(3)).toBeCloseTo(b.ciHigh * perN, 9);
+        expect(num(4)).toBeCloseTo(a.estimate * perYield, 8);
+        expect(num(6)).toBeCloseTo(a.t, 9);
+        expect(num(7)).toBeCloseTo(a.t * a.t, 8);
+        expect([num(8), num(9)]).toEqual([1, line.dfResidual]);
+        expect(num(10)).toBeCloseTo(a.p, 12);
+        expect(row.getCell(10).numFmt).toBe(P_VALUE_FORMAT);
+        expect(row.getCell(11).value).toBe(a.p < 0.05 ? 'yes' : 'no');
+      }
+    }
   });
 });
 

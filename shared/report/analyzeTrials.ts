@@ -340,6 +340,10 @@ function siteReport(
     n: used.rateKgHa.length,
     plots,
     interceptTest,
+    responseOverCheck:
+      'problem' in s.responseOverCheck
+        ? { available: false, message: s.responseOverCheck.problem || 'not fitted.' }
+        : { available: true, ...s.responseOverCheck },
     lackOfFit: lackOfFitOf(bestFit),
     anova,
     treatmentMeans: means,

@@ -6,6 +6,7 @@
  */
 import type { ModelName, FitStatus } from '../models/modelTypes';
 import type { TrialReport } from './trialReport';
+import { priceRatioQuote } from './reportSettings';
 import { unitScale } from './unitScale';
 
 export interface ResultsModel {
@@ -26,6 +27,18 @@ export interface ResultsSite {
   site: string;
   n: number;
   interceptTest: { t: number; F: number; df1: number; df2: number; p: number } | null;
+  /**
+   * Gains over the zero-rate plot of the same block fitted through the origin: slope and its
+   * interval in `settings.priceRatioUnit`, the intercept test on the gains, and whether a gain
+   * at rate zero is present; null when not available (no blocks, a block without a zero-rate
+   * plot, too few gains).
+   */
+  responseOverCheck: {
+    slope: number;
+    slopeCI: [number, number];
+    interceptTest: { t: number; F: number; df1: number; df2: number; p: number };
+    biasPresent: boolean;
+  } | null;
   lackOfFit: { model: ModelName; F: number; df1: number; df2: number; p: number } | null;
   bestModel: ModelName | null;
   models: ResultsModel[];
@@ -77,6 +90,9 @@ export function resultsJson(report: TrialReport): ResultsJson {
   const u = unitScale(report.settings.units, report.crop);
   const fy2 = u.yield(1) ** 2;
   const { prices, settings } = report;
+  // Grain per unit of N in the unit the price ratio is quoted in (a scale factor).
+  const perN = (kgPerKg: number) =>
+    clean(priceRatioQuote(kgPerKg, settings.units, report.crop).value);
   return {
     tool: { ...report.tool },
     settings: {
@@ -101,6 +117,23 @@ export function resultsJson(report: TrialReport): ResultsJson {
             df1: s.interceptTest.df1,
             df2: s.interceptTest.df2,
             p: clean(s.interceptTest.p),
+          }
+        : null,
+      responseOverCheck: s.responseOverCheck.available
+        ? {
+            slope: perN(s.responseOverCheck.slopeKgPerKg),
+            slopeCI: [
+              perN(s.responseOverCheck.slopeCiKgPerKg[0]),
+              perN(s.responseOverCheck.slopeCiKgPerKg[1]),
+            ],
+            interceptTest: {
+              t: clean(s.responseOverCheck.t),
+              F: clean(s.responseOverCheck.F),
+              df1: s.responseOverCheck.df1,
+              df2: s.responseOverCheck.df2,
+              p: clean(s.responseOverCheck.p),
+            },
+            biasPresent: s.responseOverCheck.biasPresent,
           }
         : null,
       lackOfFit: s.lackOfFit.available

@@ -7,6 +7,7 @@
  * stage touches only analyzeTrials, not every writer.
  */
 import type { ModelName, FitStatus } from '../models/modelTypes';
+import type { ResponseOverCheckOutcome } from '../sites/siteResponseOverCheck';
 import type { Plot, SourceFile, CropId } from '../table/plotTable';
 import type { ReportSettings, PriceTerms } from './reportSettings';
 
@@ -50,6 +51,13 @@ export interface InterceptSummary {
   interceptNeeded: boolean;
   verdict: string;
 }
+
+/**
+ * The gain over the check (shared/sites siteResponseOverCheck): slope in kg grain per kg N,
+ * yields in kg/ha, or why it is not available.
+ */
+export type ResponseOverCheckSummary =
+  ({ available: true } & ResponseOverCheckOutcome) | { available: false; message: string };
 
 /** Lack-of-fit of the chosen model against pure error, or why it is not available. */
 export type LackOfFitSummary =
@@ -103,6 +111,8 @@ export interface SiteReport {
   /** Every plot of the site, excluded ones too (with reasons). */
   plots: Plot[];
   interceptTest: InterceptSummary | null;
+  /** Gains over the zero-rate plot of the same block, fitted through the origin. */
+  responseOverCheck: ResponseOverCheckSummary;
   lackOfFit: LackOfFitSummary;
   anova: AnovaSummary | null;
   treatmentMeans: TreatmentMeanRow[];

@@ -1,12 +1,14 @@
 /**
  * One sheet per site: the plot data with exclusions and their reasons and the
  * cell each value came from, treatment means ± SE, the ANOVA, the model table,
- * the intercept test and the chart. Tables run down column A so the sheet
- * prints top to bottom; the chart sits to the right of the plot data.
+ * the intercept test, the gain over the check and the chart. Tables run down
+ * column A so the sheet prints top to bottom; the chart sits to the right of
+ * the plot data.
  */
 import type ExcelJS from 'exceljs';
 import type { SiteReport, TrialReport } from './trialReport';
 import type { UnitScale } from './unitScale';
+import { workbookGainOverCheck } from './workbookGainOverCheck';
 import {
   P_VALUE_FORMAT,
   fitColumns,
@@ -262,6 +264,9 @@ export function workbookSite(
   } else {
     ws.getCell(r++, 1).value = 'Not tested: fewer than three plots or a single rate.';
   }
+
+  // Gain over the check.
+  r = workbookGainOverCheck(ws, r + 1, site, report, u, titles);
   if (site.warnings.length) {
     r++;
     titleRow(ws, r++, 'Warnings', titles);

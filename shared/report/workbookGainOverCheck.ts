@@ -1,0 +1,90 @@
+/**
+ * The "Gain over the check" table of a site sheet: the slope of the yield gains
+ * over the zero-rate plot of the same block (line through the origin) with its
+ * interval, and the intercept test on the gains, which says whether a gain at
+ * rate zero (a bias) is present. The slope is written in the unit the trade
+ * quotes the price ratio in (bu/lb N, kg/kg N), so the two can be read side by
+ * side.
+ */
+import type ExcelJS from 'exceljs';
+import { priceRatioQuote } from './reportSettings';
+import type { SiteReport, TrialReport } from './trialReport';
+import type { UnitScale } from './unitScale';
+import {
+  P_VALUE_FORMAT,
+  headerRow,
+  magnitudeFormat,
+  titleRow,
+  yieldFormat,
+} from './workbookFormat';
+
+/**
+ * Writes the table from row r down.
+ * @param ws - the site's sheet
+ * @param r - the 1-based row of the table's title
+ * @param site - the site's results (canonical units)
+ * @param report - the whole analysis (display units, crop)
+ * @param u - display-unit converters
+ * @param titles - the sheet's title rows, to which the title is added
+ * @returns the first row after the table
+ */
+export function workbookGainOverCheck(
+  ws: ExcelJS.Worksheet,
+  r: number,
+  site: SiteReport,
+  report: TrialReport,
+  u: UnitScale,
+  titles: Set<number>,
+): number {
+  titleRow(
+    ws,
+    r++,
+    'Gain over the check (yield gain over the zero-rate plot of the same block, fitted through the origin)',
+    titles,
+  );
+  const g = site.responseOverCheck;
+  if (!g.available) {
+    ws.getCell(r++, 1).value = `Not available: ${g.message}`;
+    return r;
+  }
+  const yu = u.units.yield;
+  const slope = (kgPerKg: number) => priceRatioQuote(kgPerKg, report.settings.units, report.crop);
+  const su = slope(1).unit;
+  const level = Math.round(g.confidenceLevel * 100);
+  headerRow(ws, r++, [
+    `Slope (${su})`,
+    `${level} % low (${su})`,
+    `${level} % high (${su})`,
+    `Gain at rate 0 (${yu})`,
+    `SE (${yu})`,
+    't',
+    'F',
+    'df1',
+    'df2',
+    'p',
+    'Gain at rate 0 present',
+  ]);
+  const row = ws.getRow(r++);
+  const shown = [g.slopeKgPerKg, ...g.slopeCiKgPerKg].map((v) => slope(v).value);
+  row.values = [
+    ...shown,
+    u.yield(g.gainAtZeroKgHa),
+    u.yield(g.gainAtZeroSeKgHa),
+    g.t,
+    g.F,
+    g.df1,
+    g.df2,
+    g.p,
+    g.biasPresent ? 'yes' : 'no',
+  ];
+  const slopeFormat = magnitudeFormat(Math.max(...shown.map(Math.abs)));
+  for (const c of [1, 2, 3]) row.getCell(c).numFmt = slopeFormat;
+  row.getCell(4).numFmt = yieldFormat(yu);
+  row.getCell(5).numFmt = yieldFormat(yu);
+  row.getCell(6).numFmt = '0.00';
+  row.getCell(7).numFmt = '0.00';
+  row.getCell(10).numFmt = P_VALUE_FORMAT;
+  ws.getCell(r++, 1).value =
+    `${g.gains} fertilized plots, each measured against the zero-rate plot of its own block.`;
+  return r;
+}
