@@ -53,6 +53,8 @@ describe('renderer analysis and re-pricing', () => {
       expect(s.recommended).not.toBeNull();
       expect(s.intercept.ok).toBe(true);
       expect(s.correlation.ok).toBe(true);
+      // The synthetic sites have a zero-rate plot in every block: the pipeline's gain over the check.
+      expect(s.responseOverCheck).toEqual({ ok: true, value: whole.sites[i].responseOverCheck });
       for (const fit of Object.values(s.fits)) expect('predict' in fit!).toBe(false);
     }
     expect(() => structuredClone(out)).not.toThrow();

@@ -122,7 +122,7 @@ describe('the workspace in chromium', () => {
     expect(session.pageErrors).toEqual([]);
   });
 
-  it('the US switch shows rates in lb/ac and yields in bu/ac everywhere', async () => {
+  it('the US switch shows rates in lb/ac, yields in bu/ac and the gain over the check in bu/lb N everywhere', async () => {
     const { page } = session;
     await page.getByRole('button', { name: /One site/ }).click();
     await page.getByText('US', { exact: true }).click();
@@ -131,11 +131,17 @@ describe('the workspace in chromium', () => {
     await expect(page.getByTestId('price-ratio').first().textContent()).resolves.toMatch(
       /bu\/lb N/,
     );
+    // The gain over the check beside the intercept question, in the price ratio's unit.
+    const gain = page.getByTestId('gain-over-check');
+    await expect(gain.textContent()).resolves.toMatch(
+      /^Gain over each block’s check: -?[\d.,]+ bu\/lb N \(95 % interval -?[\d.,]+ to -?[\d.,]+\), and (a gain of -?[\d.,]+ bu\/ac at rate zero is present|no gain at rate zero is evident) \(t = -?[\d.,]+, p [<=] [\d.,]+\)/,
+    );
     await page.locator('[data-testid="chart"] .main-svg').first().waitFor();
     await page.waitForTimeout(500);
     await shot(page, '05b-us-units');
     await page.getByText('Metric', { exact: true }).click();
     await expect(page.getByTestId('site-optimum').textContent()).resolves.toMatch(/\d+ kg\/ha/);
+    await expect(gain.textContent()).resolves.toMatch(/: [\d.,]+ kg\/kg N \(95 % interval/);
   });
 
   it('shows every site together with the regional rate and the pooling tests', async () => {

@@ -20,6 +20,7 @@ import {
   type SiteAnalysis as PipelineSite,
 } from '../../../shared/sites/analyseAcrossSites';
 import type { CommonResponseTests } from '../../../shared/sites/commonResponseTests';
+import type { ResponseOverCheckOutcome } from '../../../shared/sites/siteResponseOverCheck';
 import type { SitePlots } from '../../../shared/sites/sitePlots';
 import type { PearsonResult } from '../../../shared/stats/pearson';
 import type { PlotTable } from '../../../shared/table/plotTable';
@@ -53,6 +54,8 @@ export interface SiteAnalysis {
   recommended: ModelName | null;
   intercept: Maybe<InterceptSummary>;
   correlation: Maybe<PearsonResult>;
+  /** Gains over each block's zero-rate plot through the origin, and the test of a gain at rate zero. */
+  responseOverCheck: Maybe<ResponseOverCheckOutcome>;
 }
 
 export interface AnalysisInput {
@@ -79,6 +82,7 @@ export function poolingTests(analysis: AcrossSiteAnalysis): CommonResponseTests[
 function siteView(s: PipelineSite, plots: SitePlots): SiteAnalysis {
   const t = s.intercept;
   const c = s.correlation;
+  const g = s.responseOverCheck;
   return {
     site: s.site,
     plots,
@@ -103,6 +107,7 @@ function siteView(s: PipelineSite, plots: SitePlots): SiteAnalysis {
             },
           },
     correlation: 'problem' in c ? { ok: false, reason: c.problem } : { ok: true, value: c },
+    responseOverCheck: 'problem' in g ? { ok: false, reason: g.problem } : { ok: true, value: g },
   };
 }
 
