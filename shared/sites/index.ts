@@ -16,7 +16,9 @@
  *               alpha?: 0.05, levels?: 'site' | 'blockWithinSite', groupKeys?: every site-level Plot.groups key + 'year' }
  *   result  = { sites: SiteAnalysis[]          // one per site: fits (AllModelsFitData), recommended
  *                                              //   (recommendationModel), rateEffect, responded,
- *                                              //   intercept, groups, or the problem
+ *                                              //   intercept, correlation, responseOverCheck
+ *                                              //   (slope over each block's check, bias test),
+ *                                              //   groups, or the problem
  *               groupKeysSkipped: { key, reason }[]  // columns varying within a site (treatment attributes)
  *               rows: SiteModelRow[]           // site × model: optimum, yield at optimum, plateau,
  *                                              //   AICc rank/winner, intercept p, CV%, rate-effect p
@@ -55,8 +57,8 @@
  *   // bestModel and regionalModel 'best' all use it
  *
  * Building blocks, usable alone: sitePlots, testCommonResponse, groupResponseTest,
- * pooledCurveTest, siteRateEffect, extraSumOfSquaresTest, prepareRegionalReturn +
- * regionalReturnAtPrices, rateGrid, regionalRecommendation.
+ * pooledCurveTest, siteRateEffect, siteResponseOverCheck, extraSumOfSquaresTest,
+ * prepareRegionalReturn + regionalReturnAtPrices, rateGrid, regionalRecommendation.
  */
 export * from './sitesInputError';
 export * from './sitePlots';
@@ -66,6 +68,7 @@ export * from './commonResponseTests';
 export * from './groupResponseTest';
 export * from './pooledCurveTest';
 export * from './siteRateEffect';
+export * from './siteResponseOverCheck';
 export * from './rateGrid';
 export * from './regionalReturn';
 export * from './regionalRecommendation';
