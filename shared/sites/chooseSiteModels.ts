@@ -5,7 +5,8 @@
  * (leadingModel). The fits, rows and tests do not depend on the choice.
  */
 import type { ModelName } from '../models/modelTypes';
-import { regionalAnalysis, type AcrossSiteAnalysis } from './analyseAcrossSites';
+import type { AcrossSiteAnalysis } from './acrossSites';
+import { regionalAnalysis } from './regionalAnalysis';
 
 function sameChoices(
   a: Readonly<Record<string, ModelName>>,

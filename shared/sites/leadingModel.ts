@@ -5,7 +5,7 @@
  * model from here, so they speak of the same curve.
  */
 import type { ModelName } from '../models/modelTypes';
-import type { SiteAnalysis } from './analyseAcrossSites';
+import type { SiteAnalysis } from './analyseSite';
 
 /**
  * The leading model of one site.

@@ -6,8 +6,9 @@
  * grid rate, fast enough to follow a price slider (bench/sites.bench.ts).
  */
 import type { Prices } from '../economics/priceRatio';
-import type { AcrossSiteAnalysis, RegionalAnalysis } from './analyseAcrossSites';
-import { siteModelRows } from './analyseAcrossSites';
+import type { AcrossSiteAnalysis } from './acrossSites';
+import type { RegionalAnalysis } from './regionalAnalysis';
+import { siteModelRows } from './siteModelRows';
 import { regionalReturnAtPrices } from './regionalReturn';
 import { regionalRecommendation } from './regionalRecommendation';
 

@@ -2,12 +2,14 @@
  * The side-by-side table: one row per site and model, every site present (a
  * site that cannot be fitted has one row per model with status "not-fitted" and
  * the reason), and a plain sort and filter over the rows for screens and
- * reports. Site-level columns (intercept test, CV, rate effect, groups) repeat
+ * reports, and the builder of one site's rows at given prices. Site-level columns (intercept test, CV, rate effect, groups) repeat
  * on each of the site's rows so that any row can be read, sorted or filtered
  * on its own.
  */
-import type { FitStatus, ModelName } from '../models/modelTypes';
-import type { OptimumStatus } from '../economics/economicOptimum';
+import { economicOptimum, type OptimumStatus } from '../economics/economicOptimum';
+import type { Prices } from '../economics/priceRatio';
+import { MODEL_NAMES, type FitStatus, type ModelName } from '../models/modelTypes';
+import type { SiteAnalysis } from './analyseSite';
 import { SitesInputError } from './sitesInputError';
 
 export interface SiteModelRow {
@@ -41,6 +43,47 @@ export interface SiteModelRow {
   responded: boolean;
   /** Grouping values of the site (previous crop, soil, year), null when mixed or missing. */
   groups: Record<string, string | null>;
+}
+
+/**
+ * The side-by-side rows of a site at given prices.
+ * @param s - the site's analysis
+ * @param prices - canonical prices
+ * @returns one row per model, in MODEL_NAMES order
+ * @example
+ * siteModelRows(analysis.sites[0], prices)[0].model // 'linear'
+ */
+export function siteModelRows(s: SiteAnalysis, prices: Prices): SiteModelRow[] {
+  const interceptP = 'p' in s.intercept ? s.intercept.p : null;
+  const interceptNeeded = 'p' in s.intercept ? s.intercept.needed : null;
+  const rateEffectP = s.rateEffect.test.kind === 'f-test' ? s.rateEffect.test.p : null;
+  // Every row is written out field by field: V8 builds object-spread copies of
+  // the site columns slowly enough to dominate re-pricing thousands of rows.
+  return MODEL_NAMES.map((model): SiteModelRow => {
+    const fit = s.fits?.fits[model];
+    const opt = s.fits && fit ? economicOptimum(fit, prices) : null;
+    const rank = (fit && s.fits?.ranking.find((r) => r.model === model)?.rank) ?? null;
+    return {
+      site: s.site,
+      model,
+      status: fit ? fit.status : 'not-fitted',
+      message: fit ? fit.message : (s.problem ?? 'not fitted'),
+      optimumRateKgHa: opt ? opt.rateKgHa : null,
+      optimumStatus: opt ? opt.status : 'not-fitted',
+      yieldAtOptimumKgHa: opt ? opt.yieldKgHa : null,
+      gainOverCheckPerHa: opt ? opt.gainOverCheckPerHa : null,
+      plateauYieldKgHa: fit?.plateauYield?.estimate ?? null,
+      aicc: fit ? fit.aicc : NaN,
+      aiccRank: rank,
+      aiccWinner: rank === 1,
+      interceptP,
+      interceptNeeded,
+      cvPct: s.rateEffect.cvPct,
+      rateEffectP,
+      responded: s.responded,
+      groups: s.groups,
+    };
+  });
 }
 
 /** Columns rows can be sorted on. */

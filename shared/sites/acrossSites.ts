@@ -1,0 +1,67 @@
+/**
+ * The across step of the analysis: from every site's analysis (analyseSite) to what needs
+ * them all together: the side-by-side rows, the tests of a shared response, the regional rate,
+ * the share of sites that responded, and the same per group of sites.
+ */
+import type { SiteAnalysis } from './analyseSite';
+import { groupAnalysis, type GroupAnalysis } from './groupAnalysis';
+import type { AcrossSitePlan, AcrossSiteSettings } from './planAcrossSites';
+import { regionalAnalysis, type RegionalAnalysis } from './regionalAnalysis';
+import { responseShare, type ResponseShare } from './responseShare';
+import { sharedResponse, type SharedResponseTests } from './sharedResponse';
+import { siteModelRows, type SiteModelRow } from './siteModelRows';
+import { SitesInputError } from './sitesInputError';
+
+export interface AcrossSiteAnalysis {
+  options: AcrossSiteSettings;
+  sites: SiteAnalysis[];
+  /** Group columns not analysed by default, with the reason. */
+  groupKeysSkipped: { key: string; reason: string }[];
+  /** One row per site and model, at the current prices. */
+  rows: SiteModelRow[];
+  sharedResponse: SharedResponseTests;
+  regional: RegionalAnalysis;
+  response: ResponseShare;
+  groups: GroupAnalysis[];
+}
+
+/**
+ * The across step: from the sites' analyses (analyseSite, in the plan's order) to the rows,
+ * the shared-response tests, the regional rate, the response share and the groups.
+ * @param plan - from planAcrossSites
+ * @param sites - analyseSite of each of plan.plots, same order
+ * @returns the whole analysis, as analyseAcrossSites
+ * @throws {SitesInputError} "bad-argument" when the sites do not match the plan's plots
+ * @example
+ * acrossSites(plan, plan.plots.map((p) => analyseSite(p, plan.options))).response.share // e.g. 0.75
+ */
+export function acrossSites(
+  plan: AcrossSitePlan,
+  sites: readonly SiteAnalysis[],
+): AcrossSiteAnalysis {
+  const { plots, options: o, groupKeysSkipped } = plan;
+  if (sites.length !== plots.length || sites.some((s, i) => s.site !== plots[i].site)) {
+    throw new SitesInputError(
+      'bad-argument',
+      `sites must be the analyses of the plan's ${plots.length} site(s), in the plan's order.`,
+    );
+  }
+  const analyses = new Map(sites.map((s) => [s.site, s]));
+  // A site the models refused (e.g. a negative rate) carries that reason into every pooled test.
+  const checked = plots.map((p, i) =>
+    sites[i].problem && !p.problem ? { ...p, problem: sites[i].problem } : p,
+  );
+  const whole = {
+    sharedResponse: sharedResponse(checked, analyses, o),
+    regional: regionalAnalysis(sites, o),
+    response: responseShare(sites),
+  };
+  return {
+    options: o,
+    sites: [...sites],
+    groupKeysSkipped,
+    rows: sites.flatMap((s) => siteModelRows(s, o.prices)),
+    ...whole,
+    groups: o.groupKeys.map((k) => groupAnalysis(k, checked, analyses, o, whole)),
+  };
+}

@@ -1,0 +1,163 @@
+/**
+ * The per-site step of the across-site analysis: one site fitted with every model and the
+ * site-level tests beside the fits (rate effect, intercept, correlation, gain over the check).
+ * The result is plain data (fits without `predict`), so a worker can post it.
+ */
+import { fitAllModels, type AllModelsFit } from '../models/fitAllModels';
+import type { BlockTerms, ModelFit, ModelName } from '../models/modelTypes';
+import { StatsInputError } from '../stats/errors';
+import { testIntercept } from '../stats/interceptTest';
+import { pearsonCorrelation, type PearsonResult } from '../stats/pearson';
+import type { AcrossSiteSettings } from './planAcrossSites';
+import { recommendationModel, type RecommendationModel } from './recommendationModel';
+import { siteRateEffect, type SiteRateEffect } from './siteRateEffect';
+import { siteResponseOverCheck, type ResponseOverCheckOutcome } from './siteResponseOverCheck';
+import type { SitePlots } from './sitePlots';
+
+/** A model fit as plain data: everything but `predict`, so the analysis can be posted from a worker. */
+export type FitData = Omit<ModelFit, 'predict'>;
+
+/** fitAllModels' result as plain data (fits without `predict`; curveValue gives the curve). */
+export type AllModelsFitData = Omit<AllModelsFit, 'fits'> & { fits: Record<ModelName, FitData> };
+
+export interface SiteAnalysis {
+  site: string;
+  /** Analysable plots. */
+  plots: number;
+  /** Why the site could not be fitted at all, or null. */
+  problem: string | null;
+  blocks: BlockTerms;
+  fits: AllModelsFitData | null;
+  rateEffect: SiteRateEffect;
+  responded: boolean;
+  /** The model the site's recommendation uses and why (recommendationModel). */
+  recommended: RecommendationModel;
+  /** The straight line's intercept test (stats/interceptTest), or why there is none. */
+  intercept: InterceptOutcome | { problem: string };
+  /** Pearson's r of yield on rate with its t-test and 95 % interval (stats/pearson), or why there is none. */
+  correlation: PearsonResult | { problem: string };
+  /**
+   * Gains over the zero-rate plot of the same block: the line through the origin fitted to them
+   * and whether a gain at rate zero is present (siteResponseOverCheck), or why there is none.
+   */
+  responseOverCheck: ResponseOverCheckOutcome | { problem: string };
+  groups: Record<string, string | null>;
+}
+
+/** The straight line's intercept test of one site, as plain data. */
+export interface InterceptOutcome {
+  p: number;
+  needed: boolean;
+  verdict: string;
+  /** t of the intercept and the extra-sum-of-squares F against the line through the origin. */
+  t: number;
+  F: number;
+  df1: number;
+  df2: number;
+  /** The straight line's intercept and its standard error, kg/ha. */
+  interceptKgHa: number;
+  interceptSeKgHa: number;
+  /** AICc of the line through the origin minus that of the straight line; null when not defined. */
+  aiccDifference: number | null;
+}
+
+/** Drops the predict closures (functions cannot be cloned to another thread). */
+function withoutPredict(fits: Record<ModelName, ModelFit>): Record<ModelName, FitData> {
+  const out = {} as Record<ModelName, FitData>;
+  for (const name of Object.keys(fits) as ModelName[]) {
+    const { predict: _predict, ...data } = fits[name];
+    out[name] = data;
+  }
+  return out;
+}
+
+function siteBlocks(site: SitePlots, choice: 'auto' | BlockTerms): BlockTerms {
+  if (choice !== 'auto') return choice;
+  const labels = new Set(site.block);
+  return site.block.length > 0 && !labels.has(null) && !labels.has('') && labels.size >= 2
+    ? 'fixed'
+    : 'none';
+}
+
+/** A stats call whose input mistake is a data problem of this site: the result, or the reason. */
+function orProblem<T>(compute: () => T): T | { problem: string } {
+  try {
+    return compute();
+  } catch (e) {
+    if (!(e instanceof StatsInputError)) throw e;
+    return { problem: e.message };
+  }
+}
+
+/**
+ * The per-site step of the analysis: one site fitted with every model, its recommendation
+ * model, rate effect, intercept test, correlation and response over the check. Price-free; a caller that wants progress
+ * per site calls this site by site and then acrossSites().
+ * @param site - one site's plots from sitePlots() (kg/ha)
+ * @param settings - the plan's settings (planAcrossSites): block terms, alpha, curve points
+ * @returns the site's analysis; a site the models refuse keeps its rows with the reason
+ * @example
+ * const plan = planAcrossSites(table, { prices });
+ * const first = analyseSite(plan.plots[0], plan.options);
+ * first.recommended.model // e.g. 'quadraticPlateau'
+ */
+export function analyseSite(
+  site: SitePlots,
+  settings: Pick<AcrossSiteSettings, 'blocks' | 'alpha' | 'curvePoints'>,
+): SiteAnalysis {
+  const { blocks, alpha, curvePoints } = settings;
+  const b = siteBlocks(site, blocks);
+  const rateEffect = siteRateEffect(site);
+  const responded = rateEffect.test.kind === 'f-test' && rateEffect.test.p < alpha;
+  let fits: AllModelsFitData | null = null;
+  let problem = site.problem;
+  let intercept: SiteAnalysis['intercept'] = { problem: problem ?? '' };
+  let correlation: SiteAnalysis['correlation'] = { problem: problem ?? '' };
+  let responseOverCheck: SiteAnalysis['responseOverCheck'] = { problem: problem ?? '' };
+  if (!problem) {
+    try {
+      const all = fitAllModels(
+        { rateKgHa: site.rateKgHa, yieldKgHa: site.yieldKgHa, block: site.block },
+        { blocks: b, curvePoints },
+      );
+      fits = { ...all, fits: withoutPredict(all.fits) };
+    } catch (e) {
+      // A value the models refuse (e.g. a negative rate) is a data problem of this site.
+      if (!(e instanceof StatsInputError)) throw e;
+      problem = e.message;
+    }
+    intercept = orProblem(() => {
+      const t = testIntercept(site.rateKgHa, site.yieldKgHa, alpha);
+      return {
+        p: t.p,
+        needed: t.interceptNeeded,
+        verdict: t.verdict,
+        t: t.t,
+        F: t.F,
+        df1: t.df1,
+        df2: t.df2,
+        interceptKgHa: t.intercept.estimate,
+        interceptSeKgHa: t.intercept.stdError,
+        aiccDifference: t.aiccDifference,
+      };
+    });
+    correlation = orProblem(() => pearsonCorrelation(site.rateKgHa, site.yieldKgHa));
+    responseOverCheck = siteResponseOverCheck(site, alpha);
+  }
+  return {
+    site: site.site,
+    plots: site.yieldKgHa.length,
+    problem,
+    blocks: b,
+    fits,
+    recommended: fits
+      ? recommendationModel(fits)
+      : { model: null, reason: `no model could be fitted: ${problem ?? 'not fitted'}` },
+    rateEffect,
+    responded,
+    intercept,
+    correlation,
+    responseOverCheck,
+    groups: site.groups,
+  };
+}
