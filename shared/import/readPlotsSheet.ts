@@ -1,0 +1,316 @@
+/**
+ * Reads one sheet mapped as plots into Plot rows: the mapping's columns checked against what a
+ * yield and a rate need, then each row in turn (blank and summary rows skipped, the site filled
+ * down when its cell is empty), the rate from the sheet or the treatment key, the yield in
+ * kg/ha adjusted to standard moisture, the exclude column as an exclusion with its reason, and
+ * the original cell kept beside every value. What the sheet needed to be read (numbers stored
+ * as text, missing moistures, hidden rows) goes to the findings.
+ */
+import type { ColumnRole, CropId, OriginalCell, Plot } from '../table/plotTable';
+import { adjustMoisture } from '../units/adjustMoisture';
+import type { RateUnit } from '../units/convertRate';
+import { convertYield, type YieldUnit } from '../units/convertYield';
+import { productFromText, products, type FertilizerProduct } from '../units/products';
+import type { QualityFinding } from '../quality/qualityFinding';
+import { cellLabel, cellText } from './cellLabel';
+import { cellNumber } from './cellNumber';
+import { cellRef } from './cellRef';
+import type { ColumnAssignment, SheetMapping } from './columnMapping';
+import { ImportError } from './importError';
+import type { ImportSettings } from './importSettings';
+import { nutrientRateKgHa } from './nutrientRateKgHa';
+import { plotWeightYieldKgHa } from './plotWeightYieldKgHa';
+import type { RawSheet, RawWorkbook } from './rawWorkbook';
+import type { TreatmentKeyEntry } from './readTreatmentKey';
+
+/** Values of the exclude column that mean "keep the plot". */
+const noExclusionWords = new Set(['', 'no', 'n', '0', 'false', 'keep', 'ok', 'include', 'use']);
+
+/**
+ * Reads the plots of one sheet into `plots`.
+ * @param raw - the workbook the sheet belongs to
+ * @param sheet - the sheet, mapped as plots
+ * @param m - its mapping (header row, column roles and units, where the site comes from)
+ * @param key - the file's treatment key (readTreatmentKey), empty when there is none
+ * @param settings - the import settings (rate basis, product, plot area in m²)
+ * @param crop - the crop, for bushel weights
+ * @param standardMoisturePct - the moisture yields are adjusted to, % wet basis
+ * @param plots - receives one Plot per data row (rates in kg N/ha, yields in kg/ha)
+ * @param findings - receives the findings about single cells and rows
+ * @throws {ImportError} "bad-mapping" when the sheet has no yield source, plot weights have no
+ *   area, there is no rate and no key, or a product rate names no known product
+ * @example
+ * readPlotsSheet(raw, raw.sheets[0], mapping.sheets[0], new Map(), settings, 'corn', 15.5, plots, findings);
+ */
+export function readPlotsSheet(
+  raw: RawWorkbook,
+  sheet: RawSheet,
+  m: SheetMapping,
+  key: Map<string, TreatmentKeyEntry>,
+  settings: ImportSettings,
+  crop: CropId,
+  standardMoisturePct: number,
+  plots: Plot[],
+  findings: QualityFinding[],
+): void {
+  const file = raw.file.name;
+  const where = `${file}${sheet.name ? ` › ${sheet.name}` : ''}`;
+  const col = (role: ColumnAssignment['role']) => m.columns.find((c) => c.role === role);
+  const cols = {
+    site: col('site'),
+    year: col('year'),
+    block: col('block'),
+    plot: col('plot'),
+    treatment: col('treatment'),
+    rate: col('rate'),
+    yield: col('yield'),
+    plotWeight: col('plotWeight'),
+    plotArea: col('plotArea'),
+    plotLength: col('plotLength'),
+    plotWidth: col('plotWidth'),
+    moisture: col('moisture'),
+    testWeight: col('testWeight'),
+    notes: col('notes'),
+    exclude: col('exclude'),
+  };
+  const groupCols = m.columns.filter(
+    (c) => c.role === 'group' || c.role === 'product' || c.role === 'timing',
+  );
+  if (!cols.yield && !cols.plotWeight) {
+    throw new ImportError(
+      'bad-mapping',
+      `Sheet "${sheet.name}" of "${file}" is mapped as plots but no column is the yield or the plot weight; choose one.`,
+      { file, sheet: sheet.name },
+    );
+  }
+  const areaFromSettings = settings.plotAreaM2;
+  if (
+    !cols.yield &&
+    cols.plotWeight &&
+    !cols.plotArea &&
+    !(cols.plotLength && cols.plotWidth) &&
+    areaFromSettings === undefined
+  ) {
+    throw new ImportError(
+      'bad-mapping',
+      `Sheet "${sheet.name}" of "${file}" gives plot weights (column ${cols.plotWeight.letter}) but no plot area or length and width; map those columns or enter the plot area in the import settings.`,
+      { file, sheet: sheet.name },
+    );
+  }
+  if (!cols.rate && key.size === 0) {
+    throw new ImportError(
+      'bad-mapping',
+      `Sheet "${sheet.name}" of "${file}" has no rate column and the file has no treatment key; map the rate column or the treatment-key sheet.`,
+      { file, sheet: sheet.name },
+    );
+  }
+  const hidden = new Set(sheet.hiddenRows);
+  const hiddenData: number[] = [];
+  let lastSite: string | null = null;
+  let filledDown = 0;
+  const skippedSummary: number[] = [];
+  for (let r = m.headerRow + 1; r <= sheet.rows.length; r++) {
+    const row = sheet.rows[r - 1] ?? [];
+    if (row.every((c) => !c || (c.kind === 'blank' && !c.formula) || c.text.trim() === ''))
+      continue;
+    const at = (a: ColumnAssignment | undefined) => (a ? (row[a.col - 1] ?? null) : null);
+    // A summary row ("Mean", "CV %", "LSD 0.05") starts with such a word and has no plot,
+    // treatment or rate of its own.
+    const first = row.find((c) => c && c.text.trim() !== '');
+    const hasPlotKeys = [cols.plot, cols.treatment, cols.rate].some((a) => {
+      const c = at(a);
+      return c !== first && cellLabel(c) !== null;
+    });
+    if (
+      !hasPlotKeys &&
+      first &&
+      first.kind === 'text' &&
+      /^(mean|means|average|avg|cv|c\.v\.|lsd|total|sum|std|sd|se|s\.e\.|grand mean)\b/i.test(
+        first.text.trim(),
+      )
+    ) {
+      skippedSummary.push(r);
+      continue;
+    }
+    if (hidden.has(r)) hiddenData.push(r);
+    const original: Partial<Record<ColumnRole, OriginalCell>> = {};
+    const keep = (role: ColumnRole, a: ColumnAssignment | undefined) => {
+      const c = at(a);
+      if (a && (c || role === 'yield' || role === 'rate'))
+        original[role] = { text: c?.text ?? '', ref: cellRef(file, sheet.name, c, r, a.col) };
+      return c;
+    };
+    const num = (role: ColumnRole, a: ColumnAssignment | undefined): number | null => {
+      const c = keep(role, a);
+      if (!a) return null;
+      const n = cellNumber(c, sheet.decimalComma);
+      if (n.status === 'number-as-text' && c && raw.format === 'xlsx') {
+        findings.push({
+          code: 'number-as-text',
+          severity: 'info',
+          message: `${where} ${c.address} (${a.header}) holds a number stored as text ("${c.text}"); it was read as ${n.value}.`,
+          refs: [cellRef(file, sheet.name, c, r, a.col)],
+        });
+      } else if (n.status === 'formula-without-result' && c) {
+        findings.push({
+          code: 'formula-without-result',
+          severity: 'warning',
+          message: `${where} ${c.address} (${a.header}) is a formula (=${c.formula}) saved without a calculated result, so it has no value here. Open the file, let it recalculate, save it, and import it again.`,
+          refs: [cellRef(file, sheet.name, c, r, a.col)],
+        });
+      }
+      return n.value;
+    };
+
+    // Site
+    let site: string;
+    if (m.site.from === 'column') {
+      const s = cellLabel(keep('site', cols.site));
+      if (s === null && lastSite !== null) {
+        site = lastSite;
+        filledDown++;
+      } else site = s ?? '(no site)';
+    } else
+      site =
+        m.site.from === 'sheet-name' ? sheet.name : m.site.value || file.replace(/\.[^.]+$/, '');
+    lastSite = site;
+
+    const year = num('year', cols.year);
+    const block = cellLabel(keep('block', cols.block));
+    const plotLabel = cellLabel(keep('plot', cols.plot));
+    const treatment = cellLabel(keep('treatment', cols.treatment));
+
+    // Rate: the sheet's own column first, else the treatment key.
+    let rateKgHa: number | null = null;
+    let rateValue: number | null = null;
+    let rateUnit: RateUnit = 'kg/ha';
+    let basis: 'product' | 'nutrient' = settings.rateBasis;
+    let rowProduct: FertilizerProduct | null = null;
+    let productWords = '';
+    let entry: TreatmentKeyEntry | undefined;
+    if (cols.rate) {
+      rateValue = num('rate', cols.rate);
+      rateUnit = (cols.rate.unit as RateUnit) ?? 'kg/ha';
+      basis = cols.rate.basis ?? settings.rateBasis;
+    }
+    if (treatment !== null) entry = key.get(treatment);
+    if (rateValue === null && !cols.rate && entry) {
+      rateValue = entry.rate;
+      rateUnit = entry.rateUnit;
+      basis = entry.basis ?? settings.rateBasis;
+      if (entry.rateCell) original.rate = entry.rateCell;
+    } else if (!cols.rate && treatment !== null && !entry) {
+      findings.push({
+        code: 'treatment-not-in-key',
+        severity: 'warning',
+        message: `${where} row ${r}: treatment "${treatment}" is not in the treatment key, so the plot has no rate. Add it to the key or correct the treatment.`,
+        refs: cols.treatment
+          ? [cellRef(file, sheet.name, at(cols.treatment), r, cols.treatment.col)]
+          : [],
+        site,
+      });
+    }
+    const productCol = m.columns.find((c) => c.role === 'product');
+    if (productCol) {
+      productWords = cellText(at(productCol));
+      rowProduct = productWords ? productFromText(productWords) : null;
+    }
+    if (rateValue !== null) {
+      rateKgHa = nutrientRateKgHa(rateValue, rateUnit, basis, {
+        product:
+          rowProduct ?? entry?.product ?? (settings.product ? products(settings.product) : null),
+        productWords: productWords || entry?.productText,
+        where: `${where} row ${r}`,
+        ref: { file, sheet: sheet.name, cell: original.rate?.ref.cell },
+      });
+    }
+
+    // Moisture and yield
+    const moisturePct = num('moisture', cols.moisture);
+    let yieldKgHa: number | null = null;
+    let wetBasis = true;
+    if (cols.yield) {
+      const y = num('yield', cols.yield);
+      wetBasis = cols.yield.moistureBasis !== 'standard';
+      if (y !== null) yieldKgHa = convertYield(y, (cols.yield.unit as YieldUnit) ?? 'kg/ha', crop);
+    } else if (cols.plotWeight) {
+      yieldKgHa = plotWeightYieldKgHa(cols, num, areaFromSettings);
+    }
+    if (yieldKgHa !== null && wetBasis && cols.moisture) {
+      if (moisturePct !== null && moisturePct >= 0 && moisturePct < 100) {
+        yieldKgHa = adjustMoisture(yieldKgHa, moisturePct, standardMoisturePct);
+      } else {
+        const mc = at(cols.moisture);
+        findings.push({
+          code: 'moisture-missing',
+          severity: 'warning',
+          message: `${where} row ${r}: the yield was weighed at harvest moisture but the moisture ${mc && mc.text.trim() ? `"${mc.text}" is not a usable percentage` : 'is missing'}, so it is not adjusted to ${standardMoisturePct} %. Enter the moisture or exclude the plot.`,
+          refs: [cellRef(file, sheet.name, mc, r, cols.moisture.col)],
+          site,
+        });
+      }
+    }
+
+    const testWeight = num('testWeight', cols.testWeight);
+    const notesCell = keep('notes', cols.notes);
+    const notes = notesCell && notesCell.text.trim() !== '' ? notesCell.text.trim() : null;
+    const exCell = keep('exclude', cols.exclude);
+    const exText = cellText(exCell);
+    const excluded =
+      cols.exclude && !noExclusionWords.has(exText.toLowerCase())
+        ? {
+            reason: `${cols.exclude.header} column says "${exText}"${notes ? `; notes: ${notes}` : ''}`,
+            by: 'sheet' as const,
+          }
+        : null;
+    const groups: Record<string, string> = {};
+    for (const g of groupCols) {
+      const t = cellText(at(g));
+      if (t !== '') groups[g.header] = t;
+    }
+    if (!cols.rate && entry) {
+      if (entry.productText) groups['Source (treatment key)'] = entry.productText;
+      if (entry.timing) groups['Timing (treatment key)'] = entry.timing;
+    }
+    plots.push({
+      id: `${file}|${sheet.name}|${r}`,
+      site,
+      year: year === null ? null : Math.round(year),
+      block,
+      plotLabel,
+      treatment,
+      rateKgHa,
+      yieldKgHa,
+      moisturePct,
+      testWeight,
+      notes,
+      groups,
+      excluded,
+      original,
+    });
+  }
+  if (skippedSummary.length > 0) {
+    findings.push({
+      code: 'summary-row-skipped',
+      severity: 'info',
+      message: `${where}: row${skippedSummary.length > 1 ? 's' : ''} ${skippedSummary.join(', ')} look${skippedSummary.length > 1 ? '' : 's'} like summary rows (mean, CV, LSD) and were not read as plots.`,
+      refs: skippedSummary.map((r) => ({ file, sheet: sheet.name, cell: `A${r}`, row: r })),
+    });
+  }
+  if (hiddenData.length > 0) {
+    findings.push({
+      code: 'hidden-rows',
+      severity: 'warning',
+      message: `${where}: row${hiddenData.length > 1 ? 's' : ''} ${hiddenData.slice(0, 10).join(', ')}${hiddenData.length > 10 ? ', …' : ''} ${hiddenData.length > 1 ? 'are hidden in the sheet but were imported as plots; exclude them if they were' : 'is hidden in the sheet but was imported as a plot; exclude it if it was'} hidden on purpose.`,
+      refs: hiddenData.map((r) => ({ file, sheet: sheet.name, cell: `A${r}`, row: r })),
+    });
+  }
+  if (filledDown > 0) {
+    findings.push({
+      code: 'site-filled-down',
+      severity: 'info',
+      message: `${where}: ${filledDown} row${filledDown > 1 ? 's have' : ' has'} no site; the site of the row above was used.`,
+      refs: [],
+    });
+  }
+}
