@@ -2,30 +2,9 @@
 // squares, lower difficulty): y = b1 (1 − e^(−b2 x)), the exponential rise with
 // the intercept fixed at zero. Certified values from tests/fixtures/nist/Misra1a.txt.
 import { describe, expect, it } from 'vitest';
-import { readFileSync } from 'node:fs';
 import { fitExponential } from '../shared/models';
 import { fitGaussNewton } from '../shared/optimize/fitGaussNewton';
-
-function readMisra(): { x: number[]; y: number[] } {
-  const text = readFileSync(new URL('./fixtures/nist/Misra1a.txt', import.meta.url), 'utf8');
-  const lines = text.split(/\r?\n/);
-  const start = lines.findIndex((l) => /^Data/.test(l));
-  const x: number[] = [];
-  const y: number[] = [];
-  for (const line of lines.slice(start + 1)) {
-    const parts = line.trim().split(/\s+/).map(Number);
-    if (parts.length === 2 && parts.every(Number.isFinite)) {
-      y.push(parts[0]);
-      x.push(parts[1]);
-    }
-  }
-  return { x, y };
-}
-
-/** Agreement to `digits` significant digits: |a − b| ≤ 10^−digits · |b|. */
-function expectDigits(actual: number, certified: number, digits: number): void {
-  expect(Math.abs(actual - certified)).toBeLessThanOrEqual(10 ** -digits * Math.abs(certified));
-}
+import { expectDigits, readNistPairs } from './stats.helpers';
 
 // NIST StRD Misra1a certified values.
 const certified = {
@@ -38,7 +17,7 @@ const certified = {
 };
 
 describe('fitExponential on NIST StRD Misra1a (intercept fixed at 0)', () => {
-  const { x, y } = readMisra();
+  const { first: y, second: x } = readNistPairs('Misra1a.txt');
   const fit = fitExponential({ rateKgHa: x, yieldKgHa: y }, { exponentialIntercept: 'zero' });
 
   it('reads the 14 observations and fits with 12 residual df', () => {
@@ -47,20 +26,20 @@ describe('fitExponential on NIST StRD Misra1a (intercept fixed at 0)', () => {
     expect(fit.status).toBe('ok');
   });
   it('needs no starting values and reaches the certified parameters to 8 significant digits', () => {
-    expectDigits(fit.params.b, certified.b1, 8);
-    expectDigits(fit.params.k, certified.b2, 8);
+    expectDigits(fit.params.b, certified.b1, 8, 'fit.params.b');
+    expectDigits(fit.params.k, certified.b2, 8, 'fit.params.k');
     expect(fit.params.a).toBe(0);
   });
   it('matches the certified standard deviations to 8 digits and the residual SS to 9', () => {
-    expectDigits(fit.stdErrors.b, certified.sdB1, 8);
-    expectDigits(fit.stdErrors.k, certified.sdB2, 8);
-    expectDigits(fit.sse, certified.rss, 9);
-    expectDigits(fit.rmse, certified.residualSd, 9);
+    expectDigits(fit.stdErrors.b, certified.sdB1, 8, 'fit.stdErrors.b');
+    expectDigits(fit.stdErrors.k, certified.sdB2, 8, 'fit.stdErrors.k');
+    expectDigits(fit.sse, certified.rss, 9, 'fit.sse');
+    expectDigits(fit.rmse, certified.residualSd, 9, 'fit.rmse');
   });
 });
 
 describe('fitGaussNewton (Levenberg-Marquardt) on Misra1a from both NIST starting points', () => {
-  const { x, y } = readMisra();
+  const { first: y, second: x } = readNistPairs('Misra1a.txt');
   const model = (p: Float64Array, xi: number): number => p[0] * -Math.expm1(-p[1] * xi);
   const jacobian = (p: Float64Array, xi: number, out: Float64Array): void => {
     out[0] = -Math.expm1(-p[1] * xi);
@@ -74,9 +53,9 @@ describe('fitGaussNewton (Levenberg-Marquardt) on Misra1a from both NIST startin
     it(`from (${start.join(', ')}) reaches the certified values to 6 significant digits`, () => {
       const r = fitGaussNewton({ x, y, start, model, jacobian });
       expect(r.converged).toBe(true);
-      expectDigits(r.params[0], certified.b1, 6);
-      expectDigits(r.params[1], certified.b2, 6);
-      expectDigits(r.sse, certified.rss, 6);
+      expectDigits(r.params[0], certified.b1, 6, 'r.params[0]');
+      expectDigits(r.params[1], certified.b2, 6, 'r.params[1]');
+      expectDigits(r.sse, certified.rss, 6, 'r.sse');
     });
   }
 });
