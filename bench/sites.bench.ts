@@ -5,8 +5,8 @@
 // figure is less inflated when other jobs share the machine); timing is never
 // asserted anywhere.
 import { syntheticPlotTable } from '../shared/demo/syntheticTrial';
-import { analyseAcrossSites, type AcrossSiteAnalysis } from '../shared/sites/analyseAcrossSites';
-import { repriceAcrossSites } from '../shared/sites/repriceAcrossSites';
+import { analyzeAcrossSites, type AcrossSiteAnalysis } from '../shared/analysis/analyzeAcrossSites';
+import { repriceAcrossSites } from '../shared/analysis/repriceAcrossSites';
 
 function median(values: number[]): number {
   const s = [...values].sort((a, b) => a - b);
@@ -34,9 +34,9 @@ export function run(): void {
   const sites = 500;
   const table = syntheticPlotTable({ sites, seed: 20261202 });
   const prices = { grainPricePerKg: 0.18, nutrientPricePerKg: 1.1 };
-  let analysis: AcrossSiteAnalysis = analyseAcrossSites(table, { prices }); // warm-up
+  let analysis: AcrossSiteAnalysis = analyzeAcrossSites(table, { prices }); // warm-up
   const full = Array.from({ length: 5 }, () =>
-    measure(() => (analysis = analyseAcrossSites(table, { prices }))),
+    measure(() => (analysis = analyzeAcrossSites(table, { prices }))),
   );
   const regionalOnly: { wall: number; cpu: number }[] = [];
   const withRows: { wall: number; cpu: number }[] = [];

@@ -254,7 +254,7 @@ export async function analyzeCommand(
     findings: imported.findings,
     onProgress: (done, total) => {
       if (total >= 20 && (done % step === 0 || done === total))
-        log.err(`plotrate: analysed ${done}/${total} sites`);
+        log.err(`plotrate: analyzed ${done}/${total} sites`);
     },
   });
   if (report.sites.every((s) => s.models.length === 0)) {

@@ -30,7 +30,7 @@ export async function demoCommand(dir: string, log: Console2, version: string): 
   const input = path.join(dir, demoFileName);
   // The demo file is ours to write, but a user's edited copy of it is not: keep it.
   if (existsSync(input)) {
-    log.err(`plotrate: ${input} exists; analysing that copy as it is.`);
+    log.err(`plotrate: ${input} exists; analyzing that copy as it is.`);
   } else {
     writeFileSync(input, await writeDemoWorkbook(trial));
     log.out(`Wrote ${input}`);

@@ -12,7 +12,7 @@ export function helpText(version: string): string {
   return `plotrate ${version}: yield response to fertilizer rate for small-plot trials
 
 Usage
-  plotrate analyze FILE... [options]   analyse trial sheets (.xlsx, .csv, .tsv)
+  plotrate analyze FILE... [options]   analyze trial sheets (.xlsx, .csv, .tsv)
   plotrate demo [--dir DIR]            write the demo trial workbook and its report
   plotrate --help                      this text
   plotrate --version                   the version

@@ -33,7 +33,7 @@ export function resolveAppRequest(url: string, rootDir: string): string | null {
     return null;
   }
   if (parsed.protocol !== `${APP_SCHEME}:` || parsed.host.toLowerCase() !== APP_HOST) return null;
-  // Encoded slashes or backslashes could smuggle a separator past URL normalisation.
+  // Encoded slashes or backslashes could smuggle a separator past URL normalization.
   if (/%2f|%5c|%00/i.test(parsed.pathname)) return null;
   let relative: string;
   try {

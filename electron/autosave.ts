@@ -13,7 +13,7 @@ import { readFile, rename, rm, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { parseProject } from '../shared/project/parseProject';
 import type { PlotrateProject } from '../shared/project/projectFormat';
-import { serialiseProject } from '../shared/project/serialiseProject';
+import { serializeProject } from '../shared/project/serializeProject';
 import { writeFileAtomic } from './atomicWrite';
 import type { RecoveredProject } from './desktopApi';
 
@@ -131,7 +131,7 @@ export async function writeAutosave(
     autosavedAt: now.toISOString(),
     projectPath,
     // savedAt inside stays the project's own last save; the envelope says when this copy was made.
-    projectText: serialiseProject(project, new Date(project.savedAt)),
+    projectText: serializeProject(project, new Date(project.savedAt)),
   };
   await writeFileAtomic(path.join(dataDir, AUTOSAVE_FILE), JSON.stringify(envelope));
 }

@@ -51,7 +51,7 @@ export function entryFromUnknown(where: string, value: unknown): LogEntry {
 }
 
 /**
- * An uncaught error of the page, recognised in a console message. Chromium
+ * An uncaught error of the page, recognized in a console message. Chromium
  * logs every uncaught exception and unhandled rejection of the page, its
  * workers and any world as an error-level message starting "Uncaught", so
  * this catches what window.onerror in the isolated preload cannot see.

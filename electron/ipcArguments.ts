@@ -7,7 +7,7 @@ import path from 'node:path';
 import { ProjectFileError } from '../shared/project/projectFileError';
 import { parseProject } from '../shared/project/parseProject';
 import type { PlotrateProject } from '../shared/project/projectFormat';
-import { serialiseProject } from '../shared/project/serialiseProject';
+import { serializeProject } from '../shared/project/serializeProject';
 import type { ErrorReport, ExportKind } from './desktopApi';
 import { IpcArgumentError } from './shellErrors';
 
@@ -85,7 +85,7 @@ export function checkSaveOptions(channel: string, value: unknown): { saveAs: boo
 }
 
 /**
- * A project from the page, checked exactly as a file would be: serialised and
+ * A project from the page, checked exactly as a file would be: serialized and
  * read back with the project parser, so the page cannot save what could not
  * be opened again.
  */
@@ -95,7 +95,7 @@ export function checkProject(channel: string, value: unknown): PlotrateProject {
   const project = value as PlotrateProject;
   let text: string;
   try {
-    text = serialiseProject(project, new Date(Date.parse(project.savedAt) || 0));
+    text = serializeProject(project, new Date(Date.parse(project.savedAt) || 0));
   } catch (e) {
     throw new IpcArgumentError(
       channel,

@@ -2,7 +2,7 @@
 import path from 'node:path';
 import { parseProject, type ParsedProject } from '../shared/project/parseProject';
 import type { PlotrateProject } from '../shared/project/projectFormat';
-import { serialiseProject } from '../shared/project/serialiseProject';
+import { serializeProject } from '../shared/project/serializeProject';
 import { writeFileAtomic } from './atomicWrite';
 import { MAX_PROJECT_FILE_BYTES } from './fileKinds';
 import { readCappedFile } from './readCappedFile';
@@ -45,6 +45,6 @@ export async function writeProjectFile(
   project: PlotrateProject,
   now: Date,
 ): Promise<string> {
-  await writeFileAtomic(filePath, serialiseProject(project, now));
+  await writeFileAtomic(filePath, serializeProject(project, now));
   return now.toISOString();
 }

@@ -69,10 +69,10 @@ describe('plotrate --help', () => {
 
 describe('plotrate analyze: bad input', () => {
   it('exits 2 with one line for an unknown option', () => {
-    const r = run(['analyze', 'trial.csv', '--colour', 'red']);
+    const r = run(['analyze', 'trial.csv', '--color', 'red']);
     expect(r.code).toBe(2);
     expect(r.err.trim().split('\n')).toHaveLength(1);
-    expect(r.err).toMatch(/Unknown option --colour/);
+    expect(r.err).toMatch(/Unknown option --color/);
   });
 
   it('exits 2 naming a file that does not exist', () => {

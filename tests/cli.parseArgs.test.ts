@@ -76,7 +76,7 @@ describe('parseArgs', () => {
     [['analyze', 'a.csv', '--units', 'imperial'], /--units imperial: use us or metric/],
     [['analyze', 'a.csv', '--crop', 'rice'], /--crop rice: use one of corn, wheat/],
     [['analyze', 'a.csv', '--grain-price', '0'], /--grain-price 0: a price above 0/],
-    [['analyze', 'a.csv', '--map', 'colour=Red'], /"colour" is not a role/],
+    [['analyze', 'a.csv', '--map', 'color=Red'], /"color" is not a role/],
     [['analyze', 'a.csv', '--map', 'yield'], /write role=Header/],
     [
       ['analyze', 'a.csv', '--product', 'water', '--product-price', '1'],

@@ -1,6 +1,6 @@
 // Checks the economic optimum. Expected rates are derived by hand from
 // dy/dx = PR for each form (the derivation is written beside each case) and,
-// independently of the closed forms, by maximising the net return numerically
+// independently of the closed forms, by maximizing the net return numerically
 // (a fine grid then golden-section search on the curve itself).
 import { describe, expect, it } from 'vitest';
 import {

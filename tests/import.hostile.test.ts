@@ -47,7 +47,7 @@ describe('readTrialFile refuses files it cannot read, saying what to do', () => 
     );
   });
 
-  it('a legacy workbook renamed to .xlsx is still recognised by its bytes', async () => {
+  it('a legacy workbook renamed to .xlsx is still recognized by its bytes', async () => {
     expect((await refusal('renamed.xlsx', sheetjsBook('xls'))).code).toBe('legacy-xls');
   });
 

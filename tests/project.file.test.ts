@@ -6,7 +6,7 @@ import { readProjectFile, writeProjectFile } from '../electron/projectFiles';
 import { parseProject } from '../shared/project/parseProject';
 import { ProjectFileError } from '../shared/project/projectFileError';
 import { PROJECT_FORMAT_VERSION } from '../shared/project/projectFormat';
-import { serialiseProject } from '../shared/project/serialiseProject';
+import { serializeProject } from '../shared/project/serializeProject';
 import { exampleProject, exampleProjectV1 } from './project.exampleProject';
 
 let dir: string;
@@ -42,7 +42,7 @@ describe('writeProjectFile and readProjectFile', () => {
   });
 
   it('start the file with its format name and version so a reader can tell what it is', () => {
-    const text = serialiseProject(exampleProject(), new Date('2026-03-01T08:00:00.000Z'));
+    const text = serializeProject(exampleProject(), new Date('2026-03-01T08:00:00.000Z'));
     expect(text.startsWith('{\n  "format": "plotrate-project",\n  "version": 2,')).toBe(true);
     expect(text.endsWith('}\n')).toBe(true);
   });
@@ -87,7 +87,7 @@ describe('migration from version 1', () => {
 /** The valid example as JSON, with one change applied. */
 // eslint-disable-next-line @typescript-eslint/no-explicit-any -- the cases edit arbitrary JSON on purpose
 function edited(change: (json: Record<string, any>) => void): string {
-  const json = JSON.parse(serialiseProject(exampleProject(), new Date('2026-03-01T08:00:00.000Z')));
+  const json = JSON.parse(serializeProject(exampleProject(), new Date('2026-03-01T08:00:00.000Z')));
   change(json);
   return JSON.stringify(json);
 }
@@ -102,7 +102,7 @@ describe('parseProject refuses bad files with the problem and the field', () => 
   }[] = [
     {
       title: 'a file cut short',
-      text: () => serialiseProject(exampleProject(), new Date()).slice(0, 900),
+      text: () => serializeProject(exampleProject(), new Date()).slice(0, 900),
       problem: 'not-json',
       field: '',
       message: /not readable JSON/,
@@ -202,11 +202,10 @@ describe('parseProject refuses bad files with the problem and the field', () => 
     },
     {
       title: 'an original cell under a role that does not exist',
-      text: () =>
-        edited((j) => (j.table.plots[0].original.colour = j.table.plots[0].original.rate)),
+      text: () => edited((j) => (j.table.plots[0].original.color = j.table.plots[0].original.rate)),
       problem: 'invalid',
       field: 'table.plots[0].original',
-      message: /"colour", which is not a column role/,
+      message: /"color", which is not a column role/,
     },
   ];
   for (const c of cases) {
@@ -242,7 +241,7 @@ describe('parseProject refuses bad files with the problem and the field', () => 
   });
 
   it('accepts a leading byte-order mark, as some editors write one', () => {
-    const text = `\uFEFF${serialiseProject(exampleProject(), new Date('2026-03-01T08:00:00.000Z'))}`;
+    const text = `\uFEFF${serializeProject(exampleProject(), new Date('2026-03-01T08:00:00.000Z'))}`;
     expect(parseProject(text, 'bom.plotrate').project.notes).toBe(exampleProject().notes);
   });
 });

@@ -4,7 +4,7 @@
 // exact pound and acre (NIST SP 811).
 import { describe, expect, it } from 'vitest';
 import { gainOverCheckSentence } from '../renderer/src/analysis/gainOverCheckText';
-import type { ResponseOverCheckOutcome } from '../shared/sites/siteResponseOverCheck';
+import type { ResponseOverCheckOutcome } from '../shared/analysis/siteResponseOverCheck';
 
 const KG_HA_PER_LB_AC = 0.45359237 / (43560 * 0.3048 * 0.3048 * 1e-4);
 

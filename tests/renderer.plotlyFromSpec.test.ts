@@ -71,7 +71,7 @@ describe('plotlyFromSpec', () => {
     expect(y2.anchor).toBe('x2');
   });
 
-  it('draws points per block with their own shape and colour, excluded ones hollow grey', () => {
+  it('draws points per block with their own shape and color, excluded ones hollow grey', () => {
     const { data } = plotlyFromSpec(spec());
     const points = data.filter((d) => d.mode === 'markers');
     expect(points.map((p) => p.name)).toEqual(['Block 1', 'Block 2', 'Excluded', 'Block 1']);
@@ -113,7 +113,7 @@ describe('plotlyFromSpec', () => {
 });
 
 describe('plotlyFromSpec options', () => {
-  it('colourCurves gives each alternative curve its own palette colour', () => {
+  it('colorCurves gives each alternative curve its own palette color', () => {
     const base = spec();
     const curve = (name: string) => ({
       kind: 'curve' as const,
@@ -124,13 +124,13 @@ describe('plotlyFromSpec options', () => {
       y: [1, 2],
     });
     base.panels[0].layers = [curve('Site A'), curve('Site B')];
-    const colours = (fig: ReturnType<typeof plotlyFromSpec>) =>
+    const colors = (fig: ReturnType<typeof plotlyFromSpec>) =>
       fig.data.filter((d) => d.mode === 'lines').map((d) => (d.line as { color: string }).color);
-    expect(colours(plotlyFromSpec(base, { colourCurves: true }))).toEqual([
+    expect(colors(plotlyFromSpec(base, { colorCurves: true }))).toEqual([
       chartPalette.groups[0],
       chartPalette.groups[1],
     ]);
-    expect(colours(plotlyFromSpec(base))).toEqual([
+    expect(colors(plotlyFromSpec(base))).toEqual([
       chartPalette.alternative,
       chartPalette.alternative,
     ]);

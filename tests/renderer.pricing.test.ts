@@ -1,16 +1,16 @@
 import { describe, expect, it } from 'vitest';
 import { syntheticPlotTable } from '../shared/demo/syntheticTrial';
 import { economicOptimum } from '../shared/economics/economicOptimum';
-import { analyseAcrossSites } from '../shared/sites/analyseAcrossSites';
-import { sitePlots } from '../shared/sites/sitePlots';
-import { analyseTable, poolingTests, siteViews } from '../renderer/src/analysis/siteAnalysis';
+import { analyzeAcrossSites } from '../shared/analysis/analyzeAcrossSites';
+import { sitePlots } from '../shared/analysis/sitePlots';
+import { analyzeTable, poolingTests, siteViews } from '../renderer/src/analysis/siteAnalysis';
 import {
   modelOptima,
   regionalAtPrices,
   siteLeads,
   siteOptima,
 } from '../renderer/src/analysis/pricing';
-import { chooseSiteModels } from '../shared/sites/chooseSiteModels';
+import { chooseSiteModels } from '../shared/analysis/chooseSiteModels';
 import { analyzeTrials } from '../shared/report/analyzeTrials';
 import { siteIntervals } from '../renderer/src/analysis/intervals';
 import { reportSettings } from '../renderer/src/analysis/reportInput';
@@ -28,10 +28,10 @@ const noProgress = async () => {};
 const illustrative = canonicalPrices(ILLUSTRATIVE_PRICES);
 
 describe('renderer analysis and re-pricing', () => {
-  it('analyseTable runs the pipeline site by site as plain data (no functions cross to the window)', async () => {
+  it('analyzeTable runs the pipeline site by site as plain data (no functions cross to the window)', async () => {
     const seen: string[] = [];
     const table = syntheticPlotTable({ sites: 3 });
-    const out = await analyseTable(
+    const out = await analyzeTable(
       { table, blocks: 'fixed', prices: illustrative },
       async (_d, _t, note) => {
         seen.push(note);
@@ -41,7 +41,7 @@ describe('renderer analysis and re-pricing', () => {
     expect(sites.map((s) => s.site)).toEqual(['Site 0001', 'Site 0002', 'Site 0003']);
     expect(seen).toEqual(['Site 0001', 'Site 0002', 'Site 0003', 'across sites']);
     // The same analysis as the one-call form with the same options.
-    const whole = analyseAcrossSites(table, {
+    const whole = analyzeAcrossSites(table, {
       prices: illustrative,
       blocks: 'auto',
       groupKeys: [],
@@ -62,7 +62,7 @@ describe('renderer analysis and re-pricing', () => {
   });
 
   it('a higher nitrogen price never raises a site optimum, and the regional rate follows', async () => {
-    const out = await analyseTable(
+    const out = await analyzeTable(
       { table: syntheticPlotTable({ sites: 4, seed: 9 }), blocks: 'none', prices: illustrative },
       noProgress,
     );
@@ -81,7 +81,7 @@ describe('renderer analysis and re-pricing', () => {
     expect(rc.profitableRange.lowKgHa).toBeLessThanOrEqual(rc.bestRateKgHa);
     expect(rc.profitableRange.highKgHa).toBeGreaterThanOrEqual(rc.bestRateKgHa);
     // The regional rate is the pipeline's at those prices.
-    const fresh = analyseAcrossSites(syntheticPlotTable({ sites: 4, seed: 9 }), {
+    const fresh = analyzeAcrossSites(syntheticPlotTable({ sites: 4, seed: 9 }), {
       prices: dear,
       blocks: 'none',
       groupKeys: [],
@@ -90,7 +90,7 @@ describe('renderer analysis and re-pricing', () => {
   });
 
   it('the site optimum is the closed-form optimum of its leading fit at the same prices', async () => {
-    const out = await analyseTable(
+    const out = await analyzeTable(
       { table: syntheticPlotTable({ sites: 1, seed: 2 }), blocks: 'none', prices: illustrative },
       noProgress,
     );
@@ -102,7 +102,7 @@ describe('renderer analysis and re-pricing', () => {
   });
 
   it("the leading model is the pipeline's recommendation, the user's choice wins, and the regional mean follows it", async () => {
-    const out = await analyseTable(
+    const out = await analyzeTable(
       { table: syntheticPlotTable({ sites: 2, seed: 4 }), blocks: 'none', prices: illustrative },
       noProgress,
     );
@@ -114,7 +114,7 @@ describe('renderer analysis and re-pricing', () => {
     const mine = { [site.site]: 'linear' as const };
     expect(siteLeads(out.analysis, mine)[site.site]).toBe('linear');
     const chosen = regionalAtPrices(chooseSiteModels(out.analysis, mine), illustrative)!;
-    const fresh = analyseAcrossSites(syntheticPlotTable({ sites: 2, seed: 4 }), {
+    const fresh = analyzeAcrossSites(syntheticPlotTable({ sites: 2, seed: 4 }), {
       prices: illustrative,
       blocks: 'none',
       groupKeys: [],
@@ -128,7 +128,7 @@ describe('renderer analysis and re-pricing', () => {
 describe('renderer optimum intervals', () => {
   it('siteIntervals gives each site the interval the report prints for its leading model', async () => {
     const table = syntheticPlotTable({ sites: 2, seed: 3 });
-    const out = await analyseTable({ table, blocks: 'fixed', prices: illustrative }, noProgress);
+    const out = await analyzeTable({ table, blocks: 'fixed', prices: illustrative }, noProgress);
     const leads = siteLeads(out.analysis, {});
     const sites = siteViews(out).map((s, index) => ({
       site: s.site,

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { syntheticPlotTable } from '../shared/demo/syntheticTrial';
 import { parseProject } from '../shared/project/parseProject';
-import { serialiseProject } from '../shared/project/serialiseProject';
+import { serializeProject } from '../shared/project/serializeProject';
 import { canonicalPrices, ILLUSTRATIVE_PRICES } from '../renderer/src/analysis/priceInputs';
 import { projectFromWorkspace, sessionFromProject } from '../renderer/src/lib/projectView';
 import type { Session } from '../renderer/src/lib/session';
@@ -34,7 +34,7 @@ describe('project file and workspace', () => {
       new Date('2026-03-01T08:00:00Z'),
       '0.1.0',
     );
-    const text = serialiseProject(project, new Date('2026-03-01T09:00:00Z'));
+    const text = serializeProject(project, new Date('2026-03-01T09:00:00Z'));
     expect(text).not.toContain('aGk=');
     const reopened = parseProject(text, 'trial.plotrate').project;
     expect(reopened.table!.plots).toHaveLength(table.plots.length);

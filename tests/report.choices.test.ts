@@ -8,7 +8,7 @@ import { analyzeTrials } from '../shared/report/analyzeTrials';
 import { growerPage } from '../shared/report/growerPage';
 import type { ReportSettings } from '../shared/report/reportSettings';
 import { priceTerms } from '../shared/report/reportSettings';
-import { analyseAcrossSites } from '../shared/sites/analyseAcrossSites';
+import { analyzeAcrossSites } from '../shared/analysis/analyzeAcrossSites';
 
 const table = syntheticPlotTable({ sites: 3, seed: 5 });
 const meta = {
@@ -62,7 +62,7 @@ describe('analyzeTrials with the user’s site models', () => {
   });
 
   it('puts the picked model into the regional mean, as the pipeline does with the same pick', () => {
-    const pipeline = analyseAcrossSites(table, {
+    const pipeline = analyzeAcrossSites(table, {
       prices: { grainPricePerKg: 0.18, nutrientPricePerKg: 1.1 },
       blocks: 'none',
       groupKeys: [],
@@ -83,7 +83,7 @@ describe('analyzeTrials with an application cost', () => {
     expect(costly.prices.applicationCostPerHa).toBe(cost);
     for (const s of costly.sites) {
       const row = s.models.find((m) => m.model === s.bestModel)!;
-      const fit = analyseAcrossSites(table, {
+      const fit = analyzeAcrossSites(table, {
         prices: { grainPricePerKg: 0.18, nutrientPricePerKg: 1.1, applicationCostPerHa: cost },
         blocks: 'none',
         groupKeys: [],

@@ -1,6 +1,6 @@
 // The report every report.* test reads: the committed demo workbook (invented
 // data from the seeded generator) imported through the real import stage and
-// analysed by the real engine, in US or metric units.
+// analyzed by the real engine, in US or metric units.
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';

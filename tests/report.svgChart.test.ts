@@ -62,7 +62,7 @@ describe('renderChartSvg', () => {
     let sx = 0;
     let sy = 0;
     let count = 0;
-    // Below the legend, whose Block 1 swatch has the same colour.
+    // Below the legend, whose Block 1 swatch has the same color.
     for (let y = 60; y < height; y++) {
       for (let x = 0; x < width; x++) {
         const i = (y * width + x) * 4;
@@ -76,7 +76,7 @@ describe('renderChartSvg', () => {
       }
     }
     expect(count).toBeGreaterThan(10);
-    // The frame: the first dark (axis-coloured) pixel met walking out from the point.
+    // The frame: the first dark (axis-colored) pixel met walking out from the point.
     const dark = (x: number, y: number): boolean => {
       const i = (y * width + x) * 4;
       return data[i] < 200 && data[i + 1] < 200 && data[i + 2] < 200;
@@ -97,7 +97,7 @@ describe('renderChartSvg', () => {
     const top = walk(0, -1);
     const bottom = walk(0, 1);
     expect(right - left).toBeGreaterThan(400);
-    // x = 100 is half of 0–200 and y = 5 half of 0–10: the centre of the frame, to 2 px.
+    // x = 100 is half of 0–200 and y = 5 half of 0–10: the center of the frame, to 2 px.
     expect(Math.abs(sx / count - (left + right) / 2)).toBeLessThan(2);
     expect(Math.abs(sy / count - (top + bottom) / 2)).toBeLessThan(2);
   });

@@ -194,7 +194,7 @@ describe('appendErrorLog', () => {
 });
 
 describe('uncaughtFromConsole', () => {
-  it('recognises Chromium’s uncaught-error lines and nothing else', () => {
+  it('recognizes Chromium’s uncaught-error lines and nothing else', () => {
     expect(
       uncaughtFromConsole(
         'error',

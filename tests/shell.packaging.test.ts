@@ -43,7 +43,7 @@ describe('electron-builder.yml', () => {
     expect(config.mac?.target).toEqual(['dmg']);
     const associations = [config.fileAssociations].flat();
     expect(associations.map((a) => a?.ext)).toEqual([PROJECT_FILE_EXTENSION]);
-    // The loader normalises the list to [{ filter: [...] }].
+    // The loader normalizes the list to [{ filter: [...] }].
     const files = [config.files]
       .flat()
       .flatMap((f) => (typeof f === 'string' ? [f] : ((f as { filter?: string[] })?.filter ?? [])));

@@ -39,28 +39,28 @@ describe('describeSample against R 4.2.2 (tests/fixtures/stats-r, mean/var/sd/qu
 // average and higher difficulty). Not among the reference files here: the data
 // layout and certified values are from memory. They are also fixed by exact
 // arithmetic, which is what makes them safe to use: NumAcc1 is 10000001,
-// 10000003, 10000002 (mean 10000002, SD 1); NumAcc3/NumAcc4 are a centre value
-// then 500 pairs at centre ∓ 0.1 (1001 values, mean = centre, SD = 0.1 exactly:
-// 1000 · 0.01 / 1000), with centres 1000000.2 and 10000000.2.
+// 10000003, 10000002 (mean 10000002, SD 1); NumAcc3/NumAcc4 are a center value
+// then 500 pairs at center ∓ 0.1 (1001 values, mean = center, SD = 0.1 exactly:
+// 1000 · 0.01 / 1000), with centers 1000000.2 and 10000000.2.
 describe('sampleMean and sampleStandardDeviation on NIST StRD NumAcc data (from memory)', () => {
-  const numAcc = (centre: number, step: string): number[] => {
-    const low = Number((centre - Number(step)).toFixed(1));
-    const high = Number((centre + Number(step)).toFixed(1));
-    return [centre, ...Array.from({ length: 1000 }, (_, i) => (i % 2 === 0 ? low : high))];
+  const numAcc = (center: number, step: string): number[] => {
+    const low = Number((center - Number(step)).toFixed(1));
+    const high = Number((center + Number(step)).toFixed(1));
+    return [center, ...Array.from({ length: 1000 }, (_, i) => (i % 2 === 0 ? low : high))];
   };
   it('NumAcc1 (lower difficulty): mean 10000002 and SD 1 to 15 digits', () => {
     const v = [10000001, 10000003, 10000002];
     expectDigits(sampleMean(v), 10000002, 15, 'mean');
     expectDigits(sampleStandardDeviation(v), 1, 15, 'SD');
   });
-  it('NumAcc3 (average difficulty, centre 1000000.2): mean to 15 digits, SD to 9', () => {
+  it('NumAcc3 (average difficulty, center 1000000.2): mean to 15 digits, SD to 9', () => {
     // The stored doubles are off by up to 5.8e−11 against deviations of 0.1, so
     // about 9 digits of the SD are all the data hold.
     const v = numAcc(1000000.2, '0.1');
     expectDigits(sampleMean(v), 1000000.2, 15, 'mean');
     expectDigits(sampleStandardDeviation(v), 0.1, 9, 'SD');
   });
-  it('NumAcc4 (higher difficulty, centre 10000000.2): mean to 15 digits, SD to 8', () => {
+  it('NumAcc4 (higher difficulty, center 10000000.2): mean to 15 digits, SD to 8', () => {
     // One more leading digit, one fewer attainable digit in the SD.
     const v = numAcc(10000000.2, '0.1');
     expectDigits(sampleMean(v), 10000000.2, 15, 'mean');

@@ -110,13 +110,13 @@ const cases: Array<[string, () => unknown, StatsErrorCode, string]> = [
     'oneWayAnova with every y equal',
     () => oneWayAnova({ treatment: [0, 0, 60, 60], y: [5, 5, 5, 5] }),
     'constant-values',
-    'oneWayAnova: y: all 4 values equal 5; there is no variation to analyse.',
+    'oneWayAnova: y: all 4 values equal 5; there is no variation to analyze.',
   ],
   [
     'randomizedBlockAnova with every y equal',
     () => randomizedBlockAnova({ treatment: [0, 60, 0, 60], block: [1, 1, 2, 2], y: [5, 5, 5, 5] }),
     'constant-values',
-    'randomizedBlockAnova: y: all 4 values equal 5; there is no variation to analyse.',
+    'randomizedBlockAnova: y: all 4 values equal 5; there is no variation to analyze.',
   ],
   // Non-finite values
   [

@@ -15,7 +15,7 @@ import {
   type SheetMapping,
 } from './columnMapping';
 import { cellNumber } from './cellNumber';
-import { normaliseHeader, roleFromHeader, unitFromHeader } from './headerWords';
+import { normalizeHeader, roleFromHeader, unitFromHeader } from './headerWords';
 import { columnLetters, type RawSheet, type RawWorkbook } from './rawWorkbook';
 import { shapeSignature } from './shapeSignature';
 import { cropFromText } from './cropFromText';
@@ -132,7 +132,7 @@ function mapSheet(sheet: RawSheet, multipleSheets: boolean): SheetMapping {
     );
   }
   const header = sheet.rows[headerRow - 1];
-  const usHints = header.some((c) => c && /\b(bu|lbs?|ac|acre)\b/.test(normaliseHeader(c.text)));
+  const usHints = header.some((c) => c && /\b(bu|lbs?|ac|acre)\b/.test(normalizeHeader(c.text)));
   const columns: ColumnAssignment[] = [];
   const taken = new Map<MappedRole, ColumnAssignment>();
   // Columns with data under a blank header cell are listed too, so nothing is dropped unseen.
@@ -208,7 +208,7 @@ function mapSheet(sheet: RawSheet, multipleSheets: boolean): SheetMapping {
       }
     }
     if (a.role === 'rate') {
-      const h = normaliseHeader(text);
+      const h = normalizeHeader(text);
       a.basis =
         u?.basis ??
         (/\bproduct\b/.test(h)
@@ -234,7 +234,7 @@ function mapSheet(sheet: RawSheet, multipleSheets: boolean): SheetMapping {
     if (singleRoles.has(a.role)) {
       const first = taken.get(a.role);
       if (first) {
-        const h = normaliseHeader(text);
+        const h = normalizeHeader(text);
         const std = /\b(dry|adj|adjusted|std|standard)\b|@|\bat\s*\d/.test(h);
         if (a.role === 'yield' && std && first.moistureBasis !== 'standard') {
           // An adjusted yield beats a wet one: no moisture arithmetic needed.
@@ -253,7 +253,7 @@ function mapSheet(sheet: RawSheet, multipleSheets: boolean): SheetMapping {
       }
     }
     if (a.role === 'yield') {
-      const h = normaliseHeader(text);
+      const h = normalizeHeader(text);
       if (/\b(dry|adj|adjusted|std|standard)\b|@|\bat\s*\d/.test(h)) a.moistureBasis = 'standard';
       else if (/\b(wet|harvest|as is|field|fresh)\b/.test(h)) a.moistureBasis = 'harvest';
     }

@@ -36,13 +36,13 @@ const rules: [Exclude<MappedRole, 'ignore'>, RegExp][] = [
 ];
 
 /**
- * Normalises header text for matching: lower case, one space, no line breaks.
+ * Normalizes header text for matching: lower case, one space, no line breaks.
  * @param header - the cell text
- * @returns the normalised text
+ * @returns the normalized text
  * @example
- * normaliseHeader('Grain\nYield  (bu/A)') // 'grain yield (bu/a)'
+ * normalizeHeader('Grain\nYield  (bu/A)') // 'grain yield (bu/a)'
  */
-export function normaliseHeader(header: string): string {
+export function normalizeHeader(header: string): string {
   return header.toLowerCase().replace(/\s+/g, ' ').replace(/²/g, '2').trim();
 }
 
@@ -57,7 +57,7 @@ export function roleFromHeader(
   header: string,
 ): { role: Exclude<MappedRole, 'ignore'>; word: string } | null {
   // The unit in brackets says nothing about the role ("lb N/ac" must not make a yield a rate).
-  const h = normaliseHeader(header)
+  const h = normalizeHeader(header)
     .replace(/[([{].*?[)\]}]/g, ' ')
     .replace(/\s+/g, ' ')
     .trim();
@@ -88,7 +88,7 @@ export interface UnitHint {
  * unitFromHeader('N rate (lb N/A)') // { unit: 'lb/ac', basis: 'nutrient', text: 'lb n/a' }
  */
 export function unitFromHeader(header: string): UnitHint | null {
-  const h = normaliseHeader(header);
+  const h = normalizeHeader(header);
   // Every "<mass> [word] / <area>" in the header is tried until one is a known unit.
   const perAreaRe =
     /\b(lbs?|pounds?|kg|g|t|mg|tonnes?|tons?|bu|bushels?)\.?\s*(?:of\s*)?([a-z0-9]*)\s*(?:\/|per)\s*(ac|acre|a|ha|hectare|m2|sq\.? ?m)\b/g;

@@ -3,7 +3,7 @@
  * Quoting follows RFC 4180 (double quotes, "" for a quote inside, line breaks
  * allowed inside quotes); the separator is the one of comma, semicolon and tab
  * that splits the first lines into the same number of fields most often; a
- * decimal comma is recognised when the separator is not a comma.
+ * decimal comma is recognized when the separator is not a comma.
  */
 import type { SourceFile } from '../table/plotTable';
 import { ImportError } from './importError';

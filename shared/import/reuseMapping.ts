@@ -6,7 +6,7 @@
  */
 import type { ColumnMapping } from './columnMapping';
 import { detectColumns } from './detectColumns';
-import { normaliseHeader } from './headerWords';
+import { normalizeHeader } from './headerWords';
 import type { RawWorkbook } from './rawWorkbook';
 
 /**
@@ -26,7 +26,7 @@ export function reuseMapping(
   for (const sheet of fresh.sheets) {
     // By name first (same sheet), else the first saved sheet with the same use and headers.
     const key = (s: { columns: { header: string }[] }) =>
-      s.columns.map((c) => normaliseHeader(c.header)).join('|');
+      s.columns.map((c) => normalizeHeader(c.header)).join('|');
     const match =
       saved.sheets.find((s) => s.sheet === sheet.sheet) ??
       saved.sheets.find((s) => s.use === sheet.use && key(s) === key(sheet));
@@ -35,7 +35,7 @@ export function reuseMapping(
     sheet.site = match.site.from === 'fixed' ? sheet.site : match.site;
     for (const col of sheet.columns) {
       const c = match.columns.find(
-        (m) => normaliseHeader(m.header) === normaliseHeader(col.header),
+        (m) => normalizeHeader(m.header) === normalizeHeader(col.header),
       );
       if (!c) continue;
       col.role = c.role;

@@ -4,7 +4,7 @@
  * the data. Two files with the same signature can share a saved mapping.
  */
 import type { SheetMapping } from './columnMapping';
-import { normaliseHeader } from './headerWords';
+import { normalizeHeader } from './headerWords';
 
 /**
  * Computes the shape signature (FNV-1a, 32 bit, over the sorted distinct sheet shapes).
@@ -18,7 +18,7 @@ export function shapeSignature(sheets: readonly Pick<SheetMapping, 'use' | 'colu
     ...new Set(
       sheets
         .filter((s) => s.use !== 'ignore')
-        .map((s) => `${s.use}:${s.columns.map((c) => normaliseHeader(c.header)).join('|')}`),
+        .map((s) => `${s.use}:${s.columns.map((c) => normalizeHeader(c.header)).join('|')}`),
     ),
   ].sort();
   let h = 0x811c9dc5;

@@ -119,11 +119,11 @@ export function estimateExponential(
     const next = i + 1 < GRID ? sseAt(uLow + (i + 1) * step) : Infinity;
     const refine = (i === 1 && previous <= current) || (current <= previous && current <= next);
     if (refine) {
-      const centre = i === 1 && previous <= current ? 0 : i;
+      const center = i === 1 && previous <= current ? 0 : i;
       const r = minimizeBrent(
         sseAt,
-        uLow + Math.max(centre - 1, 0) * step,
-        uLow + Math.min(centre + 1, GRID - 1) * step,
+        uLow + Math.max(center - 1, 0) * step,
+        uLow + Math.min(center + 1, GRID - 1) * step,
         { relativeTolerance: tolerance, absoluteTolerance: tolerance },
       );
       if (r.fx < bestSse) {

@@ -5,7 +5,7 @@
  * these (SSE(θ) = SS_within + Σ n_j (ȳ_j − ŷ_j)², O(distinct rates) per
  * evaluation). With block terms in a design where every block has the same
  * mix of rates (proportional frequencies n_bj = n_b n_j / n), the block columns
- * are orthogonal to any function of rate once centred, so the same group sums
+ * are orthogonal to any function of rate once centered, so the same group sums
  * apply to the block-adjusted yields y − ȳ_block + ȳ, with B − 1 fewer residual
  * df (Searle, Linear Models, 1971, §7.2 on proportional subclass numbers).
  * Other block layouts need the full design ("full").

@@ -6,7 +6,7 @@
  *
  * Two routes, same answer:
  * - group sums (no blocks, or blocks with proportional frequencies): weighted
- *   least squares on the per-rate means with weights n_j, centred sums
+ *   least squares on the per-rate means with weights n_j, centered sums
  *   S_gg = Σ n_j (g_j − ḡ)², S_gm = Σ n_j (g_j − ḡ)(m_j − m̄), β = S_gm / S_gg,
  *   then SSE = SS_within + Σ n_j (m_j − a − β g_j)² from explicit residuals
  *   (accurate even when the fit is nearly exact);
@@ -73,13 +73,13 @@ function groupSolver(site: PreparedSite, options: ProfileSolverOptions): Profile
   // here would be renamed on every call by tools that keep function names (tsx,
   // which runs the command line), at a cost comparable to the evaluation itself.
   const sse = options.intercept
-    ? centredSse(site, options.sign, w, mBar, flatSse, last)
+    ? centeredSse(site, options.sign, w, mBar, flatSse, last)
     : originSse(site, options.sign, flatSse, last);
   return { sse, flatSse, last };
 }
 
-/** SSE(g) with an intercept: centred sums, explicit residuals. */
-function centredSse(
+/** SSE(g) with an intercept: centered sums, explicit residuals. */
+function centeredSse(
   site: PreparedSite,
   sign: ProfileSolverOptions['sign'],
   w: number,

@@ -1,7 +1,7 @@
 /**
  * Global search for a join point x0 with no starting value. SSE(x0), with the
  * inner linear fit solved exactly at each x0, is smooth between consecutive
- * distinct rates and may have a kink at each, so it is minimised within every
+ * distinct rates and may have a kink at each, so it is minimized within every
  * interval [r_j, r_{j+1}] by Brent's method and the best of all intervals kept.
  * Its ends are evaluated too, so a join exactly at a rate is found.
  *
@@ -33,7 +33,7 @@ export interface JoinSearchResult {
 }
 
 /**
- * Minimises sse(x0) over [r_0, r_max] interval by interval.
+ * Minimizes sse(x0) over [r_0, r_max] interval by interval.
  * @param rates - distinct rates ascending, kg/ha (at least 2)
  * @param sse - SSE as a function of the join point (kg/ha)
  * @param relativeTolerance - Brent's tolerance on x0, default 1e-10

@@ -1,8 +1,8 @@
 /**
- * The bridge from the plot table to the fits: the analysable plots of one site
+ * The bridge from the plot table to the fits: the analyzable plots of one site
  * (not excluded, rate and yield present) as parallel arrays in canonical units.
  */
-import { analysablePlots, type Plot, type PlotTable } from '../table/plotTable';
+import { analyzablePlots, type Plot, type PlotTable } from '../table/plotTable';
 import type { SiteData } from './modelTypes';
 
 /**
@@ -21,7 +21,7 @@ export function siteDataFromPlots(
     ? (source as readonly Plot[]).filter(
         (p) => p.excluded === null && p.rateKgHa !== null && p.yieldKgHa !== null,
       )
-    : analysablePlots(source as PlotTable);
+    : analyzablePlots(source as PlotTable);
   const plots = site === undefined ? all : all.filter((p) => p.site === site);
   return {
     rateKgHa: plots.map((p) => p.rateKgHa as number),

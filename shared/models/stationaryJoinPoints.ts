@@ -5,7 +5,7 @@
  * With the join x0 in [r_j, r_{j+1}] the rates up to r_j lie on the rising piece
  * and the rest on the plateau, so the regressor g(x0) of each rate is a
  * polynomial in x0: min(r, x0) is r or x0 (linear-plateau), min(r − x0, 0)² is
- * (r − x0)² or 0 (quadratic-plateau). With centred means c_i = m_i − m̄ and
+ * (r − x0)² or 0 (quadratic-plateau). With centered means c_i = m_i − m̄ and
  * weights n_i, the inner fit gives
  *   SSE(x0) = flatSse − M(x0)² / V(x0),  M = Σ n c g,  V = Σ n g² − (Σ n g)² / w,
  * where β = M / V has the required sign (else SSE = flatSse, its largest value).

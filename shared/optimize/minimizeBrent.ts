@@ -28,7 +28,7 @@ export interface BrentOptions {
 }
 
 export interface BrentResult {
-  /** The minimising argument, in the units of the interval. */
+  /** The minimizing argument, in the units of the interval. */
   x: number;
   /** f(x). */
   fx: number;
@@ -41,8 +41,8 @@ export interface BrentResult {
 const GOLDEN = 0.381966011250105; // (3 − √5) / 2
 
 /**
- * Minimises f on [lower, upper] by Brent's method.
- * @param f - the function to minimise; NaN is treated as +Infinity
+ * Minimizes f on [lower, upper] by Brent's method.
+ * @param f - the function to minimize; NaN is treated as +Infinity
  * @param lower - left end of the interval (same unit as f's argument)
  * @param upper - right end, ≥ lower
  * @param options - tolerances and iteration limit

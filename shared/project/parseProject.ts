@@ -31,7 +31,7 @@ export interface ParsedProject {
  * @throws ProjectFileError 'not-json' for text that is not JSON, 'not-a-project'
  *   for JSON without the project format name, 'future-version' for a file from a
  *   newer Plotrate, 'invalid' naming the field otherwise
- * @example parseProject(serialiseProject(p), 'a.plotrate').project // deep-equals p
+ * @example parseProject(serializeProject(p), 'a.plotrate').project // deep-equals p
  */
 export function parseProject(text: string, where: string): ParsedProject {
   let data: unknown;

@@ -14,7 +14,7 @@
 import type { ModelName } from '../models/modelTypes';
 import type { PlotTable, SourceFile } from '../table/plotTable';
 
-/** The `format` field every project file carries, so a stray JSON file is recognised as "not a project". */
+/** The `format` field every project file carries, so a stray JSON file is recognized as "not a project". */
 export const PROJECT_FORMAT_NAME = 'plotrate-project';
 
 /** The version this build writes. */

@@ -4,7 +4,7 @@
  * a bound (Belsley, Kuh & Welsch, Regression Diagnostics, 1980, §2.1). Flagged
  * plots are not excluded: the user decides.
  */
-import { analysablePlots, type Plot, type PlotTable } from '../table/plotTable';
+import { analyzablePlots, type Plot, type PlotTable } from '../table/plotTable';
 import { describeRef, type QualityFinding } from './qualityFinding';
 import { fitTreatmentBlock } from './treatmentBlockModel';
 
@@ -24,7 +24,7 @@ export function checkResiduals(
 ): QualityFinding[] {
   const out: QualityFinding[] = [];
   const bySite = new Map<string, Plot[]>();
-  for (const p of analysablePlots(table)) {
+  for (const p of analyzablePlots(table)) {
     if (!bySite.has(p.site)) bySite.set(p.site, []);
     bySite.get(p.site)!.push(p);
   }

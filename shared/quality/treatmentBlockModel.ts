@@ -21,7 +21,7 @@ export interface TreatmentBlockFit {
 }
 
 /**
- * Fits yield ~ rate (as a factor) + block for one site's analysable plots.
+ * Fits yield ~ rate (as a factor) + block for one site's analyzable plots.
  * @param plots - the site's plots, not excluded, with rate (kg/ha) and yield (kg/ha)
  * @returns the fit, mean and CV %, or a reason it cannot be fitted (too few plots, no replication)
  * @example

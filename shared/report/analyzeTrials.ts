@@ -1,6 +1,6 @@
 /**
  * The report summary (TrialReport) every writer reads, built on the one
- * across-site analysis: analyseAcrossSites (shared/sites) fits every site with
+ * across-site analysis: analyzeAcrossSites (shared/sites) fits every site with
  * every model, ranks them, picks each site's recommendation model
  * (recommendationModel), prices the optima and computes the regional rate and
  * the pooling tests. On top of that this module adds only what the report
@@ -15,21 +15,21 @@ import type { ModelName } from '../models/modelTypes';
 import { curveValue } from '../models/curveValue';
 import { describeRef, type QualityFinding } from '../quality/qualityFinding';
 import {
-  analyseAcrossSites,
+  analyzeAcrossSites,
   type AcrossSiteAnalysis,
   type FitData,
   type SiteAnalysis,
-} from '../sites/analyseAcrossSites';
-import { leadingModel } from '../sites/leadingModel';
-import { rateGrid } from '../sites/rateGrid';
-import type { RecommendationModel } from '../sites/recommendationModel';
+} from '../analysis/analyzeAcrossSites';
+import { leadingModel } from '../analysis/leadingModel';
+import { rateGrid } from '../analysis/rateGrid';
+import type { RecommendationModel } from '../analysis/recommendationModel';
 import {
   ONE_PER_ACRE_IN_PER_HA,
   prepareRegionalReturn,
   regionalReturnAtPrices,
-} from '../sites/regionalReturn';
-import type { SiteModelRow } from '../sites/siteModelRows';
-import { sitePlots, type SitePlots } from '../sites/sitePlots';
+} from '../analysis/regionalReturn';
+import type { SiteModelRow } from '../analysis/siteModelRows';
+import { sitePlots, type SitePlots } from '../analysis/sitePlots';
 import type { Plot, PlotTable } from '../table/plotTable';
 import { bootstrapSiteOptimum } from './bootstrapSiteOptimum';
 import { fitMessage, optimumNote } from './modelNotes';
@@ -168,7 +168,7 @@ function modelRow(f: FitData, row: SiteModelRow, ciKgHa: [number, number] | null
 }
 
 /**
- * Analyses every site of a plot table and assembles the report summary.
+ * Analyzes every site of a plot table and assembles the report summary.
  * @param table - the plot table (canonical kg/ha)
  * @param settings - display units, prices (with the application cost), bootstrap size and seed,
  *   block terms, the user's model per site
@@ -193,7 +193,7 @@ export function analyzeTrials(
   const band = ONE_PER_ACRE_IN_PER_HA;
   const plotsOf = sitePlots(table);
   // Fixed blocks where every plot of the site has a label; the report's groups are not needed.
-  const analysis = analyseAcrossSites(plotsOf, {
+  const analysis = analyzeAcrossSites(plotsOf, {
     prices,
     blocks: settings.blocks === 'fixed' ? 'auto' : 'none',
     bandPerHa: band,

@@ -12,8 +12,8 @@
  *   height (e.g. response 3, residuals 1).
  * - Layers draw in array order (bands first, then curves, then points, then
  *   markers), so a builder puts them in the order it wants them seen.
- * - Colours are not in the spec: a layer carries a `role` (and points a
- *   `groupIndex`), and {@link chartPalette} maps those to colours, so both
+ * - Colors are not in the spec: a layer carries a `role` (and points a
+ *   `groupIndex`), and {@link chartPalette} maps those to colors, so both
  *   renderers agree without the spec fixing a look.
  */
 import type { ModelName } from '../models/modelTypes';
@@ -44,7 +44,7 @@ export interface PointLayer {
   kind: 'points';
   /** Legend text, e.g. "Block 2" or "Excluded". */
   name: string;
-  /** 0-based index of the group (block) for marker shape and colour. */
+  /** 0-based index of the group (block) for marker shape and color. */
   groupIndex: number;
   /** Rates, x-axis units. */
   x: number[];
@@ -127,12 +127,12 @@ export interface ChartSpec {
 }
 
 /**
- * The colours and marker shapes both renderers use for roles and groups.
- * Chosen to stay apart for the common colour-vision deficiencies (blue /
+ * The colors and marker shapes both renderers use for roles and groups.
+ * Chosen to stay apart for the common color-vision deficiencies (blue /
  * orange / grey contrasts rather than red against green).
  */
 export const chartPalette = {
-  /** Marker colours for blocks, cycled by `groupIndex`. */
+  /** Marker colors for blocks, cycled by `groupIndex`. */
   groups: ['#1f5fa8', '#d9731a', '#2a8c6f', '#8a4fa3', '#b5475b', '#5b6770'],
   /** Marker shapes for blocks, cycled by `groupIndex`. */
   symbols: ['circle', 'square', 'triangle', 'diamond', 'cross', 'star'] as const,

@@ -78,7 +78,7 @@ function axisTicks(axis: ChartAxis, layers: ChartLayer[], which: 'x' | 'y'): Nic
   const [lo, hi] = extent(layers, which);
   const t = niceTicks(axis.min ?? lo, axis.max ?? hi, which === 'x' ? 6 : 5);
   if (axis.zeroLine && which === 'y') {
-    // Residuals read best around a centred zero.
+    // Residuals read best around a centered zero.
     const m = Math.max(Math.abs(t.min), Math.abs(t.max));
     return niceTicks(-m, m, 4);
   }

@@ -7,7 +7,7 @@
  * stage touches only analyzeTrials, not every writer.
  */
 import type { ModelName, FitStatus } from '../models/modelTypes';
-import type { ResponseOverCheckOutcome } from '../sites/siteResponseOverCheck';
+import type { ResponseOverCheckOutcome } from '../analysis/siteResponseOverCheck';
 import type { Plot, SourceFile, CropId } from '../table/plotTable';
 import type { ReportSettings, PriceTerms } from './reportSettings';
 

@@ -27,7 +27,7 @@ export interface SampleSummary {
 }
 
 /**
- * Summarises a sample.
+ * Summarizes a sample.
  * @param values - the sample, any unit (e.g. yield in kg/ha); at least two finite values
  * @param what - how to name the values in an error message, default "values"
  * @returns the summary; every field but n and cvPercent is in the values' unit (variance in its square)

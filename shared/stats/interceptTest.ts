@@ -41,7 +41,7 @@ export interface InterceptTestResult {
   /** p-value of the F-test, equal to the two-sided p of t. */
   p: number;
   /**
-   * AICc(line through the origin) − AICc(straight line). Positive favours keeping
+   * AICc(line through the origin) − AICc(straight line). Positive favors keeping
    * the intercept; within about ±2 the two are hard to tell apart (Burnham &
    * Anderson §2.6). Null when n < 5, where the straight line's AICc is undefined.
    */

@@ -1,5 +1,5 @@
 /**
- * One-way analysis of variance (completely randomised design) with treatment
+ * One-way analysis of variance (completely randomized design) with treatment
  * means, their standard errors, CV% and Fisher's LSD.
  *
  * SS_between = Σ nᵢ (ȳᵢ − ȳ)², SS_within = Σᵢ Σⱼ (yᵢⱼ − ȳᵢ)², F = MS_between / MS_within
@@ -110,7 +110,7 @@ export function oneWayAnova(input: OneWayAnovaInput): OneWayAnovaResult {
   if (ssBetween === 0 && ssWithin === 0) {
     throw new StatsInputError(
       'constant-values',
-      `oneWayAnova: y: all ${n} values equal ${String(y[0])}; there is no variation to analyse.`,
+      `oneWayAnova: y: all ${n} values equal ${String(y[0])}; there is no variation to analyze.`,
     );
   }
 

@@ -1,7 +1,7 @@
 /**
  * Pearson's product-moment correlation with its t-test and a Fisher-z interval.
  *
- * r = Sxy / √(Sxx Syy) from sums of centred products (two-pass, so values with
+ * r = Sxy / √(Sxx Syy) from sums of centered products (two-pass, so values with
  * many shared leading digits keep their precision); t = r √((n − 2)/(1 − r²))
  * on n − 2 df tests ρ = 0 (Snedecor & Cochran, Statistical Methods, 8th ed.,
  * §10.5). The interval maps z = atanh r, whose standard error is 1/√(n − 3),
@@ -59,7 +59,7 @@ export function pearsonCorrelation(
   checkPairs(x, y, 'pearsonCorrelation');
   assertLevel(confidence, 'pearsonCorrelation: confidence');
   const n = x.length;
-  const r = correlationOfCentred(x, y);
+  const r = correlationOfCentered(x, y);
   const df = n - 2;
   const t = Math.abs(r) === 1 ? r * Infinity : r * Math.sqrt(df / (1 - r * r));
   let interval: CorrelationInterval | null = null;
@@ -90,14 +90,14 @@ export function checkPairs(x: ArrayLike<number>, y: ArrayLike<number>, fn: strin
 }
 
 /**
- * r from centred sums, clamped to [−1, 1]; inputs already checked.
+ * r from centered sums, clamped to [−1, 1]; inputs already checked.
  * @param x - first variable, finite, varying
  * @param y - second variable, finite, varying, same length
  * @returns Pearson's r
  * @example
- * correlationOfCentred([1, 2, 3], [3, 2, 1]) // -1
+ * correlationOfCentered([1, 2, 3], [3, 2, 1]) // -1
  */
-export function correlationOfCentred(x: ArrayLike<number>, y: ArrayLike<number>): number {
+export function correlationOfCentered(x: ArrayLike<number>, y: ArrayLike<number>): number {
   const mx = sampleMean(x);
   const my = sampleMean(y);
   // Deviations are divided by their largest size so the squares can neither

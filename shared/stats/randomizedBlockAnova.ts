@@ -1,5 +1,5 @@
 /**
- * Randomised complete block ANOVA: treatments × blocks, one plot per cell,
+ * Randomized complete block ANOVA: treatments × blocks, one plot per cell,
  * model y = μ + blockⱼ + treatmentᵢ + e.
  *
  * Complete data: SS_blocks = t Σ (ȳ.ⱼ − ȳ)², SS_treatments = b Σ (ȳᵢ. − ȳ)²,
@@ -74,7 +74,7 @@ export interface RandomizedBlockResult {
 }
 
 /**
- * ANOVA of a randomised complete block trial.
+ * ANOVA of a randomized complete block trial.
  * @param input - treatment and block labels, responses, alpha
  * @returns the ANOVA table, treatment F-test, means with SEs, CV%, Fisher's LSD and missing-plot notes
  * @throws {StatsInputError} "length-mismatch"; "non-finite" in y; "bad-argument" for a missing label, alpha
@@ -122,7 +122,7 @@ export function randomizedBlockAnova(input: RandomizedBlockInput): RandomizedBlo
   if (Array.prototype.every.call(y, (v: number) => v === y[0])) {
     throw new StatsInputError(
       'constant-values',
-      `randomizedBlockAnova: y: all ${n} values equal ${String(y[0])}; there is no variation to analyse.`,
+      `randomizedBlockAnova: y: all ${n} values equal ${String(y[0])}; there is no variation to analyze.`,
     );
   }
   const shift = y[0];

@@ -7,7 +7,7 @@
  * exact permutation p-value would be slightly different (Conover §5.4 gives tables).
  */
 import { averageRanks } from './ranks';
-import { checkPairs, correlationOfCentred } from './pearson';
+import { checkPairs, correlationOfCentered } from './pearson';
 import { studentTTwoSidedP } from './distributions';
 
 export interface SpearmanResult {
@@ -38,7 +38,7 @@ export function spearmanCorrelation(x: ArrayLike<number>, y: ArrayLike<number>):
   const rx = averageRanks(x);
   const ry = averageRanks(y);
   const n = x.length;
-  const rho = correlationOfCentred(rx, ry);
+  const rho = correlationOfCentered(rx, ry);
   const df = n - 2;
   const t = Math.abs(rho) === 1 ? rho * Infinity : rho * Math.sqrt(df / (1 - rho * rho));
   return { n, rho, t, df, p: studentTTwoSidedP(t, df), ties: hasTies(x) || hasTies(y) };

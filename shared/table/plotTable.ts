@@ -117,7 +117,7 @@ export interface PlotTable {
 }
 
 /** Plots that take part in fitting: not excluded, with both rate and yield present. */
-export function analysablePlots(table: PlotTable): Plot[] {
+export function analyzablePlots(table: PlotTable): Plot[] {
   return table.plots.filter(
     (p) => p.excluded === null && p.rateKgHa !== null && p.yieldKgHa !== null,
   );

@@ -5,7 +5,7 @@
  * hold the two side by side, and whether a gain at rate zero is present. The
  * numbers all come from the pipeline; this only words and formats them.
  */
-import type { ResponseOverCheckOutcome } from '../../../shared/sites/siteResponseOverCheck';
+import type { ResponseOverCheckOutcome } from '../../../shared/analysis/siteResponseOverCheck';
 import type { CropId } from '../../../shared/table/plotTable';
 import {
   displayUnits,

@@ -9,10 +9,10 @@
 import { economicOptimum, type EconomicOptimum } from '../../../shared/economics/economicOptimum';
 import type { Prices } from '../../../shared/economics/priceRatio';
 import type { ModelName } from '../../../shared/models/modelTypes';
-import type { AcrossSiteAnalysis } from '../../../shared/sites/analyseAcrossSites';
-import { leadingModel } from '../../../shared/sites/leadingModel';
-import type { RegionalReturn } from '../../../shared/sites/regionalReturn';
-import { repriceAcrossSites } from '../../../shared/sites/repriceAcrossSites';
+import type { AcrossSiteAnalysis } from '../../../shared/analysis/analyzeAcrossSites';
+import { leadingModel } from '../../../shared/analysis/leadingModel';
+import type { RegionalReturn } from '../../../shared/analysis/regionalReturn';
+import { repriceAcrossSites } from '../../../shared/analysis/repriceAcrossSites';
 import type { FitData, SiteAnalysis } from './siteAnalysis';
 
 /**

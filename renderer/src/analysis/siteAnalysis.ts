@@ -1,6 +1,6 @@
 /**
  * The price-free analysis in the worker, site by site: the one pipeline of
- * shared/sites (planAcrossSites, analyseSite per site, acrossSites), with a
+ * shared/sites (planAcrossSites, analyzeSite per site, acrossSites), with a
  * progress report after each site so a cancel can arrive between sites. The
  * result is plain data; the window re-prices it (repriceAcrossSites) and
  * applies the user's model choices (chooseSiteModels) without refitting.
@@ -13,15 +13,15 @@ import type { ModelRank } from '../../../shared/models/fitAllModels';
 import type { BlockTerms, ModelName } from '../../../shared/models/modelTypes';
 import {
   acrossSites,
-  analyseSite as analysePipelineSite,
+  analyzeSite as analyzePipelineSite,
   planAcrossSites,
   type AcrossSiteAnalysis,
   type FitData,
   type SiteAnalysis as PipelineSite,
-} from '../../../shared/sites/analyseAcrossSites';
-import type { CommonResponseTests } from '../../../shared/sites/commonResponseTests';
-import type { ResponseOverCheckOutcome } from '../../../shared/sites/siteResponseOverCheck';
-import type { SitePlots } from '../../../shared/sites/sitePlots';
+} from '../../../shared/analysis/analyzeAcrossSites';
+import type { CommonResponseTests } from '../../../shared/analysis/commonResponseTests';
+import type { ResponseOverCheckOutcome } from '../../../shared/analysis/siteResponseOverCheck';
+import type { SitePlots } from '../../../shared/analysis/sitePlots';
 import type { PearsonResult } from '../../../shared/stats/pearson';
 import type { PlotTable } from '../../../shared/table/plotTable';
 
@@ -127,7 +127,7 @@ export function siteViews(output: AnalysisOutput): SiteAnalysis[] {
  * @param progress - awaited before each site (the worker yields there so a cancel can arrive)
  * @returns the pipeline's analysis and the sites' plots
  */
-export async function analyseTable(
+export async function analyzeTable(
   input: AnalysisInput,
   progress: (done: number, total: number, note: string) => Promise<void>,
 ): Promise<AnalysisOutput> {
@@ -140,7 +140,7 @@ export async function analyseTable(
   const sites: PipelineSite[] = [];
   for (const [i, plots] of plan.plots.entries()) {
     await progress(i, plan.plots.length + 1, plots.site);
-    sites.push(analysePipelineSite(plots, plan.options));
+    sites.push(analyzePipelineSite(plots, plan.options));
   }
   await progress(plan.plots.length, plan.plots.length + 1, 'across sites');
   return { analysis: acrossSites(plan, sites), plots: [...plan.plots] };

@@ -6,7 +6,7 @@
 import type { EconomicOptimum } from '../../../shared/economics/economicOptimum';
 import type { ModelName } from '../../../shared/models/modelTypes';
 import type { ChartLayer, ChartSpec, PointLayer } from '../../../shared/report/chartSpec';
-import type { RegionalReturn } from '../../../shared/sites/regionalReturn';
+import type { RegionalReturn } from '../../../shared/analysis/regionalReturn';
 import type { CropId, Plot } from '../../../shared/table/plotTable';
 import { rateFromKgHa, type RateUnit } from '../../../shared/units/convertRate';
 import { yieldFromKgHa, type YieldUnit } from '../../../shared/units/convertYield';

@@ -54,7 +54,7 @@ export function loadSession<T>(
 /**
  * Writes the session. A full storage quota is reported, not thrown.
  * @param store - localStorage or a fake
- * @param session - JSON-serialisable session
+ * @param session - JSON-serializable session
  * @returns null when saved, or a message for the user
  */
 export function saveSession(store: KeyValueStore, session: unknown): string | null {

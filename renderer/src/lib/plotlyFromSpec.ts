@@ -2,7 +2,7 @@
  * Turns the engine's neutral chart description (shared/report/chartSpec) into
  * Plotly's data and layout. Only drawing decisions live here — which axis a
  * panel gets, how a band or a marker is drawn — never a number the engine did
- * not compute. Colours come from the shared chartPalette so the screen and the
+ * not compute. Colors come from the shared chartPalette so the screen and the
  * printed reports look alike.
  */
 import {
@@ -22,10 +22,10 @@ export interface PlotlyFigure {
 
 export interface FigureOptions {
   /**
-   * Colour alternative curves by their order (shared palette, with the model's
+   * Color alternative curves by their order (shared palette, with the model's
    * dash), for charts where each curve is its own site rather than a rival fit.
    */
-  colourCurves?: boolean;
+  colorCurves?: boolean;
 }
 
 /** Plotly's names for the shared palette's marker shapes. */
@@ -38,7 +38,7 @@ const plotlySymbols: Record<(typeof chartPalette.symbols)[number], string> = {
   star: 'star',
 };
 
-/** One dash per model, so alternative curves are told apart without colour. */
+/** One dash per model, so alternative curves are told apart without color. */
 const MODEL_DASHES: Record<ChartModelName, string> = {
   linear: 'dash',
   proportional: 'longdashdot',
@@ -139,7 +139,7 @@ export function plotlyFromSpec(spec: ChartSpec, options: FigureOptions = {}): Pl
     for (const layer of panel.layers) {
       switch (layer.kind) {
         case 'points': {
-          const colour = layer.excluded
+          const color = layer.excluded
             ? chartPalette.excluded
             : chartPalette.groups[layer.groupIndex % chartPalette.groups.length];
           const symbol =
@@ -157,7 +157,7 @@ export function plotlyFromSpec(spec: ChartSpec, options: FigureOptions = {}): Pl
             xaxis: ids.x,
             yaxis: ids.y,
             marker: {
-              color: colour,
+              color: color,
               size: 8,
               symbol: layer.excluded ? 'x-open' : symbol,
               line: { width: 1, color: '#ffffff' },
@@ -181,7 +181,7 @@ export function plotlyFromSpec(spec: ChartSpec, options: FigureOptions = {}): Pl
                 : layer.role === 'return'
                   ? { color: chartPalette.return, width: 2.5 }
                   : {
-                      color: options.colourCurves
+                      color: options.colorCurves
                         ? chartPalette.groups[curveIndex++ % chartPalette.groups.length]
                         : chartPalette.alternative,
                       width: 1.5,

@@ -2,7 +2,7 @@
 import { untrack } from 'svelte';
 import type { BlockTerms, ModelName } from '../../../shared/models/modelTypes';
 import { ILLUSTRATIVE_PRICES, canonicalPrices } from '../analysis/priceInputs';
-import { chooseSiteModels } from '../../../shared/sites/chooseSiteModels';
+import { chooseSiteModels } from '../../../shared/analysis/chooseSiteModels';
 import type { PlotTable } from '../../../shared/table/plotTable';
 import { regionalAtPrices, siteLeads, siteOptima, type SiteOptimum } from '../analysis/pricing';
 import {
@@ -96,7 +96,7 @@ export class Analysis {
     try {
       // Any valid prices do for the first pricing: the window re-prices without refitting.
       const priced = untrack(() => this.#prices.canonical);
-      const output = await this.#jobs.run<AnalysisOutput>('Fitting sites', 'analyse', {
+      const output = await this.#jobs.run<AnalysisOutput>('Fitting sites', 'analyze', {
         table: $state.snapshot(table),
         blocks: this.blocks,
         prices: priced.ok ? { ...priced.prices } : canonicalPrices(ILLUSTRATIVE_PRICES),

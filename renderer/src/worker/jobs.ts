@@ -5,7 +5,7 @@ import { isImportError } from '../../../shared/import/importError';
 import type { RawWorkbook } from '../../../shared/import/rawWorkbook';
 import { readTrialFile } from '../../../shared/import/readTrialFile';
 import type { JobContext, JobHandler } from '../lib/workerProtocol';
-import { analyseTable, type AnalysisInput, type AnalysisOutput } from '../analysis/siteAnalysis';
+import { analyzeTable, type AnalysisInput, type AnalysisOutput } from '../analysis/siteAnalysis';
 import { siteIntervals, type IntervalInput } from '../analysis/intervals';
 import { analyzeTrials, type AnalyzeMeta } from '../../../shared/report/analyzeTrials';
 import type { ReportSettings } from '../../../shared/report/reportSettings';
@@ -46,8 +46,8 @@ export async function readFiles(files: TrialFileBytes[], ctx: JobContext): Promi
  * @param ctx - progress per site, and cancel
  * @returns plain-data results the window re-prices without refitting
  */
-export function analyse(input: AnalysisInput, ctx: JobContext): Promise<AnalysisOutput> {
-  return analyseTable(input, (done, total, note) => ctx.progress(done, total, note));
+export function analyze(input: AnalysisInput, ctx: JobContext): Promise<AnalysisOutput> {
+  return analyzeTable(input, (done, total, note) => ctx.progress(done, total, note));
 }
 
 /**
@@ -97,7 +97,7 @@ export async function workbook(
 
 export const jobHandlers: Record<string, JobHandler> = {
   readFiles: readFiles as JobHandler,
-  analyse: analyse as JobHandler,
+  analyze: analyze as JobHandler,
   intervals: intervals as JobHandler,
   report: report as JobHandler,
   workbook: workbook as JobHandler,

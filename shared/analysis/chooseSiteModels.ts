@@ -18,7 +18,7 @@ function sameChoices(
 
 /**
  * The same analysis with other per-site model choices.
- * @param analysis - from analyseAcrossSites (or an earlier chooseSiteModels)
+ * @param analysis - from analyzeAcrossSites (or an earlier chooseSiteModels)
  * @param siteModels - site → the model the user picked; an empty record means every site's
  *   recommendation model
  * @returns the analysis itself when the choices are unchanged, else a new one whose regional

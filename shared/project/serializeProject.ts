@@ -8,9 +8,9 @@ import type { PlotrateProject } from './projectFormat';
  * @param project the project to write
  * @param savedAt the moment of saving (caller's clock)
  * @returns UTF-8 text to write to a `.plotrate` file
- * @example serialiseProject(p, new Date()).startsWith('{\n  "format": "plotrate-project"') // true
+ * @example serializeProject(p, new Date()).startsWith('{\n  "format": "plotrate-project"') // true
  */
-export function serialiseProject(project: PlotrateProject, savedAt: Date): string {
+export function serializeProject(project: PlotrateProject, savedAt: Date): string {
   // Written field by field so the identifying fields come first and nothing
   // outside the format (a stray property on the object) reaches the file.
   const ordered: PlotrateProject = {

@@ -9,9 +9,9 @@ import { describe, expect, it } from 'vitest';
 import type { ModelRank } from '../shared/models/fitAllModels';
 import { MODEL_NAMES, type FitStatus, type ModelName } from '../shared/models/modelTypes';
 import { analyzeTrials } from '../shared/report/analyzeTrials';
-import { analyseAcrossSites } from '../shared/sites/analyseAcrossSites';
-import { recommendationModel } from '../shared/sites/recommendationModel';
-import { pooledPlotTable } from './sites.fixtures';
+import { analyzeAcrossSites } from '../shared/analysis/analyzeAcrossSites';
+import { recommendationModel } from '../shared/analysis/recommendationModel';
+import { pooledPlotTable } from './analysis.fixtures';
 
 /** Fits and a ranking from a list of (model, status, ΔAICc) in AICc order; unlisted models are unranked. */
 function ranked(list: [ModelName, FitStatus, number][]) {
@@ -106,7 +106,7 @@ describe('the report and the regional return recommend from the same model', () 
     grainPricePerKg: report.prices.grainPricePerKg,
     nutrientPricePerKg: report.prices.nutrientPricePerKg,
   };
-  const analysis = analyseAcrossSites(table, { prices, blocks: 'none' });
+  const analysis = analyzeAcrossSites(table, { prices, blocks: 'none' });
 
   it("analyzeTrials' bestModel is each site's recommendationModel and the model it adds to the regional mean", () => {
     expect(report.sites.map((s) => s.site)).toEqual(analysis.sites.map((s) => s.site));

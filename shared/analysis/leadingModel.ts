@@ -5,11 +5,11 @@
  * model from here, so they speak of the same curve.
  */
 import type { ModelName } from '../models/modelTypes';
-import type { SiteAnalysis } from './analyseSite';
+import type { SiteAnalysis } from './analyzeSite';
 
 /**
  * The leading model of one site.
- * @param site - the site's analysis (analyseSite or analyseAcrossSites)
+ * @param site - the site's analysis (analyzeSite or analyzeAcrossSites)
  * @param siteModels - site → the model the user picked (may be empty)
  * @returns the picked model when it was fitted, else the recommendation model, or null
  * @example

@@ -1,9 +1,9 @@
-// Each site's response over the check, as the one pipeline (analyseAcrossSites → analyseSite)
+// Each site's response over the check, as the one pipeline (analyzeAcrossSites → analyzeSite)
 // carries it, on a small invented site, against the arithmetic worked here by hand and an
 // independent fitLeastSquares on the same gains built by hand.
 import { describe, expect, it } from 'vitest';
-import { analyseAcrossSites, type SiteAnalysis } from '../shared/sites/analyseAcrossSites';
-import type { ResponseOverCheckOutcome } from '../shared/sites/siteResponseOverCheck';
+import { analyzeAcrossSites, type SiteAnalysis } from '../shared/analysis/analyzeAcrossSites';
+import type { ResponseOverCheckOutcome } from '../shared/analysis/siteResponseOverCheck';
 import { fitLeastSquares } from '../shared/stats/leastSquares';
 import type { Plot, PlotTable } from '../shared/table/plotTable';
 
@@ -31,7 +31,7 @@ function table(rows: [string | null, number, number][], site = 'Hazel Ford'): Pl
 }
 
 function siteOf(rows: [string | null, number, number][]): SiteAnalysis {
-  return analyseAcrossSites(table(rows), { prices }).sites[0];
+  return analyzeAcrossSites(table(rows), { prices }).sites[0];
 }
 
 function outcome(s: SiteAnalysis): ResponseOverCheckOutcome {
@@ -60,7 +60,7 @@ const invented: [string, number, number][] = [
   ['2', 150, 7300],
 ];
 
-describe("analyseSite's response over the check", () => {
+describe("analyzeSite's response over the check", () => {
   const s = siteOf(invented);
   const r = outcome(s);
   const x = [50, 100, 150, 50, 100, 150];

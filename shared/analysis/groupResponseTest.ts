@@ -81,17 +81,17 @@ export function groupResponseTest(
     const g = groups.indexOf(groupOf.get(s.site) as string);
     const terms = rateTerms(model, s.rateKgHa);
     const m = s.yieldKgHa.length;
-    // Centre within the site: absorbs the site level (Frisch–Waugh–Lovell).
-    const centre = (src: ArrayLike<number>, dst: Float64Array) => {
+    // Center within the site: absorbs the site level (Frisch–Waugh–Lovell).
+    const center = (src: ArrayLike<number>, dst: Float64Array) => {
       let mean = 0;
       for (let i = 0; i < m; i++) mean += src[i];
       mean /= m;
       for (let i = 0; i < m; i++) dst[offset + i] = src[i] - mean;
     };
-    centre(s.yieldKgHa, y);
+    center(s.yieldKgHa, y);
     terms.forEach((t, j) => {
-      centre(t, common[j]);
-      centre(t, byGroup[g][j]);
+      center(t, common[j]);
+      center(t, byGroup[g][j]);
     });
     offset += m;
   }

@@ -4,7 +4,7 @@
  * pooled plots (pooledCurveTest). A site that could not be fitted is listed as left out of
  * every plateau test with its reason.
  */
-import type { SiteAnalysis } from './analyseSite';
+import type { SiteAnalysis } from './analyzeSite';
 import { testCommonResponse, type CommonResponseTests } from './commonResponseTests';
 import { MODEL_LABEL } from './modelLabel';
 import type { AcrossSiteSettings } from './planAcrossSites';

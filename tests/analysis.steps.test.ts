@@ -3,28 +3,28 @@
 import { describe, expect, it } from 'vitest';
 import {
   acrossSites,
-  analyseAcrossSites,
-  analyseSite,
+  analyzeAcrossSites,
+  analyzeSite,
   planAcrossSites,
-} from '../shared/sites/analyseAcrossSites';
-import { chooseSiteModels } from '../shared/sites/chooseSiteModels';
-import { leadingModel } from '../shared/sites/leadingModel';
-import { repriceAcrossSites } from '../shared/sites/repriceAcrossSites';
-import { SitesInputError } from '../shared/sites/sitesInputError';
+} from '../shared/analysis/analyzeAcrossSites';
+import { chooseSiteModels } from '../shared/analysis/chooseSiteModels';
+import { leadingModel } from '../shared/analysis/leadingModel';
+import { repriceAcrossSites } from '../shared/analysis/repriceAcrossSites';
+import { SitesInputError } from '../shared/analysis/sitesInputError';
 import { pearsonCorrelation } from '../shared/stats/pearson';
-import { sitePlots } from '../shared/sites/sitePlots';
-import { pooledPlotTable } from './sites.fixtures';
+import { sitePlots } from '../shared/analysis/sitePlots';
+import { pooledPlotTable } from './analysis.fixtures';
 
 const prices = { grainPricePerKg: 0.18, nutrientPricePerKg: 1.1 };
 const table = pooledPlotTable();
-const whole = analyseAcrossSites(table, { prices });
+const whole = analyzeAcrossSites(table, { prices });
 
-describe('planAcrossSites, analyseSite and acrossSites', () => {
+describe('planAcrossSites, analyzeSite and acrossSites', () => {
   it('site by site give the same analysis as the one-call form', () => {
     const plan = planAcrossSites(table, { prices });
     const steps = acrossSites(
       plan,
-      plan.plots.map((p) => analyseSite(p, plan.options)),
+      plan.plots.map((p) => analyzeSite(p, plan.options)),
     );
     expect(steps.regional.regional.bestRateKgHa).toBe(whole.regional.regional.bestRateKgHa);
     expect(steps.sites.map((s) => s.recommended.model)).toEqual(
@@ -40,12 +40,12 @@ describe('planAcrossSites, analyseSite and acrossSites', () => {
 
   it('acrossSites refuses sites that are not the plan’s, in its order', () => {
     const plan = planAcrossSites(table, { prices });
-    const sites = plan.plots.map((p) => analyseSite(p, plan.options));
+    const sites = plan.plots.map((p) => analyzeSite(p, plan.options));
     expect(() => acrossSites(plan, [...sites].reverse())).toThrow(SitesInputError);
     expect(() => acrossSites(plan, sites.slice(1))).toThrow(/in the plan's order/);
   });
 
-  it("analyseSite gives each site's Pearson r of yield on rate, as stats/pearson computes it", () => {
+  it("analyzeSite gives each site's Pearson r of yield on rate, as stats/pearson computes it", () => {
     const plots = sitePlots(table);
     for (const [i, s] of whole.sites.entries()) {
       const r = pearsonCorrelation(plots[i].rateKgHa, plots[i].yieldKgHa);
@@ -73,7 +73,7 @@ describe('leadingModel and chooseSiteModels', () => {
   it("chooseSiteModels puts the user's model in the regional mean, as a fresh analysis with that choice", () => {
     const mine = chooseSiteModels(whole, { [first.site]: other });
     expect(mine.regional.sitesUsed.find((u) => u.site === first.site)?.model).toBe(other);
-    const fresh = analyseAcrossSites(table, { prices, siteModels: { [first.site]: other } });
+    const fresh = analyzeAcrossSites(table, { prices, siteModels: { [first.site]: other } });
     expect(mine.regional.regional.meanReturnPerHa).toEqual(fresh.regional.regional.meanReturnPerHa);
     expect(mine.regional.regional.siteOptima).toEqual(fresh.regional.regional.siteOptima);
     // The other sites keep their recommendation models.
@@ -84,7 +84,7 @@ describe('leadingModel and chooseSiteModels', () => {
   it('repriceAcrossSites after chooseSiteModels matches a fresh analysis at the new prices and choice', () => {
     const dearer = { ...prices, nutrientPricePerKg: 1.6, applicationCostPerHa: 12 };
     const moved = repriceAcrossSites(chooseSiteModels(whole, { [first.site]: other }), dearer);
-    const fresh = analyseAcrossSites(table, {
+    const fresh = analyzeAcrossSites(table, {
       prices: dearer,
       siteModels: { [first.site]: other },
     });

@@ -4,7 +4,7 @@
  */
 import { curveValue } from '../models/curveValue';
 import type { ModelName } from '../models/modelTypes';
-import type { FitData, SiteAnalysis } from './analyseSite';
+import type { FitData, SiteAnalysis } from './analyzeSite';
 import type { SiteLeftOut } from './commonResponseTests';
 import { leadingModel } from './leadingModel';
 import { MODEL_LABEL } from './modelLabel';
@@ -35,7 +35,7 @@ function gives(fit: FitData): boolean {
 
 /**
  * Each site's gain curve for the regional return, or why it has none.
- * @param sites - the sites' analyses (analyseSite)
+ * @param sites - the sites' analyses (analyzeSite)
  * @param choice - "best" (each site's leading model) or one model for all sites
  * @param siteModels - the user's model per site, used where "best" applies
  * @returns the curves used, with notes, and the sites left out with the reason

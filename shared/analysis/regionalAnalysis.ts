@@ -1,12 +1,12 @@
 /**
- * The regional rate of a set of analysed sites: each site's gain curve (regionalCurves) on one
+ * The regional rate of a set of analyzed sites: each site's gain curve (regionalCurves) on one
  * rate grid that, by default, ends at the lowest of the sites' highest tested rates, so no
  * site curve is extended past its data; the mean return at the settings' prices; and the
  * sentence and cautions shown with it.
  */
 import { curveValue } from '../models/curveValue';
 import type { ModelName } from '../models/modelTypes';
-import type { SiteAnalysis } from './analyseSite';
+import type { SiteAnalysis } from './analyzeSite';
 import type { SiteLeftOut } from './commonResponseTests';
 import type { AcrossSiteSettings } from './planAcrossSites';
 import { rateGrid } from './rateGrid';
@@ -34,7 +34,7 @@ export interface RegionalAnalysis {
 }
 
 /**
- * The regional rate of a set of analysed sites at the settings' prices, models and grid.
+ * The regional rate of a set of analyzed sites at the settings' prices, models and grid.
  * @param sites - the sites' analyses
  * @param o - the analysis settings (prices, regional model, site models, grid, band)
  * @returns the regional return, its sentence and cautions, sites used and left out

@@ -236,8 +236,8 @@ export function testCommonResponse(
 
   let siteLevels: PooledModelFit | null = null;
   if (hasLevels) {
-    // Centre y and each rate term within every level cell; the slope fit on the
-    // centred columns has the SSE of the model with one indicator per cell.
+    // Center y and each rate term within every level cell; the slope fit on the
+    // centered columns has the SSE of the model with one indicator per cell.
     const yc = Float64Array.from(y);
     const tc = terms.map((t) => Float64Array.from(t));
     let cellCount = 0;

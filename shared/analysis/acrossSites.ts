@@ -1,9 +1,9 @@
 /**
- * The across step of the analysis: from every site's analysis (analyseSite) to what needs
+ * The across step of the analysis: from every site's analysis (analyzeSite) to what needs
  * them all together: the side-by-side rows, the tests of a shared response, the regional rate,
  * the share of sites that responded, and the same per group of sites.
  */
-import type { SiteAnalysis } from './analyseSite';
+import type { SiteAnalysis } from './analyzeSite';
 import { groupAnalysis, type GroupAnalysis } from './groupAnalysis';
 import type { AcrossSitePlan, AcrossSiteSettings } from './planAcrossSites';
 import { regionalAnalysis, type RegionalAnalysis } from './regionalAnalysis';
@@ -15,7 +15,7 @@ import { SitesInputError } from './sitesInputError';
 export interface AcrossSiteAnalysis {
   options: AcrossSiteSettings;
   sites: SiteAnalysis[];
-  /** Group columns not analysed by default, with the reason. */
+  /** Group columns not analyzed by default, with the reason. */
   groupKeysSkipped: { key: string; reason: string }[];
   /** One row per site and model, at the current prices. */
   rows: SiteModelRow[];
@@ -26,14 +26,14 @@ export interface AcrossSiteAnalysis {
 }
 
 /**
- * The across step: from the sites' analyses (analyseSite, in the plan's order) to the rows,
+ * The across step: from the sites' analyses (analyzeSite, in the plan's order) to the rows,
  * the shared-response tests, the regional rate, the response share and the groups.
  * @param plan - from planAcrossSites
- * @param sites - analyseSite of each of plan.plots, same order
- * @returns the whole analysis, as analyseAcrossSites
+ * @param sites - analyzeSite of each of plan.plots, same order
+ * @returns the whole analysis, as analyzeAcrossSites
  * @throws {SitesInputError} "bad-argument" when the sites do not match the plan's plots
  * @example
- * acrossSites(plan, plan.plots.map((p) => analyseSite(p, plan.options))).response.share // e.g. 0.75
+ * acrossSites(plan, plan.plots.map((p) => analyzeSite(p, plan.options))).response.share // e.g. 0.75
  */
 export function acrossSites(
   plan: AcrossSitePlan,

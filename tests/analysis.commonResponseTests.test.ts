@@ -2,12 +2,12 @@
 // anova() on lm fits of the same invented plots: tests/fixtures/sites/pooled.R
 // wrote pooled.plots.csv and pooled.anova.csv (the R version is in its first line).
 import { describe, expect, it } from 'vitest';
-import { testCommonResponse, type PooledLinearModel } from '../shared/sites/commonResponseTests';
-import { sitePlots } from '../shared/sites/sitePlots';
-import { siteRateEffect } from '../shared/sites/siteRateEffect';
-import { groupResponseTest } from '../shared/sites/groupResponseTest';
-import type { FTestResult } from '../shared/sites/extraSumOfSquaresTest';
-import { fixtureHeader, pooledPlotTable, readRCsv } from './sites.fixtures';
+import { testCommonResponse, type PooledLinearModel } from '../shared/analysis/commonResponseTests';
+import { sitePlots } from '../shared/analysis/sitePlots';
+import { siteRateEffect } from '../shared/analysis/siteRateEffect';
+import { groupResponseTest } from '../shared/analysis/groupResponseTest';
+import type { FTestResult } from '../shared/analysis/extraSumOfSquaresTest';
+import { fixtureHeader, pooledPlotTable, readRCsv } from './analysis.fixtures';
 
 const anova = readRCsv('pooled.anova.csv');
 const sites = sitePlots(pooledPlotTable());

@@ -44,7 +44,7 @@ const SLOPE_LEVEL = 0.95;
 
 /**
  * The response over the check of one site, or why there is none.
- * @param site - the site's analysable plots (kg/ha) with their block labels
+ * @param site - the site's analyzable plots (kg/ha) with their block labels
  * @param alpha - significance level of the intercept test, in (0, 1)
  * @returns the slope over the check with its interval and the intercept test, or `{ problem }`
  *   (no blocks, a block without a zero-rate plot, too few gains)

@@ -1,7 +1,7 @@
 /**
  * The first step of the across-site analysis: the options a caller may give, their defaults,
  * and the checks made once before any fitting (prices, alpha, band, rate grid). It also
- * decides which group columns are analysed by default: only those that are a property of the
+ * decides which group columns are analyzed by default: only those that are a property of the
  * site (one value across its plots).
  */
 import { assertPrices, type Prices } from '../economics/priceRatio';
@@ -48,7 +48,7 @@ export interface AcrossSiteOptions {
   /** Level terms of the common-response tests, default "site". */
   levels?: LevelTerms;
   /**
-   * Group columns to analyse (Plot.groups keys, or "year"). Default: every column that is a
+   * Group columns to analyze (Plot.groups keys, or "year"). Default: every column that is a
    * property of the site, i.e. whose value never differs between the plots of one site; a
    * column that varies within sites (a treatment attribute such as source or timing) is
    * listed in `groupKeysSkipped` with the reason.
@@ -74,17 +74,17 @@ export interface AcrossSitePlan {
 
 /**
  * Checks the options and lays out the analysis, before any fitting: the first of the three
- * steps analyseAcrossSites() takes in one call (planAcrossSites, analyseSite per site,
+ * steps analyzeAcrossSites() takes in one call (planAcrossSites, analyzeSite per site,
  * acrossSites), for a caller that reports progress per site or can stop between sites.
  * @param source - a plot table (rates and yields in kg/ha), or its sites from sitePlots()
- * @param options - as analyseAcrossSites
+ * @param options - as analyzeAcrossSites
  * @returns the sites' plots, the settings with every default, the group columns left out
  * @throws {StatsInputError} "bad-argument" for a price that is not positive (shared/economics)
  * @throws {SitesInputError} "bad-grid" for a bad grid; "bad-argument" for alpha outside (0, 1) or a negative band
  * @example
  * const plan = planAcrossSites(table, { prices });
- * const sites = plan.plots.map((p) => analyseSite(p, plan.options));
- * acrossSites(plan, sites).regional.regional.bestRateKgHa // as analyseAcrossSites(table, { prices })
+ * const sites = plan.plots.map((p) => analyzeSite(p, plan.options));
+ * acrossSites(plan, sites).regional.regional.bestRateKgHa // as analyzeAcrossSites(table, { prices })
  */
 export function planAcrossSites(
   source: PlotTable | readonly SitePlots[],

@@ -1,23 +1,23 @@
 /**
- * The plots of one site gathered for the across-site analysis: the analysable
+ * The plots of one site gathered for the across-site analysis: the analyzable
  * plots only (not excluded, rate and yield present), in table order. A site
  * whose plots are all excluded or incomplete still appears, with no plots and a
  * reason, so that no site ever vanishes from the across-site tables.
  */
-import { analysablePlots, siteNames, type Plot, type PlotTable } from '../table/plotTable';
+import { analyzablePlots, siteNames, type Plot, type PlotTable } from '../table/plotTable';
 
 export interface SitePlots {
   site: string;
-  /** Nutrient rate of each analysable plot, kg/ha. */
+  /** Nutrient rate of each analyzable plot, kg/ha. */
   rateKgHa: Float64Array;
-  /** Yield of each analysable plot at standard moisture, kg/ha. */
+  /** Yield of each analyzable plot at standard moisture, kg/ha. */
   yieldKgHa: Float64Array;
   /** Block label of each plot; null where the sheet has none. */
   block: (string | null)[];
   /** Plot ids, for messages that point back to rows. */
   plotIds: string[];
   /**
-   * Grouping values shared by every analysable plot of the site, column header →
+   * Grouping values shared by every analyzable plot of the site, column header →
    * value; a column whose value differs between the site's plots maps to null.
    * The year appears under the key "year" when the plots carry one.
    */
@@ -32,7 +32,7 @@ export const YEAR_GROUP_KEY = 'year';
 /**
  * Splits a plot table into sites, in first-seen order, keeping every site.
  * @param table - the plot table (rates and yields in kg/ha)
- * @returns one entry per site name in the table, including sites left with no analysable plot
+ * @returns one entry per site name in the table, including sites left with no analyzable plot
  * @example
  * sitePlots(table).map((s) => s.site) // ['North Field', 'Creek Bend', …]
  */
@@ -41,7 +41,7 @@ export function sitePlots(table: PlotTable): SitePlots[] {
   const bySite = new Map<string, Plot[]>(siteNames(table).map((s) => [s, []]));
   const allCount = new Map<string, number>();
   for (const p of table.plots) allCount.set(p.site, (allCount.get(p.site) ?? 0) + 1);
-  for (const p of analysablePlots(table)) bySite.get(p.site)?.push(p);
+  for (const p of analyzablePlots(table)) bySite.get(p.site)?.push(p);
   return [...bySite.entries()].map(([site, plots]) => {
     const groups: Record<string, string | null> = {};
     const keys = new Set<string>();
@@ -64,7 +64,7 @@ export function sitePlots(table: PlotTable): SitePlots[] {
       groups,
       problem:
         plots.length === 0
-          ? `none of the site's ${all} plots can be analysed (each is excluded or lacks a rate or a yield)`
+          ? `none of the site's ${all} plots can be analyzed (each is excluded or lacks a rate or a yield)`
           : null,
     };
   });

@@ -9,7 +9,7 @@
 import { economicOptimum, type OptimumStatus } from '../economics/economicOptimum';
 import type { Prices } from '../economics/priceRatio';
 import { MODEL_NAMES, type FitStatus, type ModelName } from '../models/modelTypes';
-import type { SiteAnalysis } from './analyseSite';
+import type { SiteAnalysis } from './analyzeSite';
 import { SitesInputError } from './sitesInputError';
 
 export interface SiteModelRow {

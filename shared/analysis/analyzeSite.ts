@@ -22,7 +22,7 @@ export type AllModelsFitData = Omit<AllModelsFit, 'fits'> & { fits: Record<Model
 
 export interface SiteAnalysis {
   site: string;
-  /** Analysable plots. */
+  /** Analyzable plots. */
   plots: number;
   /** Why the site could not be fitted at all, or null. */
   problem: string | null;
@@ -98,10 +98,10 @@ function orProblem<T>(compute: () => T): T | { problem: string } {
  * @returns the site's analysis; a site the models refuse keeps its rows with the reason
  * @example
  * const plan = planAcrossSites(table, { prices });
- * const first = analyseSite(plan.plots[0], plan.options);
+ * const first = analyzeSite(plan.plots[0], plan.options);
  * first.recommended.model // e.g. 'quadraticPlateau'
  */
-export function analyseSite(
+export function analyzeSite(
   site: SitePlots,
   settings: Pick<AcrossSiteSettings, 'blocks' | 'alpha' | 'curvePoints'>,
 ): SiteAnalysis {

@@ -8,7 +8,7 @@ import { fitExponential } from '../models/exponential';
 import { fitLinearPlateau } from '../models/linearPlateau';
 import { fitQuadraticPlateau } from '../models/quadraticPlateau';
 import type { ModelFit } from '../models/modelTypes';
-import type { FitData } from './analyseSite';
+import type { FitData } from './analyzeSite';
 import { MODEL_LABEL } from './modelLabel';
 import type { CurveFitOutcome } from './pooledCurveTest';
 

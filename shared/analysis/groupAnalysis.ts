@@ -4,7 +4,7 @@
  * groups differ (linear-model tests with site levels, pooled-versus-group plateau fits). A site
  * with no single value in the column is listed with the reason.
  */
-import type { SiteAnalysis } from './analyseSite';
+import type { SiteAnalysis } from './analyzeSite';
 import type { SiteLeftOut } from './commonResponseTests';
 import { groupResponseTest, type GroupResponseTest } from './groupResponseTest';
 import { MODEL_LABEL } from './modelLabel';

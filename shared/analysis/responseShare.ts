@@ -4,7 +4,7 @@
  * at alpha. It needs no curve, so it does not depend on which model wins. Sites where it cannot
  * be tested are counted apart, not as "no".
  */
-import type { SiteAnalysis } from './analyseSite';
+import type { SiteAnalysis } from './analyzeSite';
 import type { SiteLeftOut } from './commonResponseTests';
 
 /** How many sites responded, by the definition above. */
@@ -23,7 +23,7 @@ const RESPONDED_DEFINITION =
 
 /**
  * The share of the sites whose rate effect is significant, and the sites where it could not be tested.
- * @param sites - the sites' analyses (analyseSite)
+ * @param sites - the sites' analyses (analyzeSite)
  * @returns counts, the share of those assessed, the definition in words and the sites not assessed
  * @example
  * responseShare(sites).share // e.g. 0.75

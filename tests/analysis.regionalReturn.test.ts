@@ -8,11 +8,11 @@ import {
   prepareRegionalReturn,
   regionalReturnAtPrices,
   type SiteGainCurve,
-} from '../shared/sites/regionalReturn';
-import { rateGrid } from '../shared/sites/rateGrid';
-import { regionalRecommendation } from '../shared/sites/regionalRecommendation';
+} from '../shared/analysis/regionalReturn';
+import { rateGrid } from '../shared/analysis/rateGrid';
+import { regionalRecommendation } from '../shared/analysis/regionalRecommendation';
 import { recommendationCautions } from '../shared/economics/recommendationCautions';
-import { SitesInputError } from '../shared/sites/sitesInputError';
+import { SitesInputError } from '../shared/analysis/sitesInputError';
 import { StatsInputError } from '../shared/stats/errors';
 
 /** A gain curve through the points (x, gain), straight between them. */

@@ -8,7 +8,7 @@ import path from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { buildPlotTable, detectColumns, readTrialFile } from '../shared/import';
 import { demoTrial } from '../shared/demo';
-import { analyseAcrossSites, type AcrossSiteAnalysis } from '../shared/sites';
+import { analyzeAcrossSites, type AcrossSiteAnalysis } from '../shared/analysis';
 import type { PlotTable } from '../shared/table/plotTable';
 import { LB_AC_TO_KG_HA } from '../shared/units/unitConstants';
 
@@ -36,10 +36,10 @@ beforeAll(async () => {
     rateBasis: 'nutrient',
     sheets: ['Wheat (metric)'],
   }).table;
-  a = analyseAcrossSites(corn, { prices: { grainPricePerKg: 0.18, nutrientPricePerKg: 1.1 } });
+  a = analyzeAcrossSites(corn, { prices: { grainPricePerKg: 0.18, nutrientPricePerKg: 1.1 } });
 });
 
-describe('analyseAcrossSites on the demo corn sites', () => {
+describe('analyzeAcrossSites on the demo corn sites', () => {
   it('keeps all six corn sites, including the one with a missing and the one with an excluded plot', () => {
     expect(a.sites.map((s) => s.site)).toEqual(cornSites);
     const plots = Object.fromEntries(a.sites.map((s) => [s.site, s.plots]));
@@ -82,9 +82,9 @@ describe('analyseAcrossSites on the demo corn sites', () => {
   });
 });
 
-describe('analyseAcrossSites on the demo wheat sites (metric)', () => {
+describe('analyzeAcrossSites on the demo wheat sites (metric)', () => {
   it('fits both wheat sites and tests them against each other', () => {
-    const w = analyseAcrossSites(wheat, {
+    const w = analyzeAcrossSites(wheat, {
       prices: { grainPricePerKg: 0.22, nutrientPricePerKg: 1.1 },
     });
     expect(w.sites.map((s) => s.site)).toEqual(wheatSites);
@@ -97,10 +97,10 @@ describe('analyseAcrossSites on the demo wheat sites (metric)', () => {
   });
 });
 
-describe('analyseAcrossSites on a grid of 1 lb/ac steps', () => {
+describe('analyzeAcrossSites on a grid of 1 lb/ac steps', () => {
   it('runs the grid from 0 to the highest demo rate in whole lb/ac, its end included', () => {
     const top = Math.max(...demo.cornTreatments.map((t) => t.rateLbAc));
-    const lb = analyseAcrossSites(corn, {
+    const lb = analyzeAcrossSites(corn, {
       prices: { grainPricePerKg: 0.18, nutrientPricePerKg: 1.1 },
       gridStepKgHa: LB_AC_TO_KG_HA,
     });

@@ -22,7 +22,7 @@ export interface SiteRateEffect {
   test: FTestResult | NoTest;
   /** Coefficient of variation of the block × rate ANOVA, %; NaN without residual df. */
   cvPct: number;
-  /** Mean yield of the site's analysable plots, kg/ha. */
+  /** Mean yield of the site's analyzable plots, kg/ha. */
   meanYieldKgHa: number;
 }
 

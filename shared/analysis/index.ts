@@ -6,7 +6,7 @@
  * currency per kg (shared/economics Prices), returns in currency/ha.
  *
  * ```ts
- * analyseAcrossSites(source: PlotTable | SitePlots[], options: AcrossSiteOptions): AcrossSiteAnalysis
+ * analyzeAcrossSites(source: PlotTable | SitePlots[], options: AcrossSiteOptions): AcrossSiteAnalysis
  *   options = { prices: { grainPricePerKg, nutrientPricePerKg, applicationCostPerHa? },
  *               blocks?: 'auto' | 'none' | 'fixed',        // 'auto': fixed where every plot has a block
  *               regionalModel?: 'best' | ModelName,         // each site's recommendationModel, or one model for all
@@ -47,8 +47,8 @@
  * The analysis is plain data (fits without `predict`, see FitData): a worker can post it, and
  * the window can call repriceAcrossSites on the copy.
  *
- * In steps, for progress per site: planAcrossSites(source, options) → analyseSite(plot, plan.options)
- * for each plan.plots[i] → acrossSites(plan, sites); analyseAcrossSites is the one-call form.
+ * In steps, for progress per site: planAcrossSites(source, options) → analyzeSite(plot, plan.options)
+ * for each plan.plots[i] → acrossSites(plan, sites); analyzeAcrossSites is the one-call form.
  * chooseSiteModels(analysis, { site: model }) rebuilds the regional rates with the user's model at
  * those sites (no refit); leadingModel(site, choices) is that model, else the recommendation model.
  *
@@ -74,7 +74,7 @@ export * from './regionalReturn';
 export * from './regionalRecommendation';
 export * from './recommendationModel';
 export * from './siteModelRows';
-export * from './analyseAcrossSites';
+export * from './analyzeAcrossSites';
 export * from './leadingModel';
 export * from './chooseSiteModels';
 export * from './repriceAcrossSites';

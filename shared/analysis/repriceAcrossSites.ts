@@ -30,7 +30,7 @@ function reprice(r: RegionalAnalysis, prices: Prices, bandPerHa: number): Region
 
 /**
  * The same analysis at other prices; the fits and tests are shared, not copied.
- * @param analysis - from analyseAcrossSites
+ * @param analysis - from analyzeAcrossSites
  * @param prices - grain and nutrient price (currency/kg), optional application cost (currency/ha)
  * @param options - a new profitable band (currency/ha)
  * @returns a new analysis with rows (unless rows: false, when the old rows are kept), regional

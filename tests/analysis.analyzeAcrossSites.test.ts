@@ -1,14 +1,14 @@
 // The across-site analysis as a whole, on the invented plots of
 // tests/fixtures/sites/pooled.plots.csv (written by pooled.R with R 4.2.2).
 import { describe, expect, it } from 'vitest';
-import { analyseAcrossSites } from '../shared/sites/analyseAcrossSites';
-import { repriceAcrossSites } from '../shared/sites/repriceAcrossSites';
-import { filterSiteRows, sortSiteRows } from '../shared/sites/siteModelRows';
-import { SitesInputError } from '../shared/sites/sitesInputError';
+import { analyzeAcrossSites } from '../shared/analysis/analyzeAcrossSites';
+import { repriceAcrossSites } from '../shared/analysis/repriceAcrossSites';
+import { filterSiteRows, sortSiteRows } from '../shared/analysis/siteModelRows';
+import { SitesInputError } from '../shared/analysis/sitesInputError';
 import { recommendationCautions } from '../shared/economics/recommendationCautions';
 import { economicOptimum } from '../shared/economics/economicOptimum';
 import type { PlotTable } from '../shared/table/plotTable';
-import { pooledPlotTable, readRCsv } from './sites.fixtures';
+import { pooledPlotTable, readRCsv } from './analysis.fixtures';
 
 const prices = { grainPricePerKg: 0.18, nutrientPricePerKg: 1.1 };
 
@@ -24,10 +24,10 @@ function tableWithEmptySite(): PlotTable {
   return { ...t, plots: [...t.plots, ...extra] };
 }
 
-describe('analyseAcrossSites on the pooled fixture', () => {
-  const a = analyseAcrossSites(tableWithEmptySite(), { prices });
+describe('analyzeAcrossSites on the pooled fixture', () => {
+  const a = analyzeAcrossSites(tableWithEmptySite(), { prices });
 
-  it('analyseAcrossSites keeps a site with no analysable plot, with its reason, in sites and rows', () => {
+  it('analyzeAcrossSites keeps a site with no analyzable plot, with its reason, in sites and rows', () => {
     expect(a.sites.map((s) => s.site)).toEqual([
       'Alder Flats',
       'Birch Hollow',
@@ -52,7 +52,7 @@ describe('analyseAcrossSites on the pooled fixture', () => {
     expect(a.response.notAssessed.map((s) => s.site)).toEqual(['Gorse Lane']);
   });
 
-  it("analyseAcrossSites rows carry each fit's EONR from shared/economics and mark one AICc winner per site", () => {
+  it("analyzeAcrossSites rows carry each fit's EONR from shared/economics and mark one AICc winner per site", () => {
     for (const s of a.sites.slice(0, 6)) {
       const rows = a.rows.filter((r) => r.site === s.site);
       expect(rows.filter((r) => r.aiccWinner).map((r) => r.model)).toEqual([s.fits!.best]);
@@ -61,13 +61,13 @@ describe('analyseAcrossSites on the pooled fixture', () => {
     }
   });
 
-  it('analyseAcrossSites counts every fixture site as responded (R gives rate-effect p < 1e-5 at each)', () => {
+  it('analyzeAcrossSites counts every fixture site as responded (R gives rate-effect p < 1e-5 at each)', () => {
     const r = readRCsv('pooled.anova.csv').filter((x) => x.test === 'rate-effect');
     expect(r.every((x) => Number(x.p) < 1e-5)).toBe(true);
     expect(a.response).toMatchObject({ responded: 6, assessed: 6, share: 1 });
   });
 
-  it("analyseAcrossSites puts the regional rate inside the sites' optimum range, with the cautions", () => {
+  it("analyzeAcrossSites puts the regional rate inside the sites' optimum range, with the cautions", () => {
     const reg = a.regional.regional;
     const d = reg.siteOptimumDistribution!;
     expect(d.n).toBe(6);
@@ -79,7 +79,7 @@ describe('analyseAcrossSites on the pooled fixture', () => {
     expect(a.regional.text.cautions).toBe(recommendationCautions);
   });
 
-  it('analyseAcrossSites analyses each previous crop and tests whether they differ', () => {
+  it('analyzeAcrossSites analyses each previous crop and tests whether they differ', () => {
     expect(a.groups.map((g) => g.key)).toEqual(['previousCrop']);
     const g = a.groups[0];
     expect(g.values.map((v) => [v.value, v.sites.length])).toEqual([
@@ -99,7 +99,7 @@ describe('analyseAcrossSites on the pooled fixture', () => {
 
   it('repriceAcrossSites gives what a fresh analysis at the new prices gives', () => {
     const dear = { grainPricePerKg: 0.18, nutrientPricePerKg: 1.6 };
-    const again = analyseAcrossSites(tableWithEmptySite(), { prices: dear });
+    const again = analyzeAcrossSites(tableWithEmptySite(), { prices: dear });
     const re = repriceAcrossSites(a, dear);
     expect(re.regional.regional.bestRateKgHa).toBe(again.regional.regional.bestRateKgHa);
     expect(Array.from(re.regional.regional.meanReturnPerHa)).toEqual(
@@ -113,15 +113,15 @@ describe('analyseAcrossSites on the pooled fixture', () => {
     expect(re.regional.regional.bestRateKgHa).toBeLessThanOrEqual(a.regional.regional.bestRateKgHa);
   });
 
-  it('analyseAcrossSites throws SitesInputError for alpha outside (0, 1)', () => {
-    expect(() => analyseAcrossSites(pooledPlotTable(), { prices, alpha: 1 })).toThrow(
+  it('analyzeAcrossSites throws SitesInputError for alpha outside (0, 1)', () => {
+    expect(() => analyzeAcrossSites(pooledPlotTable(), { prices, alpha: 1 })).toThrow(
       new SitesInputError('bad-argument', 'alpha is 1; it must lie strictly between 0 and 1.'),
     );
   });
 });
 
 describe('sortSiteRows and filterSiteRows', () => {
-  const a = analyseAcrossSites(tableWithEmptySite(), { prices });
+  const a = analyzeAcrossSites(tableWithEmptySite(), { prices });
   it('sortSiteRows orders by optimum, empty optima last in both directions', () => {
     const asc = sortSiteRows(a.rows, 'optimumRateKgHa');
     const desc = sortSiteRows(a.rows, 'optimumRateKgHa', 'desc');
@@ -140,7 +140,7 @@ describe('sortSiteRows and filterSiteRows', () => {
     expect(rows.map((r) => r.site)).toEqual(['Dunmore East', 'Elm Crossing', 'Fallow Gate']);
   });
   it('sortSiteRows throws for an unknown column', () => {
-    expect(() => sortSiteRows(a.rows, 'colour' as never)).toThrow(/"colour" is not a column/);
+    expect(() => sortSiteRows(a.rows, 'color' as never)).toThrow(/"color" is not a column/);
   });
 });
 
@@ -149,7 +149,7 @@ describe('pooled plateau and exponential tests against R (tests/fixtures/sites/p
   // on a grid, then optimize()), inner fit lm();
   // SSE agrees to 1e-7 relative (a flat minimum: SSE is insensitive to small x0 errors).
   const r = readRCsv('pooledPlateau.csv');
-  const a = analyseAcrossSites(pooledPlotTable(), { prices });
+  const a = analyzeAcrossSites(pooledPlotTable(), { prices });
   for (const model of ['linearPlateau', 'quadraticPlateau', 'exponential'] as const) {
     it(`the ${model} pooled-versus-site-curves F-test matches R's profiled fits`, () => {
       const rows = r.filter((x) => x.model === model);
@@ -190,7 +190,7 @@ describe('pooled plateau and exponential tests against R (tests/fixtures/sites/p
   }
 });
 
-describe('analyseAcrossSites with one model for all sites', () => {
+describe('analyzeAcrossSites with one model for all sites', () => {
   // Cross-check of the grid search against shared/economics' closed form for the quadratic,
   // x* = (PR − b)/(2c) (DESIGN.md): on a 1 kg/ha grid the best rate of a single site's
   // concave quadratic is the grid rate nearest x*, so within 0.5 kg/ha.
@@ -198,7 +198,7 @@ describe('analyseAcrossSites with one model for all sites', () => {
   for (const site of ['Alder Flats', 'Dunmore East', 'Fallow Gate']) {
     it(`the regional rate of ${site} alone is its quadratic EONR to the nearest kg/ha`, () => {
       const one = { ...table, plots: table.plots.filter((p) => p.site === site) };
-      const a = analyseAcrossSites(one, { prices, regionalModel: 'quadratic' });
+      const a = analyzeAcrossSites(one, { prices, regionalModel: 'quadratic' });
       expect(a.regional.sitesUsed).toEqual([{ site, model: 'quadratic', note: '' }]);
       const eonr = economicOptimum(a.sites[0].fits!.fits.quadratic, prices);
       expect(eonr.status).toBe('interior');
@@ -210,11 +210,11 @@ describe('analyseAcrossSites with one model for all sites', () => {
   }
 });
 
-describe('analyseAcrossSites does not depend on the order of the sites', () => {
+describe('analyzeAcrossSites does not depend on the order of the sites', () => {
   it('reversing the sites leaves the regional rate, its range and every pooled F unchanged', () => {
     const t = pooledPlotTable();
-    const a = analyseAcrossSites(t, { prices });
-    const b = analyseAcrossSites({ ...t, plots: [...t.plots].reverse() }, { prices });
+    const a = analyzeAcrossSites(t, { prices });
+    const b = analyzeAcrossSites({ ...t, plots: [...t.plots].reverse() }, { prices });
     expect(b.sites.map((s) => s.site)).toEqual(a.sites.map((s) => s.site).reverse());
     expect(b.regional.regional.bestRateKgHa).toBe(a.regional.regional.bestRateKgHa);
     expect(b.regional.regional.profitableRange).toEqual(a.regional.regional.profitableRange);
@@ -230,9 +230,9 @@ describe('analyseAcrossSites does not depend on the order of the sites', () => {
   });
 });
 
-describe('analyseAcrossSites result as plain data', () => {
+describe('analyzeAcrossSites result as plain data', () => {
   it('survives structuredClone (a worker can post it) and reprices the same after the copy', () => {
-    const a = analyseAcrossSites(pooledPlotTable(), { prices });
+    const a = analyzeAcrossSites(pooledPlotTable(), { prices });
     const copy = structuredClone(a);
     const dear = { grainPricePerKg: 0.18, nutrientPricePerKg: 1.6 };
     expect(repriceAcrossSites(copy, dear).regional.regional.bestRateKgHa).toBe(
@@ -241,7 +241,7 @@ describe('analyseAcrossSites result as plain data', () => {
   });
 });
 
-describe('analyseAcrossSites with a site that never levels off', () => {
+describe('analyzeAcrossSites with a site that never levels off', () => {
   // An invented straight-line site (6000 + 18·x kg/ha with small symmetric deviations): the
   // plateau models and the exponential reach no plateau, so their limit curve stands in
   // (DESIGN.md: the straight line, or the quadratic for the quadratic-plateau).
@@ -264,7 +264,7 @@ describe('analyseAcrossSites with a site that never levels off', () => {
     ['linearPlateau', 'linear'],
   ] as const) {
     it(`keeps the site in the regional mean through the ${limit} when the ${model} has no plateau`, () => {
-      const a = analyseAcrossSites(table, { prices, regionalModel: model });
+      const a = analyzeAcrossSites(table, { prices, regionalModel: model });
       const fit = a.sites.find((s) => s.site === 'Juniper Row')!.fits!.fits[model];
       expect(fit.status).toBe('no-plateau');
       expect(a.regional.sitesLeftOut).toEqual([]);
@@ -275,14 +275,14 @@ describe('analyseAcrossSites with a site that never levels off', () => {
   }
 });
 
-describe('analyseAcrossSites with nothing to fit', () => {
+describe('analyzeAcrossSites with nothing to fit', () => {
   it('lists every site with its reason and gives no regional rate, cautions still attached', () => {
     const t = pooledPlotTable();
     const none = {
       ...t,
       plots: t.plots.map((p) => ({ ...p, excluded: { reason: 'flooded', by: 'user' as const } })),
     };
-    const a = analyseAcrossSites(none, { prices });
+    const a = analyzeAcrossSites(none, { prices });
     expect(a.sites).toHaveLength(6);
     expect(a.sites.every((s) => s.problem !== null && s.fits === null)).toBe(true);
     expect(a.regional.sitesLeftOut).toHaveLength(6);
@@ -296,7 +296,7 @@ describe('analyseAcrossSites with nothing to fit', () => {
   });
 });
 
-describe('analyseAcrossSites with a site the models refuse', () => {
+describe('analyzeAcrossSites with a site the models refuse', () => {
   it("keeps a site with a negative rate, with the models' reason, out of every pooled test", () => {
     const t = pooledPlotTable();
     const bad = t.plots
@@ -307,7 +307,7 @@ describe('analyseAcrossSites with a site the models refuse', () => {
         site: 'Hazel Patch',
         rateKgHa: i === 0 ? -10 : p.rateKgHa,
       }));
-    const a = analyseAcrossSites({ ...t, plots: [...t.plots, ...bad] }, { prices });
+    const a = analyzeAcrossSites({ ...t, plots: [...t.plots, ...bad] }, { prices });
     const hazel = a.sites.find((s) => s.site === 'Hazel Patch')!;
     expect(hazel.fits).toBeNull();
     expect(hazel.problem).toMatch(/a rate cannot be negative/);

@@ -19,30 +19,30 @@
  * "not-fitted" and the reason), and every test or average that leaves a site out
  * lists it with the reason.
  *
- * "Responded" means (analyseSite sets it, responseShare counts it): the site's rate effect (one-way ANOVA of yield
+ * "Responded" means (analyzeSite sets it, responseShare counts it): the site's rate effect (one-way ANOVA of yield
  * on rate as a factor, with blocks when present; siteRateEffect) is significant
  * at alpha (default 0.05). It needs no curve, so it does not depend on which
  * model wins. Sites where it cannot be tested are counted apart, not as "no".
  *
  * The steps live in their own files, in the order they run: planAcrossSites (options, defaults,
- * checks), analyseSite (one site), acrossSites (siteModelRows, sharedResponse, regionalAnalysis,
+ * checks), analyzeSite (one site), acrossSites (siteModelRows, sharedResponse, regionalAnalysis,
  * responseShare, groupAnalysis). This file is the one-call form and re-exports the steps and
  * their types, so callers can keep importing them from here.
  */
 import type { PlotTable } from '../table/plotTable';
 import { acrossSites, type AcrossSiteAnalysis } from './acrossSites';
-import { analyseSite } from './analyseSite';
+import { analyzeSite } from './analyzeSite';
 import { planAcrossSites, type AcrossSiteOptions } from './planAcrossSites';
 import type { SitePlots } from './sitePlots';
 
 export { acrossSites, type AcrossSiteAnalysis } from './acrossSites';
 export {
-  analyseSite,
+  analyzeSite,
   type AllModelsFitData,
   type FitData,
   type InterceptOutcome,
   type SiteAnalysis,
-} from './analyseSite';
+} from './analyzeSite';
 export type { GroupAnalysis, GroupValueAnalysis } from './groupAnalysis';
 export {
   planAcrossSites,
@@ -58,7 +58,7 @@ export type { SharedResponseTests } from './sharedResponse';
 export { siteModelRows } from './siteModelRows';
 
 /**
- * The across-site analysis of a plot table, in one call (planAcrossSites, analyseSite for
+ * The across-site analysis of a plot table, in one call (planAcrossSites, analyzeSite for
  * every site, acrossSites).
  * @param source - a plot table (rates and yields in kg/ha), or its sites from sitePlots()
  * @param options - prices (currency/kg; application cost currency/ha), block terms, regional
@@ -68,17 +68,17 @@ export { siteModelRows } from './siteModelRows';
  * @throws {StatsInputError} "bad-argument" for a price that is not positive (shared/economics)
  * @throws {SitesInputError} "bad-grid" for a bad grid; "bad-argument" for alpha outside (0, 1) or a negative band
  * @example
- * const a = analyseAcrossSites(table, { prices: { grainPricePerKg: 0.18, nutrientPricePerKg: 1.1 } });
+ * const a = analyzeAcrossSites(table, { prices: { grainPricePerKg: 0.18, nutrientPricePerKg: 1.1 } });
  * a.regional.regional.bestRateKgHa   // e.g. 168
  * a.regional.text.cautions           // always shown with the rate
  */
-export function analyseAcrossSites(
+export function analyzeAcrossSites(
   source: PlotTable | readonly SitePlots[],
   options: AcrossSiteOptions,
 ): AcrossSiteAnalysis {
   const plan = planAcrossSites(source, options);
   return acrossSites(
     plan,
-    plan.plots.map((p) => analyseSite(p, plan.options)),
+    plan.plots.map((p) => analyzeSite(p, plan.options)),
   );
 }
