@@ -6,19 +6,24 @@
  */
 import { existsSync, readFileSync, realpathSync, renameSync, writeFileSync, rmSync } from 'node:fs';
 import path from 'node:path';
+import { analysisSettings } from '../shared/analysis/analysisSettings';
+import { analyzeTrial } from '../shared/analysis/analyzeTrial';
+import { priceTrial } from '../shared/analysis/priceTrial';
+import { illustrativePrices } from '../shared/economics/illustrativePrices';
+import { priceTerms, type PriceInput } from '../shared/economics/priceQuote';
+import { importFiles } from '../shared/import/importFiles';
 import { describeRef } from '../shared/quality/qualityFinding';
-import { defaultPrices } from '../shared/report/defaultPrices';
-import { analyzeTrials } from '../shared/report/analyzeTrials';
+import { assembleReport } from '../shared/report/assembleReport';
 import { regionalReturnChart } from '../shared/report/regionalReturnChart';
 import { resultsJson } from '../shared/report/resultsJson';
-import type { PriceInput, ReportSettings, ReportUnits } from '../shared/report/reportSettings';
+import type { DisplaySettings } from '../shared/report/reportSettings';
 import { siteResponseChart } from '../shared/report/siteResponseChart';
-import { tableFromFiles } from '../shared/report/tableFromFiles';
 import { unitScale } from '../shared/report/unitScale';
 import type { TrialReport } from '../shared/report/trialReport';
 import { reportGrowerPages, writeWorkbook } from '../shared/report/workbook';
 import type { SheetImage } from '../shared/report/workbookSite';
-import { displayUnits } from '../shared/units/displayUnits';
+import { displayUnits, type DisplayUnits } from '../shared/units/displayUnits';
+import { rateUnitKg, yieldUnitKg } from '../shared/units/unitWeights';
 import { formatQuantity } from '../shared/units/formatQuantity';
 import { chartPngs } from './chartPng';
 import { growerPdf } from './growerPdf';
@@ -118,17 +123,21 @@ function readInputs(files: string[]): { name: string; bytes: Uint8Array }[] {
   });
 }
 
-/** Prices from the options, filling what is missing with the illustrative ones. */
-function pricesFrom(args: AnalyzeArgs, units: ReportUnits): PriceInput {
-  const d = defaultPrices(args.crop, units);
+/** Prices from the options, filling what is missing with the illustrative ones (as the workspace does). */
+function pricesFrom(args: AnalyzeArgs, units: DisplayUnits): PriceInput {
+  const d = illustrativePrices(args.crop);
   const nutrientGiven = args.nutrientPrice !== null || args.product !== null;
+  const product = args.product
+    ? args.productPrice !== null
+      ? { id: args.product, price: args.productPrice }
+      : null
+    : nutrientGiven
+      ? null
+      : { id: d.productId, price: d.productPerKg * rateUnitKg(units.rate) };
   return {
-    grainPrice: args.grainPrice ?? d.grainPrice,
-    nutrientPrice: args.product ? null : (args.nutrientPrice ?? d.nutrientPrice),
-    product:
-      args.product && args.productPrice !== null
-        ? { id: args.product, price: args.productPrice }
-        : null,
+    grainPrice: args.grainPrice ?? d.grainPerKg * yieldUnitKg(units.yield, args.crop),
+    nutrientPrice: product ? null : args.nutrientPrice,
+    product,
     defaulted: args.grainPrice === null || !nutrientGiven,
   };
 }
@@ -209,13 +218,42 @@ export async function analyzeCommand(
   checkOutputs(args);
   const files = readInputs(args.files);
   log.err(`plotrate: reading ${files.map((f) => f.name).join(', ')}`);
-  const imported = await tableFromFiles(files, {
+  const imported = await importFiles(files, {
     crop: args.crop,
     overrides: args.map,
     sheets: extra.sheets,
   });
+  const units = args.units ? displayUnits(args.units) : imported.inputUnits;
+  const prices = pricesFrom(args, units);
+  if (prices.defaulted) {
+    log.err(
+      `plotrate: no ${args.grainPrice === null ? 'grain' : 'nitrogen'} price given; using illustrative prices (see --grain-price, --nutrient-price).`,
+    );
+  }
+  const display: DisplaySettings = { units, unitSystem: args.units, prices };
+  const terms = priceTerms({ ...display, crop: imported.table.crop });
+  const canonical = {
+    grainPricePerKg: terms.grainPricePerKg,
+    nutrientPricePerKg: terms.nutrientPricePerKg,
+    applicationCostPerHa: terms.applicationCostPerHa,
+  };
+  const settings = analysisSettings({
+    prices: canonical,
+    resamples: args.boot,
+    seed: args.seed,
+    blocks: args.blocks === 'fixed' ? 'auto' : 'none',
+  });
+  const siteCount = new Set(imported.table.plots.map((p) => p.site)).size;
+  log.err(
+    `plotrate: ${imported.table.plots.length} plots at ${siteCount} site${siteCount === 1 ? '' : 's'}; fitting six models per site${args.boot ? ` with ${args.boot} bootstrap resamples` : ''}`,
+  );
+  const step = Math.max(1, Math.ceil(siteCount / 10));
+  const analysis = analyzeTrial(imported.table, settings, (done, total) => {
+    if (total >= 20 && (done % step === 0 || done === total))
+      log.err(`plotrate: analyzed ${done}/${total} sites`);
+  });
   // Data findings do not stop the run, but each names its file, sheet and cell so it can be fixed.
-  const serious = imported.findings.filter((f) => f.severity !== 'info');
+  const serious = [...imported.findings, ...analysis.findings].filter((f) => f.severity !== 'info');
   for (const f of serious.slice(0, 10)) {
     const where = f.refs.length ? describeRef(f.refs[0]) : '';
     log.err(
@@ -224,38 +262,12 @@ export async function analyzeCommand(
   }
   if (serious.length > 10)
     log.err(`plotrate: … ${serious.length - 10} more findings; the workbook lists them by site.`);
-  const units = args.units ? toReportUnits(args.units) : imported.inputUnits;
-  const prices = pricesFrom(args, units);
-  if (prices.defaulted) {
-    log.err(
-      `plotrate: no ${args.grainPrice === null ? 'grain' : 'nitrogen'} price given; using illustrative prices (see --grain-price, --nutrient-price).`,
-    );
-  }
-  const settings: ReportSettings = {
-    units,
-    unitSystem: args.units,
-    crop: args.crop,
-    prices,
-    boot: args.boot,
-    seed: args.seed,
-    blocks: args.blocks,
-    intervalLevel: 0.9,
-  };
-  const siteCount = new Set(imported.table.plots.map((p) => p.site)).size;
-  log.err(
-    `plotrate: ${imported.table.plots.length} plots at ${siteCount} site${siteCount === 1 ? '' : 's'}; fitting six models per site${args.boot ? ` with ${args.boot} bootstrap resamples` : ''}`,
-  );
-  const step = Math.max(1, Math.ceil(siteCount / 10));
-  const report = analyzeTrials(imported.table, settings, {
+  const report = assembleReport(analysis, priceTrial(analysis, canonical, {}), display, {
     tool: { name: 'Plotrate', version },
     createdAt: extra.createdAt ?? new Date().toISOString().replace(/\.\d+Z$/, 'Z'),
     mapping: imported.mapping,
     warnings: extra.warnings,
     findings: imported.findings,
-    onProgress: (done, total) => {
-      if (total >= 20 && (done % step === 0 || done === total))
-        log.err(`plotrate: analyzed ${done}/${total} sites`);
-    },
   });
   if (report.sites.every((s) => s.models.length === 0)) {
     throw new AnalysisFailed(
@@ -297,9 +309,4 @@ export async function analyzeCommand(
   }
   for (const line of summary(report)) log.out(line);
   return report;
-}
-
-function toReportUnits(system: 'us' | 'metric'): ReportUnits {
-  const d = displayUnits(system);
-  return { rate: d.rateUnit, yield: d.yieldUnit };
 }

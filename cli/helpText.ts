@@ -38,7 +38,8 @@ Options for analyze
                          (default 200; 0 for none)
   --seed N               bootstrap seed (default 1): the same seed gives the
                          same interval
-  --blocks none|fixed    fit block offsets in the curves (default none)
+  --blocks none|fixed    block offsets in the curves (default fixed: wherever
+                         every plot of a site has a block label)
   --map role=Header ...  say which column holds what, e.g. --map yield=Grain
                          rate="N applied"; roles: site, year, block, plot,
                          treatment, rate, yield, moisture, exclude, notes,

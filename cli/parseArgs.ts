@@ -3,7 +3,8 @@
  * UsageError whose one line says which option and what is allowed.
  */
 import type { MappedRole } from '../shared/import/columnMapping';
-import { mappableRoles, type RoleOverride } from '../shared/report/tableFromFiles';
+import { ANALYSIS_DEFAULTS } from '../shared/analysis/analysisSettings';
+import { mappableRoles, type RoleOverride } from '../shared/import/importFiles';
 import type { CropId } from '../shared/table/plotTable';
 import { cropIds, isCropId } from '../shared/units/crops';
 import { productFromText, productIds, type ProductId } from '../shared/units/products';
@@ -29,8 +30,9 @@ export interface AnalyzeArgs {
 
 /**
  * The analyze command's settings before any option is read: no outputs, corn,
- * the input's own units, no prices, 200 bootstrap resamples with seed 1, no
- * block terms, no role overrides.
+ * the input's own units, no prices, the analysis defaults the workspace also uses
+ * (ANALYSIS_DEFAULTS: 200 bootstrap resamples with seed 1, block offsets wherever a site's
+ * plots all carry a block label), no role overrides.
  * @param files - the input files
  * @returns a fresh AnalyzeArgs (the map list is the caller's own)
  * @example
@@ -49,9 +51,9 @@ export function analyzeDefaults(files: string[] = []): AnalyzeArgs {
     nutrientPrice: null,
     product: null,
     productPrice: null,
-    boot: 200,
-    seed: 1,
-    blocks: 'none',
+    boot: ANALYSIS_DEFAULTS.resamples,
+    seed: ANALYSIS_DEFAULTS.seed,
+    blocks: 'fixed',
     map: [],
   };
 }

@@ -8,7 +8,7 @@
 import { describe, expect, it } from 'vitest';
 import type { ModelRank } from '../shared/models/fitAllModels';
 import { MODEL_NAMES, type FitStatus, type ModelName } from '../shared/models/modelTypes';
-import { analyzeTrials } from '../shared/report/analyzeTrials';
+import { reportOf } from './report.pipeline';
 import { analyzeAcrossSites } from '../shared/analysis/analyzeAcrossSites';
 import { recommendationModel } from '../shared/analysis/recommendationModel';
 import { pooledPlotTable } from './analysis.fixtures';
@@ -88,7 +88,7 @@ describe('recommendationModel follows the rule in its header', () => {
 
 describe('the report and the regional return recommend from the same model', () => {
   const table = pooledPlotTable();
-  const report = analyzeTrials(
+  const report = reportOf(
     table,
     {
       units: { rate: 'kg/ha', yield: 'kg/ha' },

@@ -57,14 +57,14 @@ describe('parseArgs', () => {
     });
   });
 
-  it('has defaults: corn, input units, 200 resamples, seed 1, no block terms', () => {
+  it('has defaults: corn, input units, 200 resamples, seed 1, block terms where labelled', () => {
     const c = parseArgs(['analyze', 'a.csv']);
     expect(c).toMatchObject({
       crop: 'corn',
       units: null,
       boot: 200,
       seed: 1,
-      blocks: 'none',
+      blocks: 'fixed',
       out: null,
     });
   });

@@ -4,16 +4,11 @@ import { economicOptimum } from '../shared/economics/economicOptimum';
 import { analyzeAcrossSites } from '../shared/analysis/analyzeAcrossSites';
 import { sitePlots } from '../shared/analysis/sitePlots';
 import { analyzeTable, poolingTests, siteViews } from '../renderer/src/analysis/siteAnalysis';
-import {
-  modelOptima,
-  regionalAtPrices,
-  siteLeads,
-  siteOptima,
-} from '../renderer/src/analysis/pricing';
-import { chooseSiteModels } from '../shared/analysis/chooseSiteModels';
-import { analyzeTrials } from '../shared/report/analyzeTrials';
-import { siteIntervals } from '../renderer/src/analysis/intervals';
-import { reportSettings } from '../renderer/src/analysis/reportInput';
+import { modelOptima, regionalOf, siteLeads, siteOptima } from '../renderer/src/analysis/pricing';
+import { analysisSettings } from '../shared/analysis/analysisSettings';
+import { priceTrial } from '../shared/analysis/priceTrial';
+import { reportOf } from './report.pipeline';
+import { reportDisplay } from '../renderer/src/analysis/reportInput';
 import {
   canonicalPrices,
   grainPriceFromShown,
@@ -26,27 +21,27 @@ import {
 
 const noProgress = async () => {};
 const illustrative = canonicalPrices(ILLUSTRATIVE_PRICES);
+/** The workspace's analysis settings with the given block choice (and no resamples unless asked). */
+const settings = (blocks: 'auto' | 'none', resamples = 0) =>
+  analysisSettings({ prices: illustrative, blocks, resamples });
 
 describe('renderer analysis and re-pricing', () => {
   it('analyzeTable runs the pipeline site by site as plain data (no functions cross to the window)', async () => {
     const seen: string[] = [];
     const table = syntheticPlotTable({ sites: 3 });
-    const out = await analyzeTable(
-      { table, blocks: 'fixed', prices: illustrative },
-      async (_d, _t, note) => {
-        seen.push(note);
-      },
-    );
+    const out = await analyzeTable({ table, settings: settings('auto') }, async (_d, _t, note) => {
+      seen.push(note);
+    });
     const sites = siteViews(out);
     expect(sites.map((s) => s.site)).toEqual(['Site 0001', 'Site 0002', 'Site 0003']);
-    expect(seen).toEqual(['Site 0001', 'Site 0002', 'Site 0003', 'across sites']);
+    expect(seen).toEqual(['Site 0001', 'Site 0002', 'Site 0003']);
     // The same analysis as the one-call form with the same options.
     const whole = analyzeAcrossSites(table, {
       prices: illustrative,
       blocks: 'auto',
       groupKeys: [],
     });
-    expect(out.analysis.regional.regional.bestRateKgHa).toBe(whole.regional.regional.bestRateKgHa);
+    expect(out.across.regional.regional.bestRateKgHa).toBe(whole.regional.regional.bestRateKgHa);
     expect(out.plots).toEqual(sitePlots(table));
     for (const [i, s] of sites.entries()) {
       expect(s.recommended).toBe(whole.sites[i].recommended.model);
@@ -58,25 +53,24 @@ describe('renderer analysis and re-pricing', () => {
       for (const fit of Object.values(s.fits)) expect('predict' in fit!).toBe(false);
     }
     expect(() => structuredClone(out)).not.toThrow();
-    expect(poolingTests(out.analysis).map((t) => t.model)).toEqual(['linear', 'quadratic']);
+    expect(poolingTests(out.across).map((t) => t.model)).toEqual(['linear', 'quadratic']);
   });
 
   it('a higher nitrogen price never raises a site optimum, and the regional rate follows', async () => {
     const out = await analyzeTable(
-      { table: syntheticPlotTable({ sites: 4, seed: 9 }), blocks: 'none', prices: illustrative },
+      { table: syntheticPlotTable({ sites: 4, seed: 9 }), settings: settings('none') },
       noProgress,
     );
     const cheap = canonicalPrices({ ...ILLUSTRATIVE_PRICES, productPerKg: 0.4 });
     const dear = canonicalPrices({ ...ILLUSTRATIVE_PRICES, productPerKg: 1.6 });
-    const leads = siteLeads(out.analysis, {});
-    const a = siteOptima(siteViews(out), leads, cheap);
-    const b = siteOptima(siteViews(out), leads, dear);
+    const a = siteOptima(siteViews(out), priceTrial(out, cheap, {}));
+    const b = siteOptima(siteViews(out), priceTrial(out, dear, {}));
     for (let i = 0; i < a.length; i++) {
       expect(a[i].model).toBe(b[i].model);
       expect(b[i].optimum!.rateKgHa!).toBeLessThanOrEqual(a[i].optimum!.rateKgHa!);
     }
-    const rc = regionalAtPrices(out.analysis, cheap)!;
-    const rd = regionalAtPrices(out.analysis, dear)!;
+    const rc = regionalOf(priceTrial(out, cheap, {}))!;
+    const rd = regionalOf(priceTrial(out, dear, {}))!;
     expect(rd.bestRateKgHa).toBeLessThan(rc.bestRateKgHa);
     expect(rc.profitableRange.lowKgHa).toBeLessThanOrEqual(rc.bestRateKgHa);
     expect(rc.profitableRange.highKgHa).toBeGreaterThanOrEqual(rc.bestRateKgHa);
@@ -91,11 +85,11 @@ describe('renderer analysis and re-pricing', () => {
 
   it('the site optimum is the closed-form optimum of its leading fit at the same prices', async () => {
     const out = await analyzeTable(
-      { table: syntheticPlotTable({ sites: 1, seed: 2 }), blocks: 'none', prices: illustrative },
+      { table: syntheticPlotTable({ sites: 1, seed: 2 }), settings: settings('none') },
       noProgress,
     );
     const [site] = siteViews(out);
-    const [entry] = siteOptima([site], siteLeads(out.analysis, {}), illustrative);
+    const [entry] = siteOptima([site], priceTrial(out, illustrative, {}));
     const direct = economicOptimum(site.fits[entry.model!]!, illustrative);
     expect(entry.optimum!.rateKgHa).toBe(direct.rateKgHa);
     expect(modelOptima(site, illustrative)[entry.model!]!.rateKgHa).toBe(direct.rateKgHa);
@@ -103,17 +97,17 @@ describe('renderer analysis and re-pricing', () => {
 
   it("the leading model is the pipeline's recommendation, the user's choice wins, and the regional mean follows it", async () => {
     const out = await analyzeTable(
-      { table: syntheticPlotTable({ sites: 2, seed: 4 }), blocks: 'none', prices: illustrative },
+      { table: syntheticPlotTable({ sites: 2, seed: 4 }), settings: settings('none') },
       noProgress,
     );
     const [site] = siteViews(out);
-    expect(siteLeads(out.analysis, {})[site.site]).toBe(site.recommended);
+    expect(siteLeads(out, {})[site.site]).toBe(site.recommended);
     expect(['quadratic', 'linearPlateau', 'quadraticPlateau', 'exponential']).toContain(
       site.recommended,
     );
     const mine = { [site.site]: 'linear' as const };
-    expect(siteLeads(out.analysis, mine)[site.site]).toBe('linear');
-    const chosen = regionalAtPrices(chooseSiteModels(out.analysis, mine), illustrative)!;
+    expect(siteLeads(out, mine)[site.site]).toBe('linear');
+    const chosen = regionalOf(priceTrial(out, illustrative, mine))!;
     const fresh = analyzeAcrossSites(syntheticPlotTable({ sites: 2, seed: 4 }), {
       prices: illustrative,
       blocks: 'none',
@@ -126,33 +120,24 @@ describe('renderer analysis and re-pricing', () => {
 });
 
 describe('renderer optimum intervals', () => {
-  it('siteIntervals gives each site the interval the report prints for its leading model', async () => {
+  it("the interval on screen is the report's for each site's leading model", async () => {
     const table = syntheticPlotTable({ sites: 2, seed: 3 });
-    const out = await analyzeTable({ table, blocks: 'fixed', prices: illustrative }, noProgress);
-    const leads = siteLeads(out.analysis, {});
-    const sites = siteViews(out).map((s, index) => ({
-      site: s.site,
-      index,
-      model: leads[s.site]!,
-      blocks: out.analysis.sites[index].blocks,
-      rateKgHa: s.plots.rateKgHa,
-      yieldKgHa: s.plots.yieldKgHa,
-      block: s.plots.block,
-    }));
-    const onScreen = await siteIntervals({ sites, prices: illustrative }, noProgress);
+    const out = await analyzeTable({ table, settings: settings('auto', 200) }, noProgress);
+    const onScreen = siteOptima(siteViews(out), priceTrial(out, illustrative, {}));
     const units = { rate: 'kg/ha', yield: 'kg/ha' } as const;
-    const report = analyzeTrials(
+    const display = reportDisplay(ILLUSTRATIVE_PRICES, units, 'metric', table.crop);
+    const report = reportOf(
       table,
-      reportSettings(ILLUSTRATIVE_PRICES, units, 'metric', table.crop, 'fixed', {}),
+      { ...display, crop: table.crop, boot: 200, seed: 1, blocks: 'fixed', intervalLevel: 0.9 },
       {
         tool: { name: 'Plotrate', version: 'test' },
         createdAt: '2026-01-01T00:00:00Z',
         mapping: [],
       },
     );
-    for (const s of report.sites) {
+    for (const [i, s] of report.sites.entries()) {
       expect(s.bootstrap?.ciKgHa).toBeTruthy();
-      expect(onScreen[s.site]).toEqual(s.bootstrap!.ciKgHa);
+      expect(onScreen[i].intervalKgHa).toEqual(s.bootstrap!.ciKgHa);
     }
   });
 });

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { checkSession } from '../renderer/src/lib/session';
 import { ILLUSTRATIVE_PRICES } from '../renderer/src/analysis/priceInputs';
-import { reportSettings } from '../renderer/src/analysis/reportInput';
-import { priceTerms } from '../shared/report/reportSettings';
+import { reportDisplay } from '../renderer/src/analysis/reportInput';
+import { priceTerms } from '../shared/economics/priceQuote';
 import { canonicalPrices } from '../renderer/src/analysis/priceInputs';
 
 const good = {
@@ -34,7 +34,7 @@ describe('checkSession', () => {
   });
 });
 
-describe('reportSettings', () => {
+describe('reportDisplay', () => {
   it.each([
     ['as listed (urea 46 %)', { ...ILLUSTRATIVE_PRICES }],
     ['with a changed analysis', { ...ILLUSTRATIVE_PRICES, analysisPct: 40 }],
@@ -48,14 +48,12 @@ describe('reportSettings', () => {
       ['us', { rate: 'lb/ac', yield: 'bu/ac' }],
       ['metric', { rate: 'kg/ha', yield: 't/ha' }],
     ] as const) {
-      const picks = { 'Site 0001': 'quadratic' as const };
-      const settings = reportSettings(prices, units, system, 'corn', 'fixed', picks);
-      const terms = priceTerms(settings);
+      const display = reportDisplay(prices, units, system, 'corn');
+      const terms = priceTerms({ ...display, crop: 'corn' });
       const screen = canonicalPrices(prices);
       expect(terms.nutrientPricePerKg).toBeCloseTo(screen.nutrientPricePerKg, 10);
       expect(terms.grainPricePerKg).toBeCloseTo(screen.grainPricePerKg, 10);
       expect(terms.applicationCostPerHa).toBe(screen.applicationCostPerHa);
-      expect(settings.siteModels).toEqual(picks);
     }
   });
 });

@@ -71,7 +71,7 @@ describe('Workspace state', () => {
     await ws.openFiles([file()]);
     await ws.analysis.run(ws.trial.table);
     const output = ws.analysis.output;
-    expect(output?.analysis.sites).toHaveLength(4);
+    expect(output?.across.sites).toHaveLength(4);
     const before = ws.analysis.optima.map((o) => o.optimum?.rateKgHa ?? NaN);
     ws.prices.update({ productPerKg: ws.prices.settings.productPerKg * 3 });
     const after = ws.analysis.optima.map((o) => o.optimum?.rateKgHa ?? NaN);
@@ -132,6 +132,6 @@ describe('Workspace stopping the fits', () => {
     expect(ws.analysis.output).toBeNull();
     await ws.analysis.run(ws.trial.table);
     expect(ws.analysis.stopped).toBe(false);
-    expect(ws.analysis.output?.analysis.sites).toHaveLength(4);
+    expect(ws.analysis.output?.across.sites).toHaveLength(4);
   });
 });

@@ -4,7 +4,7 @@
 import { describe, expect, it } from 'vitest';
 import { syntheticPlotTable } from '../shared/demo/syntheticTrial';
 import { economicOptimum } from '../shared/economics/economicOptimum';
-import { analyzeTrials } from '../shared/report/analyzeTrials';
+import { reportOf } from './report.pipeline';
 import { growerPage } from '../shared/report/growerPage';
 import type { ReportSettings } from '../shared/report/reportSettings';
 import { priceTerms } from '../shared/report/reportSettings';
@@ -38,10 +38,10 @@ function settings(extra: Partial<ReportSettings> = {}, applicationCostPerHa = 0)
 }
 
 describe('analyzeTrials with the user’s site models', () => {
-  const plain = analyzeTrials(table, settings(), meta);
+  const plain = reportOf(table, settings(), meta);
   const first = plain.sites[0];
   const other = first.bestModel === 'quadratic' ? 'linearPlateau' : 'quadratic';
-  const picked = analyzeTrials(table, settings({ siteModels: { [first.site]: other } }), meta);
+  const picked = reportOf(table, settings({ siteModels: { [first.site]: other } }), meta);
 
   it('leads the picked site with the picked model and says so', () => {
     expect(picked.sites[0].bestModel).toBe(other);
@@ -77,7 +77,7 @@ describe('analyzeTrials with the user’s site models', () => {
 
 describe('analyzeTrials with an application cost', () => {
   const cost = 40;
-  const costly = analyzeTrials(table, settings({}, cost), meta);
+  const costly = reportOf(table, settings({}, cost), meta);
 
   it('carries the cost into the price terms and each site’s return at its optimum', () => {
     expect(costly.prices.applicationCostPerHa).toBe(cost);

@@ -5,8 +5,8 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { demoTrial } from '../shared/demo';
-import { analyzeTrials } from '../shared/report/analyzeTrials';
-import { tableFromFiles } from '../shared/report/tableFromFiles';
+import { reportOf } from './report.pipeline';
+import { importFiles } from '../shared/import/importFiles';
 import type { TrialReport } from '../shared/report/trialReport';
 import { fitLeastSquares, type LeastSquaresFit } from '../shared/stats/leastSquares';
 import type { Plot } from '../shared/table/plotTable';
@@ -36,13 +36,13 @@ export async function demoReport(units: 'us' | 'metric', boot = 60): Promise<Tri
   const corn = demoTrial()
     .sites.filter((s) => s.crop === 'corn')
     .map((s) => s.name);
-  const imported = await tableFromFiles([{ name: path.basename(demoPath), bytes }], {
+  const imported = await importFiles([{ name: path.basename(demoPath), bytes }], {
     crop: 'corn',
     overrides: [],
     sheets: corn,
   });
   const us = units === 'us';
-  return analyzeTrials(
+  return reportOf(
     imported.table,
     {
       units: us ? { rate: 'lb/ac', yield: 'bu/ac' } : { rate: 'kg/ha', yield: 't/ha' },

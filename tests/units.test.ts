@@ -184,7 +184,7 @@ describe('formatQuantity', () => {
     expect(formatQuantity(0.012345, 'mg')).toBe('0.012 mg');
   });
   it('shows canonical values in the chosen system', () => {
-    expect(displayUnits('metric')).toEqual({ rateUnit: 'kg/ha', yieldUnit: 't/ha' });
+    expect(displayUnits('metric')).toEqual({ rate: 'kg/ha', yield: 't/ha' });
     expect(showRate(convertRate(160, 'lb/ac'), 'us')).toBe('160 lb/ac');
     expect(showYield(convertYield(200, 'bu/ac', 'corn'), 'corn', 'us')).toBe('200.0 bu/ac');
     expect(showYield(9350, 'wheat', 'metric')).toBe('9.35 t/ha');

@@ -79,6 +79,6 @@ export function analyzeAcrossSites(
   const plan = planAcrossSites(source, options);
   return acrossSites(
     plan,
-    plan.plots.map((p) => analyzeSite(p, plan.options)),
+    plan.plots.map((p, i) => analyzeSite(p, plan.options, i)),
   );
 }

@@ -3,13 +3,16 @@
  * site-level tests beside the fits (rate effect, intercept, correlation, gain over the check).
  * The result is plain data (fits without `predict`), so a worker can post it.
  */
+import { drawBootstrapEstimates, type BootstrapDraws } from '../economics/bootstrapDraws';
 import { fitAllModels, type AllModelsFit } from '../models/fitAllModels';
 import type { BlockTerms, ModelFit, ModelName } from '../models/modelTypes';
 import { StatsInputError } from '../stats/errors';
 import { testIntercept } from '../stats/interceptTest';
 import { pearsonCorrelation, type PearsonResult } from '../stats/pearson';
+import { bootstrapSeed } from './analysisSettings';
 import type { AcrossSiteSettings } from './planAcrossSites';
 import { recommendationModel, type RecommendationModel } from './recommendationModel';
+import { siteAnova, type AnovaSummary, type TreatmentMeanRow } from './siteAnova';
 import { siteRateEffect, type SiteRateEffect } from './siteRateEffect';
 import { siteResponseOverCheck, type ResponseOverCheckOutcome } from './siteResponseOverCheck';
 import type { SitePlots } from './sitePlots';
@@ -41,6 +44,14 @@ export interface SiteAnalysis {
    * and whether a gain at rate zero is present (siteResponseOverCheck), or why there is none.
    */
   responseOverCheck: ResponseOverCheckOutcome | { problem: string };
+  /** ANOVA of yield on rate as a factor (blocks when every plot has one) and the means ± SE. */
+  anova: AnovaSummary | null;
+  treatmentMeans: TreatmentMeanRow[];
+  /**
+   * Every fitted model re-estimated on seeded resamples (drawBootstrapEstimates), for the
+   * optimum's interval at any prices (optimumInterval); null without resamples or fits.
+   */
+  draws: BootstrapDraws | null;
   groups: Record<string, string | null>;
 }
 
@@ -94,7 +105,9 @@ function orProblem<T>(compute: () => T): T | { problem: string } {
  * model, rate effect, intercept test, correlation and response over the check. Price-free; a caller that wants progress
  * per site calls this site by site and then acrossSites().
  * @param site - one site's plots from sitePlots() (kg/ha)
- * @param settings - the plan's settings (planAcrossSites): block terms, alpha, curve points
+ * @param settings - the plan's settings (planAcrossSites): block terms, alpha, curve points,
+ *   resamples and the run's seed
+ * @param siteIndex - the site's position in the table's site order (seeds its resamples)
  * @returns the site's analysis; a site the models refuse keeps its rows with the reason
  * @example
  * const plan = planAcrossSites(table, { prices });
@@ -103,7 +116,8 @@ function orProblem<T>(compute: () => T): T | { problem: string } {
  */
 export function analyzeSite(
   site: SitePlots,
-  settings: Pick<AcrossSiteSettings, 'blocks' | 'alpha' | 'curvePoints'>,
+  settings: Pick<AcrossSiteSettings, 'blocks' | 'alpha' | 'curvePoints' | 'resamples' | 'seed'>,
+  siteIndex = 0,
 ): SiteAnalysis {
   const { blocks, alpha, curvePoints } = settings;
   const b = siteBlocks(site, blocks);
@@ -144,6 +158,19 @@ export function analyzeSite(
     correlation = orProblem(() => pearsonCorrelation(site.rateKgHa, site.yieldKgHa));
     responseOverCheck = siteResponseOverCheck(site, alpha);
   }
+  const rates = Array.from(site.rateKgHa);
+  const { anova, means } = siteAnova(rates, Array.from(site.yieldKgHa), [...site.block]);
+  let draws: BootstrapDraws | null = null;
+  if (fits && settings.resamples > 0 && new Set(rates).size >= 2) {
+    const drawn = (Object.keys(fits.fits) as ModelName[]).filter(
+      (m) => fits!.fits[m].status !== 'too-few-rates',
+    );
+    draws = drawBootstrapEstimates(site, drawn, {
+      resamples: settings.resamples,
+      seed: bootstrapSeed(settings.seed, siteIndex),
+      blocks: b,
+    });
+  }
   return {
     site: site.site,
     plots: site.yieldKgHa.length,
@@ -158,6 +185,9 @@ export function analyzeSite(
     intercept,
     correlation,
     responseOverCheck,
+    anova,
+    treatmentMeans: means,
+    draws,
     groups: site.groups,
   };
 }

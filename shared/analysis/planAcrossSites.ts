@@ -35,6 +35,13 @@ export interface AcrossSiteOptions {
   siteModels?: Readonly<Record<string, ModelName>>;
   /** Points on each fitted curve kept for charts; default that of shared/models (61). */
   curvePoints?: number;
+  /**
+   * Bootstrap resamples kept per site for the optimum's interval (drawBootstrapEstimates);
+   * default 0, none. analyzeTrial passes the run's count (ANALYSIS_DEFAULTS: 200).
+   */
+  resamples?: number;
+  /** Seed of the run (bootstrapSeed derives each site's); default 1. */
+  seed?: number;
   /** Grid spacing, kg/ha; default 1 (1 lb/ac is 1.120851 kg/ha). */
   gridStepKgHa?: number;
   /** Grid start, kg/ha; default 0. */
@@ -118,6 +125,8 @@ export function planAcrossSites(
     regionalModel: options.regionalModel ?? 'best',
     siteModels: { ...options.siteModels },
     curvePoints: options.curvePoints,
+    resamples: options.resamples ?? 0,
+    seed: options.seed ?? 1,
     gridStepKgHa: options.gridStepKgHa ?? 1,
     gridFromKgHa: options.gridFromKgHa ?? 0,
     gridToKgHa: options.gridToKgHa ?? null,

@@ -1,30 +1,17 @@
 /**
  * Uncertainty of the economic optimum by a seeded stratified bootstrap: the
- * plots of each rate are resampled with replacement (shared/optimize), the
- * model is re-estimated on every resample with the same global profiled search,
- * and the optimum is recomputed at the same prices. Reports the percentile
+ * plots of each rate are resampled with replacement and the model re-estimated
+ * on every resample (drawBootstrapEstimates, which also says how blocks are
+ * handled), and the optimum is recomputed at the same prices. Reports the percentile
  * interval of the optimum rate (Efron & Tibshirani, An Introduction to the
  * Bootstrap, 1993, §13.3), the share of resamples without an interior optimum,
  * and for each candidate rate the probability that it returns within a chosen
  * amount per ha of each resample's best rate.
- *
- * With block terms the yields are first adjusted for the block offsets (for a
- * balanced design y − ȳ_block + ȳ, exactly what the blocked fit sees; otherwise
- * the offsets of the one-mean-per-rate model with blocks), and the adjusted
- * yields are resampled within rates. Resampling raw plots within blocks instead
- * would leave blocks without some rates and break the design.
- *
- * Speed: rates are fixed across resamples, so a resample only rebuilds the
- * per-rate means and within-rate SS; the fit then runs on group sums.
  */
 import { estimateCurve } from '../models/estimateCurve';
-import type { CurveEstimate, FitOptions, ModelName, SiteData } from '../models/modelTypes';
-import { prepareSite, type PreparedSite } from '../models/prepareSite';
-import { blockColumns } from '../models/profileSolver';
-import { resampleWithinGroups, strataOf } from '../optimize/resampleWithinGroups';
-import { seededRandom } from '../optimize/seededRandom';
+import type { FitOptions, ModelName, SiteData } from '../models/modelTypes';
+import { prepareSite } from '../models/prepareSite';
 import { StatsInputError } from '../stats/errors';
-import { applyQTranspose, qrDecompose, solveUpperTriangular } from '../stats/qr';
 import { sortedQuantile } from '../stats/quantile';
 import {
   economicOptimum,
@@ -32,6 +19,7 @@ import {
   type EconomicOptimum,
   type OptimumStatus,
 } from './economicOptimum';
+import { drawBootstrapEstimates, drawSummaries } from './bootstrapDraws';
 import { assertPrices, type Prices } from './priceRatio';
 import { recommendationCautions } from './recommendationCautions';
 
@@ -84,32 +72,6 @@ export interface BootstrapOptimum {
   cautions: readonly string[];
 }
 
-/** Yields adjusted for block offsets (or the yields themselves without block terms). */
-function blockAdjustedYields(site: PreparedSite): Float64Array {
-  if (site.blocks !== 'fixed') return site.y;
-  if (site.design !== 'full') return site.yGroup;
-  // One mean per rate plus effect-coded blocks; subtract the fitted offsets.
-  const { n } = site;
-  const m = site.rates.length;
-  const cols = blockColumns(site);
-  const p = m + cols.length;
-  const matrix = new Float64Array(n * p);
-  for (let i = 0; i < n; i++) matrix[site.groupOf[i] * n + i] = 1;
-  cols.forEach((c, k) => matrix.set(c, (m + k) * n));
-  const qr = qrDecompose(matrix, n, p);
-  if (qr.rank < p) return site.y;
-  const qty = Float64Array.from(site.y);
-  applyQTranspose(qr, qty);
-  const coef = solveUpperTriangular(qr, qty);
-  const out = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    let offset = 0;
-    for (let k = 0; k < cols.length; k++) offset += coef[m + k] * cols[k][i];
-    out[i] = site.y[i] - offset;
-  }
-  return out;
-}
-
 /**
  * Bootstraps the economic optimum rate of one model at one site.
  * @param data - rates (kg/ha), yields (kg/ha), optional block labels
@@ -158,10 +120,6 @@ export function bootstrapOptimum(
     exponentialIntercept: options.exponentialIntercept,
     rateFormat: options.rateFormat,
   });
-  const fitOptions: FitOptions = {
-    exponentialIntercept: options.exponentialIntercept,
-    searchTolerance: 1e-7,
-  };
   const pointEstimate = economicOptimum(original, prices, { rateFormat: options.rateFormat });
 
   const highest = site.testedRates.highestKgHa;
@@ -169,21 +127,13 @@ export function bootstrapOptimum(
     ? Float64Array.from(options.candidateRatesKgHa)
     : Float64Array.from({ length: 51 }, (_, i) => (highest * i) / 50);
 
-  const yAdj = blockAdjustedYields(site);
-  const m = site.rates.length;
-  const strata = strataOf(site.groupOf, m);
-  const random = seededRandom(seed);
-  const drawn = new Int32Array(site.n);
-  const means = new Float64Array(m);
-  // The resample as a prepared site on group sums (blocks already taken out).
-  const work: PreparedSite = {
-    ...site,
-    design: 'groups',
-    blocks: 'none',
-    means,
-    ssWithin: 0,
-  };
-
+  const draws = drawBootstrapEstimates(data, [model], {
+    resamples,
+    seed,
+    blocks: options.blocks,
+    exponentialIntercept: options.exponentialIntercept,
+  });
+  const drawAt = drawSummaries(draws, model)!;
   const rateSamples = new Float64Array(resamples);
   const statusCount: Record<OptimumStatus, number> = {
     interior: 0,
@@ -195,19 +145,8 @@ export function bootstrapOptimum(
   };
   const within = new Float64Array(candidates.length);
   const nets = new Float64Array(candidates.length);
-  const { starts } = strata;
   for (let b = 0; b < resamples; b++) {
-    resampleWithinGroups(strata, random, drawn);
-    let ss = 0;
-    for (let j = 0; j < m; j++) {
-      let s = 0;
-      for (let k = starts[j]; k < starts[j + 1]; k++) s += yAdj[drawn[k]];
-      const mean = s / (starts[j + 1] - starts[j]);
-      means[j] = mean;
-      for (let k = starts[j]; k < starts[j + 1]; k++) ss += (yAdj[drawn[k]] - mean) ** 2;
-    }
-    work.ssWithin = ss;
-    const est: CurveEstimate = estimateCurve(work, model, fitOptions);
+    const est = drawAt(b);
     const opt = economicOptimum(est, prices);
     statusCount[opt.status]++;
     rateSamples[b] = opt.rateKgHa ?? NaN;
@@ -228,7 +167,7 @@ export function bootstrapOptimum(
     resamples,
     seed,
     confidence,
-    resampling: site.blocks === 'fixed' ? 'within-rates-block-adjusted' : 'within-rates',
+    resampling: draws.resampling,
     pointEstimate,
     rateSamplesKgHa: rateSamples,
     ciKgHa:

@@ -4,11 +4,14 @@
  * canonical units (rates and yields kg/ha, money per ha) with the unit in the
  * field name; each writer converts to the display units in `settings.units`.
  * Keeping the writers on this one summary means a change inside an engine
- * stage touches only analyzeTrials, not every writer.
+ * stage touches only assembleReport, not every writer.
  */
 import type { ModelName, FitStatus } from '../models/modelTypes';
 import type { ResponseOverCheckOutcome } from '../analysis/siteResponseOverCheck';
+import type { MappingEntry } from '../import/mappingEntries';
 import type { Plot, SourceFile, CropId } from '../table/plotTable';
+
+export type { MappingEntry } from '../import/mappingEntries';
 import type { ReportSettings, PriceTerms } from './reportSettings';
 
 /** One model's fit at one site, as the model table and the JSON show it. */
@@ -64,34 +67,8 @@ export type LackOfFitSummary =
   | { available: true; model: ModelName; F: number; df1: number; df2: number; p: number }
   | { available: false; model: ModelName | null; message: string };
 
-/** Treatment mean ± SE by rate, kg/ha. */
-export interface TreatmentMeanRow {
-  rateKgHa: number;
-  n: number;
-  meanKgHa: number;
-  seKgHa: number;
-}
-
-/** One ANOVA source line; ss and ms in (kg/ha)². */
-export interface AnovaRow {
-  source: string;
-  df: number;
-  ss: number;
-  ms: number | null;
-  F: number | null;
-  p: number | null;
-}
-
-export interface AnovaSummary {
-  design: 'rcbd' | 'oneWay';
-  rows: AnovaRow[];
-  cvPercent: number | null;
-  /** Fisher's LSD at 5 %, kg/ha; null when unbalanced (no single LSD). */
-  lsdKgHa: number | null;
-  notes: string[];
-  /** Plots missing from a complete block design (rate, kg/ha, and block): the means are block-adjusted. */
-  missingPlots: { rateKgHa: number; block: string }[];
-}
+export type { AnovaRow, AnovaSummary, TreatmentMeanRow } from '../analysis/siteAnova';
+import type { AnovaSummary, TreatmentMeanRow } from '../analysis/siteAnova';
 
 /** The bootstrap of the chosen model's optimum. */
 export interface BootstrapSummary {
@@ -157,15 +134,6 @@ export interface AcrossSitesReport {
   /** Pooling F-tests: does one response describe every site? */
   tests: { question: string; F: number; df1: number; df2: number; p: number; verdict: string }[];
   notes: string[];
-}
-
-/** What a user told import: which header went to which role, in which unit. */
-export interface MappingEntry {
-  file: string;
-  sheet: string;
-  role: string;
-  header: string;
-  unit: string;
 }
 
 export interface TrialReport {

@@ -10,9 +10,10 @@ import { formatQuantity } from './formatQuantity';
 
 export type UnitSystem = 'us' | 'metric';
 
+/** The units rates and yields are shown in (screen, workbook, grower page, JSON). */
 export interface DisplayUnits {
-  rateUnit: RateUnit;
-  yieldUnit: YieldUnit;
+  rate: RateUnit;
+  yield: YieldUnit;
 }
 
 /**
@@ -20,12 +21,10 @@ export interface DisplayUnits {
  * @param system - "us" or "metric"
  * @returns the units to show rates and yields in
  * @example
- * displayUnits('us') // { rateUnit: 'lb/ac', yieldUnit: 'bu/ac' }
+ * displayUnits('us') // { rate: 'lb/ac', yield: 'bu/ac' }
  */
 export function displayUnits(system: UnitSystem): DisplayUnits {
-  return system === 'us'
-    ? { rateUnit: 'lb/ac', yieldUnit: 'bu/ac' }
-    : { rateUnit: 'kg/ha', yieldUnit: 't/ha' };
+  return system === 'us' ? { rate: 'lb/ac', yield: 'bu/ac' } : { rate: 'kg/ha', yield: 't/ha' };
 }
 
 /**
@@ -37,7 +36,7 @@ export function displayUnits(system: UnitSystem): DisplayUnits {
  * showRate(179.34, 'us') // '160 lb/ac'
  */
 export function showRate(rateKgHa: number | null, system: UnitSystem): string {
-  const { rateUnit } = displayUnits(system);
+  const rateUnit = displayUnits(system).rate;
   return formatQuantity(rateKgHa === null ? null : rateFromKgHa(rateKgHa, rateUnit), rateUnit);
 }
 
@@ -51,7 +50,7 @@ export function showRate(rateKgHa: number | null, system: UnitSystem): string {
  * showYield(12553.5, 'corn', 'us') // '200.0 bu/ac'
  */
 export function showYield(yieldKgHa: number | null, crop: CropId, system: UnitSystem): string {
-  const { yieldUnit } = displayUnits(system);
+  const yieldUnit = displayUnits(system).yield;
   return formatQuantity(
     yieldKgHa === null ? null : yieldFromKgHa(yieldKgHa, yieldUnit, crop),
     yieldUnit,

@@ -4,6 +4,7 @@
  * per-ha values the economics reads. Prices are stored canonical, so the
  * US/metric switch changes what is shown, never the optimum.
  */
+import { illustrativePrices } from '../../../shared/economics/illustrativePrices';
 import type { Prices } from '../../../shared/economics/priceRatio';
 import {
   priceRatioQuote,
@@ -35,18 +36,27 @@ export interface PriceSettings {
   illustrative: boolean;
 }
 
-/** Illustrative starting prices (round numbers of recent years; replace with your own). */
-export const ILLUSTRATIVE_PRICES: PriceSettings = {
-  currency: 'USD',
-  // $4.50 per 56-lb bushel of corn
-  grainPerKg: 4.5 / (56 * 0.45359237),
-  productId: 'urea',
-  analysisPct: 46,
-  // $520 per short ton of urea (2000 lb)
-  productPerKg: 520 / (2000 * 0.45359237),
-  applicationPerHa: 0,
-  illustrative: true,
-};
+/**
+ * Illustrative starting prices of a crop (shared/economics illustrativePrices, the same the
+ * command line uses; replace with your own).
+ * @param crop - the crop
+ * @returns price inputs marked illustrative
+ */
+export function illustrativePriceSettings(crop: CropId): PriceSettings {
+  const p = illustrativePrices(crop);
+  return {
+    currency: p.currency,
+    grainPerKg: p.grainPerKg,
+    productId: p.productId,
+    analysisPct: p.analysisPct,
+    productPerKg: p.productPerKg,
+    applicationPerHa: 0,
+    illustrative: true,
+  };
+}
+
+/** Illustrative starting prices for corn, before a table says its crop. */
+export const ILLUSTRATIVE_PRICES: PriceSettings = illustrativePriceSettings('corn');
 
 /**
  * The canonical prices the economics reads.

@@ -1,31 +1,31 @@
 /**
- * Re-pricing on the main thread, with no refit: each site's optimum comes from
- * its leading model's parameters by the closed forms in shared/economics; the
- * regional return is the pipeline's, re-priced by repriceAcrossSites after the
- * user's model choices are applied (chooseSiteModels). Which model leads is
- * the pipeline's rule (shared/sites leadingModel): the user's pick, else the
- * site's recommendation model, so the screen and the workbook agree.
+ * Re-pricing on the main thread, with no refit and no new bootstrap: the one
+ * priced view of shared/analysis (priceTrial: each site's leading model, its
+ * optimum by the closed forms, its interval from the stored draws, the regional
+ * rate) reshaped for the components. Which model leads is the analysis' rule
+ * (leadingModel: the user's pick, else the site's recommendation model), so the
+ * screen, the workbook and the command line agree.
  */
 import { economicOptimum, type EconomicOptimum } from '../../../shared/economics/economicOptimum';
 import type { Prices } from '../../../shared/economics/priceRatio';
 import type { ModelName } from '../../../shared/models/modelTypes';
-import type { AcrossSiteAnalysis } from '../../../shared/analysis/analyzeAcrossSites';
+import type { TrialAnalysis } from '../../../shared/analysis/analyzeTrial';
 import { leadingModel } from '../../../shared/analysis/leadingModel';
+import type { PricedTrial } from '../../../shared/analysis/priceTrial';
 import type { RegionalReturn } from '../../../shared/analysis/regionalReturn';
-import { repriceAcrossSites } from '../../../shared/analysis/repriceAcrossSites';
 import type { FitData, SiteAnalysis } from './siteAnalysis';
 
 /**
- * Each site's leading model.
- * @param analysis - the pipeline's analysis
+ * Each site's leading model (price-free, so a price change does not rebuild what reads it).
+ * @param analysis - the trial's analysis
  * @param choices - site → model the user picked
  * @returns site → the user's model when fitted, else the recommendation model (null: none)
  */
 export function siteLeads(
-  analysis: AcrossSiteAnalysis,
+  analysis: TrialAnalysis,
   choices: Readonly<Record<string, ModelName>>,
 ): Record<string, ModelName | null> {
-  return Object.fromEntries(analysis.sites.map((s) => [s.site, leadingModel(s, choices)]));
+  return Object.fromEntries(analysis.across.sites.map((s) => [s.site, leadingModel(s, choices)]));
 }
 
 /** One site's optimum at the current prices, with the fit it comes from. */
@@ -34,61 +34,41 @@ export interface SiteOptimum {
   model: ModelName | null;
   fit: FitData | null;
   optimum: EconomicOptimum | null;
+  /** The bootstrap interval of the optimum, kg/ha; null when there is none. */
+  intervalKgHa: [number, number] | null;
   /** Why there is no optimum, when there is none. */
   reason: string | null;
 }
 
 /**
- * The optimum of every site at one set of prices.
+ * The optimum of every site in a priced view.
  * @param sites - the sites as the screen shows them
- * @param leads - site → its leading model (siteLeads)
- * @param prices - canonical prices (currency per kg grain and per kg N, per ha application)
+ * @param priced - the priced analysis (same site order)
  * @returns one entry per site, in order
  */
-export function siteOptima(
-  sites: readonly SiteAnalysis[],
-  leads: Readonly<Record<string, ModelName | null>>,
-  prices: Prices,
-): SiteOptimum[] {
-  return sites.map((site) => {
-    const model = leads[site.site] ?? null;
+export function siteOptima(sites: readonly SiteAnalysis[], priced: PricedTrial): SiteOptimum[] {
+  return sites.map((site, i) => {
+    const p = priced.sites[i];
+    const model = p?.lead.model ?? null;
     const fit = model ? (site.fits[model] ?? null) : null;
-    if (!model || !fit) {
-      return {
-        site: site.site,
-        model,
-        fit,
-        optimum: null,
-        reason: site.problem ?? 'No model gave an economic optimum at this site.',
-      };
-    }
-    try {
-      return { site: site.site, model, fit, optimum: economicOptimum(fit, prices), reason: null };
-    } catch (error) {
-      return {
-        site: site.site,
-        model,
-        fit,
-        optimum: null,
-        reason: error instanceof Error ? error.message : String(error),
-      };
-    }
+    return {
+      site: site.site,
+      model,
+      fit,
+      optimum: fit ? p.optimum : null,
+      intervalKgHa: fit ? (p.interval?.ciKgHa ?? null) : null,
+      reason: fit ? null : (site.problem ?? 'No model gave an economic optimum at this site.'),
+    };
   });
 }
 
 /**
- * The regional return at one set of prices (the side-by-side rows are left as they are:
- * the model table prices its own rows).
- * @param analysis - the pipeline's analysis with the user's models (chooseSiteModels)
- * @param prices - canonical prices
+ * The regional return of a priced view.
+ * @param priced - the priced analysis
  * @returns best rate, profitable range, site optima; null when no site has a usable curve
  */
-export function regionalAtPrices(
-  analysis: AcrossSiteAnalysis,
-  prices: Prices,
-): RegionalReturn | null {
-  const priced = repriceAcrossSites(analysis, prices, { rows: false });
-  return priced.regional.sitesUsed.length > 0 ? priced.regional.regional : null;
+export function regionalOf(priced: PricedTrial): RegionalReturn | null {
+  return priced.across.regional.sitesUsed.length > 0 ? priced.across.regional.regional : null;
 }
 
 /**

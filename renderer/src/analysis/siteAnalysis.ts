@@ -1,24 +1,22 @@
 /**
- * The price-free analysis in the worker, site by site: the one pipeline of
- * shared/sites (planAcrossSites, analyzeSite per site, acrossSites), with a
- * progress report after each site so a cancel can arrive between sites. The
- * result is plain data; the window re-prices it (repriceAcrossSites) and
- * applies the user's model choices (chooseSiteModels) without refitting.
+ * The analysis in the worker, site by site: the one analysis run of
+ * shared/analysis (analyzeTrialSteps, the same steps analyzeTrial runs for the
+ * command line), with a progress report after each site so a cancel can arrive
+ * between sites. The result is plain data; the window prices it (priceTrial)
+ * for every new price or model pick without refitting or resampling.
  *
- * The views below only reshape the pipeline's result for the components; the
- * fits, tests and model choice all come from shared/sites.
+ * The views below only reshape the analysis for the components; the fits,
+ * tests and model choice all come from shared/analysis.
  */
-import type { Prices } from '../../../shared/economics/priceRatio';
-import type { ModelRank } from '../../../shared/models/fitAllModels';
-import type { BlockTerms, ModelName } from '../../../shared/models/modelTypes';
-import {
-  acrossSites,
-  analyzeSite as analyzePipelineSite,
-  planAcrossSites,
-  type AcrossSiteAnalysis,
-  type FitData,
-  type SiteAnalysis as PipelineSite,
+import type {
+  AcrossSiteAnalysis,
+  FitData,
+  SiteAnalysis as PipelineSite,
 } from '../../../shared/analysis/analyzeAcrossSites';
+import type { AnalysisSettings } from '../../../shared/analysis/analysisSettings';
+import { analyzeTrialSteps, type TrialAnalysis } from '../../../shared/analysis/analyzeTrial';
+import type { ModelRank } from '../../../shared/models/fitAllModels';
+import type { ModelName } from '../../../shared/models/modelTypes';
 import type { CommonResponseTests } from '../../../shared/analysis/commonResponseTests';
 import type { ResponseOverCheckOutcome } from '../../../shared/analysis/siteResponseOverCheck';
 import type { SitePlots } from '../../../shared/analysis/sitePlots';
@@ -60,17 +58,12 @@ export interface SiteAnalysis {
 
 export interface AnalysisInput {
   table: PlotTable;
-  blocks: BlockTerms;
-  /** Prices of the first pricing; the window re-prices without refitting. */
-  prices: Prices;
+  /** The analysis settings (analysisSettings: the defaults the command line uses too). */
+  settings: AnalysisSettings;
 }
 
-export interface AnalysisOutput {
-  /** The pipeline's result (fits, rows, pooling tests, regional rate). */
-  analysis: AcrossSiteAnalysis;
-  /** The sites' plots, in the analysis' order (charts and bootstrap intervals read them). */
-  plots: SitePlots[];
-}
+/** The worker's result: the one analysis the screens and the report read. */
+export type AnalysisOutput = TrialAnalysis;
 
 /** The common-response tests the all-sites step shows, or none with fewer than two sites. */
 export function poolingTests(analysis: AcrossSiteAnalysis): CommonResponseTests[] {
@@ -117,31 +110,23 @@ function siteView(s: PipelineSite, plots: SitePlots): SiteAnalysis {
  * @returns one view per site, in the analysis' order
  */
 export function siteViews(output: AnalysisOutput): SiteAnalysis[] {
-  return output.analysis.sites.map((s, i) => siteView(s, output.plots[i]));
+  return output.across.sites.map((s, i) => siteView(s, output.plots[i]));
 }
 
 /**
- * Analyses every site, then the across-site step, reporting progress per site.
- * @param input - the plot table, block terms ("fixed": fixed blocks where every plot has one)
- *   and canonical prices
- * @param progress - awaited before each site (the worker yields there so a cancel can arrive)
- * @returns the pipeline's analysis and the sites' plots
+ * Analyzes every site, then the across-site step, reporting progress per site.
+ * @param input - the plot table and the analysis settings
+ * @param progress - awaited after each site (the worker yields there so a cancel can arrive)
+ * @returns the trial's analysis
  */
 export async function analyzeTable(
   input: AnalysisInput,
   progress: (done: number, total: number, note: string) => Promise<void>,
 ): Promise<AnalysisOutput> {
-  // The screen's groups step does not exist, so the group analyses are not asked for.
-  const plan = planAcrossSites(input.table, {
-    prices: input.prices,
-    blocks: input.blocks === 'fixed' ? 'auto' : 'none',
-    groupKeys: [],
-  });
-  const sites: PipelineSite[] = [];
-  for (const [i, plots] of plan.plots.entries()) {
-    await progress(i, plan.plots.length + 1, plots.site);
-    sites.push(analyzePipelineSite(plots, plan.options));
+  const steps = analyzeTrialSteps(input.table, input.settings);
+  for (;;) {
+    const step = steps.next();
+    if (step.done) return step.value;
+    await progress(step.value.done, step.value.total + 1, step.value.site);
   }
-  await progress(plan.plots.length, plan.plots.length + 1, 'across sites');
-  return { analysis: acrossSites(plan, sites), plots: [...plan.plots] };
 }

@@ -7,7 +7,7 @@
  */
 import type { JsonValue, PlotrateProject } from '../../../shared/project/projectFormat';
 import { createProject } from '../../../shared/project/createProject';
-import { BOOTSTRAP } from '../analysis/intervals';
+import { ANALYSIS_DEFAULTS } from '../../../shared/analysis/analysisSettings';
 import type { Session } from './session';
 import { checkSession } from './session';
 import type { PlotTable } from '../../../shared/table/plotTable';
@@ -46,9 +46,9 @@ export function projectFromWorkspace(
       grainPerKg: prices?.grainPricePerKg ?? null,
     },
     bootstrap: {
-      resamples: BOOTSTRAP.count,
-      seed: BOOTSTRAP.seed,
-      confidenceLevel: BOOTSTRAP.level,
+      resamples: ANALYSIS_DEFAULTS.resamples,
+      seed: ANALYSIS_DEFAULTS.seed,
+      confidenceLevel: ANALYSIS_DEFAULTS.intervalLevel,
     },
     view: JSON.parse(JSON.stringify({ workspace: view })) as { [k: string]: JsonValue },
   };

@@ -1,10 +1,11 @@
-// Fits (from the worker, price-free) and everything re-priced from them on the main thread.
+// The one analysis (from the worker, price-free) and its priced view on the main thread.
 import { untrack } from 'svelte';
+import { analysisSettings } from '../../../shared/analysis/analysisSettings';
+import { priceTrial, type PricedTrial } from '../../../shared/analysis/priceTrial';
+import { illustrativePrices } from '../../../shared/economics/illustrativePrices';
 import type { BlockTerms, ModelName } from '../../../shared/models/modelTypes';
-import { ILLUSTRATIVE_PRICES, canonicalPrices } from '../analysis/priceInputs';
-import { chooseSiteModels } from '../../../shared/analysis/chooseSiteModels';
 import type { PlotTable } from '../../../shared/table/plotTable';
-import { regionalAtPrices, siteLeads, siteOptima, type SiteOptimum } from '../analysis/pricing';
+import { regionalOf, siteLeads, siteOptima, type SiteOptimum } from '../analysis/pricing';
 import {
   poolingTests,
   siteViews,
@@ -24,8 +25,6 @@ export class Analysis {
   selectedSite = $state<string | null>(null);
   /** True when the user stopped the fits before they finished. */
   stopped = $state(false);
-  /** Site → interval of the leading model's optimum, kg/ha (bootstrap, at the current prices). */
-  intervals = $state.raw<Record<string, [number, number]>>({});
   /** The table the current output was fitted to (identity), to skip refitting the same one. */
   #fittedTable: PlotTable | null = null;
   #fittedBlocks: BlockTerms | null = null;
@@ -44,30 +43,29 @@ export class Analysis {
   sites: SiteAnalysis[] = $derived(this.output ? siteViews(this.output) : []);
 
   /** The common-response tests of the all-sites step. */
-  pooling = $derived(this.output ? poolingTests(this.output.analysis) : []);
+  pooling = $derived(this.output ? poolingTests(this.output.across) : []);
 
   /**
-   * Site → leading model: the user's pick, else the pipeline's recommendation model. It does
+   * Site → leading model: the user's pick, else the analysis' recommendation model. It does
    * not depend on prices, so what depends on leads alone (the regional gains, the overlay of
    * curves) is not rebuilt while a price slider moves.
    */
   leads: Record<string, ModelName | null> = $derived(
-    this.output ? siteLeads(this.output.analysis, this.choices) : {},
+    this.output ? siteLeads(this.output, this.choices) : {},
   );
 
-  /** The pipeline's analysis with the user's models: rebuilt only when fits or choices change. */
-  #chosen = $derived(this.output ? chooseSiteModels(this.output.analysis, this.choices) : null);
-
-  optima: SiteOptimum[] = $derived.by(() => {
-    const priced = this.#prices.canonical;
-    if (!priced.ok) return [];
-    return siteOptima(this.sites, this.leads, priced.prices);
+  /**
+   * The analysis at the current prices and the user's model picks (priceTrial): no refit, no
+   * new bootstrap. Null before an analysis or while the prices cannot be used.
+   */
+  priced: PricedTrial | null = $derived.by(() => {
+    const prices = this.#prices.canonical;
+    return this.output && prices.ok ? priceTrial(this.output, prices.prices, this.choices) : null;
   });
 
-  regional = $derived.by(() => {
-    const priced = this.#prices.canonical;
-    return priced.ok && this.#chosen ? regionalAtPrices(this.#chosen, priced.prices) : null;
-  });
+  optima: SiteOptimum[] = $derived(this.priced ? siteOptima(this.sites, this.priced) : []);
+
+  regional = $derived(this.priced ? regionalOf(this.priced) : null);
 
   /** The analysis of the selected site (the first one when none is selected). */
   site = $derived(this.sites.find((s) => s.site === this.selectedSite) ?? this.sites[0] ?? null);
@@ -80,8 +78,8 @@ export class Analysis {
   }
 
   /**
-   * Fits the table in the worker (cancelling a fit still running). A table
-   * with no plots clears the results.
+   * Analyzes the table in the worker (cancelling an analysis still running), with the analysis
+   * defaults the command line uses. A table with no plots clears the results.
    */
   async run(table: PlotTable | null): Promise<void> {
     if (table === this.#fittedTable && this.blocks === this.#fittedBlocks) return;
@@ -91,15 +89,17 @@ export class Analysis {
       this.output = null;
       return;
     }
-    this.intervals = {};
     this.stopped = false;
     try {
-      // Any valid prices do for the first pricing: the window re-prices without refitting.
+      // The analysis' own first pricing: the window re-prices it at whatever prices are in force.
       const priced = untrack(() => this.#prices.canonical);
+      const settings = analysisSettings({
+        prices: priced.ok ? { ...priced.prices } : illustrativePrices(table.crop).canonical,
+        blocks: this.blocks === 'fixed' ? 'auto' : 'none',
+      });
       const output = await this.#jobs.run<AnalysisOutput>('Fitting sites', 'analyze', {
         table: $state.snapshot(table),
-        blocks: this.blocks,
-        prices: priced.ok ? { ...priced.prices } : canonicalPrices(ILLUSTRATIVE_PRICES),
+        settings,
       });
       if (output && this.#fittedTable === table) this.output = output;
       if (!output && this.#fittedTable === table) {
@@ -114,47 +114,9 @@ export class Analysis {
     }
   }
 
-  /**
-   * Bootstraps every site's optimum interval in the worker at the current
-   * prices and leading models (cancelling a run still going).
-   */
-  async refreshIntervals(): Promise<void> {
-    const output = this.output;
-    const priced = this.#prices.canonical;
-    if (!output || !priced.ok) return;
-    const leads = untrack(() => this.leads);
-    const sites = untrack(() => this.sites).flatMap((s, index) => {
-      const model = leads[s.site];
-      const blocks = output.analysis.sites[index].blocks;
-      return model
-        ? [
-            {
-              site: s.site,
-              index,
-              model,
-              blocks,
-              rateKgHa: s.plots.rateKgHa,
-              yieldKgHa: s.plots.yieldKgHa,
-              block: s.plots.block,
-            },
-          ]
-        : [];
-    });
-    try {
-      const found = await this.#jobs.run<Record<string, [number, number]>>(
-        'Optimum intervals',
-        'intervals',
-        { sites, prices: { ...priced.prices } },
-      );
-      if (found && this.output === output) this.intervals = found;
-    } catch (error) {
-      this.#messages.add('warning', 'The optimum intervals could not be computed', String(error));
-    }
-  }
-
-  /** The optimum interval of a site's leading model, kg/ha, or null when not computed. */
+  /** The optimum interval of a site's leading model, kg/ha, or null when there is none. */
   intervalFor(site: string): [number, number] | null {
-    return this.intervals[site] ?? null;
+    return this.optima.find((o) => o.site === site)?.intervalKgHa ?? null;
   }
 
   /** Picks the model that leads at a site (its optimum, chart and report). */

@@ -67,13 +67,11 @@ async function command(ws: Workspace, api: DesktopApi, cmd: MenuCommand): Promis
     }
     case 'export-workbook':
       ws.step = 'report';
-      if (!ws.report.report) await ws.report.prepare();
       await ws.report.exportWorkbook();
       return;
     case 'print-grower-page':
     case 'save-grower-pdf':
       ws.step = 'report';
-      if (!ws.report.report) await ws.report.prepare();
       // One frame for the page to show before the shell prints it.
       await new Promise((resolve) => requestAnimationFrame(() => resolve(null)));
       if (cmd === 'print-grower-page') await ws.bridge.print();

@@ -1,9 +1,37 @@
 // The prices every optimum and chart reads; stored canonical (per kg, per ha).
 import type { Prices as CanonicalPrices } from '../../../shared/economics/priceRatio';
-import { canonicalPrices, ILLUSTRATIVE_PRICES, type PriceSettings } from '../analysis/priceInputs';
+import type { CropId } from '../../../shared/table/plotTable';
+import {
+  canonicalPrices,
+  illustrativePriceSettings,
+  ILLUSTRATIVE_PRICES,
+  type PriceSettings,
+} from '../analysis/priceInputs';
 
 export class Prices {
-  settings = $state<PriceSettings>({ ...ILLUSTRATIVE_PRICES });
+  #given = $state<PriceSettings>({ ...ILLUSTRATIVE_PRICES });
+  #crop: () => CropId = () => 'corn';
+
+  /** @param crop - the current crop: illustrative grain prices follow it until the user gives one */
+  constructor(crop: () => CropId = () => 'corn') {
+    this.#crop = crop;
+  }
+
+  /** The price inputs in force: the user's, or the crop's illustrative ones (shared with the command line). */
+  #settings = $derived(
+    this.#given.illustrative
+      ? { ...illustrativePriceSettings(this.#crop()), currency: this.#given.currency }
+      : this.#given,
+  );
+
+  get settings(): PriceSettings {
+    return this.#settings;
+  }
+
+  set settings(value: PriceSettings) {
+    this.#given = value;
+  }
+
   /** The canonical prices, or the reason they cannot be used (shown by the price fields). */
   canonical: { ok: true; prices: CanonicalPrices } | { ok: false; reason: string } = $derived.by(
     () => {
@@ -26,6 +54,6 @@ export class Prices {
 
   /** Changes some inputs; any edit makes the prices the user's own. */
   update(change: Partial<PriceSettings>): void {
-    this.settings = { ...this.settings, ...change, illustrative: false };
+    this.#given = { ...this.#settings, ...change, illustrative: false };
   }
 }

@@ -1,4 +1,5 @@
-// The report: assembled in the worker at the current prices, previewed as the
+// The report: assembled on the main thread from the one analysis and its priced
+// view (no refit, no bootstrap: assembleReport only reshapes), previewed as the
 // grower page, exported as the workbook, printed or saved as PDF.
 import { growerPage, type GrowerPage } from '../../../shared/report/growerPage';
 import { regionalReturnChart } from '../../../shared/report/regionalReturnChart';
@@ -6,9 +7,10 @@ import { siteResponseChart } from '../../../shared/report/siteResponseChart';
 import type { TrialReport } from '../../../shared/report/trialReport';
 import type { SheetImage } from '../../../shared/report/workbookSite';
 import type { ChartSpec } from '../../../shared/report/chartSpec';
-import { reportSettings } from '../analysis/reportInput';
+import { assembleReport } from '../../../shared/report/assembleReport';
+import { mappingEntries } from '../../../shared/import/mappingEntries';
+import { reportDisplay } from '../analysis/reportInput';
 import { plotlyFromSpec } from '../lib/plotlyFromSpec';
-import { JobFailedError } from '../lib/workerProtocol';
 import type { Workspace } from './workspace.svelte';
 
 /** Version written into reports (the desktop shell's own when present). */
@@ -33,7 +35,6 @@ async function chartPng(spec: ChartSpec): Promise<SheetImage> {
 }
 
 export class Report {
-  report = $state.raw<TrialReport | null>(null);
   /** The page shown: a site name or "region". */
   which = $state<string>('region');
   busy = $state(false);
@@ -42,6 +43,33 @@ export class Report {
   constructor(ws: Workspace) {
     this.#ws = ws;
   }
+
+  /**
+   * The report of the current analysis at the current prices and picks, or null before there is
+   * one. Built from the analysis' priced view, so it always says what the screen says.
+   */
+  report: TrialReport | null = $derived.by(() => {
+    const ws = this.#ws;
+    const analysis = ws.analysis.output;
+    const priced = ws.analysis.priced;
+    if (!analysis || !priced) return null;
+    const display = reportDisplay(
+      ws.prices.settings,
+      ws.settings.units,
+      ws.settings.unitSystem,
+      analysis.crop,
+    );
+    const mapping = mappingEntries(
+      Object.entries(ws.trial.edits.mappings).map(([file, m]) => ({ file, mapping: m })),
+    );
+    return assembleReport(analysis, priced, display, {
+      tool: { name: 'Plotrate', version: APP_VERSION },
+      createdAt: nowIso(),
+      mapping,
+      // The import's own findings; the analysis adds its quality checks, as on the command line.
+      findings: ws.trial.built?.ok ? ws.trial.built.findings : [],
+    });
+  });
 
   /** Grower page of the chosen site or region, or null before the report exists. */
   page: GrowerPage | null = $derived.by(() => {
@@ -55,52 +83,6 @@ export class Report {
       return null;
     }
   });
-
-  /** Assembles the report at the current prices (cancelling one in progress). */
-  async prepare(): Promise<void> {
-    const ws = this.#ws;
-    const table = ws.trial.table;
-    if (!table || !ws.prices.canonical.ok) return;
-    const settings = reportSettings(
-      $state.snapshot(ws.prices.settings),
-      ws.settings.units,
-      ws.settings.unitSystem,
-      table.crop,
-      ws.analysis.blocks,
-      $state.snapshot(ws.analysis.choices),
-    );
-    const mapping = Object.entries(ws.trial.edits.mappings).flatMap(([file, m]) =>
-      m.sheets.flatMap((s) =>
-        s.columns
-          .filter((c) => c.role !== 'ignore' && s.use !== 'ignore')
-          .map((c) => ({
-            file,
-            sheet: s.sheet,
-            role: c.role,
-            header: c.header,
-            unit: c.unit ?? '',
-          })),
-      ),
-    );
-    try {
-      const report = await ws.jobs.run<TrialReport>('Preparing the report', 'report', {
-        table: $state.snapshot(table),
-        settings,
-        meta: {
-          tool: { name: 'Plotrate', version: APP_VERSION },
-          createdAt: nowIso(),
-          mapping,
-        },
-      });
-      if (report) this.report = report;
-    } catch (error) {
-      ws.messages.add(
-        'error',
-        'The report could not be prepared',
-        error instanceof JobFailedError ? error.message : String(error),
-      );
-    }
-  }
 
   /** Draws the charts, writes the workbook in the worker and hands it to the shell or a download. */
   async exportWorkbook(): Promise<string | null> {

@@ -27,7 +27,7 @@ export class Workspace {
   ready = $state(false);
   readonly settings = new Settings();
   readonly messages = new Messages();
-  readonly prices = new Prices();
+  readonly prices = new Prices(() => this.crop);
   readonly jobs: Jobs;
   readonly sources: Sources;
   readonly trial: Trial;

@@ -6,12 +6,8 @@ import type { RawWorkbook } from '../../../shared/import/rawWorkbook';
 import { readTrialFile } from '../../../shared/import/readTrialFile';
 import type { JobContext, JobHandler } from '../lib/workerProtocol';
 import { analyzeTable, type AnalysisInput, type AnalysisOutput } from '../analysis/siteAnalysis';
-import { siteIntervals, type IntervalInput } from '../analysis/intervals';
-import { analyzeTrials, type AnalyzeMeta } from '../../../shared/report/analyzeTrials';
-import type { ReportSettings } from '../../../shared/report/reportSettings';
 import type { TrialReport } from '../../../shared/report/trialReport';
 import { writeWorkbook, type WorkbookOptions } from '../../../shared/report/workbook';
-import type { PlotTable } from '../../../shared/table/plotTable';
 
 /** One file's outcome: its sheets, or the message to show where the user is looking. */
 export type ReadOutcome =
@@ -41,44 +37,14 @@ export async function readFiles(files: TrialFileBytes[], ctx: JobContext): Promi
 }
 
 /**
- * Fits every site and runs the across-site tests.
- * @param input - plot table and block terms
+ * The one analysis run (analyzeTrialSteps): fits, tests and bootstrap draws per site, then the
+ * across-site step.
+ * @param input - plot table and analysis settings
  * @param ctx - progress per site, and cancel
  * @returns plain-data results the window re-prices without refitting
  */
 export function analyze(input: AnalysisInput, ctx: JobContext): Promise<AnalysisOutput> {
   return analyzeTable(input, (done, total, note) => ctx.progress(done, total, note));
-}
-
-/**
- * Bootstraps each site's optimum interval at the current prices.
- * @param input - sites with their leading models, blocks, prices
- * @param ctx - progress per site, and cancel
- * @returns site → interval, kg/ha
- */
-export function intervals(
-  input: IntervalInput,
-  ctx: JobContext,
-): Promise<Record<string, [number, number]>> {
-  return siteIntervals(input, (done, total, note) => ctx.progress(done, total, note));
-}
-
-/** Input of the report job. */
-export interface ReportJobInput {
-  table: PlotTable;
-  settings: ReportSettings;
-  meta: Omit<AnalyzeMeta, 'onProgress'>;
-}
-
-/**
- * Assembles the report summary every writer reads (fits, bootstrap, pooling).
- * @param input - table, report settings and provenance
- * @param ctx - progress (reported before the run; the assembly is one call)
- * @returns the TrialReport
- */
-export async function report(input: ReportJobInput, ctx: JobContext): Promise<TrialReport> {
-  await ctx.progress(0, 1, 'assembling the report');
-  return analyzeTrials(input.table, input.settings, input.meta);
 }
 
 /**
@@ -98,7 +64,5 @@ export async function workbook(
 export const jobHandlers: Record<string, JobHandler> = {
   readFiles: readFiles as JobHandler,
   analyze: analyze as JobHandler,
-  intervals: intervals as JobHandler,
-  report: report as JobHandler,
   workbook: workbook as JobHandler,
 };

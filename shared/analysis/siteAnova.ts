@@ -1,11 +1,38 @@
 /**
- * The report's ANOVA of one site with treatment means ± SE, from the stats
- * stage (oneWayAnova, randomizedBlockAnova). The curves come from the
- * across-site analysis; this is the rate-as-a-factor view beside them.
+ * One site's ANOVA of yield on rate as a factor, with treatment means ± SE, from the stats
+ * stage (oneWayAnova, randomizedBlockAnova): the rate-as-a-factor view beside the curves.
  */
 import { oneWayAnova } from '../stats/oneWayAnova';
 import { randomizedBlockAnova } from '../stats/randomizedBlockAnova';
-import type { AnovaSummary, TreatmentMeanRow } from './trialReport';
+
+/** Treatment mean ± SE by rate, kg/ha. */
+export interface TreatmentMeanRow {
+  rateKgHa: number;
+  n: number;
+  meanKgHa: number;
+  seKgHa: number;
+}
+
+/** One ANOVA source line; ss and ms in (kg/ha)². */
+export interface AnovaRow {
+  source: string;
+  df: number;
+  ss: number;
+  ms: number | null;
+  F: number | null;
+  p: number | null;
+}
+
+export interface AnovaSummary {
+  design: 'rcbd' | 'oneWay';
+  rows: AnovaRow[];
+  cvPercent: number | null;
+  /** Fisher's LSD at 5 %, kg/ha; null when unbalanced (no single LSD). */
+  lsdKgHa: number | null;
+  notes: string[];
+  /** Plots missing from a complete block design (rate, kg/ha, and block): the means are block-adjusted. */
+  missingPlots: { rateKgHa: number; block: string }[];
+}
 
 /**
  * The site's ANOVA of yield on rate as a factor (randomized complete blocks

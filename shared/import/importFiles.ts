@@ -1,23 +1,22 @@
 /**
  * File bytes → plot table for a batch run: read every file, detect its
- * columns, apply the user's role overrides ("--map yield=Grain"), build the
- * table and run the quality checks. Also reports the units the input used
+ * columns, apply the user's role overrides ("--map yield=Grain") and build the
+ * table (the analysis runs the quality checks). Also reports the units the input used
  * (results are shown in them unless the user picks a system) and the mapping
  * in the flat form the provenance sheet lists. Pure: bytes in, values out.
  */
-import { buildPlotTable } from '../import/buildPlotTable';
-import { MAPPED_ROLES, type ColumnMapping, type MappedRole } from '../import/columnMapping';
-import { detectColumns } from '../import/detectColumns';
-import { unitFromHeader } from '../import/headerWords';
-import { ImportError } from '../import/importError';
-import { readTrialFile } from '../import/readTrialFile';
-import { checkQuality } from '../quality/checkQuality';
 import type { QualityFinding } from '../quality/qualityFinding';
 import type { CropId, PlotTable } from '../table/plotTable';
 import { rateUnits, type RateUnit } from '../units/convertRate';
 import { yieldUnits, type YieldUnit } from '../units/convertYield';
-import type { ReportUnits } from './reportSettings';
-import type { MappingEntry } from './trialReport';
+import type { DisplayUnits } from '../units/displayUnits';
+import { buildPlotTable } from './buildPlotTable';
+import { MAPPED_ROLES, type ColumnMapping, type MappedRole } from './columnMapping';
+import { detectColumns } from './detectColumns';
+import { unitFromHeader } from './headerWords';
+import { ImportError } from './importError';
+import { mappingEntries, type MappingEntry } from './mappingEntries';
+import { readTrialFile } from './readTrialFile';
 
 /** Roles a user may assign with an override: every role a column can have. */
 export const mappableRoles: readonly MappedRole[] = MAPPED_ROLES;
@@ -28,12 +27,12 @@ export interface RoleOverride {
   header: string;
 }
 
-export interface TableFromFilesResult {
+export interface ImportedFiles {
   table: PlotTable;
   findings: QualityFinding[];
   mapping: MappingEntry[];
   /** Units of the first plots sheet's rate and yield columns, when they are rate/yield units. */
-  inputUnits: ReportUnits;
+  inputUnits: DisplayUnits;
 }
 
 const norm = (s: string): string => s.trim().toLowerCase().replace(/\s+/g, ' ');
@@ -65,16 +64,16 @@ function applyOverrides(mapping: ColumnMapping, overrides: readonly RoleOverride
  * Reads trial files into one plot table.
  * @param files - names (no directories needed) and bytes of each file
  * @param options - the crop, role overrides, and sheets to import (default every plots sheet)
- * @returns the table, quality findings, the mapping as used and the input's units
+ * @returns the table, import findings, the mapping as used and the input's units
  * @throws {ImportError} for an unreadable file, an override naming a header no file has, or a
  *   mapping that cannot build plots; the message names the file, sheet and cell
  * @example
- * const { table } = await tableFromFiles([{ name: 'trial.csv', bytes }], { crop: 'corn', overrides: [] });
+ * const { table } = await importFiles([{ name: 'trial.csv', bytes }], { crop: 'corn', overrides: [] });
  */
-export async function tableFromFiles(
+export async function importFiles(
   files: readonly { name: string; bytes: Uint8Array }[],
   options: { crop: CropId; overrides: readonly RoleOverride[]; sheets?: string[] },
-): Promise<TableFromFilesResult> {
+): Promise<ImportedFiles> {
   const raws = [];
   const mappings: ColumnMapping[] = [];
   const matched = new Set<string>();
@@ -105,8 +104,10 @@ export async function tableFromFiles(
     rateBasis: 'nutrient',
     ...(options.sheets ? { sheets: options.sheets } : {}),
   });
-  const quality = checkQuality(table);
-  const entries: MappingEntry[] = [];
+  const entries = mappingEntries(
+    raws.map((raw, i) => ({ file: raw.file.name, mapping: mappings[i] })),
+    options.sheets,
+  );
   let rate: RateUnit | null = null;
   let yld: YieldUnit | null = null;
   raws.forEach((raw, i) => {
@@ -114,13 +115,6 @@ export async function tableFromFiles(
       if (s.use !== 'plots' || (options.sheets && !options.sheets.includes(s.sheet))) continue;
       for (const c of s.columns) {
         if (c.role === 'ignore') continue;
-        entries.push({
-          file: raw.file.name,
-          sheet: s.sheet,
-          role: c.role,
-          header: c.header,
-          unit: c.unit ?? '',
-        });
         if (
           c.role === 'rate' &&
           !rate &&
@@ -138,9 +132,9 @@ export async function tableFromFiles(
       }
     }
   });
-  const inputUnits: ReportUnits = {
+  const inputUnits: DisplayUnits = {
     rate: rate ?? 'kg/ha',
     yield: yld ?? (rate === 'lb/ac' ? 'bu/ac' : 't/ha'),
   };
-  return { table, findings: [...findings, ...quality], mapping: entries, inputUnits };
+  return { table, findings, mapping: entries, inputUnits };
 }

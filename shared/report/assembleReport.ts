@@ -1,45 +1,27 @@
 /**
- * The report summary (TrialReport) every writer reads, built on the one
- * across-site analysis: analyzeAcrossSites (shared/sites) fits every site with
- * every model, ranks them, picks each site's recommendation model
- * (recommendationModel), prices the optima and computes the regional rate and
- * the pooling tests. On top of that this module adds only what the report
- * needs: the ANOVA with treatment means ± SE (siteAnova), the bootstrap
- * interval of the recommendation model's optimum, the site's profitable range,
- * and notes in words without numbers, so that each writer can show the rates in
- * its own display units. Pure: no I/O, the caller passes the tool version, the
- * time and the mapping it used.
+ * The report summary (TrialReport) every writer reads, assembled from one
+ * analysis (analyzeTrial) at one set of prices and picks (priceTrial). It fits
+ * nothing and resamples nothing: the fits, tests, ANOVA, draws and the across-site
+ * results come from the analysis, the optima, intervals and regional rate from the
+ * priced view. It adds the notes in words without numbers, so that each writer can
+ * show the rates in its own display units. Pure: no I/O, the caller passes the tool
+ * version, the time and the mapping it used.
  */
-import type { Prices } from '../economics/priceRatio';
-import type { ModelName } from '../models/modelTypes';
-import { curveValue } from '../models/curveValue';
-import { describeRef, type QualityFinding } from '../quality/qualityFinding';
-import {
-  analyzeAcrossSites,
-  type AcrossSiteAnalysis,
-  type FitData,
-  type SiteAnalysis,
-} from '../analysis/analyzeAcrossSites';
-import { leadingModel } from '../analysis/leadingModel';
-import { rateGrid } from '../analysis/rateGrid';
-import type { RecommendationModel } from '../analysis/recommendationModel';
-import {
-  ONE_PER_ACRE_IN_PER_HA,
-  prepareRegionalReturn,
-  regionalReturnAtPrices,
-} from '../analysis/regionalReturn';
+import type { TrialAnalysis } from '../analysis/analyzeTrial';
+import type { AcrossSiteAnalysis, FitData, SiteAnalysis } from '../analysis/analyzeAcrossSites';
+import type { PricedSite, PricedTrial } from '../analysis/priceTrial';
 import type { SiteModelRow } from '../analysis/siteModelRows';
-import { sitePlots, type SitePlots } from '../analysis/sitePlots';
-import type { Plot, PlotTable } from '../table/plotTable';
-import { bootstrapSiteOptimum } from './bootstrapSiteOptimum';
+import type { SitePlots } from '../analysis/sitePlots';
+import type { MappingEntry } from '../import/mappingEntries';
+import type { ModelName } from '../models/modelTypes';
+import { describeRef, type QualityFinding } from '../quality/qualityFinding';
+import type { Plot } from '../table/plotTable';
 import { fitMessage, optimumNote } from './modelNotes';
-import { priceTerms, type ReportSettings } from './reportSettings';
-import { siteAnova } from './siteAnova';
+import { priceTerms, type DisplaySettings } from './reportSettings';
 import type {
   AcrossSitesReport,
   InterceptSummary,
   LackOfFitSummary,
-  MappingEntry,
   ModelRow,
   SiteReport,
   TrialReport,
@@ -52,14 +34,9 @@ export interface AnalyzeMeta {
   mapping: MappingEntry[];
   /** Run-level findings from import (e.g. defaulted prices) to carry into the report. */
   warnings?: string[];
-  /** Quality findings from import and the checks; warnings and errors are shown by their site. */
+  /** Findings of the import (the analysis adds its quality checks); warnings and errors are shown by their site. */
   findings?: readonly QualityFinding[];
-  /** Called after each site with (done, total), for progress on long runs. */
-  onProgress?: (done: number, total: number) => void;
 }
-
-/** Points on each fitted curve for the charts and files of the report. */
-const REPORT_CURVE_POINTS = 81;
 
 /** The intercept test as the report shows it; null with too few plots or rates to test. */
 function interceptSummary(
@@ -106,19 +83,6 @@ function lackOfFitOf(fit: FitData | null): LackOfFitSummary {
     df2: l.dfPureError,
     p: l.p,
   };
-}
-
-/** Rates within `band` of the best return on the chosen curve, kg/ha. */
-function siteProfitableRange(fit: FitData, prices: Prices, band: number): [number, number] {
-  const t = fit.testedRates;
-  const step = Math.max((t.highestKgHa - t.lowestKgHa) / 400, 0.25);
-  const at0 = curveValue(fit.model, fit.params, 0);
-  const prepared = prepareRegionalReturn(
-    [{ site: 's', gainKgHa: (x) => curveValue(fit.model, fit.params, x) - at0 }],
-    rateGrid(t.lowestKgHa, t.highestKgHa, step),
-  );
-  const r = regionalReturnAtPrices(prepared, prices, { bandPerHa: band });
-  return [r.profitableRange.lowKgHa, r.profitableRange.highKgHa];
 }
 
 /** Quality findings of warning or error severity as lines, by site and for the whole run. */
@@ -168,64 +132,44 @@ function modelRow(f: FitData, row: SiteModelRow, ciKgHa: [number, number] | null
 }
 
 /**
- * Analyzes every site of a plot table and assembles the report summary.
- * @param table - the plot table (canonical kg/ha)
- * @param settings - display units, prices (with the application cost), bootstrap size and seed,
- *   block terms, the user's model per site
- * @param meta - tool name/version, time stamp, mapping, progress callback
+ * Assembles the report summary from an analysis and its priced view.
+ * @param analysis - from analyzeTrial
+ * @param priced - from priceTrial (the prices and picks the report speaks of)
+ * @param display - display units and the prices as the user quoted them
+ * @param meta - tool name/version, time stamp, mapping, import findings and run notes
  * @returns the TrialReport every writer reads
- * @throws {RangeError} for prices that are missing or not positive
+ * @throws {RangeError} for quoted prices that are missing or not positive
  * @example
- * const report = analyzeTrials(table, settings, { tool, createdAt, mapping: [] });
+ * const report = assembleReport(analysis, priceTrial(analysis, prices, {}), display, meta);
  * report.sites[0].bestModel // 'quadraticPlateau'
  */
-export function analyzeTrials(
-  table: PlotTable,
-  settings: ReportSettings,
+export function assembleReport(
+  analysis: TrialAnalysis,
+  priced: PricedTrial,
+  display: DisplaySettings,
   meta: AnalyzeMeta,
 ): TrialReport {
-  const terms = priceTerms({ ...settings, crop: table.crop });
-  const prices: Prices = {
-    grainPricePerKg: terms.grainPricePerKg,
-    nutrientPricePerKg: terms.nutrientPricePerKg,
-    applicationCostPerHa: terms.applicationCostPerHa,
-  };
-  const band = ONE_PER_ACRE_IN_PER_HA;
-  const plotsOf = sitePlots(table);
-  // Fixed blocks where every plot of the site has a label; the report's groups are not needed.
-  const analysis = analyzeAcrossSites(plotsOf, {
-    prices,
-    blocks: settings.blocks === 'fixed' ? 'auto' : 'none',
-    bandPerHa: band,
-    groupKeys: [],
-    curvePoints: REPORT_CURVE_POINTS,
-    siteModels: settings.siteModels ?? {},
-  });
-  const tablePlots = new Map<string, Plot[]>(plotsOf.map((p) => [p.site, []]));
+  const { table, settings: a } = analysis;
+  const terms = priceTerms({ ...display, crop: table.crop });
+  const tablePlots = new Map<string, Plot[]>(analysis.plots.map((p) => [p.site, []]));
   for (const p of table.plots) tablePlots.get(p.site)?.push(p);
   const rowsOf = new Map<string, Map<ModelName, SiteModelRow>>();
-  for (const r of analysis.rows) {
+  for (const r of priced.across.rows) {
     const m = rowsOf.get(r.site) ?? new Map<ModelName, SiteModelRow>();
     m.set(r.model, r);
     rowsOf.set(r.site, m);
   }
-  const found = findingLines(meta.findings ?? []);
-  const sites: SiteReport[] = analysis.sites.map((s, index) => {
-    const report = siteReport(s, plotsOf[index], tablePlots.get(s.site) ?? [], {
+  const found = findingLines([...(meta.findings ?? []), ...analysis.findings]);
+  const sites: SiteReport[] = priced.across.sites.map((s, index) =>
+    siteReport(s, analysis.plots[index], tablePlots.get(s.site) ?? [], {
       rows: rowsOf.get(s.site)!,
       findings: found.bySite.get(s.site) ?? [],
-      settings,
-      prices,
-      band,
-      // One seed per site, derived from the run's seed, so a site's interval does not depend on the sites before it.
-      seed: (settings.seed + index * 7919) >>> 0,
-    });
-    meta.onProgress?.(index + 1, analysis.sites.length);
-    return report;
-  });
-
+      priced: priced.sites[index],
+      blocksAsked: a.blocks,
+    }),
+  );
   const runWarnings = [...(meta.warnings ?? []), ...found.run.slice(0, 10)];
-  if (settings.prices.defaulted)
+  if (display.prices.defaulted)
     runWarnings.push(
       'No prices were given: illustrative prices were used. Give your own grain and nitrogen prices before acting on any rate.',
     );
@@ -233,31 +177,25 @@ export function analyzeTrials(
     tool: meta.tool,
     createdAt: meta.createdAt,
     crop: table.crop,
-    settings: { ...settings, crop: table.crop },
+    settings: {
+      ...display,
+      crop: table.crop,
+      boot: a.resamples,
+      seed: a.seed,
+      blocks: a.blocks === 'auto' ? 'fixed' : 'none',
+      intervalLevel: a.intervalLevel,
+      siteModels: { ...priced.choices },
+    },
     prices: terms,
     sources: table.sources,
     mapping: meta.mapping,
     sites,
-    acrossSites: acrossSitesOf(analysis),
+    acrossSites: acrossSitesOf(priced.across),
     warnings: runWarnings,
   };
 }
 
-/** The site's leading model: the user's pick (leadingModel) or the recommendation model, and why. */
-function siteChoice(
-  s: SiteAnalysis,
-  settings: ReportSettings,
-): RecommendationModel & { picked: boolean } {
-  const model = leadingModel(s, settings.siteModels ?? {});
-  const rec = s.recommended.model;
-  if (model === rec) return { ...s.recommended, picked: false };
-  const instead = rec
-    ? `the ${s.fits!.fits[rec].label.toLowerCase()} (${s.recommended.reason})`
-    : `no model (${s.recommended.reason})`;
-  return { model, reason: `picked by the analyst instead of ${instead}`, picked: true };
-}
-
-/** One site's part of the report, from its analysis. */
+/** One site's part of the report, from its analysis and its priced view. */
 function siteReport(
   s: SiteAnalysis,
   used: SitePlots,
@@ -265,14 +203,11 @@ function siteReport(
   c: {
     rows: ReadonlyMap<ModelName, SiteModelRow>;
     findings: string[];
-    settings: ReportSettings;
-    prices: Prices;
-    band: number;
-    seed: number;
+    priced: PricedSite;
+    blocksAsked: 'auto' | 'none';
   },
 ): SiteReport {
   const rates = Array.from(used.rateKgHa);
-  const yields = Array.from(used.yieldKgHa);
   const blocks = used.block;
   // A long list hides the important lines; the rest are in the quality report on screen.
   const warnings: string[] =
@@ -285,9 +220,8 @@ function siteReport(
   const distinct = [...new Set(rates)].sort((a, b) => a - b);
   const blockCount = new Set(blocks.filter((b) => b !== null)).size;
   const designText = `${blockCount > 0 ? `${blockCount} block${blockCount === 1 ? '' : 's'} × ` : ''}${distinct.length} rate${distinct.length === 1 ? '' : 's'}`;
-  if (c.settings.blocks === 'fixed' && blocks.some((b) => b === null || b === ''))
+  if (c.blocksAsked === 'auto' && blocks.some((b) => b === null || b === ''))
     warnings.push('Some plots have no block label, so the curves were fitted without block terms.');
-  const { anova, means } = siteAnova(rates, yields, blocks);
   const interceptTest = interceptSummary(s, used, distinct.length, warnings);
   // A site with fewer than two rates has no curve to show, whatever the models returned.
   const all = distinct.length >= 2 ? s.fits : null;
@@ -297,30 +231,23 @@ function siteReport(
     );
   else if (!all) warnings.push(`The curves could not be fitted: ${s.problem ?? 'not fitted'}`);
   const choice = all
-    ? siteChoice(s, c.settings)
+    ? c.priced.lead
     : { model: null, reason: 'no model could be fitted', picked: false };
   const bestFit = all && choice.model ? all.fits[choice.model] : null;
-  let bootstrap: SiteReport['bootstrap'] = null;
-  if (bestFit && c.settings.boot > 0) {
-    const b = bootstrapSiteOptimum(
-      {
-        rateKgHa: rates,
-        yieldKgHa: yields,
-        block: blocks,
-        model: bestFit.model,
-        blocks: s.blocks,
-        prices: c.prices,
-      },
-      c.settings.boot,
-      c.seed,
-      c.settings.intervalLevel,
+  const interval = bestFit ? c.priced.interval : null;
+  const bootstrap: SiteReport['bootstrap'] = interval
+    ? {
+        count: interval.count,
+        usable: interval.usable,
+        seed: interval.seed,
+        level: interval.level,
+        ciKgHa: interval.ciKgHa,
+      }
+    : null;
+  if (bootstrap && !bootstrap.ciKgHa)
+    warnings.push(
+      `Only ${bootstrap.usable} of ${bootstrap.count} bootstrap resamples gave an optimum: no interval is reported.`,
     );
-    bootstrap = b;
-    if (!b.ciKgHa)
-      warnings.push(
-        `Only ${b.usable} of ${b.count} bootstrap resamples gave an optimum: no interval is reported.`,
-      );
-  }
   const models: ModelRow[] = all
     ? all.ranking.map(({ model }) =>
         modelRow(
@@ -345,14 +272,14 @@ function siteReport(
         ? { available: false, message: s.responseOverCheck.problem || 'not fitted.' }
         : { available: true, ...s.responseOverCheck },
     lackOfFit: lackOfFitOf(bestFit),
-    anova,
-    treatmentMeans: means,
+    anova: s.anova,
+    treatmentMeans: s.treatmentMeans,
     models,
     bestModel: choice.model,
     bestModelReason: choice.reason,
     bestModelPicked: choice.picked,
     bootstrap,
-    profitableRangeKgHa: bestFit ? siteProfitableRange(bestFit, c.prices, c.band) : null,
+    profitableRangeKgHa: bestFit ? c.priced.profitableRangeKgHa : null,
     returnAtOptimumPerHa: bestRow?.gainOverCheckPerHa ?? null,
     designText,
     residuals: bestFit

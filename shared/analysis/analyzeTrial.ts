@@ -1,0 +1,97 @@
+/**
+ * The one analysis run: a plot table and its settings in, every site × model,
+ * the site-level tests, the bootstrap draws behind the intervals, the quality
+ * findings and the across-site results out. The command line and the
+ * workspace both call this (the workspace step by step, to report progress and
+ * to stop between sites), so the same file gives the same numbers in both.
+ * Prices enter only through priceTrial: a new price or a user's model pick is
+ * a re-pricing of this result, never a refit.
+ */
+import { checkQuality } from '../quality/checkQuality';
+import type { QualityFinding } from '../quality/qualityFinding';
+import type { CropId, PlotTable } from '../table/plotTable';
+import { acrossSites, type AcrossSiteAnalysis } from './acrossSites';
+import { CURVE_POINTS, type AnalysisSettings } from './analysisSettings';
+import { analyzeSite, type SiteAnalysis } from './analyzeSite';
+import { planAcrossSites } from './planAcrossSites';
+import type { SitePlots } from './sitePlots';
+
+/** Everything the analysis found, price-free except for its first pricing at `settings.prices`. */
+export interface TrialAnalysis {
+  settings: AnalysisSettings;
+  crop: CropId;
+  /** The table analyzed (plots with their cells and exclusions, sources). */
+  table: PlotTable;
+  /** Each site's plots used in the fits, in the table's site order. */
+  plots: SitePlots[];
+  /** Data findings of the quality checks (shared/quality), most severe first. */
+  findings: QualityFinding[];
+  /** Fits, tests and draws per site; rows, pooling tests and regional rate at the first prices. */
+  across: AcrossSiteAnalysis;
+}
+
+/**
+ * The analysis as steps: yields each site's name after it is analyzed and returns the whole
+ * result. A caller that must report progress or stop between sites (the workspace's worker)
+ * drives it; analyzeTrial runs it to the end.
+ * @param table - the plot table (canonical kg/ha)
+ * @param settings - complete analysis settings (analysisSettings fills the defaults)
+ * @returns a generator of site names whose return value is the TrialAnalysis
+ * @throws as analyzeTrial
+ * @example
+ * const steps = analyzeTrialSteps(table, settings);
+ * for (let s = steps.next(); !s.done; s = steps.next()) report(s.value);
+ */
+export function* analyzeTrialSteps(
+  table: PlotTable,
+  settings: AnalysisSettings,
+): Generator<{ done: number; total: number; site: string }, TrialAnalysis, void> {
+  const plan = planAcrossSites(table, {
+    prices: settings.prices,
+    blocks: settings.blocks,
+    siteModels: settings.siteModels,
+    curvePoints: CURVE_POINTS,
+    resamples: settings.resamples,
+    seed: settings.seed,
+  });
+  const findings = checkQuality(table);
+  const sites: SiteAnalysis[] = [];
+  const total = plan.plots.length;
+  for (const [i, p] of plan.plots.entries()) {
+    sites.push(analyzeSite(p, plan.options, i));
+    yield { done: i + 1, total, site: p.site };
+  }
+  return {
+    settings,
+    crop: table.crop,
+    table,
+    plots: [...plan.plots],
+    findings,
+    across: acrossSites(plan, sites),
+  };
+}
+
+/**
+ * Analyzes a trial: every site fitted with every model, its tests and bootstrap draws, the
+ * quality checks, and the across-site tests and regional rate.
+ * @param table - the plot table (canonical kg/ha)
+ * @param settings - complete analysis settings (analysisSettings fills the defaults)
+ * @param onSite - called after each site with (done, total), for progress on long runs
+ * @returns the TrialAnalysis every view prices and reads
+ * @throws {StatsInputError} "bad-argument" for a price that is not positive
+ * @example
+ * const analysis = analyzeTrial(table, analysisSettings({ prices }));
+ * priceTrial(analysis, prices, {}).sites[0].optimum?.rateKgHa // e.g. 168
+ */
+export function analyzeTrial(
+  table: PlotTable,
+  settings: AnalysisSettings,
+  onSite?: (done: number, total: number) => void,
+): TrialAnalysis {
+  const steps = analyzeTrialSteps(table, settings);
+  for (;;) {
+    const step = steps.next();
+    if (step.done) return step.value;
+    onSite?.(step.value.done, step.value.total);
+  }
+}
