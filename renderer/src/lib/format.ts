@@ -7,16 +7,18 @@
 import type { CropId } from '../../../shared/table/plotTable';
 import { rateFromKgHa, type RateUnit } from '../../../shared/units/convertRate';
 import { yieldFromKgHa, type YieldUnit } from '../../../shared/units/convertYield';
-import type { UnitSystem } from '../../../shared/units/displayUnits';
+import {
+  displayUnits as sharedDisplayUnits,
+  type DisplayUnits as SharedDisplayUnits,
+  type UnitSystem,
+} from '../../../shared/units/displayUnits';
 import { M2_PER_ACRE, M2_PER_HA } from '../../../shared/units/unitConstants';
 
 /** The one switch between unit families ('metric' or 'us'), as shared/units names it. */
 export type { UnitSystem };
 
-/** The display units a unit system stands for. */
-export interface DisplayUnits {
-  rate: RateUnit;
-  yield: YieldUnit;
+/** The display units a unit system stands for (shared/units), with the price boxes' area and mass. */
+export interface DisplayUnits extends SharedDisplayUnits {
   /** Area a price per area is given in. */
   area: 'ha' | 'ac';
   /** Mass a price per mass is given in. */
@@ -31,9 +33,10 @@ export interface DisplayUnits {
  * displayUnits('us').yield // 'bu/ac'
  */
 export function displayUnits(system: UnitSystem): DisplayUnits {
+  const units = sharedDisplayUnits(system);
   return system === 'us'
-    ? { rate: 'lb/ac', yield: 'bu/ac', area: 'ac', mass: 'lb' }
-    : { rate: 'kg/ha', yield: 't/ha', area: 'ha', mass: 'kg' };
+    ? { ...units, area: 'ac', mass: 'lb' }
+    : { ...units, area: 'ha', mass: 'kg' };
 }
 
 /** Decimals that match how finely each unit is measured in a plot trial (common practice). */
