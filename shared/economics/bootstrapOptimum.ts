@@ -20,7 +20,7 @@
 import { estimateCurve } from '../models/estimateCurve';
 import type { CurveEstimate, FitOptions, ModelName, SiteData } from '../models/modelTypes';
 import { prepareSite, type PreparedSite } from '../models/prepareSite';
-import { blockColumns } from '../models/profileSolver';
+import { blockColumns } from '../models/solve/profileSolver';
 import { resampleWithinGroups, strataOf } from '../optimize/resampleWithinGroups';
 import { seededRandom } from '../optimize/seededRandom';
 import { StatsInputError } from '../stats/errors';

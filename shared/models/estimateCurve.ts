@@ -6,7 +6,7 @@
  */
 import { estimateExponential } from './exponential';
 import { linearSpec } from './linear';
-import { groupLinearCoefficients } from './linearCoefficients';
+import { groupLinearCoefficients } from './solve/linearCoefficients';
 import { estimateLinearPlateau } from './linearPlateau';
 import type { CurveEstimate, FitOptions, ModelName } from './modelTypes';
 import type { PreparedSite } from './prepareSite';

@@ -27,10 +27,10 @@ import {
   type CurveSpec,
   type FitStore,
 } from './finishFit';
-import { profiledCoefficients } from './linearCoefficients';
+import { profiledCoefficients } from './solve/linearCoefficients';
 import type { CurveEstimate, FitOptions, FitStatus, ModelFit, SiteData } from './modelTypes';
 import { prepareSite, type PreparedSite } from './prepareSite';
-import { profileSolver, type ProfileSolver } from './profileSolver';
+import { profileSolver, type ProfileSolver } from './solve/profileSolver';
 import { KG_HA_FORMAT, rateRangeText, type RateFormat } from './rateFormat';
 
 /** The exponential curve, parameters [a, b, k]. */

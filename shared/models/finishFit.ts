@@ -21,8 +21,8 @@ import type {
 } from './modelTypes';
 import { pureError } from './pureError';
 import type { PreparedSite } from './prepareSite';
-import { exactScratch } from './exactScratch';
-import { blockColumns } from './profileSolver';
+import { exactScratch } from './solve/exactScratch';
+import { blockColumns } from './solve/profileSolver';
 
 /** How a model's curve is evaluated and differentiated. */
 export interface CurveSpec {

@@ -9,7 +9,7 @@ import {
   type CurveSpec,
   type FitStore,
 } from './finishFit';
-import { linearCoefficients } from './linearCoefficients';
+import { linearCoefficients } from './solve/linearCoefficients';
 import type { FitOptions, ModelFit, SiteData } from './modelTypes';
 import { prepareSite, type PreparedSite } from './prepareSite';
 

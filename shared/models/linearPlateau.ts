@@ -1,7 +1,7 @@
 /**
  * The linear-plateau y = a + b·min(x, x0): a straight rise of slope b (kg grain
  * per kg nutrient) up to the join point x0 (kg/ha), flat at the plateau a + b x0
- * beyond it. Fitted globally by profiling x0 (shared/models/searchJoinPoint) with
+ * beyond it. Fitted globally by profiling x0 (shared/models/solve/searchJoinPoint) with
  * the inner fit of [1, min(x, x0)] by least squares and b > 0 enforced.
  *
  * Statuses (data findings):
@@ -23,15 +23,15 @@ import {
   type CurveSpec,
   type FitStore,
 } from './finishFit';
-import { linearCoefficients, profiledCoefficients } from './linearCoefficients';
+import { linearCoefficients, profiledCoefficients } from './solve/linearCoefficients';
 import type { CurveEstimate, FitOptions, ModelFit, SiteData } from './modelTypes';
 import { plateauEstimate } from './plateauEstimate';
 import { prepareSite, type PreparedSite } from './prepareSite';
-import { profileSolver, type ProfileSolver } from './profileSolver';
+import { profileSolver, type ProfileSolver } from './solve/profileSolver';
 import type { RateFormat } from './rateFormat';
-import { relaxedJoinBounds } from './relaxedJoinBounds';
-import { searchJoinPoint } from './searchJoinPoint';
-import { stationaryJoinPoints } from './stationaryJoinPoints';
+import { relaxedJoinBounds } from './solve/relaxedJoinBounds';
+import { searchJoinPoint } from './solve/searchJoinPoint';
+import { stationaryJoinPoints } from './solve/stationaryJoinPoints';
 
 /** The linear-plateau curve, parameters [a, b, x0]. */
 export const linearPlateauSpec: CurveSpec = {

@@ -14,9 +14,9 @@
 import type { CurveSpec } from './finishFit';
 import type { CurveEstimate, FitStatus } from './modelTypes';
 import type { PreparedSite } from './prepareSite';
-import type { ProfileSolver } from './profileSolver';
+import type { ProfileSolver } from './solve/profileSolver';
 import { KG_HA_FORMAT, rateRangeText, rateText, type RateFormat } from './rateFormat';
-import type { JoinSearchResult } from './searchJoinPoint';
+import type { JoinSearchResult } from './solve/searchJoinPoint';
 
 /** Relative SSE difference below which two fits count as equally good. */
 const TIE = 1e-10;

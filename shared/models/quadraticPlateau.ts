@@ -26,15 +26,15 @@ import {
   groupLinearCoefficients,
   linearCoefficients,
   profiledCoefficients,
-} from './linearCoefficients';
+} from './solve/linearCoefficients';
 import type { CurveEstimate, FitOptions, ModelFit, SiteData } from './modelTypes';
 import { plateauEstimate } from './plateauEstimate';
 import { prepareSite, type PreparedSite } from './prepareSite';
-import { profileSolver, type ProfileSolver } from './profileSolver';
+import { profileSolver, type ProfileSolver } from './solve/profileSolver';
 import type { RateFormat } from './rateFormat';
-import { relaxedJoinBounds } from './relaxedJoinBounds';
-import { searchJoinPoint } from './searchJoinPoint';
-import { stationaryJoinPoints } from './stationaryJoinPoints';
+import { relaxedJoinBounds } from './solve/relaxedJoinBounds';
+import { searchJoinPoint } from './solve/searchJoinPoint';
+import { stationaryJoinPoints } from './solve/stationaryJoinPoints';
 
 /** The quadratic-plateau curve, parameters [P, c, x0]. */
 export const quadraticPlateauSpec: CurveSpec = {
