@@ -39,7 +39,6 @@
  * - `estimateCurve(site: PreparedSite, model, options?) → CurveEstimate`: status, params and
  *   SSE only (no errors/residuals/curve), ~5× cheaper; what the bootstrap refits
  * - `curveValue(model, params, rateKgHa) → kg/ha`: a curve from stored parameters
- * - `siteDataFromPlots(tableOrPlots, site?) → SiteData & { plotIds }`
  * - `prepareSite(data, blocks) → PreparedSite` + `fitAllModelsPrepared(site, options)`:
  *   prepare once and refit; `rankByAicc(fits)`
  *
@@ -67,7 +66,6 @@ export { prepareSite } from './prepareSite';
 export type { PreparedSite } from './prepareSite';
 export { fitResponseOverCheck } from './responseOverCheck';
 export type { ResponseOverCheck } from './responseOverCheck';
-export { siteDataFromPlots } from './siteDataFromPlots';
 export { estimateCurve } from './estimateCurve';
 export { KG_HA_FORMAT, rateRangeText, rateText, roundedKgHa } from './rateFormat';
 export type { RateFormat } from './rateFormat';

@@ -42,7 +42,7 @@ export type BlockTerms = 'none' | 'fixed';
 
 /**
  * One site's plots, in canonical units. Arrays are parallel, one entry per plot.
- * Excluded plots must already be left out (see `siteDataFromPlots`).
+ * Excluded plots must already be left out (the across-site plan's `sitePlots` does).
  */
 export interface SiteData {
   /** Nutrient rate of each plot, kg/ha. */
