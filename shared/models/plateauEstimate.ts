@@ -11,7 +11,7 @@
  *   (check against the rest; x0 kept at the second-lowest rate)
  * - otherwise "ok"
  */
-import type { CurveSpec } from './finishFit';
+import type { CurveSpec } from './modelEntry';
 import type { CurveEstimate, FitStatus } from './modelTypes';
 import type { PreparedSite } from './prepareSite';
 import type { ProfileSolver } from './solve/profileSolver';
