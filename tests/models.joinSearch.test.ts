@@ -5,10 +5,10 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { polynomialRoots } from '../shared/optimize/polynomialRoots';
 import { prepareSite, type PreparedSite } from '../shared/models/prepareSite';
-import { profileSolver } from '../shared/models/profileSolver';
-import { relaxedJoinBounds } from '../shared/models/relaxedJoinBounds';
-import { searchJoinPoint } from '../shared/models/searchJoinPoint';
-import { stationaryJoinPoints } from '../shared/models/stationaryJoinPoints';
+import { profileSolver } from '../shared/models/solve/profileSolver';
+import { relaxedJoinBounds } from '../shared/models/solve/relaxedJoinBounds';
+import { searchJoinPoint } from '../shared/models/solve/searchJoinPoint';
+import { stationaryJoinPoints } from '../shared/models/solve/stationaryJoinPoints';
 
 describe('polynomialRoots', () => {
   it('polynomialRoots finds every simple root inside the interval and none outside', () => {

@@ -3,7 +3,6 @@
 // the intercept fixed at zero. Certified values from tests/fixtures/nist/Misra1a.txt.
 import { describe, expect, it } from 'vitest';
 import { fitExponential } from '../shared/models';
-import { fitGaussNewton } from '../shared/optimize/fitGaussNewton';
 import { expectDigits, readNistPairs } from './stats.helpers';
 
 // NIST StRD Misra1a certified values.
@@ -36,26 +35,4 @@ describe('fitExponential on NIST StRD Misra1a (intercept fixed at 0)', () => {
     expectDigits(fit.sse, certified.rss, 9, 'fit.sse');
     expectDigits(fit.rmse, certified.residualSd, 9, 'fit.rmse');
   });
-});
-
-describe('fitGaussNewton (Levenberg-Marquardt) on Misra1a from both NIST starting points', () => {
-  const { first: y, second: x } = readNistPairs('Misra1a.txt');
-  const model = (p: Float64Array, xi: number): number => p[0] * -Math.expm1(-p[1] * xi);
-  const jacobian = (p: Float64Array, xi: number, out: Float64Array): void => {
-    out[0] = -Math.expm1(-p[1] * xi);
-    out[1] = p[0] * xi * Math.exp(-p[1] * xi);
-  };
-  // NIST Misra1a: start 1 (500, 1e-4), start 2 (250, 5e-4).
-  for (const start of [
-    [500, 1e-4],
-    [250, 5e-4],
-  ]) {
-    it(`from (${start.join(', ')}) reaches the certified values to 6 significant digits`, () => {
-      const r = fitGaussNewton({ x, y, start, model, jacobian });
-      expect(r.converged).toBe(true);
-      expectDigits(r.params[0], certified.b1, 6, 'r.params[0]');
-      expectDigits(r.params[1], certified.b2, 6, 'r.params[1]');
-      expectDigits(r.sse, certified.rss, 6, 'r.sse');
-    });
-  }
 });

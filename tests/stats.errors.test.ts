@@ -9,7 +9,6 @@ import { spearmanCorrelation } from '../shared/stats/spearman';
 import { describeSample } from '../shared/stats/describeSample';
 import { sampleMean, sampleVariance } from '../shared/stats/variance';
 import { sampleQuantile } from '../shared/stats/quantile';
-import { lackOfFitTest } from '../shared/stats/lackOfFit';
 import { oneWayAnova } from '../shared/stats/oneWayAnova';
 import { randomizedBlockAnova } from '../shared/stats/randomizedBlockAnova';
 import { fisherLsd } from '../shared/stats/fisherLsd';
@@ -144,12 +143,6 @@ const cases: Array<[string, () => unknown, StatsErrorCode, string]> = [
     'non-finite',
     'randomizedBlockAnova: y: value 3 is NaN; every value must be a finite number.',
   ],
-  [
-    'lackOfFitTest with NaN sse',
-    () => lackOfFitTest({ x: [0, 0, 50], y: [1, 2, 3], sse: NaN, parameters: 2 }),
-    'bad-argument',
-    'lackOfFitTest: sse is NaN; a residual sum of squares is a finite number ≥ 0.',
-  ],
   // Mismatched lengths
   [
     'testIntercept with 3 x and 4 y',
@@ -205,12 +198,6 @@ const cases: Array<[string, () => unknown, StatsErrorCode, string]> = [
       }),
     'bad-argument',
     'randomizedBlockAnova: treatment "0" appears twice in block "2" (rows 3 and 5); a complete block design has one plot per treatment in each block.',
-  ],
-  [
-    'lackOfFitTest with 1.5 parameters',
-    () => lackOfFitTest({ x: [0, 0, 50], y: [1, 2, 3], sse: 1, parameters: 1.5 }),
-    'bad-argument',
-    'lackOfFitTest: parameters is 1.5; it must be a whole number of at least 1.',
   ],
   [
     'fisherLsd with no error df',

@@ -27,6 +27,7 @@
  * with rate, are left out of all three models (so that they stay nested) and
  * listed with the reason.
  */
+import { modelLabelInText } from '../models/catalog';
 import { designSse } from './designSse';
 import { extraSumOfSquaresTest, type FTestResult, type NoTest } from './extraSumOfSquaresTest';
 import { describeFTest } from './describeFTest';
@@ -87,12 +88,6 @@ export interface CommonResponseOptions {
   alpha?: number;
 }
 
-const MODEL_WORDS: Record<PooledLinearModel, string> = {
-  linear: 'straight line',
-  proportional: 'line through the origin',
-  quadratic: 'quadratic',
-};
-
 /** The rate terms g(x) of a model, one array per column. */
 export function rateTerms(model: PooledLinearModel, x: ArrayLike<number>): Float64Array[] {
   const lin = Float64Array.from(x as ArrayLike<number>);
@@ -133,7 +128,7 @@ function siteProblem(site: SitePlots, model: PooledLinearModel): string | null {
   const need = model === 'quadratic' ? 3 : 2;
   return k >= need
     ? null
-    : `${k} distinct rate${k === 1 ? '' : 's'}; a ${MODEL_WORDS[model]} needs at least ${need}`;
+    : `${k} distinct rate${k === 1 ? '' : 's'}; a ${modelLabelInText(model)} needs at least ${need}`;
 }
 
 /**
@@ -154,7 +149,7 @@ export function testCommonResponse(
   const levels = options.levels ?? 'site';
   const alpha = options.alpha ?? 0.05;
   const hasLevels = model !== 'proportional';
-  const words = MODEL_WORDS[model];
+  const words = modelLabelInText(model);
   const sitesLeftOut: SiteLeftOut[] = [];
   const used: SitePlots[] = [];
   let siteCurveSse = 0;
@@ -298,7 +293,7 @@ function questionsFor(model: PooledLinearModel): PoolingQuestion[] {
 }
 
 function readings(question: PoolingQuestion, model: PooledLinearModel, levels: LevelTerms) {
-  const words = MODEL_WORDS[model];
+  const words = modelLabelInText(model);
   const lv = levels === 'site' ? 'site-specific levels' : 'block-within-site levels';
   switch (question) {
     case 'common-vs-levels':

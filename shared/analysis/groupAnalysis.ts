@@ -7,7 +7,7 @@
 import type { SiteAnalysis } from './analyzeSite';
 import type { SiteLeftOut } from './commonResponseTests';
 import { groupResponseTest, type GroupResponseTest } from './groupResponseTest';
-import { MODEL_LABEL } from './modelLabel';
+import { modelLabelInText } from '../models/catalog';
 import type { AcrossSiteSettings } from './planAcrossSites';
 import { PLATEAU_MODELS, plateauFitter, type PlateauModel } from './plateauModels';
 import { pooledCurveTest, type CurvePart, type PooledCurveTest } from './pooledCurveTest';
@@ -89,7 +89,7 @@ export function groupAnalysis(
   const usable = grouped.filter((p) => !analyses.get(p.site)?.problem);
   const plateau = {} as Record<PlateauModel, PooledCurveTest>;
   for (const model of PLATEAU_MODELS) {
-    const label = MODEL_LABEL[model];
+    const label = modelLabelInText(model);
     const parts: CurvePart[] = [...byValue.entries()].map(([value, members]) => {
       const ok = members.filter((m) => !analyses.get(m.site)?.problem);
       return {

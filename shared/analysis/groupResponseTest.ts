@@ -12,6 +12,7 @@
  * Site levels are absorbed by centring within sites (as in commonResponseTests).
  * Sites with too few rates for the model are left out and listed.
  */
+import { modelLabelInText } from '../models/catalog';
 import { designSse } from './designSse';
 import { extraSumOfSquaresTest } from './extraSumOfSquaresTest';
 import { describeFTest } from './describeFTest';
@@ -60,7 +61,7 @@ export function groupResponseTest(
   }
   const groups = [...new Set(used.map((s) => groupOf.get(s.site) as string))];
   const readings = {
-    comparison: `Responses to rate by ${groupKey} (${groups.join(', ')}) against one common ${model === 'linear' ? 'straight line' : 'quadratic'}, each site keeping its own level`,
+    comparison: `Responses to rate by ${groupKey} (${groups.join(', ')}) against one common ${modelLabelInText(model)}, each site keeping its own level`,
     significant: `the groups of ${groupKey} respond differently`,
     notSignificant: `the groups of ${groupKey} do not differ detectably in their response`,
   };

@@ -1,30 +1,16 @@
 /**
  * The models compared across sites (and across groups) by pooled-versus-separate fits: those
- * not linear in all their parameters, which the F tests of commonResponseTests cannot cover.
- * Each is fitted here to pooled plots without block terms, and a fit is reduced to what
- * pooledCurveTest needs (its SSE and parameter count, or why there is none).
+ * not linear in all their parameters (their catalog entry says so), which the F tests of
+ * commonResponseTests cannot cover. Each is fitted here to pooled plots without block terms,
+ * and a fit is reduced to what pooledCurveTest needs (its SSE and parameter count, or why there
+ * is none).
  */
-import { fitExponential } from '../models/exponential';
-import { fitLinearPlateau } from '../models/linearPlateau';
-import { fitQuadraticPlateau } from '../models/quadraticPlateau';
-import type { ModelFit } from '../models/modelTypes';
+import { MODEL_CATALOG, modelLabelInText, type PlateauModel } from '../models/catalog';
+import { prepareSite } from '../models/prepareSite';
 import type { FitData } from './analyzeSite';
-import { MODEL_LABEL } from './modelLabel';
 import type { CurveFitOutcome } from './pooledCurveTest';
 
-/** Models compared across sites by pooled-versus-separate fits (not linear in all parameters). */
-export type PlateauModel = 'linearPlateau' | 'quadraticPlateau' | 'exponential';
-export const PLATEAU_MODELS: readonly PlateauModel[] = [
-  'linearPlateau',
-  'quadraticPlateau',
-  'exponential',
-];
-
-const PLATEAU_FITTERS: Record<PlateauModel, (x: Float64Array, y: Float64Array) => ModelFit> = {
-  linearPlateau: (x, y) => fitLinearPlateau({ rateKgHa: x, yieldKgHa: y }),
-  quadraticPlateau: (x, y) => fitQuadraticPlateau({ rateKgHa: x, yieldKgHa: y }),
-  exponential: (x, y) => fitExponential({ rateKgHa: x, yieldKgHa: y }),
-};
+export { PLATEAU_MODELS, type PlateauModel } from '../models/catalog';
 
 /**
  * What a pooled test needs of one fit: its SSE and parameter count, or why it gives none.
@@ -36,7 +22,7 @@ const PLATEAU_FITTERS: Record<PlateauModel, (x: Float64Array, y: Float64Array) =
 export function curveFitOutcome(fit: FitData): CurveFitOutcome {
   if (fit.status === 'too-few-rates') return { problem: fit.message };
   if (!Number.isFinite(fit.sse))
-    return { problem: `the ${MODEL_LABEL[fit.model]} could not be fitted` };
+    return { problem: `the ${modelLabelInText(fit.model)} could not be fitted` };
   return { sse: fit.sse, parameters: fit.parameterCount };
 }
 
@@ -50,5 +36,6 @@ export function curveFitOutcome(fit: FitData): CurveFitOutcome {
 export function plateauFitter(
   model: PlateauModel,
 ): (rateKgHa: Float64Array, yieldKgHa: Float64Array) => CurveFitOutcome {
-  return (x, y) => curveFitOutcome(PLATEAU_FITTERS[model](x, y));
+  const { fit } = MODEL_CATALOG[model];
+  return (x, y) => curveFitOutcome(fit(prepareSite({ rateKgHa: x, yieldKgHa: y }, 'none'), {}));
 }

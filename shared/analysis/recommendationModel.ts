@@ -12,8 +12,9 @@
  *    a corner). A full response by the lowest non-zero rate only places the
  *    optimum between the two lowest rates; no plateau, an upward-opening
  *    quadratic and no response give none.
- * 2. Among the candidates the curves (quadratic, linear-plateau,
- *    quadratic-plateau, exponential rise) come first, lowest AICc first: a
+ * 2. Among the candidates the curves (the models whose catalog entry says
+ *    `isCurve`: the quadratic, linear-plateau, quadratic-plateau and exponential
+ *    rise) come first, lowest AICc first: a
  *    straight line never levels off and only gives a corner (no N or the
  *    highest tested rate), which is no recommendation a grower can use when a
  *    curve is available.
@@ -25,6 +26,7 @@
  * (repriceAcrossSites) keeps the same model at every site and agrees with a
  * fresh analysis at the new prices.
  */
+import { MODEL_CATALOG } from '../models/catalog';
 import type { ModelRank } from '../models/fitAllModels';
 import type { FitStatus, ModelName } from '../models/modelTypes';
 
@@ -41,14 +43,6 @@ export interface RecommendationModel {
   reason: string;
 }
 
-/** Curves preferred over the straight lines (a line only gives a corner). */
-export const CURVE_MODELS: ReadonlySet<ModelName> = new Set<ModelName>([
-  'quadratic',
-  'linearPlateau',
-  'quadraticPlateau',
-  'exponential',
-]);
-
 /**
  * Chooses the model for a site's recommendation by the rule in the file header.
  * @param all - the site's fits (statuses) and AICc ranking, e.g. fitAllModels' result or its plain-data copy
@@ -59,7 +53,8 @@ export const CURVE_MODELS: ReadonlySet<ModelName> = new Set<ModelName>([
 export function recommendationModel(all: RankedFits): RecommendationModel {
   const ranked = all.ranking.filter((r) => r.rank !== null);
   const usable = ranked.filter((r) => all.fits[r.model]?.status === 'ok');
-  const curve = usable.find((r) => CURVE_MODELS.has(r.model));
+  // Curves before straight lines: a line only gives a corner.
+  const curve = usable.find((r) => MODEL_CATALOG[r.model].isCurve);
   if (curve) {
     return {
       model: curve.model,

@@ -2,12 +2,12 @@
  * Which curve each site brings to the regional return, and why a site brings none. A curve that
  * never levels off within the tested rates is replaced by its limit curve rather than dropped.
  */
+import { MODEL_CATALOG, modelLabelInText } from '../models/catalog';
 import { curveValue } from '../models/curveValue';
 import type { ModelName } from '../models/modelTypes';
 import type { FitData, SiteAnalysis } from './analyzeSite';
 import type { SiteLeftOut } from './commonResponseTests';
 import { leadingModel } from './leadingModel';
-import { MODEL_LABEL } from './modelLabel';
 import type { RegionalModelChoice } from './planAcrossSites';
 
 /** One site's curve in the regional return: the model, its fit and what to say about it. */
@@ -17,13 +17,6 @@ export interface RegionalCurve {
   fit: FitData;
   note: string;
 }
-
-/** The model a curve reduces to when it reaches no plateau within the tested rates. */
-const LIMIT_MODEL: Partial<Record<ModelName, ModelName>> = {
-  linearPlateau: 'linear',
-  quadraticPlateau: 'quadratic',
-  exponential: 'linear',
-};
 
 /** True when the fit's parameters give a finite curve over its tested rates. */
 function gives(fit: FitData): boolean {
@@ -65,23 +58,23 @@ export function regionalCurves(
     // A rise that never levels off within the tested rates is its limit curve
     // (DESIGN.md: the straight line, or the quadratic for the quadratic-plateau);
     // use that rather than drop a strongly responding site from the average.
-    const limit = LIMIT_MODEL[model];
+    const limit = MODEL_CATALOG[model].limit;
     if (fit.status === 'no-plateau' && !gives(fit) && limit && gives(s.fits.fits[limit])) {
       notes.push(
-        `the ${MODEL_LABEL[model]} reached no plateau, so its limit, the ${MODEL_LABEL[limit]}, is used`,
+        `the ${modelLabelInText(model)} reached no plateau, so its limit, the ${modelLabelInText(limit)}, is used`,
       );
       fit = s.fits.fits[limit];
     }
     if (fit.status === 'too-few-rates' || !gives(fit)) {
       leftOut.push({
         site: s.site,
-        reason: `the ${MODEL_LABEL[model]} gives no curve here: ${fit.message}`,
+        reason: `the ${modelLabelInText(model)} gives no curve here: ${fit.message}`,
       });
       continue;
     }
     if (fit.testedRates.lowestKgHa > 0) {
       notes.push(
-        `no plot at rate 0: the check is the ${MODEL_LABEL[model]}'s value at 0, below the lowest tested rate`,
+        `no plot at rate 0: the check is the ${modelLabelInText(model)}'s value at 0, below the lowest tested rate`,
       );
     }
     if (fit.status === 'full-response-at-lowest-rate' && fit.joinBetweenKgHa) {

@@ -6,7 +6,7 @@
  */
 import type { SiteAnalysis } from './analyzeSite';
 import { testCommonResponse, type CommonResponseTests } from './commonResponseTests';
-import { MODEL_LABEL } from './modelLabel';
+import { modelLabelInText } from '../models/catalog';
 import type { AcrossSiteSettings } from './planAcrossSites';
 import { curveFitOutcome, PLATEAU_MODELS, plateauFitter, type PlateauModel } from './plateauModels';
 import { pooledCurveTest, type CurvePart, type PooledCurveTest } from './pooledCurveTest';
@@ -56,7 +56,7 @@ export function sharedResponse(
   const usable = plots.filter((p) => !analyses.get(p.site)?.problem);
   const plateau = {} as Record<PlateauModel, PooledCurveTest>;
   for (const model of PLATEAU_MODELS) {
-    const label = MODEL_LABEL[model];
+    const label = modelLabelInText(model);
     plateau[model] = pooledCurveTest(
       plateauParts(usable, analyses, model),
       plateauFitter(model),

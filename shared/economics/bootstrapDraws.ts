@@ -26,7 +26,7 @@ import type {
   TestedRates,
 } from '../models/modelTypes';
 import { prepareSite, type PreparedSite } from '../models/prepareSite';
-import { blockColumns } from '../models/profileSolver';
+import { blockColumns } from '../models/solve/profileSolver';
 import { resampleWithinGroups, strataOf } from '../optimize/resampleWithinGroups';
 import { seededRandom } from '../optimize/seededRandom';
 import { StatsInputError } from '../stats/errors';

@@ -4,14 +4,10 @@
  * equals the price ratio PR = nutrient price / grain price. From the fitted
  * parameters alone (no refit), so re-pricing is a few arithmetic operations.
  *
- * Closed forms (dy/dx = PR solved for x):
- * - quadratic a + b x + c x², c < 0: x* = (PR − b) / (2c)
- * - linear-plateau a + b·min(x, x0): x* = x0 when b > PR, else 0
- * - quadratic-plateau P + c·min(x − x0, 0)²: x* = x0 + PR / (2c), not below 0
- * - exponential a + b(1 − e^(−k x)): x* = ln(b k / PR) / k when b k > PR, else 0
- * - straight line and line through the origin: a corner, the highest tested
- *   rate when b > PR, else 0 (a constant slope never equals PR)
- * Then: x* below 0 becomes 0; x* past the highest tested rate is capped there
+ * Each model's closed form (dy/dx = PR solved for x) and agronomic maximum is its
+ * catalog entry's `optimum` (shared/models/catalog), e.g. the quadratic's
+ * x* = (PR − b) / (2c); a straight line (an entry that is not a curve) gives a
+ * corner, the highest tested rate when b > PR, else 0. Then: x* below 0 becomes 0; x* past the highest tested rate is capped there
  * and flagged (the curve is not known beyond the data); with an application
  * cost the optimum is 0 unless the net return at x* beats no application.
  *
@@ -19,6 +15,7 @@
  * the quadratic, the join of the plateau models, none for the exponential
  * (approached but not reached) and the highest tested rate for a rising line.
  */
+import { MODEL_CATALOG } from '../models/catalog';
 import { curveValue } from '../models/curveValue';
 import type { CurveSummary, ModelName } from '../models/modelTypes';
 import { KG_HA_FORMAT, rateRangeText, rateText, type RateFormat } from '../models/rateFormat';
@@ -85,27 +82,6 @@ export function netReturn(
   const y = curveValue(fit.model, fit.params, rateKgHa);
   const app = rateKgHa > 0 ? (prices.applicationCostPerHa ?? 0) : 0;
   return prices.grainPricePerKg * y - prices.nutrientPricePerKg * rateKgHa - app;
-}
-
-/** The closed-form x* before capping, and the agronomic maximum. */
-function closedForm(fit: CurveSummary, pr: number): { x: number; agronomicMax: number | null } {
-  const p = fit.params;
-  const highest = fit.testedRates.highestKgHa;
-  switch (fit.model) {
-    case 'quadratic':
-      return { x: (pr - p.b) / (2 * p.c), agronomicMax: -p.b / (2 * p.c) };
-    case 'linearPlateau':
-      return { x: p.b > pr ? p.x0 : 0, agronomicMax: p.x0 };
-    case 'quadraticPlateau':
-      return { x: Math.max(p.x0 + pr / (2 * p.c), 0), agronomicMax: p.x0 };
-    case 'exponential': {
-      const bk = p.b * p.k;
-      return { x: bk > pr ? Math.log(bk / pr) / p.k : 0, agronomicMax: null };
-    }
-    case 'linear':
-    case 'proportional':
-      return { x: p.b > pr ? highest : 0, agronomicMax: p.b > 0 ? highest : 0 };
-  }
 }
 
 /** A result without a single optimum rate (module level: no closure per call). */
@@ -213,7 +189,8 @@ export function economicOptimum(
   }
 
   const highest = fit.testedRates.highestKgHa;
-  const { x: raw, agronomicMax } = closedForm(fit, pr);
+  const entry = MODEL_CATALOG[fit.model];
+  const { rateKgHa: raw, agronomicMaxKgHa: agronomicMax } = entry.optimum(fit.params, pr, highest);
   let status: OptimumStatus = 'interior';
   let x = raw;
   let capped = false;
@@ -231,7 +208,7 @@ export function economicOptimum(
   } else {
     explanation = `Economic optimum ${rateText(format, x)}, where the curve's slope equals the price ratio (nutrient price over grain price).`;
   }
-  if (fit.model === 'linear' || fit.model === 'proportional') {
+  if (!entry.isCurve) {
     status = x > 0 || capped ? 'corner' : 'zero';
     capped = false;
     explanation =

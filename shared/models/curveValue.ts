@@ -1,7 +1,9 @@
 /**
  * A response curve's yield from its named parameters alone, so a stored fit (or
- * one priced again with new prices) needs no refit. Formulas as in each model's file.
+ * one priced again with new prices) needs no refit. Each model's formula is its
+ * catalog entry's (shared/models/catalog).
  */
+import { MODEL_CATALOG } from './catalog';
 import type { ModelName } from './modelTypes';
 
 /**
@@ -18,21 +20,5 @@ export function curveValue(
   params: Readonly<Record<string, number>>,
   rateKgHa: number,
 ): number {
-  const x = rateKgHa;
-  switch (model) {
-    case 'linear':
-      return params.a + params.b * x;
-    case 'proportional':
-      return params.b * x;
-    case 'quadratic':
-      return params.a + x * (params.b + params.c * x);
-    case 'linearPlateau':
-      return params.a + params.b * Math.min(x, params.x0);
-    case 'quadraticPlateau': {
-      const d = Math.min(x - params.x0, 0);
-      return params.P + params.c * d * d;
-    }
-    case 'exponential':
-      return (params.a ?? 0) + params.b * -Math.expm1(-params.k * x);
-  }
+  return MODEL_CATALOG[model].curveValue(params, rateKgHa);
 }

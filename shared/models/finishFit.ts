@@ -17,32 +17,12 @@ import type {
   IntervalEstimate,
   LackOfFit,
   ModelFit,
-  ModelName,
 } from './modelTypes';
 import { pureError } from './pureError';
 import type { PreparedSite } from './prepareSite';
-import { exactScratch } from './exactScratch';
-import { blockColumns } from './profileSolver';
-
-/** How a model's curve is evaluated and differentiated. */
-export interface CurveSpec {
-  model: ModelName;
-  label: string;
-  formula: string;
-  /** Curve parameter names in the order of the parameter vector. */
-  paramNames: string[];
-  /** Curve value at rate x (kg/ha) for parameters p. */
-  value: (x: number, p: Float64Array) => number;
-  /**
-   * The same at many rates at once (one call per curve rather than per point: the
-   * call from finishFit sees all six models, so per-point calls cannot be inlined).
-   */
-  values: (xs: ArrayLike<number>, p: Float64Array, out: Float64Array) => void;
-  /** ∂curve/∂p_k at x, written into out (length paramNames.length). */
-  gradient: (x: number, p: Float64Array, out: Float64Array) => void;
-  /** R² about the mean, or about zero for a curve through the origin. */
-  r2Kind: 'centered' | 'uncentered';
-}
+import type { CurveSpec } from './modelEntry';
+import { exactScratch } from './solve/exactScratch';
+import { blockColumns } from './solve/profileSolver';
 
 /** A derived quantity (join point, plateau yield) as a function of the curve parameters. */
 export interface DerivedQuantity {
@@ -461,6 +441,38 @@ export function blankParameters(fit: ModelFit, names: readonly string[]): ModelF
     fit.confidenceIntervals[name] = [NaN, NaN];
   }
   return fit;
+}
+
+/**
+ * An estimate from parameters already solved (the straight lines and the quadratic,
+ * from the weighted fit of the per-rate means).
+ * @param site - from prepareSite
+ * @param spec - the model's curve
+ * @param params - its parameters by name
+ * @param sse - residual sum of squares, (kg/ha)²
+ * @param status - "ok", or "convex" for an upward-opening quadratic
+ * @param message - the status sentence, "" for a plain fit
+ * @returns the estimate
+ * @example
+ * solvedEstimate(site, linearSpec, { a: 5000, b: 21 }, 3.2e4, 'ok', '').params.b // 21
+ */
+export function solvedEstimate(
+  site: PreparedSite,
+  spec: CurveSpec,
+  params: Record<string, number>,
+  sse: number,
+  status: FitStatus,
+  message: string,
+): CurveEstimate {
+  return {
+    model: spec.model,
+    status,
+    message,
+    params,
+    sse,
+    testedRates: site.testedRates,
+    joinBetweenKgHa: null,
+  };
 }
 
 /**

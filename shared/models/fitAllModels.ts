@@ -6,16 +6,11 @@
  * their reason. AICc is comparable across the six because all are fitted to the
  * same yields by least squares; the proportional model's R² is not (uncentered).
  */
-import { fitExponentialPrepared } from './exponential';
+import { MODEL_CATALOG } from './catalog';
 import { fitStoreDoubles, type FitStore } from './finishFit';
-import { fitLinearPrepared } from './linear';
-import { fitLinearPlateauPrepared } from './linearPlateau';
 import type { FitOptions, ModelFit, ModelName, SiteData } from './modelTypes';
 import { MODEL_NAMES } from './modelTypes';
 import { prepareSite, type PreparedSite } from './prepareSite';
-import { fitProportionalPrepared } from './proportional';
-import { fitQuadraticPrepared } from './quadratic';
-import { fitQuadraticPlateauPrepared } from './quadraticPlateau';
 
 /** One line of the AICc ranking. */
 export interface ModelRank {
@@ -41,18 +36,6 @@ export interface AllModelsFit {
   n: number;
   distinctRates: number;
 }
-
-const fitters: Record<
-  ModelName,
-  (site: PreparedSite, options: FitOptions, store?: FitStore) => ModelFit
-> = {
-  linear: fitLinearPrepared,
-  proportional: fitProportionalPrepared,
-  quadratic: fitQuadraticPrepared,
-  linearPlateau: fitLinearPlateauPrepared,
-  quadraticPlateau: fitQuadraticPlateauPrepared,
-  exponential: fitExponentialPrepared,
-};
 
 /** Statuses whose fit describes the data in its own right and takes part in the ranking. */
 const RANKED = new Set<ModelFit['status']>(['ok', 'full-response-at-lowest-rate', 'convex']);
@@ -98,7 +81,7 @@ export function fitAllModelsPrepared(
     buffer: new ArrayBuffer(8 * fitStoreDoubles(site.n, options) * names.length),
     byteOffset: 0,
   };
-  for (const name of names) fits[name] = fitters[name](site, options, store);
+  for (const name of names) fits[name] = MODEL_CATALOG[name].fit(site, options, store);
   return { fits, ...rankByAicc(fits), n: site.n, distinctRates: site.rates.length };
 }
 

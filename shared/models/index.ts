@@ -39,7 +39,10 @@
  * - `estimateCurve(site: PreparedSite, model, options?) → CurveEstimate`: status, params and
  *   SSE only (no errors/residuals/curve), ~5× cheaper; what the bootstrap refits
  * - `curveValue(model, params, rateKgHa) → kg/ha`: a curve from stored parameters
- * - `siteDataFromPlots(tableOrPlots, site?) → SiteData & { plotIds }`
+ * - `MODEL_CATALOG[model]` (shared/models/catalog): everything Plotrate knows of one model —
+ *   its curve (display name, formula, parameters with their dimensions), fit, estimate, curve
+ *   from stored parameters, closed-form optimum, whether it is a curve, its limit model and
+ *   its chart dash; `modelLabel(model)` and `modelLabelInText(model)` for its name
  * - `prepareSite(data, blocks) → PreparedSite` + `fitAllModelsPrepared(site, options)`:
  *   prepare once and refit; `rankByAicc(fits)`
  *
@@ -63,11 +66,20 @@ export { fitLinearPlateau } from './linearPlateau';
 export { fitQuadraticPlateau } from './quadraticPlateau';
 export { fitExponential } from './exponential';
 export { curveValue } from './curveValue';
+export {
+  MODEL_CATALOG,
+  modelEntry,
+  modelLabel,
+  modelLabelInText,
+  paramDimension,
+  PLATEAU_MODELS,
+} from './catalog';
+export type { PlateauModel } from './catalog';
+export type { ClosedFormOptimum, CurveSpec, ModelEntry, ParamDimension } from './modelEntry';
 export { prepareSite } from './prepareSite';
 export type { PreparedSite } from './prepareSite';
 export { fitResponseOverCheck } from './responseOverCheck';
 export type { ResponseOverCheck } from './responseOverCheck';
-export { siteDataFromPlots } from './siteDataFromPlots';
 export { estimateCurve } from './estimateCurve';
 export { KG_HA_FORMAT, rateRangeText, rateText, roundedKgHa } from './rateFormat';
 export type { RateFormat } from './rateFormat';

@@ -4,13 +4,15 @@
  */
 import {
   finishFit,
+  solvedEstimate,
   tooFewRatesMessage,
+  unfittedEstimate,
   unfittedFit,
-  type CurveSpec,
   type FitStore,
 } from './finishFit';
-import { linearCoefficients } from './linearCoefficients';
-import type { FitOptions, ModelFit, SiteData } from './modelTypes';
+import type { CurveSpec, ModelEntry } from './modelEntry';
+import { groupLinearCoefficients, linearCoefficients } from './solve/linearCoefficients';
+import type { CurveEstimate, FitOptions, ModelFit, SiteData } from './modelTypes';
 import { prepareSite, type PreparedSite } from './prepareSite';
 
 /** The straight line's curve. */
@@ -19,6 +21,7 @@ export const linearSpec: CurveSpec = {
   label: 'Straight line',
   formula: 'a + b·x',
   paramNames: ['a', 'b'],
+  dimensions: { a: 'yield', b: 'yieldPerRate' },
   value: (x, p) => p[0] + p[1] * x,
   values: (xs, p, out) => {
     for (let i = 0; i < xs.length; i++) out[i] = p[0] + p[1] * xs[i];
@@ -72,3 +75,35 @@ export function fitLinearPrepared(
 export function fitLinear(data: SiteData, options: FitOptions = {}): ModelFit {
   return fitLinearPrepared(prepareSite(data, options.blocks ?? 'none'), options);
 }
+
+/**
+ * The straight line's estimate (no errors or residuals), from the weighted fit of the per-rate means.
+ * @param site - from prepareSite
+ * @returns status "ok" with params {a, b} and SSE, or "too-few-rates"
+ * @example
+ * estimateLinear(prepareSite({ rateKgHa: [0, 50, 100], yieldKgHa: [5000, 6000, 7100] }, 'none')).params.b // ≈ 21
+ */
+export function estimateLinear(site: PreparedSite): CurveEstimate {
+  const why = tooFewRatesMessage(site, linearSpec, 2);
+  if (why) return unfittedEstimate(site, linearSpec, why);
+  const r = groupLinearCoefficients(site, [site.rates], true);
+  return solvedEstimate(site, linearSpec, { a: r.curve[0], b: r.curve[1] }, r.sse, 'ok', '');
+}
+
+/** The straight line in the model catalog (shared/models/catalog). */
+export const linearModel = {
+  spec: linearSpec,
+  fit: fitLinearPrepared,
+  estimate: estimateLinear,
+  curveValue: (p, x) => p.a + p.b * x,
+  // A constant slope never equals the price ratio: the optimum is a corner, the
+  // highest tested rate when b > PR, else no nutrient.
+  optimum: (p, pr, highestKgHa) => ({
+    rateKgHa: p.b > pr ? highestKgHa : 0,
+    agronomicMaxKgHa: p.b > 0 ? highestKgHa : 0,
+  }),
+  isCurve: false,
+  linearInParameters: true,
+  limit: null,
+  dash: '9 9',
+} satisfies ModelEntry;

@@ -1,7 +1,7 @@
 /**
  * The linear-plateau y = a + b·min(x, x0): a straight rise of slope b (kg grain
  * per kg nutrient) up to the join point x0 (kg/ha), flat at the plateau a + b x0
- * beyond it. Fitted globally by profiling x0 (shared/models/searchJoinPoint) with
+ * beyond it. Fitted globally by profiling x0 (shared/models/solve/searchJoinPoint) with
  * the inner fit of [1, min(x, x0)] by least squares and b > 0 enforced.
  *
  * Statuses (data findings):
@@ -20,18 +20,18 @@ import {
   tooFewRatesMessage,
   unfittedEstimate,
   unfittedFit,
-  type CurveSpec,
   type FitStore,
 } from './finishFit';
-import { linearCoefficients, profiledCoefficients } from './linearCoefficients';
+import type { CurveSpec, ModelEntry } from './modelEntry';
+import { linearCoefficients, profiledCoefficients } from './solve/linearCoefficients';
 import type { CurveEstimate, FitOptions, ModelFit, SiteData } from './modelTypes';
 import { plateauEstimate } from './plateauEstimate';
 import { prepareSite, type PreparedSite } from './prepareSite';
-import { profileSolver, type ProfileSolver } from './profileSolver';
+import { profileSolver, type ProfileSolver } from './solve/profileSolver';
 import type { RateFormat } from './rateFormat';
-import { relaxedJoinBounds } from './relaxedJoinBounds';
-import { searchJoinPoint } from './searchJoinPoint';
-import { stationaryJoinPoints } from './stationaryJoinPoints';
+import { relaxedJoinBounds } from './solve/relaxedJoinBounds';
+import { searchJoinPoint } from './solve/searchJoinPoint';
+import { stationaryJoinPoints } from './solve/stationaryJoinPoints';
 
 /** The linear-plateau curve, parameters [a, b, x0]. */
 export const linearPlateauSpec: CurveSpec = {
@@ -39,6 +39,7 @@ export const linearPlateauSpec: CurveSpec = {
   label: 'Linear-plateau',
   formula: 'a + b·min(x, x0)',
   paramNames: ['a', 'b', 'x0'],
+  dimensions: { a: 'yield', b: 'yieldPerRate', x0: 'rate' },
   value: (x, p) => p[0] + p[1] * Math.min(x, p[2]),
   values: (xs, p, out) => {
     for (let i = 0; i < xs.length; i++) out[i] = p[0] + p[1] * Math.min(xs[i], p[2]);
@@ -170,3 +171,18 @@ export function fitLinearPlateauPrepared(
 export function fitLinearPlateau(data: SiteData, options: FitOptions = {}): ModelFit {
   return fitLinearPlateauPrepared(prepareSite(data, options.blocks ?? 'none'), options);
 }
+
+/** The linear-plateau in the model catalog (shared/models/catalog). */
+export const linearPlateauModel = {
+  spec: linearPlateauSpec,
+  fit: fitLinearPlateauPrepared,
+  estimate: (site, options) =>
+    estimateLinearPlateau(site, options.searchTolerance, options.rateFormat),
+  curveValue: (p, x) => p.a + p.b * Math.min(x, p.x0),
+  // The slope is b up to the join and 0 after: the join pays when b > PR, else nothing does.
+  optimum: (p, pr) => ({ rateKgHa: p.b > pr ? p.x0 : 0, agronomicMaxKgHa: p.x0 }),
+  isCurve: true,
+  linearInParameters: false,
+  limit: 'linear',
+  dash: '9 3 3 3',
+} satisfies ModelEntry;

@@ -7,19 +7,21 @@
  */
 import type { RateFormat } from './rateFormat';
 
-/** The six response models, by the name every other part of Plotrate uses. */
-export type ModelName =
-  'linear' | 'proportional' | 'quadratic' | 'linearPlateau' | 'quadraticPlateau' | 'exponential';
-
-/** All model names in display order. */
-export const MODEL_NAMES: readonly ModelName[] = [
+/**
+ * The six response models in display order, by the name every other part of Plotrate
+ * uses. Everything else about a model is in its catalog entry (shared/models/catalog).
+ */
+export const MODEL_NAMES = [
   'linear',
   'proportional',
   'quadratic',
   'linearPlateau',
   'quadraticPlateau',
   'exponential',
-];
+] as const;
+
+/** A response model's name (one of MODEL_NAMES). */
+export type ModelName = (typeof MODEL_NAMES)[number];
 
 /**
  * What a fit says about the data. Only "ok" carries a precise join point and
@@ -42,7 +44,7 @@ export type BlockTerms = 'none' | 'fixed';
 
 /**
  * One site's plots, in canonical units. Arrays are parallel, one entry per plot.
- * Excluded plots must already be left out (see `siteDataFromPlots`).
+ * Excluded plots must already be left out (the across-site plan's `sitePlots` does).
  */
 export interface SiteData {
   /** Nutrient rate of each plot, kg/ha. */
@@ -120,7 +122,7 @@ export interface CurveSummary {
 
 /** Everything one model fit reports. */
 export interface ModelFit extends CurveSummary {
-  /** Human name, e.g. "Linear-plateau". */
+  /** The model's display name (its catalog entry's), e.g. "Linear-plateau". */
   label: string;
   /** The formula in the names of `params`, e.g. "a + b·min(x, x0)". */
   formula: string;

@@ -11,12 +11,12 @@
  *   (check against the rest; x0 kept at the second-lowest rate)
  * - otherwise "ok"
  */
-import type { CurveSpec } from './finishFit';
+import type { CurveSpec } from './modelEntry';
 import type { CurveEstimate, FitStatus } from './modelTypes';
 import type { PreparedSite } from './prepareSite';
-import type { ProfileSolver } from './profileSolver';
+import type { ProfileSolver } from './solve/profileSolver';
 import { KG_HA_FORMAT, rateRangeText, rateText, type RateFormat } from './rateFormat';
-import type { JoinSearchResult } from './searchJoinPoint';
+import type { JoinSearchResult } from './solve/searchJoinPoint';
 
 /** Relative SSE difference below which two fits count as equally good. */
 const TIE = 1e-10;

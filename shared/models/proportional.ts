@@ -6,21 +6,24 @@
  */
 import {
   finishFit,
+  solvedEstimate,
   tooFewRatesMessage,
+  unfittedEstimate,
   unfittedFit,
-  type CurveSpec,
   type FitStore,
 } from './finishFit';
-import { linearCoefficients } from './linearCoefficients';
-import type { FitOptions, ModelFit, SiteData } from './modelTypes';
+import type { CurveSpec, ModelEntry } from './modelEntry';
+import { groupLinearCoefficients, linearCoefficients } from './solve/linearCoefficients';
+import type { CurveEstimate, FitOptions, ModelFit, SiteData } from './modelTypes';
 import { prepareSite, type PreparedSite } from './prepareSite';
 
 /** The proportional model's curve. */
 export const proportionalSpec: CurveSpec = {
   model: 'proportional',
-  label: 'Proportional',
+  label: 'Line through the origin',
   formula: 'b·x',
   paramNames: ['b'],
+  dimensions: { b: 'yieldPerRate' },
   value: (x, p) => p[0] * x,
   values: (xs, p, out) => {
     for (let i = 0; i < xs.length; i++) out[i] = p[0] * xs[i];
@@ -30,6 +33,13 @@ export const proportionalSpec: CurveSpec = {
   },
   r2Kind: 'uncentered',
 };
+
+/** Why a site cannot carry the line through the origin, or null. */
+function whyNotFitted(site: PreparedSite): string | null {
+  return site.testedRates.highestKgHa > 0
+    ? tooFewRatesMessage(site, proportionalSpec, 1)
+    : `The ${proportionalSpec.label.toLowerCase()} needs at least one rate above zero.`;
+}
 
 /**
  * Fits y = b x to a prepared site. With block terms the block offsets sum to
@@ -46,10 +56,7 @@ export function fitProportionalPrepared(
   options: FitOptions,
   store?: FitStore,
 ): ModelFit {
-  const why =
-    site.testedRates.highestKgHa > 0
-      ? tooFewRatesMessage(site, proportionalSpec, 1)
-      : 'The proportional model needs at least one rate above zero.';
+  const why = whyNotFitted(site);
   if (why) return unfittedFit(site, proportionalSpec, why);
   const coef = linearCoefficients(site, [site.rates], false);
   return finishFit({
@@ -77,3 +84,34 @@ export function fitProportionalPrepared(
 export function fitProportional(data: SiteData, options: FitOptions = {}): ModelFit {
   return fitProportionalPrepared(prepareSite(data, options.blocks ?? 'none'), options);
 }
+
+/**
+ * The line through the origin's estimate (no errors or residuals), from the weighted fit of the per-rate means.
+ * @param site - from prepareSite
+ * @returns status "ok" with params {b} and SSE, or "too-few-rates"
+ * @example
+ * estimateProportional(prepareSite({ rateKgHa: [50, 100], yieldKgHa: [100, 210] }, 'none')).params.b // ≈ 2.08
+ */
+export function estimateProportional(site: PreparedSite): CurveEstimate {
+  const why = whyNotFitted(site);
+  if (why) return unfittedEstimate(site, proportionalSpec, why);
+  const r = groupLinearCoefficients(site, [site.rates], false);
+  return solvedEstimate(site, proportionalSpec, { b: r.curve[0] }, r.sse, 'ok', '');
+}
+
+/** The line through the origin in the model catalog (shared/models/catalog). */
+export const proportionalModel = {
+  spec: proportionalSpec,
+  fit: fitProportionalPrepared,
+  estimate: estimateProportional,
+  curveValue: (p, x) => p.b * x,
+  // A corner, as for the straight line.
+  optimum: (p, pr, highestKgHa) => ({
+    rateKgHa: p.b > pr ? highestKgHa : 0,
+    agronomicMaxKgHa: p.b > 0 ? highestKgHa : 0,
+  }),
+  isCurve: false,
+  linearInParameters: true,
+  limit: null,
+  dash: '15 6 3 6',
+} satisfies ModelEntry;

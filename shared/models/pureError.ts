@@ -6,7 +6,7 @@
  */
 import { applyQTranspose, qrDecompose } from '../stats/qr';
 import type { PreparedSite } from './prepareSite';
-import { blockColumns } from './profileSolver';
+import { blockColumns } from './solve/profileSolver';
 
 const cache = new WeakMap<PreparedSite, { ss: number; df: number }>();
 

@@ -5,13 +5,15 @@
  */
 import {
   finishFit,
+  solvedEstimate,
   tooFewRatesMessage,
+  unfittedEstimate,
   unfittedFit,
-  type CurveSpec,
   type FitStore,
 } from './finishFit';
-import { linearCoefficients } from './linearCoefficients';
-import type { FitOptions, ModelFit, SiteData } from './modelTypes';
+import type { CurveSpec, ModelEntry } from './modelEntry';
+import { groupLinearCoefficients, linearCoefficients } from './solve/linearCoefficients';
+import type { CurveEstimate, FitOptions, ModelFit, SiteData } from './modelTypes';
 import { prepareSite, type PreparedSite } from './prepareSite';
 
 /** The quadratic's curve. */
@@ -20,6 +22,7 @@ export const quadraticSpec: CurveSpec = {
   label: 'Quadratic',
   formula: 'a + b·x + c·x²',
   paramNames: ['a', 'b', 'c'],
+  dimensions: { a: 'yield', b: 'yieldPerRate', c: 'yieldPerRate2' },
   value: (x, p) => p[0] + x * (p[1] + p[2] * x),
   values: (xs, p, out) => {
     for (let i = 0; i < xs.length; i++) out[i] = p[0] + xs[i] * (p[1] + p[2] * xs[i]);
@@ -88,3 +91,44 @@ export function fitQuadraticPrepared(
 export function fitQuadratic(data: SiteData, options: FitOptions = {}): ModelFit {
   return fitQuadraticPrepared(prepareSite(data, options.blocks ?? 'none'), options);
 }
+
+/**
+ * The quadratic's estimate (no errors or residuals), from the weighted fit of the per-rate means.
+ * @param site - from prepareSite
+ * @returns params {a, b, c} and SSE; status "ok", "convex" when c ≥ 0, or "too-few-rates"
+ * @example
+ * estimateQuadratic(prepareSite({ rateKgHa: [0, 100, 200, 0, 100, 200], yieldKgHa: [5, 8, 9, 5.2, 8.1, 8.9] }, 'none')).status // 'ok'
+ */
+export function estimateQuadratic(site: PreparedSite): CurveEstimate {
+  const why = tooFewRatesMessage(site, quadraticSpec, 3);
+  if (why) return unfittedEstimate(site, quadraticSpec, why);
+  const r = groupLinearCoefficients(site, [site.rates, site.rates.map((x) => x * x)], true);
+  const [a, b, c] = r.curve;
+  return c < 0
+    ? solvedEstimate(site, quadraticSpec, { a, b, c }, r.sse, 'ok', '')
+    : solvedEstimate(
+        site,
+        quadraticSpec,
+        { a, b, c },
+        r.sse,
+        'convex',
+        'The quadratic opens upward (c ≥ 0).',
+      );
+}
+
+/** The quadratic in the model catalog (shared/models/catalog). */
+export const quadraticModel = {
+  spec: quadraticSpec,
+  fit: fitQuadraticPrepared,
+  estimate: estimateQuadratic,
+  curveValue: (p, x) => p.a + x * (p.b + p.c * x),
+  // dy/dx = b + 2cx = PR at x* = (PR − b)/(2c); the vertex −b/(2c) is the highest yield.
+  optimum: (p, pr) => ({
+    rateKgHa: (pr - p.b) / (2 * p.c),
+    agronomicMaxKgHa: -p.b / (2 * p.c),
+  }),
+  isCurve: true,
+  linearInParameters: true,
+  limit: null,
+  dash: '3 3',
+} satisfies ModelEntry;

@@ -19,22 +19,22 @@ import {
   tooFewRatesMessage,
   unfittedEstimate,
   unfittedFit,
-  type CurveSpec,
   type FitStore,
 } from './finishFit';
+import type { CurveSpec, ModelEntry } from './modelEntry';
 import {
   groupLinearCoefficients,
   linearCoefficients,
   profiledCoefficients,
-} from './linearCoefficients';
+} from './solve/linearCoefficients';
 import type { CurveEstimate, FitOptions, ModelFit, SiteData } from './modelTypes';
 import { plateauEstimate } from './plateauEstimate';
 import { prepareSite, type PreparedSite } from './prepareSite';
-import { profileSolver, type ProfileSolver } from './profileSolver';
+import { profileSolver, type ProfileSolver } from './solve/profileSolver';
 import type { RateFormat } from './rateFormat';
-import { relaxedJoinBounds } from './relaxedJoinBounds';
-import { searchJoinPoint } from './searchJoinPoint';
-import { stationaryJoinPoints } from './stationaryJoinPoints';
+import { relaxedJoinBounds } from './solve/relaxedJoinBounds';
+import { searchJoinPoint } from './solve/searchJoinPoint';
+import { stationaryJoinPoints } from './solve/stationaryJoinPoints';
 
 /** The quadratic-plateau curve, parameters [P, c, x0]. */
 export const quadraticPlateauSpec: CurveSpec = {
@@ -42,6 +42,7 @@ export const quadraticPlateauSpec: CurveSpec = {
   label: 'Quadratic-plateau',
   formula: 'P + c·min(x − x0, 0)²',
   paramNames: ['P', 'c', 'x0'],
+  dimensions: { P: 'yield', c: 'yieldPerRate2', x0: 'rate' },
   value: (x, p) => {
     const d = x < p[2] ? x - p[2] : 0;
     return p[0] + p[1] * d * d;
@@ -195,3 +196,21 @@ export function fitQuadraticPlateauPrepared(
 export function fitQuadraticPlateau(data: SiteData, options: FitOptions = {}): ModelFit {
   return fitQuadraticPlateauPrepared(prepareSite(data, options.blocks ?? 'none'), options);
 }
+
+/** The quadratic-plateau in the model catalog (shared/models/catalog). */
+export const quadraticPlateauModel = {
+  spec: quadraticPlateauSpec,
+  fit: fitQuadraticPlateauPrepared,
+  estimate: (site, options) =>
+    estimateQuadraticPlateau(site, options.searchTolerance, options.rateFormat),
+  curveValue: (p, x) => {
+    const d = Math.min(x - p.x0, 0);
+    return p.P + p.c * d * d;
+  },
+  // dy/dx = 2c(x − x0) = PR at x* = x0 + PR/(2c), not below 0; the join is the highest yield.
+  optimum: (p, pr) => ({ rateKgHa: Math.max(p.x0 + pr / (2 * p.c), 0), agronomicMaxKgHa: p.x0 }),
+  isCurve: true,
+  linearInParameters: false,
+  limit: 'quadratic',
+  dash: '15 15',
+} satisfies ModelEntry;

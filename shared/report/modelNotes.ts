@@ -9,15 +9,16 @@ import type { ModelFit } from '../models/modelTypes';
 /**
  * A fit's status in words without numbers, for the same reason as the
  * optimum note: the models stage writes its rates in kg/ha.
- * @param f - the fit (model, status, and the models stage's message for too few rates)
+ * @param f - the fit (model, status, R² kind, and the models stage's message for too few rates)
  * @returns one sentence, or "" for a plain fit
  * @example
- * fitMessage({ model: 'quadratic', status: 'convex', message: '' }) // 'The quadratic opens upward, so it has no maximum.'
+ * fitMessage({ model: 'quadratic', status: 'convex', message: '', r2Kind: 'centered' }) // 'The quadratic opens upward, so it has no maximum.'
  */
-export function fitMessage(f: Pick<ModelFit, 'model' | 'status' | 'message'>): string {
+export function fitMessage(f: Pick<ModelFit, 'model' | 'status' | 'message' | 'r2Kind'>): string {
   switch (f.status) {
     case 'ok':
-      return f.model === 'proportional'
+      // A curve through the origin (the line through the origin) has R² about zero.
+      return f.r2Kind === 'uncentered'
         ? 'R² is uncentered (about zero, not the mean): do not compare it with the others.'
         : '';
     case 'no-plateau':

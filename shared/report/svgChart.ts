@@ -5,11 +5,13 @@
  * 0.56 em for a sans face) because there is no layout engine here; the
  * estimate only places legends and labels, so a few pixels off is harmless.
  */
+import { MODEL_CATALOG } from '../models/catalog';
 import {
   axisLabel,
   chartPalette,
   type ChartAxis,
   type ChartLayer,
+  type CurveLayer,
   type ChartPanel,
   type ChartSpec,
   type ChartSymbol,
@@ -126,13 +128,18 @@ function pointStyle(layer: PointLayer): { symbol: ChartSymbol; style: string } {
   };
 }
 
-function curveStyle(role: 'chosen' | 'alternative' | 'return', index: number): string {
-  if (role === 'chosen') return `stroke="${chartPalette.chosen}" stroke-width="2.6"`;
-  if (role === 'return') return `stroke="${chartPalette.return}" stroke-width="2.4"`;
-  // Alternatives differ by dash so they stay apart in greyscale print.
-  const dashes = ['6 3', '2 3', '8 3 2 3', '4 4', '1 2'];
-  return `stroke="${chartPalette.alternative}" stroke-width="1.4" stroke-dasharray="${dashes[index % dashes.length]}"`;
+function curveStyle(layer: CurveLayer, index: number): string {
+  if (layer.role === 'chosen') return `stroke="${chartPalette.chosen}" stroke-width="2.6"`;
+  if (layer.role === 'return') return `stroke="${chartPalette.return}" stroke-width="2.4"`;
+  // Alternatives differ by dash so they stay apart in greyscale print: a model's
+  // curve has its own (the catalog's, as on the screen), any other curve one by order.
+  const dash = layer.model
+    ? MODEL_CATALOG[layer.model].dash
+    : OTHER_DASHES[index % OTHER_DASHES.length];
+  return `stroke="${chartPalette.alternative}" stroke-width="1.4" stroke-dasharray="${dash}"`;
 }
+
+const OTHER_DASHES = ['6 3', '2 3', '8 3 2 3', '4 4', '1 2'];
 
 interface LegendItem {
   swatch: string;
@@ -147,7 +154,7 @@ function legendItems(panel: ChartPanel, size: number): LegendItem[] {
       const { symbol, style } = pointStyle(l);
       items.push({ swatch: marker(symbol, 6, -size * 0.35, size * 0.33, style), text: l.name });
     } else if (l.kind === 'curve') {
-      const style = curveStyle(l.role, l.role === 'alternative' ? alt++ : 0);
+      const style = curveStyle(l, l.role === 'alternative' ? alt++ : 0);
       items.push({
         swatch: `<line x1="0" y1="${n(-size * 0.35)}" x2="16" y2="${n(-size * 0.35)}" ${style} fill="none"/>`,
         text: l.name,
@@ -264,7 +271,7 @@ function drawPanel(
         const yv = l.y[i];
         if (Number.isFinite(xv) && Number.isFinite(yv)) pts.push(`${n(sx(xv))},${n(sy(yv))}`);
       });
-      const style = curveStyle(l.role, l.role === 'alternative' ? alt++ : 0);
+      const style = curveStyle(l, l.role === 'alternative' ? alt++ : 0);
       if (pts.length > 1)
         out.push(
           `<polyline points="${pts.join(' ')}" fill="none" ${style} stroke-linejoin="round"/>`,

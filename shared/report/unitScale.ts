@@ -4,32 +4,16 @@
  * yield (a, P, and the exponential's b), a yield per rate (slope b), per rate
  * squared (c), a rate (x0) or a reciprocal rate (k). Every conversion here is
  * a scale factor, so standard errors and interval ends convert the same way.
+ * Each parameter's dimension is in its model's catalog entry (shared/models/catalog).
  */
+import { paramDimension } from '../models/catalog';
+import type { ParamDimension } from '../models/modelEntry';
 import type { ModelName } from '../models/modelTypes';
 import type { CropId } from '../table/plotTable';
 import { rateFromKgHa } from '../units/convertRate';
 import { yieldFromKgHa } from '../units/convertYield';
 import { M2_PER_ACRE, M2_PER_HA } from '../units/unitConstants';
 import type { ReportUnits } from './reportSettings';
-
-/** The dimension of a curve parameter. */
-export type ParamDimension = 'yield' | 'yieldPerRate' | 'yieldPerRate2' | 'rate' | 'perRate';
-
-/**
- * The dimension of one parameter of one model.
- * @param model - the model
- * @param name - the parameter name as the model reports it ("a", "b", "c", "P", "x0", "k")
- * @returns its dimension
- * @example
- * paramDimension('exponential', 'b') // 'yield' (the rise to the asymptote)
- */
-export function paramDimension(model: ModelName, name: string): ParamDimension {
-  if (name === 'x0') return 'rate';
-  if (name === 'k') return 'perRate';
-  if (name === 'c') return 'yieldPerRate2';
-  if (name === 'b') return model === 'exponential' ? 'yield' : 'yieldPerRate';
-  return 'yield';
-}
 
 /** Converters from canonical kg/ha to the report's units. */
 export interface UnitScale {

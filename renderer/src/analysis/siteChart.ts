@@ -4,6 +4,7 @@
  * conversion and layering happen here; every number comes from shared/.
  */
 import type { EconomicOptimum } from '../../../shared/economics/economicOptimum';
+import { modelLabel } from '../../../shared/models/catalog';
 import type { ModelName } from '../../../shared/models/modelTypes';
 import type { ChartLayer, ChartSpec, PointLayer } from '../../../shared/report/chartSpec';
 import type { RegionalReturn } from '../../../shared/analysis/regionalReturn';
@@ -47,16 +48,6 @@ function blockPoints(
   });
 }
 
-/** Human names of the models for legends. */
-export const MODEL_LABELS: Record<ModelName, string> = {
-  linear: 'Straight line',
-  proportional: 'Line through origin',
-  quadratic: 'Quadratic',
-  linearPlateau: 'Linear-plateau',
-  quadraticPlateau: 'Quadratic-plateau',
-  exponential: 'Exponential rise',
-};
-
 /**
  * The one-site chart: yields by block, fitted curves (the leading one bold),
  * the optimum and its interval, residuals of the leading model below.
@@ -95,7 +86,7 @@ export function siteChartSpec(
     if (!fit || model === leading) continue;
     response.push({
       kind: 'curve',
-      name: MODEL_LABELS[model],
+      name: modelLabel(model),
       model,
       role: 'alternative',
       x: Array.from(fit.curve.rateKgHa, r),
@@ -106,7 +97,7 @@ export function siteChartSpec(
   if (leading && lead) {
     response.push({
       kind: 'curve',
-      name: `${MODEL_LABELS[leading]} (leading)`,
+      name: `${modelLabel(leading)} (leading)`,
       model: leading,
       role: 'chosen',
       x: Array.from(lead.curve.rateKgHa, r),
@@ -150,7 +141,7 @@ export function siteChartSpec(
     // Residuals are differences, so they scale like yields without an offset.
     panels.push({
       id: 'residuals',
-      title: `Residuals, ${MODEL_LABELS[leading!]}`,
+      title: `Residuals, ${modelLabel(leading!)}`,
       x: { title: 'N rate', unit: rateUnit },
       y: { title: 'Residual', unit: units.yield, zeroLine: true },
       heightShare: 1,
@@ -159,7 +150,7 @@ export function siteChartSpec(
   }
   return {
     title: `${site.site}: yield response to N`,
-    subtitle: leading ? `Leading model: ${MODEL_LABELS[leading]}` : 'No model could be fitted',
+    subtitle: leading ? `Leading model: ${modelLabel(leading)}` : 'No model could be fitted',
     widthPx: 900,
     heightPx: 560,
     panels,
@@ -183,7 +174,7 @@ export function sitesOverlaySpec(
     if (!fit) continue;
     layers.push({
       kind: 'curve',
-      name: `${site.site} (${MODEL_LABELS[model!]})`,
+      name: `${site.site} (${modelLabel(model!)})`,
       model,
       role: 'alternative',
       x: Array.from(fit.curve.rateKgHa, (v) => rateFromKgHa(v, units.rate)),

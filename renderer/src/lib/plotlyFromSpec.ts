@@ -5,6 +5,7 @@
  * not compute. Colors come from the shared chartPalette so the screen and the
  * printed reports look alike.
  */
+import { MODEL_CATALOG } from '../../../shared/models/catalog';
 import {
   axisLabel,
   chartPalette,
@@ -38,15 +39,16 @@ const plotlySymbols: Record<(typeof chartPalette.symbols)[number], string> = {
   star: 'star',
 };
 
-/** One dash per model, so alternative curves are told apart without color. */
-const MODEL_DASHES: Record<ChartModelName, string> = {
-  linear: 'dash',
-  proportional: 'longdashdot',
-  quadratic: 'dot',
-  linearPlateau: 'dashdot',
-  quadraticPlateau: 'longdash',
-  exponential: '4px,3px,1px,3px',
-};
+/**
+ * The model's own dash (its catalog entry's, shared with the printed charts), so
+ * alternative curves are told apart without color; Plotly takes lengths as "9px,9px".
+ */
+function modelDash(model: ChartModelName): string {
+  return MODEL_CATALOG[model].dash
+    .split(' ')
+    .map((length) => `${length}px`)
+    .join(',');
+}
 
 /** Gap between stacked panels, as a share of the plot height. */
 const PANEL_GAP = 0.12;
@@ -185,7 +187,7 @@ export function plotlyFromSpec(spec: ChartSpec, options: FigureOptions = {}): Pl
                         ? chartPalette.groups[curveIndex++ % chartPalette.groups.length]
                         : chartPalette.alternative,
                       width: 1.5,
-                      dash: layer.model ? MODEL_DASHES[layer.model] : 'dot',
+                      dash: layer.model ? modelDash(layer.model) : 'dot',
                     },
           });
           break;

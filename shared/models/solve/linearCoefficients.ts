@@ -8,9 +8,9 @@ import {
   qrDecompose,
   solveUpperTriangular,
   type QrDecomposition,
-} from '../stats/qr';
+} from '../../stats/qr';
 import { exactScratch } from './exactScratch';
-import type { PreparedSite } from './prepareSite';
+import type { PreparedSite } from '../prepareSite';
 import { blockColumns } from './profileSolver';
 
 export interface LinearCoefficients {

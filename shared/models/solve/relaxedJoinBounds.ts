@@ -10,7 +10,7 @@
  * fitted on group sums (the full block design gets no bounds).
  */
 import { exactScratch } from './exactScratch';
-import type { PreparedSite } from './prepareSite';
+import type { PreparedSite } from '../prepareSite';
 
 /**
  * One bound per interval.

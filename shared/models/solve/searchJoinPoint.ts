@@ -17,7 +17,7 @@
  * at those points, a handful of evaluations where Brent needs about twenty
  * (most of them creeping towards an end when the minimum lies there).
  */
-import { minimizeBrent } from '../optimize/minimizeBrent';
+import { minimizeBrent } from '../../optimize/minimizeBrent';
 import type { StationaryJoinPoints } from './stationaryJoinPoints';
 
 /** Candidate joins of one interval (at most 4 from stationaryJoinPoints). */

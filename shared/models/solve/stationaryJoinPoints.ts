@@ -25,8 +25,8 @@
  *
  * Only for sites fitted on group sums (design "groups" or "balanced-blocks").
  */
-import { polynomialRoots } from '../optimize/polynomialRoots';
-import type { PreparedSite } from './prepareSite';
+import { polynomialRoots } from '../../optimize/polynomialRoots';
+import type { PreparedSite } from '../prepareSite';
 
 /** Writes the candidate joins (kg/ha) strictly inside interval j to out and returns their count. */
 export type StationaryJoinPoints = (interval: number, out: Float64Array) => number;

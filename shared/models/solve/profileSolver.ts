@@ -17,8 +17,8 @@
  * wrong sign, the constrained optimum is β = 0 (SSE is a convex quadratic in β),
  * which is the flat fit: that SSE is returned instead.
  */
-import { applyQTranspose, qrDecompose } from '../stats/qr';
-import type { PreparedSite } from './prepareSite';
+import { applyQTranspose, qrDecompose } from '../../stats/qr';
+import type { PreparedSite } from '../prepareSite';
 
 export interface ProfileSolver {
   /** SSE at g (one value per distinct rate), respecting the sign constraint on β. */
