@@ -2,7 +2,10 @@
  * `plotrate analyze`: read the files, call shared/ for everything else, write
  * the outputs asked for. Outputs are written to a temporary name beside the
  * target and renamed, so an interrupted run never leaves half a file, and no
- * output may be one of the inputs.
+ * output may be one of the inputs. The modules behind the
+ * workbook (exceljs), the PDF (pdfkit) and the charts (resvg, a worker) are
+ * imported where their output is written, so a run that writes only JSON
+ * never loads them.
  */
 import { existsSync, readFileSync, realpathSync, renameSync, writeFileSync, rmSync } from 'node:fs';
 import path from 'node:path';
@@ -16,12 +19,9 @@ import { siteResponseChart } from '../shared/report/siteResponseChart';
 import { tableFromFiles } from '../shared/report/tableFromFiles';
 import { unitScale } from '../shared/report/unitScale';
 import type { TrialReport } from '../shared/report/trialReport';
-import { reportGrowerPages, writeWorkbook } from '../shared/report/workbook';
 import type { SheetImage } from '../shared/report/workbookSite';
 import { displayUnits } from '../shared/units/displayUnits';
 import { formatQuantity } from '../shared/units/formatQuantity';
-import { chartPngs } from './chartPng';
-import { growerPdf } from './growerPdf';
 import type { AnalyzeArgs } from './parseArgs';
 import { UsageError } from './usageError';
 
@@ -145,6 +145,7 @@ async function drawCharts(
   const scale = report.sites.length > 100 ? 1 : 2;
   const every = Math.ceil(specs.length / 10);
   let next = every;
+  const { chartPngs } = await import('./chartPng');
   const pngs = await chartPngs(specs, scale, (done) => {
     if (specs.length >= 50 && done >= next) {
       log.err(`plotrate: drew ${done}/${specs.length} charts`);
@@ -265,6 +266,7 @@ export async function analyzeCommand(
   const charts = args.out || args.pdf ? await drawCharts(report, log) : null;
   if (args.out && charts) {
     log.err(`plotrate: writing ${args.out}`);
+    const { writeWorkbook } = await import('../shared/report/workbook');
     writeAtomically(
       args.out,
       await writeWorkbook(report, {
@@ -286,6 +288,8 @@ export async function analyzeCommand(
         aspect: charts.region.heightPx / charts.region.widthPx,
       };
     }
+    const { growerPdf } = await import('./growerPdf');
+    const { reportGrowerPages } = await import('../shared/report/reportGrowerPages');
     writeAtomically(
       args.pdf,
       await growerPdf(reportGrowerPages(report), pageCharts, new Date(report.createdAt)),
