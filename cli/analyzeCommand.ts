@@ -1,14 +1,15 @@
 /**
  * `plotrate analyze`: read the files, call shared/ for everything else, write
- * the outputs asked for. Outputs are written to a temporary name beside the
- * target and renamed, so an interrupted run never leaves half a file, and no
- * output may be one of the inputs. The modules behind the
+ * the outputs asked for. Every output goes through the desktop shell's atomic
+ * writer (electron/atomicWrite.ts), so an interrupted run never leaves half a
+ * file, and no output may be one of the inputs. The modules behind the
  * workbook (exceljs), the PDF (pdfkit) and the charts (resvg, a worker) are
  * imported where their output is written, so a run that writes only JSON
  * never loads them.
  */
-import { existsSync, readFileSync, realpathSync, renameSync, writeFileSync, rmSync } from 'node:fs';
+import { existsSync, readFileSync, realpathSync } from 'node:fs';
 import path from 'node:path';
+import { writeFileAtomic } from '../electron/atomicWrite';
 import { describeRef } from '../shared/quality/qualityFinding';
 import { defaultPrices } from '../shared/report/defaultPrices';
 import { analyzeTrials } from '../shared/report/analyzeTrials';
@@ -82,20 +83,6 @@ function checkOutputs(args: AnalyzeArgs): void {
         `${option} ${p}: the folder ${path.dirname(path.resolve(p))} does not exist.`,
       );
     }
-  }
-}
-
-function writeAtomically(file: string, bytes: Uint8Array | string): void {
-  const tmp = path.join(
-    path.dirname(path.resolve(file)),
-    `.${path.basename(file)}.${process.pid}.part`,
-  );
-  try {
-    writeFileSync(tmp, bytes);
-    renameSync(tmp, file);
-  } catch (e) {
-    rmSync(tmp, { force: true });
-    throw e;
   }
 }
 
@@ -267,8 +254,8 @@ export async function analyzeCommand(
   if (args.out && charts) {
     log.err(`plotrate: writing ${args.out}`);
     const { writeWorkbook } = await import('../shared/report/workbook');
-    writeAtomically(
-      args.out,
+    await writeFileAtomic(
+      path.resolve(args.out),
       await writeWorkbook(report, {
         siteCharts: charts.sites,
         acrossChart: charts.region,
@@ -290,14 +277,17 @@ export async function analyzeCommand(
     }
     const { growerPdf } = await import('./growerPdf');
     const { reportGrowerPages } = await import('../shared/report/reportGrowerPages');
-    writeAtomically(
-      args.pdf,
+    await writeFileAtomic(
+      path.resolve(args.pdf),
       await growerPdf(reportGrowerPages(report), pageCharts, new Date(report.createdAt)),
     );
   }
   if (args.json) {
     log.err(`plotrate: writing ${args.json}`);
-    writeAtomically(args.json, `${JSON.stringify(resultsJson(report), null, 2)}\n`);
+    await writeFileAtomic(
+      path.resolve(args.json),
+      `${JSON.stringify(resultsJson(report), null, 2)}\n`,
+    );
   }
   for (const line of summary(report)) log.out(line);
   return report;
