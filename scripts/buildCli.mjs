@@ -59,7 +59,7 @@ if (import.meta.url === pathToFileURL(process.argv[1]).href) {
     // `npm install --omit=dev` has no esbuild; say so instead of failing the install.
     if (process.argv.includes('--prepare')) {
       console.warn(
-        'plotrate: esbuild is not installed; run `npm install` then `npm run build:cli`.',
+        'plotrate: the command line was not built: esbuild, a development dependency, is not installed (`npm install` with development dependencies builds it).',
       );
       process.exit(0);
     }
