@@ -5,7 +5,9 @@ import svelte from 'eslint-plugin-svelte';
 import globals from 'globals';
 
 export default tseslint.config(
-  { ignores: ['node_modules/', 'dist/', 'dist-electron/', 'release/', 'test-output/'] },
+  {
+    ignores: ['node_modules/', 'dist/', 'dist-electron/', 'dist-cli/', 'release/', 'test-output/'],
+  },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   ...svelte.configs['flat/recommended'],

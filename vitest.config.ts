@@ -7,6 +7,8 @@ export default defineConfig({
   test: {
     include: ['tests/**/*.test.ts'],
     reporters: ['default', './tests/support/plainSummaryReporter.ts'],
+    // Tests that spawn the command line run its bundle: build it from the current sources first.
+    globalSetup: ['./tests/support/buildCliBundle.ts'],
     environment: 'node',
     testTimeout: 60_000,
     hookTimeout: 180_000,

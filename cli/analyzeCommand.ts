@@ -1,11 +1,15 @@
 /**
  * `plotrate analyze`: read the files, call shared/ for everything else, write
- * the outputs asked for. Outputs are written to a temporary name beside the
- * target and renamed, so an interrupted run never leaves half a file, and no
- * output may be one of the inputs.
+ * the outputs asked for. Every output goes through the desktop shell's atomic
+ * writer (electron/atomicWrite.ts), so an interrupted run never leaves half a
+ * file, and no output may be one of the inputs. The modules behind the
+ * workbook (exceljs), the PDF (pdfkit) and the charts (resvg, a worker) are
+ * imported where their output is written, so a run that writes only JSON
+ * never loads them.
  */
-import { existsSync, readFileSync, realpathSync, renameSync, writeFileSync, rmSync } from 'node:fs';
+import { existsSync, readFileSync, realpathSync } from 'node:fs';
 import path from 'node:path';
+import { writeFileAtomic } from '../electron/atomicWrite';
 import { analysisSettings } from '../shared/analysis/analysisSettings';
 import { analyzeTrial } from '../shared/analysis/analyzeTrial';
 import { priceTrial } from '../shared/analysis/priceTrial';
@@ -20,13 +24,10 @@ import type { DisplaySettings } from '../shared/report/reportSettings';
 import { siteResponseChart } from '../shared/report/siteResponseChart';
 import { unitScale } from '../shared/report/unitScale';
 import type { TrialReport } from '../shared/report/trialReport';
-import { reportGrowerPages, writeWorkbook } from '../shared/report/workbook';
 import type { SheetImage } from '../shared/report/workbookSite';
 import { displayUnits, type DisplayUnits } from '../shared/units/displayUnits';
 import { rateUnitKg, yieldUnitKg } from '../shared/units/unitWeights';
 import { formatQuantity } from '../shared/units/formatQuantity';
-import { chartPngs } from './chartPng';
-import { growerPdf } from './growerPdf';
 import type { AnalyzeArgs } from './parseArgs';
 import { UsageError } from './usageError';
 
@@ -90,20 +91,6 @@ function checkOutputs(args: AnalyzeArgs): void {
   }
 }
 
-function writeAtomically(file: string, bytes: Uint8Array | string): void {
-  const tmp = path.join(
-    path.dirname(path.resolve(file)),
-    `.${path.basename(file)}.${process.pid}.part`,
-  );
-  try {
-    writeFileSync(tmp, bytes);
-    renameSync(tmp, file);
-  } catch (e) {
-    rmSync(tmp, { force: true });
-    throw e;
-  }
-}
-
 function readInputs(files: string[]): { name: string; bytes: Uint8Array }[] {
   return files.map((f) => {
     try {
@@ -154,6 +141,7 @@ async function drawCharts(
   const scale = report.sites.length > 100 ? 1 : 2;
   const every = Math.ceil(specs.length / 10);
   let next = every;
+  const { chartPngs } = await import('./chartPng');
   const pngs = await chartPngs(specs, scale, (done) => {
     if (specs.length >= 50 && done >= next) {
       log.err(`plotrate: drew ${done}/${specs.length} charts`);
@@ -277,8 +265,9 @@ export async function analyzeCommand(
   const charts = args.out || args.pdf ? await drawCharts(report, log) : null;
   if (args.out && charts) {
     log.err(`plotrate: writing ${args.out}`);
-    writeAtomically(
-      args.out,
+    const { writeWorkbook } = await import('../shared/report/workbook');
+    await writeFileAtomic(
+      path.resolve(args.out),
       await writeWorkbook(report, {
         siteCharts: charts.sites,
         acrossChart: charts.region,
@@ -298,14 +287,19 @@ export async function analyzeCommand(
         aspect: charts.region.heightPx / charts.region.widthPx,
       };
     }
-    writeAtomically(
-      args.pdf,
+    const { growerPdf } = await import('./growerPdf');
+    const { reportGrowerPages } = await import('../shared/report/reportGrowerPages');
+    await writeFileAtomic(
+      path.resolve(args.pdf),
       await growerPdf(reportGrowerPages(report), pageCharts, new Date(report.createdAt)),
     );
   }
   if (args.json) {
     log.err(`plotrate: writing ${args.json}`);
-    writeAtomically(args.json, `${JSON.stringify(resultsJson(report), null, 2)}\n`);
+    await writeFileAtomic(
+      path.resolve(args.json),
+      `${JSON.stringify(resultsJson(report), null, 2)}\n`,
+    );
   }
   for (const line of summary(report)) log.out(line);
   return report;

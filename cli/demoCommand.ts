@@ -5,8 +5,9 @@
  * Nitrogen is bought as urea (46 % N), so the grower page gives the rate in
  * product as well as in N; the prices are illustrative and every output says so.
  */
-import { mkdirSync, writeFileSync, existsSync } from 'node:fs';
+import { mkdirSync, existsSync } from 'node:fs';
 import path from 'node:path';
+import { writeFileAtomic } from '../electron/atomicWrite';
 import { demoTrial, writeDemoWorkbook, demoSheetNames } from '../shared/demo';
 import { analyzeCommand, type Console2 } from './analyzeCommand';
 import { analyzeDefaults } from './parseArgs';
@@ -32,7 +33,7 @@ export async function demoCommand(dir: string, log: Console2, version: string): 
   if (existsSync(input)) {
     log.err(`plotrate: ${input} exists; analyzing that copy as it is.`);
   } else {
-    writeFileSync(input, await writeDemoWorkbook(trial));
+    await writeFileAtomic(path.resolve(input), await writeDemoWorkbook(trial));
     log.out(`Wrote ${input}`);
   }
   // The command line's own defaults, so the demo shows what a plain run gives.

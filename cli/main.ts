@@ -3,8 +3,7 @@
 // 2 bad input or usage).
 import { readFileSync } from 'node:fs';
 import { isImportError } from '../shared/import/importError';
-import { AnalysisFailed, analyzeCommand, type Console2 } from './analyzeCommand';
-import { demoCommand } from './demoCommand';
+import type { Console2 } from './analyzeCommand';
 import { helpText } from './helpText';
 import { parseArgs } from './parseArgs';
 import { UsageError } from './usageError';
@@ -37,9 +36,13 @@ async function main(argv: string[]): Promise<number> {
       return 0;
     }
     if (cmd.command === 'demo') {
+      // Loaded only here: the demo writes a workbook, so it brings exceljs with it.
+      const { demoCommand } = await import('./demoCommand');
       await demoCommand(cmd.dir, log, version);
       return 0;
     }
+    // Loaded only for a run: --help and --version then start without the analysis code.
+    const { analyzeCommand } = await import('./analyzeCommand');
     await analyzeCommand(cmd, log, version);
     return 0;
   } catch (e) {
@@ -58,7 +61,8 @@ async function main(argv: string[]): Promise<number> {
       );
       return 2;
     }
-    if (e instanceof AnalysisFailed) {
+    // By name, as isImportError does: the class lives in the lazily loaded analyzeCommand.
+    if (e instanceof Error && e.name === 'AnalysisFailed') {
       log.err(`plotrate: analysis failed: ${oneLine(e.message)}`);
       return 1;
     }

@@ -2,9 +2,11 @@
  * The command line's words → a typed command. Every mistake becomes a
  * UsageError whose one line says which option and what is allowed.
  */
-import type { MappedRole } from '../shared/import/columnMapping';
+// The roles come from their owner, not from importFiles (which re-exports them): this
+// module loads on every start, and importFiles would bring the whole import code.
 import { ANALYSIS_DEFAULTS } from '../shared/analysis/analysisSettings';
-import { mappableRoles, type RoleOverride } from '../shared/import/importFiles';
+import { MAPPED_ROLES, type MappedRole } from '../shared/import/columnMapping';
+import type { RoleOverride } from '../shared/import/importFiles';
 import type { CropId } from '../shared/table/plotTable';
 import { cropIds, isCropId } from '../shared/units/crops';
 import { productFromText, productIds, type ProductId } from '../shared/units/products';
@@ -189,9 +191,9 @@ export function parseArgs(argv: readonly string[]): Command {
           const header = pair.slice(eq + 1).trim();
           if (eq < 1 || !header)
             throw new UsageError(`--map ${pair}: write role=Header, e.g. --map yield=Grain.`);
-          if (!(mappableRoles as readonly string[]).includes(role)) {
+          if (!(MAPPED_ROLES as readonly string[]).includes(role)) {
             throw new UsageError(
-              `--map ${pair}: "${role}" is not a role; use one of ${mappableRoles.join(', ')}.`,
+              `--map ${pair}: "${role}" is not a role; use one of ${MAPPED_ROLES.join(', ')}.`,
             );
           }
           a.map.push({ role: role as MappedRole, header });

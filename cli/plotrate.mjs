@@ -1,6 +1,19 @@
 #!/usr/bin/env node
-// The `plotrate` command: loads the TypeScript entry point through tsx.
-import { register } from 'tsx/esm/api';
+// The `plotrate` command: runs the bundle scripts/buildCli.mjs makes from
+// cli/main.ts (npm builds it after `npm install` and `npm ci`). Nothing is
+// compiled here, so start-up is Node's own.
+import { existsSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
 
-register();
-await import('./main.ts');
+const bundle = new URL('../dist-cli/plotrate.mjs', import.meta.url);
+if (!existsSync(bundle)) {
+  const root = fileURLToPath(new URL('..', import.meta.url));
+  process.stderr.write(
+    `plotrate: the command line is not built; run "npm run build:cli" in ${root} and try again.\n`,
+  );
+  process.exit(1);
+}
+// Stack traces are printed only with PLOTRATE_DEBUG; then let them name the
+// TypeScript files and lines (reading the maps costs start-up time otherwise).
+if (process.env.PLOTRATE_DEBUG) process.setSourceMapsEnabled(true);
+await import(bundle.href);

@@ -9,6 +9,12 @@
  *   4. fsync the folder, so the rename itself survives a crash (POSIX; Windows
  *      cannot open a folder for fsync and does not need it).
  * A write that fails removes its temporary file and leaves the target alone.
+ *
+ * The one atomic writer of the project: the desktop shell saves projects and
+ * exports with it, and the command line (cli/) writes every output with it.
+ * It imports nothing but Node's own modules (never `electron`), so the
+ * command line can use it outside Electron; tests/shell.atomicSave.test.ts
+ * checks that.
  */
 import { randomBytes } from 'node:crypto';
 import { open, readdir, rename, stat, unlink } from 'node:fs/promises';

@@ -2,7 +2,7 @@
 // dist-electron/main.cjs and dist-electron/preload.cjs. A sandboxed preload
 // cannot require its own modules, so both are single files; `electron` stays
 // external (the runtime provides it). The window icon is copied beside them.
-// esbuild arrives with tsx (a dependency); vite 8 itself bundles with rolldown.
+// esbuild is a pinned devDependency (scripts/buildCli.mjs uses it too); vite 8 itself bundles with rolldown.
 import { build } from 'esbuild';
 import { copyFile, mkdir } from 'node:fs/promises';
 import path from 'node:path';

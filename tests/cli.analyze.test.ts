@@ -252,7 +252,8 @@ describe('plotrate analyze: a run with every output', () => {
   });
 
   it('leaves no partial files behind', () => {
-    expect(readdirSync(dir).filter((f) => f.endsWith('.part'))).toEqual([]);
+    // The atomic writer's temporaries (electron/atomicWrite.ts): .NAME.PID-HEX.tmp.
+    expect(readdirSync(dir).filter((f) => f.endsWith('.tmp') || f.endsWith('.part'))).toEqual([]);
   });
 });
 

@@ -1,5 +1,6 @@
 import { spawn } from 'node:child_process';
-import { mkdtemp, readdir, rm, utimes, writeFile } from 'node:fs/promises';
+import { watch } from 'node:fs';
+import { mkdtemp, readFile, readdir, rm, utimes, writeFile } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -10,6 +11,7 @@ import {
   writeFileAtomic,
 } from '../electron/atomicWrite';
 import { readProjectFile, writeProjectFile } from '../electron/projectFiles';
+import { syntheticCsv } from '../shared/demo';
 import { exampleProject } from './project.exampleProject';
 
 const here = path.dirname(fileURLToPath(import.meta.url));
@@ -130,4 +132,100 @@ describe('writeFileAtomic under a hard kill', () => {
     );
     expect(await removeStaleTemporaries(target)).toEqual([]);
   });
+});
+
+describe('one atomic writer for the shell and the command line', () => {
+  it('imports nothing but Node itself, so the command line can use it outside Electron', async () => {
+    const source = await readFile(path.join(here, '..', 'electron', 'atomicWrite.ts'), 'utf8');
+    const imports = [...source.matchAll(/^import .* from '([^']+)';$/gm)].map((m) => m[1]);
+    expect(imports.length).toBeGreaterThan(0);
+    expect(imports.filter((m) => !m.startsWith('node:'))).toEqual([]);
+    // And the command line writes through it, not through a writer of its own.
+    for (const file of ['analyzeCommand.ts', 'demoCommand.ts']) {
+      const cli = await readFile(path.join(here, '..', 'cli', file), 'utf8');
+      expect(cli, file).toContain("import { writeFileAtomic } from '../electron/atomicWrite';");
+      expect(cli, file).not.toMatch(/\b(writeFileSync|renameSync|createWriteStream)\b/);
+    }
+  });
+});
+
+describe('plotrate analyze under a hard kill', () => {
+  const cli = path.join(here, '..', 'cli', 'plotrate.mjs');
+  const sites = 150;
+  const previous = '{ "previous": "the results of an earlier run" }\n';
+
+  /**
+   * Run `plotrate analyze --json` over an existing results file and SIGKILL it:
+   * with `afterTempMs` null as soon as it says it is writing, else that many ms
+   * after the writer's temporary file appears (seen through fs.watch).
+   */
+  function analyzeAndKill(
+    folder: string,
+    afterTempMs: number | null,
+  ): Promise<{ ended: 'killed' | 'finished'; sawTemporary: boolean }> {
+    return new Promise((resolve, reject) => {
+      let sawTemporary = false;
+      let armed = false;
+      const proc = spawn(
+        process.execPath,
+        [cli, 'analyze', 'trial.csv', '--json', 'results.json', '--boot', '0'],
+        { cwd: folder, stdio: ['ignore', 'ignore', 'pipe'] },
+      );
+      const watcher = watch(folder, (_event, name) => {
+        if (!armed || sawTemporary || !name?.startsWith('.results.json.')) return;
+        sawTemporary = true;
+        if (afterTempMs === 0) proc.kill('SIGKILL');
+        else if (afterTempMs !== null) setTimeout(() => proc.kill('SIGKILL'), afterTempMs);
+      });
+      let err = '';
+      proc.stderr.on('data', (d: Buffer) => {
+        err += d.toString();
+        if (!armed && err.includes('writing results.json')) {
+          armed = true;
+          if (afterTempMs === null) proc.kill('SIGKILL');
+        }
+      });
+      proc.on('error', reject);
+      proc.on('exit', (code) => {
+        watcher.close();
+        resolve({ ended: code === 0 ? 'finished' : 'killed', sawTemporary });
+      });
+    });
+  }
+
+  it('leaves the earlier results intact or the new ones complete, never a mix', async () => {
+    const folder = await mkdtemp(path.join(os.tmpdir(), 'plotrate-atomic-cli-'));
+    try {
+      // Invented trial from the seeded generator; about 0.6 MB of results JSON.
+      await writeFile(path.join(folder, 'trial.csv'), syntheticCsv({ sites, seed: 11 }));
+      const target = path.join(folder, 'results.json');
+      const outcomes: string[] = [];
+      for (const delayMs of [null, 0, 0, 1, 3, 10, 10_000]) {
+        await writeFile(target, previous);
+        const { ended, sawTemporary } = await analyzeAndKill(folder, delayMs);
+        const leftOver = (await readdir(folder)).filter((n) => n.endsWith('.tmp'));
+        for (const name of leftOver) await rm(path.join(folder, name));
+        const text = await readFile(target, 'utf8');
+        if (text === previous) {
+          outcomes.push(
+            `${delayMs} ms: ${ended}, previous kept${leftOver.length ? ', partial temporary left' : ''}`,
+          );
+        } else {
+          // Not the old file, so it must be the whole new one.
+          expect(JSON.parse(text).sites).toHaveLength(sites);
+          outcomes.push(`${delayMs} ms: ${ended}, new file complete`);
+        }
+        if (delayMs === 10_000) expect(ended).toBe('finished');
+        if (delayMs !== null && delayMs !== 10_000) expect(sawTemporary).toBe(true);
+      }
+      // A kill must have landed while the temporary file was being written or
+      // synced, or the test proved nothing about a half-written output.
+      expect(
+        outcomes.some((o) => o.includes('killed, previous kept, partial temporary left')),
+        outcomes.join('\n'),
+      ).toBe(true);
+    } finally {
+      await rm(folder, { recursive: true, force: true });
+    }
+  }, 180_000);
 });

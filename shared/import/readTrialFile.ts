@@ -6,7 +6,6 @@ import { ImportError, isImportError } from './importError';
 import { formatBytes, importLimits, type ImportLimits } from './importLimits';
 import { decodeText } from './decodeText';
 import { readDelimited } from './readDelimited';
-import { readXlsx } from './readXlsx';
 import { sha256Hex } from './sha256Hex';
 import { sniffFormat } from './sniffFormat';
 import { guardZip } from './zipGuard';
@@ -48,6 +47,8 @@ export async function readTrialFile(
     const file = { name, bytes: bytes.length, sha256: await sha256Hex(bytes) };
     if (format === 'xlsx') {
       guardZip(name, bytes, lim);
+      // Imported here: exceljs is large, and a .csv never needs it.
+      const { readXlsx } = await import('./readXlsx');
       return await readXlsx(file, bytes, lim);
     }
     return readDelimited(file, decodeText(bytes).text, lim);

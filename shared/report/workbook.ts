@@ -5,7 +5,7 @@
  * the report's display units, converted from canonical kg/ha.
  */
 import ExcelJS from 'exceljs';
-import { growerPage, type GrowerPage } from './growerPage';
+import { reportGrowerPages } from './reportGrowerPages';
 import type { TrialReport } from './trialReport';
 import { unitScale } from './unitScale';
 import { workbookAcrossSites } from './workbookAcrossSites';
@@ -25,16 +25,8 @@ export interface WorkbookOptions {
   zipLevel?: number;
 }
 
-/**
- * The grower pages a report prints: one per site with a recommendation, then the region.
- * @param report - the analysis
- * @returns the pages in print order
- */
-export function reportGrowerPages(report: TrialReport): GrowerPage[] {
-  const pages = report.sites.map((s) => growerPage(report, s.site));
-  if (report.acrossSites) pages.push(growerPage(report, 'region'));
-  return pages;
-}
+// Re-exported for callers that import it from here; it lives apart so the PDF needs no exceljs.
+export { reportGrowerPages };
 
 /**
  * Writes the report workbook.

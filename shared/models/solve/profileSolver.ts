@@ -71,7 +71,7 @@ function groupSolver(site: PreparedSite, options: ProfileSolverOptions): Profile
   const last = { intercept: 0, beta: 0 };
   // The evaluators come from module-level factories: a closure bound to a name
   // here would be renamed on every call by tools that keep function names (tsx,
-  // which runs the command line), at a cost comparable to the evaluation itself.
+  // which runs the benchmarks), at a cost comparable to the evaluation itself.
   const sse = options.intercept
     ? centeredSse(site, options.sign, w, mBar, flatSse, last)
     : originSse(site, options.sign, flatSse, last);
