@@ -11,7 +11,7 @@ import { adjustMoisture } from '../units/adjustMoisture';
 import type { RateUnit } from '../units/convertRate';
 import { convertYield, type YieldUnit } from '../units/convertYield';
 import { productFromText, products, type FertilizerProduct } from '../units/products';
-import type { QualityFinding } from '../quality/qualityFinding';
+import type { QualityFinding } from '../table/qualityFinding';
 import { cellLabel, cellText } from './cellLabel';
 import { cellNumber } from './cellNumber';
 import { cellRef } from './cellRef';

@@ -5,7 +5,7 @@
 import type { OriginalCell } from '../table/plotTable';
 import type { RateUnit } from '../units/convertRate';
 import { productFromText, type FertilizerProduct } from '../units/products';
-import type { QualityFinding } from '../quality/qualityFinding';
+import type { QualityFinding } from '../table/qualityFinding';
 import { cellLabel, cellText } from './cellLabel';
 import { cellNumber } from './cellNumber';
 import { cellRef } from './cellRef';

@@ -4,7 +4,7 @@
  * plots (which makes block-adjusted means differ from raw means).
  */
 import type { Plot, PlotTable } from '../table/plotTable';
-import type { QualityFinding } from './qualityFinding';
+import type { QualityFinding } from '../table/qualityFinding';
 
 function rateLabel(p: Plot): string {
   const kg = p.rateKgHa === null ? '' : `${Math.round(p.rateKgHa * 10) / 10} kg N/ha`;
