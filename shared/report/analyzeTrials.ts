@@ -35,6 +35,7 @@ import { bootstrapSiteOptimum } from './bootstrapSiteOptimum';
 import { fitMessage, optimumNote } from './modelNotes';
 import { priceTerms, type ReportSettings } from './reportSettings';
 import { siteAnova } from './siteAnova';
+import { isBlockLabel } from '../stats/hasBlocks';
 import type {
   AcrossSitesReport,
   InterceptSummary,
@@ -285,7 +286,7 @@ function siteReport(
   const distinct = [...new Set(rates)].sort((a, b) => a - b);
   const blockCount = new Set(blocks.filter((b) => b !== null)).size;
   const designText = `${blockCount > 0 ? `${blockCount} block${blockCount === 1 ? '' : 's'} × ` : ''}${distinct.length} rate${distinct.length === 1 ? '' : 's'}`;
-  if (c.settings.blocks === 'fixed' && blocks.some((b) => b === null || b === ''))
+  if (c.settings.blocks === 'fixed' && !blocks.every(isBlockLabel))
     warnings.push('Some plots have no block label, so the curves were fitted without block terms.');
   const { anova, means } = siteAnova(rates, yields, blocks);
   const interceptTest = interceptSummary(s, used, distinct.length, warnings);
