@@ -6,7 +6,12 @@
  * in the flat form the provenance sheet lists. Pure: bytes in, values out.
  */
 import { buildPlotTable } from '../import/buildPlotTable';
-import { MAPPED_ROLES, type ColumnMapping, type MappedRole } from '../import/columnMapping';
+import {
+  MAPPED_ROLES,
+  assignColumnRole,
+  type ColumnMapping,
+  type MappedRole,
+} from '../import/columnMapping';
 import { detectColumns } from '../import/detectColumns';
 import { unitFromHeader } from '../import/headerWords';
 import { ImportError } from '../import/importError';
@@ -47,14 +52,13 @@ function applyOverrides(mapping: ColumnMapping, overrides: readonly RoleOverride
       const col = sheet.columns.find((c) => norm(c.header) === norm(o.header));
       if (!col) continue;
       matched.add(norm(o.header));
-      // One column per role (except groups and ignore): the one named wins.
-      if (o.role !== 'group' && o.role !== 'ignore') {
-        for (const c of sheet.columns) if (c !== col && c.role === o.role) c.role = 'ignore';
-      }
-      col.role = o.role;
+      // One column per role (roleTakesOneColumn): the one named wins.
+      sheet.columns = assignColumnRole(sheet.columns, col.col, o.role, {
+        chosen: () => `set by the user (--map ${o.role}=${o.header})`,
+        setAside: `set aside: --map ${o.role}=${o.header} names another column`,
+      });
       const hint = unitFromHeader(col.header);
-      if (hint) col.unit = hint.unit;
-      col.evidence = `set by the user (--map ${o.role}=${o.header})`;
+      if (hint) sheet.columns.find((c) => c.col === col.col)!.unit = hint.unit;
       if (o.role === 'site') sheet.site = { from: 'column' };
     }
   }
