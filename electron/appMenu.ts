@@ -1,5 +1,5 @@
 import type { MenuItemConstructorOptions } from 'electron';
-import type { MenuCommand } from './desktopApi';
+import type { MenuCommand } from '../shared/desktop/desktopContract';
 
 /** What the menu needs from the shell. */
 export interface MenuActions {

@@ -15,7 +15,7 @@ import { parseProject } from '../shared/project/parseProject';
 import type { PlotrateProject } from '../shared/project/projectFormat';
 import { serializeProject } from '../shared/project/serializeProject';
 import { writeFileAtomic } from './atomicWrite';
-import type { RecoveredProject } from './desktopApi';
+import type { RecoveredProject } from '../shared/desktop/desktopContract';
 
 /** Interval between autosaves while there are unsaved changes, ms. */
 export const AUTOSAVE_INTERVAL_MS = 60_000;

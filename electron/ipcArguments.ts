@@ -8,7 +8,7 @@ import { ProjectFileError } from '../shared/project/projectFileError';
 import { parseProject } from '../shared/project/parseProject';
 import type { PlotrateProject } from '../shared/project/projectFormat';
 import { serializeProject } from '../shared/project/serializeProject';
-import type { ErrorReport, ExportKind } from './desktopApi';
+import type { ErrorReport, ExportKind } from '../shared/desktop/desktopContract';
 import { IpcArgumentError } from './shellErrors';
 
 /** The export kinds and their save-dialog filters. */

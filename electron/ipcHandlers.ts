@@ -15,7 +15,7 @@ import type {
   RecoveredProject,
   SavedProject,
   TrialFileBytes,
-} from './desktopApi';
+} from '../shared/desktop/desktopContract';
 import { TRIAL_FILE_EXTENSIONS, fileKindOf, withExtension } from './fileKinds';
 import {
   EXPORT_KINDS,

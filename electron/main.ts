@@ -30,7 +30,12 @@ import {
   type StartupRecovery,
 } from './autosave';
 import { CONTENT_SECURITY_POLICY } from './contentSecurityPolicy';
-import type { ErrorReport, FilesOpened, MenuCommand, RecoveredProject } from './desktopApi';
+import type {
+  ErrorReport,
+  FilesOpened,
+  MenuCommand,
+  RecoveredProject,
+} from '../shared/desktop/desktopContract';
 import { appendErrorLog, entryFromUnknown, uncaughtFromConsole, type LogEntry } from './errorLog';
 import { withExtension } from './fileKinds';
 import { IPC_EVENTS } from './ipcChannels';

@@ -15,7 +15,7 @@ import {
   type ExportKind,
   type FilesOpened,
   type MenuCommand,
-} from './desktopApi';
+} from '../shared/desktop/desktopContract';
 import { IPC, IPC_EVENTS, VERSION_SWITCH } from './ipcChannels';
 
 const version =

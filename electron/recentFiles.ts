@@ -3,7 +3,7 @@ import { readFile } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
 import { writeFileAtomic } from './atomicWrite';
-import type { RecentFile } from './desktopApi';
+import type { RecentFile } from '../shared/desktop/desktopContract';
 
 /** How many entries the list keeps. */
 export const MAX_RECENT_FILES = 12;

@@ -1,5 +1,5 @@
 import path from 'node:path';
-import type { TrialFileBytes } from './desktopApi';
+import type { TrialFileBytes } from '../shared/desktop/desktopContract';
 import { MAX_TRIAL_FILE_BYTES } from './fileKinds';
 import { readCappedFile } from './readCappedFile';
 

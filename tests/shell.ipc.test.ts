@@ -7,7 +7,12 @@ import os from 'node:os';
 import path from 'node:path';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { writeFileAtomic } from '../electron/atomicWrite';
-import type { ErrorReport, FilesOpened, OpenedProject, SavedProject } from '../electron/desktopApi';
+import type {
+  ErrorReport,
+  FilesOpened,
+  OpenedProject,
+  SavedProject,
+} from '../shared/desktop/desktopContract';
 import { IPC } from '../electron/ipcChannels';
 import {
   createIpcHandlers,

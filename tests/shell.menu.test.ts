@@ -1,7 +1,7 @@
 import type { MenuItemConstructorOptions } from 'electron';
 import { describe, expect, it } from 'vitest';
 import { buildMenuTemplate, type MenuActions } from '../electron/appMenu';
-import type { MenuCommand } from '../electron/desktopApi';
+import type { MenuCommand } from '../shared/desktop/desktopContract';
 import { filesFromArgv } from '../electron/launchArguments';
 
 function flatten(items: MenuItemConstructorOptions[]): MenuItemConstructorOptions[] {

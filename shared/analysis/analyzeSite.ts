@@ -7,6 +7,7 @@ import { drawBootstrapEstimates, type BootstrapDraws } from '../economics/bootst
 import { fitAllModels, type AllModelsFit } from '../models/fitAllModels';
 import type { BlockTerms, ModelFit, ModelName } from '../models/modelTypes';
 import { StatsInputError } from '../stats/errors';
+import { defaultBlockTerms } from '../stats/hasBlocks';
 import { testIntercept } from '../stats/interceptTest';
 import { pearsonCorrelation, type PearsonResult } from '../stats/pearson';
 import { bootstrapSeed } from './analysisSettings';
@@ -84,10 +85,7 @@ function withoutPredict(fits: Record<ModelName, ModelFit>): Record<ModelName, Fi
 
 function siteBlocks(site: SitePlots, choice: 'auto' | BlockTerms): BlockTerms {
   if (choice !== 'auto') return choice;
-  const labels = new Set(site.block);
-  return site.block.length > 0 && !labels.has(null) && !labels.has('') && labels.size >= 2
-    ? 'fixed'
-    : 'none';
+  return defaultBlockTerms(site.block);
 }
 
 /** A stats call whose input mistake is a data problem of this site: the result, or the reason. */

@@ -13,7 +13,7 @@
  * (the unit conversions of one plot).
  */
 import type { CropId, Plot, PlotTable, SourceFile } from '../table/plotTable';
-import type { QualityFinding } from '../quality/qualityFinding';
+import type { QualityFinding } from '../table/qualityFinding';
 import { checkImportSettings } from './checkImportSettings';
 import type { ColumnMapping, SheetMapping } from './columnMapping';
 import { ImportError } from './importError';

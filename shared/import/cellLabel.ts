@@ -2,7 +2,7 @@
  * A cell read as a label (site, block, plot, treatment) or as plain text (product, notes,
  * group values). A number cell is a label too: plot 101 is the label "101".
  */
-import { isMissingMarker } from './parseNumberText';
+import { isMissingMarker } from '../table/parseNumberText';
 import type { RawCell } from './rawWorkbook';
 
 /**

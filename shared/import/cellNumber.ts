@@ -3,7 +3,7 @@
  * as text, a missing-value marker, text that is no number, or a formula saved
  * without its result. Import keeps the status so checks can explain it.
  */
-import { isMissingMarker, parseNumberText } from './parseNumberText';
+import { isMissingMarker, parseNumberText } from '../table/parseNumberText';
 import type { RawCell } from './rawWorkbook';
 
 export type CellNumberStatus =

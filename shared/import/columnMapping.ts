@@ -89,3 +89,63 @@ export interface ColumnMapping {
   shapeSignature: string;
   sheets: SheetMapping[];
 }
+
+/**
+ * Roles any number of columns may hold: grouping columns (previous crop, soil…) and columns left
+ * out. Every other role (site, rate, yield, notes…) is held by at most one column of a sheet.
+ */
+const MANY_COLUMN_ROLES: ReadonlySet<MappedRole> = new Set<MappedRole>(['group', 'ignore']);
+
+/**
+ * Whether a sheet may give this role to one column only. The one rule that detection, the
+ * screen's role edits and the command line's --map follow, and that the sheet readers rely on.
+ * @param role - a column role
+ * @returns false for 'group' and 'ignore', true for every other role (notes included)
+ * @example
+ * roleTakesOneColumn('notes') // true
+ * roleTakesOneColumn('group') // false
+ */
+export function roleTakesOneColumn(role: MappedRole): boolean {
+  return !MANY_COLUMN_ROLES.has(role);
+}
+
+/**
+ * The column of a sheet that holds a one-column role. A mapping from an older file that gave a
+ * role to two columns is read from the first, as detection would have chosen.
+ * @param columns - the sheet's columns, in sheet order
+ * @param role - a role that takes one column
+ * @returns the column, or undefined when no column has the role
+ * @example
+ * columnForRole(sheet.columns, 'yield')?.letter // 'F'
+ */
+export function columnForRole(
+  columns: readonly ColumnAssignment[],
+  role: MappedRole,
+): ColumnAssignment | undefined {
+  return columns.find((c) => c.role === role);
+}
+
+/**
+ * Gives one column a role; when the role takes one column, the column that had it is set aside
+ * ('ignore'), so a sheet never reads two yields. Returns new column objects for the changed ones.
+ * @param columns - the sheet's columns
+ * @param col - 1-based number of the column that gets the role
+ * @param role - the new role
+ * @param evidence - why, for the chosen column and for a column set aside
+ * @returns the sheet's columns after the change
+ * @example
+ * assignColumnRole(sheet.columns, 6, 'yield', { chosen: 'set by you', setAside: 'set aside' })
+ */
+export function assignColumnRole(
+  columns: readonly ColumnAssignment[],
+  col: number,
+  role: MappedRole,
+  evidence: { chosen: (was: MappedRole) => string; setAside: string },
+): ColumnAssignment[] {
+  const one = roleTakesOneColumn(role);
+  return columns.map((c) => {
+    if (c.col === col) return { ...c, role, evidence: evidence.chosen(c.role) };
+    if (one && c.role === role) return { ...c, role: 'ignore', evidence: evidence.setAside };
+    return c;
+  });
+}

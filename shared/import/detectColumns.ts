@@ -6,13 +6,13 @@
  */
 import { NUMERIC_COLUMN_ROLES, type ColumnRole } from '../table/plotTable';
 import {
-  MAPPED_ROLES,
   UNITS_BY_ROLE,
   type ColumnAssignment,
   type ColumnMapping,
   type HeaderUnit,
   type MappedRole,
   type SheetMapping,
+  roleTakesOneColumn,
 } from './columnMapping';
 import { cellNumber } from './cellNumber';
 import { normalizeHeader, roleFromHeader, unitFromHeader } from './headerWords';
@@ -86,11 +86,6 @@ function valuesEvidence(v: ColumnValues): string {
 }
 
 const numericRoles = new Set<MappedRole>(NUMERIC_COLUMN_ROLES);
-
-/** Roles a sheet holds at most one of; a second such column is left for the user to choose. */
-const singleRoles = new Set<MappedRole>(
-  MAPPED_ROLES.filter((r) => r !== 'group' && r !== 'ignore'),
-);
 
 function guessYieldUnit(v: ColumnValues, usHints: boolean): { unit: HeaderUnit; why: string } {
   const m = median(v.numbers);
@@ -231,7 +226,8 @@ function mapSheet(sheet: RawSheet, multipleSheets: boolean): SheetMapping {
         why.push('the values are at most 1, so they may be fractions rather than percentages');
       }
     }
-    if (singleRoles.has(a.role)) {
+    // A second column of a one-column role is left for the user to choose.
+    if (roleTakesOneColumn(a.role)) {
       const first = taken.get(a.role);
       if (first) {
         const h = normalizeHeader(text);

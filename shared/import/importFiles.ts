@@ -5,13 +5,18 @@
  * (results are shown in them unless the user picks a system) and the mapping
  * in the flat form the provenance sheet lists. Pure: bytes in, values out.
  */
-import type { QualityFinding } from '../quality/qualityFinding';
+import type { QualityFinding } from '../table/qualityFinding';
 import type { CropId, PlotTable } from '../table/plotTable';
 import { rateUnits, type RateUnit } from '../units/convertRate';
 import { yieldUnits, type YieldUnit } from '../units/convertYield';
 import type { DisplayUnits } from '../units/displayUnits';
 import { buildPlotTable } from './buildPlotTable';
-import { MAPPED_ROLES, type ColumnMapping, type MappedRole } from './columnMapping';
+import {
+  MAPPED_ROLES,
+  assignColumnRole,
+  type ColumnMapping,
+  type MappedRole,
+} from './columnMapping';
 import { detectColumns } from './detectColumns';
 import { unitFromHeader } from './headerWords';
 import { ImportError } from './importError';
@@ -46,14 +51,13 @@ function applyOverrides(mapping: ColumnMapping, overrides: readonly RoleOverride
       const col = sheet.columns.find((c) => norm(c.header) === norm(o.header));
       if (!col) continue;
       matched.add(norm(o.header));
-      // One column per role (except groups and ignore): the one named wins.
-      if (o.role !== 'group' && o.role !== 'ignore') {
-        for (const c of sheet.columns) if (c !== col && c.role === o.role) c.role = 'ignore';
-      }
-      col.role = o.role;
+      // One column per role (roleTakesOneColumn): the one named wins.
+      sheet.columns = assignColumnRole(sheet.columns, col.col, o.role, {
+        chosen: () => `set by the user (--map ${o.role}=${o.header})`,
+        setAside: `set aside: --map ${o.role}=${o.header} names another column`,
+      });
       const hint = unitFromHeader(col.header);
-      if (hint) col.unit = hint.unit;
-      col.evidence = `set by the user (--map ${o.role}=${o.header})`;
+      if (hint) sheet.columns.find((c) => c.col === col.col)!.unit = hint.unit;
       if (o.role === 'site') sheet.site = { from: 'column' };
     }
   }

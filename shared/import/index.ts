@@ -41,7 +41,7 @@ export { importLimits, formatBytes, type ImportLimits } from './importLimits';
 export { guardZip, zipEntryNames } from './zipGuard';
 export { sniffFormat } from './sniffFormat';
 export { shapeSignature } from './shapeSignature';
-export { parseNumberText, isMissingMarker } from './parseNumberText';
+export { parseNumberText, isMissingMarker } from '../table/parseNumberText';
 export { cellNumber, type CellNumberStatus } from './cellNumber';
 export { roleFromHeader, unitFromHeader, normalizeHeader } from './headerWords';
 export { columnLetters, cellAddress } from './rawWorkbook';

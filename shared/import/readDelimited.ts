@@ -8,7 +8,7 @@
 import type { SourceFile } from '../table/plotTable';
 import { ImportError } from './importError';
 import { importLimits, type ImportLimits } from './importLimits';
-import { parseNumberText } from './parseNumberText';
+import { parseNumberText } from '../table/parseNumberText';
 import { cellAddress, type RawCell, type RawWorkbook } from './rawWorkbook';
 
 type Separator = ',' | ';' | '\t';

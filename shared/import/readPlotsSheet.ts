@@ -11,11 +11,11 @@ import { adjustMoisture } from '../units/adjustMoisture';
 import type { RateUnit } from '../units/convertRate';
 import { convertYield, type YieldUnit } from '../units/convertYield';
 import { productFromText, products, type FertilizerProduct } from '../units/products';
-import type { QualityFinding } from '../quality/qualityFinding';
+import type { QualityFinding } from '../table/qualityFinding';
 import { cellLabel, cellText } from './cellLabel';
 import { cellNumber } from './cellNumber';
 import { cellRef } from './cellRef';
-import type { ColumnAssignment, SheetMapping } from './columnMapping';
+import { columnForRole, type ColumnAssignment, type SheetMapping } from './columnMapping';
 import { ImportError } from './importError';
 import type { ImportSettings } from './importSettings';
 import { nutrientRateKgHa } from './nutrientRateKgHa';
@@ -55,7 +55,7 @@ export function readPlotsSheet(
 ): void {
   const file = raw.file.name;
   const where = `${file}${sheet.name ? ` › ${sheet.name}` : ''}`;
-  const col = (role: ColumnAssignment['role']) => m.columns.find((c) => c.role === role);
+  const col = (role: ColumnAssignment['role']) => columnForRole(m.columns, role);
   const cols = {
     site: col('site'),
     year: col('year'),
@@ -210,7 +210,7 @@ export function readPlotsSheet(
         site,
       });
     }
-    const productCol = m.columns.find((c) => c.role === 'product');
+    const productCol = columnForRole(m.columns, 'product');
     if (productCol) {
       productWords = cellText(at(productCol));
       rowProduct = productWords ? productFromText(productWords) : null;

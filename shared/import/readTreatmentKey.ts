@@ -5,11 +5,11 @@
 import type { OriginalCell } from '../table/plotTable';
 import type { RateUnit } from '../units/convertRate';
 import { productFromText, type FertilizerProduct } from '../units/products';
-import type { QualityFinding } from '../quality/qualityFinding';
+import type { QualityFinding } from '../table/qualityFinding';
 import { cellLabel, cellText } from './cellLabel';
 import { cellNumber } from './cellNumber';
 import { cellRef } from './cellRef';
-import type { SheetMapping } from './columnMapping';
+import { columnForRole, type MappedRole, type SheetMapping } from './columnMapping';
 import type { RawSheet, RawWorkbook } from './rawWorkbook';
 
 /** One treatment of the key. */
@@ -43,7 +43,7 @@ export function readTreatmentKey(
   findings: QualityFinding[],
 ): Map<string, TreatmentKeyEntry> {
   const key = new Map<string, TreatmentKeyEntry>();
-  const col = (role: string) => m.columns.find((c) => c.role === role);
+  const col = (role: MappedRole) => columnForRole(m.columns, role);
   const trt = col('treatment');
   const rate = col('rate');
   const product = col('product');

@@ -20,7 +20,9 @@ import type {
 } from './modelTypes';
 import { pureError } from './pureError';
 import type { PreparedSite } from './prepareSite';
-import type { CurveSpec } from './modelEntry';
+import type { CurveSpec, FitStore } from './modelEntry';
+
+export type { FitStore } from './modelEntry';
 import { exactScratch } from './solve/exactScratch';
 import { blockColumns } from './solve/profileSolver';
 
@@ -52,15 +54,6 @@ export interface FinishInput {
   designQr?: QrDecomposition;
   /** Where the fitted values, residuals and curve go; a buffer of their own by default. */
   store?: FitStore;
-}
-
-/**
- * One buffer shared by the fits of one site (fitAllModelsPrepared makes it): each
- * finishFit takes its numbers from `byteOffset` on and moves it along.
- */
-export interface FitStore {
-  buffer: ArrayBuffer;
-  byteOffset: number;
 }
 
 /**

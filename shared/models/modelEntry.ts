@@ -6,7 +6,6 @@
  * shared/models/catalog.ts collects them, keyed by ModelName, and every other part
  * of Plotrate reads a model's facts from there.
  */
-import type { FitStore } from './finishFit';
 import type { CurveEstimate, FitOptions, ModelFit, ModelName } from './modelTypes';
 import type { PreparedSite } from './prepareSite';
 
@@ -91,4 +90,13 @@ export interface ModelEntry {
    * lengths in px at a line width of 1.5, e.g. "6 3" (SVG stroke-dasharray form).
    */
   dash: string;
+}
+
+/**
+ * One buffer shared by the fits of one site (fitAllModelsPrepared makes it): each
+ * finishFit takes its numbers from `byteOffset` on and moves it along.
+ */
+export interface FitStore {
+  buffer: ArrayBuffer;
+  byteOffset: number;
 }

@@ -3,8 +3,9 @@
  * block × rate cells with no plot, and rates with unequal numbers of usable
  * plots (which makes block-adjusted means differ from raw means).
  */
+import { hasBlocks } from '../stats/hasBlocks';
 import type { Plot, PlotTable } from '../table/plotTable';
-import type { QualityFinding } from './qualityFinding';
+import type { QualityFinding } from '../table/qualityFinding';
 
 function rateLabel(p: Plot): string {
   const kg = p.rateKgHa === null ? '' : `${Math.round(p.rateKgHa * 10) / 10} kg N/ha`;
@@ -53,9 +54,9 @@ export function checkDesign(table: PlotTable): QualityFinding[] {
     const rateKey = (p: Plot) => p.rateKgHa!.toFixed(6);
     const rates = new Map<string, Plot>();
     for (const p of withRate) if (!rates.has(rateKey(p))) rates.set(rateKey(p), p);
-    const blocks = [
-      ...new Set(withRate.map((p) => p.block).filter((b): b is string => b !== null)),
-    ];
+    // Only a site the rate + block model gives block terms (hasBlocks) has block × rate cells.
+    const labels = withRate.map((p) => p.block);
+    const blocks = hasBlocks(labels) ? [...new Set(labels as string[])] : [];
     if (blocks.length > 1) {
       const present = new Set(withRate.map((p) => `${p.block}|${rateKey(p)}`));
       for (const b of blocks) {

@@ -6,7 +6,7 @@ import type { PlotTable } from '../table/plotTable';
 import { checkDesign } from './checkDesign';
 import { checkResiduals } from './checkResiduals';
 import { checkValues } from './checkValues';
-import type { QualityFinding } from './qualityFinding';
+import type { QualityFinding } from '../table/qualityFinding';
 
 export interface QualityOptions {
   /** Trial CV above which a site is warned, %; default 15 (common practice for yield trials). */

@@ -5,7 +5,7 @@
  * plots are not excluded: the user decides.
  */
 import { analyzablePlots, type Plot, type PlotTable } from '../table/plotTable';
-import { describeRef, type QualityFinding } from './qualityFinding';
+import { describeRef, type QualityFinding } from '../table/qualityFinding';
 import { fitTreatmentBlock } from './treatmentBlockModel';
 
 /**

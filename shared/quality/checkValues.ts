@@ -5,8 +5,8 @@
 import { NUMERIC_COLUMN_ROLES, type Plot, type PlotTable } from '../table/plotTable';
 import { crops } from '../units/crops';
 import { yieldFromKgHa } from '../units/convertYield';
-import { isMissingMarker, parseNumberText } from '../import/parseNumberText';
-import { describeRef, type QualityFinding } from './qualityFinding';
+import { isMissingMarker, parseNumberText } from '../table/parseNumberText';
+import { describeRef, type QualityFinding } from '../table/qualityFinding';
 
 function isNumberText(text: string): boolean {
   return parseNumberText(text, false) !== null || parseNumberText(text, true) !== null;

@@ -2,7 +2,7 @@
  * Quality checks: {@link checkQuality} runs {@link checkValues}, {@link checkDesign} and
  * {@link checkResiduals}; findings are {@link QualityFinding}s with cell references.
  */
-export * from './qualityFinding';
+export * from '../table/qualityFinding';
 export * from './checkQuality';
 export * from './checkValues';
 export * from './checkDesign';

@@ -1,12 +1,11 @@
 /**
- * The randomized-complete-block model of one site, yield = mean + treatment +
- * block + error, fitted by least squares with one indicator column per rate
- * and per block but the first (Steel & Torrie, Principles and Procedures of
- * Statistics, ch. 9). Treatments are the distinct rates, so a site with
- * treatment numbers but a key of rates is handled the same way.
+ * The quality checks' view of the rate + block model (shared/stats/rateBlockModel.ts): the
+ * site's CV % from the model and, for outliers, the least-squares fit of the same model, whose
+ * externally studentized residuals need at least two residual degrees of freedom.
  */
-import { fitLeastSquares, type LeastSquaresFit } from '../stats/leastSquares';
+import type { LeastSquaresFit } from '../stats/leastSquares';
 import { StatsInputError } from '../stats/errors';
+import { fitRateBlockLeastSquares, fitRateBlockModel } from '../stats/rateBlockModel';
 import type { Plot } from '../table/plotTable';
 
 export interface TreatmentBlockFit {
@@ -28,40 +27,27 @@ export interface TreatmentBlockFit {
  * fitTreatmentBlock(sitePlots) // { fit, meanKgHa: 12034, cvPct: 6.8, rates: 6, blocks: 4 }
  */
 export function fitTreatmentBlock(plots: Plot[]): TreatmentBlockFit | { reason: string } {
-  const keyOf = (r: number) => r.toFixed(6);
-  const rateLevels = [...new Set(plots.map((p) => keyOf(p.rateKgHa!)))];
-  const blockLevels = [
-    ...new Set(plots.map((p) => p.block).filter((b): b is string => b !== null)),
-  ];
-  const useBlocks = blockLevels.length > 1 && plots.every((p) => p.block !== null);
-  const columns: number[][] = [];
-  const names: string[] = [];
-  for (const level of rateLevels.slice(1)) {
-    columns.push(plots.map((p) => (keyOf(p.rateKgHa!) === level ? 1 : 0)));
-    names.push(`rate ${level}`);
-  }
-  if (useBlocks) {
-    for (const b of blockLevels.slice(1)) {
-      columns.push(plots.map((p) => (p.block === b ? 1 : 0)));
-      names.push(`block ${b}`);
-    }
-  }
-  const y = plots.map((p) => p.yieldKgHa!);
-  if (plots.length < columns.length + 3) {
+  const input = {
+    rateKgHa: plots.map((p) => p.rateKgHa!),
+    yieldKgHa: plots.map((p) => p.yieldKgHa!),
+    block: plots.map((p) => p.block),
+  };
+  const model = fitRateBlockModel(input);
+  if ('problem' in model) return { reason: model.problem };
+  // Studentized residuals leave one plot out, so they need two residual df.
+  if (model.residual.df < 2) {
     return {
-      reason: `${plots.length} plots are too few for ${rateLevels.length} rates${useBlocks ? ` and ${blockLevels.length} blocks` : ''}`,
+      reason: `${plots.length} plots are too few for ${model.rateCount} rates${model.design === 'rcbd' ? ` and ${model.blockCount} blocks` : ''}`,
     };
   }
   try {
-    const fit = fitLeastSquares({ columns, columnNames: names, y, intercept: true });
-    const meanKgHa = y.reduce((s, v) => s + v, 0) / y.length;
     return {
       plots,
-      fit,
-      meanKgHa,
-      cvPct: (100 * fit.sigma) / meanKgHa,
-      rates: rateLevels.length,
-      blocks: useBlocks ? blockLevels.length : 1,
+      fit: fitRateBlockLeastSquares(input),
+      meanKgHa: model.meanKgHa,
+      cvPct: model.cvPct ?? NaN,
+      rates: model.rateCount,
+      blocks: model.blockCount,
     };
   } catch (e) {
     if (e instanceof StatsInputError) return { reason: e.message };

@@ -18,6 +18,7 @@ import { describeRef, type QualityFinding } from '../quality/qualityFinding';
 import type { Plot } from '../table/plotTable';
 import { fitMessage, optimumNote } from './modelNotes';
 import { priceTerms, type DisplaySettings } from './reportSettings';
+import { isBlockLabel } from '../stats/hasBlocks';
 import type {
   AcrossSitesReport,
   InterceptSummary,
@@ -220,7 +221,7 @@ function siteReport(
   const distinct = [...new Set(rates)].sort((a, b) => a - b);
   const blockCount = new Set(blocks.filter((b) => b !== null)).size;
   const designText = `${blockCount > 0 ? `${blockCount} block${blockCount === 1 ? '' : 's'} × ` : ''}${distinct.length} rate${distinct.length === 1 ? '' : 's'}`;
-  if (c.blocksAsked === 'auto' && blocks.some((b) => b === null || b === ''))
+  if (c.blocksAsked === 'auto' && !blocks.every(isBlockLabel))
     warnings.push('Some plots have no block label, so the curves were fitted without block terms.');
   const interceptTest = interceptSummary(s, used, distinct.length, warnings);
   // A site with fewer than two rates has no curve to show, whatever the models returned.

@@ -5,11 +5,12 @@
  * plain JSON so they go to undo snapshots, localStorage and the project file
  * unchanged. Every change returns a new value; nothing is edited in place.
  */
-import type {
-  ColumnMapping,
-  HeaderUnit,
-  MappedRole,
-  SheetMapping,
+import {
+  assignColumnRole,
+  type ColumnMapping,
+  type HeaderUnit,
+  type MappedRole,
+  type SheetMapping,
 } from '../../../shared/import/columnMapping';
 import type { ImportSettings } from '../../../shared/import/importSettings';
 import type { Plot, PlotTable } from '../../../shared/table/plotTable';
@@ -40,9 +41,9 @@ function updateSheet(
 }
 
 /**
- * Gives a column a new role. A role that must be unique in a sheet (rate,
- * yield, site, block…) moves: the column that had it becomes "ignore", so the
- * table never reads two yields.
+ * Gives a column a new role. A role that takes one column in a sheet (rate,
+ * yield, site, block, notes…; `roleTakesOneColumn`) moves: the column that had
+ * it becomes "ignore", so the table never reads two yields.
  * @param mapping - the file's mapping
  * @param sheet - sheet name
  * @param col - 1-based column number
@@ -56,25 +57,15 @@ export function setColumnRole(
   col: number,
   role: MappedRole,
 ): ColumnMapping {
-  const repeatable: MappedRole[] = ['group', 'notes', 'ignore'];
   return updateSheet(mapping, sheet, (s) => {
     if (!s.columns.some((c) => c.col === col)) {
       throw new RangeError(`Sheet "${sheet}" has no mapped column ${col}.`);
     }
     return {
       ...s,
-      columns: s.columns.map((c) => {
-        if (c.col === col) {
-          return { ...c, role, evidence: `set by you (was ${c.role})` };
-        }
-        if (c.role === role && !repeatable.includes(role)) {
-          return {
-            ...c,
-            role: 'ignore',
-            evidence: `set aside: column ${col} now holds the ${role}`,
-          };
-        }
-        return c;
+      columns: assignColumnRole(s.columns, col, role, {
+        chosen: (was) => `set by you (was ${was})`,
+        setAside: `set aside: column ${col} now holds the ${role}`,
       }),
     };
   });

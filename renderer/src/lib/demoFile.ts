@@ -1,6 +1,6 @@
 // The committed demo workbook (invented farm, seeded generator), fetched as bytes.
 import demoUrl from '../../../demo/wrenhollow-n-trials-2025.xlsx?url';
-import type { TrialFileBytes } from '../../../electron/desktopApi';
+import type { TrialFileBytes } from '../../../shared/desktop/desktopContract';
 
 /** File name the demo opens under. */
 export const DEMO_FILE_NAME = 'wrenhollow-n-trials-2025.xlsx';

@@ -4,7 +4,11 @@
  * fall back to a file input and downloads. Components call only this, so
  * neither path leaks into the screens.
  */
-import type { DesktopApi, ExportKind, TrialFileBytes } from '../../../electron/desktopApi';
+import type {
+  DesktopApi,
+  ExportKind,
+  TrialFileBytes,
+} from '../../../shared/desktop/desktopContract';
 
 /** What the screens need from either shell. */
 export interface FileBridge {

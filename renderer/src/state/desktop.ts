@@ -1,6 +1,10 @@
 // The desktop shell's side of the workspace: menu commands, files handed in
 // from outside, project save and open, unsaved-change notes and error logs.
-import type { DesktopApi, MenuCommand, OpenedProject } from '../../../electron/desktopApi';
+import type {
+  DesktopApi,
+  MenuCommand,
+  OpenedProject,
+} from '../../../shared/desktop/desktopContract';
 import { projectFromWorkspace, sessionFromProject } from '../lib/projectView';
 import type { Workspace } from './workspace.svelte';
 

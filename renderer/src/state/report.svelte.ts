@@ -11,7 +11,24 @@ import { assembleReport } from '../../../shared/report/assembleReport';
 import { mappingEntries } from '../../../shared/import/mappingEntries';
 import { reportDisplay } from '../analysis/reportInput';
 import { plotlyFromSpec } from '../lib/plotlyFromSpec';
-import type { Workspace } from './workspace.svelte';
+import type { FileBridge } from '../lib/fileBridge';
+import type { Analysis } from './analysis.svelte';
+import type { Jobs } from './jobs.svelte';
+import type { Messages } from './messages.svelte';
+import type { Prices } from './prices.svelte';
+import type { Settings } from './settings.svelte';
+import type { Trial } from './trial.svelte';
+
+/** What the report reads of the workspace (the Workspace itself; named here so the two files do not import each other). */
+export interface ReportHost {
+  analysis: Analysis;
+  prices: Prices;
+  settings: Settings;
+  trial: Trial;
+  jobs: Jobs;
+  bridge: FileBridge;
+  messages: Messages;
+}
 
 /** Version written into reports (the desktop shell's own when present). */
 const APP_VERSION =
@@ -38,9 +55,9 @@ export class Report {
   /** The page shown: a site name or "region". */
   which = $state<string>('region');
   busy = $state(false);
-  readonly #ws: Workspace;
+  readonly #ws: ReportHost;
 
-  constructor(ws: Workspace) {
+  constructor(ws: ReportHost) {
     this.#ws = ws;
   }
 

@@ -1,5 +1,5 @@
 // The trial files the user opened: bytes as given, and each file's sheets once read.
-import type { TrialFileBytes } from '../../../electron/desktopApi';
+import type { TrialFileBytes } from '../../../shared/desktop/desktopContract';
 import type { RawWorkbook } from '../../../shared/import/rawWorkbook';
 import type { ReadOutcome } from '../worker/jobs';
 import type { Jobs } from './jobs.svelte';

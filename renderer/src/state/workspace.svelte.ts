@@ -1,5 +1,5 @@
 // The analyst's workspace: everything the screens share, passed by context.
-import type { TrialFileBytes } from '../../../electron/desktopApi';
+import type { TrialFileBytes } from '../../../shared/desktop/desktopContract';
 import { fetchDemoFile } from '../lib/demoFile';
 import type { FileBridge } from '../lib/fileBridge';
 import type { Port } from '../lib/workerProtocol';

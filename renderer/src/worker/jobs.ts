@@ -1,6 +1,6 @@
 // The jobs the analysis worker runs, by name. Plain functions over shared/,
 // so they are tested in node without a worker.
-import type { TrialFileBytes } from '../../../electron/desktopApi';
+import type { TrialFileBytes } from '../../../shared/desktop/desktopContract';
 import { isImportError } from '../../../shared/import/importError';
 import type { RawWorkbook } from '../../../shared/import/rawWorkbook';
 import { readTrialFile } from '../../../shared/import/readTrialFile';

@@ -1,5 +1,8 @@
 /**
- * The small API the desktop shell's preload script puts on `window.plotrate`.
+ * The contract between the desktop shell and the page: the small API the shell's preload script
+ * puts on `window.plotrate`. Both sides import it from here (types and one constant list, no I/O),
+ * so the renderer never imports electron/. The IPC channel names stay in electron/ipcChannels.ts:
+ * only the shell's two processes use them.
  * The renderer codes against these types only; in a plain browser
  * (`npm run web`) `window.plotrate` is undefined and the renderer falls back
  * to file inputs and downloads.
@@ -8,7 +11,7 @@
  * bytes travel as Uint8Array, never as paths, so the page never learns or
  * chooses where on disk anything lives. The shell remembers the paths.
  */
-import type { PlotrateProject } from '../shared/project/projectFormat';
+import type { PlotrateProject } from '../project/projectFormat';
 
 /** A trial spreadsheet read by the shell (xlsx, xls, csv, tsv, txt). */
 export interface TrialFileBytes {

@@ -3,6 +3,9 @@
  * separators ("1,234.5" or "1.234,5"), decimal commas ("12,5"), a leading
  * plus, spaces. Returns null for anything else, so the caller can tell a
  * missing marker from text that is not a number.
+ *
+ * It sits beside the plot table, below the import (which reads cells with it) and the quality
+ * checks (which re-read a plot's original cell text with it), so both read a number one way.
  */
 
 const missingMarkers = new Set([

@@ -1,0 +1,59 @@
+/**
+ * A finding about the data: something the user should look at, with the
+ * cells it is about so the screen can take them there. Findings never change
+ * the table; the user decides (exclude a plot, fix the file, carry on).
+ *
+ * Both the import (cells it could not read) and the quality checks write findings, so the type
+ * lives here with the table's cell references rather than in either of them.
+ */
+import type { CellRef } from './plotTable';
+
+export type FindingSeverity = 'error' | 'warning' | 'info';
+
+export type FindingCode =
+  | 'number-as-text'
+  | 'formula-without-result'
+  | 'not-a-number'
+  | 'missing-value'
+  | 'moisture-missing'
+  | 'summary-row-skipped'
+  | 'hidden-rows'
+  | 'site-filled-down'
+  | 'treatment-not-in-key'
+  | 'other-crop-sheet-skipped'
+  | 'duplicate-plot'
+  | 'missing-plot'
+  | 'unequal-replication'
+  | 'negative-value'
+  | 'implausible-yield'
+  | 'moisture-out-of-range'
+  | 'outlier'
+  | 'trial-cv'
+  | 'high-cv'
+  | 'model-not-fitted';
+
+export interface QualityFinding {
+  code: FindingCode;
+  severity: FindingSeverity;
+  /** One or two sentences for the user: what, where, and what they might do. */
+  message: string;
+  /** The cells concerned (may be empty for a site-level finding). */
+  refs: CellRef[];
+  /** The site concerned, when there is one. */
+  site?: string;
+  /** Ids of the plots concerned (Plot.id). */
+  plotIds?: string[];
+  /** A number behind the finding (studentized residual, CV %), for sorting and display. */
+  value?: number;
+}
+
+/**
+ * Writes a cell reference the way messages show it: file › sheet › cell.
+ * @param ref - the cell
+ * @returns e.g. "trial.xlsx › North › D7"
+ * @example
+ * describeRef({ file: 'a.csv', sheet: '', cell: 'B3', row: 3 }) // 'a.csv › B3'
+ */
+export function describeRef(ref: CellRef): string {
+  return [ref.file, ref.sheet, ref.cell].filter((s) => s !== '').join(' › ');
+}
