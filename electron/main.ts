@@ -3,6 +3,7 @@
  * electron/ to Electron itself. Decisions live in those modules (and their
  * tests); this file only wires events to them.
  */
+import { paperSize } from '../shared/report/paperSize';
 import { readFile } from 'node:fs/promises';
 import path from 'node:path';
 import {
@@ -307,10 +308,9 @@ function deps(): ShellDeps {
         }),
       async printToPdf() {
         if (!window) throw new Error('There is no window to print.');
-        // Letter where it is the usual paper size, A4 elsewhere.
-        const letter = ['US', 'CA', 'MX', 'PH', 'CL', 'CO', 'VE'].includes(
-          app.getLocaleCountryCode(),
-        );
+        // Letter where it is the usual paper size, A4 elsewhere (one rule with the reports).
+        const letter =
+          paperSize({ rate: 'kg/ha', yield: 't/ha' }, app.getLocaleCountryCode()) === 'letter';
         const pdf = await window.webContents.printToPDF({
           pageSize: letter ? 'Letter' : 'A4',
           printBackground: true,

@@ -5,6 +5,7 @@
  * cautions. The PDF (cli/ through pdfkit, laid out by growerPageLayout), the
  * workbook's print sheet and the screen's HTML preview all draw this one value.
  */
+import { paperSize, type PaperSize } from './paperSize';
 import { recommendationCautions } from '../economics/recommendationCautions';
 import { crops } from '../units/crops';
 import { formatQuantity } from '../units/formatQuantity';
@@ -48,8 +49,8 @@ export interface GrowerPage {
   cautions: readonly string[];
   /** Small print: tool, version, date, source files. */
   footer: string;
-  /** Letter for US units, A4 otherwise. */
-  paper: 'letter' | 'a4';
+  /** The report's paper (paperSize). */
+  paper: PaperSize;
 }
 
 /**
@@ -140,7 +141,7 @@ export function growerPage(report: TrialReport, which: string | 'region'): Growe
     },
   ];
   const footer = `${report.tool.name} ${report.tool.version} · ${report.createdAt.slice(0, 10)} · data: ${report.sources.map((s) => s.name).join(', ')}`;
-  const paper: GrowerPage['paper'] = ru === 'lb/ac' ? 'letter' : 'a4';
+  const paper: GrowerPage['paper'] = report.settings.paper ?? paperSize(report.settings.units);
   const warnings = [...report.warnings];
   const base = {
     heading: 'Nitrogen rate recommendation',

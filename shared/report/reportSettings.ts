@@ -8,6 +8,7 @@ import type { BlockTerms, ModelName } from '../models/modelTypes';
 import type { PriceInput } from '../economics/priceQuote';
 import type { CropId } from '../table/plotTable';
 import type { DisplayUnits } from '../units/displayUnits';
+import type { PaperSize } from './paperSize';
 
 export type { PriceInput, PriceTerms } from '../economics/priceQuote';
 export { priceRatioQuote, priceTerms } from '../economics/priceQuote';
@@ -23,6 +24,8 @@ export interface DisplaySettings {
   unitSystem: 'us' | 'metric' | null;
   /** Prices as the user quoted them in the display units (the analysis has them canonical). */
   prices: PriceInput;
+  /** Paper of the printed pages and workbook; default paperSize of the units (Letter for US units). */
+  paper?: PaperSize;
 }
 
 /** What a report records of its run: the display part and the analysis settings it was made with. */

@@ -4,6 +4,7 @@
  * Recommendations (print-ready grower pages) and Provenance. Numbers are in
  * the report's display units, converted from canonical kg/ha.
  */
+import { paperSize } from './paperSize';
 import ExcelJS from 'exceljs';
 import { reportGrowerPages } from './reportGrowerPages';
 import type { TrialReport } from './trialReport';
@@ -47,7 +48,7 @@ export async function writeWorkbook(
   wb.created = when;
   wb.modified = when;
   const u = unitScale(report.settings.units, report.crop);
-  const paper = report.settings.units.rate === 'lb/ac' ? 'letter' : 'a4';
+  const paper = report.settings.paper ?? paperSize(report.settings.units);
   const taken = new Set(['overview', 'across sites', 'economics', 'recommendations', 'provenance']);
   workbookOverview(wb, report, u, paper);
   for (const s of report.sites) {

@@ -3,6 +3,7 @@
  * priced view: display units and the prices in the form the report quotes them
  * (with the application cost).
  */
+import { paperSize } from '../../../shared/report/paperSize';
 import type { DisplaySettings } from '../../../shared/report/reportSettings';
 import { rateUnitKg, yieldUnitKg } from '../../../shared/units/unitWeights';
 import type { CropId } from '../../../shared/table/plotTable';
@@ -17,6 +18,7 @@ import type { PriceSettings } from './priceInputs';
  * @param units - display units
  * @param system - 'us' or 'metric'
  * @param crop - the table's crop
+ * @param locale - the user's locale (its region picks Letter or A4), null when unknown
  * @returns display settings for assembleReport; a product whose analysis the user changed
  *   is passed as its nutrient price, so the report quotes N exactly as the screen prices it,
  *   with the screen's application cost
@@ -26,12 +28,14 @@ export function reportDisplay(
   units: { rate: RateUnit; yield: YieldUnit },
   system: 'us' | 'metric',
   crop: CropId,
+  locale: string | null = null,
 ): DisplaySettings {
   const asListed = products(prices.productId).nitrogenPct === prices.analysisPct;
   const nutrientPerKg = prices.productPerKg / (prices.analysisPct / 100);
   return {
     units,
     unitSystem: system,
+    paper: paperSize(units, locale),
     prices: {
       grainPrice: prices.grainPerKg * yieldUnitKg(units.yield, crop),
       nutrientPrice: asListed ? null : nutrientPerKg * rateUnitKg(units.rate),

@@ -75,6 +75,7 @@ export class Report {
       ws.settings.units,
       ws.settings.unitSystem,
       analysis.crop,
+      ws.settings.locale,
     );
     const mapping = mappingEntries(
       Object.entries(ws.trial.edits.mappings).map(([file, m]) => ({ file, mapping: m })),
