@@ -4,10 +4,23 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import ExcelJS from 'exceljs';
+import { readFile } from 'node:fs/promises';
+import { analyzeCommand } from '../../cli/analyzeCommand';
+import { parseArgs, type AnalyzeArgs } from '../../cli/parseArgs';
 import { syntheticWorkbook } from '../../shared/demo/syntheticTrial';
 import { openSession, shot, type Session } from './harness';
 
 let session: Session;
+/** The trial files the workspace has open, for the command line to analyze the same. */
+const openedFiles = [
+  path.join(
+    path.dirname(new URL(import.meta.url).pathname),
+    '..',
+    '..',
+    'demo',
+    'wrenhollow-n-trials-2025.xlsx',
+  ),
+];
 
 beforeAll(async () => {
   session = await openSession();
@@ -48,6 +61,7 @@ describe('the workspace in chromium', () => {
     const dir = await mkdtemp(path.join(tmpdir(), 'plotrate-e2e-file-'));
     const file = path.join(dir, 'Synthetic three sites.xlsx');
     await writeFile(file, await syntheticWorkbook({ sites: 3, seed: 11 }));
+    openedFiles.push(file);
     await page.getByRole('button', { name: /Columns/ }).click();
     const counts = async () => {
       const m = /(\d+) plots at (\d+) sites/.exec(
@@ -198,6 +212,34 @@ describe('the workspace in chromium', () => {
     expect(optimum).not.toBeNull();
     // The screen shows whole kg/ha; the workbook keeps the full number.
     expect(Math.abs(optimum! - onScreen)).toBeLessThanOrEqual(0.5);
+    // The command line on the same files at the same prices (illustrative grain, urea at 1.2 per
+    // kg, metric units) prints the workbook's number: one analysis, whichever runs it.
+    const json = path.join(dir, 'results.json');
+    const cmd = parseArgs([
+      'analyze',
+      ...openedFiles,
+      '--units',
+      'metric',
+      '--product',
+      'urea',
+      '--product-price',
+      '1.2',
+      '--boot',
+      '0',
+      '--json',
+      json,
+    ]);
+    await analyzeCommand(cmd as unknown as AnalyzeArgs, { out: () => {}, err: () => {} }, 'e2e');
+    const results = JSON.parse(await readFile(json, 'utf8')) as {
+      sites: {
+        site: string;
+        bestModel: string;
+        models: { model: string; optimumRate: number }[];
+      }[];
+    };
+    const site = results.sites.find((s) => s.site === 'Quillmere North')!;
+    const fromCli = site.models.find((m) => m.model === site.bestModel)!.optimumRate;
+    expect(Math.abs(fromCli - optimum!)).toBeLessThanOrEqual(1e-9 * optimum!);
     expect(session.pageErrors).toEqual([]);
   });
 
