@@ -8,7 +8,6 @@ import {
   netReturn,
   optimumAcrossModels,
   priceRatio,
-  pricesFromMarket,
   recommendationCautions,
 } from '../shared/economics';
 import type { CurveSummary, ModelName } from '../shared/models';
@@ -220,42 +219,6 @@ describe('economicOptimum explanations write rates with the caller’s format', 
       const text = economicOptimum(fit, prices).explanation;
       expect(text, text).not.toMatch(/\d\.\d{2,}/);
     }
-  });
-});
-
-describe('pricesFromMarket', () => {
-  it('converts a corn price per bushel and urea per short ton (USDA 56 lb bushel; urea 46 % N)', () => {
-    const p = pricesFromMarket({
-      crop: 'corn',
-      grain: { per: 'bushel', price: 4.5 },
-      nutrient: { per: 'shortTon', price: 600, product: 'urea' },
-      application: { per: 'ac', cost: 8 },
-    });
-    // 56 lb × 0.45359237 kg/lb = 25.40117 kg per bushel.
-    expect(p.grainPricePerKg).toBeCloseTo(4.5 / (56 * 0.45359237), 12);
-    // 2000 lb × 0.45359237 = 907.18474 kg of urea, 46 % of it N.
-    expect(p.nutrientPricePerKg).toBeCloseTo(600 / 907.18474 / 0.46, 12);
-    // 1 ha = 10000 / 4046.8564224 ac.
-    expect(p.applicationCostPerHa).toBeCloseTo((8 * 10000) / 4046.8564224, 10);
-  });
-  it('moves the grain price to the yields’ moisture basis by dry matter', () => {
-    const p = pricesFromMarket({
-      crop: 'corn',
-      grain: { per: 'tonne', price: 200 },
-      nutrient: { per: 'kg', price: 1 },
-      marketMoisturePct: 15.5,
-      yieldMoisturePct: 0,
-    });
-    expect(p.grainPricePerKg).toBeCloseTo((0.2 * 100) / 84.5, 12);
-  });
-  it('names a bad analysis', () => {
-    expect(() =>
-      pricesFromMarket({
-        crop: 'wheat',
-        grain: { per: 'tonne', price: 200 },
-        nutrient: { per: 'tonne', price: 500, analysisPct: 0 },
-      }),
-    ).toThrow(/nutrient.analysisPct/);
   });
 });
 

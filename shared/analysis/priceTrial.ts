@@ -7,6 +7,7 @@
  * workbook, grower page, JSON, command-line summary) reads this one value.
  */
 import { economicOptimum, type EconomicOptimum } from '../economics/economicOptimum';
+import { optimumAcrossModels, type OptimumComparison } from '../economics/optimumAcrossModels';
 import { optimumInterval, type OptimumInterval } from '../economics/optimumInterval';
 import { assertPrices, type Prices } from '../economics/priceRatio';
 import { curveValue } from '../models/curveValue';
@@ -39,6 +40,11 @@ export interface PricedSite {
   interval: OptimumInterval | null;
   /** Rates within the analysis' band of the best return on the leading curve, kg/ha. */
   profitableRangeKgHa: [number, number] | null;
+  /**
+   * The ranked curves' optima side by side (optimumAcrossModels): their spread, and a warning
+   * when they lie more than 20 kg/ha apart, because then the choice of model matters.
+   */
+  acrossModels: OptimumComparison | null;
 }
 
 export interface PricedTrial {
@@ -100,7 +106,14 @@ export function priceSite(
   const lead = siteLead(s, choices);
   const fit = lead.model && s.fits ? s.fits.fits[lead.model] : null;
   if (!lead.model || !fit) {
-    return { site: s.site, lead, optimum: null, interval: null, profitableRangeKgHa: null };
+    return {
+      site: s.site,
+      lead,
+      optimum: null,
+      interval: null,
+      profitableRangeKgHa: null,
+      acrossModels: null,
+    };
   }
   return {
     site: s.site,
@@ -108,6 +121,7 @@ export function priceSite(
     optimum: economicOptimum(fit, prices),
     interval: s.draws ? optimumInterval(s.draws, lead.model, prices, level) : null,
     profitableRangeKgHa: profitableRange(s, lead.model, prices, bandPerHa),
+    acrossModels: optimumAcrossModels(s.fits!.fits, s.fits!.ranking, prices),
   };
 }
 

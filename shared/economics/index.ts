@@ -10,24 +10,23 @@
  *       gainOverCheckPerHa, agronomicMaxRateKgHa, cappedAtHighest, explanation, cautions }
  * netReturn(fit, prices, rateKgHa): number                 // currency/ha
  * optimumAcrossModels(fits, ranking, prices, { toleranceKgHa: 20 }): OptimumComparison
- * pricesFromMarket({ crop, grain: { per: 'bushel' | 'tonne', price },
- *   nutrient: { per: 'kg' | 'lb', price } | { per: 'tonne' | 'shortTon', price, analysisPct | product },
- *   application?: { per: 'ha' | 'ac', cost }, yieldMoisturePct?, marketMoisturePct? }): Prices
  * bootstrapOptimum(data, model, prices, { resamples: 1000, seed: 1, confidence: 0.95, blocks,
  *   withinAmountPerHa: 10, candidateRatesKgHa }): BootstrapOptimum
  *   → { pointEstimate, ciKgHa, medianKgHa, shareNoInteriorOptimum, shareByStatus,
  *       candidateRatesKgHa, probabilityWithin, rateSamplesKgHa, resampling, cautions }
  * ```
  *
+ * drawBootstrapEstimates(data, models, { resamples, seed, blocks }): BootstrapDraws  // price-free
+ * optimumInterval(draws, model, prices, level): OptimumInterval                       // re-priced
+ *
  * For the JSON report per model: optimumRate = economicOptimum(fit, prices).rateKgHa,
- * yieldAtOptimum = .yieldKgHa, optimumCI = bootstrapOptimum(...).ciKgHa.
+ * yieldAtOptimum = .yieldKgHa, optimumCI = optimumInterval(...).ciKgHa.
  *
  * `economicOptimum` reads only `model`, `status`, `params`, `testedRates` and
  * `joinBetweenKgHa`, so re-pricing a stored fit costs a few operations (no refit).
  * Every result carries `recommendationCautions`: show them with any rate.
  */
 export * from './priceRatio';
-export * from './pricesFromMarket';
 export * from './economicOptimum';
 export * from './optimumAcrossModels';
 export * from './recommendationCautions';

@@ -6,7 +6,7 @@
  * the screen shows the spread rather than one number alone.
  */
 import { MODEL_CATALOG } from '../models/catalog';
-import type { ModelFit, ModelName } from '../models/modelTypes';
+import type { CurveSummary, ModelName } from '../models/modelTypes';
 import type { ModelRank } from '../models/fitAllModels';
 import { KG_HA_FORMAT, rateText, type RateFormat } from '../models/rateFormat';
 import { economicOptimum, type EconomicOptimum } from './economicOptimum';
@@ -46,7 +46,7 @@ export interface OptimumComparisonOptions {
  * optimumAcrossModels(all.fits, all.ranking, { grainPricePerKg: 0.18, nutrientPricePerKg: 1.2 }).warning
  */
 export function optimumAcrossModels(
-  fits: Partial<Record<ModelName, ModelFit>>,
+  fits: Partial<Record<ModelName, CurveSummary>>,
   ranking: readonly ModelRank[],
   prices: Prices,
   options: OptimumComparisonOptions = {},

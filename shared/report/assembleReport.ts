@@ -258,6 +258,13 @@ function siteReport(
         ),
       )
     : [];
+  const spread = all ? c.priced.acrossModels : null;
+  const optimumSpreadKgHa: [number, number] | null =
+    spread && spread.candidates.length > 1 ? [spread.lowestRateKgHa, spread.highestRateKgHa] : null;
+  if (spread?.warning)
+    warnings.push(
+      'The curves that fit this site put the optimum far apart (see the optimum of each model): the choice of model matters here, so weigh the interval and the other curves before acting on one rate.',
+    );
   const bestRow = bestFit ? c.rows.get(bestFit.model)! : null;
   if (bestRow?.optimumStatus === 'capped-at-highest')
     warnings.push(
@@ -281,6 +288,7 @@ function siteReport(
     bestModelPicked: choice.picked,
     bootstrap,
     profitableRangeKgHa: bestFit ? c.priced.profitableRangeKgHa : null,
+    optimumSpreadKgHa,
     returnAtOptimumPerHa: bestRow?.gainOverCheckPerHa ?? null,
     designText,
     residuals: bestFit

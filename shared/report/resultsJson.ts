@@ -41,6 +41,8 @@ export interface ResultsSite {
   } | null;
   lackOfFit: { model: ModelName; F: number; df1: number; df2: number; p: number } | null;
   bestModel: ModelName | null;
+  /** Lowest and highest optimum rate of the ranked curves; null with fewer than two. */
+  optimumSpread: [number, number] | null;
   models: ResultsModel[];
   warnings: string[];
 }
@@ -146,6 +148,9 @@ export function resultsJson(report: TrialReport): ResultsJson {
           }
         : null,
       bestModel: s.bestModel,
+      optimumSpread: s.optimumSpreadKgHa
+        ? [clean(u.rate(s.optimumSpreadKgHa[0])), clean(u.rate(s.optimumSpreadKgHa[1]))]
+        : null,
       models: s.models.map((m) => ({
         model: m.model,
         status: m.status,

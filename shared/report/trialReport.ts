@@ -106,6 +106,11 @@ export interface SiteReport {
    * `bandPerHa` of the best, kg/ha; null without a chosen model.
    */
   profitableRangeKgHa: [number, number] | null;
+  /**
+   * Lowest and highest optimum of the ranked curves (optimumAcrossModels), kg/ha; null with
+   * fewer than two curves that give one. A wide spread means the choice of model matters.
+   */
+  optimumSpreadKgHa: [number, number] | null;
   /** Net return over the check at the optimum, currency/ha; null without one. */
   returnAtOptimumPerHa: number | null;
   /** The site's treatment design in words for the reader, e.g. "4 blocks × 6 rates". */
