@@ -9,6 +9,9 @@ import { mkdirSync, existsSync } from 'node:fs';
 import path from 'node:path';
 import { writeFileAtomic } from '../electron/atomicWrite';
 import { demoTrial, writeDemoWorkbook, demoSheetNames } from '../shared/demo';
+import { illustrativePrices } from '../shared/economics/illustrativePrices';
+import { displayUnits } from '../shared/units/displayUnits';
+import { rateUnitKg, yieldUnitKg } from '../shared/units/unitWeights';
 import { analyzeCommand, type Console2 } from './analyzeCommand';
 import { analyzeDefaults } from './parseArgs';
 
@@ -40,26 +43,36 @@ export async function demoCommand(dir: string, log: Console2, version: string): 
   const base = analyzeDefaults([input]);
   const createdAt = new Date().toISOString().replace(/\.\d+Z$/, 'Z');
   const corn = trial.sites.filter((s) => s.crop === 'corn').map((s) => s.name);
+  // The illustrative prices the workspace starts from (one owner), quoted in each run's units.
+  const quoted = (crop: 'corn' | 'wheat', system: 'us' | 'metric') => {
+    const p = illustrativePrices(crop);
+    const units = displayUnits(system);
+    const grainPrice = p.grainPerKg * yieldUnitKg(units.yield, crop);
+    const ureaPrice = p.productPerKg * rateUnitKg(units.rate);
+    const nPrice = ureaPrice / (p.analysisPct / 100);
+    const per = system === 'us' ? { grain: 'bu', n: 'lb' } : { grain: 't', n: 'kg' };
+    const text = `illustrative prices ${grainPrice.toFixed(2)}/${per.grain} and urea at ${ureaPrice.toFixed(2)}/${per.n}, ${nPrice.toFixed(2)}/${per.n} N`;
+    return { grainPrice, ureaPrice, text };
+  };
+  const cornPrices = quoted('corn', 'us');
+  const wheatPrices = quoted('wheat', 'metric');
   const runs = [
     {
       name: 'corn',
       crop: 'corn' as const,
       units: 'us' as const,
-      grainPrice: 4.5,
-      // Illustrative: urea at 0.28 per lb of product is 0.61 per lb of N.
-      ureaPrice: 0.28,
-      heading: 'Corn sites (US units, illustrative prices 4.50/bu and urea at 0.28/lb, 0.61/lb N)',
+      grainPrice: cornPrices.grainPrice,
+      ureaPrice: cornPrices.ureaPrice,
+      heading: `Corn sites (US units, ${cornPrices.text})`,
       sheets: corn,
     },
     {
       name: 'wheat',
       crop: 'wheat' as const,
       units: 'metric' as const,
-      grainPrice: 220,
-      // Illustrative: urea at 0.60 per kg of product is 1.30 per kg of N.
-      ureaPrice: 0.6,
-      heading:
-        'Wheat sites (metric units, illustrative prices 220/t and urea at 0.60/kg, 1.30/kg N)',
+      grainPrice: wheatPrices.grainPrice,
+      ureaPrice: wheatPrices.ureaPrice,
+      heading: `Wheat sites (metric units, ${wheatPrices.text})`,
       sheets: [demoSheetNames.wheat],
     },
   ];

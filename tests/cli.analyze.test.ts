@@ -280,9 +280,10 @@ describe('plotrate demo', () => {
 
   it("prints the demo's grower pages with the rate in urea and N, one page per site and the region", () => {
     for (const [name, pages, product, ratio] of [
-      // Urea at 0.28/lb over 4.50/bu: 0.28 / 0.46 / 4.5 = 0.1353 bu/lb N; at 0.60/kg over 220/t: 0.60 / 0.46 / 0.22 = 5.929 kg/kg N.
-      ['corn', 7, /≈ [\d,]+ lb\/ac of Urea 46-0-0/, /0\.135 bu\/lb N/],
-      ['wheat', 3, /≈ [\d,]+ kg\/ha of Urea 46-0-0/, /5\.93 kg\/kg N/],
+      // Urea at 520 per short ton (0.26/lb) over 4.50/bu: 0.26 / 0.46 / 4.5 = 0.1256 bu/lb N; at
+      // 0.5732/kg over 220/t: 0.5732 / 0.46 / 0.22 = 5.664 kg/kg N (shared/economics/illustrativePrices).
+      ['corn', 7, /≈ [\d,]+ lb\/ac of Urea 46-0-0/, /0\.126 bu\/lb N/],
+      ['wheat', 3, /≈ [\d,]+ kg\/ha of Urea 46-0-0/, /5\.66 kg\/kg N/],
     ] as const) {
       const pdf = path.join(dir, 'demo-out', `demo-${name}-recommendation.pdf`);
       const info = spawnSync('/usr/bin/pdfinfo', [pdf], { encoding: 'utf8' }).stdout;
