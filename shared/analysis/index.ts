@@ -1,4 +1,19 @@
 /**
+ * The one analysis run and its priced view, then its parts.
+ *
+ * ```ts
+ * analyzeTrial(table: PlotTable, settings: AnalysisSettings, onSite?): TrialAnalysis
+ *   settings = analysisSettings({ prices, blocks?: 'auto' | 'none', resamples?: 200, seed?: 1,
+ *                                 intervalLevel?: 0.9, siteModels?: {} })   // ANALYSIS_DEFAULTS
+ *   result   = { settings, crop, table, plots: SitePlots[], findings: QualityFinding[],
+ *                across: AcrossSiteAnalysis }   // sites carry anova, treatmentMeans and draws too
+ * analyzeTrialSteps(table, settings)          // the same as a generator: one step per site
+ * priceTrial(analysis, prices, picks): PricedTrial
+ *   = { prices, choices, across (rows, regional rate at these prices and picks),
+ *       sites: { site, lead { model, reason, picked }, optimum, interval, profitableRangeKgHa,
+ *                acrossModels }[] }           // no refit, no new bootstrap
+ * ```
+ *
  * Across sites: every site fitted with every model side by side, tests of
  * whether the sites share one response, the regional rate by maximum return to
  * N (Sawyer et al., 2006), the share of sites that responded, and the same per
@@ -78,3 +93,6 @@ export * from './analyzeAcrossSites';
 export * from './leadingModel';
 export * from './chooseSiteModels';
 export * from './repriceAcrossSites';
+export * from './analysisSettings';
+export * from './analyzeTrial';
+export * from './priceTrial';
