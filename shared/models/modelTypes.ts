@@ -111,7 +111,7 @@ export interface CurveSummary {
 
 /** Everything one model fit reports. */
 export interface ModelFit extends CurveSummary {
-  /** The model's display name (its catalog entry's), e.g. "Linear-plateau". */
+  /** The model's display name (its curve's, shared/models/curves), e.g. "Linear-plateau". */
   label: string;
   /** The formula in the names of `params`, e.g. "a + b·min(x, x0)". */
   formula: string;
