@@ -1,10 +1,12 @@
-// The model catalog (shared/models/catalog): every name has one consistent entry, and the
-// entry's pieces agree with each other and with calculus. The closed-form optimum is
+// The model catalog (shared/models/catalog) and the curve list it builds on
+// (shared/models/curves): every name has one consistent entry in both, and the entry's pieces
+// agree with each other and with calculus. The closed-form optimum is
 // checked against the slope of the curve by central differences (dy/dx = PR at x*).
 import { describe, expect, it } from 'vitest';
 import {
   fitAllModels,
   MODEL_CATALOG,
+  MODEL_CURVES,
   MODEL_NAMES,
   modelLabel,
   modelLabelInText,
@@ -26,6 +28,24 @@ describe('MODEL_CATALOG', () => {
   it('has one entry per model name, each naming its own model', () => {
     expect(Object.keys(MODEL_CATALOG).sort()).toEqual([...MODEL_NAMES].sort());
     for (const name of MODEL_NAMES) expect(MODEL_CATALOG[name].spec.model).toBe(name);
+  });
+  it('takes the names, in display order, from the curve list, and each curve from there', () => {
+    expect(MODEL_NAMES).toEqual([
+      'linear',
+      'proportional',
+      'quadratic',
+      'linearPlateau',
+      'quadraticPlateau',
+      'exponential',
+    ]);
+    expect(Object.keys(MODEL_CURVES)).toEqual([...MODEL_NAMES]);
+    for (const name of MODEL_NAMES) {
+      const { fit, estimate, ...curve } = MODEL_CATALOG[name];
+      expect([typeof fit, typeof estimate]).toEqual(['function', 'function']);
+      expect(curve).toEqual(MODEL_CURVES[name]);
+      expect(curve.spec).toBe(MODEL_CURVES[name].spec);
+      expect(curve.optimum).toBe(MODEL_CURVES[name].optimum);
+    }
   });
   it('gives every model a display name and a dash of its own', () => {
     const labels = MODEL_NAMES.map(modelLabel);

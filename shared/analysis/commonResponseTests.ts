@@ -27,7 +27,7 @@
  * with rate, are left out of all three models (so that they stay nested) and
  * listed with the reason.
  */
-import { modelLabelInText } from '../models/catalog';
+import { modelLabelInText } from '../models/curves';
 import { designSse } from './designSse';
 import { extraSumOfSquaresTest, type FTestResult, type NoTest } from './extraSumOfSquaresTest';
 import { describeFTest } from './describeFTest';

@@ -7,7 +7,7 @@
 import type { SiteAnalysis } from './analyzeSite';
 import type { SiteLeftOut } from './commonResponseTests';
 import { groupResponseTest, type GroupResponseTest } from './groupResponseTest';
-import { modelLabelInText } from '../models/catalog';
+import { modelLabelInText } from '../models/curves';
 import type { AcrossSiteSettings } from './planAcrossSites';
 import { PLATEAU_MODELS, plateauFitter, type PlateauModel } from './plateauModels';
 import { pooledCurveTest, type CurvePart, type PooledCurveTest } from './pooledCurveTest';

@@ -12,7 +12,7 @@
  * Site levels are absorbed by centring within sites (as in commonResponseTests).
  * Sites with too few rates for the model are left out and listed.
  */
-import { modelLabelInText } from '../models/catalog';
+import { modelLabelInText } from '../models/curves';
 import { designSse } from './designSse';
 import { extraSumOfSquaresTest } from './extraSumOfSquaresTest';
 import { describeFTest } from './describeFTest';

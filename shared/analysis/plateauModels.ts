@@ -1,16 +1,17 @@
 /**
  * The models compared across sites (and across groups) by pooled-versus-separate fits: those
- * not linear in all their parameters (their catalog entry says so), which the F tests of
+ * not linear in all their parameters (their curve entry says so), which the F tests of
  * commonResponseTests cannot cover. Each is fitted here to pooled plots without block terms,
  * and a fit is reduced to what pooledCurveTest needs (its SSE and parameter count, or why there
  * is none).
  */
-import { MODEL_CATALOG, modelLabelInText, type PlateauModel } from '../models/catalog';
+import { MODEL_CATALOG } from '../models/catalog';
+import { modelLabelInText, type PlateauModel } from '../models/curves';
 import { prepareSite } from '../models/prepareSite';
 import type { FitData } from './analyzeSite';
 import type { CurveFitOutcome } from './pooledCurveTest';
 
-export { PLATEAU_MODELS, type PlateauModel } from '../models/catalog';
+export { PLATEAU_MODELS, type PlateauModel } from '../models/curves';
 
 /**
  * What a pooled test needs of one fit: its SSE and parameter count, or why it gives none.

@@ -12,7 +12,7 @@
  *    a corner). A full response by the lowest non-zero rate only places the
  *    optimum between the two lowest rates; no plateau, an upward-opening
  *    quadratic and no response give none.
- * 2. Among the candidates the curves (the models whose catalog entry says
+ * 2. Among the candidates the curves (the models whose curve entry says
  *    `isCurve`: the quadratic, linear-plateau, quadratic-plateau and exponential
  *    rise) come first, lowest AICc first: a
  *    straight line never levels off and only gives a corner (no N or the
@@ -26,7 +26,7 @@
  * (repriceAcrossSites) keeps the same model at every site and agrees with a
  * fresh analysis at the new prices.
  */
-import { MODEL_CATALOG } from '../models/catalog';
+import { MODEL_CURVES } from '../models/curves';
 import type { ModelRank } from '../models/fitAllModels';
 import type { FitStatus, ModelName } from '../models/modelTypes';
 
@@ -54,7 +54,7 @@ export function recommendationModel(all: RankedFits): RecommendationModel {
   const ranked = all.ranking.filter((r) => r.rank !== null);
   const usable = ranked.filter((r) => all.fits[r.model]?.status === 'ok');
   // Curves before straight lines: a line only gives a corner.
-  const curve = usable.find((r) => MODEL_CATALOG[r.model].isCurve);
+  const curve = usable.find((r) => MODEL_CURVES[r.model].isCurve);
   if (curve) {
     return {
       model: curve.model,

@@ -2,7 +2,7 @@
  * Which curve each site brings to the regional return, and why a site brings none. A curve that
  * never levels off within the tested rates is replaced by its limit curve rather than dropped.
  */
-import { MODEL_CATALOG, modelLabelInText } from '../models/catalog';
+import { MODEL_CURVES, modelLabelInText } from '../models/curves';
 import { curveValue } from '../models/curveValue';
 import type { ModelName } from '../models/modelTypes';
 import type { FitData, SiteAnalysis } from './analyzeSite';
@@ -58,7 +58,7 @@ export function regionalCurves(
     // A rise that never levels off within the tested rates is its limit curve
     // (DESIGN.md: the straight line, or the quadratic for the quadratic-plateau);
     // use that rather than drop a strongly responding site from the average.
-    const limit = MODEL_CATALOG[model].limit;
+    const limit = MODEL_CURVES[model].limit;
     if (fit.status === 'no-plateau' && !gives(fit) && limit && gives(s.fits.fits[limit])) {
       notes.push(
         `the ${modelLabelInText(model)} reached no plateau, so its limit, the ${modelLabelInText(limit)}, is used`,

@@ -6,7 +6,7 @@
  */
 import type { SiteAnalysis } from './analyzeSite';
 import { testCommonResponse, type CommonResponseTests } from './commonResponseTests';
-import { modelLabelInText } from '../models/catalog';
+import { modelLabelInText } from '../models/curves';
 import type { AcrossSiteSettings } from './planAcrossSites';
 import { curveFitOutcome, PLATEAU_MODELS, plateauFitter, type PlateauModel } from './plateauModels';
 import { pooledCurveTest, type CurvePart, type PooledCurveTest } from './pooledCurveTest';

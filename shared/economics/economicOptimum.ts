@@ -5,8 +5,8 @@
  * parameters alone (no refit), so re-pricing is a few arithmetic operations.
  *
  * Each model's closed form (dy/dx = PR solved for x) and agronomic maximum is its
- * catalog entry's `optimum` (shared/models/catalog), e.g. the quadratic's
- * x* = (PR − b) / (2c); a straight line (an entry that is not a curve) gives a
+ * curve's `optimum` (shared/models/curves), e.g. the quadratic's
+ * x* = (PR − b) / (2c); a straight line (a model that is not a curve) gives a
  * corner, the highest tested rate when b > PR, else 0. Then: x* below 0 becomes 0; x* past the highest tested rate is capped there
  * and flagged (the curve is not known beyond the data); with an application
  * cost the optimum is 0 unless the net return at x* beats no application.
@@ -15,7 +15,7 @@
  * the quadratic, the join of the plateau models, none for the exponential
  * (approached but not reached) and the highest tested rate for a rising line.
  */
-import { MODEL_CATALOG } from '../models/catalog';
+import { MODEL_CURVES } from '../models/curves';
 import { curveValue } from '../models/curveValue';
 import type { CurveSummary, ModelName } from '../models/modelTypes';
 import { KG_HA_FORMAT, rateRangeText, rateText, type RateFormat } from '../models/rateFormat';
@@ -189,7 +189,7 @@ export function economicOptimum(
   }
 
   const highest = fit.testedRates.highestKgHa;
-  const entry = MODEL_CATALOG[fit.model];
+  const entry = MODEL_CURVES[fit.model];
   const { rateKgHa: raw, agronomicMaxKgHa: agronomicMax } = entry.optimum(fit.params, pr, highest);
   let status: OptimumStatus = 'interior';
   let x = raw;

@@ -5,7 +5,7 @@
  * linear-plateau often puts it well below a quadratic on the same plots), so
  * the screen shows the spread rather than one number alone.
  */
-import { MODEL_CATALOG } from '../models/catalog';
+import { MODEL_CURVES } from '../models/curves';
 import type { CurveSummary, ModelName } from '../models/modelTypes';
 import type { ModelRank } from '../models/fitAllModels';
 import { KG_HA_FORMAT, rateText, type RateFormat } from '../models/rateFormat';
@@ -64,7 +64,7 @@ export function optimumAcrossModels(
     const opt = economicOptimum(fit, prices, { rateFormat: format });
     optima.push(opt);
     // The straight lines' corners are not estimates of a response optimum.
-    const { isCurve } = MODEL_CATALOG[line.model];
+    const { isCurve } = MODEL_CURVES[line.model];
     if (line.rank !== null && isCurve && line.deltaAicc <= maxDelta && opt.rateKgHa !== null) {
       candidates.push(line.model);
       lo = Math.min(lo, opt.rateKgHa);

@@ -1,10 +1,9 @@
 /**
  * A response curve's yield from its named parameters alone, so a stored fit (or
  * one priced again with new prices) needs no refit. Each model's formula is its
- * catalog entry's (shared/models/catalog).
+ * curve's (shared/models/curves), which loads no fitter.
  */
-import { MODEL_CATALOG } from './catalog';
-import type { ModelName } from './modelTypes';
+import { MODEL_CURVES, type ModelName } from './curves';
 
 /**
  * Yield of a model's curve at a rate.
@@ -20,5 +19,5 @@ export function curveValue(
   params: Readonly<Record<string, number>>,
   rateKgHa: number,
 ): number {
-  return MODEL_CATALOG[model].curveValue(params, rateKgHa);
+  return MODEL_CURVES[model].curveValue(params, rateKgHa);
 }

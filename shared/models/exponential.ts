@@ -26,36 +26,26 @@ import {
   unfittedFit,
   type FitStore,
 } from './finishFit';
-import type { CurveSpec, ModelEntry } from './modelEntry';
+import { exponentialCurve } from './curves/exponential';
+import type { CurveSpec } from './modelCurve';
+import type { ModelEntry } from './modelEntry';
 import { profiledCoefficients } from './solve/linearCoefficients';
-import type { CurveEstimate, FitOptions, FitStatus, ModelFit, SiteData } from './modelTypes';
+import type {
+  CurveEstimate,
+  FitOptions,
+  FitStatus,
+  ModelFit,
+  ModelName,
+  SiteData,
+} from './modelTypes';
 import { prepareSite, type PreparedSite } from './prepareSite';
 import { profileSolver, type ProfileSolver } from './solve/profileSolver';
 import { KG_HA_FORMAT, rateRangeText, type RateFormat } from './rateFormat';
 
-/** The exponential curve, parameters [a, b, k]. */
-export const exponentialSpec: CurveSpec = {
-  model: 'exponential',
-  label: 'Exponential rise',
-  formula: 'a + b·(1 − e^(−k·x))',
-  paramNames: ['a', 'b', 'k'],
-  // b is the largest possible gain, a yield (not a slope as in the straight line).
-  dimensions: { a: 'yield', b: 'yield', k: 'perRate' },
-  value: (x, p) => p[0] + p[1] * -Math.expm1(-p[2] * x),
-  values: (xs, p, out) => {
-    for (let i = 0; i < xs.length; i++) out[i] = p[0] + p[1] * -Math.expm1(-p[2] * xs[i]);
-  },
-  gradient: (x, p, out) => {
-    const e = Math.exp(-p[2] * x);
-    out[0] = 1;
-    out[1] = -Math.expm1(-p[2] * x);
-    out[2] = p[1] * x * e;
-  },
-  r2Kind: 'centered',
-};
+const exponentialSpec = exponentialCurve.spec;
 
 /** The exponential through the origin, parameters [b, k]. */
-export const exponentialThroughOriginSpec: CurveSpec = {
+export const exponentialThroughOriginSpec: CurveSpec<ModelName> = {
   model: 'exponential',
   label: exponentialSpec.label,
   formula: 'b·(1 − e^(−k·x))',
@@ -255,9 +245,9 @@ export function fitExponential(data: SiteData, options: FitOptions = {}): ModelF
   return fitExponentialPrepared(prepareSite(data, options.blocks ?? 'none'), options);
 }
 
-/** The exponential rise in the model catalog (shared/models/catalog). */
+/** The exponential rise in the model catalog (shared/models/catalog): its curve and its fits. */
 export const exponentialModel = {
-  spec: exponentialSpec,
+  ...exponentialCurve,
   fit: fitExponentialPrepared,
   estimate: (site, options) =>
     estimateExponential(
@@ -266,15 +256,4 @@ export const exponentialModel = {
       options.searchTolerance,
       options.rateFormat,
     ),
-  // a absent means the form through the origin (a = 0).
-  curveValue: (p, x) => (p.a ?? 0) + p.b * -Math.expm1(-p.k * x),
-  // dy/dx = b k e^(−kx) = PR at x* = ln(b k / PR)/k when b k > PR; the asymptote is never reached.
-  optimum: (p, pr) => {
-    const bk = p.b * p.k;
-    return { rateKgHa: bk > pr ? Math.log(bk / pr) / p.k : 0, agronomicMaxKgHa: null };
-  },
-  isCurve: true,
-  linearInParameters: false,
-  limit: 'linear',
-  dash: '4 3 1 3',
 } satisfies ModelEntry;

@@ -17,10 +17,12 @@ import type {
   IntervalEstimate,
   LackOfFit,
   ModelFit,
+  ModelName,
 } from './modelTypes';
 import { pureError } from './pureError';
 import type { PreparedSite } from './prepareSite';
-import type { CurveSpec, FitStore } from './modelEntry';
+import type { CurveSpec } from './modelCurve';
+import type { FitStore } from './modelEntry';
 
 export type { FitStore } from './modelEntry';
 import { exactScratch } from './solve/exactScratch';
@@ -35,7 +37,7 @@ export interface DerivedQuantity {
 
 export interface FinishInput {
   site: PreparedSite;
-  spec: CurveSpec;
+  spec: CurveSpec<ModelName>;
   params: Float64Array;
   /** Effect-coded block coefficients (B − 1), empty without blocks. */
   blockCoefficients: Float64Array;
@@ -351,7 +353,11 @@ function lackOfFitTest(site: PreparedSite, sse: number, dfResidual: number): Lac
  * @example
  * unfittedFit(site, quadraticSpec, 'needs 3 rates').status // 'too-few-rates'
  */
-export function unfittedFit(site: PreparedSite, spec: CurveSpec, message: string): ModelFit {
+export function unfittedFit(
+  site: PreparedSite,
+  spec: CurveSpec<ModelName>,
+  message: string,
+): ModelFit {
   const nan: Record<string, number> = {};
   const ci: Record<string, [number, number]> = {};
   for (const name of spec.paramNames) {
@@ -404,7 +410,7 @@ export function unfittedFit(site: PreparedSite, spec: CurveSpec, message: string
  */
 export function tooFewRatesMessage(
   site: PreparedSite,
-  spec: CurveSpec,
+  spec: CurveSpec<ModelName>,
   minRates: number,
 ): string | null {
   const m = site.rates.length;
@@ -451,7 +457,7 @@ export function blankParameters(fit: ModelFit, names: readonly string[]): ModelF
  */
 export function solvedEstimate(
   site: PreparedSite,
-  spec: CurveSpec,
+  spec: CurveSpec<ModelName>,
   params: Record<string, number>,
   sse: number,
   status: FitStatus,
@@ -479,7 +485,7 @@ export function solvedEstimate(
  */
 export function unfittedEstimate(
   site: PreparedSite,
-  spec: CurveSpec,
+  spec: CurveSpec<ModelName>,
   message: string,
 ): CurveEstimate {
   const params: Record<string, number> = {};

@@ -39,10 +39,11 @@
  * - `estimateCurve(site: PreparedSite, model, options?) → CurveEstimate`: status, params and
  *   SSE only (no errors/residuals/curve), ~5× cheaper; what the bootstrap refits
  * - `curveValue(model, params, rateKgHa) → kg/ha`: a curve from stored parameters
- * - `MODEL_CATALOG[model]` (shared/models/catalog): everything Plotrate knows of one model —
- *   its curve (display name, formula, parameters with their dimensions), fit, estimate, curve
- *   from stored parameters, closed-form optimum, whether it is a curve, its limit model and
- *   its chart dash; `modelLabel(model)` and `modelLabelInText(model)` for its name
+ * - `MODEL_CURVES[model]` (shared/models/curves, no fitting code): one model's curve —
+ *   display name, formula, parameters with their dimensions, curve from stored parameters,
+ *   closed-form optimum, whether it is a curve, its limit model and its chart dash;
+ *   `modelLabel(model)` and `modelLabelInText(model)` for its name
+ * - `MODEL_CATALOG[model]` (shared/models/catalog): the same with its fit and estimate
  * - `prepareSite(data, blocks) → PreparedSite` + `fitAllModelsPrepared(site, options)`:
  *   prepare once and refit; `rankByAicc(fits)`
  *
@@ -66,16 +67,17 @@ export { fitLinearPlateau } from './linearPlateau';
 export { fitQuadraticPlateau } from './quadraticPlateau';
 export { fitExponential } from './exponential';
 export { curveValue } from './curveValue';
+export { MODEL_CATALOG, modelEntry } from './catalog';
 export {
-  MODEL_CATALOG,
-  modelEntry,
+  MODEL_CURVES,
   modelLabel,
   modelLabelInText,
   paramDimension,
   PLATEAU_MODELS,
-} from './catalog';
-export type { PlateauModel } from './catalog';
-export type { ClosedFormOptimum, CurveSpec, ModelEntry, ParamDimension } from './modelEntry';
+} from './curves';
+export type { PlateauModel } from './curves';
+export type { ClosedFormOptimum, CurveSpec, ModelCurve, ParamDimension } from './modelCurve';
+export type { ModelEntry } from './modelEntry';
 export { prepareSite } from './prepareSite';
 export type { PreparedSite } from './prepareSite';
 export { fitResponseOverCheck } from './responseOverCheck';

@@ -10,28 +10,13 @@ import {
   unfittedFit,
   type FitStore,
 } from './finishFit';
-import type { CurveSpec, ModelEntry } from './modelEntry';
+import { linearCurve } from './curves/linear';
+import type { ModelEntry } from './modelEntry';
 import { groupLinearCoefficients, linearCoefficients } from './solve/linearCoefficients';
 import type { CurveEstimate, FitOptions, ModelFit, SiteData } from './modelTypes';
 import { prepareSite, type PreparedSite } from './prepareSite';
 
-/** The straight line's curve. */
-export const linearSpec: CurveSpec = {
-  model: 'linear',
-  label: 'Straight line',
-  formula: 'a + b·x',
-  paramNames: ['a', 'b'],
-  dimensions: { a: 'yield', b: 'yieldPerRate' },
-  value: (x, p) => p[0] + p[1] * x,
-  values: (xs, p, out) => {
-    for (let i = 0; i < xs.length; i++) out[i] = p[0] + p[1] * xs[i];
-  },
-  gradient: (x, _p, out) => {
-    out[0] = 1;
-    out[1] = x;
-  },
-  r2Kind: 'centered',
-};
+const linearSpec = linearCurve.spec;
 
 /**
  * Fits the straight line to a prepared site.
@@ -90,20 +75,9 @@ export function estimateLinear(site: PreparedSite): CurveEstimate {
   return solvedEstimate(site, linearSpec, { a: r.curve[0], b: r.curve[1] }, r.sse, 'ok', '');
 }
 
-/** The straight line in the model catalog (shared/models/catalog). */
+/** The straight line in the model catalog (shared/models/catalog): its curve and its fits. */
 export const linearModel = {
-  spec: linearSpec,
+  ...linearCurve,
   fit: fitLinearPrepared,
   estimate: estimateLinear,
-  curveValue: (p, x) => p.a + p.b * x,
-  // A constant slope never equals the price ratio: the optimum is a corner, the
-  // highest tested rate when b > PR, else no nutrient.
-  optimum: (p, pr, highestKgHa) => ({
-    rateKgHa: p.b > pr ? highestKgHa : 0,
-    agronomicMaxKgHa: p.b > 0 ? highestKgHa : 0,
-  }),
-  isCurve: false,
-  linearInParameters: true,
-  limit: null,
-  dash: '9 9',
 } satisfies ModelEntry;

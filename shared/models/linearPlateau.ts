@@ -22,7 +22,8 @@ import {
   unfittedFit,
   type FitStore,
 } from './finishFit';
-import type { CurveSpec, ModelEntry } from './modelEntry';
+import { linearPlateauCurve } from './curves/linearPlateau';
+import type { ModelEntry } from './modelEntry';
 import { linearCoefficients, profiledCoefficients } from './solve/linearCoefficients';
 import type { CurveEstimate, FitOptions, ModelFit, SiteData } from './modelTypes';
 import { plateauEstimate } from './plateauEstimate';
@@ -33,24 +34,7 @@ import { relaxedJoinBounds } from './solve/relaxedJoinBounds';
 import { searchJoinPoint } from './solve/searchJoinPoint';
 import { stationaryJoinPoints } from './solve/stationaryJoinPoints';
 
-/** The linear-plateau curve, parameters [a, b, x0]. */
-export const linearPlateauSpec: CurveSpec = {
-  model: 'linearPlateau',
-  label: 'Linear-plateau',
-  formula: 'a + b·min(x, x0)',
-  paramNames: ['a', 'b', 'x0'],
-  dimensions: { a: 'yield', b: 'yieldPerRate', x0: 'rate' },
-  value: (x, p) => p[0] + p[1] * Math.min(x, p[2]),
-  values: (xs, p, out) => {
-    for (let i = 0; i < xs.length; i++) out[i] = p[0] + p[1] * Math.min(xs[i], p[2]);
-  },
-  gradient: (x, p, out) => {
-    out[0] = 1;
-    out[1] = Math.min(x, p[2]);
-    out[2] = x > p[2] ? p[1] : 0;
-  },
-  r2Kind: 'centered',
-};
+const linearPlateauSpec = linearPlateauCurve.spec;
 
 /**
  * The linear-plateau's estimate and status from the profiled search alone.
@@ -172,17 +156,10 @@ export function fitLinearPlateau(data: SiteData, options: FitOptions = {}): Mode
   return fitLinearPlateauPrepared(prepareSite(data, options.blocks ?? 'none'), options);
 }
 
-/** The linear-plateau in the model catalog (shared/models/catalog). */
+/** The linear-plateau in the model catalog (shared/models/catalog): its curve and its fits. */
 export const linearPlateauModel = {
-  spec: linearPlateauSpec,
+  ...linearPlateauCurve,
   fit: fitLinearPlateauPrepared,
   estimate: (site, options) =>
     estimateLinearPlateau(site, options.searchTolerance, options.rateFormat),
-  curveValue: (p, x) => p.a + p.b * Math.min(x, p.x0),
-  // The slope is b up to the join and 0 after: the join pays when b > PR, else nothing does.
-  optimum: (p, pr) => ({ rateKgHa: p.b > pr ? p.x0 : 0, agronomicMaxKgHa: p.x0 }),
-  isCurve: true,
-  linearInParameters: false,
-  limit: 'linear',
-  dash: '9 3 3 3',
 } satisfies ModelEntry;

@@ -5,23 +5,12 @@
  * parameter's unit follows from its formula (b of the straight line is kg grain
  * per kg nutrient, x0 is kg/ha, k is ha/kg).
  */
+import type { ModelName } from './curves';
 import type { RateFormat } from './rateFormat';
 
-/**
- * The six response models in display order, by the name every other part of Plotrate
- * uses. Everything else about a model is in its catalog entry (shared/models/catalog).
- */
-export const MODEL_NAMES = [
-  'linear',
-  'proportional',
-  'quadratic',
-  'linearPlateau',
-  'quadraticPlateau',
-  'exponential',
-] as const;
-
-/** A response model's name (one of MODEL_NAMES). */
-export type ModelName = (typeof MODEL_NAMES)[number];
+// The model names are the keys of the curve list (shared/models/curves), so a new model is
+// named once, where its curve is listed.
+export { MODEL_NAMES, type ModelName } from './curves';
 
 /**
  * What a fit says about the data. Only "ok" carries a precise join point and
@@ -122,7 +111,7 @@ export interface CurveSummary {
 
 /** Everything one model fit reports. */
 export interface ModelFit extends CurveSummary {
-  /** The model's display name (its catalog entry's), e.g. "Linear-plateau". */
+  /** The model's display name (its curve's, shared/models/curves), e.g. "Linear-plateau". */
   label: string;
   /** The formula in the names of `params`, e.g. "a + b·min(x, x0)". */
   formula: string;

@@ -11,8 +11,8 @@
  *   (check against the rest; x0 kept at the second-lowest rate)
  * - otherwise "ok"
  */
-import type { CurveSpec } from './modelEntry';
-import type { CurveEstimate, FitStatus } from './modelTypes';
+import type { CurveSpec } from './modelCurve';
+import type { CurveEstimate, FitStatus, ModelName } from './modelTypes';
 import type { PreparedSite } from './prepareSite';
 import type { ProfileSolver } from './solve/profileSolver';
 import { KG_HA_FORMAT, rateRangeText, rateText, type RateFormat } from './rateFormat';
@@ -24,7 +24,7 @@ const TIE = 1e-10;
 export interface PlateauJudgement {
   site: PreparedSite;
   /** The model's curve (its name, label and the first two parameter names are used). */
-  spec: CurveSpec;
+  spec: CurveSpec<ModelName>;
   solver: ProfileSolver;
   /** SSE at a join point, kg/ha (leaves the inner fit in solver.last). */
   sseAt: (x0: number) => number;

@@ -12,27 +12,13 @@ import {
   unfittedFit,
   type FitStore,
 } from './finishFit';
-import type { CurveSpec, ModelEntry } from './modelEntry';
+import { proportionalCurve } from './curves/proportional';
+import type { ModelEntry } from './modelEntry';
 import { groupLinearCoefficients, linearCoefficients } from './solve/linearCoefficients';
 import type { CurveEstimate, FitOptions, ModelFit, SiteData } from './modelTypes';
 import { prepareSite, type PreparedSite } from './prepareSite';
 
-/** The proportional model's curve. */
-export const proportionalSpec: CurveSpec = {
-  model: 'proportional',
-  label: 'Line through the origin',
-  formula: 'b·x',
-  paramNames: ['b'],
-  dimensions: { b: 'yieldPerRate' },
-  value: (x, p) => p[0] * x,
-  values: (xs, p, out) => {
-    for (let i = 0; i < xs.length; i++) out[i] = p[0] * xs[i];
-  },
-  gradient: (x, _p, out) => {
-    out[0] = x;
-  },
-  r2Kind: 'uncentered',
-};
+const proportionalSpec = proportionalCurve.spec;
 
 /** Why a site cannot carry the line through the origin, or null. */
 function whyNotFitted(site: PreparedSite): string | null {
@@ -99,19 +85,9 @@ export function estimateProportional(site: PreparedSite): CurveEstimate {
   return solvedEstimate(site, proportionalSpec, { b: r.curve[0] }, r.sse, 'ok', '');
 }
 
-/** The line through the origin in the model catalog (shared/models/catalog). */
+/** The line through the origin in the model catalog (shared/models/catalog): its curve and its fits. */
 export const proportionalModel = {
-  spec: proportionalSpec,
+  ...proportionalCurve,
   fit: fitProportionalPrepared,
   estimate: estimateProportional,
-  curveValue: (p, x) => p.b * x,
-  // A corner, as for the straight line.
-  optimum: (p, pr, highestKgHa) => ({
-    rateKgHa: p.b > pr ? highestKgHa : 0,
-    agronomicMaxKgHa: p.b > 0 ? highestKgHa : 0,
-  }),
-  isCurve: false,
-  linearInParameters: true,
-  limit: null,
-  dash: '15 6 3 6',
 } satisfies ModelEntry;

@@ -11,29 +11,13 @@ import {
   unfittedFit,
   type FitStore,
 } from './finishFit';
-import type { CurveSpec, ModelEntry } from './modelEntry';
+import { quadraticCurve } from './curves/quadratic';
+import type { ModelEntry } from './modelEntry';
 import { groupLinearCoefficients, linearCoefficients } from './solve/linearCoefficients';
 import type { CurveEstimate, FitOptions, ModelFit, SiteData } from './modelTypes';
 import { prepareSite, type PreparedSite } from './prepareSite';
 
-/** The quadratic's curve. */
-export const quadraticSpec: CurveSpec = {
-  model: 'quadratic',
-  label: 'Quadratic',
-  formula: 'a + b·x + c·x²',
-  paramNames: ['a', 'b', 'c'],
-  dimensions: { a: 'yield', b: 'yieldPerRate', c: 'yieldPerRate2' },
-  value: (x, p) => p[0] + x * (p[1] + p[2] * x),
-  values: (xs, p, out) => {
-    for (let i = 0; i < xs.length; i++) out[i] = p[0] + xs[i] * (p[1] + p[2] * xs[i]);
-  },
-  gradient: (x, _p, out) => {
-    out[0] = 1;
-    out[1] = x;
-    out[2] = x * x;
-  },
-  r2Kind: 'centered',
-};
+const quadraticSpec = quadraticCurve.spec;
 
 /**
  * Fits the quadratic to a prepared site.
@@ -116,19 +100,9 @@ export function estimateQuadratic(site: PreparedSite): CurveEstimate {
       );
 }
 
-/** The quadratic in the model catalog (shared/models/catalog). */
+/** The quadratic in the model catalog (shared/models/catalog): its curve and its fits. */
 export const quadraticModel = {
-  spec: quadraticSpec,
+  ...quadraticCurve,
   fit: fitQuadraticPrepared,
   estimate: estimateQuadratic,
-  curveValue: (p, x) => p.a + x * (p.b + p.c * x),
-  // dy/dx = b + 2cx = PR at x* = (PR − b)/(2c); the vertex −b/(2c) is the highest yield.
-  optimum: (p, pr) => ({
-    rateKgHa: (pr - p.b) / (2 * p.c),
-    agronomicMaxKgHa: -p.b / (2 * p.c),
-  }),
-  isCurve: true,
-  linearInParameters: true,
-  limit: null,
-  dash: '3 3',
 } satisfies ModelEntry;

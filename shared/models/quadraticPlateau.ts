@@ -21,7 +21,8 @@ import {
   unfittedFit,
   type FitStore,
 } from './finishFit';
-import type { CurveSpec, ModelEntry } from './modelEntry';
+import { quadraticPlateauCurve } from './curves/quadraticPlateau';
+import type { ModelEntry } from './modelEntry';
 import {
   groupLinearCoefficients,
   linearCoefficients,
@@ -36,31 +37,7 @@ import { relaxedJoinBounds } from './solve/relaxedJoinBounds';
 import { searchJoinPoint } from './solve/searchJoinPoint';
 import { stationaryJoinPoints } from './solve/stationaryJoinPoints';
 
-/** The quadratic-plateau curve, parameters [P, c, x0]. */
-export const quadraticPlateauSpec: CurveSpec = {
-  model: 'quadraticPlateau',
-  label: 'Quadratic-plateau',
-  formula: 'P + c·min(x − x0, 0)²',
-  paramNames: ['P', 'c', 'x0'],
-  dimensions: { P: 'yield', c: 'yieldPerRate2', x0: 'rate' },
-  value: (x, p) => {
-    const d = x < p[2] ? x - p[2] : 0;
-    return p[0] + p[1] * d * d;
-  },
-  values: (xs, p, out) => {
-    for (let i = 0; i < xs.length; i++) {
-      const d = xs[i] < p[2] ? xs[i] - p[2] : 0;
-      out[i] = p[0] + p[1] * d * d;
-    }
-  },
-  gradient: (x, p, out) => {
-    const d = x < p[2] ? x - p[2] : 0;
-    out[0] = 1;
-    out[1] = d * d;
-    out[2] = -2 * p[1] * d;
-  },
-  r2Kind: 'centered',
-};
+const quadraticPlateauSpec = quadraticPlateauCurve.spec;
 
 /**
  * The quadratic-plateau's estimate and status from the profiled search alone.
@@ -197,20 +174,10 @@ export function fitQuadraticPlateau(data: SiteData, options: FitOptions = {}): M
   return fitQuadraticPlateauPrepared(prepareSite(data, options.blocks ?? 'none'), options);
 }
 
-/** The quadratic-plateau in the model catalog (shared/models/catalog). */
+/** The quadratic-plateau in the model catalog (shared/models/catalog): its curve and its fits. */
 export const quadraticPlateauModel = {
-  spec: quadraticPlateauSpec,
+  ...quadraticPlateauCurve,
   fit: fitQuadraticPlateauPrepared,
   estimate: (site, options) =>
     estimateQuadraticPlateau(site, options.searchTolerance, options.rateFormat),
-  curveValue: (p, x) => {
-    const d = Math.min(x - p.x0, 0);
-    return p.P + p.c * d * d;
-  },
-  // dy/dx = 2c(x − x0) = PR at x* = x0 + PR/(2c), not below 0; the join is the highest yield.
-  optimum: (p, pr) => ({ rateKgHa: Math.max(p.x0 + pr / (2 * p.c), 0), agronomicMaxKgHa: p.x0 }),
-  isCurve: true,
-  linearInParameters: false,
-  limit: 'quadratic',
-  dash: '15 15',
 } satisfies ModelEntry;

@@ -5,7 +5,7 @@
  * 0.56 em for a sans face) because there is no layout engine here; the
  * estimate only places legends and labels, so a few pixels off is harmless.
  */
-import { MODEL_CATALOG } from '../models/catalog';
+import { MODEL_CURVES } from '../models/curves';
 import {
   axisLabel,
   chartPalette,
@@ -132,9 +132,9 @@ function curveStyle(layer: CurveLayer, index: number): string {
   if (layer.role === 'chosen') return `stroke="${chartPalette.chosen}" stroke-width="2.6"`;
   if (layer.role === 'return') return `stroke="${chartPalette.return}" stroke-width="2.4"`;
   // Alternatives differ by dash so they stay apart in greyscale print: a model's
-  // curve has its own (the catalog's, as on the screen), any other curve one by order.
+  // curve has its own (its curve entry's, as on the screen), any other curve one by order.
   const dash = layer.model
-    ? MODEL_CATALOG[layer.model].dash
+    ? MODEL_CURVES[layer.model].dash
     : OTHER_DASHES[index % OTHER_DASHES.length];
   return `stroke="${chartPalette.alternative}" stroke-width="1.4" stroke-dasharray="${dash}"`;
 }

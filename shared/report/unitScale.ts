@@ -4,10 +4,10 @@
  * yield (a, P, and the exponential's b), a yield per rate (slope b), per rate
  * squared (c), a rate (x0) or a reciprocal rate (k). Every conversion here is
  * a scale factor, so standard errors and interval ends convert the same way.
- * Each parameter's dimension is in its model's catalog entry (shared/models/catalog).
+ * Each parameter's dimension is in its model's curve entry (shared/models/curves).
  */
-import { paramDimension } from '../models/catalog';
-import type { ParamDimension } from '../models/modelEntry';
+import { paramDimension } from '../models/curves';
+import type { ParamDimension } from '../models/modelCurve';
 import type { ModelName } from '../models/modelTypes';
 import type { CropId } from '../table/plotTable';
 import { rateFromKgHa } from '../units/convertRate';

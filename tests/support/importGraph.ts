@@ -1,7 +1,9 @@
 // The project's file-level import graph and its cycles, for the layout tests. Imports are read
 // with the TypeScript compiler's own pre-processor (`ts.preProcessFile`), which lists every
 // module specifier of a file — `import type`, `export … from` and `import()` included — so a
-// cycle made only of type imports is found too (eslint's import plugins skip those).
+// cycle made only of type imports is found too (eslint's import plugins skip those). The
+// runtime graph (`{ runtimeOnly: true }`) leaves out what compiles away: `import type`,
+// `export type … from` and `import('…')` in a type position.
 import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
 import { dirname, join, relative, resolve } from 'node:path';
 import ts from 'typescript';
@@ -20,10 +22,21 @@ export interface UnresolvedImport {
   specifier: string;
 }
 
+/** What readImportGraph reads. */
+export interface ImportGraphOptions {
+  /**
+   * Only the imports left after compiling, default false. Under `verbatimModuleSyntax`
+   * (tsconfig.json) `import { type A } from './a'` stays as `import {} from './a'` and still
+   * loads the module, so only a whole `import type`/`export type` declaration is left out.
+   */
+  runtimeOnly?: boolean;
+}
+
 /**
  * Every source file under the given folders with its resolved relative imports.
  * @param rootDir absolute path of the repository root
  * @param folders folders under the root to read (e.g. `['shared', 'renderer']`)
+ * @param options runtimeOnly: leave out the type-only imports
  * @returns the graph and the relative imports that resolved to no file
  * @example
  * const { graph } = readImportGraph(process.cwd(), ['shared']);
@@ -32,6 +45,7 @@ export interface UnresolvedImport {
 export function readImportGraph(
   rootDir: string,
   folders: readonly string[],
+  options: ImportGraphOptions = {},
 ): { graph: ImportGraph; unresolved: UnresolvedImport[] } {
   const graph: ImportGraph = new Map();
   const unresolved: UnresolvedImport[] = [];
@@ -39,7 +53,10 @@ export function readImportGraph(
     for (const absolute of sourceFiles(join(rootDir, folder))) {
       const file = toKey(rootDir, absolute);
       const targets = new Set<string>();
-      for (const specifier of moduleSpecifiers(absolute)) {
+      const specifiers = options.runtimeOnly
+        ? runtimeSpecifiers(absolute)
+        : moduleSpecifiers(absolute);
+      for (const specifier of specifiers) {
         if (!specifier.startsWith('.')) continue; // packages are outside the graph
         const target = resolveRelative(dirname(absolute), specifier);
         if (target === null) unresolved.push({ file, specifier });
@@ -159,14 +176,44 @@ function sourceFiles(folder: string): string[] {
   return files;
 }
 
+function scriptText(path: string): string {
+  const text = readFileSync(path, 'utf8');
+  if (!path.endsWith('.svelte')) return text;
+  // Only the component's <script> blocks hold imports.
+  return [...text.matchAll(/<script\b[^>]*>([\s\S]*?)<\/script>/g)].map((m) => m[1]).join('\n');
+}
+
 function moduleSpecifiers(path: string): string[] {
-  let text = readFileSync(path, 'utf8');
-  if (path.endsWith('.svelte')) {
-    // Only the component's <script> blocks hold imports.
-    text = [...text.matchAll(/<script\b[^>]*>([\s\S]*?)<\/script>/g)].map((m) => m[1]).join('\n');
-  }
-  const info = ts.preProcessFile(text, true, true);
+  const info = ts.preProcessFile(scriptText(path), true, true);
   return info.importedFiles.map((f) => f.fileName);
+}
+
+/** The specifiers still imported after compiling: static imports and re-exports, and `import()` calls. */
+function runtimeSpecifiers(path: string): string[] {
+  const source = ts.createSourceFile(path, scriptText(path), ts.ScriptTarget.Latest, false);
+  const specifiers: string[] = [];
+  const visit = (node: ts.Node): void => {
+    if (ts.isImportDeclaration(node)) {
+      if (!node.importClause?.isTypeOnly) specifiers.push(stringLiteral(node.moduleSpecifier));
+    } else if (ts.isExportDeclaration(node)) {
+      if (node.moduleSpecifier && !node.isTypeOnly)
+        specifiers.push(stringLiteral(node.moduleSpecifier));
+    } else if (
+      ts.isCallExpression(node) &&
+      node.expression.kind === ts.SyntaxKind.ImportKeyword &&
+      node.arguments.length > 0 &&
+      ts.isStringLiteralLike(node.arguments[0])
+    ) {
+      specifiers.push(node.arguments[0].text);
+    }
+    ts.forEachChild(node, visit);
+  };
+  visit(source);
+  return specifiers;
+}
+
+function stringLiteral(node: ts.Expression): string {
+  return ts.isStringLiteralLike(node) ? node.text : '';
 }
 
 function resolveRelative(fromDir: string, specifier: string): string | null {
@@ -180,4 +227,37 @@ function resolveRelative(fromDir: string, specifier: string): string | null {
 
 function toKey(rootDir: string, absolute: string): string {
   return relative(rootDir, absolute).split('\\').join('/');
+}
+
+/**
+ * The shortest import chain from one file to a file the predicate picks, for a failure message.
+ * @param graph the import graph
+ * @param start the file the chain starts from
+ * @param isTarget which files the chain may end at (the start itself is not tried)
+ * @returns the files from start to the first target reached, or null when none is reachable
+ * @example
+ * importChain(new Map([['a', ['b']], ['b', ['c']], ['c', []]]), 'a', (f) => f === 'c'); // ['a', 'b', 'c']
+ */
+export function importChain(
+  graph: ImportGraph,
+  start: string,
+  isTarget: (file: string) => boolean,
+): string[] | null {
+  // Breadth-first, so the chain named is a shortest one.
+  const previous = new Map<string, string>([[start, start]]);
+  const queue = [start];
+  while (queue.length > 0) {
+    const node = queue.shift()!;
+    for (const target of graph.get(node) ?? []) {
+      if (previous.has(target)) continue;
+      previous.set(target, node);
+      if (isTarget(target)) {
+        const chain = [target];
+        for (let at = node; at !== start; at = previous.get(at)!) chain.unshift(at);
+        return [start, ...chain];
+      }
+      queue.push(target);
+    }
+  }
+  return null;
 }

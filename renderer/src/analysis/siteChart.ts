@@ -4,7 +4,7 @@
  * conversion and layering happen here; every number comes from shared/.
  */
 import type { EconomicOptimum } from '../../../shared/economics/economicOptimum';
-import { modelLabel } from '../../../shared/models/catalog';
+import { modelLabel } from '../../../shared/models/curves';
 import type { ModelName } from '../../../shared/models/modelTypes';
 import type { ChartLayer, ChartSpec, PointLayer } from '../../../shared/report/chartSpec';
 import type { RegionalReturn } from '../../../shared/analysis/regionalReturn';

@@ -5,7 +5,7 @@
  * not compute. Colors come from the shared chartPalette so the screen and the
  * printed reports look alike.
  */
-import { MODEL_CATALOG } from '../../../shared/models/catalog';
+import { MODEL_CURVES } from '../../../shared/models/curves';
 import {
   axisLabel,
   chartPalette,
@@ -40,11 +40,11 @@ const plotlySymbols: Record<(typeof chartPalette.symbols)[number], string> = {
 };
 
 /**
- * The model's own dash (its catalog entry's, shared with the printed charts), so
+ * The model's own dash (its curve entry's, shared with the printed charts), so
  * alternative curves are told apart without color; Plotly takes lengths as "9px,9px".
  */
 function modelDash(model: ChartModelName): string {
-  return MODEL_CATALOG[model].dash
+  return MODEL_CURVES[model].dash
     .split(' ')
     .map((length) => `${length}px`)
     .join(',');

@@ -1,0 +1,36 @@
+/**
+ * The straight line y = a + b x (a: yield at rate 0, kg/ha; b: kg grain per kg nutrient):
+ * its curve facts. Its fits are in shared/models/linear.
+ */
+import type { ModelCurve } from '../modelCurve';
+
+/** The straight line's curve. */
+export const linearCurve = {
+  spec: {
+    model: 'linear',
+    label: 'Straight line',
+    formula: 'a + b·x',
+    paramNames: ['a', 'b'],
+    dimensions: { a: 'yield', b: 'yieldPerRate' },
+    value: (x, p) => p[0] + p[1] * x,
+    values: (xs, p, out) => {
+      for (let i = 0; i < xs.length; i++) out[i] = p[0] + p[1] * xs[i];
+    },
+    gradient: (x, _p, out) => {
+      out[0] = 1;
+      out[1] = x;
+    },
+    r2Kind: 'centered',
+  },
+  curveValue: (p, x) => p.a + p.b * x,
+  // A constant slope never equals the price ratio: the optimum is a corner, the
+  // highest tested rate when b > PR, else no nutrient.
+  optimum: (p, pr, highestKgHa) => ({
+    rateKgHa: p.b > pr ? highestKgHa : 0,
+    agronomicMaxKgHa: p.b > 0 ? highestKgHa : 0,
+  }),
+  isCurve: false,
+  linearInParameters: true,
+  limit: null,
+  dash: '9 9',
+} satisfies ModelCurve<'linear', null>;
