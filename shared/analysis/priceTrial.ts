@@ -18,7 +18,11 @@ import type { SiteAnalysis } from './analyzeSite';
 import { chooseSiteModels } from './chooseSiteModels';
 import { leadingModel } from './leadingModel';
 import { rateGrid } from './rateGrid';
-import { prepareRegionalReturn, regionalReturnAtPrices } from './regionalReturn';
+import {
+  prepareRegionalReturn,
+  regionalReturnAtPrices,
+  type PreparedRegionalReturn,
+} from './regionalReturn';
 import { repriceAcrossSites } from './repriceAcrossSites';
 
 /** The model that leads a site, and why. */
@@ -68,6 +72,12 @@ export function siteLead(s: SiteAnalysis, choices: Readonly<Record<string, Model
   return { model, reason: `picked by the analyst instead of ${instead}`, picked: true };
 }
 
+/**
+ * Each fitted curve's gain over its check on a fine grid of its tested rates: price-free, so it
+ * is made once per fit and kept with it (a slider then costs only the pricing of the grid).
+ */
+const preparedCurves = new WeakMap<object, PreparedRegionalReturn>();
+
 /** Rates within `bandPerHa` of the best return on one fitted curve, kg/ha. */
 function profitableRange(
   s: SiteAnalysis,
@@ -76,13 +86,17 @@ function profitableRange(
   bandPerHa: number,
 ): [number, number] {
   const fit = s.fits!.fits[model];
-  const t = fit.testedRates;
-  const step = Math.max((t.highestKgHa - t.lowestKgHa) / 400, 0.25);
-  const at0 = curveValue(model, fit.params, 0);
-  const prepared = prepareRegionalReturn(
-    [{ site: s.site, gainKgHa: (x) => curveValue(model, fit.params, x) - at0 }],
-    rateGrid(t.lowestKgHa, t.highestKgHa, step),
-  );
+  let prepared = preparedCurves.get(fit);
+  if (!prepared) {
+    const t = fit.testedRates;
+    const step = Math.max((t.highestKgHa - t.lowestKgHa) / 400, 0.25);
+    const at0 = curveValue(model, fit.params, 0);
+    prepared = prepareRegionalReturn(
+      [{ site: s.site, gainKgHa: (x) => curveValue(model, fit.params, x) - at0 }],
+      rateGrid(t.lowestKgHa, t.highestKgHa, step),
+    );
+    preparedCurves.set(fit, prepared);
+  }
   const r = regionalReturnAtPrices(prepared, prices, { bandPerHa });
   return [r.profitableRange.lowKgHa, r.profitableRange.highKgHa];
 }

@@ -84,19 +84,35 @@ export function netReturn(
   return prices.grainPricePerKg * y - prices.nutrientPricePerKg * rateKgHa - app;
 }
 
-/** A result without a single optimum rate (module level: no closure per call). */
-function noOptimum(
-  model: ModelName,
+/** Why the optimum is what it is: the explanation is written from this and the numbers. */
+type OptimumReason =
+  | 'full-response-does-not-pay'
+  | 'full-response'
+  | 'no-fit'
+  | 'first-unit-loses'
+  | 'capped'
+  | 'interior'
+  | 'line-corner-high'
+  | 'line-corner-zero'
+  | 'application-cost';
+
+/** The optimum without its sentence: what the decision needs, made without any text. */
+export type OptimumCore = Omit<EconomicOptimum, 'explanation' | 'cautions'> & {
+  reason: OptimumReason;
+};
+
+function core(
+  fit: CurveSummary,
   pr: number,
+  reason: OptimumReason,
   status: OptimumStatus,
-  explanation: string,
-): EconomicOptimum {
+  rateKgHa: number | null,
+): OptimumCore {
   return {
-    model,
+    model: fit.model,
     priceRatio: pr,
-    cautions: recommendationCautions,
     status,
-    rateKgHa: null,
+    rateKgHa,
     uncappedRateKgHa: NaN,
     rangeKgHa: null,
     yieldKgHa: null,
@@ -104,8 +120,117 @@ function noOptimum(
     gainOverCheckPerHa: null,
     agronomicMaxRateKgHa: null,
     cappedAtHighest: false,
-    explanation,
+    reason,
   };
+}
+
+/**
+ * The economic optimum without its explanation: the same decision as economicOptimum, for a
+ * caller that prices many curves and shows none of the sentences (the bootstrap's draws).
+ * @param fit - any CurveSummary (model, status, params, tested rates, join interval)
+ * @param prices - canonical prices; not checked here (economicOptimum checks them)
+ * @returns status, rate, yield and returns, and the reason
+ * @example
+ * optimumCore(lp, { grainPricePerKg: 0.2, nutrientPricePerKg: 1 }).rateKgHa // 100
+ */
+export function optimumCore(fit: CurveSummary, prices: Prices): OptimumCore {
+  const pr = prices.nutrientPricePerKg / prices.grainPricePerKg;
+  if (fit.status === 'full-response-at-lowest-rate') {
+    const [low, high] = fit.joinBetweenKgHa ?? [
+      fit.testedRates.distinctKgHa[0],
+      fit.testedRates.distinctKgHa[1],
+    ];
+    // The whole response is bought by the second-lowest rate at most, so paying
+    // for `high` is the dearest case: if that still beats no nutrient, the
+    // optimum lies in (low, high].
+    const zero = netReturn(fit, prices, 0);
+    const atHigh = netReturn(fit, prices, high);
+    if (!(atHigh > zero)) {
+      const c = core(fit, pr, 'full-response-does-not-pay', 'zero', 0);
+      c.uncappedRateKgHa = 0;
+      c.rangeKgHa = [low, high];
+      c.yieldKgHa = curveValue(fit.model, fit.params, 0);
+      c.netReturnPerHa = zero;
+      c.gainOverCheckPerHa = 0;
+      return c;
+    }
+    const c = core(fit, pr, 'full-response', 'join-in-first-interval', null);
+    c.rangeKgHa = [low, high];
+    c.yieldKgHa = curveValue(fit.model, fit.params, high);
+    c.netReturnPerHa = atHigh;
+    c.gainOverCheckPerHa = atHigh - zero;
+    return c;
+  }
+  if (fit.status !== 'ok') return core(fit, pr, 'no-fit', 'not-available', null);
+
+  const highest = fit.testedRates.highestKgHa;
+  const entry = MODEL_CURVES[fit.model];
+  const { rateKgHa: raw, agronomicMaxKgHa: agronomicMax } = entry.optimum(fit.params, pr, highest);
+  let status: OptimumStatus = 'interior';
+  let reason: OptimumReason = 'interior';
+  let x = raw;
+  let capped = false;
+  if (!(x > 0)) {
+    x = 0;
+    status = 'zero';
+    reason = 'first-unit-loses';
+  } else if (x > highest) {
+    x = highest;
+    capped = true;
+    status = 'capped-at-highest';
+    reason = 'capped';
+  }
+  if (!entry.isCurve) {
+    status = x > 0 || capped ? 'corner' : 'zero';
+    reason = x > 0 ? 'line-corner-high' : 'line-corner-zero';
+    capped = false;
+  }
+  const zeroReturn = netReturn(fit, prices, 0);
+  let atX = netReturn(fit, prices, x);
+  const costly = x > 0 && !(atX > zeroReturn);
+  const c = core(fit, pr, reason, status, x);
+  if (costly) {
+    // The application cost is larger than what the nutrient returns; the sentence names x.
+    c.reason = 'application-cost';
+    c.rangeKgHa = [x, x];
+    x = 0;
+    c.status = 'zero';
+    capped = false;
+    atX = zeroReturn;
+    c.rateKgHa = 0;
+  }
+  c.uncappedRateKgHa = raw;
+  c.yieldKgHa = curveValue(fit.model, fit.params, x);
+  c.netReturnPerHa = atX;
+  c.gainOverCheckPerHa = atX - zeroReturn;
+  c.agronomicMaxRateKgHa = agronomicMax;
+  c.cappedAtHighest = capped;
+  return c;
+}
+
+/** The sentence that explains an optimum, with rates in the caller's format. */
+function explain(c: OptimumCore, fit: CurveSummary, format: RateFormat): string {
+  const highest = fit.testedRates.highestKgHa;
+  switch (c.reason) {
+    case 'full-response-does-not-pay':
+      return `The full response is reached by ${rateText(format, c.rangeKgHa![1])}, but at these prices it does not pay for that rate.`;
+    case 'full-response':
+      return `Full response by the lowest non-zero rate: the optimum lies between ${rateRangeText(format, c.rangeKgHa![0], c.rangeKgHa![1])}; these rates cannot place it more precisely.`;
+    case 'no-fit':
+      return NO_OPTIMUM_REASON[fit.status] ?? 'No optimum.';
+    case 'first-unit-loses':
+      return 'At this price ratio the first unit of nutrient already returns less than it costs: the optimum is no nutrient.';
+    case 'capped':
+      return `The formula gives ${rateText(format, c.uncappedRateKgHa)}, past the highest tested rate; the curve is not known there, so the highest tested rate (${rateText(format, highest)}) is given and flagged.`;
+    case 'interior':
+      return `Economic optimum ${rateText(format, c.rateKgHa!)}, where the curve's slope equals the price ratio (nutrient price over grain price).`;
+    case 'line-corner-high':
+      return `A straight line never levels off: its slope stays above the price ratio, so the optimum is the corner at the highest tested rate, ${rateText(format, highest)}; a curve with a plateau says more.`;
+    case 'line-corner-zero':
+      return "A straight line's slope below the price ratio puts the optimum at the corner, no nutrient.";
+    case 'application-cost':
+      return `At ${rateText(format, c.rangeKgHa![0])} the gain does not cover the nutrient and application cost, so the optimum is no application.`;
+  }
 }
 
 const NO_OPTIMUM_REASON: Record<string, string> = {
@@ -139,106 +264,14 @@ export function economicOptimum(
   options: EconomicOptimumOptions = {},
 ): EconomicOptimum {
   assertPrices(prices);
-  const format = options.rateFormat ?? KG_HA_FORMAT;
-  const pr = prices.nutrientPricePerKg / prices.grainPricePerKg;
-  if (fit.status === 'full-response-at-lowest-rate') {
-    const [low, high] = fit.joinBetweenKgHa ?? [
-      fit.testedRates.distinctKgHa[0],
-      fit.testedRates.distinctKgHa[1],
-    ];
-    // The whole response is bought by the second-lowest rate at most, so paying
-    // for `high` is the dearest case: if that still beats no nutrient, the
-    // optimum lies in (low, high].
-    const zero = netReturn(fit, prices, 0);
-    const atHigh = netReturn(fit, prices, high);
-    if (!(atHigh > zero)) {
-      return {
-        ...noOptimum(
-          fit.model,
-          pr,
-          'zero',
-          `The full response is reached by ${rateText(format, high)}, but at these prices it does not pay for that rate.`,
-        ),
-        rateKgHa: 0,
-        uncappedRateKgHa: 0,
-        yieldKgHa: curveValue(fit.model, fit.params, 0),
-        netReturnPerHa: zero,
-        gainOverCheckPerHa: 0,
-      };
-    }
-    return {
-      ...noOptimum(
-        fit.model,
-        pr,
-        'join-in-first-interval',
-        `Full response by the lowest non-zero rate: the optimum lies between ${rateRangeText(format, low, high)}; these rates cannot place it more precisely.`,
-      ),
-      rangeKgHa: [low, high],
-      yieldKgHa: curveValue(fit.model, fit.params, high),
-      netReturnPerHa: atHigh,
-      gainOverCheckPerHa: atHigh - zero,
-    };
-  }
-  if (fit.status !== 'ok') {
-    return noOptimum(
-      fit.model,
-      pr,
-      'not-available',
-      NO_OPTIMUM_REASON[fit.status] ?? 'No optimum.',
-    );
-  }
-
-  const highest = fit.testedRates.highestKgHa;
-  const entry = MODEL_CURVES[fit.model];
-  const { rateKgHa: raw, agronomicMaxKgHa: agronomicMax } = entry.optimum(fit.params, pr, highest);
-  let status: OptimumStatus = 'interior';
-  let x = raw;
-  let capped = false;
-  let explanation: string;
-  if (!(x > 0)) {
-    x = 0;
-    status = 'zero';
-    explanation =
-      'At this price ratio the first unit of nutrient already returns less than it costs: the optimum is no nutrient.';
-  } else if (x > highest) {
-    x = highest;
-    capped = true;
-    status = 'capped-at-highest';
-    explanation = `The formula gives ${rateText(format, raw)}, past the highest tested rate; the curve is not known there, so the highest tested rate (${rateText(format, highest)}) is given and flagged.`;
-  } else {
-    explanation = `Economic optimum ${rateText(format, x)}, where the curve's slope equals the price ratio (nutrient price over grain price).`;
-  }
-  if (!entry.isCurve) {
-    status = x > 0 || capped ? 'corner' : 'zero';
-    capped = false;
-    explanation =
-      x > 0
-        ? `A straight line never levels off: its slope stays above the price ratio, so the optimum is the corner at the highest tested rate, ${rateText(format, highest)}; a curve with a plateau says more.`
-        : "A straight line's slope below the price ratio puts the optimum at the corner, no nutrient.";
-  }
-  const zeroReturn = netReturn(fit, prices, 0);
-  let atX = netReturn(fit, prices, x);
-  if (x > 0 && !(atX > zeroReturn)) {
-    // The application cost is larger than what the nutrient returns.
-    explanation = `At ${rateText(format, x)} the gain does not cover the nutrient and application cost, so the optimum is no application.`;
-    x = 0;
-    status = 'zero';
-    capped = false;
-    atX = zeroReturn;
-  }
+  const c = optimumCore(fit, prices);
+  const explanation = explain(c, fit, options.rateFormat ?? KG_HA_FORMAT);
+  const { reason: _reason, ...values } = c;
   return {
-    model: fit.model,
-    priceRatio: pr,
-    cautions: recommendationCautions,
-    status,
-    rateKgHa: x,
-    uncappedRateKgHa: raw,
-    rangeKgHa: null,
-    yieldKgHa: curveValue(fit.model, fit.params, x),
-    netReturnPerHa: atX,
-    gainOverCheckPerHa: atX - zeroReturn,
-    agronomicMaxRateKgHa: agronomicMax,
-    cappedAtHighest: capped,
+    ...values,
+    // Ranges are part of the result only where the optimum is a range of rates.
+    rangeKgHa: c.status === 'join-in-first-interval' ? c.rangeKgHa : null,
     explanation,
+    cautions: recommendationCautions,
   };
 }

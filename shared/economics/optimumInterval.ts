@@ -9,8 +9,8 @@ import type { ModelName } from '../models/modelTypes';
 import { sortedQuantile } from '../stats/quantile';
 import { StatsInputError } from '../stats/errors';
 import { drawSummaries, type BootstrapDraws } from './bootstrapDraws';
-import { economicOptimum } from './economicOptimum';
-import type { Prices } from './priceRatio';
+import { optimumCore } from './economicOptimum';
+import { assertPrices, type Prices } from './priceRatio';
 
 export interface OptimumInterval {
   model: ModelName;
@@ -47,12 +47,13 @@ export function optimumInterval(
       `level must lie strictly between 0 and 1; got ${level}.`,
     );
   }
+  assertPrices(prices);
   const at = drawSummaries(draws, model);
   if (!at) return null;
   const rates = new Float64Array(draws.resamples);
   let usable = 0;
   for (let b = 0; b < draws.resamples; b++) {
-    const rate = economicOptimum(at(b), prices).rateKgHa;
+    const rate = optimumCore(at(b), prices).rateKgHa;
     if (rate !== null && Number.isFinite(rate)) rates[usable++] = rate;
   }
   const finite = rates.subarray(0, usable).sort();
