@@ -6,7 +6,7 @@
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
-import { afterEach, describe, expect, it, vi } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 
 const calls = vi.hoisted(() => ({ fitAll: 0, estimate: 0 }));
 vi.mock('../shared/models/fitAllModels', async (importOriginal) => {
@@ -32,36 +32,13 @@ vi.mock('../shared/models/estimateCurve', async (importOriginal) => {
 
 import { analyzeCommand } from '../cli/analyzeCommand';
 import { parseArgs, type AnalyzeArgs } from '../cli/parseArgs';
-import type { FileBridge } from '../renderer/src/lib/fileBridge';
-import { serveJobs, type Port } from '../renderer/src/lib/workerProtocol';
-import { Workspace } from '../renderer/src/state/workspace.svelte';
-import { jobHandlers } from '../renderer/src/worker/jobs';
+import type { Workspace } from '../renderer/src/state/workspace.svelte';
+import { nodeWorkspace } from './support/nodeWorkspace';
 import { syntheticCsv } from '../shared/demo/syntheticTrial';
 import { resultsJson } from '../shared/report/resultsJson';
 import { KG_PER_LB } from '../shared/units/unitConstants';
 
-const channels: MessageChannel[] = [];
-function workspace(): Workspace {
-  const channel = new MessageChannel();
-  channels.push(channel);
-  serveJobs(channel.port2 as unknown as Port, jobHandlers);
-  channel.port1.start();
-  channel.port2.start();
-  const bridge: FileBridge = {
-    isDesktop: false,
-    openTrialFiles: async () => [],
-    exportFile: async (name) => name,
-    print: async () => {},
-    savePdf: async () => null,
-  };
-  return new Workspace(bridge, channel.port1 as unknown as Port);
-}
-afterEach(() => {
-  for (const c of channels.splice(0)) {
-    c.port1.close();
-    c.port2.close();
-  }
-});
+const workspace = nodeWorkspace;
 
 /** Every number of `a` equals `b`'s within 1e-12 (relative, absolute near zero); text equal. */
 function sameNumbers(a: unknown, b: unknown, where: string, out: string[]): void {

@@ -1,35 +1,11 @@
 // The workspace's state classes with a real job server on a MessageChannel
 // (the same handlers the worker serves), no browser.
-import { afterEach, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { syntheticCsv } from '../shared/demo/syntheticTrial';
 import { setColumnRole } from '../renderer/src/analysis/edits';
-import type { FileBridge } from '../renderer/src/lib/fileBridge';
-import { serveJobs, type Port } from '../renderer/src/lib/workerProtocol';
-import { Workspace } from '../renderer/src/state/workspace.svelte';
-import { jobHandlers } from '../renderer/src/worker/jobs';
+import { nodeWorkspace } from './support/nodeWorkspace';
 
-const channels: MessageChannel[] = [];
-function workspace(): Workspace {
-  const channel = new MessageChannel();
-  channels.push(channel);
-  serveJobs(channel.port2 as unknown as Port, jobHandlers);
-  channel.port1.start();
-  channel.port2.start();
-  const bridge: FileBridge = {
-    isDesktop: false,
-    openTrialFiles: async () => [],
-    exportFile: async (name) => name,
-    print: async () => {},
-    savePdf: async () => null,
-  };
-  return new Workspace(bridge, channel.port1 as unknown as Port);
-}
-afterEach(() => {
-  for (const c of channels.splice(0)) {
-    c.port1.close();
-    c.port2.close();
-  }
-});
+const workspace = nodeWorkspace;
 
 const file = () => ({
   name: 'Four sites.csv',
