@@ -5,7 +5,7 @@ import { analysisSettings } from '../shared/analysis/analysisSettings';
 import { analyzeTrial } from '../shared/analysis/analyzeTrial';
 import { priceTrial } from '../shared/analysis/priceTrial';
 import { priceTerms } from '../shared/economics/priceQuote';
-import { assembleReport, type AnalyzeMeta } from '../shared/report/assembleReport';
+import { assembleReport, type ReportMeta } from '../shared/report/assembleReport';
 import type { ReportSettings } from '../shared/report/reportSettings';
 import type { TrialReport } from '../shared/report/trialReport';
 import type { PlotTable } from '../shared/table/plotTable';
@@ -17,7 +17,7 @@ import type { PlotTable } from '../shared/table/plotTable';
  * @param meta - tool, time stamp, mapping, findings
  * @returns the report
  */
-export function reportOf(table: PlotTable, s: ReportSettings, meta: AnalyzeMeta): TrialReport {
+export function reportOf(table: PlotTable, s: ReportSettings, meta: ReportMeta): TrialReport {
   const terms = priceTerms({ units: s.units, crop: table.crop, prices: s.prices });
   const prices = {
     grainPricePerKg: terms.grainPricePerKg,

@@ -14,7 +14,7 @@ import type { SiteModelRow } from '../analysis/siteModelRows';
 import type { SitePlots } from '../analysis/sitePlots';
 import type { MappingEntry } from '../import/mappingEntries';
 import type { ModelName } from '../models/modelTypes';
-import { describeRef, type QualityFinding } from '../quality/qualityFinding';
+import { describeRef, type QualityFinding } from '../table/qualityFinding';
 import type { Plot } from '../table/plotTable';
 import { fitMessage, optimumNote } from './modelNotes';
 import { priceTerms, type DisplaySettings } from './reportSettings';
@@ -28,7 +28,7 @@ import type {
   TrialReport,
 } from './trialReport';
 
-export interface AnalyzeMeta {
+export interface ReportMeta {
   tool: { name: string; version: string };
   /** ISO 8601 time stamp to print. */
   createdAt: string;
@@ -148,7 +148,7 @@ export function assembleReport(
   analysis: TrialAnalysis,
   priced: PricedTrial,
   display: DisplaySettings,
-  meta: AnalyzeMeta,
+  meta: ReportMeta,
 ): TrialReport {
   const { table, settings: a } = analysis;
   const terms = priceTerms({ ...display, crop: table.crop });
