@@ -47,6 +47,11 @@ describe('the workspace in chromium', () => {
     await expect(page.getByTestId('site-optimum').textContent()).resolves.toMatch(/\d+ kg\/ha/);
     // The bootstrap interval arrives from the worker and is drawn as a band.
     await page.getByText(/90 % interval \d+ kg\/ha to \d+ kg\/ha/).waitFor({ timeout: 60_000 });
+    // The demo's first site: the curves disagree (linear-plateau well below the quadratic), and
+    // the panel says so with the range across them.
+    await expect(page.getByTestId('model-spread').textContent()).resolves.toMatch(
+      /anywhere from \d+ kg\/ha to \d+ kg\/ha: the choice of model matters/,
+    );
     await expect
       // Before the interval the optimum line is the only shape; with the band there are two.
       .poll(() => page.locator('[data-testid="chart"] .shapelayer path').count())

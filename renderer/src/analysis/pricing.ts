@@ -36,6 +36,11 @@ export interface SiteOptimum {
   optimum: EconomicOptimum | null;
   /** The bootstrap interval of the optimum, kg/ha; null when there is none. */
   intervalKgHa: [number, number] | null;
+  /**
+   * Lowest and highest optimum of the ranked curves when they lie far apart (optimumAcrossModels
+   * warns), kg/ha; null when they agree.
+   */
+  spreadKgHa: [number, number] | null;
   /** Why there is no optimum, when there is none. */
   reason: string | null;
 }
@@ -57,6 +62,9 @@ export function siteOptima(sites: readonly SiteAnalysis[], priced: PricedTrial):
       fit,
       optimum: fit ? p.optimum : null,
       intervalKgHa: fit ? (p.interval?.ciKgHa ?? null) : null,
+      spreadKgHa: p?.acrossModels?.warning
+        ? [p.acrossModels.lowestRateKgHa, p.acrossModels.highestRateKgHa]
+        : null,
       reason: fit ? null : (site.problem ?? 'No model gave an economic optimum at this site.'),
     };
   });
