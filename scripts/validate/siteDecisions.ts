@@ -49,7 +49,7 @@ export interface SimulatedRun {
  * @param prices - canonical prices (no application cost: the truths' optima assume none)
  * @returns each site's decisions beside its truth, and the table's regional rate
  * @example
- * simulateAndAnalyze(['flat', 'exponential'], 1, illustrativePrices('corn').canonical).decisions[0].recommendedKgHa // 0
+ * simulateAndAnalyze(['flat', 'exponential'], 1, illustrativePrices('corn').canonical).decisions[0].recommendedKgHa // e.g. 0
  */
 export function simulateAndAnalyze(
   truths: readonly TruthName[],
