@@ -1,0 +1,131 @@
+// `npm run validate`: the analysis' decisions checked by simulation against known truths.
+// Simulates sites of five true responses (shared/demo/simulatedSite, seeded), runs the real
+// pipeline (analyzeTrial with its defaults, priceTrial at the illustrative corn prices) and
+// prints, per truth, the interval's coverage, the recommended rate's bias and RMSE, the edge
+// cases' shares, the gain-over-check test's rejection rate and the share that responded; then
+// the regional rate's bias over simulated regions; each goal beside its figure. Writes the
+// figures to test-output/validate.json. Measures only: it never fails on a missed goal.
+//
+// Sizes: PLOTRATE_VALIDATE_SITES (sites per truth, default 400) or --sites N;
+// PLOTRATE_VALIDATE_REGIONS (default 50) or --regions N; PLOTRATE_VALIDATE_SEED (default 20260301).
+import { mkdirSync, writeFileSync } from 'node:fs';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { SIMULATED_BLOCKS, SIMULATED_RATES_KG_HA } from '../../shared/demo/simulatedSite';
+import { ANALYSIS_DEFAULTS } from '../../shared/analysis/analysisSettings';
+import { illustrativePrices } from '../../shared/economics/illustrativePrices';
+import { SECOND_LOWEST_RATE_KG_HA, type Share } from './decisionFigures';
+import { runValidation } from './runValidation';
+import { NULL_GAIN_TRUTHS } from './validationGoals';
+
+function setting(flag: string, env: string, fallback: number): number {
+  const at = process.argv.indexOf(flag);
+  const text = at >= 0 ? process.argv[at + 1] : process.env[env];
+  if (text === undefined || text === '') return fallback;
+  const n = Number(text);
+  if (!Number.isInteger(n) || n < 1)
+    throw new Error(`${flag} / ${env} must be a positive integer; got ${text}.`);
+  return n;
+}
+
+const sitesPerTruth = setting('--sites', 'PLOTRATE_VALIDATE_SITES', 400);
+const regions = setting('--regions', 'PLOTRATE_VALIDATE_REGIONS', 50);
+const sitesPerRegion = 12;
+const seed = setting('--seed', 'PLOTRATE_VALIDATE_SEED', 20260301);
+const prices = illustrativePrices('corn').canonical;
+
+const started = performance.now();
+console.log(
+  `Simulated sites: ${SIMULATED_BLOCKS} blocks × rates ${SIMULATED_RATES_KG_HA.join(', ')} kg N/ha, ` +
+    `plot CV 6.5 %, block SD 250 kg/ha (shared/demo/simulatedSite, seed ${seed}).`,
+);
+console.log(
+  `Analysis defaults: ${ANALYSIS_DEFAULTS.resamples} resamples, ${ANALYSIS_DEFAULTS.intervalLevel * 100} % interval; ` +
+    `illustrative corn prices: grain ${prices.grainPricePerKg.toFixed(4)}/kg, N ${prices.nutrientPricePerKg.toFixed(4)}/kg.`,
+);
+const v = runValidation({
+  sitesPerTruth,
+  regions,
+  sitesPerRegion,
+  seed,
+  prices,
+  onProgress: (m) =>
+    console.log(`  done: ${m} (${((performance.now() - started) / 1000).toFixed(1)} s)`),
+});
+const elapsedS = (performance.now() - started) / 1000;
+
+const pct = (s: Share) =>
+  `${(100 * s.share).toFixed(1)} % (${s.count}/${s.of}, SE ${(100 * s.standardError).toFixed(1)})`;
+console.log(`\nPrice ratio ${v.priceRatio.toFixed(3)} kg grain per kg N.`);
+for (const f of v.truths) {
+  console.log(`\n### ${f.truth}: ${f.description}`);
+  console.log(`true optimum ${f.trueOptimumKgHa.toFixed(1)} kg/ha; ${f.sites} sites`);
+  console.log(
+    `leading models: ${Object.entries(f.leadModels)
+      .map(([m, n]) => `${m} ${n}`)
+      .join(', ')}`,
+  );
+  console.log(
+    `coverage of the ${f.intervalLevel * 100} % interval: ${pct(f.coverage)}; ${f.withoutInterval} sites had no interval (counted as not covering)`,
+  );
+  console.log(
+    `recommended rate: mean ${f.rate.meanKgHa.toFixed(1)} kg/ha, bias ${f.rate.meanBiasKgHa.toFixed(1)}, RMSE ${f.rate.rmseKgHa.toFixed(1)} kg/ha ` +
+      `over ${f.rate.rated} sites (${f.rate.unrated} without a rate left out; ${f.rate.fromRangeTop} "join-in-first-interval" sites taken at the top of their range)`,
+  );
+  console.log(
+    `rate above 0: ${pct(f.aboveZero)}; above the second-lowest rate (${SECOND_LOWEST_RATE_KG_HA} kg/ha): ${pct(f.aboveSecondLowest)}`,
+  );
+  console.log(
+    `gain-over-check test finds a gain at rate 0: ${pct(f.gainAtZeroFound)}` +
+      (NULL_GAIN_TRUTHS.includes(f.truth)
+        ? ' (null true: Type I error)'
+        : ' (gains bend: not a Type I error)'),
+  );
+  console.log(`responded (rate effect at 5 %): ${pct(f.responded)}`);
+}
+const r = v.regions;
+console.log(
+  `\n### regions: ${r.regions} regions of ${r.sitesPerRegion} sites, truths drawn at random`,
+);
+console.log(
+  `regional rate mean ${r.meanRegionalRateKgHa.toFixed(1)} kg/ha against the true regional optimum mean ${r.meanTrueOptimumKgHa.toFixed(1)}; ` +
+    `bias ${r.meanBiasKgHa.toFixed(1)}, RMSE ${r.rmseKgHa.toFixed(1)} kg/ha`,
+);
+console.log('\n### goals');
+for (const g of v.goals) {
+  const value =
+    Math.abs(g.value) < 1 && !g.figure.includes('kg/ha') ? g.value.toFixed(3) : g.value.toFixed(1);
+  console.log(`${g.met ? 'met    ' : 'NOT met'}  ${g.figure} (${g.on}): ${value}; goal ${g.goal}`);
+}
+console.log(`\nelapsed ${elapsedS.toFixed(1)} s`);
+
+const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
+const out = path.join(root, 'test-output', 'validate.json');
+mkdirSync(path.dirname(out), { recursive: true });
+writeFileSync(
+  out,
+  JSON.stringify(
+    {
+      command: 'npm run validate',
+      settings: {
+        sitesPerTruth,
+        regions,
+        sitesPerRegion,
+        seed,
+        ratesKgHa: SIMULATED_RATES_KG_HA,
+        blocks: SIMULATED_BLOCKS,
+        resamples: ANALYSIS_DEFAULTS.resamples,
+        intervalLevel: ANALYSIS_DEFAULTS.intervalLevel,
+        prices,
+        priceRatio: v.priceRatio,
+      },
+      truths: v.truths,
+      regions: v.regions,
+      goals: v.goals,
+      elapsedSeconds: Math.round(elapsedS * 10) / 10,
+    },
+    null,
+    2,
+  ) + '\n',
+);
+console.log(`wrote ${path.relative(root, out)}`);
