@@ -40,9 +40,24 @@ describe('resultsJson', () => {
       'responseOverCheck',
       'lackOfFit',
       'bestModel',
+      'optimumCIBootstrap',
       'models',
     ])
       expect(site).toHaveProperty(k);
+    expect(Object.keys(site.optimumCIBootstrap!).sort()).toEqual([
+      'basis',
+      'level',
+      'modelShares',
+      'resamples',
+      'seed',
+      'shares',
+    ]);
+    expect(Object.keys(site.optimumCIBootstrap!.shares).sort()).toEqual([
+      'curve',
+      'fullResponse',
+      'noPlateau',
+      'noResponse',
+    ]);
     expect(Object.keys(site.interceptTest!).sort()).toEqual(['F', 'df1', 'df2', 'p', 't']);
     expect(Object.keys(site.responseOverCheck!).sort()).toEqual([
       'biasPresent',

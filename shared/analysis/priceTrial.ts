@@ -6,6 +6,7 @@
  * regional rate (chooseSiteModels, repriceAcrossSites). Every view (screen,
  * workbook, grower page, JSON, command-line summary) reads this one value.
  */
+import type { BootstrapDraws } from '../economics/bootstrapDraws';
 import { economicOptimum, type EconomicOptimum } from '../economics/economicOptimum';
 import { optimumAcrossModels, type OptimumComparison } from '../economics/optimumAcrossModels';
 import { optimumInterval, type OptimumInterval } from '../economics/optimumInterval';
@@ -40,7 +41,11 @@ export interface PricedSite {
   lead: SiteLead;
   /** The leading model's optimum at these prices; null without a leading model. */
   optimum: EconomicOptimum | null;
-  /** The bootstrap interval of the leading model's optimum; null without draws. */
+  /**
+   * The bootstrap interval of the site's optimum; null without draws. With the rule's model
+   * the model is chosen again inside every resample ("model-reselected"); with the analyst's
+   * pick it is that model's interval ("fixed-model"), see priceSite.
+   */
   interval: OptimumInterval | null;
   /** Rates within the analysis' band of the best return on the leading curve, kg/ha. */
   profitableRangeKgHa: [number, number] | null;
@@ -102,6 +107,28 @@ function profitableRange(
 }
 
 /**
+ * The interval that goes with a site's lead. The rule's model gets the interval with the
+ * model chosen again in each resample (the choice is part of the estimate). An analyst's pick
+ * keeps the interval of that model alone: the analyst has fixed the model, so the interval
+ * answers "if this curve is right", and the lead's reason says it was picked.
+ */
+function siteInterval(
+  draws: BootstrapDraws,
+  lead: SiteLead,
+  model: ModelName,
+  prices: Prices,
+  level: number,
+): OptimumInterval | null {
+  return optimumInterval(
+    draws,
+    model,
+    prices,
+    level,
+    lead.picked ? 'fixed-model' : 'model-reselected',
+  );
+}
+
+/**
  * One site at these prices and picks.
  * @param s - the site's analysis
  * @param prices - canonical prices
@@ -133,7 +160,7 @@ export function priceSite(
     site: s.site,
     lead,
     optimum: economicOptimum(fit, prices),
-    interval: s.draws ? optimumInterval(s.draws, lead.model, prices, level) : null,
+    interval: s.draws ? siteInterval(s.draws, lead, lead.model, prices, level) : null,
     profitableRangeKgHa: profitableRange(s, lead.model, prices, bandPerHa),
     acrossModels: optimumAcrossModels(s.fits!.fits, s.fits!.ranking, prices),
   };

@@ -4,7 +4,9 @@
  * `regionalModel: 'best'` and anything else that speaks of "the chosen model"
  * share.
  *
- * Rule, in the order an agronomist reads a model table:
+ * The rule itself is shared/models/chooseModel (the bootstrap applies the same
+ * rule inside every resample); this file ranks the site's fits for it and says
+ * why in words. Rule, in the order an agronomist reads a model table:
  * 1. Only models that take part in the AICc ranking (Hurvich & Tsai 1989;
  *    shared/models rankByAicc) and give a usable rate are candidates. A fit gives
  *    a usable rate when its status is "ok": its economic optimum is then one
@@ -26,6 +28,7 @@
  * (repriceAcrossSites) keeps the same model at every site and agrees with a
  * fresh analysis at the new prices.
  */
+import { chooseModel } from '../models/chooseModel';
 import { MODEL_CURVES } from '../models/curves';
 import type { ModelRank } from '../models/fitAllModels';
 import type { FitStatus, ModelName } from '../models/modelTypes';
@@ -52,23 +55,19 @@ export interface RecommendationModel {
  */
 export function recommendationModel(all: RankedFits): RecommendationModel {
   const ranked = all.ranking.filter((r) => r.rank !== null);
-  const usable = ranked.filter((r) => all.fits[r.model]?.status === 'ok');
-  // Curves before straight lines: a line only gives a corner.
-  const curve = usable.find((r) => MODEL_CURVES[r.model].isCurve);
-  if (curve) {
-    return {
-      model: curve.model,
-      reason:
-        ranked[0]?.model === curve.model
-          ? `lowest AICc of the models fitted, Akaike weight ${curve.weight.toFixed(2)}`
-          : `lowest AICc among the curves with an economic optimum, ΔAICc ${curve.deltaAicc.toFixed(1)} from the best`,
-    };
+  const model = chooseModel(
+    ranked.map((r) => ({ model: r.model, status: all.fits[r.model]?.status, aicc: r.aicc })),
+  );
+  if (model === null) return { model: null, reason: 'no model gave an economic optimum' };
+  if (!MODEL_CURVES[model].isCurve) {
+    return { model, reason: 'no curve gave an optimum; a straight line gives only a corner rate' };
   }
-  if (usable.length > 0) {
-    return {
-      model: usable[0].model,
-      reason: 'no curve gave an optimum; a straight line gives only a corner rate',
-    };
-  }
-  return { model: null, reason: 'no model gave an economic optimum' };
+  const curve = ranked.find((r) => r.model === model)!;
+  return {
+    model,
+    reason:
+      ranked[0].model === model
+        ? `lowest AICc of the models fitted, Akaike weight ${curve.weight.toFixed(2)}`
+        : `lowest AICc among the curves with an economic optimum, ΔAICc ${curve.deltaAicc.toFixed(1)} from the best`,
+  };
 }

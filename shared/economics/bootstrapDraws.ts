@@ -16,6 +16,7 @@
  * keeps 200 resamples × 6 models of each: objects per draw would cost the
  * garbage collector more than the fits.
  */
+import { MODEL_CURVES } from '../models/curves';
 import { estimateCurve } from '../models/estimateCurve';
 import type {
   BlockTerms,
@@ -53,6 +54,14 @@ export interface ModelDraws {
   params: Float64Array;
   /** Residual sum of squares of each draw, (kg/ha)². */
   sse: Float64Array;
+  /**
+   * Coefficients the site's own fit of this model estimates: curve parameters plus block
+   * offsets (ModelFit.parameterCount). The resamples are fitted without block terms to
+   * block-adjusted yields, but the offsets were estimated from the site's plots and the
+   * adjusted SSE is the blocked fit's SSE (exactly so in a balanced design), so a draw's
+   * AICc counts them as the site's AICc does (shared/economics/drawChoices).
+   */
+  parameterCount: number;
   /** The interval the join fell in (plateau models), kg/ha; NaN when none. */
   joinLowKgHa: Float64Array;
   joinHighKgHa: Float64Array;
@@ -80,6 +89,15 @@ export interface DrawOptions {
   blocks?: BlockTerms;
   /** Exponential intercept, as for the fit. */
   exponentialIntercept?: 'free' | 'zero';
+}
+
+/**
+ * Curve parameters a model estimates, as its fit counts them: the catalog's parameter
+ * names, less the intercept of the exponential through the origin (a = 0 is fixed).
+ */
+function curveParameters(model: ModelName, options: DrawOptions): number {
+  const q = MODEL_CURVES[model].spec.paramNames.length;
+  return model === 'exponential' && options.exponentialIntercept === 'zero' ? q - 1 : q;
 }
 
 /** Yields adjusted for block offsets (or the yields themselves without block terms). */
@@ -167,6 +185,7 @@ export function drawBootstrapEstimates(
           status: new Uint8Array(resamples),
           params: new Float64Array(resamples * paramNames.length),
           sse: new Float64Array(resamples),
+          parameterCount: curveParameters(model, options) + site.blockDf,
           joinLowKgHa: new Float64Array(resamples).fill(NaN),
           joinHighKgHa: new Float64Array(resamples).fill(NaN),
         };
@@ -190,6 +209,18 @@ export function drawBootstrapEstimates(
     n: site.n,
     models: out,
   };
+}
+
+/**
+ * One draw's fit status, decoded from its stored byte.
+ * @param d - one model's draws
+ * @param b - the resample, 0 ≤ b < resamples
+ * @returns the status of that resample's estimate
+ * @example
+ * drawStatus(d.models.linearPlateau!, 0) // e.g. 'ok'
+ */
+export function drawStatus(d: ModelDraws, b: number): FitStatus {
+  return STATUSES[d.status[b]];
 }
 
 /**

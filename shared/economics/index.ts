@@ -17,7 +17,8 @@
  * ```
  *
  * drawBootstrapEstimates(data, models, { resamples, seed, blocks }): BootstrapDraws  // price-free
- * optimumInterval(draws, model, prices, level): OptimumInterval                       // re-priced
+ * optimumInterval(draws, model, prices, level, basis = 'model-reselected'): OptimumInterval  // re-priced
+ *   → { ciKgHa, basis, shares: { curve, noPlateau, fullResponse, noResponse }, modelShares }
  *
  * For the JSON report per model: optimumRate = economicOptimum(fit, prices).rateKgHa,
  * yieldAtOptimum = .yieldKgHa, optimumCI = optimumInterval(...).ciKgHa.

@@ -1,45 +1,72 @@
 /**
  * The percentile interval of a site's optimum rate (Efron & Tibshirani, An
  * Introduction to the Bootstrap, 1993, §13.3) from stored bootstrap draws
- * (drawBootstrapEstimates): each draw's optimum at the given prices by the
- * closed forms of economicOptimum, so new prices cost a pass over the draws and
- * never a new bootstrap.
+ * (drawBootstrapEstimates), priced by the closed forms of economicOptimum, so new
+ * prices cost a pass over the draws and never a new bootstrap.
+ *
+ * Two bases:
+ * - "model-reselected" (the default, what a site's recommendation gets): the model
+ *   is chosen again inside every resample by the site's own rule (drawChoices), so
+ *   the interval includes the uncertainty of the model choice.
+ * - "fixed-model": every resample priced with one model (the one the analyst
+ *   picked); it leaves the choice of model out and is narrower for it.
+ *
+ * Either way every resample counts (countedOptimum): no plateau → the highest tested
+ * rate, full response by the lowest non-zero rate → the second-lowest tested rate,
+ * no response or no fit → 0, and the shares of each kind are reported with the
+ * interval, never an interval over only the resamples that gave a curve.
  */
 import type { ModelName } from '../models/modelTypes';
-import { sortedQuantile } from '../stats/quantile';
 import { StatsInputError } from '../stats/errors';
+import { sortedQuantile } from '../stats/quantile';
 import { drawSummaries, type BootstrapDraws } from './bootstrapDraws';
-import { optimumCore } from './economicOptimum';
+import { countedOptimum, type CountedKind } from './countedOptimum';
+import { drawChoices } from './drawChoices';
 import { assertPrices, type Prices } from './priceRatio';
 
+/** How the resamples' optima were made: the model chosen in each, or one model throughout. */
+export type IntervalBasis = 'model-reselected' | 'fixed-model';
+
+/** Share of the resamples of each kind (countedOptimum), each in [0, 1], summing to 1. */
+export type OptimumShares = Record<CountedKind, number>;
+
 export interface OptimumInterval {
+  /** The site's model (the point estimate's); with "model-reselected" each resample chose its own. */
   model: ModelName;
-  /** Resamples drawn. */
+  basis: IntervalBasis;
+  /** Resamples drawn; every one is in the interval. */
   count: number;
-  /** Resamples whose optimum is one rate (the interval is taken over these). */
-  usable: number;
   seed: number;
   level: number;
-  /** Percentile interval of the optimum, kg/ha; null when no resample gave a rate. */
+  /** Percentile interval of the optimum over all resamples, kg/ha; null only without resamples. */
   ciKgHa: [number, number] | null;
+  /** Share of the resamples counted as a curve's optimum, no plateau, full response, no response. */
+  shares: OptimumShares;
+  /** Share of the resamples each model decided (the rest had no deciding fit). */
+  modelShares: Partial<Record<ModelName, number>>;
 }
 
 /**
- * The optimum's percentile interval of one model at one site, at these prices.
+ * The optimum's percentile interval at one site, at these prices.
  * @param draws - the site's bootstrap draws
- * @param model - the model whose optimum is wanted (must be among the drawn models)
+ * @param model - the site's model: the analyst's pick with "fixed-model" (must be drawn), else the
+ *   recommendation model, reported as the interval's model
  * @param prices - canonical prices (currency per kg grain and per kg N, per ha application)
  * @param level - interval level in (0, 1), e.g. 0.9
- * @returns the interval and how many resamples gave a rate; null when the model was not drawn
+ * @param basis - "model-reselected" (default) or "fixed-model"
+ * @returns the interval, the shares of each kind and of each model; null when `model` was not
+ *   drawn (fixed-model) or no model was drawn
  * @throws {StatsInputError} "bad-argument" for a level outside (0, 1); price errors as economicOptimum
  * @example
- * optimumInterval(draws, 'quadraticPlateau', prices, 0.9)?.ciKgHa // e.g. [138, 171]
+ * optimumInterval(draws, 'quadraticPlateau', prices, 0.9)
+ * // e.g. { ciKgHa: [0, 171], shares: { curve: 0.8, noPlateau: 0.05, fullResponse: 0, noResponse: 0.15 }, … }
  */
 export function optimumInterval(
   draws: BootstrapDraws,
   model: ModelName,
   prices: Prices,
   level: number,
+  basis: IntervalBasis = 'model-reselected',
 ): OptimumInterval | null {
   if (!(level > 0 && level < 1)) {
     throw new StatsInputError(
@@ -48,22 +75,47 @@ export function optimumInterval(
     );
   }
   assertPrices(prices);
-  const at = drawSummaries(draws, model);
-  if (!at) return null;
+  const fixed = basis === 'fixed-model';
+  if (fixed ? !draws.models[model] : Object.keys(draws.models).length === 0) return null;
+  const choices = fixed
+    ? { models: [model], decisive: new Int8Array(draws.resamples) }
+    : drawChoices(draws);
+  const readers = choices.models.map((m) => drawSummaries(draws, m)!);
   const rates = new Float64Array(draws.resamples);
-  let usable = 0;
+  const kinds: Record<CountedKind, number> = {
+    curve: 0,
+    noPlateau: 0,
+    fullResponse: 0,
+    noResponse: 0,
+  };
+  const byModel = new Float64Array(choices.models.length);
   for (let b = 0; b < draws.resamples; b++) {
-    const rate = optimumCore(at(b), prices).rateKgHa;
-    if (rate !== null && Number.isFinite(rate)) rates[usable++] = rate;
+    const i = choices.decisive[b];
+    const counted = countedOptimum(i < 0 ? null : readers[i](b), prices);
+    rates[b] = counted.rateKgHa;
+    kinds[counted.kind]++;
+    if (i >= 0) byModel[i]++;
   }
-  const finite = rates.subarray(0, usable).sort();
+  const count = draws.resamples;
+  rates.sort();
   const tail = (1 - level) / 2;
+  const modelShares: Partial<Record<ModelName, number>> = {};
+  choices.models.forEach((m, i) => {
+    if (byModel[i] > 0) modelShares[m] = byModel[i] / count;
+  });
   return {
     model,
-    count: draws.resamples,
-    usable,
+    basis,
+    count,
     seed: draws.seed,
     level,
-    ciKgHa: usable > 0 ? [sortedQuantile(finite, tail), sortedQuantile(finite, 1 - tail)] : null,
+    ciKgHa: count > 0 ? [sortedQuantile(rates, tail), sortedQuantile(rates, 1 - tail)] : null,
+    shares: {
+      curve: kinds.curve / count,
+      noPlateau: kinds.noPlateau / count,
+      fullResponse: kinds.fullResponse / count,
+      noResponse: kinds.noResponse / count,
+    },
+    modelShares,
   };
 }

@@ -19,6 +19,7 @@ import type {
   ModelFit,
   ModelName,
 } from './modelTypes';
+import { aiccFromSse } from './aicc';
 import { pureError } from './pureError';
 import type { PreparedSite } from './prepareSite';
 import type { CurveSpec } from './modelCurve';
@@ -192,8 +193,7 @@ export function finishFit(input: FinishInput): ModelFit {
 
   const k = p + 1;
   const logLik = -0.5 * n * (Math.log(2 * Math.PI) + Math.log(sse / n) + 1);
-  const aic = -2 * logLik + 2 * k;
-  const aicc = n - k - 1 > 0 ? aic + (2 * k * (k + 1)) / (n - k - 1) : Infinity;
+  const aicc = aiccFromSse(sse, n, p);
   const bic = -2 * logLik + k * Math.log(n);
 
   const blockOffsets: Record<string, number> = {};

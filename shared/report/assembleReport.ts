@@ -16,6 +16,7 @@ import type { MappingEntry } from '../import/mappingEntries';
 import type { ModelName } from '../models/modelTypes';
 import { describeRef, type QualityFinding } from '../table/qualityFinding';
 import type { Plot } from '../table/plotTable';
+import { intervalSharesWarning } from './intervalShares';
 import { fitMessage, optimumNote } from './modelNotes';
 import { priceTerms, type DisplaySettings } from './reportSettings';
 import { isBlockLabel } from '../stats/hasBlocks';
@@ -239,16 +240,16 @@ function siteReport(
   const bootstrap: SiteReport['bootstrap'] = interval
     ? {
         count: interval.count,
-        usable: interval.usable,
         seed: interval.seed,
         level: interval.level,
         ciKgHa: interval.ciKgHa,
+        basis: interval.basis,
+        shares: { ...interval.shares },
+        modelShares: { ...interval.modelShares },
       }
     : null;
-  if (bootstrap && !bootstrap.ciKgHa)
-    warnings.push(
-      `Only ${bootstrap.usable} of ${bootstrap.count} bootstrap resamples gave an optimum: no interval is reported.`,
-    );
+  const sharesWarning = bootstrap ? intervalSharesWarning(bootstrap) : null;
+  if (sharesWarning) warnings.push(sharesWarning);
   const models: ModelRow[] = all
     ? all.ranking.map(({ model }) =>
         modelRow(

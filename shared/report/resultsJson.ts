@@ -43,6 +43,20 @@ export interface ResultsSite {
   bestModel: ModelName | null;
   /** Lowest and highest optimum rate of the ranked curves; null with fewer than two. */
   optimumSpread: [number, number] | null;
+  /**
+   * How the chosen model's `optimumCI` was made: resamples (all counted), level, seed, basis
+   * ("model-reselected": the model chosen again in each resample; "fixed-model": the
+   * analyst's pick), the share of resamples of each kind and the share each model decided;
+   * null without an interval.
+   */
+  optimumCIBootstrap: {
+    resamples: number;
+    level: number;
+    seed: number;
+    basis: 'model-reselected' | 'fixed-model';
+    shares: { curve: number; noPlateau: number; fullResponse: number; noResponse: number };
+    modelShares: Partial<Record<ModelName, number>>;
+  } | null;
   models: ResultsModel[];
   warnings: string[];
 }
@@ -150,6 +164,23 @@ export function resultsJson(report: TrialReport): ResultsJson {
       bestModel: s.bestModel,
       optimumSpread: s.optimumSpreadKgHa
         ? [clean(u.rate(s.optimumSpreadKgHa[0])), clean(u.rate(s.optimumSpreadKgHa[1]))]
+        : null,
+      optimumCIBootstrap: s.bootstrap
+        ? {
+            resamples: s.bootstrap.count,
+            level: s.bootstrap.level,
+            seed: s.bootstrap.seed,
+            basis: s.bootstrap.basis,
+            shares: {
+              curve: clean(s.bootstrap.shares.curve),
+              noPlateau: clean(s.bootstrap.shares.noPlateau),
+              fullResponse: clean(s.bootstrap.shares.fullResponse),
+              noResponse: clean(s.bootstrap.shares.noResponse),
+            },
+            modelShares: Object.fromEntries(
+              Object.entries(s.bootstrap.modelShares).map(([k, v]) => [k, clean(v)]),
+            ),
+          }
         : null,
       models: s.models.map((m) => ({
         model: m.model,

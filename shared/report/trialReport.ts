@@ -8,6 +8,7 @@
  */
 import type { ModelName, FitStatus } from '../models/modelTypes';
 import type { ResponseOverCheckOutcome } from '../analysis/siteResponseOverCheck';
+import type { IntervalBasis, OptimumShares } from '../economics/optimumInterval';
 import type { MappingEntry } from '../import/mappingEntries';
 import type { Plot, SourceFile, CropId } from '../table/plotTable';
 
@@ -70,15 +71,20 @@ export type LackOfFitSummary =
 export type { AnovaRow, AnovaSummary, TreatmentMeanRow } from '../analysis/siteAnova';
 import type { AnovaSummary, TreatmentMeanRow } from '../analysis/siteAnova';
 
-/** The bootstrap of the chosen model's optimum. */
+/** The bootstrap interval of the site's optimum (shared/economics/optimumInterval). */
 export interface BootstrapSummary {
-  /** Resamples asked for. */
+  /** Resamples drawn; every one is counted in the interval. */
   count: number;
-  /** Resamples that gave an optimum. */
-  usable: number;
   seed: number;
   level: number;
+  /** Percentile interval over all resamples, kg/ha. */
   ciKgHa: [number, number] | null;
+  /** "model-reselected": the model chosen again in each resample; "fixed-model": the analyst's pick throughout. */
+  basis: IntervalBasis;
+  /** Share of resamples counted as a curve's optimum, no plateau, full response, no response. */
+  shares: OptimumShares;
+  /** Share of resamples each model decided. */
+  modelShares: Partial<Record<ModelName, number>>;
 }
 
 export interface SiteReport {

@@ -5,6 +5,7 @@
  * column A so the sheet prints top to bottom; the chart sits to the right of
  * the plot data.
  */
+import { intervalBasisText, intervalSharesText } from './intervalShares';
 import type ExcelJS from 'exceljs';
 import type { SiteReport, TrialReport } from './trialReport';
 import type { UnitScale } from './unitScale';
@@ -222,7 +223,7 @@ export function workbookSite(
   if (site.bootstrap) {
     const b = site.bootstrap;
     ws.getCell(r++, 1).value =
-      `Optimum interval: ${Math.round(b.level * 100)} % percentile bootstrap of the chosen model, ${b.usable} of ${b.count} resamples usable, seed ${b.seed}.`;
+      `Optimum interval: ${Math.round(b.level * 100)} % percentile bootstrap over ${intervalBasisText(b)}, seed ${b.seed}; counted as ${intervalSharesText(b)}.`;
   }
   if (site.lackOfFit.available) {
     const l = site.lackOfFit;
