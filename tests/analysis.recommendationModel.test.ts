@@ -51,16 +51,45 @@ describe('recommendationModel follows the rule in its header', () => {
         ['exponential', 'ok', 1.25],
       ],
       model: 'exponential',
-      reason: /^lowest AICc among the curves with an economic optimum, ΔAICc 1\.3 from the best$/,
+      reason: /^lowest AICc among the curves with a usable rate, ΔAICc 1\.3 from the best$/,
     },
     {
-      name: 'passes over a curve whose full response by the lowest rate places no optimum',
+      name: 'takes a full response by the lowest rate that fits best among the curves',
       list: [
         ['linearPlateau', 'full-response-at-lowest-rate', 0],
         ['quadratic', 'ok', 2],
       ],
+      model: 'linearPlateau',
+      reason: /^full response by the lowest non-zero rate, lowest AICc of the models fitted/,
+    },
+    {
+      name: 'passes over a full response more than 4 AICc behind a curve with an optimum',
+      list: [
+        ['quadraticPlateau', 'ok', 0],
+        ['linearPlateau', 'full-response-at-lowest-rate', 4.5],
+      ],
+      model: 'quadraticPlateau',
+      reason: /^lowest AICc of the models fitted/,
+    },
+    {
+      name: 'takes a full response within 4 AICc of the best curve with an optimum',
+      list: [
+        ['quadraticPlateau', 'ok', 0],
+        ['linearPlateau', 'full-response-at-lowest-rate', 3.5],
+      ],
+      model: 'linearPlateau',
+      reason:
+        /^full response by the lowest non-zero rate, lowest AICc among the curves with a usable rate, ΔAICc 3\.5 from the best$/,
+    },
+    {
+      name: 'says why a better fit does not lead when the lead is more than 4 AICc behind',
+      list: [
+        ['quadraticPlateau', 'no-plateau', 0],
+        ['quadratic', 'ok', 6],
+      ],
       model: 'quadratic',
-      reason: /ΔAICc 2\.0 from the best/,
+      reason:
+        /ΔAICc 6\.0 from the best; the better-fitting quadratic-plateau gives no usable rate: its yields rise without levelling off/,
     },
     {
       name: 'falls back on a straight line, saying it gives only a corner',

@@ -129,15 +129,28 @@ describe('aiccFromSse', () => {
 });
 
 describe('chooseModel (the rule of recommendationModel)', () => {
-  it('takes the lowest-AICc curve with status "ok" before any straight line', () => {
-    expect(
-      chooseModel([
-        { model: 'linear', status: 'ok', aicc: 280 },
-        { model: 'quadratic', status: 'ok', aicc: 302 },
-        { model: 'exponential', status: 'ok', aicc: 301 },
-        { model: 'linearPlateau', status: 'full-response-at-lowest-rate', aicc: 270 },
-      ]),
-    ).toBe('exponential');
+  it('takes the lowest-AICc curve with a usable answer before any straight line', () => {
+    const fits = [
+      { model: 'linear' as const, status: 'ok' as const, aicc: 280 },
+      { model: 'quadratic' as const, status: 'ok' as const, aicc: 302 },
+      { model: 'exponential' as const, status: 'ok' as const, aicc: 301 },
+      {
+        model: 'linearPlateau' as const,
+        status: 'full-response-at-lowest-rate' as const,
+        aicc: 306,
+      },
+      { model: 'quadraticPlateau' as const, status: 'no-plateau' as const, aicc: 260 },
+    ];
+    expect(chooseModel(fits)).toBe('exponential');
+    // A full response by the lowest rate that fits best among the curves leads.
+    fits[3] = { ...fits[3], aicc: 270 };
+    expect(chooseModel(fits)).toBe('linearPlateau');
+    // Within 4 AICc of the best "ok" curve the full response still leads (FULL_RESPONSE_DELTA_AICC) …
+    fits[3] = { ...fits[3], aicc: 305 };
+    expect(chooseModel(fits)).toBe('linearPlateau');
+    // … beyond it the better curve does.
+    fits[3] = { ...fits[3], aicc: 305.5 };
+    expect(chooseModel(fits)).toBe('exponential');
   });
 
   it('falls back to the lowest-AICc line, and to none without an "ok" fit of finite AICc', () => {
@@ -185,7 +198,7 @@ describe('drawChoices applies the site rule to each resample', () => {
     ],
   });
 
-  it('picks the resample by the lowest AICc among ok curves, else a full response that beats the line, else the line', () => {
+  it('picks the resample by the lowest AICc among the curves with a usable answer (ok or full response), else the line', () => {
     const c = drawChoices(draws);
     const picked = Array.from(c.decisive, (i) => c.models[i]);
     expect(picked).toEqual(['quadraticPlateau', 'linear', 'linearPlateau', 'linearPlateau']);
@@ -193,7 +206,7 @@ describe('drawChoices applies the site rule to each resample', () => {
 
   it('agrees with chooseModel on each resample when a curve has an optimum (the same rule)', () => {
     const c = drawChoices(draws);
-    for (const b of [0, 3]) {
+    for (const b of [0, 1, 2, 3]) {
       const candidates = c.models.map((m) => {
         const d = draws.models[m]!;
         return {

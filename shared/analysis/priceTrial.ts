@@ -15,9 +15,8 @@ import { curveValue } from '../models/curveValue';
 import type { ModelName } from '../models/modelTypes';
 import type { AcrossSiteAnalysis } from './acrossSites';
 import type { TrialAnalysis } from './analyzeTrial';
-import type { SiteAnalysis } from './analyzeSite';
+import type { FitData, SiteAnalysis } from './analyzeSite';
 import { chooseSiteModels } from './chooseSiteModels';
-import { leadingModel } from './leadingModel';
 import { rateGrid } from './rateGrid';
 import {
   prepareRegionalReturn,
@@ -25,15 +24,15 @@ import {
   type PreparedRegionalReturn,
 } from './regionalReturn';
 import { repriceAcrossSites } from './repriceAcrossSites';
+import {
+  noResponseSentence,
+  siteDecision,
+  siteGainCurve,
+  type RecommendationBasis,
+  type SiteLead,
+} from './siteDecision';
 
-/** The model that leads a site, and why. */
-export interface SiteLead {
-  model: ModelName | null;
-  /** A phrase without a final stop ("lowest AICc of the curves …", "picked by the analyst …"). */
-  reason: string;
-  /** True when the analyst's pick leads instead of the rule's model. */
-  picked: boolean;
-}
+export type { SiteLead } from './siteDecision';
 
 /** One site at these prices. */
 export interface PricedSite {
@@ -66,15 +65,9 @@ export interface PricedTrial {
   sites: PricedSite[];
 }
 
-/** The leading model of one site and the reason to print beside it. */
+/** The leading model of one site, the reason to print beside it and its basis (siteDecision). */
 export function siteLead(s: SiteAnalysis, choices: Readonly<Record<string, ModelName>>): SiteLead {
-  const model = leadingModel(s, choices);
-  const rec = s.recommended.model;
-  if (model === rec) return { model, reason: s.recommended.reason, picked: false };
-  const instead = rec
-    ? `the ${s.fits!.fits[rec].label.toLowerCase()} (${s.recommended.reason})`
-    : `no model (${s.recommended.reason})`;
-  return { model, reason: `picked by the analyst instead of ${instead}`, picked: true };
+  return siteDecision(s, choices);
 }
 
 /**
@@ -82,25 +75,29 @@ export function siteLead(s: SiteAnalysis, choices: Readonly<Record<string, Model
  * is made once per fit and kept with it (a slider then costs only the pricing of the grid).
  */
 const preparedCurves = new WeakMap<object, PreparedRegionalReturn>();
+/** The same for a non-responding site's flat gain (zero at every rate). */
+const preparedFlat = new WeakMap<object, PreparedRegionalReturn>();
 
 /** Rates within `bandPerHa` of the best return on one fitted curve, kg/ha. */
 function profitableRange(
   s: SiteAnalysis,
   model: ModelName,
+  basis: RecommendationBasis | null,
   prices: Prices,
   bandPerHa: number,
 ): [number, number] {
   const fit = s.fits!.fits[model];
-  let prepared = preparedCurves.get(fit);
+  const flat = basis === 'no-response';
+  const cache = flat ? preparedFlat : preparedCurves;
+  let prepared = cache.get(fit);
   if (!prepared) {
     const t = fit.testedRates;
     const step = Math.max((t.highestKgHa - t.lowestKgHa) / 400, 0.25);
-    const at0 = curveValue(model, fit.params, 0);
     prepared = prepareRegionalReturn(
-      [{ site: s.site, gainKgHa: (x) => curveValue(model, fit.params, x) - at0 }],
+      [{ site: s.site, gainKgHa: siteGainCurve(fit, basis) }],
       rateGrid(t.lowestKgHa, t.highestKgHa, step),
     );
-    preparedCurves.set(fit, prepared);
+    cache.set(fit, prepared);
   }
   const r = regionalReturnAtPrices(prepared, prices, { bandPerHa });
   return [r.profitableRange.lowKgHa, r.profitableRange.highKgHa];
@@ -126,6 +123,44 @@ function siteInterval(
     level,
     lead.picked ? 'fixed-model' : 'model-reselected',
   );
+}
+
+/**
+ * A non-responding site's optimum: no N, with its own sentence, whatever the curve says
+ * (siteDecision). Yield and return are the fitted check's.
+ */
+function noResponseOptimum(
+  fitted: EconomicOptimum,
+  fit: FitData,
+  prices: Prices,
+  rateEffect: SiteAnalysis['rateEffect'],
+): EconomicOptimum {
+  const at0 = curveValue(fit.model, fit.params, 0);
+  const check = Number.isFinite(at0) ? at0 : fit.curve.yieldKgHa[0];
+  const p = rateEffect.test.kind === 'f-test' ? rateEffect.test.p : NaN;
+  return {
+    ...fitted,
+    status: 'zero',
+    rateKgHa: 0,
+    uncappedRateKgHa: 0,
+    rangeKgHa: null,
+    yieldKgHa: check,
+    netReturnPerHa: prices.grainPricePerKg * check,
+    gainOverCheckPerHa: 0,
+    cappedAtHighest: false,
+    explanation: noResponseSentence(p),
+  };
+}
+
+/**
+ * The interval of a non-responding site, widened down to 0 when its resamples' choices all lay
+ * above: the site's answer is 0 because the test could not rule out no response, so 0 stays
+ * inside the interval; the upper end still says how high the optimum could be if the site did
+ * respond (the curves chosen in the resamples). The shares are the resamples' own.
+ */
+function reachingZero(interval: OptimumInterval): OptimumInterval {
+  const ci = interval.ciKgHa;
+  return ci && ci[0] > 0 ? { ...interval, ciKgHa: [0, ci[1]] } : interval;
 }
 
 /**
@@ -156,12 +191,15 @@ export function priceSite(
       acrossModels: null,
     };
   }
+  const fitted = economicOptimum(fit, prices);
+  const interval = s.draws ? siteInterval(s.draws, lead, lead.model, prices, level) : null;
+  const noResponse = lead.basis === 'no-response';
   return {
     site: s.site,
     lead,
-    optimum: economicOptimum(fit, prices),
-    interval: s.draws ? siteInterval(s.draws, lead, lead.model, prices, level) : null,
-    profitableRangeKgHa: profitableRange(s, lead.model, prices, bandPerHa),
+    optimum: noResponse ? noResponseOptimum(fitted, fit, prices, s.rateEffect) : fitted,
+    interval: noResponse && interval ? reachingZero(interval) : interval,
+    profitableRangeKgHa: profitableRange(s, lead.model, lead.basis, prices, bandPerHa),
     acrossModels: optimumAcrossModels(s.fits!.fits, s.fits!.ranking, prices),
   };
 }

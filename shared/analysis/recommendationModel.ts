@@ -8,12 +8,12 @@
  * rule inside every resample); this file ranks the site's fits for it and says
  * why in words. Rule, in the order an agronomist reads a model table:
  * 1. Only models that take part in the AICc ranking (Hurvich & Tsai 1989;
- *    shared/models rankByAicc) and give a usable rate are candidates. A fit gives
- *    a usable rate when its status is "ok": its economic optimum is then one
- *    number at any prices (interior, no N, capped at the highest tested rate, or
- *    a corner). A full response by the lowest non-zero rate only places the
- *    optimum between the two lowest rates; no plateau, an upward-opening
- *    quadratic and no response give none.
+ *    shared/models rankByAicc) and give a usable answer are candidates: status
+ *    "ok" (the economic optimum is one number at any prices: interior, no N,
+ *    capped at the highest tested rate, or a corner) or a curve's full response
+ *    by the lowest non-zero rate (the optimum lies at or below the second-lowest
+ *    tested rate, a range); no plateau, an upward-opening quadratic and no
+ *    response give none.
  * 2. Among the candidates the curves (the models whose curve entry says
  *    `isCurve`: the quadratic, linear-plateau, quadratic-plateau and exponential
  *    rise) come first, lowest AICc first: a
@@ -23,15 +23,32 @@
  * 3. With no curve left, the lowest-AICc straight line (or line through the
  *    origin) is taken and the reason says it gives only a corner.
  * 4. With no candidate at all there is no recommendation model (null).
+ * When the chosen model lies more than 4 AICc units behind the best fit (Burnham &
+ * Anderson, Model Selection and Multimodel Inference, 2nd ed., 2002, §2.6: beyond
+ * about 4 a model has clearly less support), the reason names the better fit and
+ * why it gives no usable rate, so a reader never meets a poorly fitting lead unexplained.
  *
  * The rule depends on the fits alone, not on prices, so a re-priced analysis
  * (repriceAcrossSites) keeps the same model at every site and agrees with a
  * fresh analysis at the new prices.
  */
 import { chooseModel } from '../models/chooseModel';
-import { MODEL_CURVES } from '../models/curves';
 import type { ModelRank } from '../models/fitAllModels';
+import { MODEL_CURVES, modelLabelInText } from '../models/curves';
 import type { FitStatus, ModelName } from '../models/modelTypes';
+
+/** ΔAICc beyond which the reason must say why a better fit does not lead. */
+export const EXPLAINED_DELTA_AICC = 4;
+
+/** Why a fit with this status gives no usable rate, as a clause. */
+const NO_RATE: Record<FitStatus, string> = {
+  ok: 'it is a straight line and gives only a corner rate',
+  'no-plateau': 'its yields rise without levelling off within the tested rates',
+  'full-response-at-lowest-rate': 'it places the whole response by the lowest non-zero rate',
+  convex: 'it opens upward, so it has no maximum',
+  'no-response': 'it shows no response',
+  'too-few-rates': 'there are too few rates for it',
+};
 
 /** What the rule reads of a site's fits: each fit's status and the AICc ranking. */
 export interface RankedFits {
@@ -59,15 +76,26 @@ export function recommendationModel(all: RankedFits): RecommendationModel {
     ranked.map((r) => ({ model: r.model, status: all.fits[r.model]?.status, aicc: r.aicc })),
   );
   if (model === null) return { model: null, reason: 'no model gave an economic optimum' };
+  const chosen = ranked.find((r) => r.model === model)!;
+  const best = ranked[0];
+  // A better fit that does not lead is named, with why, when it is clearly better.
+  const why =
+    best.model !== model && chosen.aicc - best.aicc > EXPLAINED_DELTA_AICC
+      ? `; the better-fitting ${modelLabelInText(best.model)} gives no usable rate: ${NO_RATE[all.fits[best.model].status]}`
+      : '';
   if (!MODEL_CURVES[model].isCurve) {
-    return { model, reason: 'no curve gave an optimum; a straight line gives only a corner rate' };
+    return {
+      model,
+      reason: `no curve gave an optimum; a straight line gives only a corner rate${why}`,
+    };
   }
-  const curve = ranked.find((r) => r.model === model)!;
-  return {
-    model,
-    reason:
-      ranked[0].model === model
-        ? `lowest AICc of the models fitted, Akaike weight ${curve.weight.toFixed(2)}`
-        : `lowest AICc among the curves with an economic optimum, ΔAICc ${curve.deltaAicc.toFixed(1)} from the best`,
-  };
+  const lead =
+    best.model === model
+      ? `lowest AICc of the models fitted, Akaike weight ${chosen.weight.toFixed(2)}`
+      : `lowest AICc among the curves with a usable rate, ΔAICc ${chosen.deltaAicc.toFixed(1)} from the best`;
+  const full =
+    all.fits[model].status === 'full-response-at-lowest-rate'
+      ? 'full response by the lowest non-zero rate, '
+      : '';
+  return { model, reason: `${full}${lead}${why}` };
 }

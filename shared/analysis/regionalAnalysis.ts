@@ -4,7 +4,6 @@
  * site curve is extended past its data; the mean return at the settings' prices; and the
  * sentence and cautions shown with it.
  */
-import { curveValue } from '../models/curveValue';
 import type { ModelName } from '../models/modelTypes';
 import type { SiteAnalysis } from './analyzeSite';
 import type { SiteLeftOut } from './commonResponseTests';
@@ -50,10 +49,7 @@ export function regionalAnalysis(
       ? Math.min(...used.map((u) => u.fit.testedRates.highestKgHa))
       : o.gridFromKgHa);
   const grid = rateGrid(o.gridFromKgHa, Math.max(top, o.gridFromKgHa), o.gridStepKgHa);
-  const curves: SiteGainCurve[] = used.map((u) => {
-    const at0 = curveValue(u.model, u.fit.params, 0);
-    return { site: u.site, gainKgHa: (x) => curveValue(u.model, u.fit.params, x) - at0 };
-  });
+  const curves: SiteGainCurve[] = used.map((u) => ({ site: u.site, gainKgHa: u.gainKgHa }));
   const sitesUsed = used.map((u) => {
     const beyond = u.fit.testedRates.highestKgHa < grid[grid.length - 1];
     const extra = beyond

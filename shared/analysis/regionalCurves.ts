@@ -1,13 +1,16 @@
 /**
  * Which curve each site brings to the regional return, and why a site brings none. A curve that
  * never levels off within the tested rates is replaced by its limit curve rather than dropped.
+ * With "best", each site's decision (siteDecision) shapes its gain: a site that showed no
+ * response brings a flat gain (zero at every rate), a full response by the lowest non-zero
+ * rate a step at the second-lowest rate (siteGainCurve).
  */
 import { MODEL_CURVES, modelLabelInText } from '../models/curves';
 import { curveValue } from '../models/curveValue';
 import type { ModelName } from '../models/modelTypes';
 import type { FitData, SiteAnalysis } from './analyzeSite';
 import type { SiteLeftOut } from './commonResponseTests';
-import { leadingModel } from './leadingModel';
+import { siteDecision, siteGainCurve, type RecommendationBasis } from './siteDecision';
 import type { RegionalModelChoice } from './planAcrossSites';
 
 /** One site's curve in the regional return: the model, its fit and what to say about it. */
@@ -16,6 +19,8 @@ export interface RegionalCurve {
   model: ModelName;
   fit: FitData;
   note: string;
+  /** The site's gain over its check at a rate, kg/ha → kg/ha (siteGainCurve). */
+  gainKgHa: (rateKgHa: number) => number;
 }
 
 /** True when the fit's parameters give a finite curve over its tested rates. */
@@ -47,7 +52,9 @@ export function regionalCurves(
       leftOut.push({ site: s.site, reason: s.problem ?? 'not fitted' });
       continue;
     }
-    const model = choice === 'best' ? leadingModel(s, siteModels) : choice;
+    const decision = choice === 'best' ? siteDecision(s, siteModels) : null;
+    const model: ModelName | null = choice === 'best' ? decision!.model : choice;
+    const basis: RecommendationBasis | null = decision?.basis ?? null;
     if (!model) {
       const reasons = [...new Set(s.fits.ranking.map((r) => r.reason).filter((r) => r))].join(' ');
       leftOut.push({ site: s.site, reason: `${s.recommended.reason}. ${reasons}`.trim() });
@@ -65,7 +72,10 @@ export function regionalCurves(
       );
       fit = s.fits.fits[limit];
     }
-    if (fit.status === 'too-few-rates' || !gives(fit)) {
+    const stepOrFlat =
+      basis === 'no-response' ||
+      (fit.status === 'full-response-at-lowest-rate' && fit.curve.yieldKgHa.length > 0);
+    if (fit.status === 'too-few-rates' || (!stepOrFlat && !gives(fit))) {
       leftOut.push({
         site: s.site,
         reason: `the ${modelLabelInText(model)} gives no curve here: ${fit.message}`,
@@ -77,15 +87,18 @@ export function regionalCurves(
         `no plot at rate 0: the check is the ${modelLabelInText(model)}'s value at 0, below the lowest tested rate`,
       );
     }
-    if (fit.status === 'full-response-at-lowest-rate' && fit.joinBetweenKgHa) {
-      // DESIGN.md, identifiability: any join in the first interval fits equally well.
+    if (basis === 'no-response') {
+      notes.push('no yield response to N (rate effect not significant): a flat gain');
+    } else if (fit.status === 'full-response-at-lowest-rate' && fit.joinBetweenKgHa) {
+      // DESIGN.md, identifiability: any join in the first interval fits equally well, so the
+      // dearest case stands in: the whole gain from the second-lowest rate on.
       const [lo, hi] = fit.joinBetweenKgHa;
       notes.push(
-        `full response by the lowest non-zero rate: the curve between ${lo} and ${hi} kg/ha is not fixed by the data`,
+        `full response by the lowest non-zero rate: the curve between ${lo} and ${hi} kg/ha is not fixed by the data, so its gain enters as a step at ${hi} kg/ha`,
       );
     }
     const note = notes.join('; ');
-    used.push({ site: s.site, model: fit.model, fit, note });
+    used.push({ site: s.site, model: fit.model, fit, note, gainKgHa: siteGainCurve(fit, basis) });
   }
   return { used, leftOut };
 }

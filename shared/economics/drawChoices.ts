@@ -12,19 +12,16 @@
  * one formula of shared/models/aicc, so the resample's numbers are the site's
  * own AICc when a resample repeats the site's plots.
  *
- * One addition to the rule, for resamples where no curve has an optimum: when a
- * curve says the whole response came by the lowest non-zero rate ("full response",
- * check against the rest) and fits better by AICc than the straight line the rule
- * would fall back to (or no line is left), that curve decides the resample, because
- * a line through a step would put the optimum at the highest rate. The optimum of
- * such a resample is counted at the second-lowest rate (countedOptimum).
+ * A full response by the lowest non-zero rate is one of the rule's answers (a curve
+ * with status "full-response-at-lowest-rate" that fits best among the curves), so a
+ * resample that the rule hands to it counts at the second-lowest rate
+ * (countedOptimum), as the site's own recommendation would.
  *
  * The choice depends on the fits only, not on prices, so it is made once per set of
  * draws and kept (a price change re-prices the chosen draws and nothing else).
  */
 import { aiccFromSse } from '../models/aicc';
 import { chooseModel, type ModelCandidate } from '../models/chooseModel';
-import { MODEL_CURVES } from '../models/curves';
 import type { ModelName } from '../models/modelTypes';
 import { drawStatus, type BootstrapDraws } from './bootstrapDraws';
 
@@ -41,7 +38,7 @@ const cache = new WeakMap<BootstrapDraws, DrawChoices>();
 /**
  * The deciding model of each resample, by the rule in the file header.
  * @param draws - a site's bootstrap draws (drawBootstrapEstimates)
- * @returns per resample, which drawn model decides it (−1: none has an optimum or a full response)
+ * @returns per resample, which drawn model decides it (−1: no fit gives a usable answer)
  * @example
  * const c = drawChoices(draws);
  * c.models[c.decisive[0]] // e.g. 'quadraticPlateau'
@@ -60,18 +57,7 @@ export function drawChoices(draws: BootstrapDraws): DrawChoices {
       c.aicc = aiccFromSse(all[i].sse[b], draws.n, all[i].parameterCount);
     }
     const chosen = chooseModel(candidates);
-    let pick = chosen === null ? -1 : models.indexOf(chosen);
-    if (chosen === null || !MODEL_CURVES[chosen].isCurve) {
-      // No curve has an optimum: a full response that beats the line decides.
-      let limit = chosen === null ? Infinity : candidates[pick].aicc;
-      for (let i = 0; i < candidates.length; i++) {
-        const c = candidates[i];
-        if (c.status === 'full-response-at-lowest-rate' && c.aicc < limit) {
-          limit = c.aicc;
-          pick = i;
-        }
-      }
-    }
+    const pick = chosen === null ? -1 : models.indexOf(chosen);
     decisive[b] = pick;
   }
   const out = { models, decisive };

@@ -17,7 +17,7 @@
  */
 import { MODEL_CURVES } from '../models/curves';
 import { curveValue } from '../models/curveValue';
-import type { CurveSummary, ModelName } from '../models/modelTypes';
+import type { CurveSummary, ModelFit, ModelName } from '../models/modelTypes';
 import { KG_HA_FORMAT, rateRangeText, rateText, type RateFormat } from '../models/rateFormat';
 import { assertPrices, type Prices } from './priceRatio';
 import { recommendationCautions } from './recommendationCautions';
@@ -143,8 +143,20 @@ export function optimumCore(fit: CurveSummary, prices: Prices): OptimumCore {
     // The whole response is bought by the second-lowest rate at most, so paying
     // for `high` is the dearest case: if that still beats no nutrient, the
     // optimum lies in (low, high].
-    const zero = netReturn(fit, prices, 0);
-    const atHigh = netReturn(fit, prices, high);
+    // A site's full-response fit blanks the parameters the data cannot fix (the
+    // linear-plateau's slope and join, the exponential's rate constant), so its
+    // curve has no value past the check; the plateau its drawn curve keeps (flat from
+    // `high` on) prices `high`.
+    const drawn = 'curve' in fit ? (fit as Pick<ModelFit, 'curve'>).curve : undefined;
+    const last = drawn ? drawn.yieldKgHa.length - 1 : -1;
+    let zero = netReturn(fit, prices, 0);
+    let atHigh = netReturn(fit, prices, high);
+    const plateau = last >= 0 ? drawn!.yieldKgHa[last] : NaN;
+    if (!Number.isFinite(atHigh) && Number.isFinite(plateau) && drawn!.rateKgHa[0] === 0) {
+      zero = prices.grainPricePerKg * drawn!.yieldKgHa[0];
+      atHigh = prices.grainPricePerKg * plateau - prices.nutrientPricePerKg * high;
+      atHigh -= high > 0 ? (prices.applicationCostPerHa ?? 0) : 0;
+    }
     if (!(atHigh > zero)) {
       const c = core(fit, pr, 'full-response-does-not-pay', 'zero', 0);
       c.uncappedRateKgHa = 0;
@@ -156,7 +168,8 @@ export function optimumCore(fit: CurveSummary, prices: Prices): OptimumCore {
     }
     const c = core(fit, pr, 'full-response', 'join-in-first-interval', null);
     c.rangeKgHa = [low, high];
-    c.yieldKgHa = curveValue(fit.model, fit.params, high);
+    const yHigh = curveValue(fit.model, fit.params, high);
+    c.yieldKgHa = Number.isFinite(yHigh) ? yHigh : plateau;
     c.netReturnPerHa = atHigh;
     c.gainOverCheckPerHa = atHigh - zero;
     return c;

@@ -168,6 +168,7 @@ export function assembleReport(
       findings: found.bySite.get(s.site) ?? [],
       priced: priced.sites[index],
       blocksAsked: a.blocks,
+      intervalLevel: a.intervalLevel,
     }),
   );
   const runWarnings = [...(meta.warnings ?? []), ...found.run.slice(0, 10)];
@@ -207,6 +208,7 @@ function siteReport(
     findings: string[];
     priced: PricedSite;
     blocksAsked: 'auto' | 'none';
+    intervalLevel: number;
   },
 ): SiteReport {
   const rates = Array.from(used.rateKgHa);
@@ -248,6 +250,18 @@ function siteReport(
         modelShares: { ...interval.modelShares },
       }
     : null;
+  const opt = bestFit ? c.priced.optimum : null;
+  const basis = bestFit ? (c.priced.lead.basis ?? null) : null;
+  const fullRange = opt?.status === 'join-in-first-interval' ? opt.rangeKgHa : null;
+  const recommendation: SiteReport['recommendation'] = {
+    rateKgHa: fullRange ? fullRange[1] : (opt?.rateKgHa ?? null),
+    rangeKgHa: fullRange ? [fullRange[0], fullRange[1]] : null,
+    ciKgHa: interval?.ciKgHa ?? null,
+    level: interval?.level ?? c.intervalLevel,
+    model: bestFit ? choice.model : null,
+    basis,
+    sentence: basis === 'no-response' && opt ? opt.explanation : '',
+  };
   const sharesWarning = bootstrap ? intervalSharesWarning(bootstrap) : null;
   if (sharesWarning) warnings.push(sharesWarning);
   const models: ModelRow[] = all
@@ -267,7 +281,7 @@ function siteReport(
       'The curves that fit this site put the optimum far apart (see the optimum of each model): the choice of model matters here, so weigh the interval and the other curves before acting on one rate.',
     );
   const bestRow = bestFit ? c.rows.get(bestFit.model)! : null;
-  if (bestRow?.optimumStatus === 'capped-at-highest')
+  if (bestRow?.optimumStatus === 'capped-at-highest' && basis !== 'no-response')
     warnings.push(
       'The optimum lies at or beyond the highest tested rate; the trial did not test high enough to find it.',
     );
@@ -288,9 +302,10 @@ function siteReport(
     bestModelReason: choice.reason,
     bestModelPicked: choice.picked,
     bootstrap,
+    recommendation,
     profitableRangeKgHa: bestFit ? c.priced.profitableRangeKgHa : null,
     optimumSpreadKgHa,
-    returnAtOptimumPerHa: bestRow?.gainOverCheckPerHa ?? null,
+    returnAtOptimumPerHa: basis === 'no-response' ? 0 : (bestRow?.gainOverCheckPerHa ?? null),
     designText,
     residuals: bestFit
       ? rates.map((rateKgHa, i) => ({

@@ -12,6 +12,7 @@ import { formatQuantity } from '../units/formatQuantity';
 import { products } from '../units/products';
 import { priceWeightName } from './reportSettings';
 import type { TrialReport } from './trialReport';
+import { fullResponseSentence } from '../economics/decisionSentences';
 import { unitScale } from './unitScale';
 
 /** A label and its value, one line of a facts table. */
@@ -60,6 +61,12 @@ export interface GrowerPage {
 function applicationRound(v: number, rateUnit: string): number {
   const step = rateUnit === 'g/m2' ? 0.5 : 5;
   return Math.round(v / step) * step;
+}
+
+/** The same, rounded down: for a rate that must not be exceeded (a full response's top). */
+function applicationRoundDown(v: number, rateUnit: string): number {
+  const step = rateUnit === 'g/m2' ? 0.5 : 5;
+  return Math.floor(v / step + 1e-9) * step;
 }
 
 /** How sure the optimum is, in words a grower uses, from its interval (display units). */
@@ -205,6 +212,57 @@ export function growerPage(report: TrialReport, which: string | 'region'): Growe
       ? `Response curve: ${best.label.toLowerCase()}, ${s.bestModelPicked ? s.bestModelReason : `chosen for the ${s.bestModelReason}`}.`
       : 'No response curve gave a usable optimum.',
   ];
+  const rec = s.recommendation;
+  const recCertainty = (rate: number) => {
+    const ci = s.bootstrap?.ciKgHa ?? null;
+    return certaintyOf(
+      u.rate(rate),
+      ci ? [u.rate(ci[0]), u.rate(ci[1])] : null,
+      (v) => `${formatQuantity(applicationRound(v, ru), ru, 0).replace(ru, nutrientUnit(ru))}`,
+      s.bootstrap?.level ?? 0.9,
+      u.rate(rates[rates.length - 1] ?? 0),
+    );
+  };
+  if (best && rec.basis === 'no-response') {
+    // siteDecision: the rate effect was tested and not significant, so no N from this trial.
+    return {
+      ...base,
+      subject: s.site,
+      recommendation:
+        'Apply no N on the strength of this trial: it found no yield response to N here',
+      productRecommendation: '',
+      rate: 0,
+      facts: [],
+      certainty: recCertainty(0),
+      basis,
+      warnings: [rec.sentence, ...warnings],
+    };
+  }
+  if (best && rec.basis === 'full-response' && rec.rangeKgHa && rec.rateKgHa !== null) {
+    const [low, high] = rec.rangeKgHa;
+    // "No more than": the top of the range rounded down to a spreader setting.
+    const top = applicationRoundDown(u.rate(high), ru);
+    const topText = formatQuantity(top, ru, 0).replace(ru, nutrientUnit(ru));
+    const facts: GrowerFact[] = [
+      { label: 'Best rate lies between', value: `${fmtRate(low)} and ${topText}` },
+    ];
+    if (s.returnAtOptimumPerHa !== null)
+      facts.push({
+        label: 'Net return over no N',
+        value: money(s.returnAtOptimumPerHa),
+      });
+    return {
+      ...base,
+      subject: s.site,
+      recommendation: `Apply no more than ${topText}`,
+      productRecommendation: productText(high),
+      rate: top,
+      facts,
+      certainty: recCertainty(high),
+      basis,
+      warnings: [fullResponseSentence(fmtRate(low), topText), ...warnings],
+    };
+  }
   if (!best || best.optimumRateKgHa === null) {
     return {
       ...base,

@@ -41,6 +41,22 @@ export interface ResultsSite {
   } | null;
   lackOfFit: { model: ModelName; F: number; df1: number; df2: number; p: number } | null;
   bestModel: ModelName | null;
+  /**
+   * The site's recommendation in the output units (shared/analysis/siteDecision): `rate` is the
+   * optimum; for "full-response" the second-lowest tested rate, at or below which the optimum
+   * lies (0 when even that does not pay); for "no-response" 0. `interval` is the bootstrap
+   * interval at `level` (for "no-response" it reaches down to 0). `basis`: "curve" (a curve's
+   * optimum), "full-response" (full response by the lowest non-zero rate), "no-response" (the
+   * rate effect was not significant), "no-plateau" (no curve levelled off; a straight line's
+   * corner). Null rate, model and basis when the site has no leading model.
+   */
+  recommendation: {
+    rate: number | null;
+    interval: [number, number] | null;
+    level: number;
+    model: ModelName | null;
+    basis: 'curve' | 'full-response' | 'no-response' | 'no-plateau' | null;
+  };
   /** Lowest and highest optimum rate of the ranked curves; null with fewer than two. */
   optimumSpread: [number, number] | null;
   /**
@@ -162,6 +178,17 @@ export function resultsJson(report: TrialReport): ResultsJson {
           }
         : null,
       bestModel: s.bestModel,
+      recommendation: {
+        rate: cleanOrNull(
+          s.recommendation.rateKgHa === null ? null : u.rate(s.recommendation.rateKgHa),
+        ),
+        interval: s.recommendation.ciKgHa
+          ? [clean(u.rate(s.recommendation.ciKgHa[0])), clean(u.rate(s.recommendation.ciKgHa[1]))]
+          : null,
+        level: s.recommendation.level,
+        model: s.recommendation.model,
+        basis: s.recommendation.basis,
+      },
       optimumSpread: s.optimumSpreadKgHa
         ? [clean(u.rate(s.optimumSpreadKgHa[0])), clean(u.rate(s.optimumSpreadKgHa[1]))]
         : null,

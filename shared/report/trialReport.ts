@@ -7,6 +7,7 @@
  * stage touches only assembleReport, not every writer.
  */
 import type { ModelName, FitStatus } from '../models/modelTypes';
+import type { RecommendationBasis } from '../analysis/siteDecision';
 import type { ResponseOverCheckOutcome } from '../analysis/siteResponseOverCheck';
 import type { IntervalBasis, OptimumShares } from '../economics/optimumInterval';
 import type { MappingEntry } from '../import/mappingEntries';
@@ -107,6 +108,8 @@ export interface SiteReport {
   /** True when the analyst picked bestModel over the recommendation model (the reason says which). */
   bestModelPicked: boolean;
   bootstrap: BootstrapSummary | null;
+  /** The site's recommendation as its decision makes it (shared/analysis/siteDecision). */
+  recommendation: SiteRecommendation;
   /**
    * Rates whose return over the check, from the chosen curve, is within
    * `bandPerHa` of the best, kg/ha; null without a chosen model.
@@ -127,6 +130,29 @@ export interface SiteReport {
   ratesKgHa: number[];
   /** Findings a reader must see next to the numbers. */
   warnings: string[];
+}
+
+/** A site's recommendation: rate, interval and what it rests on. */
+export interface SiteRecommendation {
+  /**
+   * The recommended rate, kg/ha: the optimum; for a full response that pays, the top of its
+   * range (the optimum lies at or below it); 0 for no response; null without a leading model.
+   */
+  rateKgHa: number | null;
+  /** For a full response that pays: the rates the optimum lies between, kg/ha; else null. */
+  rangeKgHa: [number, number] | null;
+  /** The bootstrap interval of the optimum, kg/ha; null without one. */
+  ciKgHa: [number, number] | null;
+  /** The interval's level, e.g. 0.9. */
+  level: number;
+  model: ModelName | null;
+  /** What it rests on; null without a leading model. */
+  basis: RecommendationBasis | null;
+  /**
+   * The plain sentence that goes with no response (noResponseSentence); "" otherwise (a full
+   * response's sentence needs the display units: fullResponseSentence).
+   */
+  sentence: string;
 }
 
 export interface AcrossSitesReport {

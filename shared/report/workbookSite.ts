@@ -9,6 +9,7 @@ import { intervalBasisText, intervalSharesText } from './intervalShares';
 import type ExcelJS from 'exceljs';
 import type { SiteReport, TrialReport } from './trialReport';
 import type { UnitScale } from './unitScale';
+import { fullResponseSentence } from '../economics/decisionSentences';
 import { workbookGainOverCheck } from './workbookGainOverCheck';
 import {
   P_VALUE_FORMAT,
@@ -220,6 +221,12 @@ export function workbookSite(
     if (m.model === site.bestModel) row.font = { bold: true };
   }
   ws.getCell(r++, 1).value = `Chosen: ${site.bestModelReason}.`;
+  const rec = site.recommendation;
+  if (rec.basis === 'no-response') ws.getCell(r++, 1).value = `Recommendation: ${rec.sentence}`;
+  if (rec.basis === 'full-response' && rec.rangeKgHa) {
+    const [low, high] = rec.rangeKgHa.map((x) => `${formatRate(u.rate(x))} ${rN}`);
+    ws.getCell(r++, 1).value = `Recommendation: ${fullResponseSentence(low, high)}`;
+  }
   if (site.bootstrap) {
     const b = site.bootstrap;
     ws.getCell(r++, 1).value =

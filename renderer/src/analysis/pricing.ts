@@ -12,6 +12,7 @@ import type { ModelName } from '../../../shared/models/modelTypes';
 import type { TrialAnalysis } from '../../../shared/analysis/analyzeTrial';
 import { leadingModel } from '../../../shared/analysis/leadingModel';
 import type { PricedTrial } from '../../../shared/analysis/priceTrial';
+import type { RecommendationBasis } from '../../../shared/analysis/siteDecision';
 import type { RegionalReturn } from '../../../shared/analysis/regionalReturn';
 import type { FitData, SiteAnalysis } from './siteAnalysis';
 
@@ -34,6 +35,8 @@ export interface SiteOptimum {
   model: ModelName | null;
   fit: FitData | null;
   optimum: EconomicOptimum | null;
+  /** What the recommendation rests on (siteDecision); null without a leading model. */
+  basis: RecommendationBasis | null;
   /** The bootstrap interval of the optimum, kg/ha; null when there is none. */
   intervalKgHa: [number, number] | null;
   /**
@@ -61,6 +64,7 @@ export function siteOptima(sites: readonly SiteAnalysis[], priced: PricedTrial):
       model,
       fit,
       optimum: fit ? p.optimum : null,
+      basis: fit ? (p.lead.basis ?? null) : null,
       intervalKgHa: fit ? (p.interval?.ciKgHa ?? null) : null,
       spreadKgHa: p?.acrossModels?.warning
         ? [p.acrossModels.lowestRateKgHa, p.acrossModels.highestRateKgHa]
