@@ -166,12 +166,19 @@ function summary(report: TrialReport): string[] {
   const lines: string[] = [];
   const show = report.sites.slice(0, 20);
   for (const s of show) {
-    const m = s.models.find((x) => x.model === s.bestModel);
-    const ci = s.bootstrap?.ciKgHa;
+    // The site's recommendation as its decision makes it (no response, full response, a curve).
+    const r = s.recommendation;
+    const m = s.models.find((x) => x.model === r.model);
+    const ci = r.ciKgHa ? ` (${rate(r.ciKgHa[0])} to ${rate(r.ciKgHa[1])})` : '';
     const y = m?.yieldAtOptimumKgHa;
-    const text = m
-      ? `${m.label}, optimum ${rate(m.optimumRateKgHa)}${ci ? ` (${rate(ci[0])} to ${rate(ci[1])})` : ''}${y != null ? `, yield ${formatQuantity(u.yield(y), report.settings.units.yield)}` : ''}`
-      : 'no rate (see the report)';
+    const yieldText =
+      y != null ? `, yield ${formatQuantity(u.yield(y), report.settings.units.yield)}` : '';
+    let text = 'no rate (see the report)';
+    if (r.basis === 'no-response') text = `no response to N found: no N${ci}`;
+    else if (r.basis === 'full-response' && r.rangeKgHa)
+      text = `full response by the lowest rate: at most ${rate(r.rangeKgHa[1])}${ci}`;
+    else if (m && r.rateKgHa !== null)
+      text = `${m.label}, optimum ${rate(r.rateKgHa)}${ci}${yieldText}`;
     lines.push(`${s.site}: ${text}`);
   }
   if (report.sites.length > show.length)
