@@ -8,6 +8,7 @@ import { fitAllModels, type AllModelsFit } from '../models/fitAllModels';
 import type { BlockTerms, ModelFit, ModelName } from '../models/modelTypes';
 import { StatsInputError } from '../stats/errors';
 import { defaultBlockTerms } from '../stats/hasBlocks';
+import { fitRateBlockModel } from '../stats/rateBlockModel';
 import { testIntercept } from '../stats/interceptTest';
 import { pearsonCorrelation, type PearsonResult } from '../stats/pearson';
 import { bootstrapSeed } from './analysisSettings';
@@ -119,7 +120,13 @@ export function analyzeSite(
 ): SiteAnalysis {
   const { blocks, alpha, curvePoints } = settings;
   const b = siteBlocks(site, blocks);
-  const rateEffect = siteRateEffect(site);
+  // One rate + block model per site, read by the rate effect and the ANOVA alike.
+  const rateBlock = fitRateBlockModel({
+    rateKgHa: site.rateKgHa,
+    yieldKgHa: site.yieldKgHa,
+    block: site.block,
+  });
+  const rateEffect = siteRateEffect(site, rateBlock);
   const responded = rateEffect.test.kind === 'f-test' && rateEffect.test.p < alpha;
   let fits: AllModelsFitData | null = null;
   let problem = site.problem;
@@ -157,7 +164,7 @@ export function analyzeSite(
     responseOverCheck = siteResponseOverCheck(site, alpha);
   }
   const rates = Array.from(site.rateKgHa);
-  const { anova, means } = siteAnova(rates, Array.from(site.yieldKgHa), [...site.block]);
+  const { anova, means } = siteAnova(rates, Array.from(site.yieldKgHa), [...site.block], rateBlock);
   let draws: BootstrapDraws | null = null;
   if (fits && settings.resamples > 0 && new Set(rates).size >= 2) {
     const drawn = (Object.keys(fits.fits) as ModelName[]).filter(

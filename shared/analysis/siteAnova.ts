@@ -4,7 +4,11 @@
  * the rate effect read, laid out as the workbook's table: the rate-as-a-factor view beside the
  * curves.
  */
-import { fitRateBlockModel } from '../stats/rateBlockModel';
+import {
+  fitRateBlockModel,
+  type RateBlockModel,
+  type RateBlockProblem,
+} from '../stats/rateBlockModel';
 
 /** Treatment mean ± SE by rate, kg/ha. */
 export interface TreatmentMeanRow {
@@ -42,6 +46,7 @@ export interface AnovaSummary {
  * @param rates - rate of each plot used, kg/ha
  * @param yields - yield of each plot used, kg/ha
  * @param blocks - block label of each plot, null where there is none
+ * @param fitted - the same plots' rate + block model when the caller has fitted it already
  * @returns the ANOVA table and the means, or null and [] when there are too few
  *   replicates or rates (the sheet then says there is no ANOVA)
  * @example
@@ -51,8 +56,9 @@ export function siteAnova(
   rates: number[],
   yields: number[],
   blocks: (string | null)[],
+  fitted?: RateBlockModel | RateBlockProblem,
 ): { anova: AnovaSummary | null; means: TreatmentMeanRow[] } {
-  const m = fitRateBlockModel({ rateKgHa: rates, yieldKgHa: yields, block: blocks });
+  const m = fitted ?? fitRateBlockModel({ rateKgHa: rates, yieldKgHa: yields, block: blocks });
   // Too few replicates or rates, or identical yields: no ANOVA, which the sheet says.
   if ('problem' in m) return { anova: null, means: [] };
   const line = (

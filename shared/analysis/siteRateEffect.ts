@@ -11,7 +11,11 @@
  * - no residual degrees of freedom (one plot per rate and block cell missing): no test;
  * - blocks confounded with rates: no test.
  */
-import { fitRateBlockModel } from '../stats/rateBlockModel';
+import {
+  fitRateBlockModel,
+  type RateBlockModel,
+  type RateBlockProblem,
+} from '../stats/rateBlockModel';
 import type { FTestResult, NoTest } from './extraSumOfSquaresTest';
 import type { SitePlots } from './sitePlots';
 
@@ -27,21 +31,23 @@ export interface SiteRateEffect {
 /**
  * Rate effect and CV of one site.
  * @param site - the site's plots (rates and yields in kg/ha)
+ * @param fitted - the site's rate + block model when the caller has fitted it already
  * @returns the F-test of the rate effect, CV% and the mean yield (kg/ha)
  * @example
  * const e = siteRateEffect(site);
  * e.test.kind === 'f-test' && e.test.p < 0.05 // the site responded
  */
-export function siteRateEffect(site: SitePlots): SiteRateEffect {
+export function siteRateEffect(
+  site: SitePlots,
+  fitted?: RateBlockModel | RateBlockProblem,
+): SiteRateEffect {
   const n = site.yieldKgHa.length;
   let mean = 0;
   for (let i = 0; i < n; i++) mean += site.yieldKgHa[i];
   mean = n > 0 ? mean / n : NaN;
-  const model = fitRateBlockModel({
-    rateKgHa: site.rateKgHa,
-    yieldKgHa: site.yieldKgHa,
-    block: site.block,
-  });
+  const model =
+    fitted ??
+    fitRateBlockModel({ rateKgHa: site.rateKgHa, yieldKgHa: site.yieldKgHa, block: site.block });
   if ('problem' in model) {
     const reason = n === 0 ? (site.problem ?? model.problem) : model.problem;
     return { test: { kind: 'no-test', reason }, cvPct: NaN, meanYieldKgHa: mean };
