@@ -7,7 +7,7 @@ import { economicOptimum } from '../shared/economics/economicOptimum';
 import { reportOf } from './report.pipeline';
 import { growerPage } from '../shared/report/growerPage';
 import type { ReportSettings } from '../shared/report/reportSettings';
-import { priceTerms } from '../shared/report/reportSettings';
+import { priceTerms } from '../shared/economics/priceQuote';
 import { analyzeAcrossSites } from '../shared/analysis/analyzeAcrossSites';
 
 const table = syntheticPlotTable({ sites: 3, seed: 5 });

@@ -8,7 +8,7 @@
  * a re-pricing of this result, never a refit.
  */
 import { checkQuality } from '../quality/checkQuality';
-import type { QualityFinding } from '../quality/qualityFinding';
+import type { QualityFinding } from '../table/qualityFinding';
 import type { CropId, PlotTable } from '../table/plotTable';
 import { acrossSites, type AcrossSiteAnalysis } from './acrossSites';
 import { CURVE_POINTS, type AnalysisSettings } from './analysisSettings';

@@ -18,7 +18,8 @@ import { describeRef, type QualityFinding } from '../table/qualityFinding';
 import type { Plot } from '../table/plotTable';
 import { intervalSharesWarning } from './intervalShares';
 import { fitMessage, optimumNote } from './modelNotes';
-import { priceTerms, type DisplaySettings } from './reportSettings';
+import { priceTerms } from '../economics/priceQuote';
+import type { DisplaySettings } from './reportSettings';
 import { isBlockLabel } from '../stats/hasBlocks';
 import type {
   AcrossSitesReport,

@@ -10,7 +10,7 @@ import { recommendationCautions } from '../economics/recommendationCautions';
 import { crops } from '../units/crops';
 import { formatQuantity } from '../units/formatQuantity';
 import { products } from '../units/products';
-import { priceWeightName } from './reportSettings';
+import { priceWeightName } from '../units/unitWeights';
 import type { TrialReport } from './trialReport';
 import { fullResponseSentence } from '../economics/decisionSentences';
 import { unitScale } from './unitScale';

@@ -10,10 +10,6 @@ import type { CropId } from '../table/plotTable';
 import type { DisplayUnits } from '../units/displayUnits';
 import type { PaperSize } from './paperSize';
 
-export type { PriceInput, PriceTerms } from '../economics/priceQuote';
-export { priceRatioQuote, priceTerms } from '../economics/priceQuote';
-export { priceWeightName, rateUnitKg, yieldUnitKg } from '../units/unitWeights';
-
 /** The units numbers are shown in (JSON, workbook, PDF). */
 export type ReportUnits = DisplayUnits;
 

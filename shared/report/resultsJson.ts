@@ -6,7 +6,7 @@
  */
 import type { ModelName, FitStatus } from '../models/modelTypes';
 import type { TrialReport } from './trialReport';
-import { priceRatioQuote } from './reportSettings';
+import { priceRatioQuote } from '../economics/priceQuote';
 import { unitScale } from './unitScale';
 
 export interface ResultsModel {

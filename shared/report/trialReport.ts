@@ -14,7 +14,8 @@ import type { MappingEntry } from '../import/mappingEntries';
 import type { Plot, SourceFile, CropId } from '../table/plotTable';
 
 export type { MappingEntry } from '../import/mappingEntries';
-import type { ReportSettings, PriceTerms } from './reportSettings';
+import type { PriceTerms } from '../economics/priceQuote';
+import type { ReportSettings } from './reportSettings';
 
 /** One model's fit at one site, as the model table and the JSON show it. */
 export interface ModelRow {

@@ -13,7 +13,7 @@ import type { CropId } from '../table/plotTable';
 import { rateFromKgHa } from '../units/convertRate';
 import { yieldFromKgHa } from '../units/convertYield';
 import { M2_PER_ACRE, M2_PER_HA } from '../units/unitConstants';
-import type { ReportUnits } from './reportSettings';
+import type { DisplayUnits as ReportUnits } from '../units/displayUnits';
 
 /** Converters from canonical kg/ha to the report's units. */
 export interface UnitScale {

@@ -4,7 +4,7 @@
  */
 import type ExcelJS from 'exceljs';
 import { products } from '../units/products';
-import { priceWeightName } from './reportSettings';
+import { priceWeightName } from '../units/unitWeights';
 import type { TrialReport } from './trialReport';
 import { fitColumns, setupPage, styleTitle } from './workbookFormat';
 

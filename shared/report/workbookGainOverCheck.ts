@@ -7,7 +7,7 @@
  * side.
  */
 import type ExcelJS from 'exceljs';
-import { priceRatioQuote } from './reportSettings';
+import { priceRatioQuote } from '../economics/priceQuote';
 import type { SiteReport, TrialReport } from './trialReport';
 import type { UnitScale } from './unitScale';
 import {

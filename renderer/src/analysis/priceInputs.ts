@@ -6,16 +6,13 @@
  */
 import { illustrativePrices } from '../../../shared/economics/illustrativePrices';
 import type { Prices } from '../../../shared/economics/priceRatio';
-import {
-  priceRatioQuote,
-  rateUnitKg,
-  yieldUnitKg,
-  type ReportUnits,
-} from '../../../shared/report/reportSettings';
+import { priceRatioQuote } from '../../../shared/economics/priceQuote';
 import type { CropId } from '../../../shared/table/plotTable';
 import type { RateUnit } from '../../../shared/units/convertRate';
 import type { YieldUnit } from '../../../shared/units/convertYield';
+import { displayUnits } from '../../../shared/units/displayUnits';
 import type { ProductId } from '../../../shared/units/products';
+import { rateUnitKg, yieldUnitKg } from '../../../shared/units/unitWeights';
 import { M2_PER_ACRE, M2_PER_HA } from '../../../shared/units/unitConstants';
 
 /** The price inputs, canonical. */
@@ -125,7 +122,5 @@ export function priceRatioDisplay(
   system: 'us' | 'metric',
   crop: CropId,
 ): { value: number; unit: string } {
-  const units: ReportUnits =
-    system === 'us' ? { rate: 'lb/ac', yield: 'bu/ac' } : { rate: 'kg/ha', yield: 't/ha' };
-  return priceRatioQuote(ratioKgPerKg, units, crop);
+  return priceRatioQuote(ratioKgPerKg, displayUnits(system), crop);
 }

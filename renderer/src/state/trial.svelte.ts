@@ -7,7 +7,7 @@ import { buildPlotTable } from '../../../shared/import/buildPlotTable';
 import { isImportError } from '../../../shared/import/importError';
 import type { RawWorkbook } from '../../../shared/import/rawWorkbook';
 import { checkQuality } from '../../../shared/quality/checkQuality';
-import type { QualityFinding } from '../../../shared/quality/qualityFinding';
+import type { QualityFinding } from '../../../shared/table/qualityFinding';
 import type { PlotTable } from '../../../shared/table/plotTable';
 import { applyDecisions, type Edits } from '../analysis/edits';
 import { UndoStack } from '../lib/undoStack';
