@@ -14,9 +14,9 @@ import { analysisSettings } from '../shared/analysis/analysisSettings';
 import { analyzeTrial } from '../shared/analysis/analyzeTrial';
 import { priceTrial } from '../shared/analysis/priceTrial';
 import { illustrativePrices } from '../shared/economics/illustrativePrices';
-import { priceTerms, type PriceInput } from '../shared/economics/priceQuote';
+import { priceTerms, quotePrices, type PriceInput } from '../shared/economics/priceQuote';
 import { importFiles } from '../shared/import/importFiles';
-import { describeRef } from '../shared/quality/qualityFinding';
+import { describeRef } from '../shared/table/qualityFinding';
 import { assembleReport } from '../shared/report/assembleReport';
 import { regionalReturnChart } from '../shared/report/regionalReturnChart';
 import { resultsJson } from '../shared/report/resultsJson';
@@ -26,7 +26,6 @@ import { unitScale } from '../shared/report/unitScale';
 import type { TrialReport } from '../shared/report/trialReport';
 import type { SheetImage } from '../shared/report/workbookSite';
 import { displayUnits, type DisplayUnits } from '../shared/units/displayUnits';
-import { rateUnitKg, yieldUnitKg } from '../shared/units/unitWeights';
 import { formatQuantity } from '../shared/units/formatQuantity';
 import type { AnalyzeArgs } from './parseArgs';
 import { UsageError } from './usageError';
@@ -112,7 +111,7 @@ function readInputs(files: string[]): { name: string; bytes: Uint8Array }[] {
 
 /** Prices from the options, filling what is missing with the illustrative ones (as the workspace does). */
 function pricesFrom(args: AnalyzeArgs, units: DisplayUnits): PriceInput {
-  const d = illustrativePrices(args.crop);
+  const illustrative = quotePrices(illustrativePrices(args.crop), units, args.crop, true);
   const nutrientGiven = args.nutrientPrice !== null || args.product !== null;
   const product = args.product
     ? args.productPrice !== null
@@ -120,9 +119,9 @@ function pricesFrom(args: AnalyzeArgs, units: DisplayUnits): PriceInput {
       : null
     : nutrientGiven
       ? null
-      : { id: d.productId, price: d.productPerKg * rateUnitKg(units.rate) };
+      : illustrative.product;
   return {
-    grainPrice: args.grainPrice ?? d.grainPerKg * yieldUnitKg(units.yield, args.crop),
+    grainPrice: args.grainPrice ?? illustrative.grainPrice,
     nutrientPrice: product ? null : args.nutrientPrice,
     product,
     defaulted: args.grainPrice === null || !nutrientGiven,

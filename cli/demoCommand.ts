@@ -10,8 +10,8 @@ import path from 'node:path';
 import { writeFileAtomic } from '../electron/atomicWrite';
 import { demoTrial, writeDemoWorkbook, demoSheetNames } from '../shared/demo';
 import { illustrativePrices } from '../shared/economics/illustrativePrices';
+import { quotePrices } from '../shared/economics/priceQuote';
 import { displayUnits } from '../shared/units/displayUnits';
-import { rateUnitKg, yieldUnitKg } from '../shared/units/unitWeights';
 import { analyzeCommand, type Console2 } from './analyzeCommand';
 import { analyzeDefaults } from './parseArgs';
 
@@ -46,9 +46,9 @@ export async function demoCommand(dir: string, log: Console2, version: string): 
   // The illustrative prices the workspace starts from (one owner), quoted in each run's units.
   const quoted = (crop: 'corn' | 'wheat', system: 'us' | 'metric') => {
     const p = illustrativePrices(crop);
-    const units = displayUnits(system);
-    const grainPrice = p.grainPerKg * yieldUnitKg(units.yield, crop);
-    const ureaPrice = p.productPerKg * rateUnitKg(units.rate);
+    const q = quotePrices(p, displayUnits(system), crop, true);
+    const grainPrice = q.grainPrice;
+    const ureaPrice = q.product!.price;
     const nPrice = ureaPrice / (p.analysisPct / 100);
     const per = system === 'us' ? { grain: 'bu', n: 'lb' } : { grain: 't', n: 'kg' };
     const text = `illustrative prices ${grainPrice.toFixed(2)}/${per.grain} and urea at ${ureaPrice.toFixed(2)}/${per.n}, ${nPrice.toFixed(2)}/${per.n} N`;

@@ -124,3 +124,50 @@ export function priceTerms(settings: {
     applicationCostPerHa,
   };
 }
+
+/** Prices per kg as the engine keeps them: grain, and a product with its N content. */
+export interface PricesPerKg {
+  /** Grain, currency per kg at standard moisture. */
+  grainPerKg: number;
+  /** The product bought, e.g. urea ("nitrogen" for N itself). */
+  productId: ProductId;
+  /** N content of the product, % by weight. */
+  analysisPct: number;
+  /** Product, currency per kg of product. */
+  productPerKg: number;
+  /** Cost of making an application at all, currency per ha; default 0. */
+  applicationPerHa?: number;
+}
+
+/**
+ * Per-kg prices quoted the way the trade writes them in the display units: grain per bushel,
+ * tonne, kg or lb; the product per lb or kg of product, or, when its N content differs from
+ * the product list's (the user changed the analysis), per lb or kg of N, so that priceTerms
+ * gives back exactly the nutrient price per kg it was given.
+ * @param prices - per-kg prices
+ * @param units - display units
+ * @param crop - the crop, for the bushel weight
+ * @param defaulted - true for the built-in illustrative prices
+ * @returns the prices as quoted
+ * @example
+ * quotePrices({ grainPerKg: 4.5 / 25.40117272, productId: 'urea', analysisPct: 46, productPerKg: 0.5732 },
+ *   { rate: 'lb/ac', yield: 'bu/ac' }, 'corn', false).grainPrice // 4.5 (per bushel)
+ */
+export function quotePrices(
+  prices: PricesPerKg,
+  units: DisplayUnits,
+  crop: CropId,
+  defaulted: boolean,
+): PriceInput {
+  const asListed = products(prices.productId).nitrogenPct === prices.analysisPct;
+  const perRateWeight = rateUnitKg(units.rate);
+  return {
+    grainPrice: prices.grainPerKg * yieldUnitKg(units.yield, crop),
+    nutrientPrice: asListed
+      ? null
+      : (prices.productPerKg / (prices.analysisPct / 100)) * perRateWeight,
+    product: asListed ? { id: prices.productId, price: prices.productPerKg * perRateWeight } : null,
+    defaulted,
+    applicationCostPerHa: prices.applicationPerHa ?? 0,
+  };
+}

@@ -3,13 +3,12 @@
  * priced view: display units and the prices in the form the report quotes them
  * (with the application cost).
  */
+import { quotePrices } from '../../../shared/economics/priceQuote';
 import { paperSize } from '../../../shared/report/paperSize';
 import type { DisplaySettings } from '../../../shared/report/reportSettings';
-import { rateUnitKg, yieldUnitKg } from '../../../shared/units/unitWeights';
 import type { CropId } from '../../../shared/table/plotTable';
 import type { RateUnit } from '../../../shared/units/convertRate';
 import type { YieldUnit } from '../../../shared/units/convertYield';
-import { products } from '../../../shared/units/products';
 import type { PriceSettings } from './priceInputs';
 
 /**
@@ -30,20 +29,10 @@ export function reportDisplay(
   crop: CropId,
   locale: string | null = null,
 ): DisplaySettings {
-  const asListed = products(prices.productId).nitrogenPct === prices.analysisPct;
-  const nutrientPerKg = prices.productPerKg / (prices.analysisPct / 100);
   return {
     units,
     unitSystem: system,
     paper: paperSize(units, locale),
-    prices: {
-      grainPrice: prices.grainPerKg * yieldUnitKg(units.yield, crop),
-      nutrientPrice: asListed ? null : nutrientPerKg * rateUnitKg(units.rate),
-      product: asListed
-        ? { id: prices.productId, price: prices.productPerKg * rateUnitKg(units.rate) }
-        : null,
-      defaulted: prices.illustrative,
-      applicationCostPerHa: prices.applicationPerHa,
-    },
+    prices: quotePrices(prices, units, crop, prices.illustrative),
   };
 }
