@@ -3,6 +3,7 @@
  * R² is the uncentered one (about zero). Its fits are in shared/models/proportional.
  */
 import type { ModelCurve } from '../modelCurve';
+import { lineCornerOptimum } from './linear';
 
 /** The proportional model's curve. */
 export const proportionalCurve = {
@@ -23,10 +24,7 @@ export const proportionalCurve = {
   },
   curveValue: (p, x) => p.b * x,
   // A corner, as for the straight line.
-  optimum: (p, pr, highestKgHa) => ({
-    rateKgHa: p.b > pr ? highestKgHa : 0,
-    agronomicMaxKgHa: p.b > 0 ? highestKgHa : 0,
-  }),
+  optimum: lineCornerOptimum,
   isCurve: false,
   linearInParameters: true,
   limit: null,
