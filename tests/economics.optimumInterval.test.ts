@@ -10,7 +10,9 @@ import { analyzeSite } from '../shared/analysis/analyzeSite';
 import { priceSite } from '../shared/analysis/priceTrial';
 import { recommendationModel } from '../shared/analysis/recommendationModel';
 import {
+  DRAW_STATUSES,
   drawBootstrapEstimates,
+  drawStatus,
   type BootstrapDraws,
   type ModelDraws,
 } from '../shared/economics/bootstrapDraws';
@@ -20,37 +22,26 @@ import { economicOptimum } from '../shared/economics/economicOptimum';
 import { optimumInterval } from '../shared/economics/optimumInterval';
 import { aiccFromSse } from '../shared/models/aicc';
 import { chooseModel } from '../shared/models/chooseModel';
+import { MODEL_CURVES } from '../shared/models/curves';
 import { fitAllModels } from '../shared/models/fitAllModels';
 import { MODEL_NAMES, type FitStatus, type ModelName } from '../shared/models/modelTypes';
-import { seededRandom } from '../shared/optimize/seededRandom';
+import { mulberry32 } from '../shared/demo/mulberry32';
 
 const prices = { grainPricePerKg: 0.2, nutrientPricePerKg: 1.2 }; // PR = 6 kg grain/kg N
 const RATES = [0, 40, 80, 120, 160, 200];
 const TESTED = { distinctKgHa: RATES, lowestKgHa: 0, highestKgHa: 200 };
-const STATUS_ORDER: FitStatus[] = [
-  'ok',
-  'no-plateau',
-  'full-response-at-lowest-rate',
-  'convex',
-  'no-response',
-  'too-few-rates',
-];
-
-/** A normal deviate by Box–Muller from the repo's seeded generator. */
-function normal(r: ReturnType<typeof seededRandom>): number {
-  return Math.sqrt(-2 * Math.log(1 - r.next())) * Math.cos(2 * Math.PI * r.next());
-}
 
 /** A 6-rate × 4-block site of a known curve with normal noise (sd in kg/ha). */
 function site(curve: (x: number) => number, sd: number, seed: number) {
-  const r = seededRandom(seed);
+  // The repo's seeded generator with its normal deviates (Box–Muller).
+  const r = mulberry32(seed);
   const rateKgHa: number[] = [];
   const yieldKgHa: number[] = [];
   const block: string[] = [];
   for (let b = 0; b < 4; b++)
     for (const x of RATES) {
       rateKgHa.push(x);
-      yieldKgHa.push(curve(x) + sd * normal(r));
+      yieldKgHa.push(curve(x) + sd * r.normal());
       block.push(`B${b + 1}`);
     }
   return { rateKgHa, yieldKgHa, block };
@@ -64,21 +55,14 @@ function handDraws(
 ): BootstrapDraws {
   const models: BootstrapDraws['models'] = {};
   let resamples = 0;
-  const names: Record<ModelName, string[]> = {
-    linear: ['a', 'b'],
-    proportional: ['b'],
-    quadratic: ['a', 'b', 'c'],
-    linearPlateau: ['a', 'b', 'x0'],
-    quadraticPlateau: ['P', 'c', 'x0'],
-    exponential: ['a', 'b', 'k'],
-  };
   for (const [m, list] of Object.entries(records) as [ModelName, typeof records.linear][]) {
     resamples = list!.length;
-    const k = names[m].length;
+    const paramNames = MODEL_CURVES[m].spec.paramNames;
+    const k = paramNames.length;
     const d: ModelDraws = {
       model: m,
-      paramNames: names[m],
-      status: Uint8Array.from(list!.map((r) => STATUS_ORDER.indexOf(r.status))),
+      paramNames,
+      status: Uint8Array.from(list!.map((r) => DRAW_STATUSES.indexOf(r.status))),
       params: Float64Array.from(list!.flatMap((r) => r.params)),
       sse: Float64Array.from(list!.map((r) => r.sse)),
       parameterCount: parameterCount[m] ?? k,
@@ -211,7 +195,7 @@ describe('drawChoices applies the site rule to each resample', () => {
         const d = draws.models[m]!;
         return {
           model: m,
-          status: STATUS_ORDER[d.status[b]],
+          status: drawStatus(d, b),
           aicc: aiccFromSse(d.sse[b], n, d.parameterCount),
         };
       });

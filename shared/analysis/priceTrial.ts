@@ -111,18 +111,12 @@ function profitableRange(
  */
 function siteInterval(
   draws: BootstrapDraws,
-  lead: SiteLead,
   model: ModelName,
+  picked: boolean,
   prices: Prices,
   level: number,
 ): OptimumInterval | null {
-  return optimumInterval(
-    draws,
-    model,
-    prices,
-    level,
-    lead.picked ? 'fixed-model' : 'model-reselected',
-  );
+  return optimumInterval(draws, model, prices, level, picked ? 'fixed-model' : 'model-reselected');
 }
 
 /**
@@ -192,7 +186,7 @@ export function priceSite(
     };
   }
   const fitted = economicOptimum(fit, prices);
-  const interval = s.draws ? siteInterval(s.draws, lead, lead.model, prices, level) : null;
+  const interval = s.draws ? siteInterval(s.draws, lead.model, lead.picked, prices, level) : null;
   const noResponse = lead.basis === 'no-response';
   return {
     site: s.site,

@@ -33,8 +33,8 @@ import { seededRandom } from '../optimize/seededRandom';
 import { StatsInputError } from '../stats/errors';
 import { applyQTranspose, qrDecompose, solveUpperTriangular } from '../stats/qr';
 
-/** Fit statuses in a fixed order, so a draw stores its status as one byte. */
-const STATUSES: readonly FitStatus[] = [
+/** Fit statuses in a fixed order, so a draw stores its status as one byte (its index here). */
+export const DRAW_STATUSES: readonly FitStatus[] = [
   'ok',
   'no-plateau',
   'full-response-at-lowest-rate',
@@ -192,7 +192,7 @@ export function drawBootstrapEstimates(
         out[model] = d;
       }
       const k = d.paramNames.length;
-      d.status[b] = STATUSES.indexOf(est.status);
+      d.status[b] = DRAW_STATUSES.indexOf(est.status);
       for (let j = 0; j < k; j++) d.params[b * k + j] = est.params[d.paramNames[j]] ?? NaN;
       d.sse[b] = est.sse;
       if (est.joinBetweenKgHa) {
@@ -220,7 +220,7 @@ export function drawBootstrapEstimates(
  * drawStatus(d.models.linearPlateau!, 0) // e.g. 'ok'
  */
 export function drawStatus(d: ModelDraws, b: number): FitStatus {
-  return STATUSES[d.status[b]];
+  return DRAW_STATUSES[d.status[b]];
 }
 
 /**
@@ -251,7 +251,7 @@ export function drawSummaries(
   };
   const k = d.paramNames.length;
   return (b) => {
-    summary.status = STATUSES[d.status[b]];
+    summary.status = DRAW_STATUSES[d.status[b]];
     for (let j = 0; j < k; j++) params[d.paramNames[j]] = d.params[b * k + j];
     summary.joinBetweenKgHa = Number.isNaN(d.joinLowKgHa[b])
       ? null
