@@ -239,7 +239,7 @@ export async function analyzeCommand(
   });
   const siteCount = new Set(imported.table.plots.map((p) => p.site)).size;
   log.err(
-    `plotrate: ${imported.table.plots.length} plots at ${siteCount} site${siteCount === 1 ? '' : 's'}; fitting six models per site${args.boot ? ` with ${args.boot} bootstrap resamples` : ''}`,
+    `plotrate: ${imported.table.plots.length} plots at ${siteCount} site${siteCount === 1 ? '' : 's'}; fitting seven models per site${args.boot ? ` with ${args.boot} bootstrap resamples` : ''}`,
   );
   const step = Math.max(1, Math.ceil(siteCount / 10));
   const analysis = analyzeTrial(imported.table, settings, (done, total) => {

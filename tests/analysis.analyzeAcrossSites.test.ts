@@ -1,5 +1,6 @@
 // The across-site analysis as a whole, on the invented plots of
 // tests/fixtures/sites/pooled.plots.csv (written by pooled.R with R 4.2.2).
+import { MODEL_NAMES } from '../shared/models/curves';
 import { describe, expect, it } from 'vitest';
 import { analyzeAcrossSites } from '../shared/analysis/analyzeAcrossSites';
 import { repriceAcrossSites } from '../shared/analysis/repriceAcrossSites';
@@ -38,7 +39,7 @@ describe('analyzeAcrossSites on the pooled fixture', () => {
       'Gorse Lane',
     ]);
     const gorse = a.rows.filter((r) => r.site === 'Gorse Lane');
-    expect(gorse).toHaveLength(6);
+    expect(gorse).toHaveLength(MODEL_NAMES.length);
     expect(
       gorse.every((r) => r.status === 'not-fitted' && /none of the site's 3 plots/.test(r.message)),
     ).toBe(true);

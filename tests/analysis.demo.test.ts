@@ -6,6 +6,7 @@
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
+import { MODEL_NAMES } from '../shared/models/curves';
 import { buildPlotTable, detectColumns, readTrialFile } from '../shared/import';
 import { demoTrial } from '../shared/demo';
 import { analyzeAcrossSites, type AcrossSiteAnalysis } from '../shared/analysis';
@@ -45,7 +46,7 @@ describe('analyzeAcrossSites on the demo corn sites', () => {
     const plots = Object.fromEntries(a.sites.map((s) => [s.site, s.plots]));
     expect(plots[demo.quirks.missingPlot.site]).toBe(23);
     expect(plots[demo.quirks.excluded.site]).toBe(23);
-    expect(a.rows).toHaveLength(6 * 6);
+    expect(a.rows).toHaveLength(6 * MODEL_NAMES.length);
   });
 
   it('counts the flat site as not responded and the five sites built with a response as responded', () => {

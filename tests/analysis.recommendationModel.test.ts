@@ -79,7 +79,7 @@ describe('recommendationModel follows the rule in its header', () => {
       ],
       model: 'linearPlateau',
       reason:
-        /^full response by the lowest non-zero rate, lowest AICc among the curves with a usable rate, ΔAICc 3\.5 from the best$/,
+        /^full response by the lowest non-zero rate, ΔAICc 3\.5 behind the quadratic-plateau, within 4 units: the data cannot tell the two apart, and the lower answer is kept$/,
     },
     {
       name: 'says why a better fit does not lead when the lead is more than 4 AICc behind',

@@ -102,7 +102,7 @@ describe('renderer analysis and re-pricing', () => {
     );
     const [site] = siteViews(out);
     expect(siteLeads(out, {})[site.site]).toBe(site.recommended);
-    expect(['quadratic', 'linearPlateau', 'quadraticPlateau', 'exponential']).toContain(
+    expect(['quadratic', 'linearPlateau', 'quadraticPlateau', 'exponential', 'step']).toContain(
       site.recommended,
     );
     const mine = { [site.site]: 'linear' as const };

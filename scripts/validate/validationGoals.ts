@@ -66,7 +66,10 @@ export function validationGoals(
       met: c >= GOALS.coverage.low && c <= GOALS.coverage.high,
     });
   }
+  // A full response is answered with a range, (0, second-lowest rate], not one rate: its
+  // figures are the share placed above that range and whether the interval holds the truth.
   for (const f of truths) {
+    if (f.truth === 'full-response') continue;
     checks.push({
       figure: 'mean bias of the recommended rate, kg/ha',
       on: f.truth,
@@ -93,6 +96,13 @@ export function validationGoals(
       value: full.aboveSecondLowest.share,
       goal: `≤ ${GOALS.fullResponseAboveSecondLowest}`,
       met: full.aboveSecondLowest.share <= GOALS.fullResponseAboveSecondLowest,
+    });
+    checks.push({
+      figure: `the ${Math.round(full.intervalLevel * 100)} % interval holds the true optimum`,
+      on: 'full-response',
+      value: full.coverage.share,
+      goal: `≥ ${GOALS.coverage.low}`,
+      met: full.coverage.share >= GOALS.coverage.low,
     });
   }
   for (const t of NULL_GAIN_TRUTHS) {

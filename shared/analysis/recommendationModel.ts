@@ -15,8 +15,10 @@
  *    tested rate, a range); no plateau, an upward-opening quadratic and no
  *    response give none.
  * 2. Among the candidates the curves (the models whose curve entry says
- *    `isCurve`: the quadratic, linear-plateau, quadratic-plateau and exponential
- *    rise) come first, lowest AICc first: a
+ *    `isCurve`: the quadratic, linear-plateau, quadratic-plateau, exponential
+ *    rise and the check vs fertilized step) come first, lowest AICc first (a full
+ *    response leads unless a curve with one rate fits better by more than
+ *    FULL_RESPONSE_DELTA_AICC, shared/models/chooseModel): a
  *    straight line never levels off and only gives a corner (no N or the
  *    highest tested rate), which is no recommendation a grower can use when a
  *    curve is available.
@@ -32,7 +34,7 @@
  * (repriceAcrossSites) keeps the same model at every site and agrees with a
  * fresh analysis at the new prices.
  */
-import { chooseModel } from '../models/chooseModel';
+import { chooseModel, FULL_RESPONSE_DELTA_AICC } from '../models/chooseModel';
 import type { ModelRank } from '../models/fitAllModels';
 import { MODEL_CURVES, modelLabelInText } from '../models/curves';
 import type { FitStatus, ModelName } from '../models/modelTypes';
@@ -89,13 +91,23 @@ export function recommendationModel(all: RankedFits): RecommendationModel {
       reason: `no curve gave an optimum; a straight line gives only a corner rate${why}`,
     };
   }
+  const isFull = all.fits[model].status === 'full-response-at-lowest-rate';
+  // A full response leads over a curve that fits better by up to FULL_RESPONSE_DELTA_AICC
+  // (shared/models/chooseModel): say which curve, and why the full response still leads.
+  const closeCurve = isFull
+    ? ranked.find(
+        (r) =>
+          r.aicc < chosen.aicc &&
+          MODEL_CURVES[r.model].isCurve &&
+          all.fits[r.model].status === 'ok',
+      )
+    : undefined;
   const lead =
     best.model === model
       ? `lowest AICc of the models fitted, Akaike weight ${chosen.weight.toFixed(2)}`
-      : `lowest AICc among the curves with a usable rate, ΔAICc ${chosen.deltaAicc.toFixed(1)} from the best`;
-  const full =
-    all.fits[model].status === 'full-response-at-lowest-rate'
-      ? 'full response by the lowest non-zero rate, '
-      : '';
+      : closeCurve
+        ? `ΔAICc ${chosen.deltaAicc.toFixed(1)} behind the ${modelLabelInText(closeCurve.model)}, within ${FULL_RESPONSE_DELTA_AICC} units: the data cannot tell the two apart, and the lower answer is kept`
+        : `lowest AICc among the curves with a usable rate, ΔAICc ${chosen.deltaAicc.toFixed(1)} from the best`;
+  const full = isFull ? 'full response by the lowest non-zero rate, ' : '';
   return { model, reason: `${full}${lead}${why}` };
 }

@@ -13,7 +13,7 @@
  * would leave blocks without some rates and break the design.
  *
  * Storage is compact (typed arrays per model) because a trial of 1,000 sites
- * keeps 200 resamples × 6 models of each: objects per draw would cost the
+ * keeps 200 resamples × 7 models of each: objects per draw would cost the
  * garbage collector more than the fits.
  */
 import { MODEL_CURVES } from '../models/curves';
@@ -28,7 +28,7 @@ import type {
 } from '../models/modelTypes';
 import { prepareSite, type PreparedSite } from '../models/prepareSite';
 import { blockColumns } from '../models/solve/profileSolver';
-import { resampleWithinGroups, strataOf } from '../optimize/resampleWithinGroups';
+import { resampleWithinGroups, strataOf, type Strata } from '../optimize/resampleWithinGroups';
 import { seededRandom } from '../optimize/seededRandom';
 import { StatsInputError } from '../stats/errors';
 import { applyQTranspose, qrDecompose, solveUpperTriangular } from '../stats/qr';
@@ -127,6 +127,40 @@ function blockAdjustedYields(site: PreparedSite): Float64Array {
 }
 
 /**
+ * Each rate's mean of the (block-adjusted) yields and the factor its plots' deviations from
+ * that mean are stretched by before resampling. Drawing r plots with replacement from r
+ * deviations gives a rate mean whose variance is (r − 1)/r of the true σ²/r (the divisor-n
+ * variance of the plug-in distribution), and the block adjustment takes away a further
+ * (n − m − blockDf)/(n − m) of the deviations' sum of squares; stretching by
+ * √(r/(r − 1) · (n − m)/(n − m − blockDf)) gives the resampled rate means the right
+ * variance on average (the rescaled residuals of Davison & Hinkley, 1997, §6.2.3, applied
+ * within strata). With 4 blocks and 6 rates the plain resample's standard errors were
+ * 79 % of the truth (√(15/24)), which alone cost the 90 % interval several points of coverage.
+ * A rate with one plot has no deviation to stretch (factor 0).
+ */
+function deviationInflation(
+  site: PreparedSite,
+  yAdj: Float64Array,
+  strata: Strata,
+): { rateMeans: Float64Array; inflation: Float64Array } {
+  const m = site.rates.length;
+  const { members, starts } = strata;
+  const rateMeans = new Float64Array(m);
+  const inflation = new Float64Array(m);
+  const withinDf = site.n - m;
+  const residualDf = withinDf - site.blockDf;
+  const blockShare = residualDf > 0 ? withinDf / residualDf : 0;
+  for (let j = 0; j < m; j++) {
+    const r = starts[j + 1] - starts[j];
+    let s = 0;
+    for (let k = starts[j]; k < starts[j + 1]; k++) s += yAdj[members[k]];
+    rateMeans[j] = s / r;
+    inflation[j] = r > 1 ? Math.sqrt((r / (r - 1)) * blockShare) : 0;
+  }
+  return { rateMeans, inflation };
+}
+
+/**
  * Resamples one site's plots within rates and re-estimates every asked model on each resample.
  * @param data - rates (kg/ha), yields (kg/ha), optional block labels
  * @param models - the models to re-estimate (the same resample serves them all)
@@ -163,15 +197,20 @@ export function drawBootstrapEstimates(
   const work: PreparedSite = { ...site, design: 'groups', blocks: 'none', means, ssWithin: 0 };
   const out: Partial<Record<ModelName, ModelDraws>> = {};
   const { starts } = strata;
+  const { rateMeans, inflation } = deviationInflation(site, yAdj, strata);
+  const value = new Float64Array(site.n);
   for (let b = 0; b < resamples; b++) {
     resampleWithinGroups(strata, random, drawn);
     let ss = 0;
     for (let j = 0; j < m; j++) {
       let s = 0;
-      for (let k = starts[j]; k < starts[j + 1]; k++) s += yAdj[drawn[k]];
+      for (let k = starts[j]; k < starts[j + 1]; k++) {
+        value[k] = rateMeans[j] + inflation[j] * (yAdj[drawn[k]] - rateMeans[j]);
+        s += value[k];
+      }
       const mean = s / (starts[j + 1] - starts[j]);
       means[j] = mean;
-      for (let k = starts[j]; k < starts[j + 1]; k++) ss += (yAdj[drawn[k]] - mean) ** 2;
+      for (let k = starts[j]; k < starts[j + 1]; k++) ss += (value[k] - mean) ** 2;
     }
     work.ssWithin = ss;
     for (const model of models) {

@@ -12,7 +12,9 @@
  *   picked); it leaves the choice of model out and is narrower for it.
  *
  * Either way every resample counts (countedOptimum): no plateau → the highest tested
- * rate, full response by the lowest non-zero rate → the second-lowest tested rate,
+ * rate, full response by the lowest non-zero rate → the second-lowest tested rate (and,
+ * when such resamples fill at least one tail, the interval reaches down to the lowest
+ * tested rate, since each of them only says "at or below the second-lowest rate"),
  * no response or no fit → 0, and the shares of each kind are reported with the
  * interval, never an interval over only the resamples that gave a curve.
  */
@@ -99,6 +101,14 @@ export function optimumInterval(
   const count = draws.resamples;
   rates.sort();
   const tail = (1 - level) / 2;
+  const ci: [number, number] | null =
+    count > 0 ? [sortedQuantile(rates, tail), sortedQuantile(rates, 1 - tail)] : null;
+  // A full response places the optimum anywhere in (lowest, second-lowest rate], not at the
+  // second-lowest rate, where it is counted: once full responses fill a tail's share of the
+  // resamples, the interval reaches down to the lowest tested rate.
+  if (ci && kinds.fullResponse >= tail * count) {
+    ci[0] = Math.min(ci[0], draws.testedRates.lowestKgHa);
+  }
   const modelShares: Partial<Record<ModelName, number>> = {};
   choices.models.forEach((m, i) => {
     if (byModel[i] > 0) modelShares[m] = byModel[i] / count;
@@ -109,7 +119,7 @@ export function optimumInterval(
     count,
     seed: draws.seed,
     level,
-    ciKgHa: count > 0 ? [sortedQuantile(rates, tail), sortedQuantile(rates, 1 - tail)] : null,
+    ciKgHa: ci,
     shares: {
       curve: kinds.curve / count,
       noPlateau: kinds.noPlateau / count,

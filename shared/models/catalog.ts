@@ -13,6 +13,7 @@ import type { ModelName } from './modelTypes';
 import { proportionalModel } from './proportional';
 import { quadraticModel } from './quadratic';
 import { quadraticPlateauModel } from './quadraticPlateau';
+import { stepModel } from './step';
 
 /** Every model's entry, keyed by its name. */
 export const MODEL_CATALOG = {
@@ -22,6 +23,7 @@ export const MODEL_CATALOG = {
   linearPlateau: linearPlateauModel,
   quadraticPlateau: quadraticPlateauModel,
   exponential: exponentialModel,
+  step: stepModel,
 } satisfies Record<ModelName, ModelEntry>;
 
 /**

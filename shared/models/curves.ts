@@ -12,6 +12,7 @@ import { linearPlateauCurve } from './curves/linearPlateau';
 import { proportionalCurve } from './curves/proportional';
 import { quadraticCurve } from './curves/quadratic';
 import { quadraticPlateauCurve } from './curves/quadraticPlateau';
+import { stepCurve } from './curves/step';
 import type { ModelCurve, ParamDimension } from './modelCurve';
 
 const CURVES = {
@@ -21,6 +22,7 @@ const CURVES = {
   linearPlateau: linearPlateauCurve,
   quadraticPlateau: quadraticPlateauCurve,
   exponential: exponentialCurve,
+  step: stepCurve,
 };
 
 /** A response model's name (one of MODEL_NAMES). */

@@ -1,9 +1,9 @@
 /**
- * Fits all six response models to one site and ranks them by AICc (Hurvich &
+ * Fits every response model of the catalog to one site and ranks them by AICc (Hurvich &
  * Tsai 1989; smaller is better). Every model is shown; models whose fit reduces
  * to another one ("no-plateau": the straight line or quadratic; "no-response":
  * flat) or could not be made are listed after the ranked ones, unranked, with
- * their reason. AICc is comparable across the six because all are fitted to the
+ * their reason. AICc is comparable across them because all are fitted to the
  * same yields by least squares; the proportional model's R² is not (uncentered).
  */
 import { MODEL_CATALOG } from './catalog';
@@ -29,7 +29,7 @@ export interface ModelRank {
 export interface AllModelsFit {
   /** Every model's fit, keyed by name. */
   fits: Record<ModelName, ModelFit>;
-  /** All six, ranked ones first (best first), then the unranked ones. */
+  /** All of them, ranked ones first (best first), then the unranked ones. */
   ranking: ModelRank[];
   /** Name of the best-ranked model, or null when none could be ranked. */
   best: ModelName | null;

@@ -1,5 +1,5 @@
 /**
- * Yield-response models for one site: six curves fitted by least squares with
+ * Yield-response models for one site: seven models fitted by least squares with
  * no starting values, ranked by AICc.
  *
  * ```ts

@@ -34,7 +34,7 @@ export interface CurveSpec<Name extends string = string> {
   value: (x: number, p: Float64Array) => number;
   /**
    * The same at many rates at once (one call per curve rather than per point: the
-   * call from finishFit sees all six models, so per-point calls cannot be inlined).
+   * call from finishFit sees every model, so per-point calls cannot be inlined).
    */
   values: (xs: ArrayLike<number>, p: Float64Array, out: Float64Array) => void;
   /** ∂curve/∂p_k at x, written into out (length paramNames.length). */

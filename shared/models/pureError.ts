@@ -2,7 +2,7 @@
  * Pure error of a site: the residual SS of the saturated model with one mean per
  * rate (plus block offsets when they are modelled), the yardstick of the
  * lack-of-fit test (Draper & Smith, Applied Regression Analysis, 3rd ed., §2.1).
- * Cached per prepared site for the full block design (a QR decomposition), since all six models share it.
+ * Cached per prepared site for the full block design (a QR decomposition), since all the models share it.
  */
 import { applyQTranspose, qrDecompose } from '../stats/qr';
 import type { PreparedSite } from './prepareSite';
