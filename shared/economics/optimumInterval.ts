@@ -5,9 +5,11 @@
  * prices cost a pass over the draws and never a new bootstrap.
  *
  * Two bases:
- * - "model-reselected" (the default, what a site's recommendation gets): the model
- *   is chosen again inside every resample by the site's own rule (drawChoices), so
- *   the interval includes the uncertainty of the model choice.
+ * - "model-reselected" (the default, what a site's recommendation gets): inside every
+ *   resample the rule's candidates are weighed again by their Akaike weights in that
+ *   resample (drawChoices), and the interval is the percentile interval of the mixture
+ *   (each resample weight 1, shared among its candidates; weightedSortedQuantile), so it
+ *   includes the uncertainty of the model choice.
  * - "fixed-model": every resample priced with one model (the one the analyst
  *   picked); it leaves the choice of model out and is narrower for it.
  *
@@ -20,7 +22,7 @@
  */
 import type { ModelName } from '../models/modelTypes';
 import { StatsInputError } from '../stats/errors';
-import { sortedQuantile } from '../stats/quantile';
+import { weightedSortedQuantile } from '../stats/quantile';
 import { drawSummaries, type BootstrapDraws } from './bootstrapDraws';
 import { countedOptimum, type CountedKind } from './countedOptimum';
 import { drawChoices } from './drawChoices';
@@ -42,9 +44,9 @@ export interface OptimumInterval {
   level: number;
   /** Percentile interval of the optimum over all resamples, kg/ha; null only without resamples. */
   ciKgHa: [number, number] | null;
-  /** Share of the resamples counted as a curve's optimum, no plateau, full response, no response. */
+  /** Share of the resamples' weight counted as a curve's optimum, no plateau, full response, no response. */
   shares: OptimumShares;
-  /** Share of the resamples each model decided (the rest had no deciding fit). */
+  /** Share of the resamples' weight each model held (the rest had no usable fit). */
   modelShares: Partial<Record<ModelName, number>>;
 }
 
@@ -79,30 +81,56 @@ export function optimumInterval(
   assertPrices(prices);
   const fixed = basis === 'fixed-model';
   if (fixed ? !draws.models[model] : Object.keys(draws.models).length === 0) return null;
+  const count = draws.resamples;
   const choices = fixed
-    ? { models: [model], decisive: new Int8Array(draws.resamples) }
+    ? {
+        models: [model],
+        decisive: new Int8Array(count),
+        weights: new Float64Array(count).fill(1),
+      }
     : drawChoices(draws);
+  const k = choices.models.length;
   const readers = choices.models.map((m) => drawSummaries(draws, m)!);
-  const rates = new Float64Array(draws.resamples);
+  // Every resample holds weight 1, spread over its candidates by their weights; a resample with
+  // no usable fit counts as no response (0) with all its weight.
+  const rates: number[] = [];
+  const mass: number[] = [];
   const kinds: Record<CountedKind, number> = {
     curve: 0,
     noPlateau: 0,
     fullResponse: 0,
     noResponse: 0,
   };
-  const byModel = new Float64Array(choices.models.length);
-  for (let b = 0; b < draws.resamples; b++) {
-    const i = choices.decisive[b];
-    const counted = countedOptimum(i < 0 ? null : readers[i](b), prices);
-    rates[b] = counted.rateKgHa;
-    kinds[counted.kind]++;
-    if (i >= 0) byModel[i]++;
+  const byModel = new Float64Array(k);
+  for (let b = 0; b < count; b++) {
+    let held = 0;
+    for (let i = 0; i < k; i++) {
+      const w = choices.weights[b * k + i];
+      if (!(w > 0)) continue;
+      const counted = countedOptimum(readers[i](b), prices);
+      rates.push(counted.rateKgHa);
+      mass.push(w);
+      kinds[counted.kind] += w;
+      byModel[i] += w;
+      held += w;
+    }
+    if (held === 0) {
+      rates.push(0);
+      mass.push(1);
+      kinds.noResponse += 1;
+    }
   }
-  const count = draws.resamples;
-  rates.sort();
+  const order = rates.map((_, i) => i).sort((a, b) => rates[a] - rates[b]);
+  const sortedRates = order.map((i) => rates[i]);
+  const sortedMass = order.map((i) => mass[i]);
   const tail = (1 - level) / 2;
   const ci: [number, number] | null =
-    count > 0 ? [sortedQuantile(rates, tail), sortedQuantile(rates, 1 - tail)] : null;
+    count > 0
+      ? [
+          weightedSortedQuantile(sortedRates, sortedMass, tail),
+          weightedSortedQuantile(sortedRates, sortedMass, 1 - tail),
+        ]
+      : null;
   // A full response places the optimum anywhere in (lowest, second-lowest rate], not at the
   // second-lowest rate, where it is counted: once full responses fill a tail's share of the
   // resamples, the interval reaches down to the lowest tested rate.

@@ -77,3 +77,46 @@ export function chooseModel(candidates: readonly ModelCandidate[]): ModelName | 
   if (full && (!curve || full.aicc <= curve.aicc + FULL_RESPONSE_DELTA_AICC)) return full.model;
   return (curve ?? line)?.model ?? null;
 }
+
+/** A curve the rule can lead with: finite AICc and a usable answer ("ok" or a full response). */
+function usableCurve(c: ModelCandidate): boolean {
+  return (
+    Number.isFinite(c.aicc) &&
+    MODEL_CURVES[c.model].isCurve &&
+    (c.status === 'ok' || c.status === 'full-response-at-lowest-rate')
+  );
+}
+
+/**
+ * The rule's candidates weighted by their Akaike weights, exp(−Δᵢ/2) / Σ exp(−Δⱼ/2) with Δ the
+ * AICc above the best candidate (Burnham & Anderson, 2002, §2.9): the curves with a usable
+ * answer when there are any, else all the weight on the straight line chooseModel takes, else
+ * none. The optimum's interval mixes the resamples' candidates by these weights
+ * (shared/economics/drawChoices) instead of taking each resample's single winner, which
+ * under-covered curved truths (scripts/validate).
+ * @param candidates - one entry per fitted model
+ * @param out - receives one weight per candidate, in the candidates' order (zeros when none)
+ * @returns nothing; `out` is filled and sums to 1 or to 0
+ * @example
+ * const w = new Float64Array(2);
+ * ruleWeights([{ model: 'quadratic', status: 'ok', aicc: 100 }, { model: 'linearPlateau', status: 'ok', aicc: 102 }], w)
+ * // w ≈ [0.731, 0.269]
+ */
+export function ruleWeights(candidates: readonly ModelCandidate[], out: Float64Array): void {
+  out.fill(0);
+  let best = Infinity;
+  for (const c of candidates) if (usableCurve(c) && c.aicc < best) best = c.aicc;
+  if (best === Infinity) {
+    const line = chooseModel(candidates);
+    const at = candidates.findIndex((c) => c.model === line);
+    if (at >= 0) out[at] = 1;
+    return;
+  }
+  let total = 0;
+  candidates.forEach((c, i) => {
+    if (!usableCurve(c)) return;
+    out[i] = Math.exp(-(c.aicc - best) / 2);
+    total += out[i];
+  });
+  for (let i = 0; i < out.length; i++) out[i] /= total;
+}
