@@ -5,11 +5,7 @@
  */
 import { drawBootstrapEstimates, type BootstrapDraws } from '../economics/bootstrapDraws';
 import { fitAllModelsPrepared, type AllModelsFit } from '../models/fitAllModels';
-import {
-  joinProfileInterval,
-  type JoinModel,
-  type RateProfileInterval,
-} from '../models/joinProfile';
+import { joinProfileInterval, type RateProfileInterval } from '../models/joinProfile';
 import type { BlockTerms, ModelFit, ModelName } from '../models/modelTypes';
 import { prepareSite, type PreparedSite } from '../models/prepareSite';
 import { StatsInputError } from '../stats/errors';
@@ -40,11 +36,12 @@ export interface SiteAnalysis {
   blocks: BlockTerms;
   fits: AllModelsFitData | null;
   /**
-   * The profile interval of each plateau model's join (joinProfileInterval), at the analysis'
-   * interval level, kg/ha; null where the model reports no join. Price-free, so a price
-   * change never redoes it; the linear-plateau's optimum takes it (optimumProfileInterval).
+   * The profile interval of each model's join (joinProfileInterval: the linear-plateau and the
+   * quadratic-plateau when they report one), at the analysis' interval level, kg/ha; a model
+   * without one is absent. Price-free, so a price change never redoes it; the
+   * linear-plateau's optimum takes it (optimumProfileInterval).
    */
-  joinProfiles: Record<JoinModel, RateProfileInterval | null>;
+  joinProfiles: Partial<Record<ModelName, RateProfileInterval>>;
   rateEffect: SiteRateEffect;
   responded: boolean;
   /** The model the site's recommendation uses and why (recommendationModel). */
@@ -86,16 +83,18 @@ export interface InterceptOutcome {
   aiccDifference: number | null;
 }
 
-/** Each plateau model's join profile interval at this level (null without a join). */
+/** The join profile interval of every fit that reports a join, at this level. */
 function joinProfiles(
   site: PreparedSite,
   fits: Record<ModelName, ModelFit>,
   level: number,
-): Record<JoinModel, RateProfileInterval | null> {
-  return {
-    linearPlateau: joinProfileInterval(site, fits.linearPlateau, level),
-    quadraticPlateau: joinProfileInterval(site, fits.quadraticPlateau, level),
-  };
+): SiteAnalysis['joinProfiles'] {
+  const out: SiteAnalysis['joinProfiles'] = {};
+  for (const model of Object.keys(fits) as ModelName[]) {
+    const interval = joinProfileInterval(site, fits[model], level);
+    if (interval) out[model] = interval;
+  }
+  return out;
 }
 
 /** Drops the predict closures (functions cannot be cloned to another thread). */
@@ -156,7 +155,7 @@ export function analyzeSite(
   const rateEffect = siteRateEffect(site, rateBlock);
   const responded = rateEffect.test.kind === 'f-test' && rateEffect.test.p < alpha;
   let fits: AllModelsFitData | null = null;
-  let profiles: SiteAnalysis['joinProfiles'] = { linearPlateau: null, quadraticPlateau: null };
+  let profiles: SiteAnalysis['joinProfiles'] = {};
   let problem = site.problem;
   let intercept: SiteAnalysis['intercept'] = { problem: problem ?? '' };
   let correlation: SiteAnalysis['correlation'] = { problem: problem ?? '' };

@@ -13,7 +13,6 @@ import { optimumInterval, type OptimumInterval } from '../economics/optimumInter
 import { optimumProfileInterval, type OptimumProfileInterval } from '../economics/optimumProfile';
 import { assertPrices, type Prices } from '../economics/priceRatio';
 import { curveValue } from '../models/curveValue';
-import { isJoinModel } from '../models/joinProfile';
 import type { ModelName } from '../models/modelTypes';
 import type { AcrossSiteAnalysis } from './acrossSites';
 import type { TrialAnalysis } from './analyzeTrial';
@@ -205,12 +204,7 @@ export function priceSite(
     interval: noResponse && interval ? reachingZero(interval) : interval,
     optimumProfile: noResponse
       ? null
-      : optimumProfileInterval(
-          fit,
-          isJoinModel(lead.model) ? s.joinProfiles[lead.model] : null,
-          prices,
-          level,
-        ),
+      : optimumProfileInterval(fit, s.joinProfiles[lead.model] ?? null, prices, level),
     profitableRangeKgHa: profitableRange(s, lead.model, lead.basis, prices, bandPerHa),
     acrossModels: optimumAcrossModels(s.fits!.fits, s.fits!.ranking, prices),
   };

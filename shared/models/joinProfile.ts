@@ -44,21 +44,15 @@ export interface RateProfileInterval {
 }
 
 /** The models whose curve has a join point. */
-export type JoinModel = 'linearPlateau' | 'quadraticPlateau';
+type JoinModel = 'linearPlateau' | 'quadraticPlateau';
 
 const JOIN_SSE: Record<JoinModel, (site: PreparedSite) => JoinSseProfile> = {
   linearPlateau: linearPlateauJoinSse,
   quadraticPlateau: quadraticPlateauJoinSse,
 };
 
-/**
- * Whether a model has a join point whose profile interval joinProfileInterval gives.
- * @param model - a model name
- * @returns true for the linear-plateau and the quadratic-plateau
- * @example
- * isJoinModel('quadratic') // false
- */
-export function isJoinModel(model: ModelName): model is JoinModel {
+/** Whether a model has a join point whose profile interval joinProfileInterval gives. */
+function isJoinModel(model: ModelName): model is JoinModel {
   return model in JOIN_SSE;
 }
 
@@ -72,8 +66,9 @@ const EVEN_POINTS_FULL = 32;
  * @param site - from prepareSite, the site the fit was made on (same block terms)
  * @param fit - the model's fit of that site: model, status, parameters (x0 in kg/ha), SSE, residual df
  * @param level - level in (0, 1), e.g. 0.9
- * @returns the interval in kg/ha with its open ends; null unless the model has a join and its
- *   status is "ok" (every other status reports no join) with residual df left
+ * @returns the interval in kg/ha with its open ends; null unless the model has a join (the
+ *   linear-plateau, the quadratic-plateau) and its status is "ok" (every other status reports
+ *   no join) with residual df left
  * @throws {StatsInputError} "bad-argument" for a level outside (0, 1)
  * @example
  * const site = prepareSite(data, 'fixed');
