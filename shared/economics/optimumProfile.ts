@@ -103,7 +103,8 @@ function quadraticOptimumProfile(
   const f = fisherFQuantile(level, 1, fit.dfResidual);
   const d = fit.params.b - priceRatio;
   const c = fit.params.c;
-  // q(θ) = Aθ² + Bθ + C ≤ 0 is the criterion; q(θ̂) = −f·V_bb-like variance < 0.
+  // The criterion as q(θ) = a2 θ² + a1 θ + a0 ≤ 0. At θ̂ the constraint holds exactly
+  // (b̂ + 2ĉθ̂ = PR), so q(θ̂) = −f·Var(b̂ + 2ĉθ̂) < 0: the estimate lies inside.
   const a2 = 4 * (c * c - f * vcc);
   const a1 = 4 * (d * c - f * vbc);
   const a0 = d * d - f * vbb;

@@ -64,7 +64,7 @@ const EVEN_POINTS_FULL = 32;
 /**
  * The profile interval of a plateau model's join at one site.
  * @param site - from prepareSite, the site the fit was made on (same block terms)
- * @param fit - the model's fit of that site: model, status, parameters (x0 in kg/ha), SSE, residual df
+ * @param fit - the model's fit of that site: model, status, parameters (x0 in kg/ha), residual df
  * @param level - level in (0, 1), e.g. 0.9
  * @returns the interval in kg/ha with its open ends; null unless the model has a join (the
  *   linear-plateau, the quadratic-plateau) and its status is "ok" (every other status reports
@@ -77,7 +77,7 @@ const EVEN_POINTS_FULL = 32;
  */
 export function joinProfileInterval(
   site: PreparedSite,
-  fit: Pick<ModelFit, 'model' | 'status' | 'params' | 'sse' | 'dfResidual'>,
+  fit: Pick<ModelFit, 'model' | 'status' | 'params' | 'dfResidual'>,
   level: number,
 ): RateProfileInterval | null {
   if (!(level > 0 && level < 1)) {
@@ -96,7 +96,8 @@ export function joinProfileInterval(
   const bounds = profileInterval({
     sse,
     estimate: x0,
-    sseMin: Math.min(fit.sse, sse(x0)),
+    // The search's own value at the join (the fit's SSE differs from it only by rounding).
+    sseMin: sse(x0),
     df: fit.dfResidual,
     level,
     points: searchPoints(rates, profile),

@@ -46,7 +46,7 @@ export interface ProfileSearch {
   sse: (theta: number) => number;
   /** θ at the fit's minimum; inside [points[0], points[last]]. */
   estimate: number;
-  /** S at the minimum. */
+  /** S at the minimum: sse(estimate), so the estimate is inside whatever the rounding. */
   sseMin: number;
   /** Residual df of the fit (every parameter counted, θ and block offsets included). */
   df: number;
@@ -66,7 +66,7 @@ export interface ProfileSearch {
  * @example
  * // S(θ) = 10 + (θ − 5)², df 10, level 0.95: ends where (θ − 5)² = F(1, 10; 0.95) · 10 / 10
  * profileInterval({ sse: (t) => 10 + (t - 5) ** 2, estimate: 5, sseMin: 10, df: 10, level: 0.95, points: [0, 10] })
- * // { low ≈ 2.76, high ≈ 7.24, lowOpen: false, highOpen: false, … }
+ * // { low ≈ 2.77, high ≈ 7.23, lowOpen: false, highOpen: false, … }
  */
 export function profileInterval(p: ProfileSearch): ProfileBounds {
   const f = fisherFQuantile(p.level, 1, p.df);
