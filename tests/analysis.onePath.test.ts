@@ -2,13 +2,14 @@
 // the command line's path (analyzeCommand, in process) and through the workspace's path (its
 // state classes with the worker's job handlers on a MessageChannel, under Node) give the same
 // results file to 1e-12, and a price change or a model pick in the workspace refits nothing.
-// The fitters are wrapped to count their calls (vi.mock keeps the real functions).
+// The fitters and the join's profile interval (which refits along the join) are wrapped to
+// count their calls (vi.mock keeps the real functions).
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { describe, expect, it, vi } from 'vitest';
 
-const calls = vi.hoisted(() => ({ fitAll: 0, estimate: 0 }));
+const calls = vi.hoisted(() => ({ fitAll: 0, estimate: 0, joinProfile: 0 }));
 vi.mock('../shared/models/fitAllModels', async (importOriginal) => {
   const real = await importOriginal<typeof import('../shared/models/fitAllModels')>();
   return {
@@ -16,6 +17,20 @@ vi.mock('../shared/models/fitAllModels', async (importOriginal) => {
     fitAllModels: (...args: Parameters<typeof real.fitAllModels>) => {
       calls.fitAll++;
       return real.fitAllModels(...args);
+    },
+    fitAllModelsPrepared: (...args: Parameters<typeof real.fitAllModelsPrepared>) => {
+      calls.fitAll++;
+      return real.fitAllModelsPrepared(...args);
+    },
+  };
+});
+vi.mock('../shared/models/joinProfile', async (importOriginal) => {
+  const real = await importOriginal<typeof import('../shared/models/joinProfile')>();
+  return {
+    ...real,
+    joinProfileInterval: (...args: Parameters<typeof real.joinProfileInterval>) => {
+      calls.joinProfile++;
+      return real.joinProfileInterval(...args);
     },
   };
 });
@@ -136,6 +151,7 @@ describe('one analysis for the command line and the workspace', () => {
     const fitted = { ...calls };
     expect(fitted.fitAll).toBeGreaterThan(0);
     expect(fitted.estimate).toBeGreaterThan(0);
+    expect(fitted.joinProfile).toBeGreaterThan(0);
     const before = ws.analysis.optima.map((o) => o.optimum?.rateKgHa ?? NaN);
     ws.prices.update({ productPerKg: ws.prices.settings.productPerKg * 2.5 });
     const site = ws.analysis.sites[0].site;

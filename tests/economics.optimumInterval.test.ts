@@ -371,7 +371,7 @@ describe('priceSite: the rule’s model gets the reselecting interval, an analys
       groups: {},
       problem: null,
     },
-    { blocks: 'auto', alpha: 0.05, curvePoints: 21, resamples: 100, seed: 3 },
+    { blocks: 'auto', alpha: 0.05, curvePoints: 21, resamples: 100, seed: 3, intervalLevel: 0.9 },
   );
 
   it('uses "model-reselected" without a pick and "fixed-model" with one', () => {

@@ -4,6 +4,7 @@ import {
   formatMoney,
   formatNumber,
   formatRate,
+  formatRateInterval,
   formatSignificant,
   formatYield,
 } from '../renderer/src/lib/format';
@@ -30,6 +31,18 @@ describe('renderer format', () => {
     expect(formatRate(112.0851, 'lb/ac', 'en-US')).toBe('100 lb/ac');
     expect(formatRate(150.4, 'kg/ha', 'en-US')).toBe('150 kg/ha');
     expect(formatRate(25, 'g/m2', 'en-US')).toBe('2.5 g/m²');
+  });
+
+  it('formatRateInterval writes a profile interval once in the display unit, marking open ends', () => {
+    const closed = { lowKgHa: 112.0851, highKgHa: 224.1702, lowOpen: false, highOpen: false };
+    expect(formatRateInterval(closed, 'lb/ac', 'en-US')).toBe('100 to 200 lb/ac');
+    expect(formatRateInterval({ ...closed, highOpen: true }, 'kg/ha', 'en-US')).toBe(
+      '112 to ≥ 224 kg/ha',
+    );
+    expect(formatRateInterval({ ...closed, lowKgHa: 0, lowOpen: true }, 'kg/ha', 'en-US')).toBe(
+      '≤ 0 to 224 kg/ha',
+    );
+    expect(formatRateInterval(null, 'kg/ha', 'en-US')).toBe('–');
   });
 
   it('formatYield uses the crop bushel and a precision per unit', () => {

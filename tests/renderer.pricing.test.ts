@@ -138,6 +138,9 @@ describe('renderer optimum intervals', () => {
     for (const [i, s] of report.sites.entries()) {
       expect(s.bootstrap?.ciKgHa).toBeTruthy();
       expect(onScreen[i].intervalKgHa).toEqual(s.bootstrap!.ciKgHa);
+      // The profile interval beside it is the report's too (the chosen model's row).
+      const chosen = s.models.find((m) => m.model === s.bestModel);
+      expect(onScreen[i].profile).toEqual(chosen?.optimumProfile ?? null);
     }
   });
 });

@@ -84,6 +84,8 @@ describe('resultsJson', () => {
         'optimumRate',
         'optimumCI',
         'yieldAtOptimum',
+        'joinProfileInterval',
+        'optimumProfileInterval',
       ]) {
         expect(m).toHaveProperty(k);
       }
@@ -111,6 +113,18 @@ describe('resultsJson', () => {
         }
         if (m.yieldAtOptimumKgHa !== null) {
           expect(jm.yieldAtOptimum!).toBeCloseTo(m.yieldAtOptimumKgHa / (56 * KG_HA_PER_LB_AC), 8);
+        }
+        if (m.joinProfile) {
+          expect(jm.joinProfileInterval!.interval[0]).toBeCloseTo(
+            m.joinProfile.lowKgHa / KG_HA_PER_LB_AC,
+            8,
+          );
+          expect(jm.joinProfileInterval!.interval[1]).toBeCloseTo(
+            m.joinProfile.highKgHa / KG_HA_PER_LB_AC,
+            8,
+          );
+        } else {
+          expect(jm.joinProfileInterval).toBeNull();
         }
         // A slope is yield per rate: kg grain/kg N → (bu/ac)/(lb/ac) = kg/kg × lb/bu-weight.
         if (m.model === 'linear') {
@@ -159,6 +173,17 @@ describe('resultsJson', () => {
       if (!best?.optimumCI) continue;
       expect(best.optimumCI[0]).toBeLessThanOrEqual(best.optimumRate! + 1e-9);
       expect(best.optimumCI[1]).toBeGreaterThanOrEqual(best.optimumCI[0]);
+    }
+  });
+
+  it('gives each reported join a profile interval that holds it, at the run’s level', () => {
+    const joins = json.sites.flatMap((s) => s.models.filter((m) => m.joinProfileInterval));
+    expect(joins.length).toBeGreaterThan(0);
+    for (const m of joins) {
+      const { interval, level } = m.joinProfileInterval!;
+      expect(level).toBe(json.sites[0].recommendation.level);
+      expect(interval[0]).toBeLessThanOrEqual(m.params.x0);
+      expect(interval[1]).toBeGreaterThanOrEqual(m.params.x0);
     }
   });
 

@@ -181,6 +181,29 @@ describe('writeWorkbook read back by SheetJS', () => {
     }
   });
 
+  it("gives each site's model table the join's profile interval in lb N/ac beside the optima", () => {
+    const wb = XLSX.read(usBytes);
+    const taken = new Set<string>();
+    let checked = 0;
+    for (const s of us.sites) {
+      const ws = wb.Sheets[sheetName(s.site, taken)];
+      const h = findRow(ws, 'Model');
+      expect(cell(ws, h, 11)?.v).toBe('Join profile low (lb N/ac)');
+      expect(cell(ws, h, 12)?.v).toBe('Join profile high (lb N/ac)');
+      s.models.forEach((m, i) => {
+        const low = cell(ws, h + 1 + i, 11)?.v;
+        if (!m.joinProfile) return expect(low).toBeUndefined();
+        expect(low as number).toBeCloseTo(m.joinProfile.lowKgHa / KG_HA_PER_LB_AC, 9);
+        expect(cell(ws, h + 1 + i, 12)?.v as number).toBeCloseTo(
+          m.joinProfile.highKgHa / KG_HA_PER_LB_AC,
+          9,
+        );
+        checked++;
+      });
+    }
+    expect(checked).toBeGreaterThan(0);
+  });
+
   it('records the source file with its SHA-256 and the bootstrap seed on the provenance sheet', () => {
     const ws = XLSX.read(usBytes).Sheets['Provenance'];
     const text = XLSX.utils.sheet_to_csv(ws);

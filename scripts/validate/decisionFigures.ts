@@ -34,6 +34,19 @@ export interface TruthFigures {
   coverage: Share;
   /** Sites without an interval (no leading model, no draws, or no resample gave a rate). */
   withoutInterval: number;
+  /**
+   * For a truth with a join (linear-plateau, quadratic-plateau): the same model's join profile
+   * interval, the share of sites whose interval holds the true join (no interval: not
+   * covering) and the sites without one (the fit reported no join); null for the other truths.
+   */
+  join: {
+    model: JoinModelName;
+    trueJoinKgHa: number;
+    coverage: Share;
+    /** The same among the sites whose fit reported a join. */
+    coverageWhereJoined: Share;
+    withoutInterval: number;
+  } | null;
   /** Recommended rate minus the true optimum, over the sites with a rate. */
   rate: {
     rated: number;
@@ -55,6 +68,34 @@ export interface TruthFigures {
   responded: Share;
   /** The leading models and how many sites each led. */
   leadModels: Record<string, number>;
+}
+
+/** The plateau models whose join has a profile interval. */
+type JoinModelName = keyof SiteDecision['joinProfileKgHa'];
+
+/** The model fitted to judge a truth's join: the truth's own curve. */
+const JOIN_MODEL_OF_TRUTH: Partial<Record<TruthName, JoinModelName>> = {
+  'linear-plateau': 'linearPlateau',
+  'quadratic-plateau': 'quadraticPlateau',
+};
+
+/** The join's coverage on one truth's sites, or null for a truth without a join. */
+function joinFigures(truth: TruthName, mine: readonly SiteDecision[]): TruthFigures['join'] {
+  const model = JOIN_MODEL_OF_TRUTH[truth];
+  const trueJoinKgHa = simulatedTruth(truth).joinKgHa;
+  if (!model || trueJoinKgHa === null) return null;
+  const intervals = mine.map((d) => d.joinProfileKgHa[model]);
+  const covered = intervals.filter(
+    (i) => i !== null && i[0] <= trueJoinKgHa && trueJoinKgHa <= i[1],
+  );
+  const withoutInterval = intervals.filter((i) => i === null).length;
+  return {
+    model,
+    trueJoinKgHa,
+    coverage: share(covered.length, mine.length),
+    coverageWhereJoined: share(covered.length, mine.length - withoutInterval),
+    withoutInterval,
+  };
 }
 
 /** The second-lowest tested rate of every simulated site, kg/ha. */
@@ -93,6 +134,7 @@ export function truthFigures(truth: TruthName, decisions: readonly SiteDecision[
     intervalLevel: mine[0].intervalLevel,
     coverage: share(covered, mine.length),
     withoutInterval: mine.filter((d) => d.ciKgHa === null).length,
+    join: joinFigures(truth, mine),
     rate: {
       rated: rated.length,
       unrated: mine.length - rated.length,

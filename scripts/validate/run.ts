@@ -1,7 +1,8 @@
 // `npm run validate`: the analysis' decisions checked by simulation against known truths.
 // Simulates sites of five true responses (shared/demo/simulatedSite, seeded), runs the real
 // pipeline (analyzeTrial with its defaults, priceTrial at the illustrative corn prices) and
-// prints, per truth, the interval's coverage, the recommended rate's bias and RMSE, the edge
+// prints, per truth, the interval's coverage (and, for the plateau truths, the coverage of the
+// join's profile interval), the recommended rate's bias and RMSE, the edge
 // cases' shares, the gain-over-check test's rejection rate and the share that responded; then
 // the regional rate's bias over simulated regions; each goal beside its figure. Writes the
 // figures to test-output/validate.json. Measures only: it never fails on a missed goal.
@@ -68,6 +69,13 @@ for (const f of v.truths) {
   console.log(
     `coverage of the ${f.intervalLevel * 100} % interval: ${pct(f.coverage)}; ${f.withoutInterval} sites had no interval (counted as not covering)`,
   );
+  if (f.join) {
+    console.log(
+      `coverage of the ${f.join.model} join's ${f.intervalLevel * 100} % profile interval (true join ${f.join.trueJoinKgHa} kg/ha): ` +
+        `${pct(f.join.coverage)}; ${f.join.withoutInterval} sites had no join (counted as not covering); ` +
+        `${pct(f.join.coverageWhereJoined)} of the sites with a join`,
+    );
+  }
   console.log(
     `recommended rate: mean ${f.rate.meanKgHa.toFixed(1)} kg/ha, bias ${f.rate.meanBiasKgHa.toFixed(1)}, RMSE ${f.rate.rmseKgHa.toFixed(1)} kg/ha ` +
       `over ${f.rate.rated} sites (${f.rate.unrated} without a rate left out; ${f.rate.fromRangeTop} "join-in-first-interval" sites taken at the top of their range)`,

@@ -27,6 +27,11 @@ export interface SiteDecision {
   ciKgHa: [number, number] | null;
   /** The interval's level, e.g. 0.9 (the analysis default). */
   intervalLevel: number;
+  /**
+   * The profile interval of each plateau model's join (the analysis' joinProfiles, at the same
+   * level), kg/ha; null where that model reports no join.
+   */
+  joinProfileKgHa: Record<'linearPlateau' | 'quadraticPlateau', [number, number] | null>;
   /** Whether the gain-over-check test could be made at this site. */
   gainTested: boolean;
   /** The gain-over-check test's verdict: a gain at rate zero is present (at the analysis' alpha). */
@@ -39,6 +44,11 @@ export interface SimulatedRun {
   decisions: SiteDecision[];
   /** The regional rate of all the table's sites at the prices, kg/ha. */
   regionalRateKgHa: number;
+}
+
+/** An interval's two ends, or null. */
+function ends(interval: { lowKgHa: number; highKgHa: number } | null): [number, number] | null {
+  return interval ? [interval.lowKgHa, interval.highKgHa] : null;
 }
 
 /**
@@ -85,6 +95,10 @@ export function simulateAndAnalyze(
       fromRangeTop,
       ciKgHa: p.interval?.ciKgHa ?? null,
       intervalLevel: level,
+      joinProfileKgHa: {
+        linearPlateau: ends(analyzed.joinProfiles.linearPlateau ?? null),
+        quadraticPlateau: ends(analyzed.joinProfiles.quadraticPlateau ?? null),
+      },
       gainTested,
       gainAtZeroFound: gainTested && gain.biasPresent,
       responded: analyzed.responded,

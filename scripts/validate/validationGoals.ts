@@ -66,6 +66,18 @@ export function validationGoals(
       met: c >= GOALS.coverage.low && c <= GOALS.coverage.high,
     });
   }
+  // The join's profile interval is judged where the truth is that model's own curve and its
+  // join lies well inside the rates (130 kg/ha, between the tested 120 and 160).
+  const lp = by('linear-plateau')?.join;
+  if (lp) {
+    checks.push({
+      figure: `coverage of the join's ${Math.round(by('linear-plateau')!.intervalLevel * 100)} % profile interval`,
+      on: 'linear-plateau',
+      value: lp.coverage.share,
+      goal: `${GOALS.coverage.low}–${GOALS.coverage.high}`,
+      met: lp.coverage.share >= GOALS.coverage.low && lp.coverage.share <= GOALS.coverage.high,
+    });
+  }
   // A full response is answered with a range, (0, second-lowest rate], not one rate: its
   // figures are the share placed above that range and whether the interval holds the truth.
   for (const f of truths) {

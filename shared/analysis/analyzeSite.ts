@@ -4,8 +4,10 @@
  * The result is plain data (fits without `predict`), so a worker can post it.
  */
 import { drawBootstrapEstimates, type BootstrapDraws } from '../economics/bootstrapDraws';
-import { fitAllModels, type AllModelsFit } from '../models/fitAllModels';
+import { fitAllModelsPrepared, type AllModelsFit } from '../models/fitAllModels';
+import { joinProfileInterval, type RateProfileInterval } from '../models/joinProfile';
 import type { BlockTerms, ModelFit, ModelName } from '../models/modelTypes';
+import { prepareSite, type PreparedSite } from '../models/prepareSite';
 import { StatsInputError } from '../stats/errors';
 import { defaultBlockTerms } from '../stats/hasBlocks';
 import { fitRateBlockModel } from '../stats/rateBlockModel';
@@ -33,6 +35,13 @@ export interface SiteAnalysis {
   problem: string | null;
   blocks: BlockTerms;
   fits: AllModelsFitData | null;
+  /**
+   * The profile interval of each model's join (joinProfileInterval: the linear-plateau and the
+   * quadratic-plateau when they report one), at the analysis' interval level, kg/ha; a model
+   * without one is absent. Price-free, so a price change never redoes it; the
+   * linear-plateau's optimum takes it (optimumProfileInterval).
+   */
+  joinProfiles: Partial<Record<ModelName, RateProfileInterval>>;
   rateEffect: SiteRateEffect;
   responded: boolean;
   /** The model the site's recommendation uses and why (recommendationModel). */
@@ -74,6 +83,20 @@ export interface InterceptOutcome {
   aiccDifference: number | null;
 }
 
+/** The join profile interval of every fit that reports a join, at this level. */
+function joinProfiles(
+  site: PreparedSite,
+  fits: Record<ModelName, ModelFit>,
+  level: number,
+): SiteAnalysis['joinProfiles'] {
+  const out: SiteAnalysis['joinProfiles'] = {};
+  for (const model of Object.keys(fits) as ModelName[]) {
+    const interval = joinProfileInterval(site, fits[model], level);
+    if (interval) out[model] = interval;
+  }
+  return out;
+}
+
 /** Drops the predict closures (functions cannot be cloned to another thread). */
 function withoutPredict(fits: Record<ModelName, ModelFit>): Record<ModelName, FitData> {
   const out = {} as Record<ModelName, FitData>;
@@ -105,7 +128,7 @@ function orProblem<T>(compute: () => T): T | { problem: string } {
  * per site calls this site by site and then acrossSites().
  * @param site - one site's plots from sitePlots() (kg/ha)
  * @param settings - the plan's settings (planAcrossSites): block terms, alpha, curve points,
- *   resamples and the run's seed
+ *   resamples, the run's seed and the interval level
  * @param siteIndex - the site's position in the table's site order (seeds its resamples)
  * @returns the site's analysis; a site the models refuse keeps its rows with the reason
  * @example
@@ -115,7 +138,10 @@ function orProblem<T>(compute: () => T): T | { problem: string } {
  */
 export function analyzeSite(
   site: SitePlots,
-  settings: Pick<AcrossSiteSettings, 'blocks' | 'alpha' | 'curvePoints' | 'resamples' | 'seed'>,
+  settings: Pick<
+    AcrossSiteSettings,
+    'blocks' | 'alpha' | 'curvePoints' | 'resamples' | 'seed' | 'intervalLevel'
+  >,
   siteIndex = 0,
 ): SiteAnalysis {
   const { blocks, alpha, curvePoints } = settings;
@@ -129,17 +155,20 @@ export function analyzeSite(
   const rateEffect = siteRateEffect(site, rateBlock);
   const responded = rateEffect.test.kind === 'f-test' && rateEffect.test.p < alpha;
   let fits: AllModelsFitData | null = null;
+  let profiles: SiteAnalysis['joinProfiles'] = {};
   let problem = site.problem;
   let intercept: SiteAnalysis['intercept'] = { problem: problem ?? '' };
   let correlation: SiteAnalysis['correlation'] = { problem: problem ?? '' };
   let responseOverCheck: SiteAnalysis['responseOverCheck'] = { problem: problem ?? '' };
   if (!problem) {
     try {
-      const all = fitAllModels(
+      const prepared = prepareSite(
         { rateKgHa: site.rateKgHa, yieldKgHa: site.yieldKgHa, block: site.block },
-        { blocks: b, curvePoints },
+        b,
       );
+      const all = fitAllModelsPrepared(prepared, { curvePoints });
       fits = { ...all, fits: withoutPredict(all.fits) };
+      profiles = joinProfiles(prepared, all.fits, settings.intervalLevel);
     } catch (e) {
       // A value the models refuse (e.g. a negative rate) is a data problem of this site.
       if (!(e instanceof StatsInputError)) throw e;
@@ -182,6 +211,7 @@ export function analyzeSite(
     problem,
     blocks: b,
     fits,
+    joinProfiles: profiles,
     recommended: fits
       ? recommendationModel(fits)
       : { model: null, reason: `no model could be fitted: ${problem ?? 'not fitted'}` },

@@ -53,6 +53,7 @@ export function* analyzeTrialSteps(
     curvePoints: CURVE_POINTS,
     resamples: settings.resamples,
     seed: settings.seed,
+    intervalLevel: settings.intervalLevel,
   });
   const findings = checkQuality(table);
   const sites: SiteAnalysis[] = [];

@@ -6,6 +6,7 @@
  */
 import { assertPrices, type Prices } from '../economics/priceRatio';
 import type { BlockTerms, ModelName } from '../models/modelTypes';
+import { ANALYSIS_DEFAULTS } from './analysisSettings';
 import type { PlotTable } from '../table/plotTable';
 import type { LevelTerms } from './commonResponseTests';
 import { rateGrid } from './rateGrid';
@@ -42,6 +43,12 @@ export interface AcrossSiteOptions {
   resamples?: number;
   /** Seed of the run (bootstrapSeed derives each site's); default 1. */
   seed?: number;
+  /**
+   * Level of the joins' profile intervals (shared/models/joinProfile), made with the fits so
+   * they sit beside the optimum's bootstrap interval at the same level; default
+   * ANALYSIS_DEFAULTS.intervalLevel (0.9).
+   */
+  intervalLevel?: number;
   /** Grid spacing, kg/ha; default 1 (1 lb/ac is 1.120851 kg/ha). */
   gridStepKgHa?: number;
   /** Grid start, kg/ha; default 0. */
@@ -104,6 +111,13 @@ export function planAcrossSites(
       `alpha is ${alpha}; it must lie strictly between 0 and 1.`,
     );
   }
+  const intervalLevel = options.intervalLevel ?? ANALYSIS_DEFAULTS.intervalLevel;
+  if (!(intervalLevel > 0 && intervalLevel < 1)) {
+    throw new SitesInputError(
+      'bad-argument',
+      `intervalLevel is ${intervalLevel}; it must lie strictly between 0 and 1.`,
+    );
+  }
   const plots = Array.isArray(source)
     ? (source as readonly SitePlots[])
     : sitePlots(source as PlotTable);
@@ -127,6 +141,7 @@ export function planAcrossSites(
     curvePoints: options.curvePoints,
     resamples: options.resamples ?? 0,
     seed: options.seed ?? 1,
+    intervalLevel,
     gridStepKgHa: options.gridStepKgHa ?? 1,
     gridFromKgHa: options.gridFromKgHa ?? 0,
     gridToKgHa: options.gridToKgHa ?? null,

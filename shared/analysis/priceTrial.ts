@@ -10,6 +10,7 @@ import type { BootstrapDraws } from '../economics/bootstrapDraws';
 import { economicOptimum, type EconomicOptimum } from '../economics/economicOptimum';
 import { optimumAcrossModels, type OptimumComparison } from '../economics/optimumAcrossModels';
 import { optimumInterval, type OptimumInterval } from '../economics/optimumInterval';
+import { optimumProfileInterval, type OptimumProfileInterval } from '../economics/optimumProfile';
 import { assertPrices, type Prices } from '../economics/priceRatio';
 import { curveValue } from '../models/curveValue';
 import type { ModelName } from '../models/modelTypes';
@@ -46,6 +47,13 @@ export interface PricedSite {
    * pick it is that model's interval ("fixed-model"), see priceSite.
    */
   interval: OptimumInterval | null;
+  /**
+   * The profile interval of the leading model's optimum at these prices, beside the bootstrap
+   * interval (optimumProfileInterval: the linear-plateau's join interval when its slope pays,
+   * the quadratic's in closed form); null for the other models, without a leading model and
+   * for a site that did not respond.
+   */
+  optimumProfile: OptimumProfileInterval | null;
   /** Rates within the analysis' band of the best return on the leading curve, kg/ha. */
   profitableRangeKgHa: [number, number] | null;
   /**
@@ -181,6 +189,7 @@ export function priceSite(
       lead,
       optimum: null,
       interval: null,
+      optimumProfile: null,
       profitableRangeKgHa: null,
       acrossModels: null,
     };
@@ -193,6 +202,9 @@ export function priceSite(
     lead,
     optimum: noResponse ? noResponseOptimum(fitted, fit, prices, s.rateEffect) : fitted,
     interval: noResponse && interval ? reachingZero(interval) : interval,
+    optimumProfile: noResponse
+      ? null
+      : optimumProfileInterval(fit, s.joinProfiles[lead.model] ?? null, prices, level),
     profitableRangeKgHa: profitableRange(s, lead.model, lead.basis, prices, bandPerHa),
     acrossModels: optimumAcrossModels(s.fits!.fits, s.fits!.ranking, prices),
   };

@@ -48,6 +48,8 @@ export interface Truth {
    * @returns the rate maximizing y(x) − PR·x, kg/ha
    */
   optimumKgHa(priceRatio: number): number;
+  /** Where the curve reaches its plateau (the join of a plateau curve), kg/ha; null without one. */
+  joinKgHa: number | null;
 }
 
 /** The N rates of every simulated site, kg/ha. */
@@ -67,6 +69,7 @@ function linearPlateau(name: TruthName, a: number, b: number, x0: number): Truth
     description: `linear-plateau: ${a} + ${b}·min(x, ${x0}) kg/ha`,
     yieldKgHa: (x) => a + b * Math.min(x, x0),
     optimumKgHa: (pr) => (b > pr ? x0 : 0),
+    joinKgHa: x0,
   };
 }
 
@@ -83,6 +86,7 @@ function quadraticPlateau(name: TruthName, check: number, plateau: number, x0: n
     description: `quadratic-plateau: from ${check} at 0 to the plateau ${plateau} kg/ha at ${x0} kg/ha`,
     yieldKgHa: (x) => plateau + c * Math.min(x - x0, 0) ** 2,
     optimumKgHa: (pr) => Math.max(x0 + pr / (2 * c), 0),
+    joinKgHa: x0,
   };
 }
 
@@ -97,6 +101,7 @@ function exponentialRise(name: TruthName, a: number, b: number, k: number): Trut
     description: `exponential rise: ${a} + ${b}·(1 − e^(−${k}·x)) kg/ha`,
     yieldKgHa: (x) => a + b * -Math.expm1(-k * x),
     optimumKgHa: (pr) => (b * k > pr ? Math.log((b * k) / pr) / k : 0),
+    joinKgHa: null,
   };
 }
 
@@ -107,6 +112,7 @@ function flat(name: TruthName, a: number): Truth {
     description: `flat: ${a} kg/ha at every rate`,
     yieldKgHa: () => a,
     optimumKgHa: () => 0,
+    joinKgHa: null,
   };
 }
 

@@ -20,6 +20,9 @@
  * optimumInterval(draws, model, prices, level, basis = 'model-reselected'): OptimumInterval  // re-priced
  *   → { ciKgHa, basis, shares: { curve, noPlateau, fullResponse, noResponse }, modelShares }
  *
+ * optimumProfileInterval(fit, joinProfile, prices, level): OptimumProfileInterval | null  // re-priced
+ *   → the profile interval beside it (linear-plateau: its join's; quadratic: Fieller's)
+ *
  * For the JSON report per model: optimumRate = economicOptimum(fit, prices).rateKgHa,
  * yieldAtOptimum = .yieldKgHa, optimumCI = optimumInterval(...).ciKgHa.
  *
@@ -32,3 +35,4 @@ export * from './economicOptimum';
 export * from './optimumAcrossModels';
 export * from './recommendationCautions';
 export * from './bootstrapOptimum';
+export * from './optimumProfile';

@@ -44,6 +44,8 @@
  *   closed-form optimum, whether it is a curve, its limit model and its chart dash;
  *   `modelLabel(model)` and `modelLabelInText(model)` for its name
  * - `MODEL_CATALOG[model]` (shared/models/catalog): the same with its fit and estimate
+ * - `joinProfileInterval(site, fit, level) → RateProfileInterval | null`: the F-based profile
+ *   interval of the plateau models' join, open where it runs off the tested rates
  * - `prepareSite(data, blocks) → PreparedSite` + `fitAllModelsPrepared(site, options)`:
  *   prepare once and refit; `rankByAicc(fits)`
  *
@@ -83,5 +85,7 @@ export type { PreparedSite } from './prepareSite';
 export { fitResponseOverCheck } from './responseOverCheck';
 export type { ResponseOverCheck } from './responseOverCheck';
 export { estimateCurve } from './estimateCurve';
+export { joinProfileInterval } from './joinProfile';
+export type { RateProfileInterval } from './joinProfile';
 export { KG_HA_FORMAT, rateRangeText, rateText, roundedKgHa } from './rateFormat';
 export type { RateFormat } from './rateFormat';

@@ -28,6 +28,7 @@ import { linearCoefficients, profiledCoefficients } from './solve/linearCoeffici
 import type { CurveEstimate, FitOptions, ModelFit, SiteData } from './modelTypes';
 import { plateauEstimate } from './plateauEstimate';
 import { prepareSite, type PreparedSite } from './prepareSite';
+import type { JoinSseProfile } from './solve/profileInterval';
 import { profileSolver, type ProfileSolver } from './solve/profileSolver';
 import type { RateFormat } from './rateFormat';
 import { relaxedJoinBounds } from './solve/relaxedJoinBounds';
@@ -35,6 +36,10 @@ import { searchJoinPoint } from './solve/searchJoinPoint';
 import { stationaryJoinPoints } from './solve/stationaryJoinPoints';
 
 const linearPlateauSpec = linearPlateauCurve.spec;
+/** The inner fit at a fixed join: intercept and slope b > 0 (and block offsets). */
+const INNER = { intercept: true, sign: 'positive' } as const;
+/** Degree of the rising piece, for the relaxed bounds and the stationary joins. */
+const RISE_DEGREE = 1;
 
 /**
  * The linear-plateau's estimate and status from the profiled search alone.
@@ -56,10 +61,10 @@ export function estimateLinearPlateau(
   if (why) return unfittedEstimate(site, linearPlateauSpec, why);
   const rates = site.rates;
   const m = rates.length;
-  const solver = profileSolver(site, { intercept: true, sign: 'positive' });
+  const solver = profileSolver(site, INNER);
   const sseAt = joinSse(rates, solver);
-  const bounds = site.design === 'full' ? undefined : relaxedJoinBounds(site, 1);
-  const stationary = bounds ? stationaryJoinPoints(site, 1) : undefined;
+  const bounds = site.design === 'full' ? undefined : relaxedJoinBounds(site, RISE_DEGREE);
+  const stationary = bounds ? stationaryJoinPoints(site, RISE_DEGREE) : undefined;
   const best = searchJoinPoint(rates, sseAt, tolerance, bounds, stationary);
   return plateauEstimate({
     site,
@@ -82,6 +87,22 @@ function joinSse(rates: Float64Array, solver: ProfileSolver): (x0: number) => nu
   return (x0) => {
     for (let j = 0; j < m; j++) g[j] = rates[j] < x0 ? rates[j] : x0;
     return solver.sse(g);
+  };
+}
+
+/**
+ * The linear-plateau's SSE with the join held fixed, minimized over a, b > 0 and any block
+ * offsets (the same inner fit as the search), and where it can have interior minima: what
+ * the join's profile interval (shared/models/joinProfile) searches.
+ * @param site - from prepareSite
+ * @returns S(x0) in (kg/ha)² at a join x0 in kg/ha, and the stationary joins (group sums only)
+ * @example
+ * linearPlateauJoinSse(site).sse(100) // SSE of the best linear-plateau joined at 100 kg/ha
+ */
+export function linearPlateauJoinSse(site: PreparedSite): JoinSseProfile {
+  return {
+    sse: joinSse(site.rates, profileSolver(site, INNER)),
+    stationary: site.design === 'full' ? undefined : stationaryJoinPoints(site, RISE_DEGREE),
   };
 }
 

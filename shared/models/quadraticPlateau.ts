@@ -31,6 +31,7 @@ import {
 import type { CurveEstimate, FitOptions, ModelFit, SiteData } from './modelTypes';
 import { plateauEstimate } from './plateauEstimate';
 import { prepareSite, type PreparedSite } from './prepareSite';
+import type { JoinSseProfile } from './solve/profileInterval';
 import { profileSolver, type ProfileSolver } from './solve/profileSolver';
 import type { RateFormat } from './rateFormat';
 import { relaxedJoinBounds } from './solve/relaxedJoinBounds';
@@ -38,6 +39,10 @@ import { searchJoinPoint } from './solve/searchJoinPoint';
 import { stationaryJoinPoints } from './solve/stationaryJoinPoints';
 
 const quadraticPlateauSpec = quadraticPlateauCurve.spec;
+/** The inner fit at a fixed join: plateau P and curvature c < 0 (and block offsets). */
+const INNER = { intercept: true, sign: 'negative' } as const;
+/** Degree of the rising piece, for the relaxed bounds and the stationary joins. */
+const RISE_DEGREE = 2;
 
 /**
  * The quadratic-plateau's estimate and status from the profiled search alone.
@@ -59,10 +64,10 @@ export function estimateQuadraticPlateau(
   if (why) return unfittedEstimate(site, quadraticPlateauSpec, why);
   const rates = site.rates;
   const m = rates.length;
-  const solver = profileSolver(site, { intercept: true, sign: 'negative' });
+  const solver = profileSolver(site, INNER);
   const sseAt = joinSse(rates, solver);
-  const bounds = site.design === 'full' ? undefined : relaxedJoinBounds(site, 2);
-  const stationary = bounds ? stationaryJoinPoints(site, 2) : undefined;
+  const bounds = site.design === 'full' ? undefined : relaxedJoinBounds(site, RISE_DEGREE);
+  const stationary = bounds ? stationaryJoinPoints(site, RISE_DEGREE) : undefined;
   const best = searchJoinPoint(rates, sseAt, tolerance, bounds, stationary);
   const rMax = rates[m - 1];
 
@@ -105,6 +110,22 @@ function joinSse(rates: Float64Array, solver: ProfileSolver): (x0: number) => nu
       g[j] = d * d;
     }
     return solver.sse(g);
+  };
+}
+
+/**
+ * The quadratic-plateau's SSE with the join held fixed, minimized over P, c < 0 and any
+ * block offsets (the same inner fit as the search), and where it can have interior minima:
+ * what the join's profile interval (shared/models/joinProfile) searches.
+ * @param site - from prepareSite
+ * @returns S(x0) in (kg/ha)² at a join x0 in kg/ha, and the stationary joins (group sums only)
+ * @example
+ * quadraticPlateauJoinSse(site).sse(150) // SSE of the best quadratic-plateau joined at 150 kg/ha
+ */
+export function quadraticPlateauJoinSse(site: PreparedSite): JoinSseProfile {
+  return {
+    sse: joinSse(site.rates, profileSolver(site, INNER)),
+    stationary: site.design === 'full' ? undefined : stationaryJoinPoints(site, RISE_DEGREE),
   };
 }
 

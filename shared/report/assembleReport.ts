@@ -13,6 +13,8 @@ import type { PricedSite, PricedTrial } from '../analysis/priceTrial';
 import type { SiteModelRow } from '../analysis/siteModelRows';
 import type { SitePlots } from '../analysis/sitePlots';
 import type { MappingEntry } from '../import/mappingEntries';
+import type { OptimumProfileInterval } from '../economics/optimumProfile';
+import type { RateProfileInterval } from '../models/joinProfile';
 import type { ModelName } from '../models/modelTypes';
 import { describeRef, type QualityFinding } from '../table/qualityFinding';
 import type { Plot } from '../table/plotTable';
@@ -109,8 +111,16 @@ function findingLines(findings: readonly QualityFinding[]): {
   return { bySite, run };
 }
 
-/** One model's row of the report, from the analysis' fit and its priced row. */
-function modelRow(f: FitData, row: SiteModelRow, ciKgHa: [number, number] | null): ModelRow {
+/**
+ * One model's row of the report, from the analysis' fit, its priced row, its join's profile
+ * interval and, for the chosen model, the optimum's two intervals.
+ */
+function modelRow(
+  f: FitData,
+  row: SiteModelRow,
+  joinProfile: RateProfileInterval | null,
+  chosen: { ciKgHa: [number, number] | null; profile: OptimumProfileInterval | null } | null,
+): ModelRow {
   return {
     model: f.model,
     label: f.label,
@@ -123,7 +133,9 @@ function modelRow(f: FitData, row: SiteModelRow, ciKgHa: [number, number] | null
     aicc: f.aicc,
     r2: f.r2,
     optimumRateKgHa: row.optimumRateKgHa,
-    optimumCiKgHa: ciKgHa,
+    optimumCiKgHa: chosen?.ciKgHa ?? null,
+    joinProfile,
+    optimumProfile: chosen?.profile ?? null,
     yieldAtOptimumKgHa: row.yieldAtOptimumKgHa,
     optimumNote:
       row.optimumStatus === 'not-fitted' ? '' : optimumNote({ status: row.optimumStatus }),
@@ -270,7 +282,10 @@ function siteReport(
         modelRow(
           all.fits[model],
           c.rows.get(model)!,
-          model === choice.model ? (bootstrap?.ciKgHa ?? null) : null,
+          s.joinProfiles[model] ?? null,
+          model === choice.model
+            ? { ciKgHa: bootstrap?.ciKgHa ?? null, profile: c.priced.optimumProfile }
+            : null,
         ),
       )
     : [];

@@ -4,7 +4,47 @@
  * models and economics stages write their messages in kg/ha).
  */
 import type { EconomicOptimum } from '../economics/economicOptimum';
+import type { RateProfileInterval } from '../models/joinProfile';
 import type { ModelFit } from '../models/modelTypes';
+
+/** What ≤ and ≥ mean at the ends of a profile interval, for a table's legend. */
+export const PROFILE_OPEN_ENDS_LEGEND =
+  'Profile interval: the rates whose best fit is within the F criterion of the best (Bates & Watts 1988, §6.1); ≤ or ≥ at an end: the data do not close it there, and it runs to the lowest or highest tested rate.';
+
+/**
+ * A profile interval as text, its open ends marked ≤ (open below) and ≥ (open above).
+ * @param p - the interval, kg/ha
+ * @param rate - writes a rate given in kg/ha, in the writer's units
+ * @returns e.g. "101 to 185", "≤ 0 to 86", "127 to ≥ 200"
+ * @example
+ * profileIntervalText({ lowKgHa: 127, highKgHa: 200, lowOpen: false, highOpen: true }, (r) => r.toFixed(0)) // '127 to ≥ 200'
+ */
+export function profileIntervalText(
+  p: Pick<RateProfileInterval, 'lowKgHa' | 'highKgHa' | 'lowOpen' | 'highOpen'>,
+  rate: (kgHa: number) => string,
+): string {
+  return `${p.lowOpen ? '≤ ' : ''}${rate(p.lowKgHa)} to ${p.highOpen ? '≥ ' : ''}${rate(p.highKgHa)}`;
+}
+
+/**
+ * Which ends of a join's profile interval the data leave open, in words, for a note column.
+ * @param p - the interval
+ * @returns one sentence, or "" when both ends are closed
+ * @example
+ * joinProfileNote({ lowOpen: false, highOpen: true }) // 'The join's profile interval is open above: …'
+ */
+export function joinProfileNote(p: Pick<RateProfileInterval, 'lowOpen' | 'highOpen'>): string {
+  if (p.lowOpen && p.highOpen) {
+    return "The join's profile interval is open at both ends: it runs over all the tested rates.";
+  }
+  if (p.lowOpen) {
+    return "The join's profile interval is open below: a full response by the lowest non-zero rate is not ruled out.";
+  }
+  if (p.highOpen) {
+    return "The join's profile interval is open above: a join at or past the highest tested rate is not ruled out.";
+  }
+  return '';
+}
 
 /**
  * A fit's status in words without numbers, for the same reason as the

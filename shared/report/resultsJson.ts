@@ -4,6 +4,7 @@
  * the units named in `settings.units`; money in the currency the prices were
  * given in, per acre with US rates and per hectare otherwise.
  */
+import type { RateProfileInterval } from '../models/joinProfile';
 import type { ModelName, FitStatus } from '../models/modelTypes';
 import type { TrialReport } from './trialReport';
 import { priceRatioQuote } from '../economics/priceQuote';
@@ -21,6 +22,26 @@ export interface ResultsModel {
   optimumRate: number | null;
   optimumCI: [number, number] | null;
   yieldAtOptimum: number | null;
+  /**
+   * The F-based profile interval of the join x0 (linear-plateau and quadratic-plateau when
+   * they report a join) at `level`; `lowOpen`/`highOpen`: the data do not close it there and
+   * it runs to the lowest/highest tested rate. Null for the other models and statuses.
+   */
+  joinProfileInterval: ProfileIntervalJson | null;
+  /**
+   * The profile interval of `optimumRate` beside the bootstrap `optimumCI` (the best model only):
+   * `basis` "join" (the linear-plateau's optimum is its join) or "linear-constraint" (the
+   * quadratic's, in closed form). Null for the other models, whose profile would need refits.
+   */
+  optimumProfileInterval: (ProfileIntervalJson & { basis: 'join' | 'linear-constraint' }) | null;
+}
+
+/** A profile interval in the output rate unit. */
+export interface ProfileIntervalJson {
+  interval: [number, number];
+  lowOpen: boolean;
+  highOpen: boolean;
+  level: number;
 }
 
 export interface ResultsSite {
@@ -109,6 +130,15 @@ function clean(v: number): number {
 
 function cleanOrNull(v: number | null): number | null {
   return v === null || !Number.isFinite(v) ? null : clean(v);
+}
+
+function profileJson(p: RateProfileInterval, rate: (kgHa: number) => number): ProfileIntervalJson {
+  return {
+    interval: [clean(rate(p.lowKgHa)), clean(rate(p.highKgHa))],
+    lowOpen: p.lowOpen,
+    highOpen: p.highOpen,
+    level: p.level,
+  };
 }
 
 /**
@@ -229,6 +259,10 @@ export function resultsJson(report: TrialReport): ResultsJson {
         yieldAtOptimum: cleanOrNull(
           m.yieldAtOptimumKgHa === null ? null : u.yield(m.yieldAtOptimumKgHa),
         ),
+        joinProfileInterval: m.joinProfile ? profileJson(m.joinProfile, u.rate) : null,
+        optimumProfileInterval: m.optimumProfile
+          ? { ...profileJson(m.optimumProfile, u.rate), basis: m.optimumProfile.basis }
+          : null,
       })),
       warnings: [...s.warnings],
     })),

@@ -10,6 +10,8 @@ import type { ModelName, FitStatus } from '../models/modelTypes';
 import type { RecommendationBasis } from '../analysis/siteDecision';
 import type { ResponseOverCheckOutcome } from '../analysis/siteResponseOverCheck';
 import type { IntervalBasis, OptimumShares } from '../economics/optimumInterval';
+import type { OptimumProfileInterval } from '../economics/optimumProfile';
+import type { RateProfileInterval } from '../models/joinProfile';
 import type { MappingEntry } from '../import/mappingEntries';
 import type { Plot, SourceFile, CropId } from '../table/plotTable';
 
@@ -37,6 +39,16 @@ export interface ModelRow {
   optimumRateKgHa: number | null;
   /** Interval of the optimum, kg/ha (bootstrap for the chosen model, else null). */
   optimumCiKgHa: [number, number] | null;
+  /**
+   * Profile interval of the join x0 at the analysis' interval level, kg/ha, with its open ends
+   * (shared/models/joinProfile); null unless the model has a join and reports one ("ok").
+   */
+  joinProfile: RateProfileInterval | null;
+  /**
+   * Profile interval of the optimum at these prices, kg/ha, beside the bootstrap one (the
+   * chosen model only, where optimumProfileInterval gives one: the linear-plateau, the quadratic).
+   */
+  optimumProfile: OptimumProfileInterval | null;
   /** Predicted yield at the optimum, kg/ha. */
   yieldAtOptimumKgHa: number | null;
   /** Why there is no optimum or it is capped, e.g. "corner: highest tested rate". */

@@ -6,6 +6,7 @@
  * the plot data.
  */
 import { intervalBasisText, intervalSharesText } from './intervalShares';
+import { joinProfileNote, PROFILE_OPEN_ENDS_LEGEND, profileIntervalText } from './modelNotes';
 import type ExcelJS from 'exceljs';
 import type { SiteReport, TrialReport } from './trialReport';
 import type { UnitScale } from './unitScale';
@@ -185,6 +186,8 @@ export function workbookSite(
     'AICc',
     'R²',
     ...optimumHeaders(rN, yu),
+    `Join profile low (${rN})`,
+    `Join profile high (${rN})`,
     'Note',
   ]);
   const f2 = u.yield(1) ** 2;
@@ -211,12 +214,16 @@ export function workbookSite(
       m.optimumCiKgHa ? u.rate(m.optimumCiKgHa[0]) : null,
       m.optimumCiKgHa ? u.rate(m.optimumCiKgHa[1]) : null,
       m.yieldAtOptimumKgHa === null ? null : u.yield(m.yieldAtOptimumKgHa),
-      [m.message, m.optimumNote].filter(Boolean).join(' '),
+      m.joinProfile ? u.rate(m.joinProfile.lowKgHa) : null,
+      m.joinProfile ? u.rate(m.joinProfile.highKgHa) : null,
+      [m.message, m.optimumNote, m.joinProfile ? joinProfileNote(m.joinProfile) : '']
+        .filter(Boolean)
+        .join(' '),
     ];
     row.getCell(4).numFmt = magnitudeFormat(m.sse * f2);
     row.getCell(6).numFmt = '0.0';
     row.getCell(7).numFmt = '0.000';
-    for (const c of [8, 9, 10]) row.getCell(c).numFmt = rateFormat(ru);
+    for (const c of [8, 9, 10, 12, 13]) row.getCell(c).numFmt = rateFormat(ru);
     row.getCell(11).numFmt = yieldFormat(yu);
     if (m.model === site.bestModel) row.font = { bold: true };
   }
@@ -232,6 +239,13 @@ export function workbookSite(
     ws.getCell(r++, 1).value =
       `Optimum interval: ${Math.round(b.level * 100)} % percentile bootstrap over ${intervalBasisText(b)}, seed ${b.seed}; counted as ${intervalSharesText(b)}.`;
   }
+  const profiled = site.models.find((m) => m.model === site.bestModel)?.optimumProfile;
+  if (profiled) {
+    const text = profileIntervalText(profiled, (x) => formatRate(u.rate(x)));
+    ws.getCell(r++, 1).value =
+      `Optimum profile interval (${Math.round(profiled.level * 100)} %, ${profiled.basis === 'join' ? "the join's" : 'from the quadratic in closed form'}): ${text} ${rN}, beside the bootstrap interval.`;
+  }
+  if (site.models.some((m) => m.joinProfile)) ws.getCell(r++, 1).value = PROFILE_OPEN_ENDS_LEGEND;
   if (site.lackOfFit.available) {
     const l = site.lackOfFit;
     const row = ws.getRow(r++);

@@ -7,6 +7,7 @@
  * screen, the workbook and the command line agree.
  */
 import { economicOptimum, type EconomicOptimum } from '../../../shared/economics/economicOptimum';
+import type { OptimumProfileInterval } from '../../../shared/economics/optimumProfile';
 import type { Prices } from '../../../shared/economics/priceRatio';
 import type { ModelName } from '../../../shared/models/modelTypes';
 import type { TrialAnalysis } from '../../../shared/analysis/analyzeTrial';
@@ -39,6 +40,8 @@ export interface SiteOptimum {
   basis: RecommendationBasis | null;
   /** The bootstrap interval of the optimum, kg/ha; null when there is none. */
   intervalKgHa: [number, number] | null;
+  /** The optimum's profile interval beside it (priceTrial's optimumProfile); null when there is none. */
+  profile: OptimumProfileInterval | null;
   /**
    * Lowest and highest optimum of the ranked curves when they lie far apart (optimumAcrossModels
    * warns), kg/ha; null when they agree.
@@ -66,6 +69,7 @@ export function siteOptima(sites: readonly SiteAnalysis[], priced: PricedTrial):
       optimum: fit ? p.optimum : null,
       basis: fit ? (p.lead.basis ?? null) : null,
       intervalKgHa: fit ? (p.interval?.ciKgHa ?? null) : null,
+      profile: fit ? p.optimumProfile : null,
       spreadKgHa: p?.acrossModels?.warning
         ? [p.acrossModels.lowestRateKgHa, p.acrossModels.highestRateKgHa]
         : null,

@@ -47,6 +47,8 @@ export interface SiteAnalysis {
   /** Why the site has nothing to fit, or null. */
   problem: string | null;
   fits: Partial<Record<ModelName, FitData>>;
+  /** Each model's join profile interval, kg/ha (the pipeline's joinProfiles; absent without a join). */
+  joinProfiles: PipelineSite['joinProfiles'];
   ranking: ModelRank[];
   /** The pipeline's recommendation model (shared/sites recommendationModel), price-independent. */
   recommended: ModelName | null;
@@ -81,6 +83,7 @@ function siteView(s: PipelineSite, plots: SitePlots): SiteAnalysis {
     plots,
     problem: s.problem,
     fits: s.fits?.fits ?? {},
+    joinProfiles: s.joinProfiles,
     ranking: s.fits?.ranking ?? [],
     recommended: s.recommended.model,
     intercept:

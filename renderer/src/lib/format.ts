@@ -4,6 +4,8 @@
  * inside; this module converts at the edge, so the US/metric switch touches
  * nothing but display.
  */
+import type { RateProfileInterval } from '../../../shared/models/joinProfile';
+import { profileIntervalText } from '../../../shared/report/modelNotes';
 import type { CropId } from '../../../shared/table/plotTable';
 import { rateFromKgHa, type RateUnit } from '../../../shared/units/convertRate';
 import { yieldFromKgHa, type YieldUnit } from '../../../shared/units/convertYield';
@@ -120,6 +122,28 @@ export function formatSignificant(
 export function formatRate(rateKgHa: number | null, unit: RateUnit, locale?: string): string {
   if (rateKgHa === null || !Number.isFinite(rateKgHa)) return '–';
   return `${formatNumber(rateFromKgHa(rateKgHa, unit), rateDecimals[unit], locale)} ${unitLabel(unit)}`;
+}
+
+/**
+ * A profile interval of a rate held in kg/ha, in the display unit with the unit once; an end the
+ * data leave open is marked ≤ (below) or ≥ (above), as the report writes it (profileIntervalText).
+ * @param interval - the interval, kg/ha, with its open ends
+ * @param unit - display unit
+ * @param locale - a BCP 47 tag
+ * @returns e.g. '101 to 185 kg/ha' or '127 to ≥ 200 kg/ha'; '–' for none
+ * @example
+ * formatRateInterval({ lowKgHa: 112.085, highKgHa: 224.17, lowOpen: false, highOpen: true }, 'lb/ac', 'en-US') // '100 to ≥ 200 lb/ac'
+ */
+export function formatRateInterval(
+  interval: Pick<RateProfileInterval, 'lowKgHa' | 'highKgHa' | 'lowOpen' | 'highOpen'> | null,
+  unit: RateUnit,
+  locale?: string,
+): string {
+  if (!interval) return '–';
+  const text = profileIntervalText(interval, (kgHa) =>
+    formatNumber(rateFromKgHa(kgHa, unit), rateDecimals[unit], locale),
+  );
+  return `${text} ${unitLabel(unit)}`;
 }
 
 /**
