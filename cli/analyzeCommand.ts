@@ -168,7 +168,15 @@ function summary(report: TrialReport): string[] {
     // The site's recommendation as its decision makes it (no response, full response, a curve).
     const r = s.recommendation;
     const m = s.models.find((x) => x.model === r.model);
-    const ci = r.ciKgHa ? ` (${rate(r.ciKgHa[0])} to ${rate(r.ciKgHa[1])})` : '';
+    // An interval whose upper end is 0 says that at least its upper percentile of the
+    // resamples gave no N: say that, rather than "0 to 0".
+    const level = `${Math.round(r.level * 100)} % interval`;
+    const upper = Math.round(((1 + r.level) / 2) * 100);
+    const ci = !r.ciKgHa
+      ? ''
+      : r.ciKgHa[1] === 0
+        ? ` (${upper} % of the resamples or more give no N)`
+        : ` (${level} ${rate(r.ciKgHa[0])} to ${rate(r.ciKgHa[1])})`;
     const y = m?.yieldAtOptimumKgHa;
     const yieldText =
       y != null ? `, yield ${formatQuantity(u.yield(y), report.settings.units.yield)}` : '';
