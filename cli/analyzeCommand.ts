@@ -7,9 +7,9 @@
  * imported where their output is written, so a run that writes only JSON
  * never loads them.
  */
-import { existsSync, readFileSync, realpathSync } from 'node:fs';
+import { accessSync, constants, readFileSync, realpathSync, statSync } from 'node:fs';
 import path from 'node:path';
-import { writeFileAtomic } from '../electron/atomicWrite';
+import { writeFilesAtomic, type PendingOutput } from '../electron/atomicWrite';
 import { analysisSettings } from '../shared/analysis/analysisSettings';
 import { analyzeTrial } from '../shared/analysis/analyzeTrial';
 import { priceTrial } from '../shared/analysis/priceTrial';
@@ -38,6 +38,17 @@ export class AnalysisFailed extends Error {
   }
 }
 
+/**
+ * The outputs could not be written after the checks before the run passed (a full disk, a
+ * folder removed mid-run): none of them was written. Exit code 1, as for an analysis failure.
+ */
+export class OutputFailed extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = 'OutputFailed';
+  }
+}
+
 /** Where the command writes its messages; tests and the demo command pass their own. */
 export interface Console2 {
   out: (line: string) => void;
@@ -58,8 +69,29 @@ function resolved(p: string): string {
   }
 }
 
+/** Device and inode of a file, to know a hard link of an input by more than its name; null when absent. */
+function fileIdentity(p: string): string | null {
+  try {
+    const st = statSync(p);
+    return `${st.dev}:${st.ino}`;
+  } catch {
+    return null;
+  }
+}
+
+/**
+ * Every output is checked before any work, so a run never fits a thousand sites to fail on a
+ * missing folder: the name's extension, its folder exists, is a folder and can be written, the
+ * target is not a folder and, when it exists, can be written over; no two outputs share a
+ * file and no output is an input (by real path, and by device and inode for hard links).
+ */
 function checkOutputs(args: AnalyzeArgs): void {
   const inputs = new Map(args.files.map((f) => [resolved(f), f]));
+  const inputIds = new Map<string, string>();
+  for (const f of args.files) {
+    const id = fileIdentity(f);
+    if (id) inputIds.set(id, f);
+  }
   const outs: [string, string | null, string][] = [
     ['--out', args.out, '.xlsx'],
     ['--pdf', args.pdf, '.pdf'],
@@ -69,7 +101,8 @@ function checkOutputs(args: AnalyzeArgs): void {
   for (const [option, p, ext] of outs) {
     if (!p) continue;
     const r = resolved(p);
-    const input = inputs.get(r);
+    const id = fileIdentity(r);
+    const input = inputs.get(r) ?? (id ? inputIds.get(id) : undefined);
     if (input !== undefined) {
       throw new UsageError(
         `${option} ${p} is the input file "${input}"; choose another name, an input is never written over.`,
@@ -82,9 +115,35 @@ function checkOutputs(args: AnalyzeArgs): void {
     seen.set(r, option);
     if (path.extname(p).toLowerCase() !== ext)
       throw new UsageError(`${option} ${p}: name the file with ${ext}.`);
-    if (!existsSync(path.dirname(path.resolve(p)))) {
+    const folder = path.dirname(path.resolve(p));
+    let folderStat;
+    try {
+      folderStat = statSync(folder);
+    } catch {
+      throw new UsageError(`${option} ${p}: the folder ${folder} does not exist.`);
+    }
+    if (!folderStat.isDirectory())
+      throw new UsageError(`${option} ${p}: ${folder} is not a folder.`);
+    try {
+      accessSync(folder, constants.W_OK);
+    } catch {
       throw new UsageError(
-        `${option} ${p}: the folder ${path.dirname(path.resolve(p))} does not exist.`,
+        `${option} ${p}: the folder ${folder} cannot be written to; choose another folder.`,
+      );
+    }
+    let target;
+    try {
+      target = statSync(path.resolve(p));
+    } catch {
+      continue; // a new file
+    }
+    if (target.isDirectory())
+      throw new UsageError(`${option} ${p} is a folder; give a file name ending in ${ext}.`);
+    try {
+      accessSync(path.resolve(p), constants.W_OK);
+    } catch {
+      throw new UsageError(
+        `${option} ${p} exists and cannot be written over; choose another name.`,
       );
     }
   }
@@ -277,42 +336,59 @@ export async function analyzeCommand(
     );
   }
   const charts = args.out || args.pdf ? await drawCharts(report, log) : null;
+  // Every output goes to a temporary file first and all are renamed together at the end, so a
+  // run leaves all of them or none (a failure, or SIGINT/SIGTERM, removes the temporaries).
+  const outputs: PendingOutput[] = [];
   if (args.out && charts) {
-    log.err(`plotrate: writing ${args.out}`);
-    const { writeWorkbook } = await import('../shared/report/workbook');
-    await writeFileAtomic(
-      path.resolve(args.out),
-      await writeWorkbook(report, {
-        siteCharts: charts.sites,
-        acrossChart: charts.region,
-        // Fast deflate for big runs: most bytes are PNGs that do not shrink further.
-        zipLevel: report.sites.length > 100 ? 1 : undefined,
-      }),
-    );
+    outputs.push({
+      target: path.resolve(args.out),
+      make: async () => {
+        const { writeWorkbook } = await import('../shared/report/workbook');
+        return writeWorkbook(report, {
+          siteCharts: charts.sites,
+          acrossChart: charts.region,
+          // Fast deflate for big runs: most bytes are PNGs that do not shrink further.
+          zipLevel: report.sites.length > 100 ? 1 : undefined,
+        });
+      },
+    });
   }
   if (args.pdf && charts) {
-    log.err(`plotrate: writing ${args.pdf}`);
-    const pageCharts: Record<string, { png: Uint8Array; aspect: number }> = {};
-    for (const [site, c] of Object.entries(charts.sites))
-      pageCharts[site] = { png: c.png, aspect: c.heightPx / c.widthPx };
-    if (charts.region && report.acrossSites) {
-      pageCharts[`Region (${report.acrossSites.sites.length} sites)`] = {
-        png: charts.region.png,
-        aspect: charts.region.heightPx / charts.region.widthPx,
-      };
-    }
-    const { growerPdf } = await import('./growerPdf');
-    const { reportGrowerPages } = await import('../shared/report/reportGrowerPages');
-    await writeFileAtomic(
-      path.resolve(args.pdf),
-      await growerPdf(reportGrowerPages(report), pageCharts, new Date(report.createdAt)),
-    );
+    outputs.push({
+      target: path.resolve(args.pdf),
+      make: async () => {
+        const pageCharts: Record<string, { png: Uint8Array; aspect: number }> = {};
+        for (const [site, c] of Object.entries(charts.sites))
+          pageCharts[site] = { png: c.png, aspect: c.heightPx / c.widthPx };
+        if (charts.region && report.acrossSites) {
+          pageCharts[`Region (${report.acrossSites.sites.length} sites)`] = {
+            png: charts.region.png,
+            aspect: charts.region.heightPx / charts.region.widthPx,
+          };
+        }
+        const { growerPdf } = await import('./growerPdf');
+        const { reportGrowerPages } = await import('../shared/report/reportGrowerPages');
+        return growerPdf(reportGrowerPages(report), pageCharts, new Date(report.createdAt));
+      },
+    });
   }
   if (args.json) {
-    log.err(`plotrate: writing ${args.json}`);
-    await writeFileAtomic(
-      path.resolve(args.json),
-      `${JSON.stringify(resultsJson(report), null, 2)}\n`,
+    outputs.push({
+      target: path.resolve(args.json),
+      make: async () => `${JSON.stringify(resultsJson(report), null, 2)}\n`,
+    });
+  }
+  try {
+    const given = new Map(
+      [args.out, args.pdf, args.json].flatMap((p) => (p ? [[path.resolve(p), p] as const] : [])),
+    );
+    await writeFilesAtomic(outputs, (target) =>
+      log.err(`plotrate: writing ${given.get(target) ?? target}`),
+    );
+  } catch (e) {
+    const err = e as NodeJS.ErrnoException;
+    throw new OutputFailed(
+      `could not write the outputs (${err.code ?? 'error'}: ${err.message}); none was written.`,
     );
   }
   for (const line of summary(report)) log.out(line);

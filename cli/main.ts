@@ -66,10 +66,33 @@ async function main(argv: string[]): Promise<number> {
       log.err(`plotrate: analysis failed: ${oneLine(e.message)}`);
       return 1;
     }
+    if (e instanceof Error && e.name === 'OutputFailed') {
+      log.err(`plotrate: ${oneLine(e.message)}`);
+      return 1;
+    }
     log.err(`plotrate: analysis failed: ${oneLine(e instanceof Error ? e.message : String(e))}`);
     if (process.env.PLOTRATE_DEBUG && e instanceof Error) log.err(e.stack ?? '');
     return 1;
   }
+}
+
+let stopping = false;
+// An interrupted run removes the outputs' temporary files before it ends (none was renamed
+// yet, so every target is as it was). Exit codes as a shell reports a signal: 128 + its number.
+for (const [signal, code] of [
+  ['SIGINT', 130],
+  ['SIGTERM', 143],
+] as const) {
+  process.on(signal, () => {
+    // A second signal (a second Ctrl-C) while the first is handled changes nothing.
+    if (stopping) return;
+    stopping = true;
+    void import('../electron/atomicWrite').then(({ removeLiveTemporaries }) => {
+      removeLiveTemporaries();
+      log.err(`plotrate: stopped by ${signal}; unfinished outputs removed.`);
+      process.exit(code);
+    });
+  });
 }
 
 process.exitCode = await main(process.argv.slice(2));

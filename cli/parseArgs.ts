@@ -114,6 +114,11 @@ export function parseArgs(argv: readonly string[]): Command {
   for (let i = 0; i < rest.length; i++) {
     const w = rest[i];
     switch (w) {
+      case '--':
+        // Everything after "--" is a file, even a name that starts with a dash.
+        a.files.push(...rest.slice(i + 1));
+        i = rest.length;
+        break;
       case '--out':
         a.out = path(w, rest[++i]);
         break;
@@ -203,7 +208,10 @@ export function parseArgs(argv: readonly string[]): Command {
         break;
       }
       default:
-        if (w.startsWith('-')) throw new UsageError(`Unknown option ${w} (see plotrate --help).`);
+        if (w.startsWith('-'))
+          throw new UsageError(
+            `Unknown option ${w} (see plotrate --help; write -- before a file whose name starts with a dash).`,
+          );
         a.files.push(w);
     }
   }

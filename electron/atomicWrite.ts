@@ -17,6 +17,7 @@
  * checks that.
  */
 import { randomBytes } from 'node:crypto';
+import { unlinkSync } from 'node:fs';
 import { open, readdir, rename, stat, unlink } from 'node:fs/promises';
 import path from 'node:path';
 
@@ -40,9 +41,56 @@ export function temporaryNameFor(target: string): string {
  * @example await writeFileAtomic('/home/ana/trials/North.plotrate', text)
  */
 export async function writeFileAtomic(target: string, data: Uint8Array | string): Promise<void> {
+  const temporary = await writeTemporary(target, data);
+  try {
+    await rename(temporary, target);
+  } catch (e) {
+    await discardTemporary(temporary);
+    throw e;
+  }
+  live.delete(temporary);
+  await syncFolder(path.dirname(target));
+  await removeStaleTemporaries(target);
+}
+
+/**
+ * Temporary files of this process that are not yet renamed: a SIGINT or SIGTERM removes them
+ * before the process ends (removeLiveTemporaries), so an interrupted run leaves nothing behind.
+ */
+const live = new Set<string>();
+
+/**
+ * Removes this process's temporary files that are not yet renamed (synchronously, so it can run
+ * in a signal handler just before exit).
+ * @returns how many were removed
+ * @example process.once('SIGTERM', () => { removeLiveTemporaries(); process.exit(143); })
+ */
+export function removeLiveTemporaries(): number {
+  let removed = 0;
+  for (const name of live) {
+    try {
+      unlinkSync(name);
+      removed++;
+    } catch {
+      // Already gone.
+    }
+  }
+  live.clear();
+  return removed;
+}
+
+async function discardTemporary(temporary: string): Promise<void> {
+  live.delete(temporary);
+  await unlink(temporary).catch(() => undefined);
+}
+
+/** Writes data to a new temporary file beside target (O_EXCL) and fsyncs it; returns its name. */
+async function writeTemporary(target: string, data: Uint8Array | string): Promise<string> {
   const bytes = typeof data === 'string' ? Buffer.from(data, 'utf8') : data;
   const temporary = temporaryNameFor(target);
+  // 'wx' is O_CREAT | O_EXCL: never follows a symbolic link planted at the temporary name.
   const handle = await open(temporary, 'wx', 0o644);
+  live.add(temporary);
   try {
     for (let at = 0; at < bytes.length; at += CHUNK_BYTES) {
       const end = Math.min(at + CHUNK_BYTES, bytes.length);
@@ -56,27 +104,88 @@ export async function writeFileAtomic(target: string, data: Uint8Array | string)
     await handle.close();
   } catch (e) {
     await handle.close().catch(() => undefined);
-    await unlink(temporary).catch(() => undefined);
+    await discardTemporary(temporary);
     throw e;
   }
+  return temporary;
+}
+
+/** One output of a run: where it goes and a function that makes its bytes when its turn comes. */
+export interface PendingOutput {
+  target: string;
+  make: () => Promise<Uint8Array | string>;
+}
+
+/**
+ * Writes every output of a run or none: each is made and written to its own temporary file in
+ * turn (so only one output's bytes are held at a time), and only when all are on disk are they
+ * renamed over their targets; a failure on the way removes every temporary file and leaves
+ * every target as it was. (The renames themselves are one system call each and are not one
+ * transaction: a failure between two renames, which needs the disk to vanish mid-run, leaves
+ * the earlier outputs written and is reported.)
+ * @param outputs - the run's outputs, made and written in this order
+ * @param onWrite - called with each target before its bytes are made (progress)
+ * @throws the first error met; no target changed unless the error came from a rename
+ * @example
+ * await writeFilesAtomic([{ target: '/tmp/a.json', make: async () => '{}' }])
+ */
+export async function writeFilesAtomic(
+  outputs: readonly PendingOutput[],
+  onWrite: (target: string) => void = () => undefined,
+): Promise<void> {
+  const written: { temporary: string; target: string }[] = [];
   try {
-    await rename(temporary, target);
+    for (const o of outputs) {
+      onWrite(o.target);
+      written.push({ temporary: await writeTemporary(o.target, await o.make()), target: o.target });
+    }
   } catch (e) {
-    await unlink(temporary).catch(() => undefined);
+    for (const w of written) await discardTemporary(w.temporary);
     throw e;
   }
-  await syncFolder(path.dirname(target));
-  await removeStaleTemporaries(target);
+  for (let i = 0; i < written.length; i++) {
+    try {
+      await rename(written[i].temporary, written[i].target);
+      live.delete(written[i].temporary);
+    } catch (e) {
+      for (const w of written.slice(i)) await discardTemporary(w.temporary);
+      throw e;
+    }
+  }
+  for (const dir of new Set(written.map((w) => path.dirname(w.target)))) await syncFolder(dir);
+  for (const w of written) await removeStaleTemporaries(w.target);
 }
 
 /** Age after which another write's temporary file is taken as abandoned, ms. */
 export const STALE_TEMPORARY_MS = 10 * 60 * 1000;
 
 /**
+ * Age after which a temporary file whose process no longer runs here is taken as abandoned, ms
+ * (not at once: on a folder shared between machines the id may be another machine's process).
+ */
+export const ORPHAN_TEMPORARY_MS = 60 * 1000;
+
+/**
+ * Whether a process of this id runs on this machine (signal 0 checks without signalling).
+ * EPERM means it runs under another user.
+ */
+function processAlive(pid: number): boolean {
+  if (!Number.isInteger(pid) || pid <= 0) return false;
+  try {
+    process.kill(pid, 0);
+    return true;
+  } catch (e) {
+    return (e as NodeJS.ErrnoException).code === 'EPERM';
+  }
+}
+
+/**
  * Remove temporary files an earlier, interrupted write of the same target
  * left behind (a killed process cannot clean up after itself). Only names of
  * this saver's own pattern for this target, and only when older than
- * STALE_TEMPORARY_MS, so a write still running elsewhere is left alone.
+ * STALE_TEMPORARY_MS, or than ORPHAN_TEMPORARY_MS when the process named in it
+ * (its id is in the name) no longer runs, so a write still running elsewhere is
+ * left alone.
  *
  * @returns the names removed
  */
@@ -98,7 +207,9 @@ export async function removeStaleTemporaries(
       continue;
     try {
       const info = await stat(path.join(dir, name));
-      if (now - info.mtimeMs < STALE_TEMPORARY_MS) continue;
+      const pid = Number(name.slice(prefix.length).split('-')[0]);
+      const age = now - info.mtimeMs;
+      if (age < STALE_TEMPORARY_MS && (age < ORPHAN_TEMPORARY_MS || processAlive(pid))) continue;
       await unlink(path.join(dir, name));
       removed.push(name);
     } catch {

@@ -1,0 +1,155 @@
+// The command line's outputs (issue: outputs written all or nothing): every target is checked
+// before any fit runs, a run writes all its outputs or none, an interrupted run leaves no
+// temporary file, and "--" lets a file name start with a dash. The real command line runs as a
+// child process in a temporary folder, on an invented trial from the seeded generator.
+// "Before any fit" is read from the progress lines: the command prints "fitting seven models"
+// before it fits, so a refusal without that line came first.
+import { spawn, spawnSync } from 'node:child_process';
+import {
+  existsSync,
+  linkSync,
+  mkdirSync,
+  mkdtempSync,
+  readdirSync,
+  utimesSync,
+  writeFileSync,
+} from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { syntheticCsv } from '../shared/demo';
+import { removeStaleTemporaries, writeFilesAtomic } from '../electron/atomicWrite';
+
+const cli = path.join(__dirname, '..', 'cli', 'plotrate.mjs');
+const dir = mkdtempSync(path.join(tmpdir(), 'plotrate-outputs-'));
+
+function run(args: string[]): { code: number | null; out: string; err: string } {
+  const r = spawnSync(process.execPath, [cli, ...args], {
+    cwd: dir,
+    encoding: 'utf8',
+    timeout: 120_000,
+  });
+  return { code: r.status, out: r.stdout, err: r.stderr };
+}
+
+const temporaries = (folder: string) => readdirSync(folder).filter((n) => n.endsWith('.tmp'));
+
+beforeAll(() => {
+  writeFileSync(path.join(dir, 'trial.csv'), syntheticCsv({ sites: 2, seed: 5 }));
+  writeFileSync(path.join(dir, '-dash.csv'), syntheticCsv({ sites: 1, seed: 6 }));
+  mkdirSync(path.join(dir, 'a-folder.xlsx'));
+  linkSync(path.join(dir, 'trial.csv'), path.join(dir, 'hardlink.json'));
+});
+
+describe('plotrate analyze: outputs checked before any work', () => {
+  it.each([
+    [['--out', 'missing/r.xlsx'], /folder .*missing does not exist/],
+    [['--out', 'a-folder.xlsx'], /a-folder\.xlsx is a folder/],
+    [['--json', 'trial.csv/r.json'], /is not a folder/],
+    [['--json', 'hardlink.json'], /is the input file "trial\.csv"/],
+    [['--json', 'same.json', '--pdf', 'same.json'], /\.pdf|also given/],
+  ])('%j is refused with exit 2, one line, before fitting', (outs, reason) => {
+    const r = run(['analyze', 'trial.csv', '--boot', '20', ...outs]);
+    expect(r.code).toBe(2);
+    expect(r.err).toMatch(reason);
+    expect(r.err).not.toMatch(/fitting/);
+    expect(r.err.trim().split('\n')).toHaveLength(1);
+  });
+});
+
+describe('plotrate analyze: all outputs or none', () => {
+  it('writes every output of a run', () => {
+    const r = run([
+      'analyze',
+      'trial.csv',
+      '--boot',
+      '20',
+      '--json',
+      'ok.json',
+      '--out',
+      'ok.xlsx',
+    ]);
+    expect(r.code).toBe(0);
+    expect(existsSync(path.join(dir, 'ok.json'))).toBe(true);
+    expect(existsSync(path.join(dir, 'ok.xlsx'))).toBe(true);
+    expect(temporaries(dir)).toEqual([]);
+  });
+
+  it('leaves no first output and no temporary file when a later one fails', async () => {
+    const folder = mkdtempSync(path.join(tmpdir(), 'plotrate-none-'));
+    const first = path.join(folder, 'first.json');
+    const second = path.join(folder, 'gone', 'second.json');
+    await expect(
+      writeFilesAtomic([
+        { target: first, make: async () => '{"a": 1}\n' },
+        { target: second, make: async () => '{"b": 2}\n' },
+      ]),
+    ).rejects.toMatchObject({ code: 'ENOENT' });
+    expect(existsSync(first)).toBe(false);
+    expect(temporaries(folder)).toEqual([]);
+  });
+
+  it('leaves no temporary file and no output when stopped by SIGTERM while writing', async () => {
+    const folder = mkdtempSync(path.join(tmpdir(), 'plotrate-term-'));
+    writeFileSync(path.join(folder, 'trial.csv'), syntheticCsv({ sites: 6, seed: 7 }));
+    const proc = spawn(
+      process.execPath,
+      [cli, 'analyze', 'trial.csv', '--boot', '20', '--out', 'r.xlsx', '--json', 'r.json'],
+      { cwd: folder, stdio: ['ignore', 'ignore', 'pipe'] },
+    );
+    let err = '';
+    let sent = false;
+    const exit = new Promise<number | null>((resolve) =>
+      proc.on('exit', (code) => {
+        resolve(code);
+      }),
+    );
+    await new Promise<void>((resolve) => {
+      proc.stderr.on('data', (d: Buffer) => {
+        err += d.toString();
+        // The first output has started: stop the run while its bytes are being made or written.
+        if (err.includes('writing') && !sent) {
+          sent = true;
+          proc.kill('SIGTERM');
+          resolve();
+        }
+      });
+      proc.on('exit', () => resolve());
+    });
+    const code = await exit;
+    if (code === 0) return; // finished before the signal landed: nothing to check
+    expect(code).toBe(143);
+    expect(temporaries(folder)).toEqual([]);
+    expect(existsSync(path.join(folder, 'r.xlsx'))).toBe(false);
+    expect(existsSync(path.join(folder, 'r.json'))).toBe(false);
+  });
+});
+
+describe('plotrate analyze: "--" ends the options', () => {
+  it('reads a file whose name starts with a dash after "--", and says how when it is not', () => {
+    const bare = run(['analyze', '-dash.csv', '--boot', '20']);
+    expect(bare.code).toBe(2);
+    expect(bare.err).toMatch(/write -- before a file/);
+    const escaped = run(['analyze', '--boot', '20', '--', '-dash.csv']);
+    expect(escaped.code).toBe(0);
+  });
+});
+
+describe('temporary files of a dead run', () => {
+  it('are removed on the next write once their process is gone and a minute has passed', async () => {
+    const folder = mkdtempSync(path.join(tmpdir(), 'plotrate-stale-'));
+    const target = path.join(folder, 'r.json');
+    // A process id far above Linux's default pid_max (4,194,304) runs nowhere.
+    const dead = path.join(folder, '.r.json.99999999-0badc0de.tmp');
+    const mine = path.join(folder, `.r.json.${process.pid}-0badc0de.tmp`);
+    const recent = path.join(folder, '.r.json.99999998-0badc0de.tmp');
+    for (const f of [dead, mine, recent]) writeFileSync(f, 'partial');
+    const twoMinutesAgo = (Date.now() - 120_000) / 1000;
+    utimesSync(dead, twoMinutesAgo, twoMinutesAgo);
+    utimesSync(mine, twoMinutesAgo, twoMinutesAgo);
+    const removed = await removeStaleTemporaries(target);
+    expect(removed).toEqual([path.basename(dead)]);
+    expect(existsSync(mine)).toBe(true); // its process runs: a write may be going on
+    expect(existsSync(recent)).toBe(true); // under a minute old: maybe another machine's
+  });
+});
