@@ -21,11 +21,11 @@ import { StatsInputError } from '../stats/errors';
 import { sortedQuantile } from '../stats/quantile';
 import { drawSummaries, type BootstrapDraws } from './bootstrapDraws';
 import { countedOptimum, type CountedKind } from './countedOptimum';
-import { drawChoices } from './drawChoices';
+import { decidingModels, type IntervalBasis } from './drawChoices';
 import { assertPrices, type Prices } from './priceRatio';
 
 /** How the resamples' optima were made: the model chosen in each, or one model throughout. */
-export type IntervalBasis = 'model-reselected' | 'fixed-model';
+export type { IntervalBasis } from './drawChoices';
 
 /** Share of the resamples of each kind (countedOptimum), each in [0, 1], summing to 1. */
 export type OptimumShares = Record<CountedKind, number>;
@@ -75,11 +75,8 @@ export function optimumInterval(
     );
   }
   assertPrices(prices);
-  const fixed = basis === 'fixed-model';
-  if (fixed ? !draws.models[model] : Object.keys(draws.models).length === 0) return null;
-  const choices = fixed
-    ? { models: [model], decisive: new Int8Array(draws.resamples) }
-    : drawChoices(draws);
+  const choices = decidingModels(draws, model, basis);
+  if (!choices) return null;
   const readers = choices.models.map((m) => drawSummaries(draws, m)!);
   const rates = new Float64Array(draws.resamples);
   const kinds: Record<CountedKind, number> = {
