@@ -1,0 +1,226 @@
+/**
+ * The risk that a rate returns clearly less than the best rate would have: for each candidate
+ * rate (a site's tested rates and its recommended rate), the share of the bootstrap resamples
+ * in which the net return at that rate falls short of that resample's own best net return by
+ * more than a tolerance (currency/ha). A rate with a small share is a safe choice whatever the
+ * resamples say the curve is; a rate with a large share loses money in most of them.
+ *
+ * Each resample b is read the way its optimum is counted in the interval (countedOptimum, with
+ * the deciding model of decidingModels: the site's rule in every resample, or the analyst's
+ * model throughout), so the risk and the interval speak of the same resamples:
+ *
+ *   R_b(x) = p_grain · g_b(x) − p_N · x − A·[x > 0]          (currency/ha)
+ *   short_b(x) = R_b(r_b) − R_b(x),  counted when short_b(x) > tolerance
+ *
+ * where r_b is the resample's counted optimum (its best rate over 0 to the highest tested rate
+ * by the counting rules) and g_b its gain over its own check, by the kind it is counted as:
+ * - a fit with status "ok" or "no-plateau": the fitted curve, g_b(x) = ŷ_b(x) − ŷ_b(0);
+ * - a full response by the lowest non-zero rate: the whole gain from the second-lowest rate on
+ *   (a step there), the dearest case the counting and the regional rate take too;
+ * - no response (a flat or upward-opening fit) or no usable fit: no gain at any rate, so the
+ *   best is no nitrogen and any rate falls short by its nitrogen and application cost.
+ * A curve without a finite value at 0 or at the highest tested rate counts as no usable fit.
+ *
+ * r_b is taken as the resample's best, as the counting rules name it; where the counted rate
+ * is not the maximum of R_b (a curve counted at the highest rate because it did not level off,
+ * whose slope no longer pays there) a rate can return more than "the best", and it is then
+ * simply not short.
+ *
+ * Prices only, no refit or new resample: one pass of closed forms over the stored draws.
+ */
+import { curveValue } from '../models/curveValue';
+import type { CurveSummary } from '../models/modelTypes';
+import { StatsInputError } from '../stats/errors';
+import { drawSummaries, type BootstrapDraws } from './bootstrapDraws';
+import { countedOptimum } from './countedOptimum';
+import { decidingModels, type IntervalBasis } from './drawChoices';
+import type { ModelName } from '../models/modelTypes';
+import { assertPrices, type Prices } from './priceRatio';
+
+/**
+ * Nitrogen whose cost is the default tolerance, kg N/ha. A return that differs from the best
+ * by less than the cost of about 10 kg N/ha is within what a grower can act on: spreaders are
+ * set and rates are quoted in steps of about that size, and trial curves rarely place an
+ * optimum more precisely (Plotrate's choice; common practice, no document). Priced in the
+ * user's own nitrogen price, it needs no currency of its own and follows the prices.
+ */
+export const DEFAULT_TOLERANCE_N_KG_HA = 10;
+
+/**
+ * The default shortfall tolerance: the cost of DEFAULT_TOLERANCE_N_KG_HA of nitrogen.
+ * @param prices - canonical prices (currency per kg N)
+ * @returns currency/ha
+ * @throws {StatsInputError} "bad-argument" for a price that is not positive
+ * @example
+ * defaultShortfallTolerancePerHa({ grainPricePerKg: 0.2, nutrientPricePerKg: 1.2 }) // 12
+ */
+export function defaultShortfallTolerancePerHa(prices: Prices): number {
+  assertPrices(prices);
+  return DEFAULT_TOLERANCE_N_KG_HA * prices.nutrientPricePerKg;
+}
+
+/**
+ * Checks a tolerance given by a caller.
+ * @param tolerancePerHa - currency/ha
+ * @throws {StatsInputError} "bad-argument" unless it is a finite number ≥ 0
+ * @returns nothing; returns normally for a usable tolerance
+ * @example
+ * assertTolerance(12) // no error
+ */
+export function assertTolerance(tolerancePerHa: number): void {
+  if (!(Number.isFinite(tolerancePerHa) && tolerancePerHa >= 0)) {
+    throw new StatsInputError(
+      'bad-argument',
+      `shortfallTolerancePerHa must be zero or a positive number; got ${tolerancePerHa}.`,
+    );
+  }
+}
+
+/** One candidate rate and its risk. */
+export interface ShortfallRow {
+  /** The candidate rate, kg/ha. */
+  rateKgHa: number;
+  /** Share of the units (resamples, or sites) in which the rate falls short, in [0, 1]. */
+  share: number;
+}
+
+/** The shortfall risk of a set of candidate rates. */
+export interface ShortfallRisk {
+  /** Shortfall beyond which a rate counts as falling short, currency/ha. */
+  tolerancePerHa: number;
+  /** Units the shares are of: a site's resamples, or the sites of a region. */
+  count: number;
+  /** One row per candidate rate, ascending. */
+  rows: ShortfallRow[];
+}
+
+/**
+ * The one comparison every shortfall risk makes: for each candidate rate, the share of units
+ * whose return there falls short of the unit's best by more than the tolerance (strictly).
+ * @param best - each unit's best return, currency/ha
+ * @param returns - unit u's return at candidate j is returns[u × rates + j], currency/ha
+ * @param rates - number of candidate rates
+ * @param tolerancePerHa - currency/ha
+ * @returns per candidate, the share in [0, 1] (NaN without units)
+ * @example
+ * shareFallingShort(Float64Array.of(10, 10), Float64Array.of(10, 0, 9, 5), 2, 2) // [0, 1]
+ */
+export function shareFallingShort(
+  best: Float64Array,
+  returns: Float64Array,
+  rates: number,
+  tolerancePerHa: number,
+): Float64Array {
+  const counts = new Float64Array(rates);
+  const units = best.length;
+  for (let u = 0; u < units; u++) {
+    for (let j = 0; j < rates; j++) {
+      if (best[u] - returns[u * rates + j] > tolerancePerHa) counts[j]++;
+    }
+  }
+  for (let j = 0; j < rates; j++) counts[j] /= units;
+  return counts;
+}
+
+/**
+ * The candidate rates of a site: its tested rates and the recommended rate, ascending, once each.
+ * @param testedKgHa - the tested rates, kg/ha
+ * @param recommendedKgHa - the recommended rate, kg/ha, or null when there is none
+ * @returns rates, kg/ha
+ * @example
+ * candidateRates([0, 40, 80], 61.5) // [0, 40, 61.5, 80]
+ */
+export function candidateRates(
+  testedKgHa: readonly number[],
+  recommendedKgHa: number | null,
+): number[] {
+  const all = recommendedKgHa === null ? [...testedKgHa] : [...testedKgHa, recommendedKgHa];
+  all.sort((a, b) => a - b);
+  return all.filter((x, i) => i === 0 || x - all[i - 1] > 1e-9 * Math.max(1, x));
+}
+
+/**
+ * How one resample's gain over its own check is read (the rules in the header): its fitted
+ * curve, a step of `fullKgHa` at `stepKgHa`, or no gain. One object is refilled per resample.
+ */
+interface GainReading {
+  kind: 'curve' | 'step' | 'none';
+  /** The curve's yield at rate 0, kg/ha. */
+  at0: number;
+  stepKgHa: number;
+  fullKgHa: number;
+}
+
+function readGain(fit: CurveSummary | null, g: GainReading): void {
+  g.kind = 'none';
+  if (!fit) return;
+  const { model, params, status, testedRates } = fit;
+  g.at0 = curveValue(model, params, 0);
+  if (status === 'full-response-at-lowest-rate') {
+    g.stepKgHa = fit.joinBetweenKgHa?.[1] ?? testedRates.distinctKgHa[1];
+    g.fullKgHa = curveValue(model, params, g.stepKgHa) - g.at0;
+    if (Number.isFinite(g.fullKgHa)) g.kind = 'step';
+  } else if (status === 'ok' || status === 'no-plateau') {
+    if (Number.isFinite(g.at0 + curveValue(model, params, testedRates.highestKgHa))) {
+      g.kind = 'curve';
+    }
+  }
+}
+
+/** The gain at a rate, kg/ha, as `g` reads the resample's fit. */
+function gainAt(fit: CurveSummary | null, g: GainReading, rateKgHa: number): number {
+  if (g.kind === 'curve') return curveValue(fit!.model, fit!.params, rateKgHa) - g.at0;
+  if (g.kind === 'step') return rateKgHa >= g.stepKgHa ? g.fullKgHa : 0;
+  return 0;
+}
+
+/**
+ * The shortfall risk of candidate rates at one site, from its stored draws.
+ * @param draws - the site's bootstrap draws
+ * @param model - the analyst's model with "fixed-model"; the site's model otherwise (unused)
+ * @param basis - "model-reselected" (the site's rule in every resample) or "fixed-model"
+ * @param prices - canonical prices (currency per kg grain and per kg N, per ha application)
+ * @param ratesKgHa - candidate rates, kg/ha (see candidateRates)
+ * @param tolerancePerHa - shortfall beyond which a rate counts as short, currency/ha
+ * @returns the share of resamples short at each rate; null when decidingModels has none
+ * @throws {StatsInputError} "bad-argument" for a price that is not positive or a negative tolerance
+ * @example
+ * shortfallRisk(draws, 'quadraticPlateau', 'model-reselected', prices, [0, 150], 12).rows
+ * // e.g. [{ rateKgHa: 0, share: 1 }, { rateKgHa: 150, share: 0.04 }]
+ */
+export function shortfallRisk(
+  draws: BootstrapDraws,
+  model: ModelName,
+  basis: IntervalBasis,
+  prices: Prices,
+  ratesKgHa: readonly number[],
+  tolerancePerHa: number,
+): ShortfallRisk | null {
+  assertPrices(prices);
+  assertTolerance(tolerancePerHa);
+  const choices = decidingModels(draws, model, basis);
+  if (!choices || draws.resamples === 0) return null;
+  const readers = choices.models.map((m) => drawSummaries(draws, m)!);
+  const { grainPricePerKg: pg, nutrientPricePerKg: pn } = prices;
+  const app = prices.applicationCostPerHa ?? 0;
+  const cost = ratesKgHa.map((x) => pn * x + (x > 0 ? app : 0));
+  const r = ratesKgHa.length;
+  const best = new Float64Array(draws.resamples);
+  const returns = new Float64Array(draws.resamples * r);
+  const g: GainReading = { kind: 'none', at0: NaN, stepKgHa: NaN, fullKgHa: NaN };
+  for (let b = 0; b < draws.resamples; b++) {
+    const i = choices.decisive[b];
+    const fit = i < 0 ? null : readers[i](b);
+    readGain(fit, g);
+    // A resample read as no usable fit is counted as no response (rate 0), as the interval does.
+    const x = g.kind === 'none' ? 0 : countedOptimum(fit, prices).rateKgHa;
+    best[b] = pg * gainAt(fit, g, x) - pn * x - (x > 0 ? app : 0);
+    for (let j = 0; j < r; j++) returns[b * r + j] = pg * gainAt(fit, g, ratesKgHa[j]) - cost[j];
+  }
+  const shares = shareFallingShort(best, returns, r, tolerancePerHa);
+  return {
+    tolerancePerHa,
+    count: draws.resamples,
+    rows: ratesKgHa.map((rateKgHa, j) => ({ rateKgHa, share: shares[j] })),
+  };
+}
