@@ -236,6 +236,7 @@ describe('plotrate analyze: a run with every output', () => {
       'Site 0003',
       'Across sites',
       'Economics',
+      'Price ratio and risk',
       'Recommendations',
       'Provenance',
     ]);
