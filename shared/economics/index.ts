@@ -20,6 +20,11 @@
  * optimumInterval(draws, model, prices, level, basis = 'model-reselected'): OptimumInterval  // re-priced
  *   → { ciKgHa, basis, shares: { curve, noPlateau, fullResponse, noResponse }, modelShares }
  *
+ * decidingModels(draws, model, basis): DrawChoices   // who decides each resample, for both of these
+ * priceRatioSensitivity(prices, at, [0.5, 0.75, 1, 1.5, 2])  // the owner's answer at scaled N prices
+ * shortfallRisk(draws, model, basis, prices, rates, tolerancePerHa): ShortfallRisk
+ *   → { tolerancePerHa, count, rows: { rateKgHa, share }[] }   // share of resamples short
+ *
  * For the JSON report per model: optimumRate = economicOptimum(fit, prices).rateKgHa,
  * yieldAtOptimum = .yieldKgHa, optimumCI = optimumInterval(...).ciKgHa.
  *
