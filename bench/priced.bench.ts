@@ -7,22 +7,7 @@ import { analysisSettings } from '../shared/analysis/analysisSettings';
 import { analyzeTrial } from '../shared/analysis/analyzeTrial';
 import { priceTrial } from '../shared/analysis/priceTrial';
 import { syntheticPlotTable } from '../shared/demo/syntheticTrial';
-
-function median(values: number[]): number {
-  const s = [...values].sort((a, b) => a - b);
-  const m = s.length >> 1;
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
-}
-
-/** Wall and CPU (user + system) time of one call, ms. */
-function measure(f: () => unknown): { wall: number; cpu: number } {
-  const c = process.cpuUsage();
-  const t = performance.now();
-  f();
-  const wall = performance.now() - t;
-  const d = process.cpuUsage(c);
-  return { wall, cpu: (d.user + d.system) / 1000 };
-}
+import { measure, timingSummary } from './timing';
 
 export function run(): void {
   const sites = 100;
@@ -39,7 +24,5 @@ export function run(): void {
     const p = { grainPricePerKg: 0.18, nutrientPricePerKg: 0.8 + (i % 10) * 0.1 };
     runs.push(measure(() => priceTrial(analysis, p, {})));
   }
-  const w = median(runs.map((r) => r.wall)).toFixed(1);
-  const c = median(runs.map((r) => r.cpu)).toFixed(1);
-  console.log(`priceTrial at a new price: ${w} ms wall, ${c} ms CPU (median of ${runs.length})`);
+  console.log(`priceTrial at a new price: ${timingSummary(runs, 1)}`);
 }

@@ -4,17 +4,13 @@
 // prepared tables), on a hand-made region whose answer is worked in the comments and on a
 // seeded simulated region analyzed end to end.
 import { describe, expect, it } from 'vitest';
-import { analysisSettings } from '../shared/analysis/analysisSettings';
-import { analyzeTrial } from '../shared/analysis/analyzeTrial';
 import { priceTrial } from '../shared/analysis/priceTrial';
 import { regionalAtPrices } from '../shared/analysis/regionalAnalysis';
 import { regionalCurves } from '../shared/analysis/regionalCurves';
 import { prepareRegionalReturn, type SiteGainCurve } from '../shared/analysis/regionalReturn';
 import { rateGrid } from '../shared/analysis/rateGrid';
-import { simulatedTrial } from '../shared/demo/simulatedSite';
-import { illustrativePrices } from '../shared/economics/illustrativePrices';
+import { CORN_PRICES as prices, simulatedAnalysis } from './analysis.simulated';
 
-const prices = illustrativePrices('corn').canonical;
 const { grainPricePerKg: pg, nutrientPricePerKg: pn } = prices;
 
 /** The count done directly: each site's best over the grid, then short or not at each rate. */
@@ -72,8 +68,8 @@ describe('regionalShortfallRisk', () => {
   });
 
   it('agrees with the direct count on a simulated region analyzed end to end', () => {
-    const { table } = simulatedTrial({
-      truths: [
+    const analysis = simulatedAnalysis(
+      [
         'quadratic-plateau',
         'linear-plateau',
         'exponential',
@@ -81,9 +77,8 @@ describe('regionalShortfallRisk', () => {
         'full-response',
         'exponential',
       ],
-      seed: 61,
-    });
-    const analysis = analyzeTrial(table, analysisSettings({ prices }));
+      61,
+    );
     const priced = priceTrial(analysis, prices, {});
     const region = priced.across.regional;
     const risk = region.shortfallRisk!;

@@ -7,16 +7,13 @@
 // the net return numerically on the fitted curve, and the monotone fall of the optimum as the
 // price ratio rises is checked as a property over sites and random ratios.
 import { describe, expect, it } from 'vitest';
-import { analysisSettings } from '../shared/analysis/analysisSettings';
-import { analyzeTrial, type TrialAnalysis } from '../shared/analysis/analyzeTrial';
 import { priceSite, priceTrial } from '../shared/analysis/priceTrial';
 import { regionalAtPrices } from '../shared/analysis/regionalAnalysis';
 import { prepareRegionalReturn } from '../shared/analysis/regionalReturn';
 import { rateGrid } from '../shared/analysis/rateGrid';
 import { mulberry32 } from '../shared/demo/mulberry32';
-import { simulatedTrial, TRUTH_NAMES, type TruthName } from '../shared/demo/simulatedSite';
+import { TRUTH_NAMES } from '../shared/demo/simulatedSite';
 import { netReturn, recommendedRateKgHa } from '../shared/economics/economicOptimum';
-import { illustrativePrices } from '../shared/economics/illustrativePrices';
 import { optimumInterval } from '../shared/economics/optimumInterval';
 import {
   PRICE_RATIO_MULTIPLIERS,
@@ -24,15 +21,11 @@ import {
   priceRatioSensitivity,
 } from '../shared/economics/priceRatioSensitivity';
 import { StatsInputError } from '../shared/stats/errors';
+import { CORN_PRICES as prices, simulatedAnalysis as analyzed } from './analysis.simulated';
 
-const prices = illustrativePrices('corn').canonical;
 const PR = prices.nutrientPricePerKg / prices.grainPricePerKg;
 const LEVEL = 0.9;
 const BAND = 2.471;
-
-function analyzed(truths: TruthName[], seed: number): TrialAnalysis {
-  return analyzeTrial(simulatedTrial({ truths, seed }).table, analysisSettings({ prices }));
-}
 
 /** The rate of the largest net return on a 0.01 kg/ha grid over the tested rates. */
 function numericOptimum(fit: Parameters<typeof netReturn>[0], p: typeof prices, hi: number) {

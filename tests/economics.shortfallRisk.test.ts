@@ -5,11 +5,8 @@
 // hand-made resample worked by hand, and by simulation on invented sites of known truth
 // (shared/demo/simulatedSite: the true optimum in closed form, independently of shared/models).
 import { describe, expect, it } from 'vitest';
-import { analysisSettings } from '../shared/analysis/analysisSettings';
-import { analyzeTrial, type TrialAnalysis } from '../shared/analysis/analyzeTrial';
 import {
   SIMULATED_RATES_KG_HA,
-  simulatedTrial,
   simulatedTruth,
   type TruthName,
 } from '../shared/demo/simulatedSite';
@@ -19,7 +16,6 @@ import {
   type BootstrapDraws,
 } from '../shared/economics/bootstrapDraws';
 import { drawChoices } from '../shared/economics/drawChoices';
-import { illustrativePrices } from '../shared/economics/illustrativePrices';
 import {
   candidateRates,
   defaultShortfallTolerancePerHa,
@@ -29,15 +25,9 @@ import {
 import { curveValue } from '../shared/models/curveValue';
 import type { CurveSummary } from '../shared/models/modelTypes';
 import { StatsInputError } from '../shared/stats/errors';
+import { CORN_PRICES as prices, simulatedAnalysis as analyzed } from './analysis.simulated';
 
-const prices = illustrativePrices('corn').canonical;
 const PR = prices.nutrientPricePerKg / prices.grainPricePerKg;
-
-/** One analysis per (truths, seed, cv): the draws are what the tests read. */
-function analyzed(truths: TruthName[], seed: number, cv = 0.065): TrialAnalysis {
-  const { table } = simulatedTrial({ truths, seed, cv });
-  return analyzeTrial(table, analysisSettings({ prices }));
-}
 
 /**
  * A resample's net return over its own check at a rate, written out here from the rules the

@@ -3,25 +3,20 @@
 // units. Unit factors from the exact pound and acre (NIST SP 811: 0.45359237 kg, 43 560 ft²)
 // and the 56 lb corn bushel (USDA), worked here rather than taken from shared/units.
 import { describe, expect, it } from 'vitest';
-import { analysisSettings } from '../shared/analysis/analysisSettings';
-import { analyzeTrial } from '../shared/analysis/analyzeTrial';
 import { priceTrial } from '../shared/analysis/priceTrial';
-import { simulatedTrial } from '../shared/demo/simulatedSite';
 import { recommendedRateKgHa } from '../shared/economics/economicOptimum';
-import { illustrativePrices } from '../shared/economics/illustrativePrices';
 import {
   regionalRatioAndRisk,
   siteRatioAndRisk,
   type TableContext,
 } from '../renderer/src/analysis/ratioAndRiskTable';
+import { CORN_PRICES as prices, simulatedAnalysis } from './analysis.simulated';
 
 const KG_PER_LB = 0.45359237;
 const HA_PER_AC = (43560 * 0.3048 * 0.3048) / 10000;
 const KG_HA_PER_LB_AC = KG_PER_LB / HA_PER_AC;
 
-const prices = illustrativePrices('corn').canonical;
-const { table } = simulatedTrial({ truths: ['quadratic-plateau', 'exponential', 'flat'], seed: 9 });
-const analysis = analyzeTrial(table, analysisSettings({ prices }));
+const analysis = simulatedAnalysis(['quadratic-plateau', 'exponential', 'flat'], 9);
 const priced = priceTrial(analysis, prices, {});
 const us: TableContext = {
   system: 'us',

@@ -78,9 +78,28 @@ export function workbookSensitivity(
     ws.getCell(r, 1).value = n;
     titles.add(r++);
   }
-  const ratioRows = (rows: SensitivitySummaryRow[], region: boolean) =>
-    rows.map((x) => {
-      const pair = region ? x.profitableRangeKgHa : x.ciKgHa;
+  /** One recommendation's two tables: the rate at each ratio, then each rate's risk. */
+  const section = (
+    at: number,
+    t: { title: string; rateWord: string; rangeWord: string; riskTitle: string; mark: string },
+    rows: SensitivitySummaryRow[],
+    risk: ShortfallSummary | null,
+  ): number => {
+    let row = tableHeading(
+      ws,
+      at + 1,
+      t.title,
+      [
+        'Multiple of the price ratio',
+        `Price ratio (${prUnit})`,
+        `${t.rateWord} (${rN})`,
+        `${t.rangeWord} low (${rN})`,
+        `${t.rangeWord} high (${rN})`,
+      ],
+      titles,
+    );
+    const ratioValues = rows.map((x) => {
+      const pair = x.ciKgHa ?? x.profitableRangeKgHa;
       return [
         x.ratioMultiplier,
         quoted(x.priceRatioKgPerKg),
@@ -89,68 +108,52 @@ export function workbookSensitivity(
         pair ? u.rate(pair[1]) : null,
       ];
     });
-  const riskRows = (risk: ShortfallSummary, mark: string) =>
-    risk.rows.map((x) => [u.rate(x.rateKgHa), x.share, x.recommended ? mark : '']);
-  const ratioFormats = ['0.00"×"', '0.0000', rf, rf, rf];
-  const riskFormats = [rf, '0%', null];
-  const a = report.acrossSites;
-  if (a) {
-    r++;
-    r = tableHeading(
+    row = body(ws, row, ratioValues, ['General"×"', '0.0000', rf, rf, rf]);
+    if (!risk) return row;
+    const whose = risk.of === 'sites' ? 'sites' : 'resamples';
+    row = tableHeading(
       ws,
-      r,
-      'Across sites: the regional rate at other price ratios',
-      [
-        'Multiple of the price ratio',
-        `Price ratio (${prUnit})`,
-        `Regional rate (${rN})`,
-        `Profitable range low (${rN})`,
-        `Profitable range high (${rN})`,
-      ],
+      row + 1,
+      t.riskTitle,
+      [`Rate (${rN})`, `Share of ${whose} short`, ''],
       titles,
     );
-    r = body(ws, r, ratioRows(a.priceRatioSensitivity, true), ratioFormats);
-    if (a.shortfallRisk) {
-      r++;
-      r = tableHeading(
-        ws,
-        r,
-        `Across sites: share of the ${a.shortfallRisk.count} sites each rate leaves short`,
-        [`Rate (${rN})`, 'Share of sites short', ''],
-        titles,
-      );
-      r = body(ws, r, riskRows(a.shortfallRisk, 'regional rate'), riskFormats);
-    }
+    const riskValues = risk.rows.map((x) => [
+      u.rate(x.rateKgHa),
+      x.share,
+      x.recommended ? t.mark : '',
+    ]);
+    return body(ws, row, riskValues, [rf, '0%', null]);
+  };
+  const a = report.acrossSites;
+  if (a) {
+    r = section(
+      r,
+      {
+        title: 'Across sites: the regional rate at other price ratios',
+        rateWord: 'Regional rate',
+        rangeWord: 'Profitable range',
+        riskTitle: `Across sites: share of the ${a.shortfallRisk?.count} sites each rate leaves short`,
+        mark: 'regional rate',
+      },
+      a.priceRatioSensitivity,
+      a.shortfallRisk,
+    );
   }
   for (const s of report.sites) {
     if (s.priceRatioSensitivity.length === 0) continue;
-    r++;
-    const level = Math.round(s.recommendation.level * 100);
-    r = tableHeading(
-      ws,
+    r = section(
       r,
-      `${s.site}: the recommended rate at other price ratios`,
-      [
-        'Multiple of the price ratio',
-        `Price ratio (${prUnit})`,
-        `Recommended rate (${rN})`,
-        `${level} % interval low (${rN})`,
-        `${level} % interval high (${rN})`,
-      ],
-      titles,
+      {
+        title: `${s.site}: the recommended rate at other price ratios`,
+        rateWord: 'Recommended rate',
+        rangeWord: `${Math.round(s.recommendation.level * 100)} % interval`,
+        riskTitle: `${s.site}: share of the ${s.shortfallRisk?.count} resamples in which each rate falls short`,
+        mark: 'recommended rate',
+      },
+      s.priceRatioSensitivity,
+      s.shortfallRisk,
     );
-    r = body(ws, r, ratioRows(s.priceRatioSensitivity, false), ratioFormats);
-    if (s.shortfallRisk) {
-      r++;
-      r = tableHeading(
-        ws,
-        r,
-        `${s.site}: share of the ${s.shortfallRisk.count} resamples in which each rate falls short`,
-        [`Rate (${rN})`, 'Share of resamples short', ''],
-        titles,
-      );
-      r = body(ws, r, riskRows(s.shortfallRisk, 'recommended rate'), riskFormats);
-    }
   }
   fitColumns(ws, 10, 28, titles);
   ws.pageSetup.printArea = `A1:E${r}`;
