@@ -21,6 +21,7 @@ import {
   defaultShortfallTolerancePerHa,
   shareFallingShort,
   shortfallRisk,
+  toleranceInForce,
 } from '../shared/economics/shortfallRisk';
 import { curveValue } from '../shared/models/curveValue';
 import type { CurveSummary } from '../shared/models/modelTypes';
@@ -171,10 +172,14 @@ describe('shortfallRisk', () => {
     );
   });
 
-  it('defaults to the cost of 10 kg N/ha at the prices', () => {
-    expect(defaultShortfallTolerancePerHa({ grainPricePerKg: 0.2, nutrientPricePerKg: 1.2 })).toBe(
-      12,
-    );
+  it('defaults to the cost of 10 kg N/ha at the prices, and keeps a tolerance that is given', () => {
+    const p = { grainPricePerKg: 0.2, nutrientPricePerKg: 1.2 };
+    expect(defaultShortfallTolerancePerHa(p)).toBe(12);
+    expect(toleranceInForce(null, p)).toBe(12);
+    expect(toleranceInForce(undefined, p)).toBe(12);
+    expect(toleranceInForce(0, p)).toBe(0);
+    expect(toleranceInForce(30, p)).toBe(30);
+    expect(() => toleranceInForce(-5, p)).toThrow(StatsInputError);
   });
 });
 

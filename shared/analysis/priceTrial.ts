@@ -18,10 +18,9 @@ import { optimumInterval, type OptimumInterval } from '../economics/optimumInter
 import { assertPrices, type Prices } from '../economics/priceRatio';
 import { priceRatioSensitivity, type RatioMultiple } from '../economics/priceRatioSensitivity';
 import {
-  assertTolerance,
   candidateRates,
-  defaultShortfallTolerancePerHa,
   shortfallRisk,
+  toleranceInForce,
   type ShortfallRisk,
 } from '../economics/shortfallRisk';
 import type { IntervalBasis } from '../economics/drawChoices';
@@ -231,7 +230,7 @@ export function priceSite(
   choices: Readonly<Record<string, ModelName>>,
   level: number,
   bandPerHa: number,
-  tolerancePerHa: number = defaultShortfallTolerancePerHa(prices),
+  tolerancePerHa: number = toleranceInForce(null, prices),
 ): PricedSite {
   const lead = siteLead(s, choices);
   const model = lead.model;
@@ -290,10 +289,9 @@ export function priceTrial(
 ): PricedTrial {
   assertPrices(prices);
   const given = options.shortfallTolerancePerHa ?? null;
-  if (given !== null) assertTolerance(given);
-  const tolerance = given ?? defaultShortfallTolerancePerHa(prices);
+  const tolerance = toleranceInForce(given, prices);
   const across = repriceAcrossSites(chooseSiteModels(analysis.across, choices), prices, {
-    shortfallTolerancePerHa: tolerance,
+    shortfallTolerancePerHa: given,
   });
   const { intervalLevel } = analysis.settings;
   const band = across.options.bandPerHa;

@@ -9,11 +9,7 @@
  */
 import { priceRatioSensitivity, type RatioMultiple } from '../economics/priceRatioSensitivity';
 import type { Prices } from '../economics/priceRatio';
-import {
-  candidateRates,
-  defaultShortfallTolerancePerHa,
-  type ShortfallRisk,
-} from '../economics/shortfallRisk';
+import { candidateRates, toleranceInForce, type ShortfallRisk } from '../economics/shortfallRisk';
 import type { ModelName } from '../models/modelTypes';
 import type { SiteAnalysis } from './analyzeSite';
 import type { SiteLeftOut } from './commonResponseTests';
@@ -147,7 +143,7 @@ export function regionalAnalysis(
     curves,
     tested.length > 0 ? Float64Array.from(tested) : Float64Array.of(grid[0]),
   );
-  const tolerance = o.shortfallTolerancePerHa ?? defaultShortfallTolerancePerHa(o.prices);
+  const tolerance = toleranceInForce(o.shortfallTolerancePerHa, o.prices);
   return {
     ...regionalAtPrices({ prepared, atTestedRates }, o.prices, o.bandPerHa, tolerance),
     sitesUsed,

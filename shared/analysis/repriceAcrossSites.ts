@@ -7,7 +7,7 @@
  */
 import type { Prices } from '../economics/priceRatio';
 import type { AcrossSiteAnalysis } from './acrossSites';
-import { defaultShortfallTolerancePerHa } from '../economics/shortfallRisk';
+import { toleranceInForce } from '../economics/shortfallRisk';
 import { regionalAtPrices, type RegionalAnalysis } from './regionalAnalysis';
 import { siteModelRows } from './siteModelRows';
 
@@ -56,7 +56,7 @@ export function repriceAcrossSites(
 ): AcrossSiteAnalysis {
   const bandPerHa = options.bandPerHa ?? analysis.options.bandPerHa;
   const given = options.shortfallTolerancePerHa ?? analysis.options.shortfallTolerancePerHa;
-  const tolerance = given ?? defaultShortfallTolerancePerHa(prices);
+  const tolerance = toleranceInForce(given, prices);
   const regional = reprice(analysis.regional, prices, bandPerHa, tolerance);
   return {
     ...analysis,

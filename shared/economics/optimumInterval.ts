@@ -24,9 +24,6 @@ import { countedOptimum, type CountedKind } from './countedOptimum';
 import { decidingModels, type IntervalBasis } from './drawChoices';
 import { assertPrices, type Prices } from './priceRatio';
 
-/** How the resamples' optima were made: the model chosen in each, or one model throughout. */
-export type { IntervalBasis } from './drawChoices';
-
 /** Share of the resamples of each kind (countedOptimum), each in [0, 1], summing to 1. */
 export type OptimumShares = Record<CountedKind, number>;
 

@@ -29,12 +29,11 @@
  * Prices only, no refit or new resample: one pass of closed forms over the stored draws.
  */
 import { curveValue } from '../models/curveValue';
-import type { CurveSummary } from '../models/modelTypes';
+import type { CurveSummary, ModelName } from '../models/modelTypes';
 import { StatsInputError } from '../stats/errors';
 import { drawSummaries, type BootstrapDraws } from './bootstrapDraws';
 import { countedOptimum } from './countedOptimum';
 import { decidingModels, type IntervalBasis } from './drawChoices';
-import type { ModelName } from '../models/modelTypes';
 import { assertPrices, type Prices } from './priceRatio';
 
 /**
@@ -57,6 +56,22 @@ export const DEFAULT_TOLERANCE_N_KG_HA = 10;
 export function defaultShortfallTolerancePerHa(prices: Prices): number {
   assertPrices(prices);
   return DEFAULT_TOLERANCE_N_KG_HA * prices.nutrientPricePerKg;
+}
+
+/**
+ * The tolerance in force: the one given, else (null or absent) the default. Every caller that
+ * takes an optional tolerance resolves it here, so "null means the default" lives once.
+ * @param given - currency/ha, or null/undefined for the default
+ * @param prices - canonical prices (for the default)
+ * @returns currency/ha
+ * @throws {StatsInputError} "bad-argument" for a negative tolerance or a bad price
+ * @example
+ * toleranceInForce(null, { grainPricePerKg: 0.2, nutrientPricePerKg: 1.2 }) // 12
+ */
+export function toleranceInForce(given: number | null | undefined, prices: Prices): number {
+  if (given === null || given === undefined) return defaultShortfallTolerancePerHa(prices);
+  assertTolerance(given);
+  return given;
 }
 
 /**

@@ -9,7 +9,8 @@
 import type { ModelName, FitStatus } from '../models/modelTypes';
 import type { RecommendationBasis } from '../analysis/siteDecision';
 import type { ResponseOverCheckOutcome } from '../analysis/siteResponseOverCheck';
-import type { IntervalBasis, OptimumShares } from '../economics/optimumInterval';
+import type { IntervalBasis } from '../economics/drawChoices';
+import type { OptimumShares } from '../economics/optimumInterval';
 import type { MappingEntry } from '../import/mappingEntries';
 import type { Plot, SourceFile, CropId } from '../table/plotTable';
 
