@@ -16,13 +16,13 @@ import {
   type BootstrapDraws,
 } from '../shared/economics/bootstrapDraws';
 import { drawChoices } from '../shared/economics/drawChoices';
+import { shortfallRisk } from '../shared/economics/shortfallRisk';
 import {
   candidateRates,
   defaultShortfallTolerancePerHa,
   shareFallingShort,
-  shortfallRisk,
   toleranceInForce,
-} from '../shared/economics/shortfallRisk';
+} from '../shared/economics/shortfallRule';
 import { curveValue } from '../shared/models/curveValue';
 import type { CurveSummary } from '../shared/models/modelTypes';
 import { StatsInputError } from '../shared/stats/errors';

@@ -5,7 +5,7 @@
  * site (one value across its plots).
  */
 import { assertPrices, type Prices } from '../economics/priceRatio';
-import { assertTolerance } from '../economics/shortfallRisk';
+import { assertTolerance } from '../economics/shortfallRule';
 import type { BlockTerms, ModelName } from '../models/modelTypes';
 import type { PlotTable } from '../table/plotTable';
 import type { LevelTerms } from './commonResponseTests';

@@ -17,12 +17,8 @@ import { optimumAcrossModels, type OptimumComparison } from '../economics/optimu
 import { optimumInterval, type OptimumInterval } from '../economics/optimumInterval';
 import { assertPrices, type Prices } from '../economics/priceRatio';
 import { priceRatioSensitivity, type RatioMultiple } from '../economics/priceRatioSensitivity';
-import {
-  candidateRates,
-  shortfallRisk,
-  toleranceInForce,
-  type ShortfallRisk,
-} from '../economics/shortfallRisk';
+import { shortfallRisk } from '../economics/shortfallRisk';
+import { candidateRates, toleranceInForce, type ShortfallRisk } from '../economics/shortfallRule';
 import type { IntervalBasis } from '../economics/drawChoices';
 import { curveValue } from '../models/curveValue';
 import type { ModelName } from '../models/modelTypes';

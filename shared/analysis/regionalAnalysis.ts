@@ -9,7 +9,7 @@
  */
 import { priceRatioSensitivity, type RatioMultiple } from '../economics/priceRatioSensitivity';
 import type { Prices } from '../economics/priceRatio';
-import { candidateRates, toleranceInForce, type ShortfallRisk } from '../economics/shortfallRisk';
+import { candidateRates, toleranceInForce, type ShortfallRisk } from '../economics/shortfallRule';
 import type { ModelName } from '../models/modelTypes';
 import type { SiteAnalysis } from './analyzeSite';
 import type { SiteLeftOut } from './commonResponseTests';

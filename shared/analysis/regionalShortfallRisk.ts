@@ -13,7 +13,7 @@
  * shortfall risk from its resamples, shared/economics/shortfallRisk). The comparison itself is
  * shareFallingShort, the same as the sites'.
  */
-import { candidateRates, shareFallingShort, type ShortfallRisk } from '../economics/shortfallRisk';
+import { candidateRates, shareFallingShort, type ShortfallRisk } from '../economics/shortfallRule';
 import type { PreparedRegionalReturn, RegionalReturn } from './regionalReturn';
 
 /**

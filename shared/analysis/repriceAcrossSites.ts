@@ -7,7 +7,7 @@
  */
 import type { Prices } from '../economics/priceRatio';
 import type { AcrossSiteAnalysis } from './acrossSites';
-import { toleranceInForce } from '../economics/shortfallRisk';
+import { toleranceInForce } from '../economics/shortfallRule';
 import { regionalAtPrices, type RegionalAnalysis } from './regionalAnalysis';
 import { siteModelRows } from './siteModelRows';
 

@@ -24,6 +24,7 @@
  * priceRatioSensitivity(prices, at, [0.5, 0.75, 1, 1.5, 2])  // the owner's answer at scaled N prices
  * shortfallRisk(draws, model, basis, prices, rates, tolerancePerHa): ShortfallRisk
  *   → { tolerancePerHa, count, rows: { rateKgHa, share }[] }   // share of resamples short
+ * shortfallRule: shareFallingShort, toleranceInForce (null → the cost of 10 kg N/ha), candidateRates
  *
  * For the JSON report per model: optimumRate = economicOptimum(fit, prices).rateKgHa,
  * yieldAtOptimum = .yieldKgHa, optimumCI = optimumInterval(...).ciKgHa.

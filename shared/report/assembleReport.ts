@@ -12,7 +12,7 @@ import type { AcrossSiteAnalysis, FitData, SiteAnalysis } from '../analysis/anal
 import type { PricedSite, PricedTrial } from '../analysis/priceTrial';
 import type { RegionalAnalysis } from '../analysis/regionalAnalysis';
 import { recommendedRateKgHa } from '../economics/economicOptimum';
-import type { ShortfallRisk } from '../economics/shortfallRisk';
+import { sameRate, type ShortfallRisk } from '../economics/shortfallRule';
 import type { SiteModelRow } from '../analysis/siteModelRows';
 import type { SitePlots } from '../analysis/sitePlots';
 import type { MappingEntry } from '../import/mappingEntries';
@@ -212,9 +212,6 @@ function shortfallSummary(
   recommendedKgHa: number | null,
 ): ShortfallSummary | null {
   if (!risk) return null;
-  const near = (x: number) =>
-    recommendedKgHa !== null &&
-    Math.abs(x - recommendedKgHa) <= 1e-9 * Math.max(1, recommendedKgHa);
   return {
     tolerancePerHa: risk.tolerancePerHa,
     of,
@@ -222,7 +219,7 @@ function shortfallSummary(
     rows: risk.rows.map((r) => ({
       rateKgHa: r.rateKgHa,
       share: r.share,
-      recommended: near(r.rateKgHa),
+      recommended: sameRate(r.rateKgHa, recommendedKgHa),
     })),
   };
 }

@@ -10,8 +10,9 @@ import { recommendedRateKgHa } from '../../../shared/economics/economicOptimum';
 import type { RatioMultiple } from '../../../shared/economics/priceRatioSensitivity';
 import {
   DEFAULT_TOLERANCE_N_KG_HA,
+  sameRate,
   type ShortfallRisk,
-} from '../../../shared/economics/shortfallRisk';
+} from '../../../shared/economics/shortfallRule';
 import type { CropId } from '../../../shared/table/plotTable';
 import { rateFromKgHa } from '../../../shared/units/convertRate';
 import {
@@ -101,9 +102,7 @@ function riskView(
   return risk.rows.map((r) => ({
     rate: formatRate(r.rateKgHa, rate, c.locale),
     share: percent(r.share, c.locale),
-    recommended:
-      recommendedKgHa !== null &&
-      Math.abs(r.rateKgHa - recommendedKgHa) <= 1e-9 * Math.max(1, recommendedKgHa),
+    recommended: sameRate(r.rateKgHa, recommendedKgHa),
   }));
 }
 
