@@ -7,28 +7,7 @@
 import { syntheticPlotTable } from '../shared/demo/syntheticTrial';
 import { analyzeAcrossSites, type AcrossSiteAnalysis } from '../shared/analysis/analyzeAcrossSites';
 import { repriceAcrossSites } from '../shared/analysis/repriceAcrossSites';
-
-function median(values: number[]): number {
-  const s = [...values].sort((a, b) => a - b);
-  const m = s.length >> 1;
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
-}
-
-/** Wall and CPU (user + system) time of one call, ms. */
-function measure(f: () => unknown): { wall: number; cpu: number } {
-  const c = process.cpuUsage();
-  const t = performance.now();
-  f();
-  const wall = performance.now() - t;
-  const d = process.cpuUsage(c);
-  return { wall, cpu: (d.user + d.system) / 1000 };
-}
-
-function summary(runs: { wall: number; cpu: number }[], digits: number): string {
-  const w = median(runs.map((r) => r.wall)).toFixed(digits);
-  const c = median(runs.map((r) => r.cpu)).toFixed(digits);
-  return `${w} ms wall, ${c} ms CPU (median of ${runs.length})`;
-}
+import { measure, timingSummary as summary } from './timing';
 
 export function run(): void {
   const sites = 500;

@@ -323,7 +323,12 @@ export async function analyzeCommand(
   }
   if (serious.length > 10)
     log.err(`plotrate: … ${serious.length - 10} more findings; the workbook lists them by site.`);
-  const report = assembleReport(analysis, priceTrial(analysis, canonical, {}), display, {
+  // The tolerance is given per display area, like every money figure of the reports.
+  const perArea = unitScale(units, imported.table.crop).perArea(1);
+  const shortfallTolerancePerHa =
+    args.shortfallTolerance === null ? null : args.shortfallTolerance / perArea;
+  const priced = priceTrial(analysis, canonical, {}, { shortfallTolerancePerHa });
+  const report = assembleReport(analysis, priced, display, {
     tool: { name: 'Plotrate', version },
     createdAt: extra.createdAt ?? new Date().toISOString().replace(/\.\d+Z$/, 'Z'),
     mapping: imported.mapping,

@@ -40,6 +40,11 @@ Options for analyze
                          same interval
   --blocks none|fixed    block offsets in the curves (default fixed: wherever
                          every plot of a site has a block label)
+  --shortfall-tolerance N
+                         money per acre (lb/ac rates) or per hectare by which a
+                         rate may return less than the best before the risk
+                         tables count it as falling short (default: the cost
+                         of 10 kg N/ha at the prices)
   --map role=Header ...  say which column holds what, e.g. --map yield=Grain
                          rate="N applied"; roles: site, year, block, plot,
                          treatment, rate, yield, moisture, exclude, notes,

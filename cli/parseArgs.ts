@@ -28,6 +28,11 @@ export interface AnalyzeArgs {
   seed: number;
   blocks: 'none' | 'fixed';
   map: RoleOverride[];
+  /**
+   * Shortfall tolerance of the risk tables in money per acre (lb/ac output) or per hectare;
+   * null: the default, the cost of 10 kg N/ha at the prices.
+   */
+  shortfallTolerance: number | null;
 }
 
 /**
@@ -57,6 +62,7 @@ export function analyzeDefaults(files: string[] = []): AnalyzeArgs {
     seed: ANALYSIS_DEFAULTS.seed,
     blocks: 'fixed',
     map: [],
+    shortfallTolerance: null,
   };
 }
 
@@ -179,6 +185,9 @@ export function parseArgs(argv: readonly string[]): Command {
           (v) => Number.isInteger(v) && v >= 0 && v <= 4294967295,
           'a whole number from 0 to 4294967295',
         );
+        break;
+      case '--shortfall-tolerance':
+        a.shortfallTolerance = number(w, rest[++i], (v) => v >= 0, 'an amount of 0 or more');
         break;
       case '--blocks': {
         const v = rest[++i];

@@ -203,6 +203,8 @@ describe('plotrate analyze: a run with every output', () => {
       '30',
       '--seed',
       '3',
+      '--shortfall-tolerance',
+      '20',
     ]);
   });
 
@@ -225,6 +227,11 @@ describe('plotrate analyze: a run with every output', () => {
     expect(j.settings.priceRatioUnit).toBe('kg/kg N');
     expect(j.sites).toHaveLength(3);
     expect(j.acrossSites.profitableRange[0]).toBeLessThanOrEqual(j.acrossSites.bestRate);
+    // The tolerance as given, per hectare with metric units, in every risk table.
+    expect(j.settings.shortfallTolerance).toBe(20);
+    expect(j.settings.shortfallToleranceDefault).toBe(false);
+    expect(j.sites[0].shortfallRisk.tolerance).toBe(20);
+    expect(j.acrossSites.shortfallRisk.tolerance).toBe(20);
   });
 
   it('writes a workbook SheetJS can read, with one sheet per site', () => {
@@ -236,6 +243,7 @@ describe('plotrate analyze: a run with every output', () => {
       'Site 0003',
       'Across sites',
       'Economics',
+      'Price ratio and risk',
       'Recommendations',
       'Provenance',
     ]);

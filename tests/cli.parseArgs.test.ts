@@ -31,6 +31,8 @@ describe('parseArgs', () => {
       '9',
       '--blocks',
       'fixed',
+      '--shortfall-tolerance',
+      '7.5',
       '--map',
       'yield=Grain (t/ha)',
       'block=Rep',
@@ -54,6 +56,7 @@ describe('parseArgs', () => {
         { role: 'yield', header: 'Grain (t/ha)' },
         { role: 'block', header: 'Rep' },
       ],
+      shortfallTolerance: 7.5,
     });
   });
 
@@ -66,6 +69,7 @@ describe('parseArgs', () => {
       seed: 1,
       blocks: 'fixed',
       out: null,
+      shortfallTolerance: null,
     });
   });
 
@@ -77,6 +81,10 @@ describe('parseArgs', () => {
     [['analyze', 'a.csv', '--crop', 'rice'], /--crop rice: use one of corn, wheat/],
     [['analyze', 'a.csv', '--grain-price', '0'], /--grain-price 0: a price above 0/],
     [['analyze', 'a.csv', '--map', 'color=Red'], /"color" is not a role/],
+    [
+      ['analyze', 'a.csv', '--shortfall-tolerance', '-3'],
+      /--shortfall-tolerance -3: an amount of 0 or more/,
+    ],
     [['analyze', 'a.csv', '--map', 'yield'], /write role=Header/],
     [
       ['analyze', 'a.csv', '--product', 'water', '--product-price', '1'],

@@ -23,12 +23,21 @@ describe('checkSession', () => {
     expect(checkSession(JSON.parse(JSON.stringify(good)))).toEqual(good);
   });
 
+  it('accepts a shortfall tolerance of the user’s, the default (null), or none (older sessions)', () => {
+    for (const t of [12.5, 0, null]) {
+      const withTolerance = { ...good, shortfallTolerancePerHa: t };
+      expect(checkSession(withTolerance)).toEqual(withTolerance);
+    }
+  });
+
   it.each([
     ['another version', { ...good, version: 2 }],
     ['files without bytes', { ...good, files: [{ name: 'a.csv' }] }],
     ['prices as text', { ...good, prices: { ...ILLUSTRATIVE_PRICES, grainPerKg: '0.2' } }],
     ['an unknown unit system', { ...good, unitSystem: 'imperial' }],
     ['edits without decisions', { ...good, edits: { ...good.edits, decisions: undefined } }],
+    ['a negative shortfall tolerance', { ...good, shortfallTolerancePerHa: -1 }],
+    ['a shortfall tolerance as text', { ...good, shortfallTolerancePerHa: '12' }],
   ])('refuses %s', (_label, data) => {
     expect(checkSession(data)).toBeNull();
   });

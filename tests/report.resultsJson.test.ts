@@ -42,8 +42,41 @@ describe('resultsJson', () => {
       'bestModel',
       'optimumCIBootstrap',
       'models',
+      'priceRatioSensitivity',
+      'shortfallRisk',
     ])
       expect(site).toHaveProperty(k);
+    expect(Object.keys(site.priceRatioSensitivity[0]).sort()).toEqual([
+      'interval',
+      'priceRatio',
+      'rate',
+      'ratioMultiplier',
+    ]);
+    expect(Object.keys(site.shortfallRisk!).sort()).toEqual([
+      'resamples',
+      'rows',
+      'tolerance',
+      'toleranceUnit',
+    ]);
+    expect(Object.keys(site.shortfallRisk!.rows[0]).sort()).toEqual([
+      'rate',
+      'recommended',
+      'share',
+    ]);
+    expect(json.settings).toHaveProperty('shortfallTolerance');
+    expect(json.settings).toHaveProperty('shortfallToleranceDefault');
+    expect(Object.keys(json.acrossSites!.priceRatioSensitivity[0]).sort()).toEqual([
+      'priceRatio',
+      'profitableRange',
+      'rate',
+      'ratioMultiplier',
+    ]);
+    expect(Object.keys(json.acrossSites!.shortfallRisk!).sort()).toEqual([
+      'rows',
+      'sites',
+      'tolerance',
+      'toleranceUnit',
+    ]);
     expect(Object.keys(site.optimumCIBootstrap!).sort()).toEqual([
       'basis',
       'level',
@@ -185,6 +218,47 @@ describe('resultsJson', () => {
       expect(interval[0]).toBeLessThanOrEqual(m.params.x0);
       expect(interval[1]).toBeGreaterThanOrEqual(m.params.x0);
     }
+  });
+
+  it('gives the price-ratio table in the output units, its 1× row the recommendation itself', () => {
+    const multiples = [0.5, 0.75, 1, 1.5, 2];
+    us.sites.forEach((s, i) => {
+      const rows = json.sites[i].priceRatioSensitivity;
+      expect(rows.map((r) => r.ratioMultiplier)).toEqual(multiples);
+      for (const [j, r] of rows.entries()) {
+        // The nitrogen price scaled, the grain price kept: the ratio in bu/lb N scales too.
+        expect(r.priceRatio / (json.settings.priceRatio * r.ratioMultiplier)).toBeCloseTo(1, 10);
+        expect(r.rate!).toBeCloseTo(s.priceRatioSensitivity[j].rateKgHa! / KG_HA_PER_LB_AC, 8);
+      }
+      expect(rows[2].rate).toBe(json.sites[i].recommendation.rate);
+      expect(rows[2].interval).toEqual(json.sites[i].recommendation.interval);
+    });
+    const region = json.acrossSites!.priceRatioSensitivity;
+    expect(region[2].rate).toBe(json.acrossSites!.bestRate);
+    expect(region[2].profitableRange).toEqual(json.acrossSites!.profitableRange);
+  });
+
+  it('gives the shortfall risk with its tolerance per acre and the recommended rate marked', () => {
+    // The default tolerance is the cost of 10 kg N/ha: 10 kg/ha is 10/1.120851 lb N/ac, at the
+    // N price per lb, per acre.
+    const perAcre = (json.settings.nutrientPrice * 10) / KG_HA_PER_LB_AC;
+    expect(json.settings.shortfallToleranceDefault).toBe(true);
+    expect(json.settings.shortfallTolerance).toBeCloseTo(perAcre, 9);
+    for (const s of json.sites) {
+      const risk = s.shortfallRisk!;
+      expect(risk.tolerance).toBe(json.settings.shortfallTolerance);
+      expect(risk.toleranceUnit).toBe('currency/ac');
+      expect(risk.resamples).toBe(40);
+      for (const r of risk.rows) expect(r.share >= 0 && r.share <= 1).toBe(true);
+      expect(risk.rows.filter((r) => r.recommended).map((r) => r.rate)).toEqual([
+        s.recommendation.rate,
+      ]);
+    }
+    const region = json.acrossSites!.shortfallRisk!;
+    expect(region.sites).toBe(json.acrossSites!.sites.length);
+    expect(region.rows.filter((r) => r.recommended).map((r) => r.rate)).toEqual([
+      json.acrossSites!.bestRate,
+    ]);
   });
 
   it('gives the same file for the same seed', async () => {

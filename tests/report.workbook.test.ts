@@ -72,10 +72,30 @@ describe('writeWorkbook read back by SheetJS', () => {
       ...corn.map((n) => sheetName(n, taken)),
       'Across sites',
       'Economics',
+      'Price ratio and risk',
       'Recommendations',
       'Provenance',
     ]);
     expect(wb.SheetNames).toContain('Orrin’s Bend');
+  });
+
+  it('puts every caution above the price-ratio and risk tables, and the JSON’s numbers in them', () => {
+    const ws = XLSX.read(usBytes).Sheets['Price ratio and risk'];
+    const text = XLSX.utils.sheet_to_csv(ws);
+    for (const c of recommendationCautions) expect(text).toContain(c);
+    expect(findRow(ws, 'Cautions')).toBeLessThan(findRow(ws, 'Multiple of the price ratio'));
+    // The regional table comes first: its five rows, then each site's.
+    const h = findRow(ws, 'Multiple of the price ratio');
+    usJson.acrossSites!.priceRatioSensitivity.forEach((row, i) => {
+      expect(cell(ws, h + 1 + i, 0)?.v).toBe(row.ratioMultiplier);
+      expect(cell(ws, h + 1 + i, 1)?.v as number).toBeCloseTo(row.priceRatio, 9);
+      expect(cell(ws, h + 1 + i, 2)?.v as number).toBeCloseTo(row.rate!, 8);
+    });
+    const risk = findRow(ws, 'Rate (lb N/ac)');
+    usJson.acrossSites!.shortfallRisk!.rows.forEach((row, i) => {
+      expect(cell(ws, risk + 1 + i, 1)?.v as number).toBeCloseTo(row.share, 9);
+      expect(cell(ws, risk + 1 + i, 2)?.v ?? '').toBe(row.recommended ? 'regional rate' : '');
+    });
   });
 
   it('puts every caution on the overview', () => {

@@ -8,10 +8,13 @@
  *   result   = { settings, crop, table, plots: SitePlots[], findings: QualityFinding[],
  *                across: AcrossSiteAnalysis }   // sites carry anova, treatmentMeans and draws too
  * analyzeTrialSteps(table, settings)          // the same as a generator: one step per site
- * priceTrial(analysis, prices, picks): PricedTrial
- *   = { prices, choices, across (rows, regional rate at these prices and picks),
+ * priceTrial(analysis, prices, picks, { shortfallTolerancePerHa?: null }): PricedTrial
+ *   = { prices, shortfallTolerance { perHa, isDefault }, choices,
+ *       across (rows, regional rate at these prices and picks),
  *       sites: { site, lead { model, reason, picked }, optimum, interval, profitableRangeKgHa,
- *                acrossModels }[] }           // no refit, no new bootstrap
+ *                acrossModels, priceRatioSensitivity { ratioMultiplier, priceRatio, rateKgHa,
+ *                intervalKgHa }[], shortfallRisk { tolerancePerHa, count, rows { rateKgHa,
+ *                share }[] } }[] }           // no refit, no new bootstrap
  * ```
  *
  * Across sites: every site fitted with every model side by side, tests of
@@ -28,6 +31,7 @@
  *               curvePoints?: 61,                           // points kept on each fitted curve
  *               gridStepKgHa?: 1, gridFromKgHa?: 0, gridToKgHa?: lowest of the sites' highest rates,
  *               bandPerHa?: ONE_PER_ACRE_IN_PER_HA (≈ 2.471, $1/acre: common practice),
+ *               shortfallTolerancePerHa?: null (the cost of 10 kg N/ha at the prices),
  *               alpha?: 0.05, levels?: 'site' | 'blockWithinSite', groupKeys?: every site-level Plot.groups key + 'year' }
  *   result  = { sites: SiteAnalysis[]          // one per site: fits (AllModelsFitData), recommended
  *                                              //   (recommendationModel), rateEffect, responded,
@@ -40,11 +44,13 @@
  *               sharedResponse: { linear, proportional, quadratic: CommonResponseTests,
  *                                 plateau: { linearPlateau, quadraticPlateau, exponential: PooledCurveTest } }
  *               regional: { regional: RegionalReturn, text: { sentence, cautions }, sitesUsed: { site, model,
- *                           note }[], sitesLeftOut, gridNote, prepared }
+ *                           note }[], sitesLeftOut, gridNote, prepared, atTestedRates,
+ *                           priceRatioSensitivity { ratioMultiplier, priceRatio, rateKgHa,
+ *                           profitableRangeKgHa }[], shortfallRisk (share of sites short) }
  *               response: { definition, responded, assessed, share, notAssessed }
  *               groups: { key, values: [{ value, sites, regional, response, sharedResponse }],
  *                         sitesWithoutValue, differ: { linear, quadratic, plateau } }[] }
- * repriceAcrossSites(analysis, prices, { bandPerHa?, rows?: true }): AcrossSiteAnalysis
+ * repriceAcrossSites(analysis, prices, { bandPerHa?, rows?: true, shortfallTolerancePerHa? }): AcrossSiteAnalysis
  *   // no refit; rows: false re-prices only the regional curves (about 2 ms at 500 sites)
  * sortSiteRows(rows, key: SiteRowKey, 'asc' | 'desc'): SiteModelRow[]       // stable, empty values last
  * filterSiteRows(rows, { sites?, models?, statuses?, aiccWinnersOnly?, responded?, group?, siteContains?,

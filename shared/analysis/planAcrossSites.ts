@@ -5,6 +5,7 @@
  * site (one value across its plots).
  */
 import { assertPrices, type Prices } from '../economics/priceRatio';
+import { assertTolerance } from '../economics/shortfallRule';
 import type { BlockTerms, ModelName } from '../models/modelTypes';
 import { ANALYSIS_DEFAULTS } from './analysisSettings';
 import type { PlotTable } from '../table/plotTable';
@@ -57,6 +58,12 @@ export interface AcrossSiteOptions {
   gridToKgHa?: number;
   /** Profitable band below the best mean return, currency/ha; default 1 per acre (common practice). */
   bandPerHa?: number;
+  /**
+   * Shortfall beyond which a rate counts as falling short of a site's best in the regional
+   * risk, currency/ha; default null: the cost of 10 kg N/ha at the prices in force
+   * (defaultShortfallTolerancePerHa).
+   */
+  shortfallTolerancePerHa?: number | null;
   /** Significance level of every test and of "responded", default 0.05. */
   alpha?: number;
   /** Level terms of the common-response tests, default "site". */
@@ -146,6 +153,7 @@ export function planAcrossSites(
     gridFromKgHa: options.gridFromKgHa ?? 0,
     gridToKgHa: options.gridToKgHa ?? null,
     bandPerHa: options.bandPerHa ?? ONE_PER_ACRE_IN_PER_HA,
+    shortfallTolerancePerHa: options.shortfallTolerancePerHa ?? null,
     alpha,
     levels: options.levels ?? 'site',
     groupKeys: options.groupKeys ?? [...keys].filter((k) => !skipped.has(k)),
@@ -155,6 +163,7 @@ export function planAcrossSites(
   if (!(Number.isFinite(o.bandPerHa) && o.bandPerHa >= 0)) {
     throw new SitesInputError('bad-argument', `bandPerHa is ${o.bandPerHa}; it must be 0 or more.`);
   }
+  if (o.shortfallTolerancePerHa !== null) assertTolerance(o.shortfallTolerancePerHa);
   rateGrid(o.gridFromKgHa, o.gridToKgHa ?? o.gridFromKgHa, o.gridStepKgHa);
   return { plots, options: o, groupKeysSkipped };
 }

@@ -2,16 +2,25 @@
  * An analysis at a set of prices and the user's model picks, without refitting
  * or resampling: each site's leading model (leadingModel), its optimum by the
  * closed forms of shared/economics, its interval from the stored bootstrap
- * draws, its profitable range on the fitted curve, and the across-site rows and
- * regional rate (chooseSiteModels, repriceAcrossSites). Every view (screen,
- * workbook, grower page, JSON, command-line summary) reads this one value.
+ * draws, its profitable range on the fitted curve, how its recommendation moves
+ * with the price ratio (priceRatioSensitivity) and the risk of each candidate rate
+ * (shortfallRisk), and the across-site rows and regional rate (chooseSiteModels,
+ * repriceAcrossSites). Every view (screen, workbook, grower page, JSON,
+ * command-line summary) reads this one value.
  */
-import type { BootstrapDraws } from '../economics/bootstrapDraws';
-import { economicOptimum, type EconomicOptimum } from '../economics/economicOptimum';
+import {
+  economicOptimum,
+  recommendedRateKgHa,
+  type EconomicOptimum,
+} from '../economics/economicOptimum';
 import { optimumAcrossModels, type OptimumComparison } from '../economics/optimumAcrossModels';
 import { optimumInterval, type OptimumInterval } from '../economics/optimumInterval';
 import { optimumProfileInterval, type OptimumProfileInterval } from '../economics/optimumProfile';
 import { assertPrices, type Prices } from '../economics/priceRatio';
+import { priceRatioSensitivity, type RatioMultiple } from '../economics/priceRatioSensitivity';
+import { shortfallRisk } from '../economics/shortfallRisk';
+import { candidateRates, toleranceInForce, type ShortfallRisk } from '../economics/shortfallRule';
+import type { IntervalBasis } from '../economics/drawChoices';
 import { curveValue } from '../models/curveValue';
 import type { ModelName } from '../models/modelTypes';
 import type { AcrossSiteAnalysis } from './acrossSites';
@@ -61,10 +70,39 @@ export interface PricedSite {
    * when they lie more than 20 kg/ha apart, because then the choice of model matters.
    */
   acrossModels: OptimumComparison | null;
+  /**
+   * The recommended rate and its interval at the price ratio scaled by 0.5, 0.75, 1, 1.5 and 2
+   * (the nitrogen price scaled, the grain price kept); null without a leading model.
+   */
+  priceRatioSensitivity: SiteSensitivityRow[] | null;
+  /**
+   * For the tested rates and the recommended rate: the share of resamples in which the rate
+   * returns less than that resample's best by more than the tolerance; null without draws.
+   */
+  shortfallRisk: ShortfallRisk | null;
+}
+
+/** The site's recommendation at one multiple of the price ratio. */
+export interface SiteSensitivityRow extends RatioMultiple {
+  /** The recommended rate at this ratio (recommendedRateKgHa), kg/ha. */
+  rateKgHa: number | null;
+  /** Its bootstrap interval at this ratio, kg/ha; null without draws. */
+  intervalKgHa: [number, number] | null;
+}
+
+/** Settings of the priced view that are not prices. */
+export interface PriceTrialOptions {
+  /**
+   * Shortfall beyond which a rate counts as falling short of the best, currency/ha; null or
+   * absent: the cost of 10 kg N/ha at these prices (defaultShortfallTolerancePerHa).
+   */
+  shortfallTolerancePerHa?: number | null;
 }
 
 export interface PricedTrial {
   prices: Prices;
+  /** The shortfall tolerance in force, currency/ha, and whether it is the default. */
+  shortfallTolerance: { perHa: number; isDefault: boolean };
   /** Site → the analyst's model, as given. */
   choices: Readonly<Record<string, ModelName>>;
   /** The across-site analysis with these choices at these prices (rows, regional rate, groups). */
@@ -112,19 +150,13 @@ function profitableRange(
 }
 
 /**
- * The interval that goes with a site's lead. The rule's model gets the interval with the
- * model chosen again in each resample (the choice is part of the estimate). An analyst's pick
- * keeps the interval of that model alone: the analyst has fixed the model, so the interval
+ * How a site's resamples are read, for its interval and its shortfall risk alike. The rule's
+ * model gets the model chosen again in each resample (the choice is part of the estimate). An
+ * analyst's pick keeps that model alone: the analyst has fixed the model, so the interval
  * answers "if this curve is right", and the lead's reason says it was picked.
  */
-function siteInterval(
-  draws: BootstrapDraws,
-  model: ModelName,
-  picked: boolean,
-  prices: Prices,
-  level: number,
-): OptimumInterval | null {
-  return optimumInterval(draws, model, prices, level, picked ? 'fixed-model' : 'model-reselected');
+function resampleBasis(lead: SiteLead): IntervalBasis {
+  return lead.picked ? 'fixed-model' : 'model-reselected';
 }
 
 /**
@@ -165,6 +197,25 @@ function reachingZero(interval: OptimumInterval): OptimumInterval {
   return ci && ci[0] > 0 ? { ...interval, ciKgHa: [0, ci[1]] } : interval;
 }
 
+/** A site's optimum and interval at one set of prices, as its decision makes them. */
+function recommendationAt(
+  s: SiteAnalysis,
+  lead: SiteLead & { model: ModelName },
+  fit: FitData,
+  prices: Prices,
+  level: number,
+): { optimum: EconomicOptimum; interval: OptimumInterval | null } {
+  const fitted = economicOptimum(fit, prices);
+  const interval = s.draws
+    ? optimumInterval(s.draws, lead.model, prices, level, resampleBasis(lead))
+    : null;
+  const noResponse = lead.basis === 'no-response';
+  return {
+    optimum: noResponse ? noResponseOptimum(fitted, fit, prices, s.rateEffect) : fitted,
+    interval: noResponse && interval ? reachingZero(interval) : interval,
+  };
+}
+
 /**
  * One site at these prices and picks.
  * @param s - the site's analysis
@@ -172,7 +223,10 @@ function reachingZero(interval: OptimumInterval): OptimumInterval {
  * @param choices - site → the analyst's model
  * @param level - interval level, e.g. 0.9
  * @param bandPerHa - profitable band, currency/ha
- * @returns the site's lead, optimum, interval and profitable range
+ * @param tolerancePerHa - shortfall tolerance, currency/ha; default the cost of 10 kg N/ha
+ * @returns the site's lead, optimum, interval, profitable range, price-ratio sensitivity and
+ *   shortfall risk
+ * @throws {StatsInputError} "bad-argument" for a bad price or a negative tolerance
  */
 export function priceSite(
   s: SiteAnalysis,
@@ -180,10 +234,12 @@ export function priceSite(
   choices: Readonly<Record<string, ModelName>>,
   level: number,
   bandPerHa: number,
+  tolerancePerHa: number = toleranceInForce(null, prices),
 ): PricedSite {
   const lead = siteLead(s, choices);
-  const fit = lead.model && s.fits ? s.fits.fits[lead.model] : null;
-  if (!lead.model || !fit) {
+  const model = lead.model;
+  const fit = model && s.fits ? s.fits.fits[model] : null;
+  if (!model || !fit) {
     return {
       site: s.site,
       lead,
@@ -192,21 +248,33 @@ export function priceSite(
       optimumProfile: null,
       profitableRangeKgHa: null,
       acrossModels: null,
+      priceRatioSensitivity: null,
+      shortfallRisk: null,
     };
   }
-  const fitted = economicOptimum(fit, prices);
-  const interval = s.draws ? siteInterval(s.draws, lead.model, lead.picked, prices, level) : null;
-  const noResponse = lead.basis === 'no-response';
+  const led = { ...lead, model };
+  const here = recommendationAt(s, led, fit, prices, level);
+  // The 1× row is the recommendation itself; the other rows ask the same function again.
+  const sensitivity = priceRatioSensitivity(prices, (scaled, m) => {
+    const r = m === 1 ? here : recommendationAt(s, led, fit, scaled, level);
+    return { rateKgHa: recommendedRateKgHa(r.optimum), intervalKgHa: r.interval?.ciKgHa ?? null };
+  });
+  const rates = candidateRates(fit.testedRates.distinctKgHa, recommendedRateKgHa(here.optimum));
   return {
     site: s.site,
     lead,
-    optimum: noResponse ? noResponseOptimum(fitted, fit, prices, s.rateEffect) : fitted,
-    interval: noResponse && interval ? reachingZero(interval) : interval,
-    optimumProfile: noResponse
-      ? null
-      : optimumProfileInterval(fit, s.joinProfiles[lead.model] ?? null, prices, level),
-    profitableRangeKgHa: profitableRange(s, lead.model, lead.basis, prices, bandPerHa),
+    optimum: here.optimum,
+    interval: here.interval,
+    optimumProfile:
+      lead.basis === 'no-response'
+        ? null
+        : optimumProfileInterval(fit, s.joinProfiles[model] ?? null, prices, level),
+    profitableRangeKgHa: profitableRange(s, model, lead.basis, prices, bandPerHa),
     acrossModels: optimumAcrossModels(s.fits!.fits, s.fits!.ranking, prices),
+    priceRatioSensitivity: sensitivity,
+    shortfallRisk: s.draws
+      ? shortfallRisk(s.draws, model, resampleBasis(lead), prices, rates, tolerancePerHa)
+      : null,
   };
 }
 
@@ -215,8 +283,9 @@ export function priceSite(
  * @param analysis - from analyzeTrial
  * @param prices - canonical prices (currency per kg grain and per kg N, per ha application)
  * @param choices - site → the model the analyst picked (a model the site has no fit of is ignored)
+ * @param options - the shortfall tolerance (currency/ha; default the cost of 10 kg N/ha)
  * @returns the priced trial every view reads
- * @throws {StatsInputError} "bad-argument" for a price that is not positive
+ * @throws {StatsInputError} "bad-argument" for a price that is not positive or a negative tolerance
  * @example
  * const priced = priceTrial(analysis, { ...prices, nutrientPricePerKg: 1.4 }, {});
  * priced.across.regional.regional.bestRateKgHa // lower than at the first prices
@@ -225,15 +294,21 @@ export function priceTrial(
   analysis: TrialAnalysis,
   prices: Prices,
   choices: Readonly<Record<string, ModelName>>,
+  options: PriceTrialOptions = {},
 ): PricedTrial {
   assertPrices(prices);
-  const across = repriceAcrossSites(chooseSiteModels(analysis.across, choices), prices);
+  const given = options.shortfallTolerancePerHa ?? null;
+  const tolerance = toleranceInForce(given, prices);
+  const across = repriceAcrossSites(chooseSiteModels(analysis.across, choices), prices, {
+    shortfallTolerancePerHa: given,
+  });
   const { intervalLevel } = analysis.settings;
   const band = across.options.bandPerHa;
   return {
     prices: { ...prices },
+    shortfallTolerance: { perHa: tolerance, isDefault: given === null },
     choices: { ...choices },
     across,
-    sites: across.sites.map((s) => priceSite(s, prices, choices, intervalLevel, band)),
+    sites: across.sites.map((s) => priceSite(s, prices, choices, intervalLevel, band, tolerance)),
   };
 }

@@ -1,9 +1,15 @@
 /**
  * The regional rate of a set of analyzed sites: each site's gain curve (regionalCurves) on one
  * rate grid that, by default, ends at the lowest of the sites' highest tested rates, so no
- * site curve is extended past its data; the mean return at the settings' prices; and the
- * sentence and cautions shown with it.
+ * site curve is extended past its data; the mean return at the settings' prices; the sentence
+ * and cautions shown with it; the regional rate at multiples of the price ratio
+ * (priceRatioSensitivity) and the share of sites each candidate rate leaves clearly short of
+ * their own best (regionalShortfallRisk). regionalAtPrices makes every priced part, here and
+ * when repriceAcrossSites follows a new price.
  */
+import { priceRatioSensitivity, type RatioMultiple } from '../economics/priceRatioSensitivity';
+import type { Prices } from '../economics/priceRatio';
+import { candidateRates, toleranceInForce, type ShortfallRisk } from '../economics/shortfallRule';
 import type { ModelName } from '../models/modelTypes';
 import type { SiteAnalysis } from './analyzeSite';
 import type { SiteLeftOut } from './commonResponseTests';
@@ -18,6 +24,7 @@ import {
   type SiteGainCurve,
 } from './regionalReturn';
 import { regionalRecommendation, type RegionalRecommendationText } from './regionalRecommendation';
+import { regionalShortfallRisk } from './regionalShortfallRisk';
 
 /** The regional rate of a set of sites and what stands behind it. */
 export interface RegionalAnalysis {
@@ -30,6 +37,66 @@ export interface RegionalAnalysis {
   gridNote: string;
   /** Price-free part, for repricing. */
   prepared: PreparedRegionalReturn;
+  /** The same sites' gains at the rates tested at them (within the grid), price-free. */
+  atTestedRates: PreparedRegionalReturn;
+  /**
+   * The regional rate and profitable range at the price ratio scaled by 0.5, 0.75, 1, 1.5 and
+   * 2 (the nitrogen price scaled, the grain price kept).
+   */
+  priceRatioSensitivity: RegionalSensitivityRow[];
+  /**
+   * For the tested rates and the regional rate: the share of sites at which the rate returns
+   * less than the site's own best by more than the tolerance (a between-site risk); null with
+   * no site.
+   */
+  shortfallRisk: ShortfallRisk | null;
+}
+
+/** The regional rate at one multiple of the price ratio. */
+export interface RegionalSensitivityRow extends RatioMultiple {
+  /** The regional rate at this ratio, kg/ha (NaN with no site). */
+  rateKgHa: number;
+  /** Rates within the band of the best mean return at this ratio, kg/ha. */
+  profitableRangeKgHa: [number, number];
+}
+
+/** Every part of a regional analysis that depends on prices. */
+export type RegionalAtPrices = Pick<
+  RegionalAnalysis,
+  'regional' | 'text' | 'priceRatioSensitivity' | 'shortfallRisk'
+>;
+
+/**
+ * The priced parts of a regional analysis: the regional return and its sentence, its
+ * price-ratio table and its shortfall risk.
+ * @param r - the price-free parts (grid gains, gains at the tested rates)
+ * @param prices - canonical prices
+ * @param bandPerHa - profitable band, currency/ha
+ * @param tolerancePerHa - shortfall tolerance, currency/ha
+ * @returns the priced parts
+ * @throws {StatsInputError} "bad-argument" for a price that is not positive
+ */
+export function regionalAtPrices(
+  r: Pick<RegionalAnalysis, 'prepared' | 'atTestedRates'>,
+  prices: Prices,
+  bandPerHa: number,
+  tolerancePerHa: number,
+): RegionalAtPrices {
+  const regional = regionalReturnAtPrices(r.prepared, prices, { bandPerHa });
+  const sensitivity = priceRatioSensitivity(prices, (scaled, m) => {
+    const at = m === 1 ? regional : regionalReturnAtPrices(r.prepared, scaled, { bandPerHa });
+    const range = at.profitableRange;
+    return {
+      rateKgHa: at.bestRateKgHa,
+      profitableRangeKgHa: [range.lowKgHa, range.highKgHa] as [number, number],
+    };
+  });
+  return {
+    regional,
+    text: regionalRecommendation(regional),
+    priceRatioSensitivity: sensitivity,
+    shortfallRisk: regionalShortfallRisk(r.prepared, r.atTestedRates, regional, tolerancePerHa),
+  };
 }
 
 /**
@@ -68,13 +135,21 @@ export function regionalAnalysis(
           : '') +
         ', so no site curve is extended past its data.';
   const prepared = prepareRegionalReturn(curves, grid);
-  const regional = regionalReturnAtPrices(prepared, o.prices, { bandPerHa: o.bandPerHa });
+  const tested = candidateRates(
+    used.flatMap((u) => u.fit.testedRates.distinctKgHa.filter((x) => x >= grid[0] && x <= end)),
+    null,
+  );
+  const atTestedRates = prepareRegionalReturn(
+    curves,
+    tested.length > 0 ? Float64Array.from(tested) : Float64Array.of(grid[0]),
+  );
+  const tolerance = toleranceInForce(o.shortfallTolerancePerHa, o.prices);
   return {
-    regional,
-    text: regionalRecommendation(regional),
+    ...regionalAtPrices({ prepared, atTestedRates }, o.prices, o.bandPerHa, tolerance),
     sitesUsed,
     sitesLeftOut: leftOut,
     gridNote,
     prepared,
+    atTestedRates,
   };
 }

@@ -7,10 +7,9 @@
  */
 import type { Prices } from '../economics/priceRatio';
 import type { AcrossSiteAnalysis } from './acrossSites';
-import type { RegionalAnalysis } from './regionalAnalysis';
+import { toleranceInForce } from '../economics/shortfallRule';
+import { regionalAtPrices, type RegionalAnalysis } from './regionalAnalysis';
 import { siteModelRows } from './siteModelRows';
-import { regionalReturnAtPrices } from './regionalReturn';
-import { regionalRecommendation } from './regionalRecommendation';
 
 export interface RepriceOptions {
   /** New profitable band, currency/ha; default the analysis' band. */
@@ -21,11 +20,20 @@ export interface RepriceOptions {
    * economicOptimum per site and model, most of the time at hundreds of sites.
    */
   rows?: boolean;
+  /**
+   * Shortfall tolerance of the regional risk, currency/ha; default the analysis' setting, else
+   * the cost of 10 kg N/ha at the new prices.
+   */
+  shortfallTolerancePerHa?: number | null;
 }
 
-function reprice(r: RegionalAnalysis, prices: Prices, bandPerHa: number): RegionalAnalysis {
-  const regional = regionalReturnAtPrices(r.prepared, prices, { bandPerHa });
-  return { ...r, regional, text: regionalRecommendation(regional) };
+function reprice(
+  r: RegionalAnalysis,
+  prices: Prices,
+  bandPerHa: number,
+  tolerancePerHa: number,
+): RegionalAnalysis {
+  return { ...r, ...regionalAtPrices(r, prices, bandPerHa, tolerancePerHa) };
 }
 
 /**
@@ -47,10 +55,17 @@ export function repriceAcrossSites(
   options: RepriceOptions = {},
 ): AcrossSiteAnalysis {
   const bandPerHa = options.bandPerHa ?? analysis.options.bandPerHa;
-  const regional = reprice(analysis.regional, prices, bandPerHa);
+  const given = options.shortfallTolerancePerHa ?? analysis.options.shortfallTolerancePerHa;
+  const tolerance = toleranceInForce(given, prices);
+  const regional = reprice(analysis.regional, prices, bandPerHa, tolerance);
   return {
     ...analysis,
-    options: { ...analysis.options, prices: { ...prices }, bandPerHa },
+    options: {
+      ...analysis.options,
+      prices: { ...prices },
+      bandPerHa,
+      shortfallTolerancePerHa: given,
+    },
     regional,
     rows:
       options.rows === false
@@ -58,7 +73,10 @@ export function repriceAcrossSites(
         : analysis.sites.flatMap((s) => siteModelRows(s, prices)),
     groups: analysis.groups.map((g) => ({
       ...g,
-      values: g.values.map((v) => ({ ...v, regional: reprice(v.regional, prices, bandPerHa) })),
+      values: g.values.map((v) => ({
+        ...v,
+        regional: reprice(v.regional, prices, bandPerHa, tolerance),
+      })),
     })),
   };
 }

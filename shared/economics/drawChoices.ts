@@ -32,6 +32,12 @@ import { chooseModel, ruleWeights, type ModelCandidate } from '../models/chooseM
 import type { ModelName } from '../models/modelTypes';
 import { drawStatus, type BootstrapDraws } from './bootstrapDraws';
 
+/**
+ * How a site's resamples are decided: "model-reselected", by the site's own rule in every
+ * resample (drawChoices), or "fixed-model", by one model throughout (the analyst's pick).
+ */
+export type IntervalBasis = 'model-reselected' | 'fixed-model';
+
 /** The deciding model of every resample of one site, and the rule's weights. */
 export interface DrawChoices {
   /** The drawn models, in the draws' order. */
@@ -81,4 +87,35 @@ export function drawChoices(draws: BootstrapDraws): DrawChoices {
   const out = { models, decisive, weights };
   cache.set(draws, out);
   return out;
+}
+
+/**
+ * The deciding models of each resample for a basis: the rule's candidates in every resample
+ * with their weights ("model-reselected", drawChoices) or one model throughout, weight 1
+ * ("fixed-model"). The interval
+ * (optimumInterval) and the shortfall risk (shortfallRisk) read the resamples through this one
+ * function, so both speak of the same resamples.
+ * @param draws - a site's bootstrap draws
+ * @param model - the model of "fixed-model" (the analyst's pick); ignored otherwise
+ * @param basis - "model-reselected" or "fixed-model"
+ * @returns per resample, which model decides it; null when "fixed-model" names a model that was
+ *   not drawn, or no model was drawn at all
+ * @example
+ * decidingModels(draws, 'quadratic', 'fixed-model')!.decisive[0] // 0: the quadratic decides
+ */
+export function decidingModels(
+  draws: BootstrapDraws,
+  model: ModelName,
+  basis: IntervalBasis,
+): DrawChoices | null {
+  if (basis === 'fixed-model') {
+    return draws.models[model]
+      ? {
+          models: [model],
+          decisive: new Int8Array(draws.resamples),
+          weights: new Float64Array(draws.resamples).fill(1),
+        }
+      : null;
+  }
+  return Object.keys(draws.models).length === 0 ? null : drawChoices(draws);
 }

@@ -84,6 +84,21 @@ export function netReturn(
   return prices.grainPricePerKg * y - prices.nutrientPricePerKg * rateKgHa - app;
 }
 
+/**
+ * The rate a site's optimum recommends: the optimum; for a full response that pays, the top of
+ * its range (the optimum lies at or below it); null without one.
+ * @param optimum - the site's optimum (e.g. PricedSite.optimum), or null
+ * @returns kg/ha, or null
+ * @example
+ * recommendedRateKgHa({ ...opt, status: 'join-in-first-interval', rangeKgHa: [0, 40] }) // 40
+ */
+export function recommendedRateKgHa(optimum: EconomicOptimum | null): number | null {
+  if (!optimum) return null;
+  return optimum.status === 'join-in-first-interval' && optimum.rangeKgHa
+    ? optimum.rangeKgHa[1]
+    : optimum.rateKgHa;
+}
+
 /** Why the optimum is what it is: the explanation is written from this and the numbers. */
 type OptimumReason =
   | 'full-response-does-not-pay'

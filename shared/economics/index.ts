@@ -22,6 +22,11 @@
  *
  * optimumProfileInterval(fit, joinProfile, prices, level): OptimumProfileInterval | null  // re-priced
  *   → the profile interval beside it (linear-plateau: its join's; quadratic: Fieller's)
+ * decidingModels(draws, model, basis): DrawChoices   // who decides each resample, for both of these
+ * priceRatioSensitivity(prices, at, [0.5, 0.75, 1, 1.5, 2])  // the owner's answer at scaled N prices
+ * shortfallRisk(draws, model, basis, prices, rates, tolerancePerHa): ShortfallRisk
+ *   → { tolerancePerHa, count, rows: { rateKgHa, share }[] }   // share of resamples short
+ * shortfallRule: shareFallingShort, toleranceInForce (null → the cost of 10 kg N/ha), candidateRates
  *
  * For the JSON report per model: optimumRate = economicOptimum(fit, prices).rateKgHa,
  * yieldAtOptimum = .yieldKgHa, optimumCI = optimumInterval(...).ciKgHa.

@@ -25,11 +25,8 @@ import { StatsInputError } from '../stats/errors';
 import { weightedSortedQuantile } from '../stats/quantile';
 import { drawSummaries, type BootstrapDraws } from './bootstrapDraws';
 import { countedOptimum, type CountedKind } from './countedOptimum';
-import { drawChoices } from './drawChoices';
+import { decidingModels, type IntervalBasis } from './drawChoices';
 import { assertPrices, type Prices } from './priceRatio';
-
-/** How the resamples' optima were made: the model chosen in each, or one model throughout. */
-export type IntervalBasis = 'model-reselected' | 'fixed-model';
 
 /** Share of the resamples of each kind (countedOptimum), each in [0, 1], summing to 1. */
 export type OptimumShares = Record<CountedKind, number>;
@@ -79,16 +76,9 @@ export function optimumInterval(
     );
   }
   assertPrices(prices);
-  const fixed = basis === 'fixed-model';
-  if (fixed ? !draws.models[model] : Object.keys(draws.models).length === 0) return null;
+  const choices = decidingModels(draws, model, basis);
+  if (!choices) return null;
   const count = draws.resamples;
-  const choices = fixed
-    ? {
-        models: [model],
-        decisive: new Int8Array(count),
-        weights: new Float64Array(count).fill(1),
-      }
-    : drawChoices(draws);
   const k = choices.models.length;
   const readers = choices.models.map((m) => drawSummaries(draws, m)!);
   // Every resample holds weight 1, spread over its candidates by their weights; a resample with

@@ -10,6 +10,9 @@
 import type { TrialAnalysis } from '../analysis/analyzeTrial';
 import type { AcrossSiteAnalysis, FitData, SiteAnalysis } from '../analysis/analyzeAcrossSites';
 import type { PricedSite, PricedTrial } from '../analysis/priceTrial';
+import type { RegionalAnalysis } from '../analysis/regionalAnalysis';
+import { recommendedRateKgHa } from '../economics/economicOptimum';
+import { sameRate, type ShortfallRisk } from '../economics/shortfallRule';
 import type { SiteModelRow } from '../analysis/siteModelRows';
 import type { SitePlots } from '../analysis/sitePlots';
 import type { MappingEntry } from '../import/mappingEntries';
@@ -28,6 +31,8 @@ import type {
   InterceptSummary,
   LackOfFitSummary,
   ModelRow,
+  SensitivitySummaryRow,
+  ShortfallSummary,
   SiteReport,
   TrialReport,
 } from './trialReport';
@@ -201,6 +206,7 @@ export function assembleReport(
       blocks: a.blocks === 'auto' ? 'fixed' : 'none',
       intervalLevel: a.intervalLevel,
       siteModels: { ...priced.choices },
+      shortfallTolerance: { ...priced.shortfallTolerance },
     },
     prices: terms,
     sources: table.sources,
@@ -208,6 +214,25 @@ export function assembleReport(
     sites,
     acrossSites: acrossSitesOf(priced.across),
     warnings: runWarnings,
+  };
+}
+
+/** A shortfall risk as the report keeps it, with the recommended rate marked. */
+function shortfallSummary(
+  risk: ShortfallRisk | null,
+  of: ShortfallSummary['of'],
+  recommendedKgHa: number | null,
+): ShortfallSummary | null {
+  if (!risk) return null;
+  return {
+    tolerancePerHa: risk.tolerancePerHa,
+    of,
+    count: risk.count,
+    rows: risk.rows.map((r) => ({
+      rateKgHa: r.rateKgHa,
+      share: r.share,
+      recommended: sameRate(r.rateKgHa, recommendedKgHa),
+    })),
   };
 }
 
@@ -267,7 +292,7 @@ function siteReport(
   const basis = bestFit ? (c.priced.lead.basis ?? null) : null;
   const fullRange = opt?.status === 'join-in-first-interval' ? opt.rangeKgHa : null;
   const recommendation: SiteReport['recommendation'] = {
-    rateKgHa: fullRange ? fullRange[1] : (opt?.rateKgHa ?? null),
+    rateKgHa: recommendedRateKgHa(opt),
     rangeKgHa: fullRange ? [fullRange[0], fullRange[1]] : null,
     ciKgHa: interval?.ciKgHa ?? null,
     level: interval?.level ?? c.intervalLevel,
@@ -322,6 +347,18 @@ function siteReport(
     profitableRangeKgHa: bestFit ? c.priced.profitableRangeKgHa : null,
     optimumSpreadKgHa,
     returnAtOptimumPerHa: basis === 'no-response' ? 0 : (bestRow?.gainOverCheckPerHa ?? null),
+    priceRatioSensitivity: bestFit
+      ? (c.priced.priceRatioSensitivity ?? []).map((r) => ({
+          ratioMultiplier: r.ratioMultiplier,
+          priceRatioKgPerKg: r.priceRatio,
+          rateKgHa: r.rateKgHa,
+          ciKgHa: r.intervalKgHa,
+          profitableRangeKgHa: null,
+        }))
+      : [],
+    shortfallRisk: bestFit
+      ? shortfallSummary(c.priced.shortfallRisk, 'resamples', recommendation.rateKgHa)
+      : null,
     designText,
     residuals: bestFit
       ? rates.map((rateKgHa, i) => ({
@@ -393,7 +430,24 @@ function acrossSitesOf(analysis: AcrossSiteAnalysis): AcrossSitesReport | null {
       rateKgHa: o.rateKgHa,
       returnPerHa: o.returnPerHa,
     })),
+    priceRatioSensitivity: regionalSensitivity(analysis.regional),
+    shortfallRisk: shortfallSummary(
+      analysis.regional.shortfallRisk,
+      'sites',
+      regional.bestRateKgHa,
+    ),
     tests,
     notes,
   };
+}
+
+/** The regional rate at each multiple of the price ratio, as the report keeps it. */
+function regionalSensitivity(r: RegionalAnalysis): SensitivitySummaryRow[] {
+  return r.priceRatioSensitivity.map((row) => ({
+    ratioMultiplier: row.ratioMultiplier,
+    priceRatioKgPerKg: row.priceRatio,
+    rateKgHa: row.rateKgHa,
+    ciKgHa: null,
+    profitableRangeKgHa: row.profitableRangeKgHa,
+  }));
 }

@@ -35,4 +35,9 @@ export interface ReportSettings extends DisplaySettings {
   intervalLevel: number;
   /** Site → the model the analyst picked to lead that site (leadingModel). */
   siteModels?: Readonly<Record<string, ModelName>>;
+  /**
+   * The shortfall tolerance of the risk tables, currency/ha, and whether it is the default
+   * (the cost of 10 kg N/ha at the prices) rather than the user's.
+   */
+  shortfallTolerance?: { perHa: number; isDefault: boolean };
 }

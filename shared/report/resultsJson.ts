@@ -6,7 +6,7 @@
  */
 import type { RateProfileInterval } from '../models/joinProfile';
 import type { ModelName, FitStatus } from '../models/modelTypes';
-import type { TrialReport } from './trialReport';
+import type { ShortfallSummary, TrialReport } from './trialReport';
 import { priceRatioQuote } from '../economics/priceQuote';
 import { unitScale } from './unitScale';
 
@@ -95,6 +95,28 @@ export interface ResultsSite {
     modelShares: Partial<Record<ModelName, number>>;
   } | null;
   models: ResultsModel[];
+  /**
+   * The recommendation at the price ratio times 0.5, 0.75, 1, 1.5 and 2 (the nitrogen price
+   * scaled, the grain price kept): `priceRatio` in `settings.priceRatioUnit`, `rate` and its
+   * bootstrap `interval` (at `recommendation.level`) in the rate unit; [] without a leading model.
+   */
+  priceRatioSensitivity: {
+    ratioMultiplier: number;
+    priceRatio: number;
+    rate: number | null;
+    interval: [number, number] | null;
+  }[];
+  /**
+   * For the tested rates and the recommended rate: the share of the bootstrap resamples in
+   * which the rate returns less than that resample's own best by more than `tolerance`
+   * (money per area, `toleranceUnit`); null without resamples.
+   */
+  shortfallRisk: {
+    tolerance: number;
+    toleranceUnit: string;
+    resamples: number;
+    rows: { rate: number; share: number; recommended: boolean }[];
+  } | null;
   warnings: string[];
 }
 
@@ -111,6 +133,10 @@ export interface ResultsJson {
     boot: number;
     seed: number;
     blocks: string;
+    /** Shortfall tolerance of the risk tables, money per area (as every money figure here). */
+    shortfallTolerance: number;
+    /** True when the tolerance is the default, the cost of 10 kg N/ha at these prices. */
+    shortfallToleranceDefault: boolean;
   };
   sites: ResultsSite[];
   acrossSites: {
@@ -120,6 +146,23 @@ export interface ResultsJson {
     bestMeanReturn: number;
     returnUnit: string;
     siteOptima: { site: string; rate: number }[];
+    /** The regional rate and profitable range at the price ratio times 0.5 … 2. */
+    priceRatioSensitivity: {
+      ratioMultiplier: number;
+      priceRatio: number;
+      rate: number | null;
+      profitableRange: [number, number];
+    }[];
+    /**
+     * For the tested rates and the regional rate: the share of the sites at which the rate
+     * returns less than the site's own best by more than `tolerance` (a between-site risk).
+     */
+    shortfallRisk: {
+      tolerance: number;
+      toleranceUnit: string;
+      sites: number;
+      rows: { rate: number; share: number; recommended: boolean }[];
+    } | null;
   } | null;
 }
 
@@ -155,6 +198,17 @@ export function resultsJson(report: TrialReport): ResultsJson {
   // Grain per unit of N in the unit the price ratio is quoted in (a scale factor).
   const perN = (kgPerKg: number) =>
     clean(priceRatioQuote(kgPerKg, settings.units, report.crop).value);
+  const moneyUnit = `currency/${u.areaName}`;
+  const range = (r: [number, number]): [number, number] => [
+    clean(u.rate(r[0])),
+    clean(u.rate(r[1])),
+  ];
+  const riskRows = (rows: ShortfallSummary['rows']) =>
+    rows.map((r) => ({
+      rate: clean(u.rate(r.rateKgHa)),
+      share: clean(r.share),
+      recommended: r.recommended,
+    }));
   return {
     tool: { ...report.tool },
     settings: {
@@ -168,6 +222,8 @@ export function resultsJson(report: TrialReport): ResultsJson {
       boot: settings.boot,
       seed: settings.seed,
       blocks: settings.blocks,
+      shortfallTolerance: clean(u.perArea(settings.shortfallTolerance.perHa)),
+      shortfallToleranceDefault: settings.shortfallTolerance.isDefault,
     },
     sites: report.sites.map((s) => ({
       site: s.site,
@@ -264,6 +320,20 @@ export function resultsJson(report: TrialReport): ResultsJson {
           ? { ...profileJson(m.optimumProfile, u.rate), basis: m.optimumProfile.basis }
           : null,
       })),
+      priceRatioSensitivity: s.priceRatioSensitivity.map((r) => ({
+        ratioMultiplier: r.ratioMultiplier,
+        priceRatio: perN(r.priceRatioKgPerKg),
+        rate: cleanOrNull(r.rateKgHa === null ? null : u.rate(r.rateKgHa)),
+        interval: r.ciKgHa ? range(r.ciKgHa) : null,
+      })),
+      shortfallRisk: s.shortfallRisk
+        ? {
+            tolerance: clean(u.perArea(s.shortfallRisk.tolerancePerHa)),
+            toleranceUnit: moneyUnit,
+            resamples: s.shortfallRisk.count,
+            rows: riskRows(s.shortfallRisk.rows),
+          }
+        : null,
       warnings: [...s.warnings],
     })),
     acrossSites: report.acrossSites
@@ -275,11 +345,25 @@ export function resultsJson(report: TrialReport): ResultsJson {
             clean(u.rate(report.acrossSites.profitableRangeKgHa[1])),
           ],
           bestMeanReturn: clean(u.perArea(report.acrossSites.bestMeanReturnPerHa)),
-          returnUnit: `currency/${u.areaName}`,
+          returnUnit: moneyUnit,
           siteOptima: report.acrossSites.siteOptima.map((o) => ({
             site: o.site,
             rate: clean(u.rate(o.rateKgHa)),
           })),
+          priceRatioSensitivity: report.acrossSites.priceRatioSensitivity.map((r) => ({
+            ratioMultiplier: r.ratioMultiplier,
+            priceRatio: perN(r.priceRatioKgPerKg),
+            rate: cleanOrNull(r.rateKgHa === null ? null : u.rate(r.rateKgHa)),
+            profitableRange: range(r.profitableRangeKgHa!),
+          })),
+          shortfallRisk: report.acrossSites.shortfallRisk
+            ? {
+                tolerance: clean(u.perArea(report.acrossSites.shortfallRisk.tolerancePerHa)),
+                toleranceUnit: moneyUnit,
+                sites: report.acrossSites.shortfallRisk.count,
+                rows: riskRows(report.acrossSites.shortfallRisk.rows),
+              }
+            : null,
         }
       : null,
   };

@@ -9,7 +9,8 @@
 import type { ModelName, FitStatus } from '../models/modelTypes';
 import type { RecommendationBasis } from '../analysis/siteDecision';
 import type { ResponseOverCheckOutcome } from '../analysis/siteResponseOverCheck';
-import type { IntervalBasis, OptimumShares } from '../economics/optimumInterval';
+import type { IntervalBasis } from '../economics/drawChoices';
+import type { OptimumShares } from '../economics/optimumInterval';
 import type { OptimumProfileInterval } from '../economics/optimumProfile';
 import type { RateProfileInterval } from '../models/joinProfile';
 import type { MappingEntry } from '../import/mappingEntries';
@@ -101,6 +102,37 @@ export interface BootstrapSummary {
   modelShares: Partial<Record<ModelName, number>>;
 }
 
+/** The recommendation at one multiple of the price ratio (shared/economics/priceRatioSensitivity). */
+export interface SensitivitySummaryRow {
+  /** The multiple of the user's price ratio, e.g. 1.5 (the nitrogen price scaled, grain kept). */
+  ratioMultiplier: number;
+  /** The price ratio of the row, kg grain per kg N. */
+  priceRatioKgPerKg: number;
+  /** The recommended rate (site) or regional rate at this ratio, kg/ha; null without one. */
+  rateKgHa: number | null;
+  /** Site: the bootstrap interval at this ratio, kg/ha; null without one (and for the region). */
+  ciKgHa: [number, number] | null;
+  /** Region: the profitable range at this ratio, kg/ha; null for a site. */
+  profitableRangeKgHa: [number, number] | null;
+}
+
+/** The shortfall risk of candidate rates (shared/economics/shortfallRisk, regionalShortfallRisk). */
+export interface ShortfallSummary {
+  /** Shortfall beyond which a rate counts as falling short, currency/ha. */
+  tolerancePerHa: number;
+  /** What the shares are of: a site's resamples, or the sites of a region. */
+  of: 'resamples' | 'sites';
+  /** How many resamples or sites. */
+  count: number;
+  rows: {
+    rateKgHa: number;
+    /** Share of the resamples (site) or sites (region) in which the rate falls short, 0–1. */
+    share: number;
+    /** True on the recommended (site) or regional (region) rate. */
+    recommended: boolean;
+  }[];
+}
+
 export interface SiteReport {
   site: string;
   /** Plots used in the fits. */
@@ -135,6 +167,10 @@ export interface SiteReport {
   optimumSpreadKgHa: [number, number] | null;
   /** Net return over the check at the optimum, currency/ha; null without one. */
   returnAtOptimumPerHa: number | null;
+  /** The recommendation at 0.5, 0.75, 1, 1.5 and 2 times the price ratio; [] without one. */
+  priceRatioSensitivity: SensitivitySummaryRow[];
+  /** The risk that each tested rate and the recommended rate fall short; null without resamples. */
+  shortfallRisk: ShortfallSummary | null;
   /** The site's treatment design in words for the reader, e.g. "4 blocks × 6 rates". */
   designText: string;
   /** Residuals of the chosen model, one per plot used (kg/ha), for the residual panel. */
@@ -181,6 +217,10 @@ export interface AcrossSitesReport {
   /** The regional mean return curve, for the chart. */
   returnCurve: { rateKgHa: number[]; returnPerHa: number[] };
   siteOptima: { site: string; rateKgHa: number; returnPerHa: number }[];
+  /** The regional rate and profitable range at 0.5, 0.75, 1, 1.5 and 2 times the price ratio. */
+  priceRatioSensitivity: SensitivitySummaryRow[];
+  /** The share of sites each tested rate and the regional rate leave short (between sites). */
+  shortfallRisk: ShortfallSummary | null;
   /** Pooling F-tests: does one response describe every site? */
   tests: { question: string; F: number; df1: number; df2: number; p: number; verdict: string }[];
   notes: string[];
@@ -191,7 +231,8 @@ export interface TrialReport {
   /** When the analysis ran, ISO 8601 (given by the caller so tests can fix it). */
   createdAt: string;
   crop: CropId;
-  settings: ReportSettings;
+  /** The run's settings, with the shortfall tolerance the priced view used. */
+  settings: ReportSettings & Required<Pick<ReportSettings, 'shortfallTolerance'>>;
   prices: PriceTerms;
   sources: SourceFile[];
   mapping: MappingEntry[];

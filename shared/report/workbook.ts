@@ -1,7 +1,7 @@
 /**
  * The report workbook, written with exceljs to bytes (no file system here):
  * Overview (with the cautions), one sheet per site, Across sites, Economics,
- * Recommendations (print-ready grower pages) and Provenance. Numbers are in
+ * Price ratio and risk, Recommendations (print-ready grower pages) and Provenance. Numbers are in
  * the report's display units, converted from canonical kg/ha.
  */
 import { paperSize } from './paperSize';
@@ -15,6 +15,7 @@ import { sheetName } from './workbookFormat';
 import { workbookGrowerSheet } from './workbookGrowerSheet';
 import { workbookOverview } from './workbookOverview';
 import { workbookProvenance } from './workbookProvenance';
+import { SENSITIVITY_SHEET, workbookSensitivity } from './workbookSensitivity';
 import { workbookSite, type SheetImage } from './workbookSite';
 
 export interface WorkbookOptions {
@@ -49,7 +50,14 @@ export async function writeWorkbook(
   wb.modified = when;
   const u = unitScale(report.settings.units, report.crop);
   const paper = report.settings.paper ?? paperSize(report.settings.units);
-  const taken = new Set(['overview', 'across sites', 'economics', 'recommendations', 'provenance']);
+  const taken = new Set([
+    'overview',
+    'across sites',
+    'economics',
+    SENSITIVITY_SHEET.toLowerCase(),
+    'recommendations',
+    'provenance',
+  ]);
   workbookOverview(wb, report, u, paper);
   for (const s of report.sites) {
     workbookSite(
@@ -64,6 +72,7 @@ export async function writeWorkbook(
   }
   workbookAcrossSites(wb, report, u, paper, options.acrossChart ?? null);
   workbookEconomics(wb, report, paper);
+  workbookSensitivity(wb, report, u, paper);
   workbookGrowerSheet(wb, reportGrowerPages(report), paper);
   workbookProvenance(wb, report, paper);
   const buf = await wb.xlsx.writeBuffer(

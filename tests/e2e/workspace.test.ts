@@ -8,7 +8,8 @@ import { readFile } from 'node:fs/promises';
 import { analyzeCommand } from '../../cli/analyzeCommand';
 import { parseArgs, type AnalyzeArgs } from '../../cli/parseArgs';
 import { syntheticWorkbook } from '../../shared/demo/syntheticTrial';
-import { openSession, shot, type Session } from './harness';
+import { recommendationCautions } from '../../shared/economics/recommendationCautions';
+import { openSession, shot, SHOT_DIR, type Session } from './harness';
 
 let session: Session;
 /** The trial files the workspace has open, for the command line to analyze the same. */
@@ -170,6 +171,54 @@ describe('the workspace in chromium', () => {
     await expect(page.getByTestId('best-rate').textContent()).resolves.toMatch(/\d+ kg\/ha/);
     await page.getByText('Do the sites share a response?').waitFor();
     await shot(page, '05-all-sites');
+    expect(session.pageErrors).toEqual([]);
+  });
+
+  it('shows the price-ratio and risk tables with the cautions, for the region and a site', async () => {
+    const { page } = session;
+    // On the all-sites step: the region's tables, the 1× row being the regional rate above.
+    const region = page.getByTestId('region-ratio-risk');
+    await region.waitFor();
+    const regionRows = page.getByTestId('region-ratio-table').locator('tbody tr');
+    await expect(regionRows.count()).resolves.toBe(5);
+    const best = await page.getByTestId('best-rate').textContent();
+    await expect(regionRows.nth(2).locator('td').nth(2).textContent()).resolves.toBe(best);
+    await expect(page.getByTestId('region-risk-note').textContent()).resolves.toMatch(
+      /a risk between sites/,
+    );
+    const regionText = (await region.textContent()) ?? '';
+    for (const c of recommendationCautions) expect(regionText).toContain(c);
+    await region.scrollIntoViewIfNeeded();
+    await region.screenshot({ path: path.join(SHOT_DIR, '05c-region-ratio-risk.png') });
+    // On the one-site step: the site's tables under its optimum.
+    await page.getByRole('button', { name: /One site/ }).click();
+    const site = page.getByTestId('site-ratio-risk');
+    await site.waitFor();
+    const siteRows = page.getByTestId('site-ratio-table').locator('tbody tr');
+    await expect(siteRows.nth(2).locator('td').first().textContent()).resolves.toBe('1× (now)');
+    await expect(siteRows.nth(2).locator('td').nth(2).textContent()).resolves.toBe(
+      await page.getByTestId('site-optimum').textContent(),
+    );
+    const siteText = (await site.textContent()) ?? '';
+    for (const c of recommendationCautions) expect(siteText).toContain(c);
+    await expect(page.getByTestId('site-risk-note').textContent()).resolves.toMatch(
+      /Share of the 200 resamples .* \(the cost of 10 kg N\/ha at these prices\)/,
+    );
+    await site.scrollIntoViewIfNeeded();
+    await site.screenshot({ path: path.join(SHOT_DIR, '05d-site-ratio-risk.png') });
+    // A tolerance of one's own is used at once, and the default comes back.
+    await page.getByRole('button', { name: /Prices/ }).click();
+    await page.getByTestId('shortfall-tolerance').fill('40');
+    await page.getByRole('button', { name: /One site/ }).click();
+    await expect(page.getByTestId('site-risk-note').textContent()).resolves.toMatch(
+      /by more than .?40[.,]00.*\/ha \(your tolerance\)/,
+    );
+    await page.getByRole('button', { name: /Prices/ }).click();
+    await page.getByTestId('tolerance-default').click();
+    await page.getByRole('button', { name: /One site/ }).click();
+    await expect(page.getByTestId('site-risk-note').textContent()).resolves.toMatch(
+      /the cost of 10 kg N\/ha/,
+    );
     expect(session.pageErrors).toEqual([]);
   });
 

@@ -97,12 +97,12 @@ export function productPriceShown(perKg: number, unit: RateUnit): number {
 export function productPriceFromShown(shown: number, unit: RateUnit): number {
   return shown / rateUnitKg(unit);
 }
-/** Application cost per display area (ac or ha) from per ha. */
-export function applicationShown(perHa: number, unit: RateUnit): number {
+/** Money per display area (ac or ha) from per ha: the application cost, the shortfall tolerance. */
+export function moneyPerAreaShown(perHa: number, unit: RateUnit): number {
   return perHa * haPerDisplayArea(unit);
 }
-/** Application cost per ha from per display area. */
-export function applicationFromShown(shown: number, unit: RateUnit): number {
+/** Money per ha from per display area. */
+export function moneyPerAreaFromShown(shown: number, unit: RateUnit): number {
   return shown / haPerDisplayArea(unit);
 }
 

@@ -19,6 +19,8 @@ export interface Session {
   blocks: BlockTerms;
   step: string;
   selectedSite: string | null;
+  /** The risk tables' tolerance, currency/ha; null or absent (older sessions): the default. */
+  shortfallTolerancePerHa?: number | null;
 }
 
 function isObject(v: unknown): v is Record<string, unknown> {
@@ -67,5 +69,12 @@ export function checkSession(data: unknown): Session | null {
   if (typeof data.locale !== 'string' || typeof data.step !== 'string') return null;
   if (!isObject(data.choices)) return null;
   if (data.selectedSite !== null && typeof data.selectedSite !== 'string') return null;
+  const tolerance = data.shortfallTolerancePerHa;
+  if (
+    tolerance !== undefined &&
+    tolerance !== null &&
+    !(typeof tolerance === 'number' && tolerance >= 0)
+  )
+    return null;
   return data as unknown as Session;
 }

@@ -60,7 +60,10 @@ export class Analysis {
    */
   priced: PricedTrial | null = $derived.by(() => {
     const prices = this.#prices.canonical;
-    return this.output && prices.ok ? priceTrial(this.output, prices.prices, this.choices) : null;
+    const options = { shortfallTolerancePerHa: this.#prices.shortfallTolerancePerHa };
+    return this.output && prices.ok
+      ? priceTrial(this.output, prices.prices, this.choices, options)
+      : null;
   });
 
   optima: SiteOptimum[] = $derived(this.priced ? siteOptima(this.sites, this.priced) : []);

@@ -10,6 +10,12 @@ import {
 
 export class Prices {
   #given = $state<PriceSettings>({ ...ILLUSTRATIVE_PRICES });
+  /**
+   * How far below the best a rate may return before the risk tables count it as falling short,
+   * currency per ha; null: the default, the cost of 10 kg N/ha at the prices in force. Not a
+   * price, so setting it leaves illustrative prices illustrative.
+   */
+  shortfallTolerancePerHa = $state<number | null>(null);
   #crop: () => CropId = () => 'corn';
 
   /** @param crop - the current crop: illustrative grain prices follow it until the user gives one */

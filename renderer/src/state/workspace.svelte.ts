@@ -89,6 +89,7 @@ export class Workspace {
       blocks: this.analysis.blocks,
       step: this.step,
       selectedSite: this.analysis.selectedSite,
+      shortfallTolerancePerHa: this.prices.shortfallTolerancePerHa,
     };
   }
 
@@ -97,6 +98,7 @@ export class Workspace {
     this.settings.unitSystem = session.unitSystem;
     this.settings.locale = session.locale;
     this.prices.settings = session.prices;
+    this.prices.shortfallTolerancePerHa = session.shortfallTolerancePerHa ?? null;
     this.analysis.choices = session.choices;
     this.analysis.blocks = session.blocks;
     this.analysis.selectedSite = session.selectedSite;
