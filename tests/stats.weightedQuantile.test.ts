@@ -1,37 +1,52 @@
-// The weighted sample quantile (shared/stats/quantile weightedSortedQuantile): with equal weights
-// it is definition 7 of Hyndman & Fan (1996), R's default quantile(type = 7); the values below
-// are R 4.2's quantile(c(2, 3, 5, 7, 11, 13), p) (computed by hand from the definition too:
-// h = 5p + 1, e.g. p = 0.05 → h = 1.25 → 2 + 0.25·1 = 2.25).
+// The weighted sample quantile (shared/stats/quantile weightedSortedQuantile): the inverse of
+// the weighted distribution function. With equal weights it is definition 1 of Hyndman & Fan
+// (1996), R's quantile(type = 1); the values below are R 4.2.2's
+// quantile(c(2, 3, 5, 7, 11, 13), c(0, .05, .5, .51, .95, 1), type = 1): 2, 2, 5, 7, 13, 13.
 import { describe, expect, it } from 'vitest';
-import { sortedQuantile, weightedSortedQuantile } from '../shared/stats/quantile';
+import { weightedSortedQuantile } from '../shared/stats/quantile';
 
 const x = [2, 3, 5, 7, 11, 13];
 
 describe('weightedSortedQuantile', () => {
-  it('with equal weights is definition 7 (R quantile type 7)', () => {
+  it('with equal weights is definition 1 (R quantile type 1)', () => {
     const r: [number, number][] = [
       [0, 2],
-      [0.05, 2.25],
-      [0.5, 6],
-      [0.95, 12.5],
+      [0.05, 2],
+      [0.5, 5],
+      [0.51, 7],
+      [0.95, 13],
       [1, 13],
     ];
-    for (const [p, q] of r) {
-      expect(weightedSortedQuantile(x, Array(6).fill(0.3), p)).toBeCloseTo(q, 12);
-      expect(sortedQuantile(x, p)).toBeCloseTo(q, 12);
-    }
+    for (const [p, q] of r) expect(weightedSortedQuantile(x, Array(6).fill(0.3), p)).toBe(q);
   });
 
-  it('skips values of zero weight and moves toward heavy values', () => {
+  it('skips values of zero weight and follows the weights', () => {
     expect(weightedSortedQuantile(x, [0, 1, 1, 1, 1, 0], 0)).toBe(3);
     expect(weightedSortedQuantile(x, [0, 1, 1, 1, 1, 0], 1)).toBe(11);
-    // Positions (S_i − w_i/2 − w_first/2)/(S − w_first/2 − w_last/2) for weights 1, 2, 1 on
-    // 3, 5, 7: 0, 1/2, 1.
-    expect(weightedSortedQuantile([3, 5, 7], [1, 2, 1], 0.25)).toBeCloseTo(4, 12);
-    expect(weightedSortedQuantile([3, 5, 7], [1, 2, 1], 0.75)).toBeCloseTo(6, 12);
-    const light = weightedSortedQuantile(x, [1, 1, 1, 1, 1, 1], 0.5);
-    const heavyTop = weightedSortedQuantile(x, [1, 1, 1, 1, 1, 10], 0.5);
-    expect(heavyTop).toBeGreaterThan(light);
+    // Cumulative weights 1, 3, 4 of 4 on 3, 5, 7: a quarter reaches 3, a half and three
+    // quarters reach 5, anything more reaches 7.
+    expect(weightedSortedQuantile([3, 5, 7], [1, 2, 1], 0.25)).toBe(3);
+    expect(weightedSortedQuantile([3, 5, 7], [1, 2, 1], 0.75)).toBe(5);
+    expect(weightedSortedQuantile([3, 5, 7], [1, 2, 1], 0.76)).toBe(7);
+  });
+
+  it('never rises when values fall, whatever their weights (the interval never rises with the price ratio)', () => {
+    // Two values of unequal weight swap places as one falls past the other.
+    const w = [3, 1];
+    let before = Infinity;
+    for (let a = 10; a >= 0; a -= 0.5) {
+      const pair = [
+        [a, w[0]],
+        [5, w[1]],
+      ].sort((u, v) => u[0] - v[0]);
+      const q = weightedSortedQuantile(
+        pair.map((u) => u[0]),
+        pair.map((u) => u[1]),
+        0.6,
+      );
+      expect(q).toBeLessThanOrEqual(before);
+      before = q;
+    }
   });
 
   it('rejects p outside [0, 1] and all-zero weights', () => {

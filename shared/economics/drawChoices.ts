@@ -8,8 +8,8 @@
  *   (ruleWeights), which the interval mixes (shared/economics/optimumInterval). Both
  *   were measured on simulated sites of known truth (scripts/validate, 400 sites per
  *   truth): the 90 % interval from the winners covered 0.89, 0.845 and 0.78 of
- *   linear-plateau, quadratic-plateau and exponential truths, the weighted mixture 0.91,
- *   0.945 and 0.82. A resample whose data sit between two curves gives both their due,
+ *   linear-plateau, quadratic-plateau and exponential truths, the weighted mixture 0.917,
+ *   0.935 and 0.807. A resample whose data sit between two curves gives both their due,
  *   where the winner alone made the resamples stick to the model the site's own noise
  *   favoured.
  *

@@ -64,19 +64,20 @@ function sortedCopy(values: ArrayLike<number>, fn: string): Float64Array {
 }
 
 /**
- * Quantile of a weighted sample whose values are sorted ascending: each value sits at the middle
- * of its share of the cumulative weight, pᵢ = (Sᵢ − wᵢ/2 − w_first/2) / (S − w_first/2 − w_last/2),
- * where Sᵢ is the weight up to and including value i and S the total, so the first value is at 0
- * and the last at 1, and Q(p) interpolates linearly between them. With equal weights
- * pᵢ = (i − 1)/(n − 1), so it is exactly definition 7 (sortedQuantile); a heavier value holds a
- * wider stretch of probability on both sides. Values of zero weight are skipped.
+ * Quantile of a weighted sample whose values are sorted ascending: the inverse of its weighted
+ * distribution function, the smallest value whose cumulative weight reaches p of the total
+ * (p = 0 gives the smallest value of positive weight). With equal weights it is definition 1
+ * of Hyndman & Fan (1996), R's quantile(type = 1). No interpolation: an interpolated weighted
+ * quantile can rise when values of unequal weight swap places, and the optimum's interval
+ * must never rise as the price ratio rises (each value falls then). Values of zero weight are
+ * skipped.
  * @param sorted - finite values in ascending order, at least one with positive weight
  * @param weights - one non-negative weight per value
  * @param p - the probability, 0 ≤ p ≤ 1
- * @returns the quantile, in the values' unit
+ * @returns the quantile, one of the values
  * @throws {StatsInputError} "bad-argument" when p is outside [0, 1] or no weight is positive
  * @example
- * weightedSortedQuantile([1, 2, 3, 4], [1, 1, 1, 1], 0.5) // 2.5, as sortedQuantile
+ * weightedSortedQuantile([2, 3, 5, 7], [1, 1, 1, 1], 0.5) // 3, as R's quantile(type = 1)
  */
 export function weightedSortedQuantile(
   sorted: ArrayLike<number>,
@@ -90,32 +91,23 @@ export function weightedSortedQuantile(
     );
   }
   let total = 0;
-  let first = -1;
   let last = -1;
   for (let i = 0; i < sorted.length; i++) {
-    if (!(weights[i] > 0)) continue;
-    total += weights[i];
-    if (first < 0) first = i;
-    last = i;
+    if (weights[i] > 0) {
+      total += weights[i];
+      last = i;
+    }
   }
   if (last < 0) {
     throw new StatsInputError('bad-argument', 'weightedSortedQuantile: no weight is positive.');
   }
-  const span = total - weights[first] / 2 - weights[last] / 2;
-  if (first === last || !(span > 0)) return sorted[last];
+  // Relative slack for the rounding of the running sum (so p = k/n lands on the k-th value).
+  const goal = p * total * (1 - 1e-12);
   let cumulative = 0;
-  let prev = -1;
-  let prevAt = 0;
-  for (let i = first; i <= last; i++) {
+  for (let i = 0; i <= last; i++) {
     if (!(weights[i] > 0)) continue;
     cumulative += weights[i];
-    const at = (cumulative - weights[i] / 2 - weights[first] / 2) / span;
-    if (at >= p) {
-      if (prev < 0) return sorted[i];
-      return sorted[prev] + ((p - prevAt) / (at - prevAt)) * (sorted[i] - sorted[prev]);
-    }
-    prev = i;
-    prevAt = at;
+    if (cumulative >= goal && (p > 0 || cumulative > 0)) return sorted[i];
   }
   return sorted[last];
 }
