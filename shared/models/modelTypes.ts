@@ -57,9 +57,9 @@ export interface FitOptions {
   /** Points on the fitted-curve grid from the lowest to the highest rate, default 61. */
   curvePoints?: number;
   /**
-   * Relative tolerance of Brent's search on x0 or ln k in estimateCurve, default 1e-10.
-   * The bootstrap uses 1e-7: ample for percentiles, and fewer evaluations. The plateau
-   * models on group sums find their join in closed form and do not use it.
+   * Relative tolerance of Brent's search on the exponential's ln k in estimateCurve, default
+   * 1e-10. The bootstrap uses 1e-7: ample for percentiles, and fewer evaluations. The plateau
+   * models find their join in closed form and do not use it.
    */
   searchTolerance?: number;
   /**
