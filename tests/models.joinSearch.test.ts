@@ -14,6 +14,7 @@ import { fitQuadraticPlateau } from '../shared/models/quadraticPlateau';
 import { fitLeastSquares } from '../shared/stats/leastSquares';
 import { simulatedTrial } from '../shared/demo/simulatedSite';
 import { mulberry32 } from '../shared/demo/mulberry32';
+import type { Plot } from '../shared/table/plotTable';
 
 describe('polynomialRoots', () => {
   it('polynomialRoots finds every simple root inside the interval and none outside', () => {
@@ -146,13 +147,11 @@ describe('fitLinearPlateau and fitQuadraticPlateau find the constrained global m
     },
   ] as const;
 
-  function sitesOf(
-    plots: { site: string; rateKgHa: number; yieldKgHa: number; block: string | null }[],
-  ) {
+  function sitesOf(plots: readonly Plot[]) {
     const by = new Map<string, { rateKgHa: number[]; yieldKgHa: number[]; block: string[] }>();
     for (const p of plots) {
       const s = by.get(p.site) ?? { rateKgHa: [], yieldKgHa: [], block: [] };
-      s.rateKgHa.push(p.rateKgHa);
+      s.rateKgHa.push(p.rateKgHa!);
       s.yieldKgHa.push(p.yieldKgHa!);
       s.block.push(p.block!);
       by.set(p.site, s);
