@@ -14,7 +14,14 @@ import type { TrialReport } from '../shared/report/trialReport';
 import { reportGrowerPages, writeWorkbook } from '../shared/report/workbook';
 import { P_VALUE_FORMAT, sheetName } from '../shared/report/workbookFormat';
 import { demoTrial } from '../shared/demo';
-import { demoReport, gainsOverBlockCheck } from './report.fixture';
+import {
+  METRIC_GRAIN_PER_T,
+  METRIC_N_PER_KG,
+  demoReport,
+  gainsOverBlockCheck,
+} from './report.fixture';
+import { reportOf } from './report.pipeline';
+import { simulatedTrial } from '../shared/demo/simulatedSite';
 
 /** 1 lb/ac in kg/ha from the exact pound and acre (NIST SP 811; 1 ac = 43 560 ft²). */
 const KG_HA_PER_LB_AC = 0.45359237 / (43560 * 0.3048 * 0.3048 * 1e-4);
@@ -292,5 +299,55 @@ describe('sheetName', () => {
     const long = sheetName('A'.repeat(40), taken);
     expect(long.length).toBe(31);
     expect(sheetName('A'.repeat(40), taken)).toBe(`${'A'.repeat(27)} (2)`);
+  });
+});
+
+describe('the model table of sites whose fits reach a limit', () => {
+  // Simulated flat sites (shared/demo/simulatedSite, seeded): their exponential fits end at a
+  // limit (no response, no plateau, full response), where b and k run off to 0 or infinity.
+  // The table shows the limiting model's parameters and a dash for a blank one.
+  it('writeWorkbook prints no "NaN" and no runaway parameter (every |value| under 10⁵)', async () => {
+    const sim = simulatedTrial({ truths: Array(8).fill('flat'), seed: 4417 });
+    const report = reportOf(
+      sim.table,
+      {
+        units: { rate: 'kg/ha', yield: 'kg/ha' },
+        unitSystem: 'metric',
+        crop: 'corn',
+        prices: {
+          grainPrice: METRIC_GRAIN_PER_T,
+          nutrientPrice: METRIC_N_PER_KG,
+          product: null,
+          defaulted: false,
+        },
+        boot: 0,
+        seed: 1,
+        blocks: 'fixed',
+        intervalLevel: 0.9,
+      },
+      {
+        tool: { name: 'Plotrate', version: '0.1.0' },
+        createdAt: '2026-03-01T12:00:00Z',
+        mapping: [],
+      },
+    );
+    const statuses = new Set(
+      report.sites.map((s) => s.models.find((m) => m.model === 'exponential')!.status),
+    );
+    expect(statuses).toEqual(
+      new Set(['no-response', 'no-plateau', 'full-response-at-lowest-rate', 'ok']),
+    );
+    const wb = XLSX.read(await writeWorkbook(report));
+    for (const site of report.sites) {
+      const ws = wb.Sheets[sheetName(site.site, new Set())];
+      const h = findRow(ws, 'Model');
+      for (let r = h + 1; cell(ws, r, 0)?.v; r++) {
+        const params = String(cell(ws, r, 2)?.v ?? '');
+        expect(params).not.toMatch(/NaN|Infinity/);
+        for (const m of params.matchAll(/= (-?[\d.e+-]+)/g)) {
+          expect(Math.abs(Number(m[1])), `${site.site}: ${params}`).toBeLessThan(1e5);
+        }
+      }
+    }
   });
 });

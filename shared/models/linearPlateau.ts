@@ -23,6 +23,7 @@ import {
   type FitStore,
 } from './finishFit';
 import { linearPlateauCurve } from './curves/linearPlateau';
+import { fixedByStatus } from './fixedByStatus';
 import type { ModelEntry } from './modelEntry';
 import { linearCoefficients, profiledCoefficients } from './solve/linearCoefficients';
 import type { CurveEstimate, FitOptions, ModelFit, SiteData } from './modelTypes';
@@ -122,6 +123,7 @@ export function fitLinearPlateauPrepared(
         ? { value: a + b * x0, gradient: [1, x0, b] }
         : undefined,
     joinBetweenKgHa: est.joinBetweenKgHa,
+    fixed: fixedByStatus(status, 'b', 'x0'),
     stdErrorNote: ok
       ? 'The x0 derivative jumps at each tested rate: the asymptotic errors assume x0 stays between the same two rates; prefer the bootstrap interval for the optimum.'
       : '',

@@ -131,9 +131,17 @@ export interface ModelFit extends CurveSummary {
   /** A note on the standard errors, e.g. where the x0 derivative jumps; "" when none. */
   stdErrorNote: string;
   n: number;
-  /** Number of estimated parameters: curve parameters plus block offsets. */
+  /** Parameters of the model: curve parameters plus block offsets (AICc and BIC count these). */
   parameterCount: number;
+  /**
+   * Parameters this fit estimates: parameterCount less the curve parameters its status holds
+   * at a bound or a limit (a flat fit estimates the mean; a straight-line or step limit two
+   * curve parameters). Residual df and tests that compare fits (pooled against separate
+   * curves) count these.
+   */
+  estimatedParameterCount: number;
   sse: number;
+  /** n − estimatedParameterCount. */
   dfResidual: number;
   /** √(SSE / dfResidual), kg/ha. */
   rmse: number;

@@ -32,6 +32,7 @@ import {
   type FitStore,
 } from './finishFit';
 import { quadraticPlateauCurve } from './curves/quadraticPlateau';
+import { fixedByStatus } from './fixedByStatus';
 import type { ModelEntry } from './modelEntry';
 import { linearCoefficients, profiledCoefficients } from './solve/linearCoefficients';
 import type { CurveEstimate, FitOptions, ModelFit, SiteData } from './modelTypes';
@@ -139,6 +140,7 @@ export function fitQuadraticPlateauPrepared(
         ? { value: P, gradient: [1, 0, 0] }
         : undefined,
     joinBetweenKgHa: est.joinBetweenKgHa,
+    fixed: fixedByStatus(status, 'c', 'x0'),
   });
   if (status === 'full-response-at-lowest-rate') blankParameters(fit, ['c', 'x0']);
   else if (!ok) blankParameters(fit, ['x0']);

@@ -196,7 +196,8 @@ export function workbookSite(
         const se = m.stdErrors[k];
         const seText =
           se !== undefined && Number.isFinite(se) ? ` ± ${fmt(u.param(m.model, k, se))}` : '';
-        return `${k} = ${fmt(d)}${seText}`;
+        // A parameter a fit at a limit leaves undetermined is blank (NaN): a dash, not "NaN".
+        return `${k} = ${Number.isFinite(d) ? fmt(d) : '–'}${seText}`;
       })
       .join('; ');
     row.values = [
