@@ -31,9 +31,17 @@ export function fixtureHeader(file: string): string {
 
 /** A plot table from pooled.plots.csv: site, previousCrop, block, rate (kg/ha), yield (kg/ha). */
 export function pooledPlotTable(): PlotTable {
-  const rows = readRCsv('pooled.plots.csv');
+  return sitesPlotTable('pooled.plots.csv');
+}
+
+/**
+ * A plot table from an R-written plots CSV of tests/fixtures/sites/: site, block, rate (kg/ha),
+ * yield (kg/ha), and previousCrop as a group when the file has it.
+ */
+export function sitesPlotTable(file: string): PlotTable {
+  const rows = readRCsv(file);
   const plots: Plot[] = rows.map((r, i) => ({
-    id: `pooled.plots.csv||${i + 2}`,
+    id: `${file}||${i + 2}`,
     site: r.site,
     year: null,
     block: r.block,
@@ -44,7 +52,7 @@ export function pooledPlotTable(): PlotTable {
     moisturePct: null,
     testWeight: null,
     notes: null,
-    groups: { previousCrop: r.previousCrop },
+    groups: r.previousCrop === undefined ? {} : { previousCrop: r.previousCrop },
     excluded: null,
     original: {},
   }));
