@@ -52,9 +52,14 @@ export function sitesPlotTable(file: string): PlotTable {
     moisturePct: null,
     testWeight: null,
     notes: null,
-    groups: r.previousCrop === undefined ? {} : { previousCrop: r.previousCrop },
+    groups: groupsOf(r),
     excluded: null,
     original: {},
   }));
   return { crop: 'corn', standardMoisturePct: 15.5, plots, sources: [] };
+}
+
+/** The previousCrop group of a plots row, when the file has that column. */
+function groupsOf(row: Record<string, string>): Record<string, string> {
+  return row.previousCrop === undefined ? {} : { previousCrop: row.previousCrop };
 }
