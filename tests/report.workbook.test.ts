@@ -234,7 +234,7 @@ describe('writeWorkbook read back by exceljs', () => {
     expect(formatted).toBe(us.sites.length);
   });
 
-  it("shows each site's gain over the check as fitLeastSquares gives it on the gains, in bu/lb N and kg/kg N", async () => {
+  it("shows each site's gain over the check as contrasts of a plain least-squares rate + block fit, in bu/lb N and kg/kg N", async () => {
     // kg grain/kg N → bu/lb N: × 0.45359237 kg N per lb N ÷ (56 × 0.45359237) kg per corn bushel
     // (USDA) = ÷ 56; metric quotes kg grain per kg N as it is. Yields: kg/ha → lb/ac (NIST SP 811
     // factor above), then ÷ 56 lb per bushel.
@@ -256,22 +256,29 @@ describe('writeWorkbook read back by exceljs', () => {
         expect(header.getCell(1).value).toBe(`Slope (${slopeUnit})`);
         expect(header.getCell(2).value).toBe(`95 % low (${slopeUnit})`);
         expect(header.getCell(4).value).toBe(`Gain at rate 0 (${yieldUnit})`);
-        expect(header.getCell(10).value).toBe('p');
+        expect(header.getCell(8).value).toBe('p');
+        expect(header.getCell(13).value).toBe('Reading');
         const row = ws.getRow(title + 2);
-        const { origin, line } = gainsOverBlockCheck(s.plots);
-        const b = origin.coefficients[0];
-        const a = line.coefficients[0];
+        const { slope, gainAtZero: a } = gainsOverBlockCheck(s.plots);
         const num = (c: number) => row.getCell(c).value as number;
-        expect(num(1)).toBeCloseTo(b.estimate * perN, 9);
-        expect(num(2)).toBeCloseTo(b.ciLow * perN, 9);
-        expect(num(3)).toBeCloseTo(b.ciHigh * perN, 9);
+        expect(num(1)).toBeCloseTo(slope.estimate * perN, 9);
+        expect(num(2)).toBeCloseTo(slope.ciLow * perN, 9);
+        expect(num(3)).toBeCloseTo(slope.ciHigh * perN, 9);
         expect(num(4)).toBeCloseTo(a.estimate * perYield, 8);
+        expect(num(5)).toBeCloseTo(a.stdError * perYield, 8);
         expect(num(6)).toBeCloseTo(a.t, 9);
-        expect(num(7)).toBeCloseTo(a.t * a.t, 8);
-        expect([num(8), num(9)]).toEqual([1, line.dfResidual]);
-        expect(num(10)).toBeCloseTo(a.p, 12);
-        expect(row.getCell(10).numFmt).toBe(P_VALUE_FORMAT);
-        expect(row.getCell(11).value).toBe(a.p < 0.05 ? 'yes' : 'no');
+        expect(num(7)).toBe(a.df);
+        expect(num(8)).toBeCloseTo(a.p, 12);
+        expect(row.getCell(8).numFmt).toBe(P_VALUE_FORMAT);
+        const g = s.responseOverCheck;
+        if (!g.available) throw new Error(g.message);
+        expect(row.getCell(13).value).toBe(
+          {
+            'from-zero': 'start from zero',
+            'gain-at-zero': 'do not start from zero',
+            bends: 'bend: a response that levels off',
+          }[g.reading],
+        );
       }
     }
   });
