@@ -16,11 +16,14 @@ export { MODEL_NAMES, type ModelName } from './curves';
  * What a fit says about the data. Only "ok" carries a precise join point and
  * optimum; every other status is a data finding the screen explains:
  * - "ok": an identified fit with the maximum (if the model has one) inside the tested rates
- * - "no-plateau": the join (or the exponential's bend) lies at or past the highest tested
- *   rate: the data are fitted as well by the straight line (or the quadratic); no join is reported
+ * - "no-plateau": the best join of the tested range is the highest rate (or the exponential's
+ *   rate constant runs to 0): the data are fitted as well by the straight line (or the
+ *   quadratic); no join is reported
  * - "full-response-at-lowest-rate": the join lies between the two lowest rates (or the
  *   exponential's rate constant runs to infinity): the curve is "check against the rest",
  *   so any join in that interval fits equally well; `joinBetweenKgHa` says where
+ * A fit with one of these limit statuses or "no-response" is its limiting model and estimates
+ * only that model's parameters (shared/models/fixedByStatus).
  * - "convex": the quadratic opens upward (c ≥ 0), so it has no maximum
  * - "no-response": the best rising curve is flat: yield does not increase with rate
  * - "too-few-rates": not enough distinct rates or plots to fit the model with residual df
