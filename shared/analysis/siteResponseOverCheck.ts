@@ -8,9 +8,9 @@
  * check plot, so they are correlated, and least squares on the gains as if they were
  * independent overstates the evidence (6.6 % rejections of a true null at a nominal 5 % on
  * 4,000 simulated flat sites). The block-adjusted rate mean less the check's mean is the mean
- * gain at that rate;
- * a line through the mean gains is a set of weights on the rate means, so its slope and
- * intercept are contrasts with exact t tests in the RCBD.
+ * gain at that rate; a line through the mean gains is a set of weights on the rate means, so
+ * its slope and intercept are contrasts with exact t tests in the RCBD (tests/
+ * analysis.gainOverCheckTypeOne: 5 % on flat and straight-line truths under its assumptions).
  *
  * With the fertilized rates x_1 … x_J (J ≥ 2) and mean gains g_j = m_j − m_0:
  * - the response through the origin, what the result leads with: slope Σ x_j g_j / Σ x_j²,

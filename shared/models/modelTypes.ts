@@ -22,11 +22,12 @@ export { MODEL_NAMES, type ModelName } from './curves';
  * - "full-response-at-lowest-rate": the join lies between the two lowest rates (or the
  *   exponential's rate constant runs to infinity): the curve is "check against the rest",
  *   so any join in that interval fits equally well; `joinBetweenKgHa` says where
- * A fit with one of these limit statuses or "no-response" is its limiting model and estimates
- * only that model's parameters (shared/models/fixedByStatus).
  * - "convex": the quadratic opens upward (c ≥ 0), so it has no maximum
  * - "no-response": the best rising curve is flat: yield does not increase with rate
  * - "too-few-rates": not enough distinct rates or plots to fit the model with residual df
+ * A fit of the profiled models with "no-plateau", "full-response-at-lowest-rate" or
+ * "no-response" is its limiting model and estimates only that model's parameters
+ * (shared/models/fixedByStatus).
  */
 export type FitStatus =
   'ok' | 'no-plateau' | 'full-response-at-lowest-rate' | 'convex' | 'no-response' | 'too-few-rates';
