@@ -48,11 +48,11 @@ describe('gainOverCheckSentence', () => {
       reading: 'gain-at-zero',
     };
     expect(gainOverCheckSentence(lifted, 'us', 'corn', 'en-US')).toBe(
-      'Gain over each block’s check: 0.213 bu/lb N (95 % interval 0.196 to 0.230). The gains do not start from zero: 15.9 bu/ac at rate zero (t = 4.30, p < 0.001), as if the check plots yielded low.',
+      'Gain over each block’s check: 0.213 bu/lb N (95 % interval 0.196 to 0.230). The gains do not start from zero: 15.9 bu/ac at rate zero (t = 4.30, p < 0.001), with no clear bend: the check plots yielded low, or most of the response came by the lowest rate.',
     );
   });
 
-  it('says the check plots yielded high when the gains meet the axis below zero', () => {
+  it('names high check plots or a slow start when the gains meet the axis below zero', () => {
     const lowered: ResponseOverCheckOutcome = {
       ...fromZero,
       gainAtZeroKgHa: -400,
@@ -63,7 +63,7 @@ describe('gainOverCheckSentence', () => {
       reading: 'gain-at-zero',
     };
     expect(gainOverCheckSentence(lowered, 'metric', 'corn', 'en-US')).toMatch(
-      /The gains do not start from zero: -0\.40 t\/ha at rate zero \(t = -3\.10, p = 0\.007\), as if the check plots yielded high\.$/,
+      /The gains do not start from zero: -0\.40 t\/ha at rate zero \(t = -3\.10, p = 0\.007\), with no clear bend: the check plots yielded high, or the response starts slowly\.$/,
     );
   });
 

@@ -63,9 +63,14 @@ export function gainOverCheckSentence(
       return `${head} The gains bend (F = ${formatNumber(c.F, 2, locale)}, p ${pText(c.p, locale)}): a response that levels off, so a curve describes it better than this straight line.`;
     }
     case 'gain-at-zero':
-      // A straight line through the gains that meets the axis above zero: the check plots sit
-      // low against the fertilized ones (below zero: high).
-      return `${head} The gains do not start from zero: ${atZero} at rate zero (${tStats}), as if the check plots yielded ${g.gainAtZeroKgHa > 0 ? 'low' : 'high'}.`;
+      // Straight gains that meet the axis above zero: the check plots sit low against the
+      // fertilized ones, or a bend the test is too weak to see (most of the response by the
+      // lowest rate); below zero: the checks sit high, or the response starts slowly.
+      return `${head} The gains do not start from zero: ${atZero} at rate zero (${tStats}), with no clear bend: ${
+        g.gainAtZeroKgHa > 0
+          ? 'the check plots yielded low, or most of the response came by the lowest rate.'
+          : 'the check plots yielded high, or the response starts slowly.'
+      }`;
     case 'from-zero':
       return `${head} The gains start from zero (${tStats}) and follow a straight line.`;
   }
