@@ -9,7 +9,9 @@ import { SitesInputError } from '../shared/analysis/sitesInputError';
 import { recommendationCautions } from '../shared/economics/recommendationCautions';
 import { economicOptimum } from '../shared/economics/economicOptimum';
 import type { PlotTable } from '../shared/table/plotTable';
-import { pooledPlotTable, readRCsv } from './analysis.fixtures';
+import type { FTestResult, NoTest } from '../shared/analysis/extraSumOfSquaresTest';
+import { plateauFitter } from '../shared/analysis/plateauModels';
+import { pooledPlotTable, readRCsv, sitesPlotTable } from './analysis.fixtures';
 
 const prices = { grainPricePerKg: 0.18, nutrientPricePerKg: 1.1 };
 
@@ -145,6 +147,21 @@ describe('sortSiteRows and filterSiteRows', () => {
   });
 });
 
+/**
+ * An F test as R's fixture row gives it: the same df, F to 1e-6 and p to 1e-5 relative (above
+ * an absolute floor for p-values near 0).
+ */
+function expectFTestOfR(
+  result: FTestResult | NoTest,
+  row: Record<string, string>,
+  pFloor = 1e-9,
+): void {
+  if (result.kind !== 'f-test') throw new Error(`expected a test: ${result.reason}`);
+  expect([result.df1, result.df2]).toEqual([Number(row.df1), Number(row.df2)]);
+  expect(Math.abs(result.f - Number(row.F))).toBeLessThanOrEqual(1e-6 * Number(row.F));
+  expect(Math.abs(result.p - Number(row.p))).toBeLessThanOrEqual(pFloor + 1e-5 * Number(row.p));
+}
+
 describe('pooled plateau and exponential tests against R (tests/fixtures/sites/pooledPlateau.R, R 4.2.2)', () => {
   // R profiles the join with optimize() on every interval between rates (the exponential: ln k
   // on a grid, then optimize()), inner fit lm();
@@ -164,14 +181,7 @@ describe('pooled plateau and exponential tests against R (tests/fixtures/sites/p
         1e-7 * Number(pooledR.sse),
       );
       expect(Math.abs(t.separate!.sse - separateR)).toBeLessThanOrEqual(1e-7 * separateR);
-      if (t.result.kind !== 'f-test') throw new Error('expected a test');
-      expect([t.result.df1, t.result.df2]).toEqual([Number(pooledR.df1), Number(pooledR.df2)]);
-      expect(Math.abs(t.result.f - Number(pooledR.F))).toBeLessThanOrEqual(
-        1e-6 * Number(pooledR.F),
-      );
-      expect(Math.abs(t.result.p - Number(pooledR.p))).toBeLessThanOrEqual(
-        1e-9 + 1e-5 * Number(pooledR.p),
-      );
+      expectFTestOfR(t.result, pooledR);
     });
 
     it(`the ${model} test of one curve per previous crop against one for all matches R`, () => {
@@ -181,12 +191,47 @@ describe('pooled plateau and exponential tests against R (tests/fixtures/sites/p
       expect(Math.abs(g.separate!.sse - Number(testR.sse))).toBeLessThanOrEqual(
         1e-7 * Number(testR.sse),
       );
-      if (g.result.kind !== 'f-test') throw new Error('expected a test');
-      expect([g.result.df1, g.result.df2]).toEqual([Number(testR.df1), Number(testR.df2)]);
-      expect(Math.abs(g.result.f - Number(testR.F))).toBeLessThanOrEqual(1e-6 * Number(testR.F));
-      expect(Math.abs(g.result.p - Number(testR.p))).toBeLessThanOrEqual(
-        1e-9 + 1e-5 * Number(testR.p),
+      expectFTestOfR(g.result, testR);
+    });
+  }
+});
+
+describe('pooled plateau tests count what fits at a limit estimate (tests/fixtures/sites/pooledDegenerate.R, R 4.2.2)', () => {
+  // R fits each site without block terms, decides what the fit reduces to (a straight line or
+  // the quadratic with its vertex at the highest rate: 2 parameters; a step: 2; flat: 1; else
+  // 3) by the documented rules coded from scratch, and fits that limit by lm(). One curve per
+  // site then has 3 + 3 + 2 + 2 + 1 = 11 parameters, not 15: the F test has 8 and 109 df.
+  const r = readRCsv('pooledDegenerate.csv');
+  const table = sitesPlotTable('pooledDegenerate.plots.csv');
+  const a = analyzeAcrossSites(table, { prices });
+  for (const model of ['linearPlateau', 'quadraticPlateau', 'exponential'] as const) {
+    const rows = r.filter((x) => x.model === model);
+    it(`the ${model} fit of each site counts the parameters of what it reduces to, as R does`, () => {
+      const fit = plateauFitter(model);
+      const statuses = new Set<string>();
+      for (const row of rows.filter((x) => !x.part.startsWith('('))) {
+        const plots = table.plots.filter((p) => p.site === row.part);
+        const out = fit(
+          Float64Array.from(plots, (p) => p.rateKgHa!),
+          Float64Array.from(plots, (p) => p.yieldKgHa!),
+        );
+        if ('problem' in out) throw new Error(out.problem);
+        expect(out.parameters, row.part).toBe(Number(row.parameters));
+        expect(Math.abs(out.sse - Number(row.sse))).toBeLessThanOrEqual(1e-7 * Number(row.sse));
+        statuses.add(row.status);
+      }
+      // The fixture holds every limit: no plateau, full response and no response.
+      expect(statuses).toEqual(
+        new Set(['ok', 'no-plateau', 'full-response-at-lowest-rate', 'no-response']),
       );
+    });
+
+    it(`the ${model} pooled-versus-site-curves F test has R's degrees of freedom, F and p`, () => {
+      const pooledR = rows.find((x) => x.part === '(pooled)')!;
+      const t = a.sharedResponse.plateau[model];
+      expect(t.partsUsed).toHaveLength(5);
+      expect(t.separate!.parameters).toBe(11);
+      expectFTestOfR(t.result, pooledR, 1e-12);
     });
   }
 });

@@ -31,9 +31,17 @@ export function fixtureHeader(file: string): string {
 
 /** A plot table from pooled.plots.csv: site, previousCrop, block, rate (kg/ha), yield (kg/ha). */
 export function pooledPlotTable(): PlotTable {
-  const rows = readRCsv('pooled.plots.csv');
+  return sitesPlotTable('pooled.plots.csv');
+}
+
+/**
+ * A plot table from an R-written plots CSV of tests/fixtures/sites/: site, block, rate (kg/ha),
+ * yield (kg/ha), and previousCrop as a group when the file has it.
+ */
+export function sitesPlotTable(file: string): PlotTable {
+  const rows = readRCsv(file);
   const plots: Plot[] = rows.map((r, i) => ({
-    id: `pooled.plots.csv||${i + 2}`,
+    id: `${file}||${i + 2}`,
     site: r.site,
     year: null,
     block: r.block,
@@ -44,9 +52,14 @@ export function pooledPlotTable(): PlotTable {
     moisturePct: null,
     testWeight: null,
     notes: null,
-    groups: { previousCrop: r.previousCrop },
+    groups: groupsOf(r),
     excluded: null,
     original: {},
   }));
   return { crop: 'corn', standardMoisturePct: 15.5, plots, sources: [] };
+}
+
+/** The previousCrop group of a plots row, when the file has that column. */
+function groupsOf(row: Record<string, string>): Record<string, string> {
+  return row.previousCrop === undefined ? {} : { previousCrop: row.previousCrop };
 }

@@ -1,10 +1,15 @@
 // Each site's response over the check, as the one pipeline (analyzeAcrossSites → analyzeSite)
-// carries it, on a small invented site, against the arithmetic worked here by hand and an
-// independent fitLeastSquares on the same gains built by hand.
+// carries it: the gains over each block's check read as contrasts of the rate means of the rate
+// + block model, against R 4.2.2 (tests/fixtures/stats-r/make-gain-contrast-reference.R:
+// lm(y ~ factor(rate) + factor(block)) with each contrast as a coefficient vector, and anova()
+// of the model whose gains are a straight line for the curvature), on invented trials.
+import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { analyzeAcrossSites, type SiteAnalysis } from '../shared/analysis/analyzeAcrossSites';
 import type { ResponseOverCheckOutcome } from '../shared/analysis/siteResponseOverCheck';
-import { fitLeastSquares } from '../shared/stats/leastSquares';
+import { fitRateBlockModel, type RateBlockModel } from '../shared/stats/rateBlockModel';
+import { rateContrast, rateContrastsF } from '../shared/stats/rateContrast';
+import { StatsInputError } from '../shared/stats/errors';
 import type { Plot, PlotTable } from '../shared/table/plotTable';
 
 const prices = { grainPricePerKg: 0.18, nutrientPricePerKg: 1.1 };
@@ -39,16 +44,98 @@ function outcome(s: SiteAnalysis): ResponseOverCheckOutcome {
   return s.responseOverCheck;
 }
 
-// Two blocks, each with its own zero-rate plot (kg/ha):
-//   block 1: 0 → 5000, 50 → 5600, 100 → 6300, 150 → 6700   gains 600, 1300, 1700
-//   block 2: 0 → 5400, 50 → 5900, 100 → 6500, 150 → 7300   gains 500, 1100, 1900
-// Line through the origin on the gains: b = Σxg / Σx² = 835 000 / 70 000 = 11.928571 kg/kg N;
-//   SSE₀ = Σg² − b·Σxg = 10 010 000 − 9 960 357.14 = 49 642.86 on 5 df,
-//   SE(b) = √(9 928.57 / 70 000) = 0.376612; 95 % interval b ± 2.570582·SE (t₀.₉₇₅,₅, NIST/SEMATECH
-//   t table) = 10.9605 to 12.8967.
-// Straight line on the gains: slope 125 000 / 10 000 = 12.5, intercept 7 100/6 − 1 250 = −66.667 kg/ha;
-//   SSE₁ = 45 833.33 on 4 df, SE(intercept) = √(11 458.33·(1/6 + 100²/10 000)) = 115.620,
-//   t = −0.57660, F = (SSE₀ − SSE₁) / (SSE₁ / 4) = 0.33247 = t²: no gain at rate zero.
+interface RCase {
+  name: string;
+  rate: number[];
+  block: string[];
+  y: number[];
+  slope: { estimate: [number]; se: [number]; ci: [number, number]; df: number };
+  gainAtZero: { estimate: [number]; se: [number]; t: [number]; df: number; p: [number] };
+  curvature: { F: [number]; df1: number; df2: number; p: [number] };
+}
+const reference = JSON.parse(
+  readFileSync(new URL('./fixtures/stats-r/gain-contrast-reference.json', import.meta.url), 'utf8'),
+) as { rVersion: string; cases: RCase[] };
+
+function close(actual: number, expected: number, relative = 1e-9): void {
+  expect(Math.abs(actual - expected)).toBeLessThanOrEqual(relative * Math.abs(expected));
+}
+
+describe('the gain over the check against R 4.2.2 (make-gain-contrast-reference.R)', () => {
+  it('records R 4.2.2', () => expect(reference.rVersion).toMatch(/^R version 4\.2\.2/));
+
+  // What each invented trial should read as: a response that levels off bends, a straight
+  // response with every fertilized plot lifted by 800 kg/ha has a gain at rate zero.
+  const readings: Record<string, ResponseOverCheckOutcome['reading']> = {
+    'Lark Hill': 'bends',
+    'Lark Hill, one plot lost': 'bends',
+    'Otter Bank': 'gain-at-zero',
+    'Quarry Lane': 'bends',
+  };
+  for (const c of reference.cases) {
+    it(`siteResponseOverCheck on ${c.name}: slope, gain at rate zero and curvature as R's contrasts`, () => {
+      const r = outcome(siteOf(c.rate.map((x, i) => [c.block[i], x, c.y[i]])));
+      close(r.slopeKgPerKg, c.slope.estimate[0]);
+      close(r.slopeSeKgPerKg, c.slope.se[0]);
+      close(r.slopeCiKgPerKg[0], c.slope.ci[0]);
+      close(r.slopeCiKgPerKg[1], c.slope.ci[1]);
+      close(r.gainAtZeroKgHa, c.gainAtZero.estimate[0]);
+      close(r.gainAtZeroSeKgHa, c.gainAtZero.se[0]);
+      close(r.t, c.gainAtZero.t[0]);
+      expect([r.df1, r.df2]).toEqual([1, c.gainAtZero.df]);
+      close(r.p, c.gainAtZero.p[0], 1e-6);
+      close(r.F, c.gainAtZero.t[0] ** 2);
+      expect(r.curvature).not.toBeNull();
+      close(r.curvature!.F, c.curvature.F[0]);
+      expect([r.curvature!.df1, r.curvature!.df2]).toEqual([c.curvature.df1, c.curvature.df2]);
+      close(r.curvature!.p, c.curvature.p[0], 1e-6);
+      expect(r.reading).toBe(readings[c.name]);
+      expect(r.biasPresent).toBe(r.reading === 'gain-at-zero');
+      expect(r.gains).toBe(c.rate.filter((x) => x > 0).length);
+    });
+  }
+
+  it('survives structuredClone with the rest of the site', () => {
+    const c = reference.cases[0];
+    const s = siteOf(c.rate.map((x, i) => [c.block[i], x, c.y[i]]));
+    expect(structuredClone(s).responseOverCheck).toEqual(s.responseOverCheck);
+  });
+});
+
+describe('rateContrast and rateContrastsF', () => {
+  const c = reference.cases[0];
+  const model = fitRateBlockModel({ rateKgHa: c.rate, yieldKgHa: c.y, block: c.block });
+  if ('problem' in model) throw new Error(model.problem);
+  const m: RateBlockModel = model;
+
+  it('a difference of two rate means has the RCBD standard error √(2·MSE / blocks)', () => {
+    // Steel, Torrie & Dickey §9.3: the SE of a difference of two treatment means of a complete
+    // block design with r blocks is √(2 s² / r).
+    const d = rateContrast(m, [0, 0, 0, -1, 1, 0]);
+    close(d.estimate, m.rateMeans[4].meanKgHa - m.rateMeans[3].meanKgHa);
+    close(d.stdError, Math.sqrt((2 * m.residual.ms) / 4));
+    expect(d.df).toBe(m.residual.df);
+  });
+
+  it('one contrast tested alone by rateContrastsF gives F = t²', () => {
+    const k = [-1, 0.2, 0.2, 0.2, 0.2, 0.2];
+    close(rateContrastsF(m, [k]).F, rateContrast(m, k).t ** 2);
+  });
+
+  it('refuses coefficients that are not a contrast, naming the rule', () => {
+    expect(() => rateContrast(m, [1, 0, 0, 0, 0, 0])).toThrow(StatsInputError);
+    expect(() => rateContrast(m, [1, 0, 0, 0, 0, 0])).toThrow(/sum to 0/);
+    expect(() => rateContrast(m, [-1, 1])).toThrow(/one per rate/);
+    expect(() =>
+      rateContrastsF(m, [
+        [-1, 1, 0, 0, 0, 0],
+        [-2, 2, 0, 0, 0, 0],
+      ]),
+    ).toThrow(/not linearly independent/);
+  });
+});
+
+// Two blocks, each with its own zero-rate plot (kg/ha).
 const invented: [string, number, number][] = [
   ['1', 0, 5000],
   ['1', 50, 5600],
@@ -59,69 +146,6 @@ const invented: [string, number, number][] = [
   ['2', 100, 6500],
   ['2', 150, 7300],
 ];
-
-describe("analyzeSite's response over the check", () => {
-  const s = siteOf(invented);
-  const r = outcome(s);
-  const x = [50, 100, 150, 50, 100, 150];
-  const g = [600, 1300, 1700, 500, 1100, 1900];
-  const origin = fitLeastSquares({ columns: [x], y: g, intercept: false });
-  const line = fitLeastSquares({ columns: [x], y: g, intercept: true });
-
-  it('gives the slope over the check and its 95 % interval worked by hand', () => {
-    expect(r.gains).toBe(6);
-    expect(r.slopeKgPerKg).toBeCloseTo(835000 / 70000, 10);
-    expect(r.slopeSeKgPerKg).toBeCloseTo(0.376612, 6);
-    expect(r.slopeCiKgPerKg[0]).toBeCloseTo(10.9605, 4);
-    expect(r.slopeCiKgPerKg[1]).toBeCloseTo(12.8967, 4);
-    expect(r.confidenceLevel).toBe(0.95);
-  });
-
-  it('equals an independent fitLeastSquares on the hand-built gains', () => {
-    const b = origin.coefficients[0];
-    expect(r.slopeKgPerKg).toBeCloseTo(b.estimate, 9);
-    expect(r.slopeSeKgPerKg).toBeCloseTo(b.stdError, 9);
-    expect(r.slopeCiKgPerKg[0]).toBeCloseTo(b.ciLow, 9);
-    expect(r.slopeCiKgPerKg[1]).toBeCloseTo(b.ciHigh, 9);
-    const a = line.coefficients[0];
-    expect(r.gainAtZeroKgHa).toBeCloseTo(a.estimate, 8);
-    expect(r.gainAtZeroSeKgHa).toBeCloseTo(a.stdError, 8);
-    expect(r.t).toBeCloseTo(a.t, 9);
-    expect(r.p).toBeCloseTo(a.p, 9);
-    expect(r.F).toBeCloseTo((origin.sse - line.sse) / (line.sse / line.dfResidual), 9);
-  });
-
-  it('tests the gain at rate zero as worked by hand: t = −0.577, F = t², no bias', () => {
-    expect(r.gainAtZeroKgHa).toBeCloseTo(-66.6667, 3);
-    expect(r.gainAtZeroSeKgHa).toBeCloseTo(115.62, 2);
-    expect(r.t).toBeCloseTo(-0.5766, 4);
-    expect(r.F).toBeCloseTo(0.33247, 5);
-    expect(r.F).toBeCloseTo(r.t * r.t, 10);
-    expect([r.df1, r.df2]).toEqual([1, 4]);
-    expect(r.p).toBeGreaterThan(0.5);
-    expect(r.biasPresent).toBe(false);
-  });
-
-  it('says a gain at rate zero is present when every fertilized plot gains 800 kg/ha more', () => {
-    // Gains 1400, 2100, 2500, 1300, 1900, 2700: the straight line's intercept is 733.3 kg/ha.
-    const lifted = invented.map(([b, x0, y]): [string, number, number] => [
-      b,
-      x0,
-      x0 > 0 ? y + 800 : y,
-    ]);
-    const t = outcome(siteOf(lifted));
-    const a = fitLeastSquares({ columns: [x], y: g.map((v) => v + 800), intercept: true })
-      .coefficients[0];
-    expect(t.gainAtZeroKgHa).toBeCloseTo(733.333, 3);
-    expect(t.t).toBeCloseTo(a.t, 9);
-    expect(t.p).toBeLessThan(0.05);
-    expect(t.biasPresent).toBe(true);
-  });
-
-  it('survives structuredClone with the rest of the site', () => {
-    expect(structuredClone(s).responseOverCheck).toEqual(s.responseOverCheck);
-  });
-});
 
 describe('a site with no response over the check says why', () => {
   it('without blocks', () => {

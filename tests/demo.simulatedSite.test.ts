@@ -7,6 +7,7 @@ import { describe, expect, it } from 'vitest';
 import {
   SIMULATED_BLOCKS,
   SIMULATED_RATES_KG_HA,
+  STRAIGHT_GAIN_TRUTHS,
   TRUTH_NAMES,
   simulatedTrial,
   simulatedTruth,
@@ -44,6 +45,22 @@ describe('simulatedTruth', () => {
     expect(full.optimumKgHa(7.03)).toBeLessThanOrEqual(SIMULATED_RATES_KG_HA[1]);
     // The whole gain is in by then.
     expect(full.yieldKgHa(SIMULATED_RATES_KG_HA[1])).toBe(full.yieldKgHa(200));
+  });
+});
+
+describe('the straight-line truth (for the gain-over-check tests)', () => {
+  const line = simulatedTruth('straight-line');
+  it('has gains over the check on a straight line through the origin', () => {
+    const gain = (x: number) => line.yieldKgHa(x) - line.yieldKgHa(0);
+    for (const x of SIMULATED_RATES_KG_HA) expect(gain(x)).toBeCloseTo((gain(200) * x) / 200, 9);
+    expect(STRAIGHT_GAIN_TRUTHS).toEqual(['flat', 'straight-line']);
+    expect(TRUTH_NAMES).not.toContain('straight-line');
+  });
+  it('has no finite optimum while its slope pays, and 0 once it does not (the search runs to its end)', () => {
+    expect(line.optimumKgHa(7.03)).toBe(Infinity);
+    expect(searchedOptimum(line.yieldKgHa, 7.03)).toBe(400);
+    expect(line.optimumKgHa(25)).toBe(0);
+    expect(searchedOptimum(line.yieldKgHa, 25)).toBe(0);
   });
 });
 

@@ -189,6 +189,76 @@ describe('degenerate reference sites (R 4.2.2 profile of the linear-plateau)', (
     expect(relativeDifference(all.fits.linearPlateau.sse, all.fits.linear.sse)).toBeLessThan(1e-12);
   });
 
+  it('fitAllModels reports the exponential of a rising, convex site as its limit, the straight line (R lm)', () => {
+    // The rate constant runs to 0 and b to infinity (b·k is the slope): the fit reports the
+    // line itself, a its yield at rate 0 with the line's SE and residual df, b and k blank.
+    const site = reference.sites.risingSite;
+    const line = site.linear as RFit;
+    const fit = fitAllModels({ rateKgHa: site.rateKgHa, yieldKgHa: site.yieldKgHa }).fits
+      .exponential;
+    expect(fit.status).toBe('no-plateau');
+    expect(relativeDifference(fit.params.a, line.params.a)).toBeLessThan(1e-9);
+    expect(relativeDifference(fit.stdErrors.a, line.stdErrors.a)).toBeLessThan(1e-9);
+    expect(relativeDifference(fit.sse, line.sse)).toBeLessThan(1e-9);
+    expect([fit.dfResidual, fit.estimatedParameterCount]).toEqual([line.dfResidual, 2]);
+    expect([fit.params.b, fit.params.k]).toEqual([NaN, NaN]);
+  });
+});
+
+describe('fits at a limit report the limiting model as R fits it (R 4.2.2 lm)', () => {
+  type Limits = { step: RFit; stepUpper: { estimate: number; stdError: number }; flat: RFit };
+  const profiled = ['linearPlateau', 'quadraticPlateau', 'exponential'] as const;
+
+  it('fitAllModels reports a full response as the step lm(y ~ I(x > 0)): its levels, SEs and residual df', () => {
+    const site = reference.sites.firstIntervalSite;
+    const r = site as unknown as Limits;
+    const all = fitAllModels({ rateKgHa: site.rateKgHa, yieldKgHa: site.yieldKgHa });
+    for (const model of profiled) {
+      const fit = all.fits[model];
+      expect(fit.status).toBe('full-response-at-lowest-rate');
+      expect([fit.dfResidual, fit.estimatedParameterCount]).toEqual([r.step.dfResidual, 2]);
+      expect(relativeDifference(fit.sse, r.step.sse)).toBeLessThan(1e-9);
+      // The plateau is the step's upper level, with its SE from the two estimated levels.
+      expect(relativeDifference(fit.plateauYield!.estimate, r.stepUpper.estimate)).toBeLessThan(
+        1e-9,
+      );
+      expect(relativeDifference(fit.plateauYield!.stdError, r.stepUpper.stdError)).toBeLessThan(
+        1e-9,
+      );
+    }
+    const exp = all.fits.exponential;
+    expect(relativeDifference(exp.params.a, r.step.params.check)).toBeLessThan(1e-9);
+    expect(relativeDifference(exp.stdErrors.a, r.step.stdErrors.check)).toBeLessThan(1e-9);
+    expect(relativeDifference(exp.params.b, r.step.params.step)).toBeLessThan(1e-9);
+    expect(relativeDifference(exp.stdErrors.b, r.step.stdErrors.step)).toBeLessThan(1e-9);
+    expect(exp.params.k).toBeNaN();
+    expect(relativeDifference(all.fits.linearPlateau.params.a, r.step.params.check)).toBeLessThan(
+      1e-9,
+    );
+  });
+
+  it('fitAllModels reports no response as the flat fit lm(y ~ 1): the mean, its SE, n − 1 df, no gain', () => {
+    const site = reference.sites.fallingSite;
+    const flat = (site as unknown as Limits).flat;
+    const all = fitAllModels({ rateKgHa: site.rateKgHa, yieldKgHa: site.yieldKgHa });
+    for (const model of profiled) {
+      const fit = all.fits[model];
+      const level = model === 'quadraticPlateau' ? 'P' : 'a';
+      const rise = model === 'quadraticPlateau' ? 'c' : 'b';
+      expect(fit.status).toBe('no-response');
+      expect([fit.dfResidual, fit.estimatedParameterCount]).toEqual([flat.dfResidual, 1]);
+      expect(relativeDifference(fit.sse, flat.sse)).toBeLessThan(1e-9);
+      expect(relativeDifference(fit.params[level], flat.params.mean)).toBeLessThan(1e-9);
+      expect(relativeDifference(fit.stdErrors[level], flat.stdErrors.mean)).toBeLessThan(1e-9);
+      // The rise is held at 0 by its sign, not estimated: 0, with no SE (before, the
+      // exponential reported the unconstrained refit here: b = −274,002 on a flat site).
+      expect(fit.params[rise]).toBe(0);
+      expect(fit.stdErrors[rise]).toBeNaN();
+    }
+  });
+});
+
+describe('fitAllModels ranking', () => {
   it('ranks every model once', () => {
     const site = reference.sites.lpSite;
     const all = fitAllModels({ rateKgHa: site.rateKgHa, yieldKgHa: site.yieldKgHa });

@@ -9,7 +9,6 @@ import {
   fitLinearPlateau,
   fitQuadratic,
   fitQuadraticPlateau,
-  fitResponseOverCheck,
   prepareSite,
 } from '../shared/models';
 import { minimizeBrent } from '../shared/optimize/minimizeBrent';
@@ -165,44 +164,6 @@ describe('unbalanced blocks use the full design', () => {
     }
     expect(fit.sse).toBeLessThanOrEqual(gridBest * (1 + 1e-12));
     expect(Math.abs(fit.params.x0 - gridJoin)).toBeLessThan(0.05);
-  });
-});
-
-describe('fitResponseOverCheck', () => {
-  it('measures gains over the same block’s check and finds no gain at rate zero when there is none', () => {
-    const blocks = ['1', '2', '3'];
-    const rateKgHa: number[] = [];
-    const yieldKgHa: number[] = [];
-    const block: string[] = [];
-    blocks.forEach((b, k) => {
-      for (const r of [0, 30, 60, 90]) {
-        rateKgHa.push(r);
-        // Gain 20 kg per kg N on top of a block level, plus small fixed wobble.
-        yieldKgHa.push(5000 + 400 * k + 20 * r + (r === 0 ? 0 : 30 * Math.sin(r + k)));
-        block.push(b);
-      }
-    });
-    const res = fitResponseOverCheck({ rateKgHa, yieldKgHa, block });
-    expect(res.status).toBe('ok');
-    expect(res.gains).toHaveLength(9);
-    expect(res.gains.every((g) => g.checkFromBlock)).toBe(true);
-    expect(res.proportional!.params.b).toBeCloseTo(20, 0);
-    expect(res.proportional!.r2Kind).toBe('uncentered');
-    expect(res.gainAtZeroPresent).toBe(false);
-    // F of the extra-SS test equals t² of the intercept (Draper & Smith §6.1).
-    expect(res.interceptTest!.F).toBeCloseTo(res.interceptTest!.t ** 2, 8);
-  });
-  it('finds a gain at rate zero when every fertilized plot jumps by a fixed amount', () => {
-    const rateKgHa = [0, 30, 60, 90, 0, 30, 60, 90];
-    const yieldKgHa = rateKgHa.map((r, i) => 5000 + (r > 0 ? 900 : 0) + 5 * r + 10 * Math.sin(i));
-    const res = fitResponseOverCheck({ rateKgHa, yieldKgHa });
-    expect(res.gainAtZeroPresent).toBe(true);
-    expect(res.gains.every((g) => !g.checkFromBlock)).toBe(true);
-  });
-  it('reports a site without check plots', () => {
-    expect(fitResponseOverCheck({ rateKgHa: [30, 60], yieldKgHa: [1, 2] }).status).toBe(
-      'no-check-plots',
-    );
   });
 });
 

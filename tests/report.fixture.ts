@@ -8,6 +8,7 @@ import { demoTrial } from '../shared/demo';
 import { reportOf } from './report.pipeline';
 import { importFiles } from '../shared/import/importFiles';
 import type { TrialReport } from '../shared/report/trialReport';
+import { studentTQuantile, studentTTwoSidedP } from '../shared/stats/distributions';
 import { fitLeastSquares, type LeastSquaresFit } from '../shared/stats/leastSquares';
 import type { Plot } from '../shared/table/plotTable';
 
@@ -77,33 +78,52 @@ export async function demoReport(units: 'us' | 'metric', boot = 60): Promise<Tri
 
 /**
  * The gains over the check worked directly from a site's plots, for checking the report against:
- * each used fertilized plot's yield minus the mean of the used zero-rate plots of its own block
- * (kg/ha), with the line through the origin and the straight line fitted to them by
- * fitLeastSquares, independently of shared/sites and shared/models.
+ * the rate + block model fitted by fitLeastSquares with explicit dummies (intercept, one column
+ * per fertilized rate: its difference from the check, one per block but the first), as R's
+ * lm(y ~ factor(rate) + factor(block)) does, and the slope through the origin and the gain at
+ * rate zero as contrasts of its coefficients (estimate k'b, SE √(k'Vk), t on its residual df),
+ * independently of shared/stats/rateBlockModel and shared/analysis.
  * @param plots - every plot of one site (excluded ones are skipped)
- * @returns the rates and gains, and the two fits
+ * @returns the slope over the check (kg/kg N) with its 95 % interval, and the gain at rate zero
+ *   (kg/ha) with its SE, t, df and two-sided p
  */
 export function gainsOverBlockCheck(plots: readonly Plot[]): {
-  rateKgHa: number[];
-  gainKgHa: number[];
-  origin: LeastSquaresFit;
-  line: LeastSquaresFit;
+  slope: { estimate: number; ciLow: number; ciHigh: number };
+  gainAtZero: { estimate: number; stdError: number; t: number; df: number; p: number };
 } {
   const used = plots.filter((p) => !p.excluded && p.rateKgHa !== null && p.yieldKgHa !== null);
-  const checks = new Map<string, number[]>();
-  for (const p of used) {
-    if (p.rateKgHa === 0) checks.set(p.block!, [...(checks.get(p.block!) ?? []), p.yieldKgHa!]);
-  }
-  const fertilized = used.filter((p) => p.rateKgHa! > 0);
-  const rateKgHa = fertilized.map((p) => p.rateKgHa!);
-  const gainKgHa = fertilized.map((p) => {
-    const c = checks.get(p.block!)!;
-    return p.yieldKgHa! - c.reduce((a, b) => a + b, 0) / c.length;
+  const x = [...new Set(used.map((p) => p.rateKgHa!))].filter((r) => r > 0).sort((a, b) => a - b);
+  const blocks = [...new Set(used.map((p) => p.block!))];
+  const fit: LeastSquaresFit = fitLeastSquares({
+    columns: [
+      ...x.map((r) => used.map((p) => (p.rateKgHa === r ? 1 : 0))),
+      ...blocks.slice(1).map((b) => used.map((p) => (p.block === b ? 1 : 0))),
+    ],
+    y: used.map((p) => p.yieldKgHa!),
+    intercept: true,
   });
+  const contrast = (w: number[]) => {
+    // Coefficient 0 is the intercept; 1 … J the fertilized rates.
+    const k = w.map((v, j) => [j + 1, v] as const);
+    const estimate = k.reduce((s, [c, v]) => s + v * fit.coefficients[c].estimate, 0);
+    let variance = 0;
+    for (const [c, v] of k) for (const [d, u] of k) variance += v * fit.covariance[c][d] * u;
+    return { estimate, stdError: Math.sqrt(variance) };
+  };
+  const df = fit.dfResidual;
+  const sxx0 = x.reduce((s, v) => s + v * v, 0);
+  const slope = contrast(x.map((v) => v / sxx0));
+  const half = studentTQuantile(0.975, df) * slope.stdError;
+  const mean = x.reduce((s, v) => s + v, 0) / x.length;
+  const sxx = x.reduce((s, v) => s + (v - mean) ** 2, 0);
+  const zero = contrast(x.map((v) => 1 / x.length - (mean * (v - mean)) / sxx));
+  const t = zero.estimate / zero.stdError;
   return {
-    rateKgHa,
-    gainKgHa,
-    origin: fitLeastSquares({ columns: [rateKgHa], y: gainKgHa, intercept: false }),
-    line: fitLeastSquares({ columns: [rateKgHa], y: gainKgHa, intercept: true }),
+    slope: {
+      estimate: slope.estimate,
+      ciLow: slope.estimate - half,
+      ciHigh: slope.estimate + half,
+    },
+    gainAtZero: { ...zero, t, df, p: studentTTwoSidedP(t, df) },
   };
 }

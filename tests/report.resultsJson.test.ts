@@ -94,7 +94,9 @@ describe('resultsJson', () => {
     expect(Object.keys(site.interceptTest!).sort()).toEqual(['F', 'df1', 'df2', 'p', 't']);
     expect(Object.keys(site.responseOverCheck!).sort()).toEqual([
       'biasPresent',
+      'curvatureTest',
       'interceptTest',
+      'reading',
       'slope',
       'slopeCI',
     ]);
@@ -167,22 +169,21 @@ describe('resultsJson', () => {
     });
   });
 
-  it('gives the gain over the check in bu/lb N as fitLeastSquares gives it on the gains', () => {
+  it('gives the gain over the check in bu/lb N as contrasts of a plain least-squares rate + block fit', () => {
     us.sites.forEach((s, i) => {
       const r = json.sites[i].responseOverCheck!;
-      const { origin, line } = gainsOverBlockCheck(s.plots);
-      const b = origin.coefficients[0];
-      const a = line.coefficients[0];
+      const { slope, gainAtZero: a } = gainsOverBlockCheck(s.plots);
       // kg grain/kg N → bu/lb N: ÷ 56 (the 56 lb corn bushel; the pound cancels).
-      expect(r.slope).toBeCloseTo(b.estimate / 56, 9);
-      expect(r.slopeCI[0]).toBeCloseTo(b.ciLow / 56, 9);
-      expect(r.slopeCI[1]).toBeCloseTo(b.ciHigh / 56, 9);
+      expect(r.slope).toBeCloseTo(slope.estimate / 56, 9);
+      expect(r.slopeCI[0]).toBeCloseTo(slope.ciLow / 56, 9);
+      expect(r.slopeCI[1]).toBeCloseTo(slope.ciHigh / 56, 9);
       expect(r.interceptTest.t).toBeCloseTo(a.t, 9);
       expect(r.interceptTest.F).toBeCloseTo(a.t * a.t, 8);
       expect(r.interceptTest.df1).toBe(1);
-      expect(r.interceptTest.df2).toBe(line.dfResidual);
+      expect(r.interceptTest.df2).toBe(a.df);
       expect(r.interceptTest.p).toBeCloseTo(a.p, 11);
-      expect(r.biasPresent).toBe(a.p < 0.05);
+      expect(r.biasPresent).toBe(r.reading === 'gain-at-zero');
+      expect(r.reading === 'from-zero').toBe(a.p >= 0.05 && r.reading !== 'bends');
     });
     expect(json.settings.priceRatioUnit).toBe('bu/lb N');
   });

@@ -14,7 +14,14 @@ import type { TrialReport } from '../shared/report/trialReport';
 import { reportGrowerPages, writeWorkbook } from '../shared/report/workbook';
 import { P_VALUE_FORMAT, sheetName } from '../shared/report/workbookFormat';
 import { demoTrial } from '../shared/demo';
-import { demoReport, gainsOverBlockCheck } from './report.fixture';
+import {
+  METRIC_GRAIN_PER_T,
+  METRIC_N_PER_KG,
+  demoReport,
+  gainsOverBlockCheck,
+} from './report.fixture';
+import { reportOf } from './report.pipeline';
+import { simulatedTrial } from '../shared/demo/simulatedSite';
 
 /** 1 lb/ac in kg/ha from the exact pound and acre (NIST SP 811; 1 ac = 43 560 ft²). */
 const KG_HA_PER_LB_AC = 0.45359237 / (43560 * 0.3048 * 0.3048 * 1e-4);
@@ -270,7 +277,7 @@ describe('writeWorkbook read back by exceljs', () => {
     expect(formatted).toBe(us.sites.length);
   });
 
-  it("shows each site's gain over the check as fitLeastSquares gives it on the gains, in bu/lb N and kg/kg N", async () => {
+  it("shows each site's gain over the check as contrasts of a plain least-squares rate + block fit, in bu/lb N and kg/kg N", async () => {
     // kg grain/kg N → bu/lb N: × 0.45359237 kg N per lb N ÷ (56 × 0.45359237) kg per corn bushel
     // (USDA) = ÷ 56; metric quotes kg grain per kg N as it is. Yields: kg/ha → lb/ac (NIST SP 811
     // factor above), then ÷ 56 lb per bushel.
@@ -292,22 +299,29 @@ describe('writeWorkbook read back by exceljs', () => {
         expect(header.getCell(1).value).toBe(`Slope (${slopeUnit})`);
         expect(header.getCell(2).value).toBe(`95 % low (${slopeUnit})`);
         expect(header.getCell(4).value).toBe(`Gain at rate 0 (${yieldUnit})`);
-        expect(header.getCell(10).value).toBe('p');
+        expect(header.getCell(8).value).toBe('p');
+        expect(header.getCell(13).value).toBe('Reading');
         const row = ws.getRow(title + 2);
-        const { origin, line } = gainsOverBlockCheck(s.plots);
-        const b = origin.coefficients[0];
-        const a = line.coefficients[0];
+        const { slope, gainAtZero: a } = gainsOverBlockCheck(s.plots);
         const num = (c: number) => row.getCell(c).value as number;
-        expect(num(1)).toBeCloseTo(b.estimate * perN, 9);
-        expect(num(2)).toBeCloseTo(b.ciLow * perN, 9);
-        expect(num(3)).toBeCloseTo(b.ciHigh * perN, 9);
+        expect(num(1)).toBeCloseTo(slope.estimate * perN, 9);
+        expect(num(2)).toBeCloseTo(slope.ciLow * perN, 9);
+        expect(num(3)).toBeCloseTo(slope.ciHigh * perN, 9);
         expect(num(4)).toBeCloseTo(a.estimate * perYield, 8);
+        expect(num(5)).toBeCloseTo(a.stdError * perYield, 8);
         expect(num(6)).toBeCloseTo(a.t, 9);
-        expect(num(7)).toBeCloseTo(a.t * a.t, 8);
-        expect([num(8), num(9)]).toEqual([1, line.dfResidual]);
-        expect(num(10)).toBeCloseTo(a.p, 12);
-        expect(row.getCell(10).numFmt).toBe(P_VALUE_FORMAT);
-        expect(row.getCell(11).value).toBe(a.p < 0.05 ? 'yes' : 'no');
+        expect(num(7)).toBe(a.df);
+        expect(num(8)).toBeCloseTo(a.p, 12);
+        expect(row.getCell(8).numFmt).toBe(P_VALUE_FORMAT);
+        const g = s.responseOverCheck;
+        if (!g.available) throw new Error(g.message);
+        expect(row.getCell(13).value).toBe(
+          {
+            'from-zero': 'start from zero',
+            'gain-at-zero': 'do not start from zero',
+            bends: 'bend: a response that levels off',
+          }[g.reading],
+        );
       }
     }
   });
@@ -335,5 +349,55 @@ describe('sheetName', () => {
     const long = sheetName('A'.repeat(40), taken);
     expect(long.length).toBe(31);
     expect(sheetName('A'.repeat(40), taken)).toBe(`${'A'.repeat(27)} (2)`);
+  });
+});
+
+describe('the model table of sites whose fits reach a limit', () => {
+  // Simulated flat sites (shared/demo/simulatedSite, seeded): their exponential fits end at a
+  // limit (no response, no plateau, full response), where b and k run off to 0 or infinity.
+  // The table shows the limiting model's parameters and a dash for a blank one.
+  it('writeWorkbook prints no "NaN" and no runaway parameter (every |value| under 10⁵)', async () => {
+    const sim = simulatedTrial({ truths: Array(8).fill('flat'), seed: 4417 });
+    const report = reportOf(
+      sim.table,
+      {
+        units: { rate: 'kg/ha', yield: 'kg/ha' },
+        unitSystem: 'metric',
+        crop: 'corn',
+        prices: {
+          grainPrice: METRIC_GRAIN_PER_T,
+          nutrientPrice: METRIC_N_PER_KG,
+          product: null,
+          defaulted: false,
+        },
+        boot: 0,
+        seed: 1,
+        blocks: 'fixed',
+        intervalLevel: 0.9,
+      },
+      {
+        tool: { name: 'Plotrate', version: '0.1.0' },
+        createdAt: '2026-03-01T12:00:00Z',
+        mapping: [],
+      },
+    );
+    const statuses = new Set(
+      report.sites.map((s) => s.models.find((m) => m.model === 'exponential')!.status),
+    );
+    expect(statuses).toEqual(
+      new Set(['no-response', 'no-plateau', 'full-response-at-lowest-rate', 'ok']),
+    );
+    const wb = XLSX.read(await writeWorkbook(report));
+    for (const site of report.sites) {
+      const ws = wb.Sheets[sheetName(site.site, new Set())];
+      const h = findRow(ws, 'Model');
+      for (let r = h + 1; cell(ws, r, 0)?.v; r++) {
+        const params = String(cell(ws, r, 2)?.v ?? '');
+        expect(params).not.toMatch(/NaN|Infinity/);
+        for (const m of params.matchAll(/= (-?[\d.e+-]+)/g)) {
+          expect(Math.abs(Number(m[1])), `${site.site}: ${params}`).toBeLessThan(1e5);
+        }
+      }
+    }
   });
 });

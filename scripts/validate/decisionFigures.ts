@@ -64,6 +64,8 @@ export interface TruthFigures {
   aboveSecondLowest: Share;
   /** Sites where the gain-over-check test finds a gain at rate zero, out of those tested. */
   gainAtZeroFound: Share;
+  /** Sites where the gain-over-check test finds the gains bend, out of those tested. */
+  gainsBend: Share;
   /** Sites whose rate effect is significant. */
   responded: Share;
   /** The leading models and how many sites each led. */
@@ -149,8 +151,43 @@ export function truthFigures(truth: TruthName, decisions: readonly SiteDecision[
       mine.length,
     ),
     gainAtZeroFound: share(tested.filter((d) => d.gainAtZeroFound).length, tested.length),
+    gainsBend: share(tested.filter((d) => d.gainsBend).length, tested.length),
     responded: share(mine.filter((d) => d.responded).length, mine.length),
     leadModels,
+  };
+}
+
+/** The gain-over-check tests on sites whose gains lie on a straight line through the origin. */
+export interface GainNullFigures {
+  truth: TruthName;
+  description: string;
+  sites: number;
+  /** The gain-at-rate-zero test's rejections: its Type I error. */
+  gainAtZeroFound: Share;
+  /** The bend test's rejections: its Type I error. */
+  gainsBend: Share;
+}
+
+/**
+ * The gain-over-check tests' rejection rates on one truth whose nulls hold (STRAIGHT_GAIN_TRUTHS).
+ * @param truth - the truth every decision was simulated from
+ * @param decisions - the sites' decisions (simulateAndAnalyze)
+ * @returns the two tests' rejection shares among the sites tested
+ * @example
+ * gainNullFigures('straight-line', run.decisions).gainAtZeroFound.share // e.g. 0.03
+ */
+export function gainNullFigures(
+  truth: TruthName,
+  decisions: readonly SiteDecision[],
+): GainNullFigures {
+  const tested = decisions.filter((d) => d.truth === truth && d.gainTested);
+  if (tested.length === 0) throw new Error(`No tested site of the ${truth} truth.`);
+  return {
+    truth,
+    description: simulatedTruth(truth).description,
+    sites: tested.length,
+    gainAtZeroFound: share(tested.filter((d) => d.gainAtZeroFound).length, tested.length),
+    gainsBend: share(tested.filter((d) => d.gainsBend).length, tested.length),
   };
 }
 

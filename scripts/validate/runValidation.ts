@@ -1,12 +1,14 @@
 // The whole validation: sites of each truth, then regions mixing all truths, each table
 // simulated from its own seed and run through the public analysis API; the figures and goals.
 import { mulberry32 } from '../../shared/demo/mulberry32';
-import { TRUTH_NAMES, type TruthName } from '../../shared/demo/simulatedSite';
+import { STRAIGHT_GAIN_TRUTHS, TRUTH_NAMES, type TruthName } from '../../shared/demo/simulatedSite';
 import type { Prices } from '../../shared/economics/priceRatio';
 import {
+  gainNullFigures,
   regionFigures,
   trueRegionalOptimumKgHa,
   truthFigures,
+  type GainNullFigures,
   type RegionFigures,
   type RegionOutcome,
   type TruthFigures,
@@ -31,6 +33,8 @@ export interface ValidationOptions {
 export interface Validation {
   priceRatio: number;
   truths: TruthFigures[];
+  /** The gain-over-check tests on the truths whose nulls hold (flat, straight line). */
+  gainNulls: GainNullFigures[];
   regions: RegionFigures;
   regionOutcomes: RegionOutcome[];
   goals: GoalCheck[];
@@ -46,6 +50,7 @@ export interface Validation {
 export function runValidation(options: ValidationOptions): Validation {
   const { prices, seed } = options;
   const priceRatio = prices.nutrientPricePerKg / prices.grainPricePerKg;
+  const gainNulls: GainNullFigures[] = [];
   const truths = TRUTH_NAMES.map((truth, i) => {
     const run = simulateAndAnalyze(
       Array.from({ length: options.sitesPerTruth }, () => truth),
@@ -53,8 +58,19 @@ export function runValidation(options: ValidationOptions): Validation {
       prices,
     );
     const figures = truthFigures(truth, run.decisions);
+    if (STRAIGHT_GAIN_TRUTHS.includes(truth)) gainNulls.push(gainNullFigures(truth, run.decisions));
     options.onProgress?.(`${truth}: ${figures.sites} sites`);
     return figures;
+  });
+  // The straight line has no finite optimum, so only the gain-over-check tests are read from it.
+  STRAIGHT_GAIN_TRUTHS.filter((t) => !TRUTH_NAMES.includes(t)).forEach((truth, i) => {
+    const run = simulateAndAnalyze(
+      Array.from({ length: options.sitesPerTruth }, () => truth),
+      seed + 100 + i,
+      prices,
+    );
+    gainNulls.push(gainNullFigures(truth, run.decisions));
+    options.onProgress?.(`${truth}: ${options.sitesPerTruth} sites (gain-over-check tests only)`);
   });
   // Each region's sites draw their truths at random (uniform over the five), from the base seed.
   const pick = mulberry32(seed ^ 0x5eed);
@@ -73,5 +89,12 @@ export function runValidation(options: ValidationOptions): Validation {
   }
   options.onProgress?.(`${options.regions} regions of ${options.sitesPerRegion} sites`);
   const regions = regionFigures(regionOutcomes);
-  return { priceRatio, truths, regions, regionOutcomes, goals: validationGoals(truths, regions) };
+  return {
+    priceRatio,
+    truths,
+    gainNulls,
+    regions,
+    regionOutcomes,
+    goals: validationGoals(truths, gainNulls, regions),
+  };
 }

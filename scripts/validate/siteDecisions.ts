@@ -34,8 +34,10 @@ export interface SiteDecision {
   joinProfileKgHa: Record<'linearPlateau' | 'quadraticPlateau', [number, number] | null>;
   /** Whether the gain-over-check test could be made at this site. */
   gainTested: boolean;
-  /** The gain-over-check test's verdict: a gain at rate zero is present (at the analysis' alpha). */
+  /** The gain-over-check test of a gain at rate zero rejects (at the analysis' alpha). */
   gainAtZeroFound: boolean;
+  /** The gain-over-check test of a bend rejects: the gains bend away from a straight line. */
+  gainsBend: boolean;
   /** The rate effect (rate as a factor, with blocks) is significant at the analysis' alpha. */
   responded: boolean;
 }
@@ -100,7 +102,8 @@ export function simulateAndAnalyze(
         quadraticPlateau: ends(analyzed.joinProfiles.quadraticPlateau ?? null),
       },
       gainTested,
-      gainAtZeroFound: gainTested && gain.biasPresent,
+      gainAtZeroFound: gainTested && gain.gainAtZeroPresent,
+      gainsBend: gainTested && gain.bends,
       responded: analyzed.responded,
     };
   });

@@ -190,7 +190,7 @@ export function analyzeSite(
       };
     });
     correlation = orProblem(() => pearsonCorrelation(site.rateKgHa, site.yieldKgHa));
-    responseOverCheck = siteResponseOverCheck(site, alpha);
+    responseOverCheck = siteResponseOverCheck(site, rateBlock, alpha);
   }
   const rates = Array.from(site.rateKgHa);
   const { anova, means } = siteAnova(rates, Array.from(site.yieldKgHa), [...site.block], rateBlock);

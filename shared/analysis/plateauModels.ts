@@ -14,17 +14,20 @@ import type { CurveFitOutcome } from './pooledCurveTest';
 export { PLATEAU_MODELS, type PlateauModel } from '../models/curves';
 
 /**
- * What a pooled test needs of one fit: its SSE and parameter count, or why it gives none.
+ * What a pooled test needs of one fit: its SSE and the parameters it estimates, or why it gives
+ * none. A fit at a limit counts its limiting model's parameters (shared/models/fixedByStatus:
+ * a straight line or a step two, a flat fit one), not the model's three, so the F test's
+ * degrees of freedom are those of the fits actually made.
  * @param fit - a fit as plain data (kg/ha)
  * @returns `{ sse, parameters }`, or `{ problem }` for too few rates or a fit that failed
  * @example
- * curveFitOutcome(site.fits.fits.linearPlateau) // { sse: 1.2e5, parameters: 3 }
+ * curveFitOutcome(site.fits.fits.linearPlateau) // { sse: 1.2e5, parameters: 3 }, or 2 with no plateau
  */
 export function curveFitOutcome(fit: FitData): CurveFitOutcome {
   if (fit.status === 'too-few-rates') return { problem: fit.message };
   if (!Number.isFinite(fit.sse))
     return { problem: `the ${modelLabelInText(fit.model)} could not be fitted` };
-  return { sse: fit.sse, parameters: fit.parameterCount };
+  return { sse: fit.sse, parameters: fit.estimatedParameterCount };
 }
 
 /**

@@ -7,6 +7,10 @@
  *   full:    one curve per part, Σ p_i parameters, SSE_full = Σ SSE_i
  *   F = [(SSE_pooled − Σ SSE_i) / (Σ p_i − p)] / [Σ SSE_i / (N − Σ p_i)]
  *
+ * p and p_i are the parameters each fit estimates: a fit that reaches a limit is its limiting
+ * model and counts that model's (a straight line or a step 2, a flat fit 1; curveFitOutcome,
+ * shared/models/fixedByStatus), so a site with no response does not add three.
+ *
  * (Draper & Smith, Applied Regression Analysis, 3rd ed., §6.1, applied to
  * nonlinear least squares as in Bates & Watts, Nonlinear Regression Analysis
  * and Its Applications, 1988, §3.10, section from memory: the F distribution then holds only

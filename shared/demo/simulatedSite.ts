@@ -20,9 +20,18 @@ import { mulberry32, type Random } from './mulberry32';
 
 /** The true responses the simulation draws sites from. */
 export type TruthName =
-  'linear-plateau' | 'quadratic-plateau' | 'exponential' | 'flat' | 'full-response';
+  | 'linear-plateau'
+  | 'quadratic-plateau'
+  | 'exponential'
+  | 'flat'
+  | 'full-response'
+  | 'straight-line';
 
-/** Every truth, in the order reports list them. */
+/**
+ * The truths the decisions are judged on, in the order reports list them. The straight line is
+ * not among them: it never levels off, so it has no finite optimum to judge a rate by; it serves
+ * the gain-over-check test (STRAIGHT_GAIN_TRUTHS).
+ */
 export const TRUTH_NAMES: readonly TruthName[] = [
   'linear-plateau',
   'quadratic-plateau',
@@ -105,6 +114,21 @@ function exponentialRise(name: TruthName, a: number, b: number, k: number): Trut
   };
 }
 
+/**
+ * y = a + b·x: every kg of N adds b, so the gains over the check lie on a straight line through
+ * the origin. Optimum: y(x) − PR·x rises for ever when b > PR (no finite optimum: Infinity) and
+ * falls from 0 otherwise.
+ */
+function straightLine(name: TruthName, a: number, b: number): Truth {
+  return {
+    name,
+    description: `straight line: ${a} + ${b}·x kg/ha`,
+    yieldKgHa: (x) => a + b * x,
+    optimumKgHa: (pr) => (b > pr ? Infinity : 0),
+    joinKgHa: null,
+  };
+}
+
 /** y = a at every rate: no N pays, so the optimum is 0 at any positive price ratio. */
 function flat(name: TruthName, a: number): Truth {
   return {
@@ -132,7 +156,16 @@ const TRUTHS: Record<TruthName, Truth> = {
   flat: flat('flat', 12000),
   // The whole 3,000 kg/ha gain is reached by 30 kg/ha, below the lowest non-zero rate.
   'full-response': linearPlateau('full-response', 9500, 100, 30),
+  // From 8,500 at 0 to 12,500 kg/ha at 200 kg/ha, with no bend.
+  'straight-line': straightLine('straight-line', 8500, 20),
 };
+
+/**
+ * The truths whose gains over each block's check lie on a straight line through the origin, so
+ * that the gain-over-check test's nulls (no gain at rate zero, no bend) both hold: flat (all
+ * gains zero) and the straight line.
+ */
+export const STRAIGHT_GAIN_TRUTHS: readonly TruthName[] = ['flat', 'straight-line'];
 
 /**
  * One of the simulation's true responses.

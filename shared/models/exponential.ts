@@ -11,10 +11,28 @@
  * non-zero rate; e^(−50) ≈ 2·10⁻²², full response by x₁), and Brent's method
  * refines every grid point lower than its neighbours. The two limits are
  * statuses, not numbers:
- * - k → 0: the curve tends to the straight line: "no-plateau" (best SSE not below the line's)
+ * - k → 0: the curve tends to the straight line: "no-plateau" (best SSE not below the line's,
+ *   or the best k at the grid's end, k·x_max = 10⁻³, where the curve bends by under 0.05 % of
+ *   its rise over the tested rates)
  * - k → ∞: the curve tends to check against the rest: "full-response-at-lowest-rate"
  *   (best SSE not below check-vs-rest, or e^(−k x₁) < 10⁻³: 99.9 % of the gain by the
  *   lowest non-zero rate x₁, which the higher rates cannot tell from a step)
+ * - best SSE not below the flat fit's (b held at 0 by its sign): "no-response"
+ *
+ * At a limit b and k run off to 0 or infinity together (the line has b·k as its slope while
+ * b → ∞), and their last values on the search grid mean nothing (b of millions, or
+ * negative for a flat site refitted without the sign). The fit reports the limiting model
+ * itself, fitted exactly by least squares, in the exponential's parameters where they have a
+ * meaning and blank (NaN) where they have none:
+ * - "no-plateau": the straight line; a is its yield at rate 0, b and k are blank (the line's
+ *   slope is the straight-line model's b in the same table);
+ * - "full-response-at-lowest-rate": the step; a is the check yield, b the gain of every
+ *   non-zero rate over it, k blank (a site without a zero rate has no step: its best k is
+ *   kept, blank);
+ * - "no-response": the flat fit; a is the mean, b = 0, k blank.
+ * Each estimates two parameters (the flat fit one) and counts them in its residual df and in
+ * the pooled tests (fixedByStatus). The estimate (the bootstrap's path) keeps the last grid
+ * values of b and k, so its curve can still be evaluated, with the limit's SSE.
  */
 import { minimizeBrent } from '../optimize/minimizeBrent';
 import { StatsInputError } from '../stats/errors';
@@ -29,7 +47,8 @@ import {
 import { exponentialCurve } from './curves/exponential';
 import type { CurveSpec } from './modelCurve';
 import type { ModelEntry } from './modelEntry';
-import { profiledCoefficients } from './solve/linearCoefficients';
+import { linearCoefficients, profiledCoefficients } from './solve/linearCoefficients';
+import { fixedByStatus } from './fixedByStatus';
 import type {
   CurveEstimate,
   FitOptions,
@@ -154,7 +173,17 @@ export function estimateExponential(
     status = 'full-response-at-lowest-rate';
     message = `Full response by the lowest non-zero rate: the rate constant runs to infinity (check against the rest); the bend lies between ${rateRangeText(rateFormat, rates[0], rLow)}.`;
   }
-  const sse = sseAt(bestU);
+  // At a limit, the limiting model's own SSE (the best grid value only comes close to it);
+  // without a zero rate there is no step, and the full response keeps its best k.
+  const sse =
+    status === 'no-response'
+      ? solver.flatSse
+      : status === 'no-plateau'
+        ? line
+        : status === 'full-response-at-lowest-rate' && rates[0] === 0
+          ? stepFit
+          : bestSse;
+  sseAt(bestU); // leaves solver.last at the best k for the parameters below
   return {
     model: 'exponential',
     status,
@@ -198,16 +227,38 @@ export function fitExponentialPrepared(
   const est = estimateExponential(site, intercept ? 'free' : 'zero', undefined, options.rateFormat);
   if (est.status === 'too-few-rates') return unfittedFit(site, spec, est.message);
   const { status } = est;
-  const k = est.params.k;
-  const gFinal = site.rates.map((r) => -Math.expm1(-k * r));
-  const coef = profiledCoefficients(site, est.params.a, est.params.b, gFinal, intercept);
+  const rates = site.rates;
+  // The fitted curve and its coefficients ([a,] b, k): at a limit, the limiting model's.
+  let curveSpec = spec;
+  let k = est.params.k;
+  let coef: { curve: Float64Array; blocks: Float64Array };
+  if (status === 'no-response') {
+    // The flat fit: b = 0 (its sign constraint), k has no effect.
+    k = 0;
+    coef = intercept
+      ? linearCoefficients(site, [], true)
+      : { curve: new Float64Array(0), blocks: new Float64Array(0) };
+    coef = { curve: Float64Array.of(...coef.curve, 0), blocks: coef.blocks };
+  } else if (status === 'no-plateau') {
+    // k → 0: the straight line, its slope in b's slot (lineLimitSpec).
+    curveSpec = lineLimitSpec(spec);
+    k = 0;
+    coef = linearCoefficients(site, [rates], intercept);
+  } else if (status === 'full-response-at-lowest-rate' && rates[0] === 0) {
+    // k → ∞: e^(−k x) underflows to 0 at every non-zero rate, so g is the step [x > 0].
+    k = STEP_EXPONENT / rates[1];
+    coef = linearCoefficients(site, [rates.map((r) => -Math.expm1(-k * r))], intercept);
+  } else {
+    const gFinal = rates.map((r) => -Math.expm1(-k * r));
+    coef = profiledCoefficients(site, est.params.a, est.params.b, gFinal, intercept);
+  }
   const params = intercept
     ? Float64Array.of(coef.curve[0], coef.curve[1], k)
     : Float64Array.of(coef.curve[0], k);
   const ok = status === 'ok';
   const fit = finishFit({
     site,
-    spec,
+    spec: curveSpec,
     params,
     blockCoefficients: coef.blocks,
     status,
@@ -221,14 +272,41 @@ export function fitExponentialPrepared(
           : { value: params[0], gradient: [1, 0] }
         : undefined,
     joinBetweenKgHa: est.joinBetweenKgHa,
+    fixed: fixedByStatus(status, 'b', 'k'),
   });
   if (status === 'no-plateau') blankParameters(fit, ['b', 'k']);
-  else if (status === 'full-response-at-lowest-rate') blankParameters(fit, ['k']);
+  else if (!ok) blankParameters(fit, ['k']);
   if (!intercept) {
     // Economics reads params.a; the fixed intercept is exactly zero.
     fit.params = { a: 0, ...fit.params };
   }
   return fit;
+}
+
+/** k·x₁ of the step limit: e^(−1000) is 0 in double precision, so every non-zero rate has g = 1. */
+const STEP_EXPONENT = 1000;
+
+/**
+ * The straight-line limit (k → 0 while b·k tends to the slope s) in the exponential's parameter
+ * slots: [a, s, k], or [s, k] through the origin, with k fixed and without effect. Only
+ * finishFit evaluates it; the fit then blanks b and k.
+ */
+function lineLimitSpec(spec: CurveSpec<ModelName>): CurveSpec<ModelName> {
+  // The slope's slot: 1 after the intercept, 0 through the origin.
+  const s = spec.paramNames.length - 2;
+  const at = (x: number, p: Float64Array) => (s === 1 ? p[0] : 0) + p[s] * x;
+  return {
+    ...spec,
+    value: at,
+    values: (xs, p, out) => {
+      for (let i = 0; i < xs.length; i++) out[i] = at(xs[i], p);
+    },
+    gradient: (x, _p, out) => {
+      if (s === 1) out[0] = 1;
+      out[s] = x;
+      out[s + 1] = 0;
+    },
+  };
 }
 
 /**

@@ -1,12 +1,20 @@
 /**
  * Everything a fit reports once the parameters are known: fitted values and
  * residuals, SSE and residual df, asymptotic standard errors s²(JᵀJ)⁻¹ from the
- * Jacobian of all parameters (curve and block offsets) at the optimum (Bates &
+ * Jacobian of the estimated parameters (curve and block offsets) at the optimum (Bates &
  * Watts, Nonlinear Regression Analysis and Its Applications, 1988, §2.3),
  * t intervals, R², AICc and BIC (counted as in shared/stats/leastSquares: the
  * residual variance is a parameter, k = p + 1), the lack-of-fit F test against
  * the pure error of replicated rates (Draper & Smith, 3rd ed., §2.1), the curve
  * on a grid and a prediction function.
+ *
+ * A fit whose status holds some curve parameters at a bound or a limit (the fitter names
+ * them in `fixed`: a join at the highest rate, the slope 0 of a flat fit) estimates only the
+ * others. The residual df, the residual variance and the standard errors count the estimated
+ * parameters (`estimatedParameterCount`), as the limiting model's own least-squares fit
+ * would (a flat fit: n − 1; a straight line or a step: n − 2). AICc and BIC keep every
+ * parameter of the model (`parameterCount`), as the resamples' AICc does
+ * (shared/economics/drawChoices), so that reaching a limit does not move a fit up the ranking.
  */
 import { fisherFUpperP, studentTQuantile } from '../stats/distributions';
 import { qrDecompose, type QrDecomposition } from '../stats/qr';
@@ -57,6 +65,13 @@ export interface FinishInput {
   designQr?: QrDecomposition;
   /** Where the fitted values, residuals and curve go; a buffer of their own by default. */
   store?: FitStore;
+  /**
+   * Curve parameters the status holds at a bound or a limit instead of estimating them (x0 at
+   * the highest rate; b = 0 of a flat fit): left out of the Jacobian, so the others keep their
+   * standard errors, given none of their own, and not counted as estimated. Not combined with
+   * `designQr` (the models linear in their parameters fix none).
+   */
+  fixed?: readonly string[];
 }
 
 /**
@@ -106,6 +121,11 @@ export function finishFit(input: FinishInput): ModelFit {
   const q = spec.paramNames.length;
   const nbCoef = blockCoefficients.length;
   const p = q + nbCoef;
+  // The estimated curve parameters, by index; the Jacobian has their columns only.
+  const free: number[] = [];
+  for (let k = 0; k < q; k++) if (!input.fixed?.includes(spec.paramNames[k])) free.push(k);
+  const qe = free.length;
+  const pe = qe + nbCoef;
   const nb = site.blockLabels.length;
   const offsets = new Float64Array(Math.max(nb, 1));
   if (nbCoef > 0) {
@@ -138,7 +158,7 @@ export function finishFit(input: FinishInput): ModelFit {
     residuals[i] = r;
     sse += r * r;
   }
-  const dfResidual = n - p;
+  const dfResidual = n - pe;
   const s2 = sse / dfResidual;
 
   // Jacobian of all parameters: curve parameters, then block columns. With
@@ -150,24 +170,24 @@ export function finishFit(input: FinishInput): ModelFit {
   if (input.designQr) {
     qr = input.designQr;
   } else if (site.orthogonalBlockOffsets) {
-    const jac = exactScratch(m * q);
+    const jac = exactScratch(m * qe);
     for (let j = 0; j < m; j++) {
       spec.gradient(site.rates[j], params, row);
       const w = Math.sqrt(site.counts[j]);
-      for (let k = 0; k < q; k++) jac[k * m + j] = w * row[k];
+      for (let k = 0; k < qe; k++) jac[k * m + j] = w * row[free[k]];
     }
-    qr = qrDecompose(jac, m, q);
+    qr = qrDecompose(jac, m, qe);
   } else {
-    const jac = new Float64Array(n * p);
+    const jac = new Float64Array(n * pe);
     for (let i = 0; i < n; i++) {
       spec.gradient(x[i], params, row);
-      for (let k = 0; k < q; k++) jac[k * n + i] = row[k];
+      for (let k = 0; k < qe; k++) jac[k * n + i] = row[free[k]];
     }
-    if (nbCoef > 0) blockColumns(site).forEach((c, k) => jac.set(c, (q + k) * n));
-    qr = qrDecompose(jac, n, p);
+    if (nbCoef > 0) blockColumns(site).forEach((c, k) => jac.set(c, (qe + k) * n));
+    qr = qrDecompose(jac, n, pe);
   }
   const identified = qr.rank === qr.cols;
-  const covariance = curveCovariance(qr, q, identified ? s2 : NaN);
+  const covariance = expandCovariance(curveCovariance(qr, qe, identified ? s2 : NaN), free, q);
 
   const level = options.confidence ?? 0.95;
   const tCrit = dfResidual > 0 ? tCritical(level, dfResidual) : NaN;
@@ -221,13 +241,14 @@ export function finishFit(input: FinishInput): ModelFit {
     stdErrors,
     confidenceIntervals,
     blockOffsets,
-    joinPoint: intervalOf(input.joinPoint, covariance, tCrit),
-    plateauYield: intervalOf(input.plateauYield, covariance, tCrit),
+    joinPoint: intervalOf(input.joinPoint, covariance, free, tCrit),
+    plateauYield: intervalOf(input.plateauYield, covariance, free, tCrit),
     joinBetweenKgHa: input.joinBetweenKgHa ?? null,
     stdErrorNote,
     testedRates: site.testedRates,
     n,
     parameterCount: p,
+    estimatedParameterCount: pe,
     sse,
     dfResidual,
     rmse: Math.sqrt(s2),
@@ -295,17 +316,29 @@ function curveCovariance(qr: QrDecomposition, q: number, s2: number): number[][]
   return covariance;
 }
 
+/**
+ * The covariance of the estimated curve parameters placed in the q × q matrix of all of them,
+ * NaN in the rows and columns of the fixed ones.
+ */
+function expandCovariance(estimated: number[][], free: readonly number[], q: number): number[][] {
+  if (free.length === q) return estimated;
+  const all = Array.from({ length: q }, () => new Array<number>(q).fill(NaN));
+  free.forEach((a, i) => free.forEach((b, j) => (all[a][b] = estimated[i][j])));
+  return all;
+}
+
 /** A derived quantity with its delta-method standard error and t interval. */
 function intervalOf(
   d: DerivedQuantity | undefined,
   covariance: number[][],
+  free: readonly number[],
   tCrit: number,
 ): IntervalEstimate | null {
   if (!d) return null;
-  const q = covariance.length;
   let v = 0;
-  for (let a = 0; a < q; a++) {
-    for (let b = 0; b < q; b++) v += d.gradient[a] * covariance[a][b] * d.gradient[b];
+  // A fixed parameter is a constant here: only the estimated ones vary.
+  for (const a of free) {
+    for (const b of free) v += d.gradient[a] * covariance[a][b] * d.gradient[b];
   }
   const se = Math.sqrt(v);
   return {
@@ -382,6 +415,7 @@ export function unfittedFit(
     testedRates: site.testedRates,
     n: site.n,
     parameterCount: spec.paramNames.length + site.blockDf,
+    estimatedParameterCount: spec.paramNames.length + site.blockDf,
     sse: NaN,
     dfResidual: site.n - spec.paramNames.length - site.blockDf,
     rmse: NaN,
@@ -426,7 +460,8 @@ export function tooFewRatesMessage(
 
 /**
  * Replaces the named parameters by NaN in a finished fit (a join point that the
- * rates do not identify must not be shown as a number), with their errors.
+ * rates do not identify must not be shown as a number), with their errors and
+ * their rows and columns of the covariance.
  * @param fit - a finished fit
  * @param names - parameters to blank
  * @returns the same fit, changed in place
@@ -438,6 +473,11 @@ export function blankParameters(fit: ModelFit, names: readonly string[]): ModelF
     fit.params = { ...fit.params, [name]: NaN };
     fit.stdErrors[name] = NaN;
     fit.confidenceIntervals[name] = [NaN, NaN];
+    const k = fit.paramNames.indexOf(name);
+    if (k >= 0) {
+      for (const row of fit.covariance) row[k] = NaN;
+      fit.covariance[k].fill(NaN);
+    }
   }
   return fit;
 }

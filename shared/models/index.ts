@@ -33,9 +33,6 @@
  * Other entries:
  * - `fitLinear`, `fitProportional`, `fitQuadratic`, `fitLinearPlateau`, `fitQuadraticPlateau`,
  *   `fitExponential`: each `(data: SiteData, options?: FitOptions) → ModelFit`
- * - `fitResponseOverCheck(data, { alpha? }) → ResponseOverCheck`: gains over the same
- *   block's zero-rate plot, the line through the origin fitted to them, and the intercept
- *   test (t-test of the straight line's intercept, F = t²) in `gainAtZeroPresent`
  * - `estimateCurve(site: PreparedSite, model, options?) → CurveEstimate`: status, params and
  *   SSE only (no errors/residuals/curve), ~5× cheaper; what the bootstrap refits
  * - `curveValue(model, params, rateKgHa) → kg/ha`: a curve from stored parameters
@@ -82,8 +79,6 @@ export type { ClosedFormOptimum, CurveSpec, ModelCurve, ParamDimension } from '.
 export type { ModelEntry } from './modelEntry';
 export { prepareSite } from './prepareSite';
 export type { PreparedSite } from './prepareSite';
-export { fitResponseOverCheck } from './responseOverCheck';
-export type { ResponseOverCheck } from './responseOverCheck';
 export { estimateCurve } from './estimateCurve';
 export { joinProfileInterval } from './joinProfile';
 export type { RateProfileInterval } from './joinProfile';

@@ -23,6 +23,7 @@ import {
   type FitStore,
 } from './finishFit';
 import { linearPlateauCurve } from './curves/linearPlateau';
+import { fixedByStatus } from './fixedByStatus';
 import type { ModelEntry } from './modelEntry';
 import { linearCoefficients, profiledCoefficients } from './solve/linearCoefficients';
 import type { CurveEstimate, FitOptions, ModelFit, SiteData } from './modelTypes';
@@ -44,36 +45,34 @@ const RISE_DEGREE = 1;
 /**
  * The linear-plateau's estimate and status from the profiled search alone.
  * @param site - from prepareSite
- * @param tolerance - Brent's relative tolerance on x0, default 1e-10 (the bootstrap uses 1e-7);
- *   only the full block design searches by Brent, group sums give the join in closed form
  * @param rateFormat - how messages write rates, default kg/ha rounded
  * @returns status, message, params {a, b, x0} (x0 = highest rate for "no-plateau" and
  *   "no-response", the second-lowest rate for "full-response-at-lowest-rate") and SSE
  * @example
  * estimateLinearPlateau(prepareSite({ rateKgHa: [0, 40, 80, 120, 160], yieldKgHa: [6000, 7000, 8000, 8500, 8500] }, 'none')).params.x0 // ≈ 100
  */
-export function estimateLinearPlateau(
-  site: PreparedSite,
-  tolerance = 1e-10,
-  rateFormat?: RateFormat,
-): CurveEstimate {
+export function estimateLinearPlateau(site: PreparedSite, rateFormat?: RateFormat): CurveEstimate {
   const why = tooFewRatesMessage(site, linearPlateauSpec, 3);
   if (why) return unfittedEstimate(site, linearPlateauSpec, why);
   const rates = site.rates;
-  const m = rates.length;
   const solver = profileSolver(site, INNER);
   const sseAt = joinSse(rates, solver);
+  // Candidate joins in closed form in every interval (any design); the bounds, for group
+  // sums only, skip intervals that cannot hold the minimum.
   const bounds = site.design === 'full' ? undefined : relaxedJoinBounds(site, RISE_DEGREE);
-  const stationary = bounds ? stationaryJoinPoints(site, RISE_DEGREE) : undefined;
-  const best = searchJoinPoint(rates, sseAt, tolerance, bounds, stationary);
+  const best = searchJoinPoint(
+    rates,
+    sseAt,
+    undefined,
+    bounds,
+    stationaryJoinPoints(site, RISE_DEGREE),
+  );
   return plateauEstimate({
     site,
     spec: linearPlateauSpec,
     solver,
     sseAt,
     best,
-    // The limit x0 ≥ r_max is the straight line.
-    limitSse: sseAt(rates[m - 1]),
     noPlateauDetail,
     rateFormat,
   });
@@ -124,7 +123,7 @@ export function fitLinearPlateauPrepared(
   options: FitOptions,
   store?: FitStore,
 ): ModelFit {
-  const est = estimateLinearPlateau(site, undefined, options.rateFormat);
+  const est = estimateLinearPlateau(site, options.rateFormat);
   if (est.status === 'too-few-rates') return unfittedFit(site, linearPlateauSpec, est.message);
   const { status } = est;
   const x0 = est.params.x0;
@@ -151,6 +150,7 @@ export function fitLinearPlateauPrepared(
         ? { value: a + b * x0, gradient: [1, x0, b] }
         : undefined,
     joinBetweenKgHa: est.joinBetweenKgHa,
+    fixed: fixedByStatus(status, 'b', 'x0'),
     stdErrorNote: ok
       ? 'The x0 derivative jumps at each tested rate: the asymptotic errors assume x0 stays between the same two rates; prefer the bootstrap interval for the optimum.'
       : '',
@@ -181,6 +181,5 @@ export function fitLinearPlateau(data: SiteData, options: FitOptions = {}): Mode
 export const linearPlateauModel = {
   ...linearPlateauCurve,
   fit: fitLinearPlateauPrepared,
-  estimate: (site, options) =>
-    estimateLinearPlateau(site, options.searchTolerance, options.rateFormat),
+  estimate: (site, options) => estimateLinearPlateau(site, options.rateFormat),
 } satisfies ModelEntry;

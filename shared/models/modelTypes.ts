@@ -16,14 +16,18 @@ export { MODEL_NAMES, type ModelName } from './curves';
  * What a fit says about the data. Only "ok" carries a precise join point and
  * optimum; every other status is a data finding the screen explains:
  * - "ok": an identified fit with the maximum (if the model has one) inside the tested rates
- * - "no-plateau": the join (or the exponential's bend) lies at or past the highest tested
- *   rate: the data are fitted as well by the straight line (or the quadratic); no join is reported
+ * - "no-plateau": the best join of the tested range is the highest rate (or the exponential's
+ *   rate constant runs to 0): the data are fitted as well by the straight line (or the
+ *   quadratic); no join is reported
  * - "full-response-at-lowest-rate": the join lies between the two lowest rates (or the
  *   exponential's rate constant runs to infinity): the curve is "check against the rest",
  *   so any join in that interval fits equally well; `joinBetweenKgHa` says where
  * - "convex": the quadratic opens upward (c ≥ 0), so it has no maximum
  * - "no-response": the best rising curve is flat: yield does not increase with rate
  * - "too-few-rates": not enough distinct rates or plots to fit the model with residual df
+ * A fit of the profiled models with "no-plateau", "full-response-at-lowest-rate" or
+ * "no-response" is its limiting model and estimates only that model's parameters
+ * (shared/models/fixedByStatus).
  */
 export type FitStatus =
   'ok' | 'no-plateau' | 'full-response-at-lowest-rate' | 'convex' | 'no-response' | 'too-few-rates';
@@ -57,9 +61,9 @@ export interface FitOptions {
   /** Points on the fitted-curve grid from the lowest to the highest rate, default 61. */
   curvePoints?: number;
   /**
-   * Relative tolerance of Brent's search on x0 or ln k in estimateCurve, default 1e-10.
-   * The bootstrap uses 1e-7: ample for percentiles, and fewer evaluations. The plateau
-   * models on group sums find their join in closed form and do not use it.
+   * Relative tolerance of Brent's search on the exponential's ln k in estimateCurve, default
+   * 1e-10. The bootstrap uses 1e-7: ample for percentiles, and fewer evaluations. The plateau
+   * models find their join in closed form and do not use it.
    */
   searchTolerance?: number;
   /**
@@ -131,9 +135,17 @@ export interface ModelFit extends CurveSummary {
   /** A note on the standard errors, e.g. where the x0 derivative jumps; "" when none. */
   stdErrorNote: string;
   n: number;
-  /** Number of estimated parameters: curve parameters plus block offsets. */
+  /** Parameters of the model: curve parameters plus block offsets (AICc and BIC count these). */
   parameterCount: number;
+  /**
+   * Parameters this fit estimates: parameterCount less the curve parameters its status holds
+   * at a bound or a limit (a flat fit estimates the mean; a straight-line or step limit two
+   * curve parameters). Residual df and tests that compare fits (pooled against separate
+   * curves) count these.
+   */
+  estimatedParameterCount: number;
   sse: number;
+  /** n − estimatedParameterCount. */
   dfResidual: number;
   /** √(SSE / dfResidual), kg/ha. */
   rmse: number;

@@ -1,12 +1,11 @@
 /**
  * The step both plateau models take after their profiled search: judge the best
- * join against the limits and turn it into a status, a message and the
- * parameters. The linear-plateau and the quadratic-plateau differ only in their
- * curve (the inner regressor g(x0)) and in what the "no plateau" limit is
- * (the straight line, or the better of the straight line and the quadratic), so
- * the judging lives here once:
+ * join of the constrained domain (x0 in [lowest, highest rate]) and turn it into a
+ * status, a message and the parameters. The linear-plateau and the quadratic-plateau
+ * differ only in their curve (the inner regressor g(x0)), so the judging lives here once:
  * - best SSE not below the flat fit's: "no-response" (x0 kept at the highest rate)
- * - join at or past the highest rate, or SSE not below the limit's: "no-plateau"
+ * - join at the highest rate, or SSE not below the fit with the join there: "no-plateau"
+ *   (for the linear-plateau that fit is the straight line)
  * - join at or below the second-lowest rate: "full-response-at-lowest-rate"
  *   (check against the rest; x0 kept at the second-lowest rate)
  * - otherwise "ok"
@@ -29,8 +28,6 @@ export interface PlateauJudgement {
   /** SSE at a join point, kg/ha (leaves the inner fit in solver.last). */
   sseAt: (x0: number) => number;
   best: JoinSearchResult;
-  /** SSE of the "no plateau" limit the best join must beat. */
-  limitSse: number;
   /** The rest of the "no-plateau" sentence after its colon, given the highest rate as text. */
   noPlateauDetail: (highestRate: string) => string;
   rateFormat?: RateFormat;
@@ -55,7 +52,7 @@ export function plateauEstimate(j: PlateauJudgement): CurveEstimate {
     status = 'no-response';
     message = `Yield does not rise with rate: the best ${spec.label.toLowerCase()} is flat.`;
     x0 = rMax;
-  } else if (x0 >= rMax * (1 - 1e-9) || best.sse >= j.limitSse * (1 - TIE)) {
+  } else if (x0 >= rMax * (1 - 1e-9) || best.sse >= j.sseAt(rMax) * (1 - TIE)) {
     status = 'no-plateau';
     message = `No plateau within the tested rates: ${j.noPlateauDetail(rateText(format, rMax))}`;
     x0 = rMax;

@@ -49,15 +49,20 @@ export interface ResultsSite {
   n: number;
   interceptTest: { t: number; F: number; df1: number; df2: number; p: number } | null;
   /**
-   * Gains over the zero-rate plot of the same block fitted through the origin: slope and its
-   * interval in `settings.priceRatioUnit`, the intercept test on the gains, and whether a gain
-   * at rate zero is present; null when not available (no blocks, a block without a zero-rate
-   * plot, too few gains).
+   * Gains over the zero-rate plot of the same block, as contrasts of the rate means of the rate +
+   * block model (its error df): the slope through the origin and its interval in
+   * `settings.priceRatioUnit`, the test of a gain at rate zero (the intercept of a straight line
+   * through the mean gains), the test of a bend (null with two fertilized rates), what they read
+   * as (`from-zero`, `gain-at-zero`, `bends`) and `biasPresent` (a gain at rate zero the bend
+   * does not explain); null when not available (no blocks, a block without a zero-rate plot, too
+   * few rates).
    */
   responseOverCheck: {
     slope: number;
     slopeCI: [number, number];
     interceptTest: { t: number; F: number; df1: number; df2: number; p: number };
+    curvatureTest: { F: number; df1: number; df2: number; p: number } | null;
+    reading: 'from-zero' | 'gain-at-zero' | 'bends';
     biasPresent: boolean;
   } | null;
   lackOfFit: { model: ModelName; F: number; df1: number; df2: number; p: number } | null;
@@ -251,6 +256,15 @@ export function resultsJson(report: TrialReport): ResultsJson {
               df2: s.responseOverCheck.df2,
               p: clean(s.responseOverCheck.p),
             },
+            curvatureTest: s.responseOverCheck.curvature
+              ? {
+                  F: clean(s.responseOverCheck.curvature.F),
+                  df1: s.responseOverCheck.curvature.df1,
+                  df2: s.responseOverCheck.curvature.df2,
+                  p: clean(s.responseOverCheck.curvature.p),
+                }
+              : null,
+            reading: s.responseOverCheck.reading,
             biasPresent: s.responseOverCheck.biasPresent,
           }
         : null,

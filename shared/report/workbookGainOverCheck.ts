@@ -1,10 +1,11 @@
 /**
  * The "Gain over the check" table of a site sheet: the slope of the yield gains
  * over the zero-rate plot of the same block (line through the origin) with its
- * interval, and the intercept test on the gains, which says whether a gain at
- * rate zero (a bias) is present. The slope is written in the unit the trade
- * quotes the price ratio in (bu/lb N, kg/kg N), so the two can be read side by
- * side.
+ * interval, the test of a gain at rate zero and the test of a bend, all contrasts
+ * of the rate means tested with the rate + block model's error df
+ * (shared/analysis/siteResponseOverCheck), and what they read as. The slope is
+ * written in the unit the trade quotes the price ratio in (bu/lb N, kg/kg N), so
+ * the two can be read side by side.
  */
 import type ExcelJS from 'exceljs';
 import { priceRatioQuote } from '../economics/priceQuote';
@@ -17,6 +18,13 @@ import {
   titleRow,
   yieldFormat,
 } from './workbookFormat';
+
+/** What the gains read as, in the table's last column. */
+const READINGS = {
+  'from-zero': 'start from zero',
+  'gain-at-zero': 'do not start from zero',
+  bends: 'bend: a response that levels off',
+} as const;
 
 /**
  * Writes the table from row r down.
@@ -58,33 +66,39 @@ export function workbookGainOverCheck(
     `Gain at rate 0 (${yu})`,
     `SE (${yu})`,
     't',
-    'F',
+    'df',
+    'p',
+    'Bend F',
     'df1',
     'df2',
-    'p',
-    'Gain at rate 0 present',
+    'Bend p',
+    'Reading',
   ]);
   const row = ws.getRow(r++);
   const shown = [g.slopeKgPerKg, ...g.slopeCiKgPerKg].map((v) => slope(v).value);
+  const c = g.curvature;
   row.values = [
     ...shown,
     u.yield(g.gainAtZeroKgHa),
     u.yield(g.gainAtZeroSeKgHa),
     g.t,
-    g.F,
-    g.df1,
     g.df2,
     g.p,
-    g.biasPresent ? 'yes' : 'no',
+    c ? c.F : null,
+    c ? c.df1 : null,
+    c ? c.df2 : null,
+    c ? c.p : null,
+    READINGS[g.reading],
   ];
   const slopeFormat = magnitudeFormat(Math.max(...shown.map(Math.abs)));
-  for (const c of [1, 2, 3]) row.getCell(c).numFmt = slopeFormat;
+  for (const k of [1, 2, 3]) row.getCell(k).numFmt = slopeFormat;
   row.getCell(4).numFmt = yieldFormat(yu);
   row.getCell(5).numFmt = yieldFormat(yu);
   row.getCell(6).numFmt = '0.00';
-  row.getCell(7).numFmt = '0.00';
-  row.getCell(10).numFmt = P_VALUE_FORMAT;
+  row.getCell(8).numFmt = P_VALUE_FORMAT;
+  row.getCell(9).numFmt = '0.00';
+  row.getCell(12).numFmt = P_VALUE_FORMAT;
   ws.getCell(r++, 1).value =
-    `${g.gains} fertilized plots, each measured against the zero-rate plot of its own block.`;
+    `${g.gains} fertilized plots, each measured against the zero-rate plot of its own block; the slope, the gain at rate 0 and the bend are contrasts of the rate means, tested with the rate and block ANOVA's error mean square.`;
   return r;
 }

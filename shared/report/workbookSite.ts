@@ -1,7 +1,7 @@
 /**
  * One sheet per site: the plot data with exclusions and their reasons and the
  * cell each value came from, treatment means ± SE, the ANOVA, the model table,
- * the intercept test, the gain over the check and the chart. Tables run down
+ * the gain over the check, the intercept test on raw yields and the chart. Tables run down
  * column A so the sheet prints top to bottom; the chart sits to the right of
  * the plot data.
  */
@@ -199,7 +199,8 @@ export function workbookSite(
         const se = m.stdErrors[k];
         const seText =
           se !== undefined && Number.isFinite(se) ? ` ± ${fmt(u.param(m.model, k, se))}` : '';
-        return `${k} = ${fmt(d)}${seText}`;
+        // A parameter a fit at a limit leaves undetermined is blank (NaN): a dash, not "NaN".
+        return `${k} = ${Number.isFinite(d) ? fmt(d) : '–'}${seText}`;
       })
       .join('; ');
     row.values = [
@@ -256,14 +257,12 @@ export function workbookSite(
     ws.getCell(r++, 1).value = `Lack of fit: ${site.lackOfFit.message}`;
   }
 
-  // Intercept test.
+  // Gain over the check first: whether the response starts from zero.
+  r = workbookGainOverCheck(ws, r + 1, site, report, u, titles);
+
+  // The intercept test on the raw yields, explained in one sentence.
   r++;
-  titleRow(
-    ws,
-    r++,
-    'Is the intercept needed? (straight line against the line through the origin)',
-    titles,
-  );
+  titleRow(ws, r++, 'On the raw yields: straight line against the line through the origin', titles);
   if (site.interceptTest) {
     const t = site.interceptTest;
     headerRow(ws, r++, [`Intercept (${yu})`, `SE (${yu})`, 't', 'F', 'df1', 'df2', 'p', 'Verdict']);
@@ -283,12 +282,11 @@ export function workbookSite(
     row.getCell(3).numFmt = '0.00';
     row.getCell(4).numFmt = '0.00';
     row.getCell(7).numFmt = P_VALUE_FORMAT;
+    ws.getCell(r++, 1).value =
+      'This only asks whether the crop yields something without fertilizer; the gain over the check above says whether the response to it starts from zero.';
   } else {
     ws.getCell(r++, 1).value = 'Not tested: fewer than three plots or a single rate.';
   }
-
-  // Gain over the check.
-  r = workbookGainOverCheck(ws, r + 1, site, report, u, titles);
   if (site.warnings.length) {
     r++;
     titleRow(ws, r++, 'Warnings', titles);

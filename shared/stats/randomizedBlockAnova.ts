@@ -64,6 +64,12 @@ export interface RandomizedBlockResult {
   blockP: number;
   /** Treatment means (least-squares means when unbalanced), in order of first appearance. */
   treatmentMeans: TreatmentMean[];
+  /**
+   * Var(mean_i − mean_k) / σ² for every pair, in the order of treatmentMeans (2 / blocks when
+   * complete; from the least-squares fit's covariance otherwise): what a contrast of the means
+   * needs besides the error mean square.
+   */
+  unscaledDifferenceVariance: number[][];
   /** Mean of the observed plots. */
   grandMean: number;
   /** √MS_error. */
@@ -193,6 +199,9 @@ export function randomizedBlockAnova(input: RandomizedBlockInput): RandomizedBlo
     blockF,
     blockP: fisherFUpperP(blockF, b - 1, dfError),
     treatmentMeans,
+    unscaledDifferenceVariance: tr.levels.map((_, i) =>
+      tr.levels.map((__, k) => (i === k ? 0 : core.unscaledDifferenceVariance(i, k))),
+    ),
     grandMean,
     residualSd,
     cvPercent: grandMean === 0 ? null : (100 * residualSd) / grandMean,

@@ -14,7 +14,9 @@
  * Without blocks it is the one-way ANOVA (oneWayAnova; Snedecor & Cochran, §12.2).
  *
  * The rate effect is the extra-sum-of-squares F-test of y ~ block + rate against y ~ block, and
- * CV% = 100 · √(residual mean square) / mean yield.
+ * CV% = 100 · √(residual mean square) / mean yield. Every route also gives each rate's mean as a
+ * difference from the lowest rate's, with the covariance of those differences over the residual
+ * mean square, which is all a contrast of the rate means needs (shared/stats/rateContrast).
  *
  * A site the model cannot be fitted to is a result with a reason, never an exception:
  * - no plots, or a single rate (nothing to compare);
@@ -63,6 +65,8 @@ export interface RateBlockModel {
   meanKgHa: number;
   /** Rate means ± SE, by increasing rate. */
   rateMeans: RateMean[];
+  /** Each rate's mean less the lowest rate's, with their covariance (rateContrast reads these). */
+  differences: RateDifferences;
   /** The blocks line (unadjusted), null without blocks. */
   blocks: AnovaSource | null;
   blockF: number | null;
@@ -83,6 +87,19 @@ export interface RateBlockModel {
   missingPlots: { rateKgHa: number; block: string }[];
   /** Sentences about how the model was fitted (unbalanced data). */
   notes: string[];
+}
+
+/**
+ * The rate means as differences from the lowest rate's: block-adjusted (least-squares means when
+ * plots are missing, the rate effects of the least-squares fit when a rate repeats in a block).
+ */
+export interface RateDifferences {
+  /** The rates above the lowest, ascending, kg/ha. */
+  rateKgHa: number[];
+  /** Each one's mean less the lowest rate's mean, kg/ha. */
+  differenceKgHa: number[];
+  /** Cov(difference_j, difference_k) / σ², row-major; σ² is estimated by the residual mean square. */
+  unscaledCovariance: number[][];
 }
 
 /** Why the model could not be fitted to a site. */
@@ -160,6 +177,14 @@ function byRate(a: RateMean, b: RateMean): number {
 
 function fromOneWay(input: RateBlockInput): RateBlockModel {
   const a = oneWayAnova({ treatment: input.rateKgHa, y: input.yieldKgHa, alpha: input.alpha });
+  const sorted = [...a.treatments].sort((u, v) => Number(u.level) - Number(v.level));
+  // Independent means: Var(m_j − m_0) = σ²(1/n_j + 1/n_0), and any two share 1/n_0.
+  const [low, ...rest] = sorted;
+  const differences: RateDifferences = {
+    rateKgHa: rest.map((m) => Number(m.level)),
+    differenceKgHa: rest.map((m) => m.mean - low.mean),
+    unscaledCovariance: rest.map((m, j) => rest.map((_, k) => (j === k ? 1 / m.n : 0) + 1 / low.n)),
+  };
   return {
     design: 'oneWay',
     n: a.n,
@@ -169,6 +194,7 @@ function fromOneWay(input: RateBlockInput): RateBlockModel {
     rateMeans: a.treatments
       .map((m) => ({ rateKgHa: Number(m.level), n: m.n, meanKgHa: m.mean, seKgHa: m.se }))
       .sort(byRate),
+    differences,
     blocks: null,
     blockF: null,
     blockP: null,
@@ -191,6 +217,21 @@ function fromRcbd(input: RateBlockInput): RateBlockModel {
     y: input.yieldKgHa,
     alpha: input.alpha,
   });
+  // Level order of the ANOVA (first appearance) sorted by rate; v(i, k) = Var(m_i − m_k) / σ².
+  const order = a.treatmentMeans
+    .map((m, i) => ({ rate: Number(m.level), i }))
+    .sort((u, v) => u.rate - v.rate);
+  const v = (i: number, k: number) => a.unscaledDifferenceVariance[i][k];
+  const low = order[0].i;
+  const rest = order.slice(1);
+  const differences: RateDifferences = {
+    rateKgHa: rest.map((o) => o.rate),
+    differenceKgHa: rest.map((o) => a.treatmentMeans[o.i].mean - a.treatmentMeans[low].mean),
+    // Cov(m_j − m_0, m_k − m_0) = [v(0, j) + v(0, k) − v(j, k)] / 2.
+    unscaledCovariance: rest.map((oj) =>
+      rest.map((ok) => (v(low, oj.i) + v(low, ok.i) - v(oj.i, ok.i)) / 2),
+    ),
+  };
   return {
     design: 'rcbd',
     n: a.n,
@@ -200,6 +241,7 @@ function fromRcbd(input: RateBlockInput): RateBlockModel {
     rateMeans: a.treatmentMeans
       .map((m) => ({ rateKgHa: Number(m.level), n: m.n, meanKgHa: m.mean, seKgHa: m.se }))
       .sort(byRate),
+    differences,
     blocks: a.blocks,
     blockF: a.blockF,
     blockP: a.blockP,
@@ -271,6 +313,16 @@ function additiveBlocks(input: RateBlockInput): RateBlockModel {
     }
     return { rateKgHa: rate, n: count, meanKgHa: sum / count, seKgHa: Math.sqrt(msError / count) };
   });
+  // The fit's rate coefficients are the differences from the lowest rate (columns 1 … t − 1
+  // after the intercept), adjusted for blocks.
+  const rateColumns = rateLevels.slice(1).map((_, j) => j + 1);
+  const differences: RateDifferences = {
+    rateKgHa: rateLevels.slice(1),
+    differenceKgHa: rateColumns.map((c) => full.coefficients[c].estimate),
+    unscaledCovariance: rateColumns.map((c) =>
+      rateColumns.map((d) => full.covariance[c][d] / msError),
+    ),
+  };
   return {
     design: 'rcbd',
     n,
@@ -278,6 +330,7 @@ function additiveBlocks(input: RateBlockInput): RateBlockModel {
     blockCount: b,
     meanKgHa,
     rateMeans,
+    differences,
     blocks: { df: b - 1, ss: ssBlocks, ms: ssBlocks / (b - 1) },
     blockF,
     blockP: fisherFUpperP(blockF, b - 1, full.dfResidual),

@@ -1,8 +1,9 @@
 /**
  * The one-site step's sentence on the gain over the check: the slope of the
- * gains over each block's zero-rate plot (shared/sites siteResponseOverCheck)
+ * gains over each block's zero-rate plot (shared/analysis/siteResponseOverCheck)
  * in the unit the price ratio is shown in (bu/lb N, kg/kg N), so a reader can
- * hold the two side by side, and whether a gain at rate zero is present. The
+ * hold the two side by side, then what the gains say: they bend (a response that
+ * levels off), they do not start from zero, or they start from zero. The
  * numbers all come from the pipeline; this only words and formats them.
  */
 import type { ResponseOverCheckOutcome } from '../../../shared/analysis/siteResponseOverCheck';
@@ -27,13 +28,15 @@ function pText(p: number, locale?: string): string {
 }
 
 /**
- * The sentence, in display units.
+ * The sentence, in display units: the response through the origin first, then what the gains
+ * say at rate zero and about their shape, in plain words.
  * @param g - the site's response over the check (kg grain per kg N, kg/ha)
  * @param system - 'us' (bu/lb N, bu/ac) or 'metric' (kg/kg N, t/ha)
  * @param crop - the crop, for the bushel weight
  * @param locale - a BCP 47 tag
- * @returns one sentence, e.g. "Gain over each block's check: 0.467 bu/lb N (95 % interval 0.377
- *   to 0.557), and a gain of 42.3 bu/ac at rate zero is present (t = 4.33, p < 0.001), …"
+ * @returns one or two sentences, e.g. "Gain over each block's check: 0.213 bu/lb N (95 %
+ *   interval 0.196 to 0.230). The gains bend (F = 9.12, p < 0.001): a response that levels off,
+ *   so a curve describes it better than this straight line."
  * @example
  * gainOverCheckSentence(site.responseOverCheck, 'metric', 'corn', 'en-US')
  */
@@ -51,12 +54,24 @@ export function gainOverCheckSentence(
   const s = (kgPerKg: number) => formatNumber(slope(kgPerKg).value, decimals, locale);
   const [low, high] = g.slopeCiKgPerKg;
   const level = formatNumber(g.confidenceLevel * 100, 0, locale);
-  const stats = `t = ${formatNumber(g.t, 2, locale)}, p ${pText(g.p, locale)}`;
-  const head = `Gain over each block’s check: ${s(g.slopeKgPerKg)} ${unit} (${level} % interval ${s(low)} to ${s(high)})`;
-  if (!g.biasPresent) {
-    return `${head}, and no gain at rate zero is evident (${stats}): the gains start from zero.`;
-  }
+  const head = `Gain over each block’s check: ${s(g.slopeKgPerKg)} ${unit} (${level} % interval ${s(low)} to ${s(high)}).`;
   const atZero = formatYield(g.gainAtZeroKgHa, displayUnits(system).yield, crop, locale);
-  // A straight line through gains that level off also meets the axis above zero, so say both.
-  return `${head}, and a gain of ${atZero} at rate zero is present (${stats}): a bias at the check plots, or a response that levels off.`;
+  const tStats = `t = ${formatNumber(g.t, 2, locale)}, p ${pText(g.p, locale)}`;
+  switch (g.reading) {
+    case 'bends': {
+      const c = g.curvature!;
+      return `${head} The gains bend (F = ${formatNumber(c.F, 2, locale)}, p ${pText(c.p, locale)}): a response that levels off, so a curve describes it better than this straight line.`;
+    }
+    case 'gain-at-zero':
+      // Straight gains that meet the axis above zero: the check plots sit low against the
+      // fertilized ones, or a bend the test is too weak to see (most of the response by the
+      // lowest rate); below zero: the checks sit high, or the response starts slowly.
+      return `${head} The gains do not start from zero: ${atZero} at rate zero (${tStats}), with no clear bend: ${
+        g.gainAtZeroKgHa > 0
+          ? 'the check plots yielded low, or most of the response came by the lowest rate.'
+          : 'the check plots yielded high, or the response starts slowly.'
+      }`;
+    case 'from-zero':
+      return `${head} The gains start from zero (${tStats}) and follow a straight line.`;
+  }
 }

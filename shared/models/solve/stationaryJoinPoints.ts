@@ -23,7 +23,11 @@
  * power sums near 1 in size; for the quadratic-plateau every term of Σ n (s − d)^k
  * is then ≥ 0, so those sums have no cancellation.
  *
- * Only for sites fitted on group sums (design "groups" or "balanced-blocks").
+ * Sites fitted on group sums (design "groups" or "balanced-blocks") use the per-rate
+ * sums above. The full design (blocks with unequal mixes of rates) has the same form
+ * with the flat fit's columns (intercept and blocks) projected out: their span is the
+ * block indicators, so the projection centers g and y within each block, and M and V are
+ * plot-level sums of block-centered g's polynomial coefficients (fullDesignJoins).
  */
 import { polynomialRoots } from '../../optimize/polynomialRoots';
 import type { PreparedSite } from '../prepareSite';
@@ -33,7 +37,7 @@ export type StationaryJoinPoints = (interval: number, out: Float64Array) => numb
 
 /**
  * The candidate-join finder of a plateau model on a prepared site.
- * @param site - from prepareSite, design "groups" or "balanced-blocks"
+ * @param site - from prepareSite, any design
  * @param degree - degree of the rising piece: 1 linear-plateau, 2 quadratic-plateau
  * @returns a function of the interval index j that writes at most 4 joins (kg/ha) in (r_j, r_{j+1})
  * @example
@@ -41,6 +45,7 @@ export type StationaryJoinPoints = (interval: number, out: Float64Array) => numb
  * stationaryJoinPoints(site, 1)(2, out) // 0 or 1 join between the third and fourth rates
  */
 export function stationaryJoinPoints(site: PreparedSite, degree: 1 | 2): StationaryJoinPoints {
+  if (site.design === 'full') return fullDesignJoins(site, degree);
   const { counts, means } = site;
   const m = counts.length;
   let w = 0;
@@ -159,6 +164,73 @@ function quadraticJoins(
     p[3] = dm0 * v[3] + dm1 * v[2] - 4 * mc0 * v[4] - 3 * mc1 * v[3] - 2 * mc2 * v[2];
     p[4] = dm0 * v[4] + dm1 * v[3] - 4 * mc1 * v[4] - 3 * mc2 * v[3];
     const count = polynomialRoots(p, 4, 0, 1, roots);
+    for (let k = 0; k < count; k++) out[k] = rates[j] + h * roots[k];
+    return count;
+  };
+}
+
+/**
+ * Any design, from plot-level sums. Within interval j, with x0 = r_j + h s, each plot's
+ * regressor is a polynomial in s, g_i(s) = Σ_k a_ik s^k (d_i = (r_i − r_j) / h):
+ * linear-plateau a_i = (d_i, 0) left of the join and (0, 1) right of it; quadratic-plateau
+ * (d_i², −2 d_i, 1) left and 0 right. Centering the a_k and y within blocks (ã_k, ỹ) gives
+ * M(s) = Σ_k s^k Σ_i ã_ik ỹ_i and V(s) = Σ_{k,l} s^(k+l) Σ_i ã_ik ã_il, and P as above.
+ */
+function fullDesignJoins(site: PreparedSite, degree: 1 | 2): StationaryJoinPoints {
+  const { n, y, rates, groupOf, blockOf } = site;
+  const nb = Math.max(site.blockLabels.length, 1);
+  const size = new Float64Array(nb);
+  const ySum = new Float64Array(nb);
+  for (let i = 0; i < n; i++) {
+    size[blockOf[i]]++;
+    ySum[blockOf[i]] += y[i];
+  }
+  const yc = new Float64Array(n);
+  for (let i = 0; i < n; i++) yc[i] = y[i] - ySum[blockOf[i]] / size[blockOf[i]];
+  const terms = degree + 1;
+  const a = new Float64Array(terms * n);
+  const aSum = new Float64Array(terms * nb);
+  const mc = new Float64Array(terms);
+  const vc = new Float64Array(2 * degree + 1);
+  const pc = new Float64Array(3 * degree);
+  return (j, out) => {
+    const h = rates[j + 1] - rates[j];
+    aSum.fill(0);
+    for (let i = 0; i < n; i++) {
+      const left = groupOf[i] <= j;
+      const d = (rates[groupOf[i]] - rates[j]) / h;
+      if (degree === 1) {
+        a[i] = left ? d : 0;
+        a[n + i] = left ? 0 : 1;
+      } else {
+        a[i] = left ? d * d : 0;
+        a[n + i] = left ? -2 * d : 0;
+        a[2 * n + i] = left ? 1 : 0;
+      }
+      for (let k = 0; k < terms; k++) aSum[k * nb + blockOf[i]] += a[k * n + i];
+    }
+    for (let k = 0; k < terms; k++) {
+      for (let i = 0; i < n; i++) a[k * n + i] -= aSum[k * nb + blockOf[i]] / size[blockOf[i]];
+    }
+    mc.fill(0);
+    vc.fill(0);
+    for (let k = 0; k < terms; k++) {
+      for (let i = 0; i < n; i++) mc[k] += a[k * n + i] * yc[i];
+      for (let l = k; l < terms; l++) {
+        let s = 0;
+        for (let i = 0; i < n; i++) s += a[k * n + i] * a[l * n + i];
+        vc[k + l] += k === l ? s : 2 * s;
+      }
+    }
+    // P = 2 M' V − M V', degree 3·degree − 1; its top coefficient cancels and is left out.
+    pc.fill(0);
+    for (let k = 1; k < terms; k++) {
+      for (let q = 0; q < vc.length; q++) pc[k - 1 + q] += 2 * k * mc[k] * vc[q];
+    }
+    for (let k = 0; k < terms; k++) {
+      for (let q = 1; q < vc.length; q++) pc[k + q - 1] -= q * mc[k] * vc[q];
+    }
+    const count = polynomialRoots(pc, 3 * degree - 2, 0, 1, roots);
     for (let k = 0; k < count; k++) out[k] = rates[j] + h * roots[k];
     return count;
   };
