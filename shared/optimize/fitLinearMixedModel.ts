@@ -63,8 +63,11 @@ export function fitLinearMixedModel(
   const size = thetaLength(data.q, structure);
   const initial =
     start !== undefined && start.length === size ? [...start] : identityTheta(data.q, structure);
-  const search = nelderMead((theta) => profiledDeviance(data, theta, structure, kind), initial, {
-    functionTolerance: 1e-9,
+  const deviance = (theta: number[]) => profiledDeviance(data, theta, structure, kind);
+  // The deviance grows with n; its rounding does too, so the tolerance is relative to it.
+  const scale = Math.max(1, Math.abs(deviance(initial)));
+  const search = nelderMead(deviance, initial, {
+    functionTolerance: 1e-12 * scale,
     pointTolerance: 1e-5,
   });
   const estimates = mixedModelEstimates(data, search.x, structure, kind);
