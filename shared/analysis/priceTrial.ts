@@ -11,7 +11,8 @@ import { economicOptimum, type EconomicOptimum } from '../economics/economicOpti
 import { optimumAcrossModels, type OptimumComparison } from '../economics/optimumAcrossModels';
 import { optimumInterval, type OptimumInterval } from '../economics/optimumInterval';
 import { optimumProfileInterval, type OptimumProfileInterval } from '../economics/optimumProfile';
-import { assertPrices, type Prices } from '../economics/priceRatio';
+import { assertPrices, priceRatio, type Prices } from '../economics/priceRatio';
+import { mixedModelOptimum, type MixedModelOptimum } from '../economics/mixedModelOptimum';
 import { curveValue } from '../models/curveValue';
 import type { ModelName } from '../models/modelTypes';
 import type { AcrossSiteAnalysis } from './acrossSites';
@@ -71,6 +72,11 @@ export interface PricedTrial {
   across: AcrossSiteAnalysis;
   /** One entry per site, in the analysis' order. */
   sites: PricedSite[];
+  /**
+   * The regional mixed model's optimum at these prices with its delta-method interval at the
+   * analysis' level (mixedModelOptimum, closed form, no refit); null without a mixed model.
+   */
+  mixedOptimum: MixedModelOptimum | null;
 }
 
 /** The leading model of one site, the reason to print beside it and its basis (siteDecision). */
@@ -235,5 +241,9 @@ export function priceTrial(
     choices: { ...choices },
     across,
     sites: across.sites.map((s) => priceSite(s, prices, choices, intervalLevel, band)),
+    mixedOptimum:
+      across.mixed.model === null
+        ? null
+        : mixedModelOptimum(across.mixed, priceRatio(prices), intervalLevel),
   };
 }

@@ -14,6 +14,7 @@ import type { SiteModelRow } from '../analysis/siteModelRows';
 import type { SitePlots } from '../analysis/sitePlots';
 import type { MappingEntry } from '../import/mappingEntries';
 import type { OptimumProfileInterval } from '../economics/optimumProfile';
+import type { MixedModelOptimum } from '../economics/mixedModelOptimum';
 import type { RateProfileInterval } from '../models/joinProfile';
 import type { ModelName } from '../models/modelTypes';
 import { describeRef, type QualityFinding } from '../table/qualityFinding';
@@ -25,6 +26,7 @@ import type { DisplaySettings } from './reportSettings';
 import { isBlockLabel } from '../stats/hasBlocks';
 import type {
   AcrossSitesReport,
+  MixedModelReport,
   InterceptSummary,
   LackOfFitSummary,
   ModelRow,
@@ -206,7 +208,7 @@ export function assembleReport(
     sources: table.sources,
     mapping: meta.mapping,
     sites,
-    acrossSites: acrossSitesOf(priced.across),
+    acrossSites: acrossSitesOf(priced.across, priced.mixedOptimum),
     warnings: runWarnings,
   };
 }
@@ -340,7 +342,10 @@ function siteReport(
  * site's recommendation model) and its quadratic pooling tests, with notes in
  * words only (the analysis' grid note speaks kg/ha).
  */
-function acrossSitesOf(analysis: AcrossSiteAnalysis): AcrossSitesReport | null {
+function acrossSitesOf(
+  analysis: AcrossSiteAnalysis,
+  mixedOptimum: MixedModelOptimum | null,
+): AcrossSitesReport | null {
   const { regional, sitesUsed, sitesLeftOut } = analysis.regional;
   if (sitesUsed.length < 2) return null;
   const bySite = new Map(analysis.sites.map((s) => [s.site, s]));
@@ -395,5 +400,16 @@ function acrossSitesOf(analysis: AcrossSiteAnalysis): AcrossSitesReport | null {
     })),
     tests,
     notes,
+    mixed: mixedModelReport(analysis.mixed, mixedOptimum),
   };
+}
+
+/** The mixed model's part: the fit without its site curves, the curves, the priced optimum. */
+function mixedModelReport(
+  mixed: AcrossSiteAnalysis['mixed'],
+  optimum: MixedModelOptimum | null,
+): MixedModelReport | null {
+  if (mixed.model === null || optimum === null) return null;
+  const { siteCurves, ...fit } = mixed;
+  return { fit, siteCurves, optimum };
 }
