@@ -10,6 +10,7 @@ import { reportGrowerPages } from './reportGrowerPages';
 import type { TrialReport } from './trialReport';
 import { unitScale } from './unitScale';
 import { workbookAcrossSites } from './workbookAcrossSites';
+import { workbookRegionalModel } from './workbookRegionalModel';
 import { workbookEconomics } from './workbookEconomics';
 import { sheetName } from './workbookFormat';
 import { workbookGrowerSheet } from './workbookGrowerSheet';
@@ -49,7 +50,14 @@ export async function writeWorkbook(
   wb.modified = when;
   const u = unitScale(report.settings.units, report.crop);
   const paper = report.settings.paper ?? paperSize(report.settings.units);
-  const taken = new Set(['overview', 'across sites', 'economics', 'recommendations', 'provenance']);
+  const taken = new Set([
+    'overview',
+    'across sites',
+    'regional model',
+    'economics',
+    'recommendations',
+    'provenance',
+  ]);
   workbookOverview(wb, report, u, paper);
   for (const s of report.sites) {
     workbookSite(
@@ -63,6 +71,7 @@ export async function writeWorkbook(
     );
   }
   workbookAcrossSites(wb, report, u, paper, options.acrossChart ?? null);
+  workbookRegionalModel(wb, report, u, paper);
   workbookEconomics(wb, report, paper);
   workbookGrowerSheet(wb, reportGrowerPages(report), paper);
   workbookProvenance(wb, report, paper);
