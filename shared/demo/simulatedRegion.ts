@@ -12,6 +12,7 @@
  * The true regional optimum is that of the population curve: (PR − b)/(2c), capped to
  * [0, 200] kg/ha.
  */
+import type { Plot, PlotTable } from '../table/plotTable';
 import { mulberry32 } from './mulberry32';
 import { SIMULATED_BLOCKS, SIMULATED_RATES_KG_HA } from './simulatedSite';
 
@@ -64,4 +65,34 @@ export function simulatedRegion(siteYears: number, seed: number): SimulatedSiteY
     sites.push(site);
   }
   return sites;
+}
+
+/**
+ * A simulated region as a plot table (canonical kg/ha, corn), for the public analysis API.
+ * @param siteYears - how many site-years
+ * @param seed - any 32-bit integer; the same as simulatedRegion's
+ * @returns the table of simulatedRegion(siteYears, seed)'s plots
+ * @example
+ * simulatedRegionTable(12, 1).plots.length // 288
+ */
+export function simulatedRegionTable(siteYears: number, seed: number): PlotTable {
+  const plots: Plot[] = simulatedRegion(siteYears, seed).flatMap((s) =>
+    s.rateKgHa.map((rateKgHa, i) => ({
+      id: `region|${s.site}|${i + 1}`,
+      site: s.site,
+      year: 2025,
+      block: s.block[i],
+      plotLabel: String(i + 1),
+      treatment: null,
+      rateKgHa,
+      yieldKgHa: s.yieldKgHa[i],
+      moisturePct: null,
+      testWeight: null,
+      notes: null,
+      groups: {},
+      excluded: null,
+      original: {},
+    })),
+  );
+  return { crop: 'corn', standardMoisturePct: 15.5, plots, sources: [] };
 }
