@@ -235,6 +235,7 @@ describe('plotrate analyze: a run with every output', () => {
       'Site 0002',
       'Site 0003',
       'Across sites',
+      'Regional model',
       'Economics',
       'Recommendations',
       'Provenance',
