@@ -242,6 +242,7 @@ describe('plotrate analyze: a run with every output', () => {
       'Site 0002',
       'Site 0003',
       'Across sites',
+      'Regional model',
       'Economics',
       'Price ratio and risk',
       'Recommendations',

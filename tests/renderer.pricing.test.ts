@@ -5,6 +5,8 @@ import { analyzeAcrossSites } from '../shared/analysis/analyzeAcrossSites';
 import { sitePlots } from '../shared/analysis/sitePlots';
 import { analyzeTable, poolingTests, siteViews } from '../renderer/src/analysis/siteAnalysis';
 import { modelOptima, regionalOf, siteLeads, siteOptima } from '../renderer/src/analysis/pricing';
+import { regionalModelText } from '../renderer/src/analysis/regionalModelText';
+import { formatRate } from '../renderer/src/lib/format';
 import { analysisSettings } from '../shared/analysis/analysisSettings';
 import { priceTrial } from '../shared/analysis/priceTrial';
 import { reportOf } from './report.pipeline';
@@ -81,6 +83,14 @@ describe('renderer analysis and re-pricing', () => {
       groupKeys: [],
     });
     expect(rd.bestRateKgHa).toBe(fresh.regional.regional.bestRateKgHa);
+    // The regional mixed model's optimum follows the price in closed form from the same fit.
+    const mc = priceTrial(out, cheap, {});
+    const md = priceTrial(out, dear, {});
+    expect(md.across.mixed).toBe(mc.across.mixed);
+    expect(md.mixedOptimum!.rateKgHa).toBeLessThan(mc.mixedOptimum!.rateKgHa);
+    const text = regionalModelText(md, 'lb/ac', 'en-US')!;
+    expect(text).toContain('Across 4 site-years, the regional model');
+    expect(text).toContain(formatRate(md.mixedOptimum!.rateKgHa, 'lb/ac', 'en-US'));
   });
 
   it('the site optimum is the closed-form optimum of its leading fit at the same prices', async () => {

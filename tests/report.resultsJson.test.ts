@@ -2,6 +2,7 @@
 // format"), its numbers are in the units it names, and the same seed gives the
 // same file. Unit factors from the exact pound and acre (NIST SP 811) and the
 // 56 lb corn bushel (USDA).
+import { readFileSync } from 'node:fs';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { resultsJson, type ResultsJson } from '../shared/report/resultsJson';
 import type { TrialReport } from '../shared/report/trialReport';
@@ -260,6 +261,48 @@ describe('resultsJson', () => {
     expect(region.rows.filter((r) => r.recommended).map((r) => r.rate)).toEqual([
       json.acrossSites!.bestRate,
     ]);
+  });
+
+  it('carries the regional mixed model in the file’s units, with R’s fixed effects', () => {
+    // R 4.2.2, nlme::lme on the demo's corn sites (tests/fixtures/mixed/mixedModelFits.R, REML,
+    // Psi unstructured; this report is run without block terms, so without blocks), in kg/ha; the file is in
+    // lb/ac and bu/ac: a / (K·56), b / 56, c·K / 56 with K kg/ha per lb/ac (56 lb bushel).
+    const reference = JSON.parse(
+      readFileSync(new URL('./fixtures/mixed/mixedModelFits.json', import.meta.url), 'utf8'),
+    ) as Record<string, { method: string; structure: string; blocks: boolean; fixed: number[] }[]>;
+    const r = reference['demo-corn'].find(
+      (f) => f.method === 'REML' && f.structure === 'unstructured' && !f.blocks,
+    )!;
+    const mixed = json.acrossSites!.mixed!;
+    expect(Object.keys(mixed).sort()).toEqual([
+      'aic',
+      'blockOffsets',
+      'fixed',
+      'level',
+      'method',
+      'model',
+      'optimumCI',
+      'optimumRate',
+      'siteYears',
+      'stdErrors',
+      'structure',
+      'variance',
+    ]);
+    expect(mixed.siteYears).toBe(6);
+    expect(mixed.blockOffsets).toBe(false);
+    const expected = [
+      r.fixed[0] / (KG_HA_PER_LB_AC * 56),
+      r.fixed[1] / 56,
+      (r.fixed[2] * KG_HA_PER_LB_AC) / 56,
+    ];
+    [mixed.fixed.a, mixed.fixed.b, mixed.fixed.c].forEach((v, i) =>
+      expect(Math.abs(v / expected[i] - 1)).toBeLessThan(1e-4),
+    );
+    expect(mixed.level).toBe(json.sites[0].recommendation.level);
+    if (mixed.optimumCI) {
+      expect(mixed.optimumCI[0]).toBeLessThanOrEqual(mixed.optimumRate);
+      expect(mixed.optimumCI[1]).toBeGreaterThanOrEqual(mixed.optimumRate);
+    }
   });
 
   it('gives the same file for the same seed', async () => {

@@ -78,6 +78,7 @@ describe('writeWorkbook read back by SheetJS', () => {
       'Overview',
       ...corn.map((n) => sheetName(n, taken)),
       'Across sites',
+      'Regional model',
       'Economics',
       'Price ratio and risk',
       'Recommendations',
@@ -103,6 +104,18 @@ describe('writeWorkbook read back by SheetJS', () => {
       expect(cell(ws, risk + 1 + i, 1)?.v as number).toBeCloseTo(row.share, 9);
       expect(cell(ws, risk + 1 + i, 2)?.v ?? '').toBe(row.recommended ? 'regional rate' : '');
     });
+  });
+
+  it('shows the regional model with the same figures as the results file, and the cautions', () => {
+    const ws = XLSX.read(usBytes).Sheets['Regional model'];
+    const text = XLSX.utils.sheet_to_csv(ws);
+    for (const c of recommendationCautions) expect(text).toContain(c);
+    expect(String(cell(ws, 1, 0)!.v)).toMatch(/^Across 6 site-years, the regional model/);
+    const mixed = usJson.acrossSites!.mixed!;
+    expect(cell(ws, 3, 1)!.v).toBeCloseTo(mixed.optimumRate, 9);
+    const b = findRow(ws, 'b');
+    expect(cell(ws, b, 1)!.v).toBeCloseTo(mixed.fixed.b, 9);
+    expect(cell(ws, b, 2)!.v).toBeCloseTo(mixed.stdErrors.b, 9);
   });
 
   it('puts every caution on the overview', () => {

@@ -4,11 +4,13 @@
 // prints, per truth, the interval's coverage (and, for the plateau truths, the coverage of the
 // join's profile interval), the recommended rate's bias and RMSE, the edge
 // cases' shares, the gain-over-check test's rejection rate and the share that responded; then
-// the regional rate's bias over simulated regions; each goal beside its figure. Writes the
-// figures to test-output/validate.json. Measures only: it never fails on a missed goal.
+// the regional rate's bias over simulated regions; the regional mixed model's interval coverage
+// over simulated quadratic regions (shared/demo/simulatedRegion); each goal beside its figure.
+// Writes the figures to test-output/validate.json. Measures only: it never fails on a missed goal.
 //
 // Sizes: PLOTRATE_VALIDATE_SITES (sites per truth, default 400) or --sites N;
-// PLOTRATE_VALIDATE_REGIONS (default 50) or --regions N; PLOTRATE_VALIDATE_SEED (default 20260301).
+// PLOTRATE_VALIDATE_REGIONS (default 50) or --regions N; PLOTRATE_VALIDATE_MIXED_REGIONS
+// (default 200) or --mixed-regions N; PLOTRATE_VALIDATE_SEED (default 20260301).
 import { mkdirSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -20,7 +22,9 @@ import {
 import { ANALYSIS_DEFAULTS } from '../../shared/analysis/analysisSettings';
 import { illustrativePrices } from '../../shared/economics/illustrativePrices';
 import { SECOND_LOWEST_RATE_KG_HA, type Share } from './decisionFigures';
+import { mixedModelRegions } from './mixedModelRegions';
 import { runValidation } from './runValidation';
+import { GOALS } from './validationGoals';
 
 function setting(flag: string, env: string, fallback: number): number {
   const at = process.argv.indexOf(flag);
@@ -35,6 +39,7 @@ function setting(flag: string, env: string, fallback: number): number {
 const sitesPerTruth = setting('--sites', 'PLOTRATE_VALIDATE_SITES', 400);
 const regions = setting('--regions', 'PLOTRATE_VALIDATE_REGIONS', 50);
 const sitesPerRegion = 12;
+const mixedRegions = setting('--mixed-regions', 'PLOTRATE_VALIDATE_MIXED_REGIONS', 200);
 const seed = setting('--seed', 'PLOTRATE_VALIDATE_SEED', 20260301);
 const prices = illustrativePrices('corn').canonical;
 
@@ -55,6 +60,14 @@ const v = runValidation({
   prices,
   onProgress: (m) =>
     console.log(`  done: ${m} (${((performance.now() - started) / 1000).toFixed(1)} s)`),
+});
+const mixed = mixedModelRegions(mixedRegions, sitesPerRegion, seed + 5000, prices);
+v.goals.push({
+  figure: `coverage of the regional mixed model's ${Math.round(mixed.intervalLevel * 100)} % interval`,
+  on: 'quadratic regions',
+  value: mixed.coverage.share,
+  goal: `${GOALS.coverage.low}–${GOALS.coverage.high}`,
+  met: mixed.coverage.share >= GOALS.coverage.low && mixed.coverage.share <= GOALS.coverage.high,
 });
 const elapsedS = (performance.now() - started) / 1000;
 
@@ -108,6 +121,14 @@ console.log(
   `regional rate mean ${r.meanRegionalRateKgHa.toFixed(1)} kg/ha against the true regional optimum mean ${r.meanTrueOptimumKgHa.toFixed(1)}; ` +
     `bias ${r.meanBiasKgHa.toFixed(1)}, RMSE ${r.rmseKgHa.toFixed(1)} kg/ha`,
 );
+console.log(
+  `\n### regional mixed model: ${mixed.regions} regions of ${mixed.siteYearsPerRegion} site-years, population quadratic (shared/demo/simulatedRegion)`,
+);
+console.log(
+  `true regional optimum ${mixed.trueOptimumKgHa.toFixed(1)} kg/ha; coverage of the ${mixed.intervalLevel * 100} % interval ` +
+    `${(100 * mixed.coverage.share).toFixed(1)} % (SE ${(100 * mixed.coverage.se).toFixed(1)}); bias ${mixed.meanBiasKgHa.toFixed(1)}, ` +
+    `RMSE ${mixed.rmseKgHa.toFixed(1)} kg/ha; mean interval width ${mixed.meanIntervalWidthKgHa.toFixed(1)} kg/ha`,
+);
 console.log('\n### goals');
 for (const g of v.goals) {
   const value =
@@ -128,6 +149,7 @@ writeFileSync(
         sitesPerTruth,
         regions,
         sitesPerRegion,
+        mixedRegions,
         seed,
         ratesKgHa: SIMULATED_RATES_KG_HA,
         blocks: SIMULATED_BLOCKS,
@@ -139,6 +161,7 @@ writeFileSync(
       truths: v.truths,
       gainNulls: v.gainNulls,
       regions: v.regions,
+      mixedModel: mixed,
       goals: v.goals,
       elapsedSeconds: Math.round(elapsedS * 10) / 10,
     },

@@ -5,8 +5,10 @@
  */
 import type { SiteAnalysis } from './analyzeSite';
 import { groupAnalysis, type GroupAnalysis } from './groupAnalysis';
+import { mixedModelAcrossSites } from './mixedModelAcrossSites';
 import type { AcrossSitePlan, AcrossSiteSettings } from './planAcrossSites';
 import { regionalAnalysis, type RegionalAnalysis } from './regionalAnalysis';
+import type { NoRegionalMixedModel, RegionalMixedModel } from './regionalMixedModel';
 import { responseShare, type ResponseShare } from './responseShare';
 import { sharedResponse, type SharedResponseTests } from './sharedResponse';
 import { siteModelRows, type SiteModelRow } from './siteModelRows';
@@ -21,6 +23,8 @@ export interface AcrossSiteAnalysis {
   rows: SiteModelRow[];
   sharedResponse: SharedResponseTests;
   regional: RegionalAnalysis;
+  /** The regional quadratic as a mixed model over the site-years (price-free), or why there is none. */
+  mixed: RegionalMixedModel | NoRegionalMixedModel;
   response: ResponseShare;
   groups: GroupAnalysis[];
 }
@@ -62,6 +66,7 @@ export function acrossSites(
     groupKeysSkipped,
     rows: sites.flatMap((s) => siteModelRows(s, o.prices)),
     ...whole,
+    mixed: mixedModelAcrossSites(checked, sites),
     groups: o.groupKeys.map((k) => groupAnalysis(k, checked, analyses, o, whole)),
   };
 }

@@ -16,11 +16,12 @@ import {
 import { optimumAcrossModels, type OptimumComparison } from '../economics/optimumAcrossModels';
 import { optimumInterval, type OptimumInterval } from '../economics/optimumInterval';
 import { optimumProfileInterval, type OptimumProfileInterval } from '../economics/optimumProfile';
-import { assertPrices, type Prices } from '../economics/priceRatio';
+import { assertPrices, priceRatio, type Prices } from '../economics/priceRatio';
 import { priceRatioSensitivity, type RatioMultiple } from '../economics/priceRatioSensitivity';
 import { shortfallRisk } from '../economics/shortfallRisk';
 import { candidateRates, toleranceInForce, type ShortfallRisk } from '../economics/shortfallRule';
 import type { IntervalBasis } from '../economics/drawChoices';
+import { mixedModelOptimum, type MixedModelOptimum } from '../economics/mixedModelOptimum';
 import { curveValue } from '../models/curveValue';
 import type { ModelName } from '../models/modelTypes';
 import type { AcrossSiteAnalysis } from './acrossSites';
@@ -109,6 +110,11 @@ export interface PricedTrial {
   across: AcrossSiteAnalysis;
   /** One entry per site, in the analysis' order. */
   sites: PricedSite[];
+  /**
+   * The regional mixed model's optimum at these prices with its delta-method interval at the
+   * analysis' level (mixedModelOptimum, closed form, no refit); null without a mixed model.
+   */
+  mixedOptimum: MixedModelOptimum | null;
 }
 
 /** The leading model of one site, the reason to print beside it and its basis (siteDecision). */
@@ -310,5 +316,9 @@ export function priceTrial(
     choices: { ...choices },
     across,
     sites: across.sites.map((s) => priceSite(s, prices, choices, intervalLevel, band, tolerance)),
+    mixedOptimum:
+      across.mixed.model === null
+        ? null
+        : mixedModelOptimum(across.mixed, priceRatio(prices), intervalLevel),
   };
 }

@@ -17,6 +17,7 @@ import type { SiteModelRow } from '../analysis/siteModelRows';
 import type { SitePlots } from '../analysis/sitePlots';
 import type { MappingEntry } from '../import/mappingEntries';
 import type { OptimumProfileInterval } from '../economics/optimumProfile';
+import type { MixedModelOptimum } from '../economics/mixedModelOptimum';
 import type { RateProfileInterval } from '../models/joinProfile';
 import type { ModelName } from '../models/modelTypes';
 import { describeRef, type QualityFinding } from '../table/qualityFinding';
@@ -28,6 +29,7 @@ import type { DisplaySettings } from './reportSettings';
 import { isBlockLabel } from '../stats/hasBlocks';
 import type {
   AcrossSitesReport,
+  MixedModelReport,
   InterceptSummary,
   LackOfFitSummary,
   ModelRow,
@@ -212,7 +214,7 @@ export function assembleReport(
     sources: table.sources,
     mapping: meta.mapping,
     sites,
-    acrossSites: acrossSitesOf(priced.across),
+    acrossSites: acrossSitesOf(priced.across, priced.mixedOptimum),
     warnings: runWarnings,
   };
 }
@@ -377,7 +379,10 @@ function siteReport(
  * site's recommendation model) and its quadratic pooling tests, with notes in
  * words only (the analysis' grid note speaks kg/ha).
  */
-function acrossSitesOf(analysis: AcrossSiteAnalysis): AcrossSitesReport | null {
+function acrossSitesOf(
+  analysis: AcrossSiteAnalysis,
+  mixedOptimum: MixedModelOptimum | null,
+): AcrossSitesReport | null {
   const { regional, sitesUsed, sitesLeftOut } = analysis.regional;
   if (sitesUsed.length < 2) return null;
   const bySite = new Map(analysis.sites.map((s) => [s.site, s]));
@@ -438,6 +443,7 @@ function acrossSitesOf(analysis: AcrossSiteAnalysis): AcrossSitesReport | null {
     ),
     tests,
     notes,
+    mixed: mixedModelReport(analysis.mixed, mixedOptimum),
   };
 }
 
@@ -450,4 +456,14 @@ function regionalSensitivity(r: RegionalAnalysis): SensitivitySummaryRow[] {
     ciKgHa: null,
     profitableRangeKgHa: row.profitableRangeKgHa,
   }));
+}
+
+/** The mixed model's part: the fit without its site curves, the curves, the priced optimum. */
+function mixedModelReport(
+  mixed: AcrossSiteAnalysis['mixed'],
+  optimum: MixedModelOptimum | null,
+): MixedModelReport | null {
+  if (mixed.model === null || optimum === null) return null;
+  const { siteCurves, ...fit } = mixed;
+  return { fit, siteCurves, optimum };
 }

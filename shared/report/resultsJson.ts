@@ -6,9 +6,9 @@
  */
 import type { RateProfileInterval } from '../models/joinProfile';
 import type { ModelName, FitStatus } from '../models/modelTypes';
-import type { ShortfallSummary, TrialReport } from './trialReport';
+import type { MixedModelReport, ShortfallSummary, TrialReport } from './trialReport';
 import { priceRatioQuote } from '../economics/priceQuote';
-import { unitScale } from './unitScale';
+import { unitScale, type UnitScale } from './unitScale';
 
 export interface ResultsModel {
   model: ModelName;
@@ -168,7 +168,32 @@ export interface ResultsJson {
       sites: number;
       rows: { rate: number; share: number; recommended: boolean }[];
     } | null;
+    /** The regional quadratic mixed model (REML), output units; null without one. */
+    mixed: ResultsMixedModel | null;
   } | null;
+}
+
+/** The regional mixed model in the results file (rates and yields in the output units). */
+export interface ResultsMixedModel {
+  model: 'quadratic';
+  /** "unstructured" or "diagonal": the site-year effects' covariance. */
+  structure: string;
+  siteYears: number;
+  /** Whether block offsets were fitted (fixed, nested in site-year). */
+  blockOffsets: boolean;
+  /** Regional curve y = a + b·x + c·x², units as the quadratic's params. */
+  fixed: Record<'a' | 'b' | 'c', number>;
+  stdErrors: Record<'a' | 'b' | 'c', number>;
+  /** siteYear: covariance of the site-year effects on (a, b, c); residual: plot error variance. */
+  variance: { siteYear: number[][]; residual: number };
+  /** The regional optimum at the file's prices, capped to the tested rates. */
+  optimumRate: number;
+  /** Its delta-method interval at `level` (null when the curve has no maximum). */
+  optimumCI: [number, number] | null;
+  level: number;
+  method: string;
+  /** AIC of the ML fit, on the output yield unit (as the site models' aicc). */
+  aic: number;
 }
 
 /** Rounds away binary noise (12 significant digits) so the file diffs cleanly. */
@@ -378,7 +403,37 @@ export function resultsJson(report: TrialReport): ResultsJson {
                 rows: riskRows(report.acrossSites.shortfallRisk.rows),
               }
             : null,
+          mixed: report.acrossSites.mixed ? mixedJson(report.acrossSites.mixed, u, fy2) : null,
         }
       : null,
+  };
+}
+
+/** The mixed model in output units: each coefficient scales like the quadratic's parameter. */
+function mixedJson(m: MixedModelReport, u: UnitScale, fy2: number): ResultsMixedModel {
+  const names = ['a', 'b', 'c'] as const;
+  const f = names.map((k) => u.param('quadratic', k, 1));
+  const per = (v: { a: number; b: number; c: number }) =>
+    Object.fromEntries(names.map((k, i) => [k, clean(v[k] * f[i])])) as Record<
+      'a' | 'b' | 'c',
+      number
+    >;
+  const ci = m.optimum.interval;
+  return {
+    model: 'quadratic',
+    structure: m.fit.structure,
+    siteYears: m.fit.siteYears,
+    blockOffsets: m.fit.blockOffsets,
+    fixed: per(m.fit.fixed),
+    stdErrors: per(m.fit.stdErrors),
+    variance: {
+      siteYear: m.fit.siteCovariance.map((row, i) => row.map((v, j) => clean(v * f[i] * f[j]))),
+      residual: clean(m.fit.residualVariance * fy2),
+    },
+    optimumRate: clean(u.rate(m.optimum.rateKgHa)),
+    optimumCI: ci ? [clean(u.rate(ci.lowKgHa)), clean(u.rate(ci.highKgHa))] : null,
+    level: m.optimum.level,
+    method: m.optimum.method,
+    aic: clean(m.fit.aic + m.fit.observations * Math.log(fy2)),
   };
 }

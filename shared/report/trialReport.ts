@@ -12,6 +12,8 @@ import type { ResponseOverCheckOutcome } from '../analysis/siteResponseOverCheck
 import type { IntervalBasis } from '../economics/drawChoices';
 import type { OptimumShares } from '../economics/optimumInterval';
 import type { OptimumProfileInterval } from '../economics/optimumProfile';
+import type { MixedModelOptimum } from '../economics/mixedModelOptimum';
+import type { RegionalMixedModel } from '../analysis/regionalMixedModel';
 import type { RateProfileInterval } from '../models/joinProfile';
 import type { MappingEntry } from '../import/mappingEntries';
 import type { Plot, SourceFile, CropId } from '../table/plotTable';
@@ -224,6 +226,16 @@ export interface AcrossSitesReport {
   /** Pooling F-tests: does one response describe every site? */
   tests: { question: string; F: number; df1: number; df2: number; p: number; verdict: string }[];
   notes: string[];
+  /** The regional quadratic mixed model (kg/ha) and its optimum at these prices; null without one. */
+  mixed: MixedModelReport | null;
+}
+
+/** The regional mixed model as the report shows it: the fit (kg/ha) and the priced optimum. */
+export interface MixedModelReport {
+  fit: Omit<RegionalMixedModel, 'siteCurves'>;
+  /** Each site-year's own curve (regional curve plus its conditional modes), kg/ha. */
+  siteCurves: RegionalMixedModel['siteCurves'];
+  optimum: MixedModelOptimum;
 }
 
 export interface TrialReport {

@@ -10,6 +10,7 @@ import { reportGrowerPages } from './reportGrowerPages';
 import type { TrialReport } from './trialReport';
 import { unitScale } from './unitScale';
 import { workbookAcrossSites } from './workbookAcrossSites';
+import { workbookRegionalModel } from './workbookRegionalModel';
 import { workbookEconomics } from './workbookEconomics';
 import { sheetName } from './workbookFormat';
 import { workbookGrowerSheet } from './workbookGrowerSheet';
@@ -53,6 +54,7 @@ export async function writeWorkbook(
   const taken = new Set([
     'overview',
     'across sites',
+    'regional model',
     'economics',
     SENSITIVITY_SHEET.toLowerCase(),
     'recommendations',
@@ -71,6 +73,7 @@ export async function writeWorkbook(
     );
   }
   workbookAcrossSites(wb, report, u, paper, options.acrossChart ?? null);
+  workbookRegionalModel(wb, report, u, paper);
   workbookEconomics(wb, report, paper);
   workbookSensitivity(wb, report, u, paper);
   workbookGrowerSheet(wb, reportGrowerPages(report), paper);

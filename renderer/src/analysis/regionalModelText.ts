@@ -1,0 +1,28 @@
+/**
+ * The all-sites view's sentence about the regional mixed model at the current prices, in the
+ * display unit: the shared sentence (mixedModelSentence) with the screen's rate formatting.
+ */
+import type { PricedTrial } from '../../../shared/analysis/priceTrial';
+import { mixedModelSentence } from '../../../shared/economics/mixedModelSentence';
+import type { RateUnit } from '../../../shared/units/convertRate';
+import { formatRate, formatRateInterval } from '../lib/format';
+
+/**
+ * What the regional model says and how sure it is, or null without a regional model.
+ * @param priced - the priced trial
+ * @param unit - display rate unit
+ * @param locale - a BCP 47 tag
+ * @returns e.g. "Across 6 site-years, the regional model … puts the most profitable rate at 152 kg/ha (90 % interval 118 to 186 kg/ha). …"
+ */
+export function regionalModelText(
+  priced: PricedTrial,
+  unit: RateUnit,
+  locale?: string,
+): string | null {
+  const mixed = priced.across.mixed;
+  if (mixed.model === null || priced.mixedOptimum === null) return null;
+  return mixedModelSentence(mixed.siteYears, priced.mixedOptimum, {
+    rate: (kgHa) => formatRate(kgHa, unit, locale),
+    interval: (i) => formatRateInterval(i, unit, locale),
+  });
+}

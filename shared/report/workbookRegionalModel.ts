@@ -1,0 +1,128 @@
+/**
+ * The "Regional model" sheet: the regional quadratic fitted as a mixed model over the
+ * site-years (shared/analysis/regionalMixedModel), its optimum at the report's prices with the
+ * delta-method interval, the variance components and each site-year's own curve, all in the
+ * report's units, with the cautions. Figures only; nothing is fitted here.
+ */
+import type ExcelJS from 'exceljs';
+import { recommendationCautions } from '../economics/recommendationCautions';
+import { mixedModelSentence } from '../economics/mixedModelSentence';
+import { profileIntervalText } from './modelNotes';
+import type { TrialReport } from './trialReport';
+import type { UnitScale } from './unitScale';
+import { fitColumns, rateFormat, setupPage, styleTitle, tableHeading } from './workbookFormat';
+
+const COEFFICIENTS = ['a', 'b', 'c'] as const;
+
+/**
+ * Adds the regional model sheet (or a sheet saying why there is none).
+ * @param wb - the workbook
+ * @param report - the analysis
+ * @param u - display-unit converters
+ * @param paper - paper for printing
+ * @returns the sheet
+ */
+export function workbookRegionalModel(
+  wb: ExcelJS.Workbook,
+  report: TrialReport,
+  u: UnitScale,
+  paper: 'letter' | 'a4',
+): ExcelJS.Worksheet {
+  const ws = wb.addWorksheet('Regional model');
+  const ru = u.units.rate;
+  const rN = ru.replace('/', ' N/');
+  ws.getCell('A1').value = 'Regional model: one quadratic for the region, a curve per site-year';
+  styleTitle(ws.getCell('A1'), 14);
+  const titles = new Set<number>([1, 2]);
+  const m = report.acrossSites?.mixed ?? null;
+  if (!m) {
+    ws.getCell('A3').value =
+      'Not computed: it needs at least 4 site-years with plots and 3 distinct rates.';
+    return ws;
+  }
+  const digits = ru === 'kg/ha' || ru === 'lb/ac' ? 0 : 1;
+  const rateWords = (kgHa: number) => u.rate(kgHa).toFixed(digits);
+  ws.getCell('A2').value = mixedModelSentence(m.fit.siteYears, m.optimum, {
+    rate: (kgHa) => `${rateWords(kgHa)} ${rN}`,
+    interval: (i) => `${profileIntervalText(i, rateWords)} ${rN}`,
+  });
+  let r = 4;
+  const interval = m.optimum.interval;
+  const facts: [string, number | string, string | null][] = [
+    [`Regional optimum rate (${rN})`, u.rate(m.optimum.rateKgHa), rateFormat(ru)],
+    [`Interval low (${rN})`, interval ? u.rate(interval.lowKgHa) : '–', rateFormat(ru)],
+    [`Interval high (${rN})`, interval ? u.rate(interval.highKgHa) : '–', rateFormat(ru)],
+    ['Interval level', m.optimum.level, '0%'],
+    ['Interval method', m.optimum.method, null],
+    ['Site-years', m.fit.siteYears, '0'],
+    ['Plots (less one per block contrast)', m.fit.observations, '0'],
+    ['Block offsets', m.fit.blockOffsets ? 'fixed, nested in site-year' : 'none', null],
+    ['Site-year covariance', m.fit.structure, null],
+    ['Log-likelihood, REML (kg/ha)', m.fit.logLikelihoodReml, '0.000'],
+    ['Log-likelihood, ML (kg/ha)', m.fit.logLikelihoodMl, '0.000'],
+    ['AIC, ML (kg/ha)', m.fit.aic, '0.000'],
+  ];
+  for (const [label, value, numFmt] of facts) {
+    ws.getCell(r, 1).value = label;
+    ws.getCell(r, 2).value = value;
+    if (numFmt && typeof value === 'number') ws.getCell(r, 2).numFmt = numFmt;
+    r++;
+  }
+  r++;
+  r = tableHeading(
+    ws,
+    r,
+    'Regional curve y = a + b·x + c·x² (REML; rates divided by the highest tested rate to fit, reported back in these units)',
+    ['Coefficient', 'Estimate', 'Std. error', 'Unit'],
+    titles,
+  );
+  for (const k of COEFFICIENTS) {
+    ws.getRow(r++).values = [
+      k,
+      u.param('quadratic', k, m.fit.fixed[k]),
+      u.param('quadratic', k, m.fit.stdErrors[k]),
+      u.paramUnit('quadratic', k),
+    ];
+  }
+  r++;
+  r = tableHeading(
+    ws,
+    r,
+    'How site-years differ: covariance of their departures from a, b and c; plot error variance below',
+    ['', 'a', 'b', 'c'],
+    titles,
+  );
+  const f = COEFFICIENTS.map((k) => u.param('quadratic', k, 1));
+  m.fit.siteCovariance.forEach((row, i) => {
+    ws.getRow(r++).values = [COEFFICIENTS[i], ...row.map((v, j) => v * f[i] * f[j])];
+  });
+  ws.getRow(r++).values = [
+    `Plot error variance ((${u.units.yield})²)`,
+    m.fit.residualVariance * u.yield(1) ** 2,
+  ];
+  r++;
+  r = tableHeading(
+    ws,
+    r,
+    'Each site-year’s own curve (the regional curve plus its predicted departure)',
+    ['Site-year', 'a', 'b', 'c'],
+    titles,
+  );
+  for (const s of m.siteCurves) {
+    ws.getRow(r++).values = [
+      s.site,
+      u.param('quadratic', 'a', s.aKgHa),
+      u.param('quadratic', 'b', s.bKgPerKg),
+      u.param('quadratic', 'c', s.cKgHaPerKgHa2),
+    ];
+  }
+  r++;
+  for (const c of recommendationCautions) {
+    ws.getCell(r, 1).value = c;
+    titles.add(r++);
+  }
+  fitColumns(ws, 4, 40, titles);
+  ws.pageSetup.printArea = `A1:F${Math.max(r, 30)}`;
+  setupPage(ws, paper, 'portrait');
+  return ws;
+}
