@@ -18,6 +18,7 @@ import type { RateProfileInterval } from '../models/joinProfile';
 import type { ModelName } from '../models/modelTypes';
 import { describeRef, type QualityFinding } from '../table/qualityFinding';
 import type { Plot } from '../table/plotTable';
+import { siteYearsOf } from '../table/siteYear';
 import { intervalSharesWarning } from './intervalShares';
 import { fitMessage, optimumNote } from './modelNotes';
 import { priceTerms } from '../economics/priceQuote';
@@ -167,7 +168,8 @@ export function assembleReport(
   const { table, settings: a } = analysis;
   const terms = priceTerms({ ...display, crop: table.crop });
   const tablePlots = new Map<string, Plot[]>(analysis.plots.map((p) => [p.site, []]));
-  for (const p of table.plots) tablePlots.get(p.site)?.push(p);
+  const { nameOf } = siteYearsOf(table);
+  for (const p of table.plots) tablePlots.get(nameOf(p))?.push(p);
   const rowsOf = new Map<string, Map<ModelName, SiteModelRow>>();
   for (const r of priced.across.rows) {
     const m = rowsOf.get(r.site) ?? new Map<ModelName, SiteModelRow>();
@@ -303,6 +305,7 @@ function siteReport(
     );
   return {
     site: s.site,
+    year: s.year,
     n: used.rateKgHa.length,
     plots,
     interceptTest,

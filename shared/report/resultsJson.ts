@@ -45,7 +45,10 @@ export interface ProfileIntervalJson {
 }
 
 export interface ResultsSite {
+  /** The site-year's name: "Alder Flats 2024" when the site has several years, else the site's. */
   site: string;
+  /** The harvest year, or null when the plots carry none. */
+  year: number | null;
   n: number;
   interceptTest: { t: number; F: number; df1: number; df2: number; p: number } | null;
   /**
@@ -171,6 +174,7 @@ export function resultsJson(report: TrialReport): ResultsJson {
     },
     sites: report.sites.map((s) => ({
       site: s.site,
+      year: s.year,
       n: s.n,
       interceptTest: s.interceptTest
         ? {

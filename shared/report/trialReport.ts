@@ -102,7 +102,10 @@ export interface BootstrapSummary {
 }
 
 export interface SiteReport {
+  /** The site-year's display name (shared/table/siteYear): "Alder Flats 2024" or the site's name. */
   site: string;
+  /** The harvest year, or null when the plots carry none. */
+  year: number | null;
   /** Plots used in the fits. */
   n: number;
   /** Every plot of the site, excluded ones too (with reasons). */

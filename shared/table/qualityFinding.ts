@@ -22,6 +22,7 @@ export type FindingCode =
   | 'treatment-not-in-key'
   | 'other-crop-sheet-skipped'
   | 'duplicate-plot'
+  | 'site-in-several-years'
   | 'missing-plot'
   | 'unequal-replication'
   | 'negative-value'
