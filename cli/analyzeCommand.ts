@@ -185,10 +185,12 @@ function summary(report: TrialReport): string[] {
     lines.push(`… ${report.sites.length - show.length} more sites in the report.`);
   const a = report.acrossSites;
   if (a) {
+    const units = report.yearsCompared.length > 0 ? 'site-years' : 'sites';
     lines.push(
-      `Across ${a.sites.length} sites: ${rate(a.bestRateKgHa)}, profitable from ${rate(a.profitableRangeKgHa[0])} to ${rate(a.profitableRangeKgHa[1])}.`,
+      `Across ${a.sites.length} ${units}: ${rate(a.bestRateKgHa)}, profitable from ${rate(a.profitableRangeKgHa[0])} to ${rate(a.profitableRangeKgHa[1])}.`,
     );
   }
+  for (const c of report.yearsCompared) lines.push(`Years compared: ${c.sentence}`);
   for (const w of report.warnings) lines.push(`Note: ${w}`);
   return lines;
 }

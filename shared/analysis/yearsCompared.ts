@@ -45,6 +45,10 @@ function quadraticTest(tests: SharedResponseTests, question: PoolingQuestion): P
   return tests.quadratic.tests.find((t) => t.question === question)!;
 }
 
+function differs(t: PoolingTest, alpha: number): boolean {
+  return t.result.kind === 'f-test' && t.result.p < alpha;
+}
+
 function yearList(years: readonly (number | null)[]): string {
   const words = years.map((y) => (y === null ? 'no year' : String(y)));
   return words.length === 2
@@ -97,7 +101,16 @@ export function yearsCompared(
         response,
         level,
         tests,
-        sentence: `${describeFTest(response.result, responseWords, o.alpha)} ${describeFTest(level.result, levelWords, o.alpha)}`,
+        sentence: [
+          describeFTest(response.result, responseWords, o.alpha),
+          describeFTest(level.result, levelWords, o.alpha),
+          // A rate averaged over years that respond differently fits neither year.
+          differs(response, o.alpha)
+            ? "Read each year's curve on its own: a rate across these years averages responses that differ."
+            : '',
+        ]
+          .filter((t) => t !== '')
+          .join(' '),
       };
     });
 }

@@ -19,6 +19,7 @@ import type { ModelName } from '../models/modelTypes';
 import { describeRef, type QualityFinding } from '../table/qualityFinding';
 import type { Plot } from '../table/plotTable';
 import { siteYearsOf } from '../table/siteYear';
+import { yearsComparedReport } from './yearsComparedReport';
 import { intervalSharesWarning } from './intervalShares';
 import { fitMessage, optimumNote } from './modelNotes';
 import { priceTerms } from '../economics/priceQuote';
@@ -209,6 +210,7 @@ export function assembleReport(
     mapping: meta.mapping,
     sites,
     acrossSites: acrossSitesOf(priced.across),
+    yearsCompared: yearsComparedReport(priced.across),
     warnings: runWarnings,
   };
 }

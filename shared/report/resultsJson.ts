@@ -6,7 +6,7 @@
  */
 import type { RateProfileInterval } from '../models/joinProfile';
 import type { ModelName, FitStatus } from '../models/modelTypes';
-import type { TrialReport } from './trialReport';
+import type { FTestNumbers, TrialReport } from './trialReport';
 import { priceRatioQuote } from '../economics/priceQuote';
 import { unitScale } from './unitScale';
 
@@ -124,6 +124,19 @@ export interface ResultsJson {
     returnUnit: string;
     siteOptima: { site: string; rate: number }[];
   } | null;
+  /**
+   * Each site seen in several years, its years compared (F statistics have no unit); empty
+   * when no site has several years.
+   */
+  yearsCompared: {
+    site: string;
+    siteYears: string[];
+    years: (number | null)[];
+    response: { F: number; df1: number; df2: number; p: number } | null;
+    level: { F: number; df1: number; df2: number; p: number } | null;
+    responseDiffers: boolean | null;
+    sentence: string;
+  }[];
 }
 
 /** Rounds away binary noise (12 significant digits) so the file diffs cleanly. */
@@ -286,5 +299,18 @@ export function resultsJson(report: TrialReport): ResultsJson {
           })),
         }
       : null,
+    yearsCompared: report.yearsCompared.map((c) => ({
+      site: c.site,
+      siteYears: [...c.siteYears],
+      years: [...c.years],
+      response: c.response ? fNumbers(c.response) : null,
+      level: c.level ? fNumbers(c.level) : null,
+      responseDiffers: c.responseDiffers,
+      sentence: c.sentence,
+    })),
   };
+}
+
+function fNumbers(t: FTestNumbers): FTestNumbers {
+  return { F: clean(t.F), df1: t.df1, df2: t.df2, p: clean(t.p) };
 }

@@ -189,6 +189,32 @@ export interface AcrossSitesReport {
   notes: string[];
 }
 
+/** An F test's numbers as the report prints them. */
+export interface FTestNumbers {
+  F: number;
+  df1: number;
+  df2: number;
+  p: number;
+}
+
+/** The years of one site compared (shared/analysis/yearsCompared). */
+export interface YearComparisonReport {
+  /** The site's own name. */
+  site: string;
+  /** Its site-years' display names, in table order. */
+  siteYears: string[];
+  /** Their years, same order (null: plots without a year). */
+  years: (number | null)[];
+  /** One quadratic per year against one response shared by the years, each year its own level; null: no test. */
+  response: FTestNumbers | null;
+  /** One yield level per year against one for all; null: no test. */
+  level: FTestNumbers | null;
+  /** Whether the response differs at the analysis' level; null without a test. */
+  responseDiffers: boolean | null;
+  /** Both results in plain words. */
+  sentence: string;
+}
+
 export interface TrialReport {
   tool: { name: string; version: string };
   /** When the analysis ran, ISO 8601 (given by the caller so tests can fix it). */
@@ -200,6 +226,8 @@ export interface TrialReport {
   mapping: MappingEntry[];
   sites: SiteReport[];
   acrossSites: AcrossSitesReport | null;
+  /** Each site seen in several years, its years compared; empty when there is none. */
+  yearsCompared: YearComparisonReport[];
   /** Findings about the whole run (defaulted prices, skipped sites). */
   warnings: string[];
 }
