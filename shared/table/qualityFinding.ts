@@ -23,6 +23,7 @@ export type FindingCode =
   | 'other-crop-sheet-skipped'
   | 'duplicate-plot'
   | 'site-in-several-years'
+  | 'year-from-file-name'
   | 'missing-plot'
   | 'unequal-replication'
   | 'negative-value'
