@@ -12,7 +12,9 @@ import type { YearComparison } from '../shared/analysis/yearsCompared';
 import { simulatedTrial, type TruthName } from '../shared/demo/simulatedSite';
 import { importFiles } from '../shared/import/importFiles';
 import { checkQuality } from '../shared/quality/checkQuality';
+import { growerPage } from '../shared/report/growerPage';
 import { fixtureHeader, readRCsv } from './analysis.fixtures';
+import { reportOf } from './report.pipeline';
 
 const PLOTS = '../siteyears/siteYears.plots.csv';
 const ANOVA = '../siteyears/yearsCompared.anova.csv';
@@ -146,6 +148,34 @@ describe('yearsCompared against R anova() (tests/fixtures/siteyears/yearsCompare
     );
     expect(compared[1].sentence).toMatch(
       /p = 0\.64; at the 5% level the years do not differ detectably in their response to N\./,
+    );
+  });
+});
+
+describe('the grower page of one season of a site tried over several', () => {
+  it('says whether the season responded as the others did, with the p of the comparison', async () => {
+    const { table, mapping } = await twoYears();
+    const report = reportOf(
+      table,
+      {
+        units: { rate: 'kg/ha', yield: 't/ha' },
+        unitSystem: 'metric',
+        crop: 'corn',
+        prices: { grainPrice: 180, nutrientPrice: 1.1, product: null, defaulted: false },
+        boot: 0,
+        seed: 1,
+        blocks: 'fixed',
+        intervalLevel: 0.9,
+      },
+      { tool: { name: 'Plotrate', version: '0.1.0' }, createdAt: '2026-03-01T12:00:00Z', mapping },
+    );
+    expect(report.sites.map((s) => s.year)).toEqual([2024, 2024, 2025, 2025]);
+    expect(growerPage(report, 'Wrenfield 2024').basis).toContain(
+      'This is the 2024 season of Wrenfield, tried in 2024, 2025: the response to N differed between the seasons (p < 0.001), so this page speaks for 2024 alone.',
+    );
+    // R: p = 0.6357 for Hobb's Reach (yearsCompared.anova.csv).
+    expect(growerPage(report, "Hobb's Reach 2025").basis).toContain(
+      "This is the 2025 season of Hobb's Reach, tried in 2024, 2025: the response to N did not differ detectably between the seasons (p = 0.64); this page still rests on this season's plots alone.",
     );
   });
 });
