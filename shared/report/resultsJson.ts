@@ -132,8 +132,8 @@ export interface ResultsJson {
     site: string;
     siteYears: string[];
     years: (number | null)[];
-    response: { F: number; df1: number; df2: number; p: number } | null;
-    level: { F: number; df1: number; df2: number; p: number } | null;
+    response: FTestNumbers | null;
+    level: FTestNumbers | null;
     responseDiffers: boolean | null;
     sentence: string;
   }[];
