@@ -17,6 +17,7 @@ import { illustrativePrices } from '../shared/economics/illustrativePrices';
 import { priceTerms, quotePrices, type PriceInput } from '../shared/economics/priceQuote';
 import { importFiles } from '../shared/import/importFiles';
 import { describeRef } from '../shared/table/qualityFinding';
+import { siteYearsOf } from '../shared/table/siteYear';
 import { assembleReport } from '../shared/report/assembleReport';
 import { regionalReturnChart } from '../shared/report/regionalReturnChart';
 import { resultsJson } from '../shared/report/resultsJson';
@@ -251,10 +252,12 @@ function summary(report: TrialReport): string[] {
     lines.push(`… ${report.sites.length - show.length} more sites in the report.`);
   const a = report.acrossSites;
   if (a) {
+    const units = report.yearsCompared.length > 0 ? 'site-years' : 'sites';
     lines.push(
-      `Across ${a.sites.length} sites: ${rate(a.bestRateKgHa)}, profitable from ${rate(a.profitableRangeKgHa[0])} to ${rate(a.profitableRangeKgHa[1])}.`,
+      `Across ${a.sites.length} ${units}: ${rate(a.bestRateKgHa)}, profitable from ${rate(a.profitableRangeKgHa[0])} to ${rate(a.profitableRangeKgHa[1])}.`,
     );
   }
+  for (const c of report.yearsCompared) lines.push(`Years compared: ${c.sentence}`);
   for (const w of report.warnings) lines.push(`Note: ${w}`);
   return lines;
 }
@@ -304,9 +307,16 @@ export async function analyzeCommand(
     seed: args.seed,
     blocks: args.blocks === 'fixed' ? 'auto' : 'none',
   });
-  const siteCount = new Set(imported.table.plots.map((p) => p.site)).size;
+  // The analysed unit is the site-year; a site harvested in several years is several of them.
+  const { siteYears } = siteYearsOf(imported.table);
+  const siteCount = siteYears.length;
+  const bareSites = new Set(siteYears.map((s) => s.site)).size;
+  const where =
+    bareSites === siteCount
+      ? `${siteCount} site${siteCount === 1 ? '' : 's'}`
+      : `${siteCount} site-years (${bareSites} site${bareSites === 1 ? '' : 's'})`;
   log.err(
-    `plotrate: ${imported.table.plots.length} plots at ${siteCount} site${siteCount === 1 ? '' : 's'}; fitting seven models per site${args.boot ? ` with ${args.boot} bootstrap resamples` : ''}`,
+    `plotrate: ${imported.table.plots.length} plots at ${where}; fitting seven models per site${args.boot ? ` with ${args.boot} bootstrap resamples` : ''}`,
   );
   const step = Math.max(1, Math.ceil(siteCount / 10));
   const analysis = analyzeTrial(imported.table, settings, (done, total) => {

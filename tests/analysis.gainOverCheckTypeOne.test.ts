@@ -78,6 +78,8 @@ function additiveSites(yieldKgHa: (rateKgHa: number) => number, seed: number): S
     }
     return {
       site: `additive ${s + 1}`,
+      year: null,
+      siteName: `additive ${s + 1}`,
       rateKgHa: Float64Array.from(rate),
       yieldKgHa: Float64Array.from(y),
       block,

@@ -364,6 +364,8 @@ describe('priceSite: the rule’s model gets the reselecting interval, an analys
   const analysis = analyzeSite(
     {
       site: 'S',
+      year: null,
+      siteName: 'S',
       rateKgHa: Float64Array.from(data.rateKgHa),
       yieldKgHa: Float64Array.from(data.yieldKgHa),
       block: data.block,

@@ -20,7 +20,15 @@ beforeAll(async () => {
 
 describe('resultsJson', () => {
   it('has exactly the documented fields', () => {
-    expect(Object.keys(json).sort()).toEqual(['acrossSites', 'settings', 'sites', 'tool']);
+    expect(Object.keys(json).sort()).toEqual([
+      'acrossSites',
+      'settings',
+      'sites',
+      'tool',
+      'yearsCompared',
+    ]);
+    // One season: no site has several years, so nothing to compare.
+    expect(json.yearsCompared).toEqual([]);
     expect(Object.keys(json.tool).sort()).toEqual(['name', 'version']);
     for (const k of [
       'units',
@@ -36,6 +44,7 @@ describe('resultsJson', () => {
     const site = json.sites[0];
     for (const k of [
       'site',
+      'year',
       'n',
       'interceptTest',
       'responseOverCheck',

@@ -1,7 +1,8 @@
 /**
  * The across step of the analysis: from every site's analysis (analyzeSite) to what needs
  * them all together: the side-by-side rows, the tests of a shared response, the regional rate,
- * the share of sites that responded, and the same per group of sites.
+ * the share of sites that responded, the same per group of sites, and the years of each site
+ * seen in several years compared.
  */
 import type { SiteAnalysis } from './analyzeSite';
 import { groupAnalysis, type GroupAnalysis } from './groupAnalysis';
@@ -13,6 +14,7 @@ import { responseShare, type ResponseShare } from './responseShare';
 import { sharedResponse, type SharedResponseTests } from './sharedResponse';
 import { siteModelRows, type SiteModelRow } from './siteModelRows';
 import { SitesInputError } from './sitesInputError';
+import { yearsCompared, type YearComparison } from './yearsCompared';
 
 export interface AcrossSiteAnalysis {
   options: AcrossSiteSettings;
@@ -27,6 +29,8 @@ export interface AcrossSiteAnalysis {
   mixed: RegionalMixedModel | NoRegionalMixedModel;
   response: ResponseShare;
   groups: GroupAnalysis[];
+  /** Each site seen in several years: does its response differ by year? Empty otherwise. */
+  yearsCompared: YearComparison[];
 }
 
 /**
@@ -68,5 +72,6 @@ export function acrossSites(
     ...whole,
     mixed: mixedModelAcrossSites(checked, sites),
     groups: o.groupKeys.map((k) => groupAnalysis(k, checked, analyses, o, whole)),
+    yearsCompared: yearsCompared(checked, analyses, o),
   };
 }

@@ -28,7 +28,10 @@ export type FitData = Omit<ModelFit, 'predict'>;
 export type AllModelsFitData = Omit<AllModelsFit, 'fits'> & { fits: Record<ModelName, FitData> };
 
 export interface SiteAnalysis {
+  /** The site-year's display name (shared/table/siteYear). */
   site: string;
+  /** The harvest year, or null when the plots carry none. */
+  year: number | null;
   /** Analyzable plots. */
   plots: number;
   /** Why the site could not be fitted at all, or null. */
@@ -207,6 +210,7 @@ export function analyzeSite(
   }
   return {
     site: site.site,
+    year: site.year,
     plots: site.yieldKgHa.length,
     problem,
     blocks: b,

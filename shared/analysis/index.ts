@@ -95,6 +95,7 @@ export * from './regionalReturn';
 export * from './regionalRecommendation';
 export * from './recommendationModel';
 export * from './siteModelRows';
+export * from './yearsCompared';
 export * from './analyzeAcrossSites';
 export * from './leadingModel';
 export * from './chooseSiteModels';

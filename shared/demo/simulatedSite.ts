@@ -182,6 +182,8 @@ export function simulatedTruth(name: TruthName): Truth {
 export interface SimulatedSite {
   site: string;
   truth: TruthName;
+  /** The harvest year of its plots. */
+  year: number;
 }
 
 export interface SimulatedTrialOptions {
@@ -195,6 +197,13 @@ export interface SimulatedTrialOptions {
   cv?: number;
   /** Standard deviation of the block offsets, kg/ha (default 250, the demo trial's 4 bu/ac). */
   blockSdKgHa?: number;
+  /**
+   * The site and year of each truth, same order, for trials of one site over several years
+   * (the same site name in two entries with two years); default each truth its own site,
+   * named as above, in 2025. Blocks and plots are labeled the same way every year (block "1",
+   * plot "101", …), as a field kept year after year would be.
+   */
+  siteYears?: readonly { site: string; year: number }[];
 }
 
 export interface SimulatedTrial {
@@ -229,19 +238,26 @@ export function simulatedTrial(options: SimulatedTrialOptions): SimulatedTrial {
   const rates = SIMULATED_RATES_KG_HA;
   const plots: Plot[] = [];
   const sites: SimulatedSite[] = [];
+  if (options.siteYears && options.siteYears.length !== options.truths.length) {
+    throw new RangeError(
+      `siteYears has ${options.siteYears.length} entries for ${options.truths.length} truths; give one per truth.`,
+    );
+  }
   options.truths.forEach((name, s) => {
     const truth = TRUTHS[name];
-    const site = `${prefix}${name} ${String(s + 1).padStart(4, '0')}`;
-    sites.push({ site, truth: name });
+    const site =
+      options.siteYears?.[s].site ?? `${prefix}${name} ${String(s + 1).padStart(4, '0')}`;
+    const year = options.siteYears?.[s].year ?? 2025;
+    sites.push({ site, truth: name, year });
     for (let block = 1; block <= SIMULATED_BLOCKS; block++) {
       const offset = blockSd * rng.normal();
       shuffled(rng, rates.length).forEach((ri, position) => {
         const rate = rates[ri];
         const yieldKgHa = (truth.yieldKgHa(rate) + offset) * (1 + cv * rng.normal());
         plots.push({
-          id: `simulated|${site}|${block}|${position + 1}`,
+          id: `simulated|${site}|${year}|${block}|${position + 1}`,
           site,
-          year: 2025,
+          year,
           block: String(block),
           plotLabel: `${block}0${position + 1}`,
           treatment: null,

@@ -20,6 +20,7 @@ import { ImportError } from './importError';
 import type { ImportSettings } from './importSettings';
 import type { RawWorkbook } from './rawWorkbook';
 import { readPlotsSheet } from './readPlotsSheet';
+import { yearsFromFileNames } from './fileYears';
 import { readTreatmentKey, type TreatmentKeyEntry } from './readTreatmentKey';
 import { validateMapping } from './validateMapping';
 
@@ -55,7 +56,9 @@ export function buildPlotTable(
   const findings: QualityFinding[] = [];
   const plots: Plot[] = [];
   const sources: SourceFile[] = books.map((b) => b.file);
+  const perFile: { name: string; plots: Plot[] }[] = [];
   books.forEach((raw, bi) => {
+    const first = plots.length;
     const mapping = validateMapping(maps[bi], raw.file.name);
     const sheetOf = (name: string) => raw.sheets.find((s) => s.name === name);
     const keyMaps = mapping.sheets.filter((s) => s.use === 'treatment-key');
@@ -92,7 +95,10 @@ export function buildPlotTable(
       }
       readPlotsSheet(raw, sheet, m, key, settings, crop, standardMoisturePct, plots, findings);
     }
+    perFile.push({ name: raw.file.name, plots: plots.slice(first) });
   });
+  // Files of different seasons with the year only in their names: each season its own site-year.
+  yearsFromFileNames(perFile, findings);
   if (plots.length === 0) {
     const names = books.map((b) => `"${b.file.name}"`).join(', ');
     throw new ImportError(

@@ -1,11 +1,13 @@
 /**
- * Checks of the trial's layout within each site: the same plot number twice,
- * block × rate cells with no plot, and rates with unequal numbers of usable
- * plots (which makes block-adjusted means differ from raw means).
+ * Checks of the trial's layout within each site-year (shared/table/siteYear): the same plot
+ * number twice, block × rate cells with no plot, and rates with unequal numbers of usable
+ * plots (which makes block-adjusted means differ from raw means); and, once per site, a site
+ * whose plots come from several years.
  */
 import { hasBlocks } from '../stats/hasBlocks';
 import type { Plot, PlotTable } from '../table/plotTable';
-import type { QualityFinding } from '../table/qualityFinding';
+import { describeRef, type QualityFinding } from '../table/qualityFinding';
+import { siteYearsOf, type SiteYear } from '../table/siteYear';
 
 function rateLabel(p: Plot): string {
   const kg = p.rateKgHa === null ? '' : `${Math.round(p.rateKgHa * 10) / 10} kg N/ha`;
@@ -21,21 +23,21 @@ function rateLabel(p: Plot): string {
  * // 'Tarrowfield: block 3 has no plot of treatment 5 (201.7 kg N/ha); …'
  */
 export function checkDesign(table: PlotTable): QualityFinding[] {
-  const out: QualityFinding[] = [];
+  const { siteYears, nameOf } = siteYearsOf(table);
+  const out: QualityFinding[] = severalYears(siteYears);
   const bySite = new Map<string, Plot[]>();
   for (const p of table.plots) {
-    const k = p.site;
+    const k = nameOf(p);
     if (!bySite.has(k)) bySite.set(k, []);
     bySite.get(k)!.push(p);
   }
   for (const [site, plots] of bySite) {
-    // Duplicate plot labels (within site and year).
+    // Duplicate plot labels within the site-year (the same number in another year is another plot).
     const byLabel = new Map<string, Plot[]>();
     for (const p of plots) {
       if (p.plotLabel === null) continue;
-      const k = `${p.year ?? ''}|${p.plotLabel}`;
-      if (!byLabel.has(k)) byLabel.set(k, []);
-      byLabel.get(k)!.push(p);
+      if (!byLabel.has(p.plotLabel)) byLabel.set(p.plotLabel, []);
+      byLabel.get(p.plotLabel)!.push(p);
     }
     for (const [, same] of byLabel) {
       if (same.length < 2) continue;
@@ -43,7 +45,7 @@ export function checkDesign(table: PlotTable): QualityFinding[] {
       out.push({
         code: 'duplicate-plot',
         severity: 'warning',
-        message: `${site}: plot ${same[0].plotLabel} appears ${same.length} times (rows ${refs.map((r) => r.row).join(', ')}); correct the plot numbers or exclude the wrong row.`,
+        message: `${site}: plot ${same[0].plotLabel} appears ${same.length} times (${refs.map(describeRef).join(', ')}); correct the plot numbers or exclude the wrong row.`,
         refs,
         site,
         plotIds: same.map((p) => p.id),
@@ -94,4 +96,25 @@ export function checkDesign(table: PlotTable): QualityFinding[] {
     }
   }
   return out;
+}
+
+/**
+ * One finding per site seen in several years: each year is its own site-year, named with the
+ * year, and the years are compared in the across-site results.
+ */
+function severalYears(siteYears: readonly SiteYear[]): QualityFinding[] {
+  const bySite = new Map<string, SiteYear[]>();
+  for (const s of siteYears) {
+    const list = bySite.get(s.site);
+    if (list) list.push(s);
+    else bySite.set(s.site, [s]);
+  }
+  return [...bySite.entries()]
+    .filter(([, list]) => list.length > 1)
+    .map(([site, list]) => ({
+      code: 'site-in-several-years' as const,
+      severity: 'info' as const,
+      message: `${site} has plots from ${list.length} years (${list.map((s) => s.year ?? 'no year').join(', ')}); each year is analyzed as its own site-year (${list.map((s) => s.name).join(', ')}) with its own blocks and plots, and the years are compared across sites.`,
+      refs: [],
+    }));
 }

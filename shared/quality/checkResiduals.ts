@@ -6,6 +6,7 @@
  */
 import { analyzablePlots, type Plot, type PlotTable } from '../table/plotTable';
 import { describeRef, type QualityFinding } from '../table/qualityFinding';
+import { siteYearsOf } from '../table/siteYear';
 import { fitTreatmentBlock } from './treatmentBlockModel';
 
 /**
@@ -24,9 +25,11 @@ export function checkResiduals(
 ): QualityFinding[] {
   const out: QualityFinding[] = [];
   const bySite = new Map<string, Plot[]>();
+  const { nameOf } = siteYearsOf(table);
   for (const p of analyzablePlots(table)) {
-    if (!bySite.has(p.site)) bySite.set(p.site, []);
-    bySite.get(p.site)!.push(p);
+    const site = nameOf(p);
+    if (!bySite.has(site)) bySite.set(site, []);
+    bySite.get(site)!.push(p);
   }
   for (const [site, plots] of bySite) {
     const m = fitTreatmentBlock(plots);

@@ -7,6 +7,7 @@ import { crops } from '../units/crops';
 import { yieldFromKgHa } from '../units/convertYield';
 import { isMissingMarker, parseNumberText } from '../table/parseNumberText';
 import { describeRef, type QualityFinding } from '../table/qualityFinding';
+import { siteYearsOf } from '../table/siteYear';
 
 function isNumberText(text: string): boolean {
   return parseNumberText(text, false) !== null || parseNumberText(text, true) !== null;
@@ -26,8 +27,9 @@ export function checkValues(
 ): QualityFinding[] {
   const out: QualityFinding[] = [];
   const crop = crops(table.crop);
+  const { nameOf } = siteYearsOf(table);
   const finding = (p: Plot, f: Omit<QualityFinding, 'site' | 'plotIds'>) =>
-    out.push({ ...f, site: p.site, plotIds: [p.id] });
+    out.push({ ...f, site: nameOf(p), plotIds: [p.id] });
   for (const p of table.plots) {
     for (const role of NUMERIC_COLUMN_ROLES) {
       const o = p.original[role];
@@ -45,7 +47,7 @@ export function checkValues(
       finding(p, {
         code: 'missing-value',
         severity: 'info',
-        message: `${describeRef(p.original.yield.ref)}: plot ${p.plotLabel ?? ''} of ${p.site} has no yield${p.original.yield.text.trim() ? ` ("${p.original.yield.text.trim()}")` : ''}; it is left out of the fits.`,
+        message: `${describeRef(p.original.yield.ref)}: plot ${p.plotLabel ?? ''} of ${nameOf(p)} has no yield${p.original.yield.text.trim() ? ` ("${p.original.yield.text.trim()}")` : ''}; it is left out of the fits.`,
         refs: [p.original.yield.ref],
       });
     }
@@ -58,7 +60,7 @@ export function checkValues(
         finding(p, {
           code: 'negative-value',
           severity: 'error',
-          message: `${o ? describeRef(o.ref) : p.site}: the ${role} is negative (${o?.text ?? v}); a ${role} cannot be below zero. Correct the cell.`,
+          message: `${o ? describeRef(o.ref) : nameOf(p)}: the ${role} is negative (${o?.text ?? v}); a ${role} cannot be below zero. Correct the cell.`,
           refs: o ? [o.ref] : [],
         });
       }
@@ -69,7 +71,7 @@ export function checkValues(
       finding(p, {
         code: 'implausible-yield',
         severity: 'warning',
-        message: `${o ? describeRef(o.ref) : p.site}: a yield of ${Math.round(p.yieldKgHa).toLocaleString('en-US')} kg/ha (${bu.toFixed(0)} bu/ac) is above the ${Math.round(crop.maxPlausibleYieldKgHa).toLocaleString('en-US')} kg/ha plausible for ${crop.label.toLowerCase()}; check the cell and the yield unit.`,
+        message: `${o ? describeRef(o.ref) : nameOf(p)}: a yield of ${Math.round(p.yieldKgHa).toLocaleString('en-US')} kg/ha (${bu.toFixed(0)} bu/ac) is above the ${Math.round(crop.maxPlausibleYieldKgHa).toLocaleString('en-US')} kg/ha plausible for ${crop.label.toLowerCase()}; check the cell and the yield unit.`,
         refs: o ? [o.ref] : [],
         value: p.yieldKgHa,
       });
@@ -82,7 +84,7 @@ export function checkValues(
       finding(p, {
         code: 'moisture-out-of-range',
         severity: 'warning',
-        message: `${o ? describeRef(o.ref) : p.site}: a harvest moisture of ${p.moisturePct} % is outside ${moistureRangePct[0]}–${moistureRangePct[1]} %; check the cell (a fraction such as 0.18 should be written 18).`,
+        message: `${o ? describeRef(o.ref) : nameOf(p)}: a harvest moisture of ${p.moisturePct} % is outside ${moistureRangePct[0]}–${moistureRangePct[1]} %; check the cell (a fraction such as 0.18 should be written 18).`,
         refs: o ? [o.ref] : [],
         value: p.moisturePct,
       });

@@ -22,6 +22,8 @@ import type { RateProfileInterval } from '../models/joinProfile';
 import type { ModelName } from '../models/modelTypes';
 import { describeRef, type QualityFinding } from '../table/qualityFinding';
 import type { Plot } from '../table/plotTable';
+import { siteYearsOf } from '../table/siteYear';
+import { yearsComparedReport } from './yearsComparedReport';
 import { intervalSharesWarning } from './intervalShares';
 import { fitMessage, optimumNote } from './modelNotes';
 import { priceTerms } from '../economics/priceQuote';
@@ -174,7 +176,8 @@ export function assembleReport(
   const { table, settings: a } = analysis;
   const terms = priceTerms({ ...display, crop: table.crop });
   const tablePlots = new Map<string, Plot[]>(analysis.plots.map((p) => [p.site, []]));
-  for (const p of table.plots) tablePlots.get(p.site)?.push(p);
+  const { nameOf } = siteYearsOf(table);
+  for (const p of table.plots) tablePlots.get(nameOf(p))?.push(p);
   const rowsOf = new Map<string, Map<ModelName, SiteModelRow>>();
   for (const r of priced.across.rows) {
     const m = rowsOf.get(r.site) ?? new Map<ModelName, SiteModelRow>();
@@ -215,6 +218,7 @@ export function assembleReport(
     mapping: meta.mapping,
     sites,
     acrossSites: acrossSitesOf(priced.across, priced.mixedOptimum),
+    yearsCompared: yearsComparedReport(priced.across),
     warnings: runWarnings,
   };
 }
@@ -330,6 +334,7 @@ function siteReport(
     );
   return {
     site: s.site,
+    year: s.year,
     n: used.rateKgHa.length,
     plots,
     interceptTest,

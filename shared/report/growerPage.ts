@@ -11,7 +11,8 @@ import { crops } from '../units/crops';
 import { formatQuantity } from '../units/formatQuantity';
 import { products } from '../units/products';
 import { priceWeightName } from '../units/unitWeights';
-import type { TrialReport } from './trialReport';
+import type { TrialReport, YearComparisonReport } from './trialReport';
+import { formatP } from '../analysis/describeFTest';
 import { fullResponseSentence } from '../economics/decisionSentences';
 import { unitScale } from './unitScale';
 
@@ -212,6 +213,8 @@ export function growerPage(report: TrialReport, which: string | 'region'): Growe
       ? `Response curve: ${best.label.toLowerCase()}, ${s.bestModelPicked ? s.bestModelReason : `chosen for the ${s.bestModelReason}`}.`
       : 'No response curve gave a usable optimum.',
   ];
+  const seasons = report.yearsCompared.find((c) => c.siteYears.includes(s.site));
+  if (seasons) basis.push(seasonSentence(seasons, s.year));
   const rec = s.recommendation;
   const recCertainty = (rate: number) => {
     const ci = s.bootstrap?.ciKgHa ?? null;
@@ -343,4 +346,15 @@ function spreadCertainty(
     level: 'not very sure',
     text: `Not very sure: ${text} Fields differ a lot; a field's own trial or test tells more.`,
   };
+}
+
+/** One season of a site tried over several: whether its response to N matched the others'. */
+function seasonSentence(c: YearComparisonReport, year: number | null): string {
+  const all = c.years.map((y) => y ?? 'no year').join(', ');
+  const head = `This is the ${year ?? 'undated'} season of ${c.site}, tried in ${all}:`;
+  if (c.response === null || c.responseDiffers === null)
+    return `${head} the seasons could not be compared; this page rests on this season's plots alone.`;
+  return c.responseDiffers
+    ? `${head} the response to N differed between the seasons (${formatP(c.response.p)}), so this page speaks for ${year ?? 'this season'} alone.`
+    : `${head} the response to N did not differ detectably between the seasons (${formatP(c.response.p)}); this page still rests on this season's plots alone.`;
 }

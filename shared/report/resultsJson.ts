@@ -6,7 +6,7 @@
  */
 import type { RateProfileInterval } from '../models/joinProfile';
 import type { ModelName, FitStatus } from '../models/modelTypes';
-import type { MixedModelReport, ShortfallSummary, TrialReport } from './trialReport';
+import type { FTestNumbers, MixedModelReport, ShortfallSummary, TrialReport } from './trialReport';
 import { priceRatioQuote } from '../economics/priceQuote';
 import { unitScale, type UnitScale } from './unitScale';
 
@@ -45,7 +45,10 @@ export interface ProfileIntervalJson {
 }
 
 export interface ResultsSite {
+  /** The site-year's name: "Alder Flats 2024" when the site has several years, else the site's. */
   site: string;
+  /** The harvest year, or null when the plots carry none. */
+  year: number | null;
   n: number;
   interceptTest: { t: number; F: number; df1: number; df2: number; p: number } | null;
   /**
@@ -171,6 +174,19 @@ export interface ResultsJson {
     /** The regional quadratic mixed model (REML), output units; null without one. */
     mixed: ResultsMixedModel | null;
   } | null;
+  /**
+   * Each site seen in several years, its years compared (F statistics have no unit); empty
+   * when no site has several years.
+   */
+  yearsCompared: {
+    site: string;
+    siteYears: string[];
+    years: (number | null)[];
+    response: FTestNumbers | null;
+    level: FTestNumbers | null;
+    responseDiffers: boolean | null;
+    sentence: string;
+  }[];
 }
 
 /** The regional mixed model in the results file (rates and yields in the output units). */
@@ -257,6 +273,7 @@ export function resultsJson(report: TrialReport): ResultsJson {
     },
     sites: report.sites.map((s) => ({
       site: s.site,
+      year: s.year,
       n: s.n,
       interceptTest: s.interceptTest
         ? {
@@ -406,6 +423,15 @@ export function resultsJson(report: TrialReport): ResultsJson {
           mixed: report.acrossSites.mixed ? mixedJson(report.acrossSites.mixed, u, fy2) : null,
         }
       : null,
+    yearsCompared: report.yearsCompared.map((c) => ({
+      site: c.site,
+      siteYears: [...c.siteYears],
+      years: [...c.years],
+      response: c.response ? fNumbers(c.response) : null,
+      level: c.level ? fNumbers(c.level) : null,
+      responseDiffers: c.responseDiffers,
+      sentence: c.sentence,
+    })),
   };
 }
 
@@ -436,4 +462,8 @@ function mixedJson(m: MixedModelReport, u: UnitScale, fy2: number): ResultsMixed
     method: m.optimum.method,
     aic: clean(m.fit.aic + m.fit.observations * Math.log(fy2)),
   };
+}
+
+function fNumbers(t: FTestNumbers): FTestNumbers {
+  return { F: clean(t.F), df1: t.df1, df2: t.df2, p: clean(t.p) };
 }

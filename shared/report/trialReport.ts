@@ -136,7 +136,10 @@ export interface ShortfallSummary {
 }
 
 export interface SiteReport {
+  /** The site-year's display name (shared/table/siteYear): "Alder Flats 2024" or the site's name. */
   site: string;
+  /** The harvest year, or null when the plots carry none. */
+  year: number | null;
   /** Plots used in the fits. */
   n: number;
   /** Every plot of the site, excluded ones too (with reasons). */
@@ -238,6 +241,32 @@ export interface MixedModelReport {
   optimum: MixedModelOptimum;
 }
 
+/** An F test's numbers as the report prints them. */
+export interface FTestNumbers {
+  F: number;
+  df1: number;
+  df2: number;
+  p: number;
+}
+
+/** The years of one site compared (shared/analysis/yearsCompared). */
+export interface YearComparisonReport {
+  /** The site's own name. */
+  site: string;
+  /** Its site-years' display names, in table order. */
+  siteYears: string[];
+  /** Their years, same order (null: plots without a year). */
+  years: (number | null)[];
+  /** One quadratic per year against one response shared by the years, each year its own level; null: no test. */
+  response: FTestNumbers | null;
+  /** One yield level per year against one for all; null: no test. */
+  level: FTestNumbers | null;
+  /** Whether the response differs at the analysis' level; null without a test. */
+  responseDiffers: boolean | null;
+  /** Both results in plain words. */
+  sentence: string;
+}
+
 export interface TrialReport {
   tool: { name: string; version: string };
   /** When the analysis ran, ISO 8601 (given by the caller so tests can fix it). */
@@ -250,6 +279,8 @@ export interface TrialReport {
   mapping: MappingEntry[];
   sites: SiteReport[];
   acrossSites: AcrossSitesReport | null;
+  /** Each site seen in several years, its years compared; empty when there is none. */
+  yearsCompared: YearComparisonReport[];
   /** Findings about the whole run (defaulted prices, skipped sites). */
   warnings: string[];
 }

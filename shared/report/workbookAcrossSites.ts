@@ -1,6 +1,7 @@
 /**
  * The across-site sheet: the regional rate and its profitable range, each
- * site's own best rate, the pooling tests and the regional return curve.
+ * site's own best rate, the pooling tests, the years of each site seen in several years
+ * compared, and the regional return curve.
  */
 import type ExcelJS from 'exceljs';
 import type { TrialReport } from './trialReport';
@@ -44,6 +45,7 @@ export function workbookAcrossSites(
   if (!a) {
     ws.getCell('A3').value =
       'Not computed: it needs at least two sites with a usable response curve.';
+    yearsTable(ws, 5, report, titles);
     return ws;
   }
   ws.getCell('A2').value =
@@ -105,6 +107,7 @@ export function workbookAcrossSites(
     ws.getCell(r, 1).value = n;
     titles.add(r++);
   }
+  r = yearsTable(ws, r + 1, report, titles);
   fitColumns(ws, 8, 50, titles);
   if (chart) {
     const id = wb.addImage({ buffer: chart.png as never, extension: 'png' });
@@ -116,4 +119,40 @@ export function workbookAcrossSites(
   ws.pageSetup.printArea = `A1:M${Math.max(r, 30)}`;
   setupPage(ws, paper, 'landscape');
   return ws;
+}
+
+/** The years-compared table from row r (nothing without a site of several years); the next free row. */
+function yearsTable(
+  ws: ExcelJS.Worksheet,
+  r: number,
+  report: TrialReport,
+  titles: Set<number>,
+): number {
+  if (report.yearsCompared.length === 0) return r;
+  r = tableHeading(
+    ws,
+    r,
+    'Does the response differ by year? (quadratic, each year its own level; extra-sum-of-squares F-tests)',
+    ['Site', 'Years', 'Response F', 'df1', 'df2', 'p', 'Level F', 'p (level)', 'In words'],
+    titles,
+  );
+  for (const c of report.yearsCompared) {
+    const row = ws.getRow(r++);
+    row.values = [
+      c.site,
+      c.years.map((y) => y ?? 'no year').join(', '),
+      c.response?.F ?? null,
+      c.response?.df1 ?? null,
+      c.response?.df2 ?? null,
+      c.response?.p ?? null,
+      c.level?.F ?? null,
+      c.level?.p ?? null,
+      c.sentence,
+    ];
+    row.getCell(3).numFmt = '0.00';
+    row.getCell(6).numFmt = P_VALUE_FORMAT;
+    row.getCell(7).numFmt = '0.00';
+    row.getCell(8).numFmt = P_VALUE_FORMAT;
+  }
+  return r;
 }

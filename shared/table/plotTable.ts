@@ -122,8 +122,3 @@ export function analyzablePlots(table: PlotTable): Plot[] {
     (p) => p.excluded === null && p.rateKgHa !== null && p.yieldKgHa !== null,
   );
 }
-
-/** Site names in first-seen order. */
-export function siteNames(table: PlotTable): string[] {
-  return [...new Set(table.plots.map((p) => p.site))];
-}

@@ -22,6 +22,8 @@ export type FindingCode =
   | 'treatment-not-in-key'
   | 'other-crop-sheet-skipped'
   | 'duplicate-plot'
+  | 'site-in-several-years'
+  | 'year-from-file-name'
   | 'missing-plot'
   | 'unequal-replication'
   | 'negative-value'

@@ -1,0 +1,59 @@
+/**
+ * Years from file names, for files without a year column. Two files of the same sites for two
+ * seasons ("Tamsin Hollow 2024.csv", "Tamsin Hollow 2025.csv") often carry the year only in
+ * their names; without it their plots would become one site-year, block 1 of one season
+ * merged with block 1 of the next. A name's year is used only when the files of one import
+ * name different years, so a single file named for its season reads as it always did.
+ */
+import type { Plot } from '../table/plotTable';
+import type { QualityFinding } from '../table/qualityFinding';
+
+/**
+ * The one year a file name holds: a four-digit number from 1950 to 2099 standing apart from
+ * other digits; null when there is none or more than one.
+ * @param name - the file name, e.g. "Tamsin Hollow 2024.csv"
+ * @returns the year, e.g. 2024, or null
+ * @example
+ * yearFromFileName('north_2025_final.xlsx') // 2025
+ * yearFromFileName('plots 2024-2025.csv')   // null (two years)
+ */
+export function yearFromFileName(name: string): number | null {
+  const years = [...name.matchAll(/(?<![0-9])(19[5-9][0-9]|20[0-9]{2})(?![0-9])/g)].map((m) =>
+    Number(m[1]),
+  );
+  return new Set(years).size === 1 ? years[0] : null;
+}
+
+/**
+ * Gives the plots of each file with no year of their own the year in the file's name, when the
+ * files name different years; one finding per file so the user sees where a year came from.
+ * @param files - each file's name and the plots read from it (changed in place)
+ * @param findings - where the findings go
+ * @example
+ * yearsFromFileNames([{ name: 'a 2024.csv', plots }, { name: 'a 2025.csv', plots: later }], findings)
+ */
+export function yearsFromFileNames(
+  files: readonly { name: string; plots: Plot[] }[],
+  findings: QualityFinding[],
+): void {
+  const named = files.filter((f) => f.plots.length > 0 && f.plots.every((p) => p.year === null));
+  const yearOf = new Map(named.map((f) => [f, yearFromFileName(f.name)]));
+  const distinct = new Set([...yearOf.values()].filter((y) => y !== null));
+  const withYears = files.filter((f) => f.plots.some((p) => p.year !== null));
+  // Different years among the files: named ones differ, or a named year is not the others'.
+  const otherYears = new Set(withYears.flatMap((f) => f.plots.map((p) => p.year)));
+  const differ =
+    distinct.size > 1 || [...distinct].some((y) => otherYears.size > 0 && !otherYears.has(y));
+  if (!differ) return;
+  for (const f of named) {
+    const year = yearOf.get(f);
+    if (year == null) continue;
+    for (const p of f.plots) p.year = year;
+    findings.push({
+      code: 'year-from-file-name',
+      severity: 'info',
+      message: `"${f.name}" has no year column; its plots were given the year ${year} from the file's name, because the files imported together are from different years.`,
+      refs: [],
+    });
+  }
+}
