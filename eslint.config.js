@@ -138,12 +138,12 @@ function stageBoundaries() {
       ['electron', 'cli'],
       'renderer/ imports neither electron/ nor cli/: the shell is reached through window.plotrate, typed in shared/desktop/desktopContract.ts.',
     ),
-    // The one atomic file writer is the shell's (plain Node, no electron import); the command line
-    // writes its outputs through it too.
+    // The one atomic file writer and the one capped file reader are the shell's (plain Node, no
+    // electron import); the command line writes and reads through them too.
     adapter(
       ['cli/**/*.ts'],
-      ['renderer', 'electron(?!/atomicWrite$)'],
-      'The command line calls shared/ only, and electron/atomicWrite.ts for its writes.',
+      ['renderer', 'electron(?!/(atomicWrite|readCappedFile|shellErrors)$)'],
+      'The command line calls shared/ only, and electron/atomicWrite.ts, readCappedFile.ts and shellErrors.ts for its file I/O.',
     ),
     adapter(['electron/**/*.ts'], ['renderer', 'cli'], 'The shell calls shared/ only.'),
   );

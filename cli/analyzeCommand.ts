@@ -7,16 +7,21 @@
  * imported where their output is written, so a run that writes only JSON
  * never loads them.
  */
-import { accessSync, constants, readFileSync, realpathSync, statSync } from 'node:fs';
+import { accessSync, constants, realpathSync, statSync } from 'node:fs';
 import path from 'node:path';
 import { writeFilesAtomic, type PendingOutput } from '../electron/atomicWrite';
+import { readCappedFile } from '../electron/readCappedFile';
+import { OpenFileError } from '../electron/shellErrors';
 import { analysisSettings } from '../shared/analysis/analysisSettings';
 import { analyzeTrial } from '../shared/analysis/analyzeTrial';
 import { priceTrial } from '../shared/analysis/priceTrial';
 import { illustrativePrices } from '../shared/economics/illustrativePrices';
 import { priceTerms, quotePrices, type PriceInput } from '../shared/economics/priceQuote';
+import { ImportError } from '../shared/import/importError';
 import { importFiles } from '../shared/import/importFiles';
+import { formatBytes, importLimits } from '../shared/import/importLimits';
 import { describeRef } from '../shared/table/qualityFinding';
+import { analyzablePlots } from '../shared/table/plotTable';
 import { siteYearsOf } from '../shared/table/siteYear';
 import { assembleReport } from '../shared/report/assembleReport';
 import { regionalReturnChart } from '../shared/report/regionalReturnChart';
@@ -150,23 +155,27 @@ function checkOutputs(args: AnalyzeArgs): void {
   }
 }
 
-function readInputs(files: string[]): { name: string; bytes: Uint8Array }[] {
-  return files.map((f) => {
+/**
+ * Reads every input through the one capped reader the desktop shell uses (regular files only,
+ * no larger than import's file limit), turning its refusal into a usage error (exit 2).
+ */
+async function readInputs(files: string[]): Promise<{ name: string; bytes: Uint8Array }[]> {
+  const out: { name: string; bytes: Uint8Array }[] = [];
+  for (const f of files) {
     try {
-      return { name: path.basename(f), bytes: new Uint8Array(readFileSync(f)) };
+      const b = await readCappedFile(
+        f,
+        importLimits.maxFileBytes,
+        (size) =>
+          `is ${formatBytes(size)}; trial files above ${formatBytes(importLimits.maxFileBytes)} are not read`,
+      );
+      out.push({ name: path.basename(f), bytes: new Uint8Array(b.buffer, b.byteOffset, b.length) });
     } catch (e) {
-      const code = (e as NodeJS.ErrnoException).code;
-      const why =
-        code === 'ENOENT'
-          ? 'no such file'
-          : code === 'EISDIR'
-            ? 'it is a folder'
-            : code === 'EACCES'
-              ? 'permission denied'
-              : String((e as Error).message);
-      throw new UsageError(`Cannot read ${f}: ${why}.`);
+      if (e instanceof OpenFileError) throw new UsageError(`Cannot read ${e.message}.`);
+      throw e;
     }
-  });
+  }
+  return out;
 }
 
 /** Prices from the options, filling what is missing with the illustrative ones (as the workspace does). */
@@ -280,7 +289,7 @@ export async function analyzeCommand(
   extra: { sheets?: string[]; createdAt?: string; warnings?: string[] } = {},
 ): Promise<TrialReport> {
   checkOutputs(args);
-  const files = readInputs(args.files);
+  const files = await readInputs(args.files);
   log.err(`plotrate: reading ${files.map((f) => f.name).join(', ')}`);
   const imported = await importFiles(files, {
     crop: args.crop,
@@ -345,7 +354,21 @@ export async function analyzeCommand(
     warnings: extra.warnings,
     findings: imported.findings,
   });
-  if (report.sites.every((s) => s.models.length === 0)) {
+  // Nothing fitted where the input holds errors (impossible rates or yields, text in number
+  // cells, …) is the input's fault: exit 2 with the first cell to correct, never a rate.
+  const nothingFitted = report.sites.every((s) => s.models.length === 0);
+  const firstError = [...imported.findings, ...analysis.findings].find(
+    (f) => f.severity === 'error',
+  );
+  if (nothingFitted && (firstError || analyzablePlots(imported.table).length === 0)) {
+    const ref = firstError?.refs[0];
+    throw new ImportError(
+      'no-data',
+      `Nothing could be fitted because of the input${firstError ? `: ${firstError.message}` : ': no plot has both a rate and a yield.'}`,
+      ref ? { file: ref.file, sheet: ref.sheet || undefined, cell: ref.cell } : null,
+    );
+  }
+  if (nothingFitted) {
     throw new AnalysisFailed(
       `No site could be fitted: ${report.sites[0]?.warnings[0] ?? 'no plots with both a rate and a yield'}`,
     );

@@ -4,9 +4,6 @@ import { PROJECT_FILE_EXTENSION } from '../shared/project/projectFormat';
 /** Extensions of the trial spreadsheets import reads. */
 export const TRIAL_FILE_EXTENSIONS = ['xlsx', 'xls', 'csv', 'tsv', 'txt'] as const;
 
-/** Largest trial spreadsheet the shell reads, bytes (the import module has its own zip checks). */
-export const MAX_TRIAL_FILE_BYTES = 100 * 1024 * 1024;
-
 /** Largest project file the shell reads, bytes. */
 export const MAX_PROJECT_FILE_BYTES = 512 * 1024 * 1024;
 

@@ -1,6 +1,6 @@
 import path from 'node:path';
 import type { TrialFileBytes } from '../shared/desktop/desktopContract';
-import { MAX_TRIAL_FILE_BYTES } from './fileKinds';
+import { formatBytes, importLimits } from '../shared/import/importLimits';
 import { readCappedFile } from './readCappedFile';
 
 /**
@@ -8,13 +8,15 @@ import { readCappedFile } from './readCappedFile';
  * shell never opens a source spreadsheet for writing.
  *
  * @param filePath absolute path of the spreadsheet
- * @throws OpenFileError when it is missing, not a file or larger than MAX_TRIAL_FILE_BYTES
+ * @throws OpenFileError when it is missing, not a regular file or larger than import's file
+ *   limit (the same cap the command line reads with)
  */
 export async function readTrialFile(filePath: string): Promise<TrialFileBytes> {
   const buffer = await readCappedFile(
     filePath,
-    MAX_TRIAL_FILE_BYTES,
-    (size) => `is ${size} bytes; trial sheets above ${MAX_TRIAL_FILE_BYTES} bytes are not read`,
+    importLimits.maxFileBytes,
+    (size) =>
+      `is ${formatBytes(size)}; trial files above ${formatBytes(importLimits.maxFileBytes)} are not read`,
   );
   return {
     name: path.basename(filePath),

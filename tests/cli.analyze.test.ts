@@ -8,21 +8,14 @@ import { existsSync, mkdtempSync, readFileSync, readdirSync, writeFileSync } fro
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
+import { runCli } from './support/runCli';
 import * as XLSX from 'xlsx';
 import { syntheticCsv } from '../shared/demo';
 import { recommendationCautions } from '../shared/economics/recommendationCautions';
 
-const cli = path.join(__dirname, '..', 'cli', 'plotrate.mjs');
 const dir = mkdtempSync(path.join(tmpdir(), 'plotrate-cli-'));
 
-function run(args: string[]): { code: number | null; out: string; err: string } {
-  const r = spawnSync(process.execPath, [cli, ...args], {
-    cwd: dir,
-    encoding: 'utf8',
-    timeout: 120_000,
-  });
-  return { code: r.status, out: r.stdout, err: r.stderr };
-}
+const run = (args: string[]) => runCli(dir, args);
 
 const sha = (file: string): string => createHash('sha256').update(readFileSync(file)).digest('hex');
 
@@ -78,7 +71,7 @@ describe('plotrate analyze: bad input', () => {
   it('exits 2 naming a file that does not exist', () => {
     const r = run(['analyze', 'missing.csv']);
     expect(r.code).toBe(2);
-    expect(r.err).toMatch(/Cannot read missing\.csv: no such file/);
+    expect(r.err).toMatch(/Cannot read missing\.csv: does not exist/);
   });
 
   it('refuses an --out that is the input and leaves the input as it was', () => {

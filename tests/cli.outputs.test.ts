@@ -4,7 +4,7 @@
 // child process in a temporary folder, on an invented trial from the seeded generator.
 // "Before any fit" is read from the progress lines: the command prints "fitting seven models"
 // before it fits, so a refusal without that line came first.
-import { spawn, spawnSync } from 'node:child_process';
+import { spawn } from 'node:child_process';
 import {
   existsSync,
   linkSync,
@@ -17,20 +17,13 @@ import {
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
+import { cliPath as cli, runCli } from './support/runCli';
 import { syntheticCsv } from '../shared/demo';
 import { removeStaleTemporaries, writeFilesAtomic } from '../electron/atomicWrite';
 
-const cli = path.join(__dirname, '..', 'cli', 'plotrate.mjs');
 const dir = mkdtempSync(path.join(tmpdir(), 'plotrate-outputs-'));
 
-function run(args: string[]): { code: number | null; out: string; err: string } {
-  const r = spawnSync(process.execPath, [cli, ...args], {
-    cwd: dir,
-    encoding: 'utf8',
-    timeout: 120_000,
-  });
-  return { code: r.status, out: r.stdout, err: r.stderr };
-}
+const run = (args: string[]) => runCli(dir, args);
 
 const temporaries = (folder: string) => readdirSync(folder).filter((n) => n.endsWith('.tmp'));
 

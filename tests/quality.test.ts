@@ -5,7 +5,7 @@
 import { describe, expect, it } from 'vitest';
 import { checkQuality, checkDesign, checkValues, fitTreatmentBlock } from '../shared/quality';
 import { mulberry32 } from '../shared/demo';
-import type { Plot, PlotTable } from '../shared/table/plotTable';
+import { analyzablePlots, type Plot, type PlotTable } from '../shared/table/plotTable';
 
 const ratesKgHa = [0, 50, 100, 150, 200, 250];
 
@@ -188,6 +188,22 @@ describe('checkQuality', () => {
       'gen.xlsx › Delta › D3 should hold the yield as a number but says "lodged"; the plot has no yield until the cell is corrected.',
     );
     expect(f.find((x) => x.code === 'not-a-number')!.severity).toBe('error');
+  });
+
+  it('refuses yields and rates no trial can have, and names the cell', () => {
+    // Bounds: shared/table/plotTable.ts impossibleValue (common practice, stated there).
+    const plots = site('Zeta', 1);
+    plots[0] = { ...plots[0], yieldKgHa: 1e308 };
+    plots[1] = { ...plots[1], rateKgHa: 50_000 };
+    const t = table(plots);
+    const f = checkValues(t, [5, 40]);
+    expect(f.map((x) => x.code)).toEqual(['impossible-value', 'impossible-value']);
+    expect(f.every((x) => x.severity === 'error')).toBe(true);
+    expect(f[1].message).toMatch(/the rate is beyond any practice .* left out of the fits/);
+    const used = analyzablePlots(t).map((p) => p.id);
+    expect(used).not.toContain(plots[0].id);
+    expect(used).not.toContain(plots[1].id);
+    expect(used).toHaveLength(plots.length - 2);
   });
 
   it('leaves the table unchanged and refuses a bad threshold', () => {

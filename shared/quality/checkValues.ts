@@ -2,7 +2,14 @@
  * Plot-by-plot checks of single values: text where a number belongs, negative
  * numbers, yields above the crop's plausible bound, moistures outside a range.
  */
-import { NUMERIC_COLUMN_ROLES, type Plot, type PlotTable } from '../table/plotTable';
+import {
+  impossibleValue,
+  MAX_POSSIBLE_RATE_KG_HA,
+  MAX_POSSIBLE_YIELD_KG_HA,
+  NUMERIC_COLUMN_ROLES,
+  type Plot,
+  type PlotTable,
+} from '../table/plotTable';
 import { crops } from '../units/crops';
 import { yieldFromKgHa } from '../units/convertYield';
 import { isMissingMarker, parseNumberText } from '../table/parseNumberText';
@@ -51,21 +58,37 @@ export function checkValues(
         refs: [p.original.yield.ref],
       });
     }
+    // The table's possibility rule (impossibleValue) decides; this names the cell and the fix.
     for (const [role, v] of [
       ['yield', p.yieldKgHa],
       ['rate', p.rateKgHa],
     ] as const) {
-      if (v !== null && v < 0) {
-        const o = p.original[role];
-        finding(p, {
-          code: 'negative-value',
-          severity: 'error',
-          message: `${o ? describeRef(o.ref) : nameOf(p)}: the ${role} is negative (${o?.text ?? v}); a ${role} cannot be below zero. Correct the cell.`,
-          refs: o ? [o.ref] : [],
-        });
-      }
+      const why = v === null ? null : impossibleValue(role, v);
+      if (v === null || why === null) continue;
+      const o = role === 'yield' ? (p.original.yield ?? p.original.plotWeight) : p.original.rate;
+      const where = o ? describeRef(o.ref) : nameOf(p);
+      const shown = o?.text ?? String(v);
+      const fix =
+        why === 'negative'
+          ? `a ${role} cannot be below zero`
+          : why === 'not finite'
+            ? `it is not a finite number`
+            : role === 'rate'
+              ? `no trial applies more than ${MAX_POSSIBLE_RATE_KG_HA.toLocaleString('en-US')} kg/ha; check the cell and the rate unit`
+              : `no crop yields more than ${MAX_POSSIBLE_YIELD_KG_HA.toLocaleString('en-US')} kg/ha; check the cell and the yield unit`;
+      finding(p, {
+        code: why === 'negative' ? 'negative-value' : 'impossible-value',
+        severity: 'error',
+        message: `${where}: the ${role} ${why === 'beyond any practice' ? 'is beyond any practice' : `is ${why}`} (${shown}); ${fix}. The plot is left out of the fits until the cell is corrected.`,
+        refs: o ? [o.ref] : [],
+      });
     }
-    if (p.yieldKgHa !== null && p.yieldKgHa > crop.maxPlausibleYieldKgHa) {
+    // A possible yield above the crop's plausible bound is kept and flagged; an impossible one was refused above.
+    if (
+      p.yieldKgHa !== null &&
+      p.yieldKgHa > crop.maxPlausibleYieldKgHa &&
+      impossibleValue('yield', p.yieldKgHa) === null
+    ) {
       const o = p.original.yield ?? p.original.plotWeight;
       const bu = yieldFromKgHa(p.yieldKgHa, 'bu/ac', table.crop);
       finding(p, {

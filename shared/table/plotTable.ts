@@ -116,9 +116,53 @@ export interface PlotTable {
   sources: SourceFile[];
 }
 
-/** Plots that take part in fitting: not excluded, with both rate and yield present. */
+/**
+ * Above this nutrient rate no trial applies fertilizer: a figure this large is a unit or typing
+ * error (a plot weight, grams, a date), never a treatment. Common practice: nitrogen trials top
+ * out near 300–450 kg N/ha and phosphate or potash trials near 500 kg/ha of oxide; 2,000 leaves
+ * room for any real design.
+ */
+export const MAX_POSSIBLE_RATE_KG_HA = 2000;
+
+/**
+ * Above this yield no grain crop is harvested: 60 t/ha is half again the highest maize yields
+ * on record (near 40 t/ha; from memory). The crop's own plausible bound (shared/units/crops)
+ * warns far below this; this one refuses.
+ */
+export const MAX_POSSIBLE_YIELD_KG_HA = 60000;
+
+/**
+ * Why a rate or yield cannot be what the sheet meant, or null when it can: negative, not a
+ * finite number, or beyond any practice. Such a value is kept in the table (and its cell named
+ * by the quality checks) but never fitted.
+ * @param role - which value
+ * @param valueKgHa - the value in kg/ha
+ * @returns a short reason, or null for a possible value
+ * @example
+ * impossibleValue('yield', -5340) // 'negative'
+ * impossibleValue('rate', 120) // null
+ */
+export function impossibleValue(
+  role: 'rate' | 'yield',
+  valueKgHa: number,
+): 'negative' | 'not finite' | 'beyond any practice' | null {
+  if (!Number.isFinite(valueKgHa)) return 'not finite';
+  if (valueKgHa < 0) return 'negative';
+  const max = role === 'rate' ? MAX_POSSIBLE_RATE_KG_HA : MAX_POSSIBLE_YIELD_KG_HA;
+  return valueKgHa > max ? 'beyond any practice' : null;
+}
+
+/**
+ * Plots that take part in fitting: not excluded, with both rate and yield present and
+ * possible (impossibleValue): a negative yield or a rate of 1e300 is refused, not fitted.
+ */
 export function analyzablePlots(table: PlotTable): Plot[] {
   return table.plots.filter(
-    (p) => p.excluded === null && p.rateKgHa !== null && p.yieldKgHa !== null,
+    (p) =>
+      p.excluded === null &&
+      p.rateKgHa !== null &&
+      p.yieldKgHa !== null &&
+      impossibleValue('rate', p.rateKgHa) === null &&
+      impossibleValue('yield', p.yieldKgHa) === null,
   );
 }

@@ -27,6 +27,7 @@ export type FindingCode =
   | 'missing-plot'
   | 'unequal-replication'
   | 'negative-value'
+  | 'impossible-value'
   | 'implausible-yield'
   | 'moisture-out-of-range'
   | 'outlier'
