@@ -357,9 +357,11 @@ export async function analyzeCommand(
   // Nothing fitted where the input holds errors (impossible rates or yields, text in number
   // cells, …) is the input's fault: exit 2 with the first cell to correct, never a rate.
   const nothingFitted = report.sites.every((s) => s.models.length === 0);
-  const firstError = [...imported.findings, ...analysis.findings].find(
-    (f) => f.severity === 'error',
-  );
+  const findings = [...imported.findings, ...analysis.findings];
+  // An error names the cell to fix; failing that, a warning does (a formula saved without result).
+  const firstError =
+    findings.find((f) => f.severity === 'error') ??
+    findings.find((f) => f.severity === 'warning' && f.refs.length > 0);
   if (nothingFitted && (firstError || analyzablePlots(imported.table).length === 0)) {
     const ref = firstError?.refs[0];
     throw new ImportError(

@@ -8,6 +8,7 @@ import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
+import ExcelJS from 'exceljs';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { syntheticCsv } from '../shared/demo';
 import { runCli } from './support/runCli';
@@ -29,7 +30,21 @@ function rewritten(column: number, change: (value: string, row: number) => strin
     .join('\n');
 }
 
-beforeAll(() => {
+/** A one-site workbook whose rate and yield cells are written by `cells` (rate kg/ha, yield t/ha). */
+async function workbook(name: string, cells: (rate: number, yieldTHa: number) => unknown[]) {
+  const wb = new ExcelJS.Workbook();
+  const ws = wb.addWorksheet('Plots');
+  ws.addRow(['Site', 'Block', 'N rate (kg N/ha)', 'Yield (t/ha)']);
+  for (const block of [1, 2, 3, 4])
+    for (const rate of [0, 50, 100, 150, 200])
+      ws.addRow(['Hazel Bank', block, ...cells(rate, 5 + Math.min(rate, 120) * 0.02 + block / 10)]);
+  await wb.xlsx.writeFile(path.join(dir, name));
+}
+
+beforeAll(async () => {
+  // Formulas saved with no calculated result (as some tools write them), and dates where rates belong.
+  await workbook('formulas.xlsx', (rate, y) => [rate, { formula: `${y}*1` }]);
+  await workbook('dates.xlsx', (rate, y) => [new Date(Date.UTC(2024, 0, 1 + rate)), y]);
   spawnSync('mkfifo', [path.join(dir, 'pipe.csv')]);
   symlinkSync(path.join(dir, 'loop-b.csv'), path.join(dir, 'loop-a.csv'));
   symlinkSync(path.join(dir, 'loop-a.csv'), path.join(dir, 'loop-b.csv'));
@@ -75,6 +90,18 @@ describe('plotrate analyze: impossible values are refused, never fitted', () => 
     const r = run(['analyze', 'huge-rates.csv', '--boot', '0', '--json', 'huge.json']);
     expect(r.code).toBe(2);
     expect(r.err).toMatch(/huge-rates\.csv › E\d+: the rate is beyond any practice/);
+  });
+
+  it.each([
+    ['formulas.xlsx', /formulas\.xlsx › Plots D2 .* is a formula .* without a calculated result/],
+    [
+      'dates.xlsx',
+      /dates\.xlsx › Plots › C2 should hold the rate as a number but says "2024-01-01"/,
+    ],
+  ])('%s: exit 2 naming the first cell to fix', (file, reason) => {
+    const r = run(['analyze', file, '--boot', '0', '--json', 'x.json']);
+    expect(r.code).toBe(2);
+    expect(r.err.trim().split('\n').at(-1)).toMatch(reason);
   });
 
   it('one negative yield: the plot is named and left out, the rest is analysed', () => {
