@@ -4,9 +4,6 @@ import { PROJECT_FILE_EXTENSION } from '../shared/project/projectFormat';
 /** Extensions of the trial spreadsheets import reads. */
 export const TRIAL_FILE_EXTENSIONS = ['xlsx', 'xls', 'csv', 'tsv', 'txt'] as const;
 
-/** Largest project file the shell reads, bytes. */
-export const MAX_PROJECT_FILE_BYTES = 512 * 1024 * 1024;
-
 /** What a path names, by its extension. */
 export type FileKind = 'project' | 'trial' | 'other';
 

@@ -197,6 +197,7 @@ function createWindow(): void {
       path.join(shellDir, 'preload.cjs'),
       path.join(shellDir, 'icon.png'),
       app.getVersion(),
+      !app.isPackaged,
     ),
   );
   window = win;

@@ -4,7 +4,7 @@ import { parseProject, type ParsedProject } from '../shared/project/parseProject
 import type { PlotrateProject } from '../shared/project/projectFormat';
 import { serializeProject } from '../shared/project/serializeProject';
 import { writeFileAtomic } from './atomicWrite';
-import { MAX_PROJECT_FILE_BYTES } from './fileKinds';
+import { MAX_PROJECT_FILE_BYTES } from '../shared/project/projectFormat';
 import { readCappedFile } from './readCappedFile';
 import { OpenFileError } from './shellErrors';
 

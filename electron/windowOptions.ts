@@ -9,11 +9,14 @@ import { VERSION_SWITCH } from './ipcChannels';
  * @param preloadPath absolute path of the bundled preload (dist-electron/preload.cjs)
  * @param iconPath absolute path of the window icon (Linux and Windows use it)
  * @param appVersion Plotrate's version, handed to the sandboxed preload as a switch
+ * @param developer whether this is a development run (not a packaged app): only then can the
+ *   developer tools open, so a packaged build never offers a console into the page
  */
 export function buildWindowOptions(
   preloadPath: string,
   iconPath: string,
   appVersion: string,
+  developer: boolean,
 ): BrowserWindowConstructorOptions {
   return {
     width: 1280,
@@ -39,7 +42,7 @@ export function buildWindowOptions(
       navigateOnDragDrop: false,
       safeDialogs: true,
       spellcheck: false,
-      devTools: true,
+      devTools: developer,
     },
   };
 }

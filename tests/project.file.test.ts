@@ -191,7 +191,39 @@ describe('parseProject refuses bad files with the problem and the field', () => 
       text: () => edited((j) => (j.prices.nutrientPerKg = -1)),
       problem: 'invalid',
       field: 'prices.nutrientPerKg',
-      message: /price ≥ 0/,
+      message: /price from 0 to 1,000,000 per kg, found -1/,
+    },
+    {
+      title: 'a price of 1e308 per kg',
+      text: () => edited((j) => (j.prices.grainPerKg = 1e308)),
+      problem: 'invalid',
+      field: 'prices.grainPerKg',
+      message: /price from 0 to/,
+    },
+    {
+      title: 'a yield unit Plotrate does not know',
+      text: () => edited((j) => (j.units.yield = 'bushels')),
+      problem: 'invalid',
+      field: 'units.yield',
+      message: /should be one of .*found "bushels"/,
+    },
+    {
+      title: 'a view nested 10,000 levels deep (no stack overflow)',
+      text: () =>
+        edited((j) => (j.view = { x: 1 })).replace(
+          '"x":1',
+          `"x": ${'{"a":'.repeat(10_000)}1${'}'.repeat(10_000)}`,
+        ),
+      problem: 'invalid',
+      field: `view.x${'.a'.repeat(31)}`, // refused at the 32nd level below the view
+      message: /nested more than 32 levels/,
+    },
+    {
+      title: 'a million resamples',
+      text: () => edited((j) => (j.bootstrap.resamples = 1e6)),
+      problem: 'invalid',
+      field: 'bootstrap.resamples',
+      message: /from 0 to 100,000/,
     },
     {
       title: 'a confidence level given in percent',

@@ -228,7 +228,7 @@ describe('opening files', () => {
     expect(opened.project?.name).toBe('Marl Ridge.plotrate');
     expect(opened.failures.map((f) => f.name)).toEqual(['photo.jpg', 'gone.csv']);
     expect(opened.failures[0].message).toMatch(/not a file Plotrate opens/);
-    expect(opened.failures[1].message).toMatch(/cannot be read \(ENOENT\)/);
+    expect(opened.failures[1].message).toMatch(/gone\.csv: does not exist/);
     const recent = (await call(IPC.recentFiles)) as { id: string; name: string; kind: string }[];
     expect(recent.map((r) => r.name)).toEqual(['Marl Ridge.plotrate', 'marl-ridge-n.csv']);
     const again = (await call(IPC.openRecent, recent[1].id)) as FilesOpened;

@@ -28,6 +28,7 @@ describe('window options (checklist items 2, 3, 4, 6, 8, 9, 10, 11/12)', () => {
     '/opt/plotrate/dist-electron/preload.cjs',
     '/opt/plotrate/icon.png',
     '1.2.3',
+    false,
   );
   const web = options.webPreferences!;
   it('keep Node out of the page and isolate the preload', () => {
@@ -44,6 +45,11 @@ describe('window options (checklist items 2, 3, 4, 6, 8, 9, 10, 11/12)', () => {
     expect(web.enableBlinkFeatures).toBeUndefined();
     expect(web.webviewTag).toBe(false);
     expect(web.navigateOnDragDrop).toBe(false);
+  });
+  it('open the developer tools only in a development run, never in a packaged app', () => {
+    expect(web.devTools).toBe(false);
+    const dev = buildWindowOptions('/p/preload.cjs', '/p/icon.png', '1.2.3', true);
+    expect(dev.webPreferences!.devTools).toBe(true);
   });
   it('load the one bundled preload by absolute path and pass the version as a switch', () => {
     expect(path.isAbsolute(web.preload!)).toBe(true);

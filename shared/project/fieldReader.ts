@@ -99,18 +99,28 @@ export class FieldReader {
   }
 }
 
-function checkJson(v: unknown, at: FieldReader): void {
+/**
+ * How deep a free-form part of a project (the view, the mapping) may nest. Plotrate writes a few
+ * levels; a file nested far deeper is damaged or hostile, and checking it would exhaust the stack.
+ */
+export const MAX_JSON_DEPTH = 32;
+
+function checkJson(v: unknown, at: FieldReader, depth = 0): void {
   if (v === null || typeof v === 'string' || typeof v === 'boolean') return;
+  if (depth >= MAX_JSON_DEPTH && typeof v === 'object')
+    at.fail(
+      `is nested more than ${MAX_JSON_DEPTH} levels deep, which no Plotrate project is; the file is damaged or was not written by Plotrate`,
+    );
   if (typeof v === 'number') {
     if (!Number.isFinite(v)) at.fail('holds a number that is not finite');
     return;
   }
   if (Array.isArray(v)) {
-    at.items().forEach((item) => checkJson(item.value, item));
+    at.items().forEach((item) => checkJson(item.value, item, depth + 1));
     return;
   }
   if (typeof v === 'object') {
-    for (const key of Object.keys(v)) checkJson(at.field(key).value, at.field(key));
+    for (const key of Object.keys(v)) checkJson(at.field(key).value, at.field(key), depth + 1);
     return;
   }
   at.fail(`holds ${describe(v)}, which JSON cannot store`);

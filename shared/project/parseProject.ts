@@ -1,8 +1,11 @@
 import { MODEL_NAMES } from '../models/modelTypes';
+import { rateUnits } from '../units/convertRate';
+import { yieldUnits } from '../units/convertYield';
 import { FieldReader, describe } from './fieldReader';
 import { migrateV1toV2 } from './migrateProject';
 import { ProjectFileError } from './projectFileError';
 import {
+  MAX_PROJECT_FILE_BYTES,
   PROJECT_FORMAT_NAME,
   PROJECT_FORMAT_VERSION,
   type ColumnMappingJson,
@@ -34,6 +37,14 @@ export interface ParsedProject {
  * @example parseProject(serializeProject(p), 'a.plotrate').project // deep-equals p
  */
 export function parseProject(text: string, where: string): ParsedProject {
+  // UTF-16 length ≤ UTF-8 bytes, so a text over the cap in characters is over it in bytes too.
+  if (text.length > MAX_PROJECT_FILE_BYTES)
+    throw new ProjectFileError(
+      'invalid',
+      where,
+      '',
+      `is larger than the ${MAX_PROJECT_FILE_BYTES / 1024 / 1024} MiB a Plotrate project can be; it is damaged or not a project`,
+    );
   let data: unknown;
   try {
     data = JSON.parse(text.replace(/^\uFEFF/, ''));
@@ -130,14 +141,26 @@ function readV1(top: FieldReader): PlotrateProjectV1 {
   };
 }
 
+/**
+ * Above this a price per kg is no price of grain or fertilizer in any currency in use (even
+ * currencies of many units per dollar price grain below 100,000 per kg); it is a damaged file.
+ */
+const MAX_PRICE_PER_KG = 1e6;
+
+/** More resamples than this would take hours per site; a file asking for them is damaged. */
+const MAX_RESAMPLES = 100_000;
+
 function price(r: FieldReader): number | null {
   const v = r.nullableNumber();
-  if (v !== null && v < 0) r.fail(`should be a price ≥ 0 per kg, found ${v}`);
+  if (v !== null && !(v >= 0 && v <= MAX_PRICE_PER_KG))
+    r.fail(
+      `should be a price from 0 to ${MAX_PRICE_PER_KG.toLocaleString('en-US')} per kg, found ${v}`,
+    );
   return v;
 }
 
 function readUnits(r: FieldReader): ProjectUnits {
-  return { rate: r.field('rate').string(), yield: r.field('yield').string() };
+  return { rate: r.field('rate').oneOf(rateUnits), yield: r.field('yield').oneOf(yieldUnits) };
 }
 
 function readModels(r: FieldReader): ProjectModels {
@@ -156,12 +179,16 @@ function readModels(r: FieldReader): ProjectModels {
 
 function readBootstrap(r: FieldReader): PlotrateProject['bootstrap'] {
   const resamples = r.field('resamples').number();
-  if (!Number.isInteger(resamples) || resamples < 0)
-    r.field('resamples').fail(`should be a whole number ≥ 0, found ${resamples}`);
+  if (!Number.isInteger(resamples) || resamples < 0 || resamples > MAX_RESAMPLES)
+    r.field('resamples').fail(
+      `should be a whole number from 0 to ${MAX_RESAMPLES.toLocaleString('en-US')}, found ${resamples}`,
+    );
   const level = r.field('confidenceLevel').number();
   if (!(level > 0 && level < 1))
     r.field('confidenceLevel').fail(
       `should lie strictly between 0 and 1 (e.g. 0.9), found ${level}`,
     );
-  return { resamples, seed: r.field('seed').number(), confidenceLevel: level };
+  const seed = r.field('seed').number();
+  if (!Number.isSafeInteger(seed)) r.field('seed').fail(`should be a whole number, found ${seed}`);
+  return { resamples, seed, confidenceLevel: level };
 }

@@ -17,6 +17,12 @@ import type { PlotTable, SourceFile } from '../table/plotTable';
 /** The `format` field every project file carries, so a stray JSON file is recognized as "not a project". */
 export const PROJECT_FORMAT_NAME = 'plotrate-project';
 
+/**
+ * Largest project file read, bytes (of UTF-8 text; the shell checks the file, parseProject the
+ * text, so browser storage is held to it too). A project of 10,000 plots is a few MB.
+ */
+export const MAX_PROJECT_FILE_BYTES = 512 * 1024 * 1024;
+
 /** The version this build writes. */
 export const PROJECT_FORMAT_VERSION = 2;
 
