@@ -185,3 +185,23 @@ describe('hasBlocks', () => {
     expect([m.design, m.blockCount, m.residual.df]).toEqual(['oneWay', 1, 4]);
   });
 });
+
+describe('fitRateBlockModel: the differences of rate means when the fit is exact', () => {
+  it('keeps Var(mean_j − mean_0)/σ² = 2/r (and 1/r between two differences) when every yield is equal', () => {
+    // Textbook: two means of r independent plots each differ with variance 2σ²/r and share the
+    // control mean's σ²/r (any design text; a balanced layout with blocks orthogonal to rates).
+    // Equal yields make σ² = 0 exactly, where covariance ÷ σ² would be 0/0.
+    const n = 20_000;
+    const m = fitRateBlockModel({
+      rateKgHa: Float64Array.from({ length: n }, (_, i) => (i % 5) * 50),
+      yieldKgHa: new Float64Array(n).fill(6000),
+      block: Array.from({ length: n }, (_, i) => String(1 + (i % 4))),
+    });
+    if ('problem' in m) throw new Error(m.problem);
+    const r = n / 5;
+    const u = m.differences.unscaledCovariance;
+    expect(u[0][0]).toBeCloseTo(2 / r, 12);
+    expect(u[2][1]).toBeCloseTo(1 / r, 12);
+    expect(u.flat().every(Number.isFinite)).toBe(true);
+  });
+});

@@ -92,6 +92,11 @@ export interface LeastSquaresFit {
   cooksDistance: Float64Array;
   /** σ² (XᵀX)⁻¹, row-major, in coefficient order. */
   covariance: number[][];
+  /**
+   * (XᵀX)⁻¹ itself, for contrasts scaled by another error estimate (and defined when the fit is
+   * exact and σ² is 0, where covariance ÷ σ² is not).
+   */
+  unscaledCovariance: number[][];
 }
 
 /**
@@ -255,5 +260,6 @@ export function fitLeastSquares(input: LeastSquaresInput): LeastSquaresFit {
     studentizedResiduals,
     cooksDistance,
     covariance,
+    unscaledCovariance: unscaled,
   };
 }

@@ -320,7 +320,7 @@ function additiveBlocks(input: RateBlockInput): RateBlockModel {
     rateKgHa: rateLevels.slice(1),
     differenceKgHa: rateColumns.map((c) => full.coefficients[c].estimate),
     unscaledCovariance: rateColumns.map((c) =>
-      rateColumns.map((d) => full.covariance[c][d] / msError),
+      rateColumns.map((d) => full.unscaledCovariance[c][d]),
     ),
   };
   return {
