@@ -116,6 +116,26 @@ describe('readTrialFile refuses files it cannot read, saying what to do', () => 
     expect(e.message).toMatch(/damaged|could not be read/);
   });
 
+  it('a workbook whose part does not match its CRC-32', async () => {
+    // PKWARE APPNOTE 4.4.7: each central directory entry (signature 0x02014b50) holds the part's
+    // CRC-32 at offset 16. One changed bit there must be refused, not read as if all were well.
+    const bad = demo.slice();
+    const view = new DataView(bad.buffer);
+    let at = -1;
+    for (let i = bad.length - 22; i >= 0; i--) {
+      if (view.getUint32(i, true) === 0x06054b50) {
+        at = view.getUint32(i + 16, true); // first central directory entry
+        break;
+      }
+    }
+    bad[at + 16] ^= 0x01;
+    const e = await refusal('crc.xlsx', bad);
+    expect(e.code).toBe('corrupt');
+    expect(e.message).toMatch(
+      /^"crc\.xlsx" looks like an \.xlsx workbook but is damaged \(the part ".*" does not match its checksum\)/,
+    );
+  });
+
   it('a zip with workbook parts that are not XML', async () => {
     const junk = zipSync({
       '[Content_Types].xml': new TextEncoder().encode('not xml'),
