@@ -343,7 +343,9 @@ describe('analyzeAcrossSites with nothing to fit', () => {
 });
 
 describe('analyzeAcrossSites with a site the models refuse', () => {
-  it("keeps a site with a negative rate, with the models' reason, out of every pooled test", () => {
+  // Negative rates are impossible values: the table leaves them out of the fits
+  // (shared/table/plotTable analyzablePlots), so a site of nothing else has no plot to fit.
+  it('keeps a site whose every rate is negative, with its reason, out of every pooled test', () => {
     const t = pooledPlotTable();
     const bad = t.plots
       .filter((p) => p.site === 'Alder Flats')
@@ -351,12 +353,12 @@ describe('analyzeAcrossSites with a site the models refuse', () => {
         ...p,
         id: `bad|${i}`,
         site: 'Hazel Patch',
-        rateKgHa: i === 0 ? -10 : p.rateKgHa,
+        rateKgHa: -10 - (p.rateKgHa ?? 0),
       }));
     const a = analyzeAcrossSites({ ...t, plots: [...t.plots, ...bad] }, { prices });
     const hazel = a.sites.find((s) => s.site === 'Hazel Patch')!;
     expect(hazel.fits).toBeNull();
-    expect(hazel.problem).toMatch(/a rate cannot be negative/);
+    expect(hazel.problem).toMatch(/none of the site's \d+ plots can be analyzed/);
     for (const x of [
       a.sharedResponse.linear,
       a.sharedResponse.quadratic,
