@@ -14,6 +14,7 @@ export type ImportErrorCode =
   | 'file-too-large'
   | 'uncompressed-too-large'
   | 'too-many-rows'
+  | 'too-many-columns'
   | 'bad-text'
   | 'no-data'
   | 'bad-mapping'

@@ -11,6 +11,11 @@ export interface ImportLimits {
   maxUncompressedBytes: number;
   /** Most rows accepted in one sheet or CSV file. */
   maxRows: number;
+  /**
+   * Most columns read in one sheet: a cell beyond is refused, naming it. Trial sheets use a few
+   * dozen; a stray value far right would otherwise widen every row.
+   */
+  maxColumns: number;
   /** Most entries accepted inside an .xlsx zip. */
   maxZipEntries: number;
   /**
@@ -23,13 +28,14 @@ export interface ImportLimits {
 
 /**
  * Defaults sized for trial sheets: a trial of 10 000 plots is a few MB; these
- * leave a wide margin while keeping exceljs, which holds the whole unzipped
- * workbook in memory at several times its size, well inside a desktop's RAM.
+ * leave a wide margin while keeping a workbook's unzipped XML and the cells read from it
+ * well inside a desktop's RAM.
  */
 export const importLimits: Readonly<ImportLimits> = {
   maxFileBytes: 64 * 1024 * 1024,
   maxUncompressedBytes: 256 * 1024 * 1024,
   maxRows: 250_000,
+  maxColumns: 1_024,
   maxZipEntries: 2_000,
   maxCompressionRatio: 400,
 };

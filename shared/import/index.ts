@@ -11,8 +11,8 @@
  * ```
  *
  * Public API
- * - `readTrialFile({ name, bytes }, limits?) → Promise<RawWorkbook>`: .xlsx (exceljs, after the
- *   zip is checked by {@link guardZip}), .csv/.tsv/.txt (comma, semicolon or tab; BOM; decimal
+ * - `readTrialFile({ name, bytes }, limits?) → Promise<RawWorkbook>`: .xlsx (read from its XML
+ *   by readXlsx, unzipped under the checks of {@link unzipChecked}), .csv/.tsv/.txt (comma, semicolon or tab; BOM; decimal
  *   commas; quotes). A legacy .xls, an .ods, a password-protected or damaged file, an oversized
  *   file: an {@link ImportError} whose message says what to do.
  * - `detectColumns(raw) → ColumnMapping`: per sheet the header row, each column's role and unit with

@@ -30,7 +30,10 @@ export interface RawSheet {
   hidden: boolean;
   /** 1-based numbers of hidden rows. */
   hiddenRows: number[];
-  /** rows[r - 1][c - 1] is the cell at row r, column c; null where empty. */
+  /**
+   * rows[r - 1][c - 1] is the cell at row r, column c; null where empty, or absent (a hole) in
+   * a wide gap of a sparse row: read cells as `row[c - 1] ?? null`.
+   */
   rows: (RawCell | null)[][];
   /** Whether numbers written as text here use a decimal comma ("12,5"). */
   decimalComma: boolean;

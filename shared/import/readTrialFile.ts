@@ -8,7 +8,6 @@ import { decodeText } from './decodeText';
 import { readDelimited } from './readDelimited';
 import { sha256Hex } from './sha256Hex';
 import { sniffFormat } from './sniffFormat';
-import { guardZip } from './zipGuard';
 import type { RawWorkbook } from './rawWorkbook';
 
 export interface TrialFileInput {
@@ -46,8 +45,7 @@ export async function readTrialFile(
     const format = sniffFormat(name, bytes);
     const file = { name, bytes: bytes.length, sha256: await sha256Hex(bytes) };
     if (format === 'xlsx') {
-      guardZip(name, bytes, lim);
-      // Imported here: exceljs is large, and a .csv never needs it.
+      // Imported here: a .csv never needs the workbook reader.
       const { readXlsx } = await import('./readXlsx');
       return await readXlsx(file, bytes, lim);
     }
