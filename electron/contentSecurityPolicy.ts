@@ -8,10 +8,15 @@
  *   (a `Function("return this")` after globalThis, the function-bind polyfill)
  *   and in the map traces' worker loader, which Plotrate does not use. If a
  *   chart type ever needs it, it shows as a CSP error in the log, not silently.
- * - styles: 'self' plus 'unsafe-inline', because Plotly and Svelte set style
- *   attributes on elements. Inline style cannot run script; with no remote
- *   content and connect-src limited to the app, the remaining risk (CSS that
- *   reads the page) has nowhere to send what it reads.
+ * - styles: style sheets only from the app's files, plus two <style> elements Plotly adds,
+ *   allowed by the hash of their exact text: an empty one it fills through the CSS object model
+ *   (the chart toolbar's and hover labels' rules; CSSOM calls are not subject to the policy) and
+ *   the map traces' fixed sheet, which it adds on load. An injected style element with any other
+ *   text is refused, so page-reading CSS selectors cannot be slipped in. Style attributes stay
+ *   allowed (`style-src-attr`): Svelte writes `style="…"` in its templates and Plotly sets
+ *   positions through them; an attribute cannot hold a selector or load anything, and
+ *   connect-src keeps the page from sending anything out. A Plotly upgrade that changes either
+ *   text shows as a refused style in the end-to-end tests, which run under this policy.
  * - workers: the app's files and blob: (the analysis worker); images: data:
  *   and blob: (chart snapshots, the icon); downloads of blob: URLs are
  *   handled by the shell, which asks where to save.
@@ -20,7 +25,10 @@
 export const CONTENT_SECURITY_POLICY = [
   "default-src 'none'",
   "script-src 'self'",
-  "style-src 'self' 'unsafe-inline'",
+  "style-src 'self'",
+  // SHA-256 of "" (Plotly's rule sheet) and of plotly.js-dist-min 4.1.2's map-trace style sheet.
+  "style-src-elem 'self' 'sha256-47DEQpj8HBSa+/TImW+5JCeuQeRkm5NMpJWZG3hSuFU=' 'sha256-2GF9hCGTDj/GGFNlQA54jDdMGl2fvoeZmZjAvBSiAtM='",
+  "style-src-attr 'unsafe-inline'",
   "img-src 'self' data: blob:",
   "font-src 'self' data:",
   "connect-src 'self' blob: data:",

@@ -2,6 +2,9 @@
 // tutorial in Electron's documentation, items numbered as there). Each check
 // tests the object or function the shell really uses.
 import { EventEmitter } from 'node:events';
+import { createHash } from 'node:crypto';
+import { readFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
 import { mkdtemp, readFile, rm } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
@@ -62,6 +65,25 @@ describe('Content-Security-Policy (item 7)', () => {
   it("allows scripts from the app only: no 'unsafe-eval', no 'unsafe-inline', no hosts", () => {
     expect(policy['script-src']).toEqual(["'self'"]);
     expect(policy['default-src']).toEqual(["'none'"]);
+  });
+  it("allows no inline style element but two of Plotly's, each by the hash of its exact text", () => {
+    for (const name of ['style-src', 'style-src-elem']) {
+      expect(policy[name], name).not.toContain("'unsafe-inline'");
+      expect(policy[name], name).toContain("'self'");
+    }
+    // The texts as the installed plotly.js-dist-min adds them: an empty sheet it fills through
+    // the CSS object model, and the map traces' sheet, a string literal in the bundle.
+    const bundle = readFileSync(
+      createRequire(import.meta.url).resolve('plotly.js-dist-min'),
+      'utf8',
+    );
+    const start = bundle.indexOf("textContent='.maplibregl-map") + "textContent='".length;
+    const mapSheet = bundle.slice(start, bundle.indexOf("'", start));
+    const hash = (text: string) => `'sha256-${createHash('sha256').update(text).digest('base64')}'`;
+    expect(policy['style-src-elem'].filter((s) => s.startsWith("'sha256-")).sort()).toEqual(
+      [hash(''), hash(mapSheet)].sort(),
+    );
+    expect(policy['style-src-attr']).toEqual(["'unsafe-inline'"]);
   });
   it('allows blob: workers and data: images, and nothing remote anywhere', () => {
     expect(policy['worker-src']).toContain('blob:');

@@ -7,6 +7,7 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
 import { build } from 'vite';
+import { CONTENT_SECURITY_POLICY } from '../../electron/contentSecurityPolicy';
 
 const root = path.resolve(import.meta.dirname, '../..');
 /** Screenshots of each step land here (git-ignored). */
@@ -54,6 +55,9 @@ export async function serveStatic(dir: string): Promise<{ server: Server; url: s
       (body) => {
         response.writeHead(200, {
           'content-type': contentTypes[path.extname(file)] ?? 'application/octet-stream',
+          // The policy the desktop shell sends, so a page that breaks it fails here too
+          // (Chromium logs each refusal as a console error, which pageErrors collects).
+          'content-security-policy': CONTENT_SECURITY_POLICY,
         });
         response.end(body);
       },
@@ -73,6 +77,8 @@ export interface Session {
   url: string;
   /** Errors the page logged or threw; a test asserts this stays empty. */
   pageErrors: string[];
+  /** Every request that left the local server (not data: or blob:); trial data stays on the computer. */
+  offsiteRequests: string[];
   close(): Promise<void>;
 }
 
@@ -105,6 +111,11 @@ export async function openSession(): Promise<Session> {
   const page = context.pages()[0] ?? (await context.newPage());
   const pageErrors: string[] = [];
   page.on('pageerror', (error) => pageErrors.push(error.message));
+  const offsiteRequests: string[] = [];
+  context.on('request', (request) => {
+    const target = request.url();
+    if (!target.startsWith(url) && !/^(data|blob):/.test(target)) offsiteRequests.push(target);
+  });
   page.on('response', (response) => {
     if (response.status() >= 400) pageErrors.push(`${response.status()} ${response.url()}`);
   });
@@ -120,6 +131,7 @@ export async function openSession(): Promise<Session> {
     page,
     url,
     pageErrors,
+    offsiteRequests,
     async close() {
       await context.close();
       await new Promise((resolve) => server.close(resolve));
