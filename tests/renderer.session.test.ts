@@ -18,9 +18,23 @@ const good = {
   selectedSite: null,
 };
 
+/** { a: { a: … } } nested `levels` deep, built without recursion. */
+function deeplyNested(levels: number): Record<string, unknown> {
+  let v: Record<string, unknown> = {};
+  for (let i = 0; i < levels; i++) v = { a: v };
+  return v;
+}
+
 describe('checkSession', () => {
   it('accepts a session this build wrote', () => {
     expect(checkSession(JSON.parse(JSON.stringify(good)))).toEqual(good);
+  });
+
+  it('accepts model choices by name and a session nested as deep as Plotrate writes', () => {
+    const withChoice = { ...good, choices: { 'Site A': 'quadraticPlateau' } };
+    expect(checkSession(withChoice)).toEqual(withChoice);
+    const nested = { ...good, edits: { ...good.edits, decisions: deeplyNested(20) } };
+    expect(checkSession(nested)).toEqual(nested);
   });
 
   it('accepts a shortfall tolerance of the user’s, the default (null), or none (older sessions)', () => {
@@ -38,6 +52,24 @@ describe('checkSession', () => {
     ['edits without decisions', { ...good, edits: { ...good.edits, decisions: undefined } }],
     ['a negative shortfall tolerance', { ...good, shortfallTolerancePerHa: -1 }],
     ['a shortfall tolerance as text', { ...good, shortfallTolerancePerHa: '12' }],
+    // The bounds a project file's values are held to (shared/project/parseProject).
+    ['a negative grain price', { ...good, prices: { ...ILLUSTRATIVE_PRICES, grainPerKg: -0.2 } }],
+    [
+      'a product price of 1e308',
+      { ...good, prices: { ...ILLUSTRATIVE_PRICES, productPerKg: 1e308 } },
+    ],
+    ['an analysis of 0 %', { ...good, prices: { ...ILLUSTRATIVE_PRICES, analysisPct: 0 } }],
+    ['an analysis over 100 %', { ...good, prices: { ...ILLUSTRATIVE_PRICES, analysisPct: 146 } }],
+    ['a model choice no build knows', { ...good, choices: { 'Site A': 'cubicSpline' } }],
+    [
+      'a record nested 10,000 levels deep',
+      {
+        ...good,
+        step: 'site',
+        choices: {},
+        edits: { ...good.edits, decisions: deeplyNested(10_000) },
+      },
+    ],
   ])('refuses %s', (_label, data) => {
     expect(checkSession(data)).toBeNull();
   });

@@ -105,6 +105,25 @@ export class FieldReader {
  */
 export const MAX_JSON_DEPTH = 32;
 
+/**
+ * Whether parsed JSON nests deeper than a limit, found without recursion (a hostile record may
+ * nest thousands of levels) and without walking further than the limit.
+ * @example nestedDeeperThan({ a: [1] }, 1) // true
+ */
+export function nestedDeeperThan(value: unknown, limit: number): boolean {
+  let level: unknown[] = [value];
+  for (let depth = 0; level.length > 0; depth++) {
+    const next: unknown[] = [];
+    for (const v of level) {
+      if (typeof v !== 'object' || v === null) continue;
+      if (depth >= limit) return true;
+      next.push(...(Array.isArray(v) ? v : Object.values(v)));
+    }
+    level = next;
+  }
+  return false;
+}
+
 function checkJson(v: unknown, at: FieldReader, depth = 0): void {
   if (v === null || typeof v === 'string' || typeof v === 'boolean') return;
   if (depth >= MAX_JSON_DEPTH && typeof v === 'object')

@@ -5,6 +5,7 @@ import { FieldReader, describe } from './fieldReader';
 import { migrateV1toV2 } from './migrateProject';
 import { ProjectFileError } from './projectFileError';
 import {
+  MAX_PRICE_PER_KG,
   MAX_PROJECT_FILE_BYTES,
   PROJECT_FORMAT_NAME,
   PROJECT_FORMAT_VERSION,
@@ -140,12 +141,6 @@ function readV1(top: FieldReader): PlotrateProjectV1 {
     bootstrap: { n, seed: b.field('seed').number() },
   };
 }
-
-/**
- * Above this a price per kg is no price of grain or fertilizer in any currency in use (even
- * currencies of many units per dollar price grain below 100,000 per kg); it is a damaged file.
- */
-const MAX_PRICE_PER_KG = 1e6;
 
 /** More resamples than this would take hours per site; a file asking for them is damaged. */
 const MAX_RESAMPLES = 100_000;

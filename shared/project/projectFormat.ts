@@ -23,6 +23,13 @@ export const PROJECT_FORMAT_NAME = 'plotrate-project';
  */
 export const MAX_PROJECT_FILE_BYTES = 512 * 1024 * 1024;
 
+/**
+ * Above this a price per kg is no price of grain or fertilizer in any currency in use (even
+ * currencies of many units per dollar price grain below 100,000 per kg): the project file or the
+ * browser's saved session holding it is damaged.
+ */
+export const MAX_PRICE_PER_KG = 1e6;
+
 /** The version this build writes. */
 export const PROJECT_FORMAT_VERSION = 2;
 

@@ -5,7 +5,9 @@
  */
 import type { Edits } from '../analysis/edits';
 import type { PriceSettings } from '../analysis/priceInputs';
-import type { BlockTerms, ModelName } from '../../../shared/models/modelTypes';
+import { MODEL_NAMES, type BlockTerms, type ModelName } from '../../../shared/models/modelTypes';
+import { MAX_JSON_DEPTH, nestedDeeperThan } from '../../../shared/project/fieldReader';
+import { MAX_PRICE_PER_KG } from '../../../shared/project/projectFormat';
 import type { UnitSystem } from './format';
 
 export interface Session {
@@ -27,6 +29,27 @@ function isObject(v: unknown): v is Record<string, unknown> {
   return typeof v === 'object' && v !== null && !Array.isArray(v);
 }
 
+/** A number in [low, high]: never NaN or infinite. */
+function within(v: unknown, low: number, high: number): boolean {
+  return typeof v === 'number' && v >= low && v <= high;
+}
+
+/**
+ * The saved prices hold the bounds a project file's prices do (shared/project): grain and
+ * product per kg from 0 to MAX_PRICE_PER_KG, the nutrient share of the product a percentage
+ * above 0, the application cost per hectare no more than a price per kg could make it.
+ */
+function plausiblePrices(prices: Record<string, unknown>): boolean {
+  return (
+    within(prices.grainPerKg, 0, MAX_PRICE_PER_KG) &&
+    within(prices.productPerKg, 0, MAX_PRICE_PER_KG) &&
+    within(prices.analysisPct, Number.MIN_VALUE, 100) &&
+    within(prices.applicationPerHa, 0, MAX_PRICE_PER_KG) &&
+    typeof prices.productId === 'string' &&
+    typeof prices.currency === 'string'
+  );
+}
+
 /**
  * Checks that parsed JSON is a session this build can restore.
  * @param data - parsed JSON
@@ -36,6 +59,8 @@ function isObject(v: unknown): v is Record<string, unknown> {
  */
 export function checkSession(data: unknown): Session | null {
   if (!isObject(data) || data.version !== 1) return null;
+  // As for a project file: a record nested deeper than Plotrate ever writes is damaged.
+  if (nestedDeeperThan(data, MAX_JSON_DEPTH)) return null;
   const files = data.files;
   if (
     !Array.isArray(files) ||
@@ -53,21 +78,15 @@ export function checkSession(data: unknown): Session | null {
   ) {
     return null;
   }
-  const prices = data.prices;
-  if (
-    !isObject(prices) ||
-    !['grainPerKg', 'productPerKg', 'analysisPct', 'applicationPerHa'].every(
-      (k) => typeof prices[k] === 'number',
-    ) ||
-    typeof prices.productId !== 'string' ||
-    typeof prices.currency !== 'string'
-  ) {
-    return null;
-  }
+  if (!isObject(data.prices) || !plausiblePrices(data.prices)) return null;
   if (data.unitSystem !== 'us' && data.unitSystem !== 'metric') return null;
   if (data.blocks !== 'none' && data.blocks !== 'fixed') return null;
   if (typeof data.locale !== 'string' || typeof data.step !== 'string') return null;
-  if (!isObject(data.choices)) return null;
+  if (
+    !isObject(data.choices) ||
+    !Object.values(data.choices).every((m) => MODEL_NAMES.includes(m as ModelName))
+  )
+    return null;
   if (data.selectedSite !== null && typeof data.selectedSite !== 'string') return null;
   const tolerance = data.shortfallTolerancePerHa;
   if (
