@@ -294,6 +294,7 @@ export async function analyzeCommand(
   const imported = await importFiles(files, {
     crop: args.crop,
     overrides: args.map,
+    units: args.columnUnits,
     sheets: extra.sheets,
   });
   const units = args.units ? displayUnits(args.units) : imported.inputUnits;

@@ -49,6 +49,11 @@ Options for analyze
                          rate="N applied"; roles: site, year, block, plot,
                          treatment, rate, yield, moisture, exclude, notes,
                          plotWeight, plotArea, group, ignore
+  --column-unit role=unit ...
+                         the unit of a column whose header names none, e.g.
+                         --column-unit plotWeight=kg yield=t/ha; rate: kg/ha,
+                         lb/ac, g/m2; yield: kg/ha, t/ha, lb/ac, bu/ac, g/m2;
+                         plotWeight: kg, g, lb; plotArea: m2, ft2, ha, ac
 
 Without prices the run uses illustrative prices and every report says so.
 A summary is printed either way; files are written only when asked for, and

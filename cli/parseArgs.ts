@@ -5,8 +5,13 @@
 // The roles come from their owner, not from importFiles (which re-exports them): this
 // module loads on every start, and importFiles would bring the whole import code.
 import { ANALYSIS_DEFAULTS } from '../shared/analysis/analysisSettings';
-import { MAPPED_ROLES, type MappedRole } from '../shared/import/columnMapping';
-import type { RoleOverride } from '../shared/import/importFiles';
+import {
+  MAPPED_ROLES,
+  UNITS_BY_ROLE,
+  type HeaderUnit,
+  type MappedRole,
+} from '../shared/import/columnMapping';
+import type { RoleOverride, UnitOverride } from '../shared/import/importFiles';
 import type { CropId } from '../shared/table/plotTable';
 import { cropIds, isCropId } from '../shared/units/crops';
 import { productFromText, productIds, type ProductId } from '../shared/units/products';
@@ -28,6 +33,8 @@ export interface AnalyzeArgs {
   seed: number;
   blocks: 'none' | 'fixed';
   map: RoleOverride[];
+  /** The unit of a role's column, where the file does not say it (--column-unit plotWeight=kg). */
+  columnUnits: UnitOverride[];
   /**
    * Shortfall tolerance of the risk tables in money per acre (lb/ac output) or per hectare;
    * null: the default, the cost of 10 kg N/ha at the prices.
@@ -62,6 +69,7 @@ export function analyzeDefaults(files: string[] = []): AnalyzeArgs {
     seed: ANALYSIS_DEFAULTS.seed,
     blocks: 'fixed',
     map: [],
+    columnUnits: [],
     shortfallTolerance: null,
   };
 }
@@ -214,6 +222,32 @@ export function parseArgs(argv: readonly string[]): Command {
           any = true;
         }
         if (!any) throw new UsageError('--map needs at least one role=Header.');
+        break;
+      }
+      case '--column-unit': {
+        let any = false;
+        while (i + 1 < rest.length && !rest[i + 1].startsWith('--')) {
+          const pair = rest[++i];
+          const eq = pair.indexOf('=');
+          const role = pair.slice(0, eq) as MappedRole;
+          const unit = pair.slice(eq + 1).trim();
+          const units = UNITS_BY_ROLE[role];
+          if (eq < 1 || !unit)
+            throw new UsageError(
+              `--column-unit ${pair}: write role=unit, e.g. --column-unit plotWeight=kg.`,
+            );
+          if (!units)
+            throw new UsageError(
+              `--column-unit ${pair}: "${role}" is not a role with a unit; use one of ${Object.keys(UNITS_BY_ROLE).join(', ')}.`,
+            );
+          if (!(units as readonly string[]).includes(unit))
+            throw new UsageError(
+              `--column-unit ${pair}: a ${role} column takes ${units.join(', ')}.`,
+            );
+          a.columnUnits.push({ role, unit: unit as HeaderUnit });
+          any = true;
+        }
+        if (!any) throw new UsageError('--column-unit needs at least one role=unit.');
         break;
       }
       default:

@@ -36,6 +36,8 @@ describe('parseArgs', () => {
       '--map',
       'yield=Grain (t/ha)',
       'block=Rep',
+      '--column-unit',
+      'plotArea=ft2',
     ]);
     expect(c).toEqual({
       command: 'analyze',
@@ -56,8 +58,18 @@ describe('parseArgs', () => {
         { role: 'yield', header: 'Grain (t/ha)' },
         { role: 'block', header: 'Rep' },
       ],
+      columnUnits: [{ role: 'plotArea', unit: 'ft2' }],
       shortfallTolerance: 7.5,
     });
+  });
+
+  it.each([
+    [['--column-unit', 'plotWeight=t/ha'], /a plotWeight column takes kg, g, lb/],
+    [['--column-unit', 'block=m'], /"block" is not a role with a unit/],
+    [['--column-unit', 'kg'], /write role=unit/],
+    [['--column-unit'], /needs at least one role=unit/],
+  ])('refuses %j with a line that says what it takes', (words, message) => {
+    expect(() => parseArgs(['analyze', 'a.csv', ...words])).toThrow(message);
   });
 
   it('has defaults: corn, input units, 200 resamples, seed 1, block terms where labelled', () => {

@@ -1,10 +1,10 @@
 // One column per role: detection, the screen's role edits and the command line's --map follow
 // the one rule of shared/import/columnMapping.ts (roleTakesOneColumn), notes included. The rule
 // is the project's own (a sheet read with two yield or two notes columns would have to guess).
+import { assignColumnRole, unitForRole } from '../shared/import/assignColumnRole';
 import { describe, expect, it } from 'vitest';
 import {
   MAPPED_ROLES,
-  assignColumnRole,
   columnForRole,
   roleTakesOneColumn,
   type ColumnAssignment,
@@ -51,6 +51,26 @@ describe('roleTakesOneColumn', () => {
       expect(holders, role).toEqual(roleTakesOneColumn(role) ? [2] : [1, 2]);
       expect(columns[0].role, 'the input is not changed').toBe(role);
     }
+  });
+
+  it("a new role brings a unit it takes (the header's, the one kept, or its first) and closes any question", () => {
+    const asked = {
+      ...column(5, 'yield'),
+      header: 'Harvested grain (lb/plot)',
+      unit: 't/ha' as const,
+      question: { readings: [], why: 'unsure' },
+    };
+    const [toWeight] = assignColumnRole([asked], 5, 'plotWeight', {
+      chosen: () => 'x',
+      setAside: 'y',
+    });
+    // "lb/plot" is a plot weight's unit (headerWords); t/ha is not one.
+    expect(toWeight).toMatchObject({ role: 'plotWeight', unit: 'lb' });
+    expect(toWeight.question).toBeUndefined();
+    const plain = { ...column(6, 'yield'), header: 'Grain', unit: 't/ha' as const };
+    expect(unitForRole(plain, 'plotWeight')).toBe('kg');
+    expect(unitForRole(plain, 'yield')).toBe('t/ha');
+    expect(unitForRole(plain, 'block')).toBeNull();
   });
 
   it('columnForRole reads the first of two columns an older mapping gave one role', () => {

@@ -15,7 +15,12 @@
 import type { CropId, Plot, PlotTable, SourceFile } from '../table/plotTable';
 import type { QualityFinding } from '../table/qualityFinding';
 import { checkImportSettings } from './checkImportSettings';
-import type { ColumnMapping, SheetMapping } from './columnMapping';
+import {
+  openQuestion,
+  questionSentence,
+  type ColumnMapping,
+  type SheetMapping,
+} from './columnMapping';
 import { ImportError } from './importError';
 import type { ImportSettings } from './importSettings';
 import type { RawWorkbook } from './rawWorkbook';
@@ -91,6 +96,14 @@ export function buildPlotTable(
           'bad-mapping',
           `The mapping names sheet "${m.sheet}", which "${raw.file.name}" does not have; detect the columns again for this file.`,
           { file: raw.file.name, sheet: m.sheet },
+        );
+      }
+      const asked = openQuestion(m);
+      if (asked) {
+        throw new ImportError(
+          'column-needs-answer',
+          `${questionSentence(raw.file.name, m, asked)} by giving the column its role and unit.`,
+          { file: raw.file.name, sheet: m.sheet, cell: `${asked.letter}${m.headerRow}` },
         );
       }
       readPlotsSheet(raw, sheet, m, key, settings, crop, standardMoisturePct, plots, findings);

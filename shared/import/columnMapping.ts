@@ -15,6 +15,29 @@ export const MAPPED_ROLES = [...COLUMN_ROLES, 'product', 'timing', 'ignore'] as 
 /** A column's meaning: a plot-table role, a treatment-key field, or nothing. */
 export type MappedRole = (typeof MAPPED_ROLES)[number];
 
+/** A role's name for people: the column review, messages, the command line's help. */
+export const ROLE_LABELS: Readonly<Record<MappedRole, string>> = {
+  site: 'Site',
+  year: 'Year',
+  block: 'Block (replicate)',
+  plot: 'Plot',
+  treatment: 'Treatment',
+  rate: 'N rate',
+  yield: 'Yield',
+  plotWeight: 'Plot grain weight',
+  plotArea: 'Plot area',
+  plotLength: 'Plot length',
+  plotWidth: 'Plot width',
+  moisture: 'Grain moisture',
+  testWeight: 'Test weight',
+  notes: 'Notes',
+  exclude: 'Exclude flag',
+  group: 'Grouping (soil, previous crop…)',
+  product: 'Product (key)',
+  timing: 'Timing (key)',
+  ignore: 'Not used',
+};
+
 /** Units a header can name. Rates and yields per area; weights, areas, lengths per plot. */
 export type HeaderUnit =
   | 'kg/ha'
@@ -63,6 +86,29 @@ export interface ColumnAssignment {
   moistureBasis?: 'harvest' | 'standard';
   /** Why this role and unit, in words for the user. */
   evidence: string;
+  /**
+   * A question import could not settle from the evidence (plot weights or yields?): while it is
+   * open the column is not read, and the table is not built; the user's answer (a role and a
+   * unit) closes it. Absent when the evidence was clear.
+   */
+  question?: ColumnQuestion;
+}
+
+/** One way to read a column that import could not choose between, with what it would give. */
+export interface ColumnReading {
+  role: 'yield' | 'plotWeight';
+  unit: HeaderUnit;
+  /** The median yield this reading gives, kg/ha, or null when it cannot be computed. */
+  medianYieldKgHa: number | null;
+  /** What this reading means, for the user: "plot weights in kg over plots of 12 m²". */
+  meaning: string;
+}
+
+/** The open question of a column (see ColumnAssignment.question). */
+export interface ColumnQuestion {
+  readings: ColumnReading[];
+  /** Why import asks, for the user. */
+  why: string;
 }
 
 export interface SheetMapping {
@@ -126,26 +172,26 @@ export function columnForRole(
 }
 
 /**
- * Gives one column a role; when the role takes one column, the column that had it is set aside
- * ('ignore'), so a sheet never reads two yields. Returns new column objects for the changed ones.
- * @param columns - the sheet's columns
- * @param col - 1-based number of the column that gets the role
- * @param role - the new role
- * @param evidence - why, for the chosen column and for a column set aside
- * @returns the sheet's columns after the change
- * @example
- * assignColumnRole(sheet.columns, 6, 'yield', { chosen: 'set by you', setAside: 'set aside' })
+ * The first column of a plots sheet whose question is still open (see ColumnAssignment.question).
+ * @example openQuestion(sheet)?.letter // 'D'
  */
-export function assignColumnRole(
-  columns: readonly ColumnAssignment[],
-  col: number,
-  role: MappedRole,
-  evidence: { chosen: (was: MappedRole) => string; setAside: string },
-): ColumnAssignment[] {
-  const one = roleTakesOneColumn(role);
-  return columns.map((c) => {
-    if (c.col === col) return { ...c, role, evidence: evidence.chosen(c.role) };
-    if (one && c.role === role) return { ...c, role: 'ignore', evidence: evidence.setAside };
-    return c;
-  });
+export function openQuestion(sheet: SheetMapping): ColumnAssignment | undefined {
+  return sheet.use === 'plots'
+    ? sheet.columns.find((c) => c.question && c.role !== 'ignore')
+    : undefined;
+}
+
+/**
+ * The sentence that says what an open question is about and what each answer would give, for
+ * the screen and both import paths: "Column D "Harvested grain" of sheet "Plots" in "t.csv" may
+ * hold plot weights or yields: …".
+ */
+export function questionSentence(
+  file: string,
+  sheet: SheetMapping,
+  column: ColumnAssignment,
+): string {
+  const why = column.question?.why ?? '';
+  const where = sheet.sheet ? `of sheet "${sheet.sheet}" ` : '';
+  return `Column ${column.letter} "${column.header}" ${where}in "${file}" may hold plot weights or yields, and the file does not say which (${why}). No yield is computed from a guess: say which it holds`;
 }

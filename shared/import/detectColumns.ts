@@ -9,7 +9,6 @@ import {
   UNITS_BY_ROLE,
   type ColumnAssignment,
   type ColumnMapping,
-  type HeaderUnit,
   type MappedRole,
   type SheetMapping,
   roleTakesOneColumn,
@@ -19,6 +18,9 @@ import { normalizeHeader, roleFromHeader, unitFromHeader } from './headerWords';
 import { columnLetters, type RawSheet, type RawWorkbook } from './rawWorkbook';
 import { shapeSignature } from './shapeSignature';
 import { cropFromText } from './cropFromText';
+import { weightOrYield } from './weightOrYield';
+import type { CropId } from '../table/plotTable';
+import { areaToM2, lengthToM, type AreaUnit, type LengthUnit } from '../units/convertYield';
 
 /** How many rows from the top are searched for the header. */
 const headerSearchRows = 30;
@@ -87,21 +89,76 @@ function valuesEvidence(v: ColumnValues): string {
 
 const numericRoles = new Set<MappedRole>(NUMERIC_COLUMN_ROLES);
 
-function guessYieldUnit(v: ColumnValues, usHints: boolean): { unit: HeaderUnit; why: string } {
-  const m = median(v.numbers);
-  if (m < 25)
-    return { unit: 't/ha', why: `no unit in the header; values near ${m.toFixed(1)} read as t/ha` };
-  if (m < 400)
-    return {
-      unit: 'bu/ac',
-      why: `no unit in the header; values near ${Math.round(m)} read as bu/ac`,
-    };
-  return usHints
-    ? {
-        unit: 'lb/ac',
-        why: `no unit in the header; values near ${Math.round(m)} with US units elsewhere read as lb/ac`,
-      }
-    : { unit: 'kg/ha', why: `no unit in the header; values near ${Math.round(m)} read as kg/ha` };
+/** The crop named above the header (sheet name and title rows), if exactly one. */
+function sheetCrop(sheet: RawSheet, headerRow: number): CropId | null {
+  const above = sheet.rows
+    .slice(0, headerRow - 1)
+    .flatMap((r) => r.map((c) => (c && c.kind === 'text' ? c.text : '')))
+    .join(' ');
+  return cropFromText(sheet.name) ?? cropFromText(above);
+}
+
+/** The median plot area of the sheet's area column, or of its length × width columns, m². */
+function medianPlotAreaM2(
+  sheet: RawSheet,
+  headerRow: number,
+  taken: ReadonlyMap<MappedRole, ColumnAssignment>,
+): number | null {
+  const numbers = (a: ColumnAssignment | undefined) =>
+    a ? columnValues(sheet, headerRow, a.col).numbers.filter((v) => v > 0) : [];
+  const area = taken.get('plotArea');
+  const areas = numbers(area);
+  if (area && areas.length > 0) return areaToM2(median(areas), (area.unit as AreaUnit) ?? 'm2');
+  const length = taken.get('plotLength');
+  const width = taken.get('plotWidth');
+  const ls = numbers(length);
+  const ws = numbers(width);
+  if (length && width && ls.length > 0 && ws.length > 0)
+    return (
+      lengthToM(median(ls), (length.unit as LengthUnit) ?? 'm') *
+      lengthToM(median(ws), (width.unit as LengthUnit) ?? 'm')
+    );
+  return null;
+}
+
+/**
+ * Settles each yield or plot-weight column by weightOrYield: its role, its unit, and a question
+ * when the evidence leaves both open. A column whose decided role another column already holds
+ * keeps the role its header gave it.
+ */
+function decideWeightOrYield(
+  sheet: RawSheet,
+  headerRow: number,
+  columns: readonly ColumnAssignment[],
+  taken: Map<MappedRole, ColumnAssignment>,
+  weighed: ReadonlyMap<ColumnAssignment, number[]>,
+  usHints: boolean,
+  crop: CropId | null,
+): void {
+  const plotAreaM2 = medianPlotAreaM2(sheet, headerRow, taken);
+  for (const a of columns) {
+    if (a.role !== 'yield' && a.role !== 'plotWeight') continue;
+    const d = weightOrYield({
+      header: a.header,
+      values: weighed.get(a) ?? [],
+      plotAreaM2,
+      usHints,
+      crop,
+    });
+    const holder = taken.get(d.role);
+    if (d.role !== a.role && holder && holder !== a) continue;
+    if (d.role !== a.role) {
+      taken.delete(a.role);
+      taken.set(d.role, a);
+      if (d.role === 'plotWeight') delete a.moistureBasis;
+    }
+    a.role = d.role;
+    a.unit = d.unit;
+    if (d.question) a.question = d.question;
+    // After the header's word, before the values' count.
+    const parts = a.evidence.split('; ');
+    a.evidence = [parts[0], ...d.evidence, ...parts.slice(1)].filter(Boolean).join('; ');
+  }
 }
 
 /** A sheet left out of the import, with the reason the user sees. */
@@ -130,6 +187,8 @@ function mapSheet(sheet: RawSheet, multipleSheets: boolean): SheetMapping {
   const usHints = header.some((c) => c && /\b(bu|lbs?|ac|acre)\b/.test(normalizeHeader(c.text)));
   const columns: ColumnAssignment[] = [];
   const taken = new Map<MappedRole, ColumnAssignment>();
+  /** Yield and plot-weight columns with their numbers, for weightOrYield once all are known. */
+  const weighed = new Map<ColumnAssignment, number[]>();
   // Columns with data under a blank header cell are listed too, so nothing is dropped unseen.
   let width = header.length;
   const end = Math.min(sheet.rows.length, headerRow + 500);
@@ -177,21 +236,15 @@ function mapSheet(sheet: RawSheet, multipleSheets: boolean): SheetMapping {
       a.unit = u.unit;
       why.push(`unit "${u.text}"`);
     } else if (allowed) {
-      // No usable unit in the header: read it from the values.
-      if (a.role === 'yield' && values.numbers.length > 0) {
-        const g = guessYieldUnit(values, usHints);
-        a.unit = g.unit;
-        why.push(g.why);
-      } else if (a.role === 'rate') {
+      // No usable unit in the header: read it from the values. Yields and plot weights are
+      // decided together once the sheet's plot size is known (weightOrYield, below).
+      if (a.role === 'rate') {
         a.unit = usHints ? 'lb/ac' : 'kg/ha';
         why.push(
           `no unit in the header; ${usHints ? 'US units elsewhere, so lb/ac' : 'taken as kg/ha'}`,
         );
       } else if (a.role === 'moisture') {
         a.unit = '%';
-      } else if (a.role === 'plotWeight') {
-        a.unit = usHints ? 'lb' : 'kg';
-        why.push(`no unit in the header; taken as ${a.unit}`);
       } else if (a.role === 'plotArea') {
         a.unit = usHints ? 'ft2' : 'm2';
         why.push(`no unit in the header; taken as ${a.unit}`);
@@ -217,6 +270,7 @@ function mapSheet(sheet: RawSheet, multipleSheets: boolean): SheetMapping {
           : `rates of ${a.basis === 'nutrient' ? 'nutrient (N)' : 'product'}`,
       );
     }
+    if (a.role === 'yield' || a.role === 'plotWeight') weighed.set(a, values.numbers);
     if (numericRoles.has(a.role)) {
       why.push(valuesEvidence(values));
       if (values.filled > 0 && values.numbers.length < values.filled / 2) {
@@ -256,6 +310,8 @@ function mapSheet(sheet: RawSheet, multipleSheets: boolean): SheetMapping {
     a.evidence = why.join('; ');
     columns.push(a);
   });
+  const cropHint = sheetCrop(sheet, headerRow);
+  decideWeightOrYield(sheet, headerRow, columns, taken, weighed, usHints, cropHint);
   // Whether yields are wet follows from the header, or from the presence of a moisture column.
   const hasMoisture = taken.has('moisture');
   for (const a of columns) {
@@ -287,13 +343,15 @@ function mapSheet(sheet: RawSheet, multipleSheets: boolean): SheetMapping {
     : multipleSheets || !generic
       ? { from: 'sheet-name' }
       : { from: 'fixed', value: '' };
-  // The crop named above the header (sheet name and title rows), if exactly one.
-  const above = sheet.rows
-    .slice(0, headerRow - 1)
-    .flatMap((r) => r.map((c) => (c && c.kind === 'text' ? c.text : '')))
-    .join(' ');
-  const cropHint = use === 'plots' ? (cropFromText(sheet.name) ?? cropFromText(above)) : null;
-  return { sheet: sheet.name, use, headerRow, site, columns, evidence, cropHint };
+  return {
+    sheet: sheet.name,
+    use,
+    headerRow,
+    site,
+    columns,
+    evidence,
+    cropHint: use === 'plots' ? cropHint : null,
+  };
 }
 
 /**

@@ -111,6 +111,12 @@ export function unitFromHeader(header: string): UnitHint | null {
     else if (/^(t|mg|tonnes?|tons?)$/.test(massWord)) unit = perHa ? 't/ha' : null;
     if (unit) return { unit, basis, text };
   }
+  // A mass per plot ("kg/plot", "lb per plot") is a plot weight's unit.
+  const perPlot = /\b(kg|g|lbs?|pounds?)\.?\s*(?:\/|per)\s*plot\b/.exec(h);
+  if (perPlot) {
+    const m = perPlot[1];
+    return { unit: m === 'kg' ? 'kg' : m === 'g' ? 'g' : 'lb', basis: null, text: perPlot[0] };
+  }
   if (/\bbpa\b/.test(h)) return { unit: 'bu/ac', basis: null, text: 'bpa' };
   if (/\blb\s*\/\s*bu\b/.test(h)) return { unit: 'lb/bu', basis: null, text: 'lb/bu' };
   if (/\bkg\s*\/\s*hl\b/.test(h)) return { unit: 'kg/hl', basis: null, text: 'kg/hl' };

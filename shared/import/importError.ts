@@ -18,6 +18,7 @@ export type ImportErrorCode =
   | 'bad-text'
   | 'no-data'
   | 'bad-mapping'
+  | 'column-needs-answer'
   | 'bad-settings';
 
 /** Where in the user's file the problem is, when it is in one place. */

@@ -5,6 +5,7 @@
  * (results are shown in them unless the user picks a system) and the mapping
  * in the flat form the provenance sheet lists. Pure: bytes in, values out.
  */
+import { assignColumnRole } from './assignColumnRole';
 import type { QualityFinding } from '../table/qualityFinding';
 import type { CropId, PlotTable } from '../table/plotTable';
 import { rateUnits, type RateUnit } from '../units/convertRate';
@@ -13,12 +14,14 @@ import type { DisplayUnits } from '../units/displayUnits';
 import { buildPlotTable } from './buildPlotTable';
 import {
   MAPPED_ROLES,
-  assignColumnRole,
+  ROLE_LABELS,
+  openQuestion,
+  questionSentence,
   type ColumnMapping,
+  type HeaderUnit,
   type MappedRole,
 } from './columnMapping';
 import { detectColumns } from './detectColumns';
-import { unitFromHeader } from './headerWords';
 import { ImportError } from './importError';
 import { mappingEntries, type MappingEntry } from './mappingEntries';
 import { readTrialFile } from './readTrialFile';
@@ -30,6 +33,12 @@ export const mappableRoles: readonly MappedRole[] = MAPPED_ROLES;
 export interface RoleOverride {
   role: MappedRole;
   header: string;
+}
+
+/** A user's "this role's column is in this unit" (the file's header names none, or a wrong one). */
+export interface UnitOverride {
+  role: MappedRole;
+  unit: HeaderUnit;
 }
 
 export interface ImportedFiles {
@@ -56,12 +65,50 @@ function applyOverrides(mapping: ColumnMapping, overrides: readonly RoleOverride
         chosen: () => `set by the user (--map ${o.role}=${o.header})`,
         setAside: `set aside: --map ${o.role}=${o.header} names another column`,
       });
-      const hint = unitFromHeader(col.header);
-      if (hint) sheet.columns.find((c) => c.col === col.col)!.unit = hint.unit;
       if (o.role === 'site') sheet.site = { from: 'column' };
     }
   }
   return matched;
+}
+
+/** Gives each role's column in every plots sheet the user's unit; returns the roles that matched. */
+function applyUnits(mapping: ColumnMapping, units: readonly UnitOverride[]): Set<MappedRole> {
+  const matched = new Set<MappedRole>();
+  for (const sheet of mapping.sheets) {
+    if (sheet.use !== 'plots') continue;
+    for (const u of units) {
+      const col = sheet.columns.find((c) => c.role === u.role);
+      if (!col) continue;
+      matched.add(u.role);
+      sheet.columns = sheet.columns.map((c) =>
+        c === col ? { ...c, unit: u.unit, evidence: `${c.evidence}; unit set by the user` } : c,
+      );
+    }
+  }
+  return matched;
+}
+
+/** The command-line words that settle an open question: one --map (and unit) per reading. */
+function questionAnswers(
+  mapping: ColumnMapping,
+  file: string,
+  sheets: readonly string[] | undefined,
+): ImportError | null {
+  for (const sheet of mapping.sheets) {
+    if (sheets && !sheets.includes(sheet.sheet)) continue;
+    const asked = openQuestion(sheet);
+    if (!asked?.question) continue;
+    const header = asked.header.includes(' ') ? `"${asked.header}"` : asked.header;
+    const ways = asked.question.readings.map(
+      (r) => `--map ${r.role}=${header} --column-unit ${r.role}=${r.unit}`,
+    );
+    return new ImportError(
+      'column-needs-answer',
+      `${questionSentence(file, sheet, asked)}: ${ways.join(', or ')}.`,
+      { file, sheet: sheet.sheet, cell: `${asked.letter}${sheet.headerRow}` },
+    );
+  }
+  return null;
 }
 
 /**
@@ -76,18 +123,37 @@ function applyOverrides(mapping: ColumnMapping, overrides: readonly RoleOverride
  */
 export async function importFiles(
   files: readonly { name: string; bytes: Uint8Array }[],
-  options: { crop: CropId; overrides: readonly RoleOverride[]; sheets?: string[] },
+  options: {
+    crop: CropId;
+    overrides: readonly RoleOverride[];
+    units?: readonly UnitOverride[];
+    sheets?: string[];
+  },
 ): Promise<ImportedFiles> {
   const raws = [];
   const mappings: ColumnMapping[] = [];
   const matched = new Set<string>();
+  const unitMatched = new Set<MappedRole>();
   for (const f of files) {
     const raw = await readTrialFile({ name: f.name, bytes: f.bytes });
     const mapping = detectColumns(raw);
     for (const h of applyOverrides(mapping, options.overrides)) matched.add(h);
+    for (const r of applyUnits(mapping, options.units ?? [])) unitMatched.add(r);
     raws.push(raw);
     mappings.push(mapping);
   }
+  for (const u of options.units ?? []) {
+    if (!unitMatched.has(u.role))
+      throw new ImportError(
+        'bad-mapping',
+        `--column-unit ${u.role}=${u.unit}: no plot sheet in ${files.map((f) => `"${f.name}"`).join(', ')} has a ${ROLE_LABELS[u.role].toLowerCase()} column; give one with --map ${u.role}=Header.`,
+        { file: files[0]?.name ?? '' },
+      );
+  }
+  raws.forEach((raw, i) => {
+    const asked = questionAnswers(mappings[i], raw.file.name, options.sheets);
+    if (asked) throw asked;
+  });
   for (const o of options.overrides) {
     if (matched.has(norm(o.header))) continue;
     const headers = [

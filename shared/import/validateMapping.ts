@@ -4,7 +4,7 @@
  * field is checked and a wrong one is named (sheet, column) in an ImportError
  * rather than failing later with a TypeError.
  */
-import { MAPPED_ROLES, UNITS_BY_ROLE, type ColumnMapping } from './columnMapping';
+import { MAPPED_ROLES, ROLE_LABELS, UNITS_BY_ROLE, type ColumnMapping } from './columnMapping';
 import { ImportError } from './importError';
 import { isCropId } from '../units/crops';
 
@@ -72,7 +72,7 @@ export function validateMapping(mapping: unknown, file: string): ColumnMapping {
       const units = UNITS_BY_ROLE[c.role];
       if (units && c.unit !== null && c.unit !== undefined && !units.includes(c.unit)) {
         throw bad(
-          `gives ${col} the unit "${String(c.unit)}", which is not a unit for ${c.role} (${units.join(', ')})`,
+          `gives ${col} the unit "${String(c.unit)}", which a ${ROLE_LABELS[c.role].toLowerCase()} column cannot have; choose one of ${units.join(', ')}`,
           sh.sheet,
         );
       }

@@ -76,6 +76,18 @@ const table: Record<CropId, CropInfo> = {
   },
 };
 
+/**
+ * The band of yields, kg/ha at standard moisture, within which a column's values can be read as
+ * this crop's yields: up to the crop's plausible ceiling and down to a fiftieth of it. The floor
+ * is this project's rule, not a document: a trial plot yielding less than that is a failed crop,
+ * so a reading of a column that puts its median below it is a reading in the wrong unit.
+ * @example plausibleYieldBandKgHa('corn') // [500, 25000]
+ */
+export function plausibleYieldBandKgHa(id: CropId): [number, number] {
+  const ceiling = crops(id).maxPlausibleYieldKgHa;
+  return [ceiling / 50, ceiling];
+}
+
 /** Every crop the tables know, in a stable order for menus. */
 export const cropIds: readonly CropId[] = Object.keys(table) as CropId[];
 

@@ -357,6 +357,47 @@ describe('the workspace in chromium', () => {
     expect(session.pageErrors.map((e) => e.slice(0, 300))).toEqual([]);
   });
 
+  it('asks whether a column holds plot weights or yields, and the answer gives the right yields', async () => {
+    const { page } = session;
+    // Case 28 of the header corpus: "Grain yield" with no unit beside a plot-area column.
+    const dir = await mkdtemp(path.join(tmpdir(), 'plotrate-e2e-ask-'));
+    const file = path.join(dir, 'Quillon weights.csv');
+    await writeFile(
+      file,
+      await readFile(
+        path.join(
+          import.meta.dirname,
+          '..',
+          'fixtures',
+          'import',
+          'headers',
+          '28-grain-yield-area-asks.csv',
+        ),
+      ),
+    );
+    await page.getByRole('button', { name: /Trial files/ }).click();
+    await page.getByTestId('trial-file-input').setInputFiles(file);
+    await page.getByRole('button', { name: /Columns/ }).click();
+    const question = page.locator('[data-testid^="question-"]');
+    await question.waitFor({ timeout: 20_000 });
+    await expect(question.textContent()).resolves.toMatch(/Plot weights or yields\?/);
+    // Nothing is built from a guess: the table waits for the answer.
+    await page.getByTestId('build-problem').waitFor();
+    await shot(page, '07b-plot-weight-question');
+    await question.getByRole('button', { name: /Plot weights in kg/ }).click();
+    await question.waitFor({ state: 'detached' });
+    await page.getByTestId('build-problem').waitFor({ state: 'detached' });
+    // 7.1 kg from a 12 m² plot is 5,917 kg/ha: the first plot's yield in t/ha.
+    const first = page.getByTestId('preview-row').filter({ hasText: 'Quillon Ridge' }).first();
+    await expect(first.textContent()).resolves.toMatch(/5\.92/);
+    // Undo brings the question back; redo answers it again.
+    await page.getByRole('button', { name: /^Undo/ }).click();
+    await question.waitFor();
+    await page.getByRole('button', { name: /^Redo/ }).click();
+    await question.waitFor({ state: 'detached' });
+    expect(session.pageErrors.map((e) => e.slice(0, 300))).toEqual([]);
+  });
+
   it('keeps the work across a reload', async () => {
     const { page } = session;
     await page.getByRole('button', { name: /Prices/ }).click();

@@ -5,9 +5,10 @@
  * plain JSON so they go to undo snapshots, localStorage and the project file
  * unchanged. Every change returns a new value; nothing is edited in place.
  */
+import { assignColumnRole } from '../../../shared/import/assignColumnRole';
 import {
-  assignColumnRole,
   type ColumnMapping,
+  type ColumnReading,
   type HeaderUnit,
   type MappedRole,
   type SheetMapping,
@@ -89,6 +90,24 @@ export function setColumnUnit(
     ...s,
     columns: s.columns.map((c) => (c.col === col ? { ...c, unit } : c)),
   }));
+}
+
+/**
+ * Answers a column's open question (plot weights or yields?) with one of its readings: the
+ * column takes that role and unit, and the question is closed (assignColumnRole).
+ * @param mapping - the file's mapping
+ * @param sheet - sheet name
+ * @param col - 1-based column number
+ * @param reading - the role and unit the user chose
+ * @returns the changed mapping
+ */
+export function answerColumnQuestion(
+  mapping: ColumnMapping,
+  sheet: string,
+  col: number,
+  reading: Pick<ColumnReading, 'role' | 'unit'>,
+): ColumnMapping {
+  return setColumnUnit(setColumnRole(mapping, sheet, col, reading.role), sheet, col, reading.unit);
 }
 
 /**
