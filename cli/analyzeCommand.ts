@@ -7,6 +7,7 @@
  * imported where their output is written, so a run that writes only JSON
  * never loads them.
  */
+import type { CropId } from '../shared/table/plotTable';
 import { accessSync, constants, realpathSync, statSync } from 'node:fs';
 import path from 'node:path';
 import { writeFilesAtomic, type PendingOutput } from '../electron/atomicWrite';
@@ -179,8 +180,8 @@ async function readInputs(files: string[]): Promise<{ name: string; bytes: Uint8
 }
 
 /** Prices from the options, filling what is missing with the illustrative ones (as the workspace does). */
-function pricesFrom(args: AnalyzeArgs, units: DisplayUnits): PriceInput {
-  const illustrative = quotePrices(illustrativePrices(args.crop), units, args.crop, true);
+function pricesFrom(args: AnalyzeArgs, units: DisplayUnits, crop: CropId): PriceInput {
+  const illustrative = quotePrices(illustrativePrices(crop), units, crop, true);
   const nutrientGiven = args.nutrientPrice !== null || args.product !== null;
   const product = args.product
     ? args.productPrice !== null
@@ -298,7 +299,7 @@ export async function analyzeCommand(
     sheets: extra.sheets,
   });
   const units = args.units ? displayUnits(args.units) : imported.inputUnits;
-  const prices = pricesFrom(args, units);
+  const prices = pricesFrom(args, units, imported.table.crop);
   if (prices.defaulted) {
     log.err(
       `plotrate: no ${args.grainPrice === null ? 'grain' : 'nitrogen'} price given; using illustrative prices (see --grain-price, --nutrient-price).`,
@@ -328,6 +329,9 @@ export async function analyzeCommand(
   log.err(
     `plotrate: ${imported.table.plots.length} plots at ${where}; fitting seven models per site${args.boot ? ` with ${args.boot} bootstrap resamples` : ''}`,
   );
+  // Which crop, and why: its bushel weight and moisture enter every yield.
+  const cropNote = imported.findings.find((f) => f.code === 'crop-from-files');
+  if (cropNote) log.err(`plotrate: ${cropNote.message}`);
   const step = Math.max(1, Math.ceil(siteCount / 10));
   const analysis = analyzeTrial(imported.table, settings, (done, total) => {
     if (total >= 20 && (done % step === 0 || done === total))

@@ -22,8 +22,9 @@ Options for analyze
   --pdf FILE.pdf         write the grower recommendations (one page per site
                          and one for the region; Letter with US units, A4 else)
   --json FILE.json       write the results (schema in README, "Results format")
-  --crop NAME            corn (default), wheat, soybean, barley, sorghum, oats,
-                         canola
+  --crop NAME            corn, wheat, soybean, barley, sorghum, oats, canola;
+                         default: the crop the files name (sheet or file name,
+                         a title row, a crop column), else corn
   --units us|metric      show rates and yields in lb/ac and bu/ac, or kg/ha and
                          t/ha; default: the units of the input
   --grain-price N        grain price per bushel (bu/ac yields), per tonne

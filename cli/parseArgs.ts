@@ -23,7 +23,8 @@ export interface AnalyzeArgs {
   out: string | null;
   pdf: string | null;
   json: string | null;
-  crop: CropId;
+  /** The crop, or null: read from the files (corn when none names one). */
+  crop: CropId | null;
   units: 'us' | 'metric' | null;
   grainPrice: number | null;
   nutrientPrice: number | null;
@@ -59,7 +60,7 @@ export function analyzeDefaults(files: string[] = []): AnalyzeArgs {
     out: null,
     pdf: null,
     json: null,
-    crop: 'corn',
+    crop: null,
     units: null,
     grainPrice: null,
     nutrientPrice: null,

@@ -72,10 +72,10 @@ describe('parseArgs', () => {
     expect(() => parseArgs(['analyze', 'a.csv', ...words])).toThrow(message);
   });
 
-  it('has defaults: corn, input units, 200 resamples, seed 1, block terms where labelled', () => {
+  it('has defaults: the crop the files name, input units, 200 resamples, seed 1, block terms where labelled', () => {
     const c = parseArgs(['analyze', 'a.csv']);
     expect(c).toMatchObject({
-      crop: 'corn',
+      crop: null,
       units: null,
       boot: 200,
       seed: 1,

@@ -14,6 +14,7 @@
  */
 import type { CropId, Plot, PlotTable, SourceFile } from '../table/plotTable';
 import type { QualityFinding } from '../table/qualityFinding';
+import { crops } from '../units/crops';
 import { checkImportSettings } from './checkImportSettings';
 import {
   openQuestion,
@@ -62,6 +63,12 @@ export function buildPlotTable(
   const plots: Plot[] = [];
   const sources: SourceFile[] = books.map((b) => b.file);
   const perFile: { name: string; plots: Plot[] }[] = [];
+  // Sheets that name another crop stay out unless chosen by name, or unless nothing else is left
+  // in any of the files (then each is read with a warning that its crop differs).
+  const otherCrop = (s: SheetMapping) => !settings.sheets && !!s.cropHint && s.cropHint !== crop;
+  const skipOther = maps.some(
+    (m) => Array.isArray(m?.sheets) && m.sheets.some((s) => s.use === 'plots' && !otherCrop(s)),
+  );
   books.forEach((raw, bi) => {
     const first = plots.length;
     const mapping = validateMapping(maps[bi], raw.file.name);
@@ -74,10 +81,6 @@ export function buildPlotTable(
         for (const [k, v] of readTreatmentKey(raw, ks, km, findings))
           if (!key.has(k)) key.set(k, v);
     }
-    // Sheets that name another crop stay out unless chosen by name, or unless nothing else is left.
-    const plotsSheets = mapping.sheets.filter((s) => s.use === 'plots');
-    const otherCrop = (s: SheetMapping) => !settings.sheets && !!s.cropHint && s.cropHint !== crop;
-    const skipOther = plotsSheets.some((s) => !otherCrop(s));
     for (const m of mapping.sheets) {
       if (m.use !== 'plots') continue;
       if (settings.sheets && !settings.sheets.includes(m.sheet)) continue;
@@ -107,6 +110,13 @@ export function buildPlotTable(
         );
       }
       readPlotsSheet(raw, sheet, m, key, settings, crop, standardMoisturePct, plots, findings);
+      if (m.cropHint && m.cropHint !== crop)
+        findings.push({
+          code: 'crop-differs',
+          severity: 'warning',
+          message: `${m.sheet ? `Sheet "${m.sheet}" of "${raw.file.name}"` : `"${raw.file.name}"`} names ${crops(m.cropHint).label.toLowerCase()} (${m.cropEvidence ?? 'its title'}), but the analysis is set to ${crops(crop).label.toLowerCase()}: bushel weight, standard moisture and plausible yields are taken from ${crops(crop).label.toLowerCase()}. Set the crop to ${m.cropHint} if the file is right.`,
+          refs: [],
+        });
     }
     perFile.push({ name: raw.file.name, plots: plots.slice(first) });
   });

@@ -127,6 +127,8 @@ export interface SheetMapping {
    * another crop than the import settings' is left out unless chosen by name.
    */
   cropHint?: CropId | null;
+  /** Where the crop hint was read: 'the title row "2025 winter wheat N trial"'. */
+  cropEvidence?: string;
 }
 
 export interface ColumnMapping {

@@ -89,13 +89,40 @@ function valuesEvidence(v: ColumnValues): string {
 
 const numericRoles = new Set<MappedRole>(NUMERIC_COLUMN_ROLES);
 
-/** The crop named above the header (sheet name and title rows), if exactly one. */
-function sheetCrop(sheet: RawSheet, headerRow: number): CropId | null {
-  const above = sheet.rows
-    .slice(0, headerRow - 1)
-    .flatMap((r) => r.map((c) => (c && c.kind === 'text' ? c.text : '')))
-    .join(' ');
-  return cropFromText(sheet.name) ?? cropFromText(above);
+/**
+ * The crop a sheet names, with where: its name, the title rows above its header, a crop column
+ * whose values name one crop, or the file's name, in that order; null when none names exactly one.
+ */
+function sheetCrop(
+  sheet: RawSheet,
+  headerRow: number,
+  fileName: string,
+): { crop: CropId; evidence: string } | null {
+  const fromName = cropFromText(sheet.name);
+  if (fromName) return { crop: fromName, evidence: `the sheet name "${sheet.name}"` };
+  for (const row of sheet.rows.slice(0, headerRow - 1)) {
+    const text = row
+      .map((c) => (c && c.kind === 'text' ? c.text : ''))
+      .join(' ')
+      .trim();
+    const crop = cropFromText(text);
+    if (crop) return { crop, evidence: `the title row "${text}"` };
+  }
+  const header = sheet.rows[headerRow - 1] ?? [];
+  const cropCol = header.findIndex((c) => !!c && /^\s*crop\b/i.test(c.text));
+  if (cropCol >= 0) {
+    const named = new Set<CropId | null>();
+    const end = Math.min(sheet.rows.length, headerRow + 500);
+    for (let r = headerRow; r < end; r++) {
+      const cell = sheet.rows[r]?.[cropCol];
+      if (cell && cell.text.trim()) named.add(cropFromText(cell.text));
+    }
+    const [only] = [...named];
+    if (named.size === 1 && only)
+      return { crop: only, evidence: `the "${header[cropCol]!.text}" column` };
+  }
+  const fromFile = cropFromText(fileName.replace(/\.[^.]+$/, '').replace(/[_-]+/g, ' '));
+  return fromFile ? { crop: fromFile, evidence: `the file name "${fileName}"` } : null;
 }
 
 /** The median plot area of the sheet's area column, or of its length × width columns, m². */
@@ -173,7 +200,7 @@ function ignoredSheet(sheet: RawSheet, evidence: string): SheetMapping {
   };
 }
 
-function mapSheet(sheet: RawSheet, multipleSheets: boolean): SheetMapping {
+function mapSheet(sheet: RawSheet, multipleSheets: boolean, fileName: string): SheetMapping {
   if (sheet.hidden)
     return ignoredSheet(sheet, 'hidden sheet; include it by hand if it holds plots');
   const headerRow = findHeaderRow(sheet);
@@ -310,8 +337,8 @@ function mapSheet(sheet: RawSheet, multipleSheets: boolean): SheetMapping {
     a.evidence = why.join('; ');
     columns.push(a);
   });
-  const cropHint = sheetCrop(sheet, headerRow);
-  decideWeightOrYield(sheet, headerRow, columns, taken, weighed, usHints, cropHint);
+  const named = sheetCrop(sheet, headerRow, fileName);
+  decideWeightOrYield(sheet, headerRow, columns, taken, weighed, usHints, named?.crop ?? null);
   // Whether yields are wet follows from the header, or from the presence of a moisture column.
   const hasMoisture = taken.has('moisture');
   for (const a of columns) {
@@ -350,7 +377,8 @@ function mapSheet(sheet: RawSheet, multipleSheets: boolean): SheetMapping {
     site,
     columns,
     evidence,
-    cropHint: use === 'plots' ? cropHint : null,
+    cropHint: use === 'plots' ? (named?.crop ?? null) : null,
+    ...(use === 'plots' && named ? { cropEvidence: named.evidence } : {}),
   };
 }
 
@@ -365,7 +393,7 @@ function mapSheet(sheet: RawSheet, multipleSheets: boolean): SheetMapping {
  */
 export function detectColumns(raw: RawWorkbook): ColumnMapping {
   const plotsLike = raw.sheets.filter((s) => !s.hidden).length;
-  const sheets = raw.sheets.map((s) => mapSheet(s, plotsLike > 1));
+  const sheets = raw.sheets.map((s) => mapSheet(s, plotsLike > 1, raw.file.name));
   const plotSheets = sheets.filter((s) => s.use === 'plots');
   // One plots sheet without a site column in a file: the site is the file's name.
   if (plotSheets.length === 1 && plotSheets[0].site.from === 'fixed') {

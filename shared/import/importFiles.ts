@@ -25,6 +25,8 @@ import { detectColumns } from './detectColumns';
 import { ImportError } from './importError';
 import { mappingEntries, type MappingEntry } from './mappingEntries';
 import { readTrialFile } from './readTrialFile';
+import type { RawWorkbook } from './rawWorkbook';
+import { crops } from '../units/crops';
 
 /** Roles a user may assign with an override: every role a column can have. */
 export const mappableRoles: readonly MappedRole[] = MAPPED_ROLES;
@@ -112,6 +114,63 @@ function questionAnswers(
 }
 
 /**
+ * The crop the files name when the user gave none: the crop most of their plots sheets name
+ * (sheet name, title rows, a crop column or the file name; detectColumns), else corn, said in an
+ * info finding. One run analyses one crop: sheets naming another are left out (buildPlotTable).
+ */
+function cropOfFiles(
+  raws: readonly RawWorkbook[],
+  mappings: readonly ColumnMapping[],
+  sheets: readonly string[] | undefined,
+): CropChoice {
+  // Each crop named, with where it was first read and how many plots sheets name it.
+  const named = new Map<CropId, { where: string; sheets: number }>();
+  mappings.forEach((m, i) => {
+    for (const s of m.sheets) {
+      if (s.use !== 'plots' || !s.cropHint || (sheets && !sheets.includes(s.sheet))) continue;
+      const seen = named.get(s.cropHint);
+      if (seen) seen.sheets++;
+      else
+        named.set(s.cropHint, {
+          where: s.cropEvidence?.startsWith('the file name')
+            ? s.cropEvidence
+            : `${s.cropEvidence ?? `sheet "${s.sheet}"`} in "${raws[i].file.name}"`,
+          sheets: 1,
+        });
+    }
+  });
+  if (named.size === 0)
+    return {
+      crop: 'corn',
+      finding: {
+        code: 'crop-from-files',
+        severity: 'info',
+        message:
+          'No file names its crop, so the crop is taken as corn (maize), whose bushel weight and standard moisture apply; give --crop if it is another.',
+        refs: [],
+      },
+    };
+  // The crop most sheets name (the first named on a tie); sheets of another crop are left out
+  // by buildPlotTable, each with its own finding.
+  const [[crop, first], ...others] = [...named].sort((a, b) => b[1].sheets - a[1].sheets);
+  const rest = others.map(([c]) => c);
+  return {
+    crop,
+    finding: {
+      code: 'crop-from-files',
+      severity: 'info',
+      message: `The crop is ${crops(crop).label.toLowerCase()}, as ${first.where} names it${rest.length ? `; sheets naming ${rest.join(', ')} are left out (give --crop ${rest[0]} to analyse them)` : ''}; give --crop to choose another.`,
+      refs: [],
+    },
+  };
+}
+
+interface CropChoice {
+  crop: CropId;
+  finding: QualityFinding | null;
+}
+
+/**
  * Reads trial files into one plot table.
  * @param files - names (no directories needed) and bytes of each file
  * @param options - the crop, role overrides, and sheets to import (default every plots sheet)
@@ -124,7 +183,8 @@ function questionAnswers(
 export async function importFiles(
   files: readonly { name: string; bytes: Uint8Array }[],
   options: {
-    crop: CropId;
+    /** The crop, or null to read it from the files (one crop named: that one; none: corn). */
+    crop: CropId | null;
     overrides: readonly RoleOverride[];
     units?: readonly UnitOverride[];
     sheets?: string[];
@@ -169,11 +229,15 @@ export async function importFiles(
       { file: files[0]?.name ?? '' },
     );
   }
+  const chosen: CropChoice = options.crop
+    ? { crop: options.crop, finding: null }
+    : cropOfFiles(raws, mappings, options.sheets);
   const { table, findings } = buildPlotTable(raws, mappings, {
-    crop: options.crop,
+    crop: chosen.crop,
     rateBasis: 'nutrient',
     ...(options.sheets ? { sheets: options.sheets } : {}),
   });
+  if (chosen.finding) findings.unshift(chosen.finding);
   const entries = mappingEntries(
     raws.map((raw, i) => ({ file: raw.file.name, mapping: mappings[i] })),
     options.sheets,

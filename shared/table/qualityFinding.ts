@@ -21,6 +21,8 @@ export type FindingCode =
   | 'site-filled-down'
   | 'treatment-not-in-key'
   | 'other-crop-sheet-skipped'
+  | 'crop-differs'
+  | 'crop-from-files'
   | 'duplicate-plot'
   | 'site-in-several-years'
   | 'year-from-file-name'

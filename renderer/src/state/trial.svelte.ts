@@ -8,7 +8,8 @@ import { isImportError } from '../../../shared/import/importError';
 import type { RawWorkbook } from '../../../shared/import/rawWorkbook';
 import { checkQuality } from '../../../shared/quality/checkQuality';
 import type { QualityFinding } from '../../../shared/table/qualityFinding';
-import type { PlotTable } from '../../../shared/table/plotTable';
+import type { CropId, PlotTable } from '../../../shared/table/plotTable';
+import { crops } from '../../../shared/units/crops';
 import { applyDecisions, type Edits } from '../analysis/edits';
 import { UndoStack } from '../lib/undoStack';
 import type { Sources } from './sources.svelte';
@@ -109,6 +110,17 @@ export class Trial {
       mappings[book.file.name] = saved ? reuseMapping(book, saved).mapping : detectColumns(book);
     }
     this.edits = { ...this.edits, mappings };
+  }
+
+  /**
+   * Sets the crop (undoable); the standard moisture follows the crop's unless the user sets one.
+   * @param crop - the crop the plots are
+   */
+  setCrop(crop: CropId): void {
+    this.change(`Crop: ${crops(crop).label}`, {
+      ...this.edits,
+      settings: { ...this.edits.settings, crop, standardMoisturePct: undefined },
+    });
   }
 
   /** Makes an undoable change. */
