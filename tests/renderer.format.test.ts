@@ -7,6 +7,7 @@ import {
   formatRateInterval,
   formatSignificant,
   formatYield,
+  readTypedNumber,
 } from '../renderer/src/lib/format';
 
 describe('renderer format', () => {
@@ -70,5 +71,24 @@ describe('plotlySeparators', () => {
     const { plotlySeparators } = await import('../renderer/src/lib/format');
     expect(plotlySeparators('en-US')).toBe('.,');
     expect(plotlySeparators('de-DE')).toBe(',.');
+  });
+});
+
+describe('readTypedNumber', () => {
+  // The decimal marks and groups of CLDR as Intl gives them (en-US: "1,234.5"; de-DE: "1.234,5").
+  it.each([
+    ['0.62', 'en-US', 0.62],
+    ['0,62', 'en-US', 0.62],
+    ['0,62', 'de-DE', 0.62],
+    ['0.62', 'de-DE', 0.62],
+    ['1,250', 'en-US', 1250],
+    ['1,250', 'de-DE', 1.25],
+    ['1.250,5', 'de-DE', 1250.5],
+    ['1,250.5', 'en-US', 1250.5],
+    [' 177 ', 'fr-FR', 177],
+    ['12 kg', 'en-US', null],
+    ['', 'en-US', null],
+  ])('reads %j in %s as %j', (text, locale, expected) => {
+    expect(readTypedNumber(text, locale)).toBe(expected);
   });
 });

@@ -137,6 +137,36 @@ describe('the workspace in chromium', () => {
     expect(session.pageErrors.map((e) => e.slice(0, 300))).toEqual([]);
   });
 
+  it('reads a price typed with either decimal mark in any locale, and says what it read', async () => {
+    const { page } = session;
+    const field = page.getByTestId('product-price');
+    const cell = page.getByTestId('optimum-Quillmere North');
+    const optimum = async () => leadingNumber(await cell.textContent());
+    const at12 = await optimum();
+    const locale = page.getByLabel('Locale for numbers and dates');
+    await locale.selectOption('de-DE');
+    // "0,62" in a decimal-comma locale is 0.62, never 62.
+    await field.fill('0,62');
+    await expect.poll(optimum, { timeout: 10_000 }).toBeGreaterThan(at12);
+    const at062 = await optimum();
+    // A plain point reads the same, and the field says what it read.
+    await field.fill('0.62');
+    await expect(page.getByTestId('product-price-read').textContent()).resolves.toBe(
+      'read as 0,62',
+    );
+    await expect.poll(optimum).toBe(at062);
+    await field.fill('0,62 EUR');
+    await page.getByText('not a number').waitFor();
+    await expect.poll(optimum).toBe(at062);
+    await locale.selectOption('en-US');
+    await field.fill('1,2');
+    await expect(page.getByTestId('product-price-read').textContent()).resolves.toBe('read as 1.2');
+    await expect.poll(optimum, { timeout: 10_000 }).toBe(at12);
+    await field.blur();
+    await expect(field.inputValue()).resolves.toBe('1.2');
+    expect(session.pageErrors.map((e) => e.slice(0, 300))).toEqual([]);
+  });
+
   it('lists quality findings with their cells, and an exclusion from the list refits the site', async () => {
     const { page } = session;
     await page.getByRole('button', { name: /Quality/ }).click();

@@ -4,6 +4,7 @@
  * inside; this module converts at the edge, so the US/metric switch touches
  * nothing but display.
  */
+import { parseNumberText } from '../../../shared/table/parseNumberText';
 import type { RateProfileInterval } from '../../../shared/models/joinProfile';
 import { profileIntervalText } from '../../../shared/report/modelNotes';
 import type { CropId } from '../../../shared/table/plotTable';
@@ -284,4 +285,20 @@ export function plotlySeparators(locale?: string): string {
   const decimal = parts.find((p) => p.type === 'decimal')?.value ?? '.';
   const group = parts.find((p) => p.type === 'group')?.value ?? ',';
   return decimal + group;
+}
+
+/**
+ * Reads a number a person typed in a field, with either the locale's decimal mark or a plain
+ * point ("0,62" and "0.62" are both 0.62 in any locale), and the locale's thousands groups.
+ * The rules are import's (shared/table/parseNumberText), so a field and a cell read alike.
+ * @param text - what was typed
+ * @param locale - the workspace's number locale, e.g. 'de-DE'
+ * @returns the number, or null when the text is not one
+ * @example
+ * readTypedNumber('0,62', 'en-US') // 0.62
+ * readTypedNumber('1.250,5', 'de-DE') // 1250.5
+ */
+export function readTypedNumber(text: string, locale?: string): number | null {
+  const decimalComma = plotlySeparators(locale)[0] === ',';
+  return parseNumberText(text, decimalComma) ?? parseNumberText(text, !decimalComma);
 }
