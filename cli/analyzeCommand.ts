@@ -7,6 +7,7 @@
  * imported where their output is written, so a run that writes only JSON
  * never loads them.
  */
+import { checkPriceRatio } from '../shared/economics/priceRatioCheck';
 import type { CropId } from '../shared/table/plotTable';
 import { accessSync, constants, realpathSync, statSync } from 'node:fs';
 import path from 'node:path';
@@ -312,6 +313,13 @@ export async function analyzeCommand(
     nutrientPricePerKg: terms.nutrientPricePerKg,
     applicationCostPerHa: terms.applicationCostPerHa,
   };
+  // A ratio far from the crop's usual is most often a slip (per tonne typed as per kg): said, not
+  // refused, since the command line cannot ask and a real market may be that far out.
+  const ratioCheck = checkPriceRatio(canonical, imported.table.crop);
+  if (!ratioCheck.plausible)
+    log.err(
+      `plotrate: warning: the price ratio is ${ratioCheck.ratio.toPrecision(3)} kg grain per kg N, ${ratioCheck.factor >= 1 ? `${ratioCheck.factor.toPrecision(2)} times` : `1/${(1 / ratioCheck.factor).toPrecision(2)} of`} the usual ${ratioCheck.usual.toPrecision(3)}; check --grain-price and the nitrogen price and their units before using any rate.`,
+    );
   const settings = analysisSettings({
     prices: canonical,
     resamples: args.boot,

@@ -4,7 +4,6 @@
 // Invented trial files (fictional sites).
 import { describe, expect, it } from 'vitest';
 import * as XLSX from 'xlsx';
-import { ImportError } from '../shared/import';
 import { importFiles } from '../shared/import/importFiles';
 
 const enc = (text: string) => new TextEncoder().encode(text);

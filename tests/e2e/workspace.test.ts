@@ -159,6 +159,17 @@ describe('the workspace in chromium', () => {
     await page.getByText('not a number').waitFor();
     await expect.poll(optimum).toBe(at062);
     await locale.selectOption('en-US');
+    // 62 for 0.62: a price ratio 100 times the usual is asked about before any rate is shown.
+    await field.fill('62');
+    await page.getByTestId('confirm-price-ratio').waitFor();
+    await expect(page.getByRole('alert').first().textContent()).resolves.toMatch(
+      /times the usual .* no rate is shown until/,
+    );
+    await expect(cell.count()).resolves.toBe(0);
+    await page.getByTestId('no-optima').waitFor();
+    await shot(page, '04b-price-ratio-asked');
+    await page.getByTestId('confirm-price-ratio').click();
+    await cell.waitFor();
     await field.fill('1,2');
     await expect(page.getByTestId('product-price-read').textContent()).resolves.toBe('read as 1.2');
     await expect.poll(optimum, { timeout: 10_000 }).toBe(at12);

@@ -1,6 +1,8 @@
 // The prices every optimum and chart reads; stored canonical (per kg, per ha).
 import type { Prices as CanonicalPrices } from '../../../shared/economics/priceRatio';
 import type { CropId } from '../../../shared/table/plotTable';
+import { checkPriceRatio, type PriceRatioCheck } from '../../../shared/economics/priceRatioCheck';
+import { crops } from '../../../shared/units/crops';
 import {
   canonicalPrices,
   illustrativePriceSettings,
@@ -16,6 +18,8 @@ export class Prices {
    * price, so setting it leaves illustrative prices illustrative.
    */
   shortfallTolerancePerHa = $state<number | null>(null);
+  /** A price ratio the user confirmed though it is far from the crop's usual (checkPriceRatio). */
+  confirmedRatio = $state<number | null>(null);
   #crop: () => CropId = () => 'corn';
 
   /** @param crop - the current crop: illustrative grain prices follow it until the user gives one */
@@ -39,24 +43,35 @@ export class Prices {
   }
 
   /** The canonical prices, or the reason they cannot be used (shown by the price fields). */
-  canonical: { ok: true; prices: CanonicalPrices } | { ok: false; reason: string } = $derived.by(
-    () => {
-      try {
-        const prices = canonicalPrices(this.settings);
-        if (!(prices.grainPricePerKg > 0))
-          return { ok: false, reason: 'Enter a grain price above 0.' };
-        if (!(prices.nutrientPricePerKg > 0)) {
-          return { ok: false, reason: 'Enter a product price above 0.' };
-        }
-        if (!(prices.applicationCostPerHa! >= 0)) {
-          return { ok: false, reason: 'The application cost cannot be negative.' };
-        }
-        return { ok: true, prices };
-      } catch (error) {
-        return { ok: false, reason: error instanceof Error ? error.message : String(error) };
+  canonical:
+    | { ok: true; prices: CanonicalPrices }
+    | { ok: false; reason: string; ratioCheck?: PriceRatioCheck } = $derived.by(() => {
+    try {
+      const prices = canonicalPrices(this.settings);
+      if (!(prices.grainPricePerKg > 0))
+        return { ok: false, reason: 'Enter a grain price above 0.' };
+      if (!(prices.nutrientPricePerKg > 0)) {
+        return { ok: false, reason: 'Enter a product price above 0.' };
       }
-    },
-  );
+      if (!(prices.applicationCostPerHa! >= 0)) {
+        return { ok: false, reason: 'The application cost cannot be negative.' };
+      }
+      const check = checkPriceRatio(prices, this.#crop());
+      if (!check.plausible && this.confirmedRatio !== check.ratio) {
+        const r = (v: number) => Number(v.toPrecision(3)).toLocaleString('en-US');
+        const times =
+          check.factor >= 1 ? `${r(check.factor)} times` : `1/${r(1 / check.factor)} of`;
+        return {
+          ok: false,
+          reason: `The price ratio is ${r(check.ratio)} kg grain per kg N, ${times} the usual ${r(check.usual)} for ${crops(this.#crop()).label.toLowerCase()}. Check the prices (a decimal mark, or a price per tonne typed as per kilogram?); no rate is shown until they are right or you confirm them.`,
+          ratioCheck: check,
+        };
+      }
+      return { ok: true, prices };
+    } catch (error) {
+      return { ok: false, reason: error instanceof Error ? error.message : String(error) };
+    }
+  });
 
   /** Changes some inputs; any edit makes the prices the user's own. */
   update(change: Partial<PriceSettings>): void {

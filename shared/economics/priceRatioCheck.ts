@@ -1,0 +1,45 @@
+/**
+ * Whether a price ratio is one a grower could face, or a slip: a price typed per tonne as per
+ * kilogram, a decimal comma read as a thousands mark, grain and fertilizer swapped. Compared
+ * with the crop's illustrative ratio (shared/economics/illustrativePrices), which is
+ * currency-free: kg of grain per kg of N. Ratios from a tenth to ten times that span every
+ * grain and fertilizer market in memory (common practice: the trade's ratio tables stop well
+ * inside it); beyond it a rate would follow from a typing slip, so the screen asks first.
+ */
+import type { CropId } from '../table/plotTable';
+import { illustrativePrices } from './illustrativePrices';
+import { priceRatio, type Prices } from './priceRatio';
+
+/** How many times the usual ratio, either way, before a ratio is questioned. */
+export const PRICE_RATIO_FACTOR_LIMIT = 10;
+
+export interface PriceRatioCheck {
+  /** kg grain per kg N at the given prices. */
+  ratio: number;
+  /** The crop's illustrative ratio, the yardstick. */
+  usual: number;
+  /** ratio ÷ usual: above 1 dearer nitrogen than usual. */
+  factor: number;
+  /** Within PRICE_RATIO_FACTOR_LIMIT of the usual either way. */
+  plausible: boolean;
+}
+
+/**
+ * Checks a price ratio against the crop's usual one.
+ * @param prices - canonical prices (per kg, per ha)
+ * @param crop - the crop
+ * @returns the ratio, the usual ratio, their quotient and whether it is plausible
+ * @example
+ * checkPriceRatio({ grainPricePerKg: 0.177, nutrientPricePerKg: 1.24 }, 'corn').plausible // true
+ */
+export function checkPriceRatio(prices: Prices, crop: CropId): PriceRatioCheck {
+  const ratio = priceRatio(prices);
+  const usual = priceRatio(illustrativePrices(crop).canonical);
+  const factor = ratio / usual;
+  return {
+    ratio,
+    usual,
+    factor,
+    plausible: factor <= PRICE_RATIO_FACTOR_LIMIT && factor >= 1 / PRICE_RATIO_FACTOR_LIMIT,
+  };
+}
