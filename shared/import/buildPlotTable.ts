@@ -29,6 +29,27 @@ import { readPlotsSheet } from './readPlotsSheet';
 import { yearsFromFileNames } from './fileYears';
 import { readTreatmentKey, type TreatmentKeyEntry } from './readTreatmentKey';
 import { validateMapping } from './validateMapping';
+import { roleFromHeader } from './headerWords';
+
+/**
+ * A column set aside that reads as a yield or a plot weight, beside the one used: said, so a
+ * second yield (dry and wet, two harvests) is never dropped unseen.
+ */
+function secondYieldColumns(file: string, m: SheetMapping, findings: QualityFinding[]): void {
+  const used = m.columns.find((c) => c.role === 'yield' || c.role === 'plotWeight');
+  if (!used) return;
+  for (const c of m.columns) {
+    if (c.role !== 'ignore' || !c.header) continue;
+    const role = roleFromHeader(c.header)?.role;
+    if (role !== 'yield' && role !== 'plotWeight') continue;
+    findings.push({
+      code: 'second-yield-column',
+      severity: 'warning',
+      message: `${m.sheet ? `Sheet "${m.sheet}" of "${file}"` : `"${file}"`}: column ${c.letter} "${c.header}" also looks like a ${role === 'yield' ? 'yield' : 'plot weight'} and is not used; yields are read from column ${used.letter} "${used.header}". Give column ${c.letter} the role instead if it is the right one.`,
+      refs: [{ file, sheet: m.sheet, cell: `${c.letter}${m.headerRow}`, row: m.headerRow }],
+    });
+  }
+}
 
 /**
  * Builds the plot table from read workbooks and their mappings.
@@ -110,6 +131,7 @@ export function buildPlotTable(
         );
       }
       readPlotsSheet(raw, sheet, m, key, settings, crop, standardMoisturePct, plots, findings);
+      secondYieldColumns(raw.file.name, m, findings);
       if (m.cropHint && m.cropHint !== crop)
         findings.push({
           code: 'crop-differs',

@@ -22,6 +22,7 @@ export type FindingCode =
   | 'treatment-not-in-key'
   | 'other-crop-sheet-skipped'
   | 'crop-differs'
+  | 'second-yield-column'
   | 'crop-from-files'
   | 'duplicate-plot'
   | 'site-in-several-years'

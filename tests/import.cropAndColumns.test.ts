@@ -1,6 +1,7 @@
 // The crop read from the files when the user names none (importFiles, detectColumns' sheetCrop):
 // from a sheet name, a title row, a crop column or the file name; corn when nothing names one;
-// refused when the files name two; a finding when the chosen crop differs from the file's.
+// the crop most sheets name when they name two; a finding when the chosen crop differs from the
+// file's. And a second yield column set aside is a finding, never dropped unseen.
 // Invented trial files (fictional sites).
 import { describe, expect, it } from 'vitest';
 import * as XLSX from 'xlsx';
@@ -96,5 +97,26 @@ describe('the crop read from the files', () => {
       /"trial.csv" names wheat \(the title row "2025 winter wheat N trial"\)/,
     );
     expect(findings.some((x) => x.code === 'crop-from-files')).toBe(false);
+  });
+});
+
+describe('a second yield column', () => {
+  it('is a warning naming its header cell and the column used, never dropped unseen', async () => {
+    const bytes = enc(
+      [
+        'Site,Rep,Plot,N rate (kg N/ha),Yield (t/ha),Yield 2nd harvest (t/ha)',
+        ...rows('Hollin Cross').map((r) => `${r},1.1`),
+      ].join('\n'),
+    );
+    const { findings } = await importFiles([{ name: 'two.csv', bytes }], {
+      crop: 'corn',
+      overrides: [],
+    });
+    const f = findings.find((x) => x.code === 'second-yield-column');
+    expect(f?.severity).toBe('warning');
+    expect(f?.message).toMatch(
+      /column F "Yield 2nd harvest \(t\/ha\)" also looks like a yield and is not used; yields are read from column E "Yield \(t\/ha\)"/,
+    );
+    expect(f?.refs).toEqual([{ file: 'two.csv', sheet: '', cell: 'F1', row: 1 }]);
   });
 });
