@@ -42,4 +42,14 @@ describe('UndoStack', () => {
       'UndoStack limit must be a positive whole number; got 0.',
     );
   });
+
+  it('amends the last step only when it has the same label and nothing was undone since', () => {
+    const stack = new UndoStack<number>();
+    stack.record('price', 0, 1);
+    expect(stack.amend('price', 2)).toBe(true);
+    expect(stack.amend('moisture', 3)).toBe(false);
+    expect(stack.undo()).toBe(0);
+    expect(stack.amend('price', 5)).toBe(false);
+    expect(stack.redo()).toBe(2);
+  });
 });

@@ -42,6 +42,37 @@ describe('Workspace state', () => {
     expect(ws.trial.table!.plots[0].yieldKgHa).toBe(raw);
   });
 
+  it('price changes are steps of the same undo history as mapping changes, a typed price one step', async () => {
+    const ws = workspace();
+    await ws.openFiles([file()]);
+    const start = ws.prices.settings;
+    const mapping = ws.trial.edits.mappings['Four sites.csv'];
+    const moisture = mapping.sheets[0].columns.find((c) => c.role === 'moisture')!;
+    ws.trial.change('Moisture aside', {
+      ...ws.trial.edits,
+      mappings: {
+        'Four sites.csv': setColumnRole(mapping, mapping.sheets[0].sheet, moisture.col, 'ignore'),
+      },
+    });
+    // "0", "0.", "0.6", "0.62" typed into the product price: one step.
+    for (const v of [0, 0.6, 0.62]) ws.prices.update({ productPerKg: v });
+    ws.prices.setTolerance(15);
+    expect(ws.history.undoLabel).toBe('Shortfall tolerance');
+    ws.history.undo();
+    expect(ws.prices.shortfallTolerancePerHa).toBeNull();
+    expect(ws.history.undoLabel).toBe('Product price');
+    ws.history.undo();
+    expect(ws.prices.settings).toEqual(start);
+    expect(ws.history.undoLabel).toBe('Moisture aside');
+    ws.history.undo();
+    expect(ws.trial.edits.mappings['Four sites.csv']).toBe(mapping);
+    ws.history.redo();
+    ws.history.redo();
+    expect(ws.prices.settings.productPerKg).toBe(0.62);
+    expect(ws.prices.settings.illustrative).toBe(false);
+    expect(ws.history.redoLabel).toBe('Shortfall tolerance');
+  });
+
   it('fits in the worker, then a price change re-prices the optima without a refit', async () => {
     const ws = workspace();
     await ws.openFiles([file()]);

@@ -41,6 +41,20 @@ export class UndoStack<T> {
   }
 
   /**
+   * Folds a step into the last one when it continues it (same label, nothing undone since): a
+   * price typed digit by digit or a slider dragged is one step, back to where it started.
+   * @param label - the step's label
+   * @param after - the state after it
+   * @returns true when folded in; false when the caller should record a new step
+   */
+  amend(label: string, after: T): boolean {
+    const last = this.#past.at(-1);
+    if (!last || last.label !== label || this.#future.length > 0) return false;
+    last.after = after;
+    return true;
+  }
+
+  /**
    * Steps back.
    * @returns the edits to restore, or null when there is nothing to undo
    */

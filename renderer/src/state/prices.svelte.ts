@@ -3,12 +3,23 @@ import type { Prices as CanonicalPrices } from '../../../shared/economics/priceR
 import type { CropId } from '../../../shared/table/plotTable';
 import { checkPriceRatio, type PriceRatioCheck } from '../../../shared/economics/priceRatioCheck';
 import { crops } from '../../../shared/units/crops';
+import { History } from './history.svelte';
 import {
   canonicalPrices,
   illustrativePriceSettings,
   ILLUSTRATIVE_PRICES,
   type PriceSettings,
 } from '../analysis/priceInputs';
+
+/** The Undo button's words for a change of each price input. */
+const PRICE_STEP_LABELS: Partial<Record<keyof PriceSettings, string>> = {
+  grainPerKg: 'Grain price',
+  productPerKg: 'Product price',
+  productId: 'Product',
+  analysisPct: 'Analysis',
+  applicationPerHa: 'Application cost',
+  currency: 'Currency',
+};
 
 export class Prices {
   #given = $state<PriceSettings>({ ...ILLUSTRATIVE_PRICES });
@@ -21,10 +32,15 @@ export class Prices {
   /** A price ratio the user confirmed though it is far from the crop's usual (checkPriceRatio). */
   confirmedRatio = $state<number | null>(null);
   #crop: () => CropId = () => 'corn';
+  readonly #history: History;
 
-  /** @param crop - the current crop: illustrative grain prices follow it until the user gives one */
-  constructor(crop: () => CropId = () => 'corn') {
+  /**
+   * @param crop - the current crop: illustrative grain prices follow it until the user gives one
+   * @param history - the workspace's undo history, which price changes go to
+   */
+  constructor(crop: () => CropId = () => 'corn', history: History = new History()) {
     this.#crop = crop;
+    this.#history = history;
   }
 
   /** The price inputs in force: the user's, or the crop's illustrative ones (shared with the command line). */
@@ -73,8 +89,33 @@ export class Prices {
     }
   });
 
-  /** Changes some inputs; any edit makes the prices the user's own. */
+  /**
+   * Changes some inputs (undoable; a price typed digit by digit or dragged is one step); any edit
+   * makes the prices the user's own.
+   */
   update(change: Partial<PriceSettings>): void {
-    this.#given = { ...this.#settings, ...change, illustrative: false };
+    const before = this.#given;
+    const after: PriceSettings = { ...this.#settings, ...change, illustrative: false };
+    this.#given = after;
+    const what = Object.keys(change)[0] as keyof PriceSettings;
+    this.#history.record(
+      PRICE_STEP_LABELS[what] ?? 'Prices',
+      { before: () => (this.#given = before), after: () => (this.#given = after) },
+      true,
+    );
+  }
+
+  /** Sets the shortfall tolerance, or null for the default (undoable, as a price is). */
+  setTolerance(perHa: number | null): void {
+    const before = this.shortfallTolerancePerHa;
+    this.shortfallTolerancePerHa = perHa;
+    this.#history.record(
+      'Shortfall tolerance',
+      {
+        before: () => (this.shortfallTolerancePerHa = before),
+        after: () => (this.shortfallTolerancePerHa = perHa),
+      },
+      perHa !== null,
+    );
   }
 }

@@ -11,7 +11,7 @@ import type { QualityFinding } from '../../../shared/table/qualityFinding';
 import type { CropId, PlotTable } from '../../../shared/table/plotTable';
 import { crops } from '../../../shared/units/crops';
 import { applyDecisions, type Edits } from '../analysis/edits';
-import { UndoStack } from '../lib/undoStack';
+import { History } from './history.svelte';
 import type { Sources } from './sources.svelte';
 
 /** The plot table built from the files, or the message saying why it could not be. */
@@ -28,13 +28,25 @@ export class Trial {
   edits = $state.raw<Edits>(DEFAULT_EDITS);
   /** The table of an opened project, used while its spreadsheets are not open. */
   projectTable = $state.raw<PlotTable | null>(null);
-  undoLabel = $state<string | null>(null);
-  redoLabel = $state<string | null>(null);
-  readonly #undo = new UndoStack<Edits>();
+  readonly #history: History;
   readonly #sources: Sources;
 
-  constructor(sources: Sources) {
+  /**
+   * @param sources - the open files
+   * @param history - the workspace's undo history, which this trial's changes go to
+   */
+  constructor(sources: Sources, history: History = new History()) {
     this.#sources = sources;
+    this.#history = history;
+  }
+
+  /** What Undo would take back, or null (the workspace's history, prices included). */
+  get undoLabel(): string | null {
+    return this.#history.undoLabel;
+  }
+
+  get redoLabel(): string | null {
+    return this.#history.redoLabel;
   }
 
   /** Workbooks that have a mapping, with their mappings, in file order. */
@@ -125,32 +137,25 @@ export class Trial {
 
   /** Makes an undoable change. */
   change(label: string, next: Edits): void {
-    this.#undo.record(label, this.edits, next);
+    const before = this.edits;
     this.edits = next;
-    this.#labels();
+    this.#history.record(label, {
+      before: () => (this.edits = before),
+      after: () => (this.edits = next),
+    });
   }
 
   undo(): void {
-    const before = this.#undo.undo();
-    if (before) this.edits = before;
-    this.#labels();
+    this.#history.undo();
   }
 
   redo(): void {
-    const after = this.#undo.redo();
-    if (after) this.edits = after;
-    this.#labels();
+    this.#history.redo();
   }
 
   /** Replaces the edits wholesale (a restored session); forgets the undo history. */
   restore(edits: Edits): void {
     this.edits = edits;
-    this.#undo.clear();
-    this.#labels();
-  }
-
-  #labels(): void {
-    this.undoLabel = this.#undo.undoLabel;
-    this.redoLabel = this.#undo.redoLabel;
+    this.#history.clear();
   }
 }

@@ -20,6 +20,7 @@ import {
   type KeyValueStore,
 } from '../lib/persistence';
 import { Trial } from './trial.svelte';
+import { History } from './history.svelte';
 
 export class Workspace {
   step = $state<StepId>('files');
@@ -27,7 +28,9 @@ export class Workspace {
   ready = $state(false);
   readonly settings = new Settings();
   readonly messages = new Messages();
-  readonly prices = new Prices(() => this.crop);
+  /** One undo history for the trial's edits and the prices. */
+  readonly history = new History();
+  readonly prices = new Prices(() => this.crop, this.history);
   readonly jobs: Jobs;
   readonly sources: Sources;
   readonly trial: Trial;
@@ -41,7 +44,7 @@ export class Workspace {
     this.bridge = bridge;
     this.jobs = new Jobs(workerPort);
     this.sources = new Sources(this.jobs, this.messages);
-    this.trial = new Trial(this.sources);
+    this.trial = new Trial(this.sources, this.history);
     this.analysis = new Analysis(this.jobs, this.messages, this.prices);
     this.report = new Report(this);
   }
