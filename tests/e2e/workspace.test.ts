@@ -194,6 +194,13 @@ describe('the workspace in chromium', () => {
     await shot(page, '05a-quality');
     await page.getByRole('button', { name: /^Undo/ }).click();
     await expect(page.locator('tr.focus').textContent()).resolves.toContain('in the fit');
+    // The finding's reason box starts empty, and keeping a plot needs no reason.
+    await expect(
+      finding.getByLabel('Reason for the decision (optional)').inputValue(),
+    ).resolves.toBe('');
+    await finding.getByRole('button', { name: 'Keep' }).click();
+    await expect(finding.textContent()).resolves.toMatch(/Decided: keep(?! —)/);
+    await page.getByRole('button', { name: /^Undo/ }).click();
     expect(session.pageErrors.map((e) => e.slice(0, 300))).toEqual([]);
   });
 
