@@ -18,6 +18,20 @@ describe('Workspace state', () => {
     await ws.openFiles([file()]);
     expect(ws.step).toBe('columns');
     expect(ws.trial.table?.plots).toHaveLength(96);
+    // The file's rates are in lb N/ac: the workspace shows US units, as the command line would.
+    expect(ws.settings.unitSystem).toBe('us');
+  });
+
+  it('a metric file opens in metric units, and a later file does not switch them', async () => {
+    const ws = workspace();
+    ws.settings.unitSystem = 'us';
+    const metric = new TextEncoder().encode(
+      'Site,Rep,Plot,N rate (kg N/ha),Yield (t/ha)\nHollin Cross,1,101,0,6.1\nHollin Cross,1,102,90,8.2\n',
+    );
+    await ws.openFiles([{ name: 'metric.csv', bytes: metric }]);
+    expect(ws.settings.unitSystem).toBe('metric');
+    await ws.openFiles([file()]);
+    expect(ws.settings.unitSystem).toBe('metric');
   });
 
   it('a mapping change is undone and redone with the table following', async () => {

@@ -8,8 +8,6 @@
 import { assignColumnRole } from './assignColumnRole';
 import type { QualityFinding } from '../table/qualityFinding';
 import type { CropId, PlotTable } from '../table/plotTable';
-import { rateUnits, type RateUnit } from '../units/convertRate';
-import { yieldUnits, type YieldUnit } from '../units/convertYield';
 import type { DisplayUnits } from '../units/displayUnits';
 import { buildPlotTable } from './buildPlotTable';
 import {
@@ -25,6 +23,7 @@ import { detectColumns } from './detectColumns';
 import { ImportError } from './importError';
 import { mappingEntries, type MappingEntry } from './mappingEntries';
 import { readTrialFile } from './readTrialFile';
+import { inputUnitsOf } from './inputUnits';
 import type { RawWorkbook } from './rawWorkbook';
 import { crops } from '../units/crops';
 
@@ -242,33 +241,6 @@ export async function importFiles(
     raws.map((raw, i) => ({ file: raw.file.name, mapping: mappings[i] })),
     options.sheets,
   );
-  let rate: RateUnit | null = null;
-  let yld: YieldUnit | null = null;
-  raws.forEach((raw, i) => {
-    for (const s of mappings[i].sheets) {
-      if (s.use !== 'plots' || (options.sheets && !options.sheets.includes(s.sheet))) continue;
-      for (const c of s.columns) {
-        if (c.role === 'ignore') continue;
-        if (
-          c.role === 'rate' &&
-          !rate &&
-          c.unit &&
-          (rateUnits as readonly string[]).includes(c.unit)
-        )
-          rate = c.unit as RateUnit;
-        if (
-          c.role === 'yield' &&
-          !yld &&
-          c.unit &&
-          (yieldUnits as readonly string[]).includes(c.unit)
-        )
-          yld = c.unit as YieldUnit;
-      }
-    }
-  });
-  const inputUnits: DisplayUnits = {
-    rate: rate ?? 'kg/ha',
-    yield: yld ?? (rate === 'lb/ac' ? 'bu/ac' : 't/ha'),
-  };
+  const inputUnits = inputUnitsOf(mappings, options.sheets);
   return { table, findings, mapping: entries, inputUnits };
 }

@@ -20,6 +20,7 @@ import {
   type KeyValueStore,
 } from '../lib/persistence';
 import { Trial } from './trial.svelte';
+import { inputUnitsOf } from '../../../shared/import/inputUnits';
 import { History } from './history.svelte';
 
 export class Workspace {
@@ -124,7 +125,10 @@ export class Workspace {
   }
 
   /** Opens trial files, detects their columns and shows the column review. */
-  async openFiles(files: TrialFileBytes[]): Promise<void> {
+  async openFiles(
+    files: TrialFileBytes[],
+    options: { unitsFromFiles?: boolean } = {},
+  ): Promise<void> {
     const before = this.sources.workbooks.length;
     const stepBefore = this.step;
     const reopened = files.map((f) => f.name).filter((n) => this.trial.edits.mappings[n]);
@@ -141,6 +145,12 @@ export class Workspace {
         );
       }
     }
+    // The first files of a workspace set its units: a file of lb/ac and bu/ac opens in US units.
+    if (before === 0 && (options.unitsFromFiles ?? true)) {
+      const mappings = files.map((f) => this.trial.edits.mappings[f.name]).filter((m) => !!m);
+      if (mappings.length > 0)
+        this.settings.unitSystem = inputUnitsOf(mappings).rate === 'lb/ac' ? 'us' : 'metric';
+    }
     // Show the column review, unless the user went elsewhere while the files were read.
     if (this.sources.workbooks.length > before && this.step === stepBefore) this.step = 'columns';
   }
@@ -148,7 +158,8 @@ export class Workspace {
   /** Opens the invented demo trial shipped with the app and shows its first site. */
   async openDemo(): Promise<void> {
     try {
-      await this.openFiles([await fetchDemoFile()]);
+      // The demo is shown in metric units, whatever its sheets use, until the user switches.
+      await this.openFiles([await fetchDemoFile()], { unitsFromFiles: false });
       this.step = 'site';
     } catch (error) {
       this.messages.add(
