@@ -16,6 +16,19 @@ export interface ImportLimits {
    * dozen; a stray value far right would otherwise widen every row.
    */
   maxColumns: number;
+  /**
+   * Most characters in one cell or CSV field. 32,767 is the most a worksheet cell holds in
+   * Microsoft Excel since Excel 97 (Microsoft KB 211878, "Worksheet cells can contain a maximum
+   * of 32,767 characters"); a field longer than that cannot have come from a spreadsheet and
+   * is usually a lost line break or a stray quote.
+   */
+  maxCellChars: number;
+  /**
+   * Most filled cells read from one file, all sheets together. What keeps any file within the
+   * caps inside 1 GB: the rows and columns caps alone allow 256 million cells. 5 million is a
+   * trial of 250,000 plots (the row cap) with 20 columns; a cell costs about 100 bytes read.
+   */
+  maxCells: number;
   /** Most entries accepted inside an .xlsx zip. */
   maxZipEntries: number;
   /**
@@ -36,6 +49,8 @@ export const importLimits: Readonly<ImportLimits> = {
   maxUncompressedBytes: 256 * 1024 * 1024,
   maxRows: 250_000,
   maxColumns: 1_024,
+  maxCellChars: 32_767,
+  maxCells: 5_000_000,
   maxZipEntries: 2_000,
   maxCompressionRatio: 400,
 };
