@@ -136,6 +136,7 @@ const files: Record<string, () => Uint8Array | string> = {
       .split('\n')
       .map((l, i) => (l === '' ? l : `${l},${i === 0 ? '"Yield (bu/ac)"' : '1'}`))
       .join('\n'),
+  'no-rate-or-yield.csv': () => rewritten(5, () => '').replace(/,[\d.]+,([\d.]+)$/gm, ',,$1'),
   'one-plot.csv': () => trialCsv().split('\n').slice(0, 2).join('\n'),
   'equal-yields.csv': () => rewritten(6, () => '150'),
   '-dash.csv': trialCsv,
@@ -343,6 +344,11 @@ const cases: HostileCase[] = [
     /huge-rates\.csv › E\d+: the rate is beyond any practice/,
   ),
   refused('negative rates', 'negative-rates.csv', /negative-rates\.csv › E\d+/),
+  refused(
+    'no plot with both a rate and a yield',
+    'no-rate-or-yield.csv',
+    /no plot in "no-rate-or-yield\.csv" has both a rate and a yield/,
+  ),
   refused('rates written as words', 'text-rates.csv', /text-rates\.csv/),
   refused('dates where rates belong', 'dates-as-rates.xlsx', /dates-as-rates\.xlsx › Plots › C2/),
   refused(
@@ -453,6 +459,12 @@ describe('plotrate analyze on hostile inputs: exit code, one reason, bounded mem
 // ---------------------------------------------------------------------------------------------
 // Properties: whatever arrives, the run is orderly
 
+/**
+ * Runs per property: each is a process start, so few by default; PLOTRATE_HOSTILE_RUNS=200 for a
+ * longer search. Shrinking is off (endOnFailure): every step would be another process.
+ */
+const RUNS = Number(process.env.PLOTRATE_HOSTILE_RUNS ?? 10);
+
 /** Writes bytes under a fresh name and runs analyze on them. */
 let serial = 0;
 async function runOn(bytes: Uint8Array | string, ext: string): Promise<CappedRun> {
@@ -481,7 +493,7 @@ describe('plotrate analyze on generated inputs', () => {
           fc.constantFrom('.csv', '.tsv', '.txt', '.xlsx'),
           async (b, ext) => expectSettled(await runOn(b, ext), false),
         ),
-        { numRuns: 10, endOnFailure: true },
+        { numRuns: RUNS, endOnFailure: true },
       );
     },
     120_000,
@@ -520,7 +532,7 @@ describe('plotrate analyze on generated inputs', () => {
             .join('\n');
           expectSettled(await runOn(text, '.csv'), true);
         }),
-        { numRuns: 10, endOnFailure: true },
+        { numRuns: RUNS, endOnFailure: true },
       );
     },
     120_000,
@@ -570,7 +582,7 @@ describe('plotrate analyze on generated inputs', () => {
             expectSettled(await runOn(book, '.xlsx'), true);
           },
         ),
-        { numRuns: 10, endOnFailure: true },
+        { numRuns: RUNS, endOnFailure: true },
       );
     },
     120_000,

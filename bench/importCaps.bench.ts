@@ -1,0 +1,105 @@
+// The import caps at full size, through the command line as a user runs it (whole process,
+// peak memory from GNU time, as in cli.bench.ts): files near the 64 MiB size cap, refused by a
+// cap while reading or read whole under every cap. Invented data from the seeded generator.
+//   - one line of 50 MB ("1,1,1,…"): refused at the 1,025th field;
+//   - one cell of 50 MB: refused at the 32,768th character;
+//   - 1,500,000 rows of 5 short fields (38 MB): refused at the 250,001st row;
+//   - 249,999 plots × 20 columns (64.6 MB, 5,000,000 filled cells, every cap met): read and
+//     analyzed (50 sites of 5,000 plots, no resampling, JSON only).
+import { spawnSync } from 'node:child_process';
+import { closeSync, existsSync, mkdtempSync, openSync, rmSync, writeSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { buildCli } from '../scripts/buildCli.mjs';
+import { mulberry32 } from '../shared/demo';
+
+const here = path.dirname(fileURLToPath(import.meta.url));
+const cli = path.join(here, '..', 'cli', 'plotrate.mjs');
+
+/** Writes lines to a file in chunks, so the generator never holds the whole file. */
+function writeLines(file: string, count: number, line: (i: number) => string, head = ''): void {
+  const fd = openSync(file, 'w');
+  if (head) writeSync(fd, head + '\n');
+  let chunk: string[] = [];
+  for (let i = 0; i < count; i++) {
+    chunk.push(line(i));
+    if (chunk.length === 10_000) {
+      writeSync(fd, chunk.join('\n') + '\n');
+      chunk = [];
+    }
+  }
+  if (chunk.length) writeSync(fd, chunk.join('\n') + '\n');
+  closeSync(fd);
+}
+
+/** The under-every-cap trial: 50 sites × 5,000 plots, six rates, 14 extra measured columns. */
+function underEveryCap(file: string): void {
+  const rng = mulberry32(15);
+  const rates = [0, 40, 80, 120, 160, 200];
+  const extra = Array.from({ length: 14 }, (_, i) => `Observation ${i + 1}`);
+  const head = ['Site', 'Year', 'Plot', 'N rate (lb N/ac)', 'Yield (bu/ac)', 'Moisture (%)'];
+  writeLines(
+    file,
+    249_999,
+    (i) => {
+      const rate = rates[i % 6];
+      const y = 110 + 80 * (1 - Math.exp(-rate / 60)) + (rng.next() - 0.5) * 20;
+      return [
+        `Larkspur Bend ${String(Math.floor(i / 5000) + 1).padStart(3, '0')}`,
+        2025,
+        1000 + (i % 5000),
+        rate,
+        y.toFixed(1),
+        (18 + rng.next() * 3).toFixed(1),
+        ...extra.map(() => (10 + rng.next() * 89).toFixed(12)),
+      ].join(',');
+    },
+    [...head, ...extra].join(','),
+  );
+}
+
+function measured(cwd: string, args: string[]): string {
+  const gnu = existsSync('/usr/bin/time');
+  const t = process.hrtime.bigint();
+  const r = gnu
+    ? spawnSync('/usr/bin/time', ['-f', '%M', process.execPath, cli, ...args], {
+        cwd,
+        encoding: 'utf8',
+        maxBuffer: 64 << 20,
+      })
+    : spawnSync(process.execPath, [cli, ...args], { cwd, encoding: 'utf8', maxBuffer: 64 << 20 });
+  const wall = Number(process.hrtime.bigint() - t) / 1e9;
+  const lines = r.stderr.trimEnd().split('\n');
+  const peak = gnu ? `${(Number(lines.pop()) / 1024).toFixed(0)} MB peak` : 'peak not measured';
+  const reason = (lines.at(-1) ?? '').slice(0, 90);
+  return `exit ${r.status}, ${wall.toFixed(1)} s, ${peak} — ${reason}`;
+}
+
+export async function run(): Promise<void> {
+  await buildCli();
+  const dir = mkdtempSync(path.join(tmpdir(), 'plotrate-caps-'));
+  try {
+    const MB50 = 50 * 1024 * 1024;
+    writeLines(path.join(dir, 'one-line.csv'), 1, () => '1,'.repeat(MB50 / 2));
+    writeLines(path.join(dir, 'one-cell.csv'), 1, () => 'x'.repeat(MB50));
+    writeLines(
+      path.join(dir, 'rows.csv'),
+      1_500_000,
+      (i) => `S${i % 97},${i},${(i % 6) * 40},${150 + (i % 13)}.5,19.${i % 10}`,
+      'Site,Plot,N rate (lb N/ac),Yield (bu/ac),Moisture (%)',
+    );
+    underEveryCap(path.join(dir, 'full.csv'));
+    for (const [file, what] of [
+      ['one-line.csv', '50 MB, one line'],
+      ['one-cell.csv', '50 MB, one cell'],
+      ['rows.csv', '1.5 M rows × 5 fields'],
+      ['full.csv', '250 k rows × 20 columns, every cap met'],
+    ]) {
+      const args = ['analyze', file, '--boot', '0', '--json', `${file}.json`];
+      console.log(`${what.padEnd(40)} ${measured(dir, args)}`);
+    }
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
