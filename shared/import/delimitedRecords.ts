@@ -1,10 +1,10 @@
 /**
  * The records of a delimited text file, one at a time, with the caps checked while reading:
- * fields per line (`maxColumns`), characters per field (`maxCellChars`) and records
- * (`maxRows`). A file of one 50 MB line stops after 1,025 fields or 32,768 characters instead
- * of being split whole. Quoting follows RFC 4180 (double quotes, "" for a quote inside, line
- * breaks allowed inside quotes); text after a closing quote up to the separator is kept, as
- * spreadsheet programs do.
+ * fields per line (`maxColumns`: empty fields past it are dropped, a value past it is refused),
+ * characters per field (`maxCellChars`) and records (`maxRows`). A file of one 50 MB line stops
+ * at the first value past 1,024 fields or 32,767 characters instead of being split whole.
+ * Quoting follows RFC 4180 (double quotes, "" for a quote inside, line breaks allowed inside
+ * quotes); text after a closing quote up to the separator is kept, as spreadsheet programs do.
  *
  * Unquoted fields are cut from the text with `slice`, never built a character at a time: a
  * long field costs one copy, and the reader stays linear in the file.
@@ -57,23 +57,24 @@ export class DelimitedRecords {
     this.row++;
     if (this.row > this.limits.maxRows) throw tooManyRows({ file: this.file }, this.limits.maxRows);
     const fields: string[] = [];
-    for (;;) {
-      if (fields.length >= this.limits.maxColumns) {
+    for (let column = 1; ; column++) {
+      const field = text.charCodeAt(this.at) === QUOTE ? this.quoted(column) : this.plain(column);
+      if (column <= this.limits.maxColumns) fields.push(field);
+      else if (field !== '') {
+        // Empty fields past the cap (a sheet saved with trailing separators) cost nothing and
+        // are dropped; a value there is refused, as the .xlsx reader refuses a cell there.
         throw tooManyColumns(
           { file: this.file },
-          cellAddress(this.row, fields.length + 1),
+          cellAddress(this.row, column),
           this.limits.maxColumns,
         );
       }
-      const column = fields.length + 1;
-      const field = text.charCodeAt(this.at) === QUOTE ? this.quoted(column) : this.plain(column);
-      fields.push(field);
       const c = this.at < n ? text.charCodeAt(this.at) : LF;
       this.at++;
       if (c === sep) {
         // A separator at the very end of the file still ends a (last, empty) field.
-        if (this.at >= n) fields.push('');
-        else continue;
+        if (this.at >= n && column < this.limits.maxColumns) fields.push('');
+        if (this.at < n) continue;
       }
       if (c === CR && text.charCodeAt(this.at) === LF) this.at++;
       return fields;
