@@ -164,7 +164,7 @@ describe('limits', () => {
     const e = await refusal('bomb.xlsx', bomb);
     expect(e.code).toBe('uncompressed-too-large');
     expect(e.message).toMatch(
-      /^"bomb\.xlsx" declares 1(\.0)? GiB of contents, more than the limit of 256 MiB/,
+      /^"bomb\.xlsx" declares 1(\.0)? GiB of contents, more than the limit of 96 MiB/,
     );
   });
 
