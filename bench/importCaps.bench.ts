@@ -5,13 +5,15 @@
 //   - one cell of 50 MB: refused at the 32,768th character;
 //   - 1,500,000 rows of 5 short fields (38 MB): refused at the 250,001st row;
 //   - 249,998 plots × 8 columns with a distinct note on each (63 MB, 1,999,992 filled cells,
-//     every cap met): read and analyzed (50 sites of 5,000 plots, no resampling, JSON only).
+//     every cap met): read and analyzed (50 sites of 5,000 plots, no resampling, JSON only);
+//   - the same as an .xlsx of 94 MiB of sheet XML, under the 96 MiB unzipped cap.
 import { spawnSync } from 'node:child_process';
 import { closeSync, existsSync, mkdtempSync, openSync, rmSync, writeSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { buildCli } from '../scripts/buildCli.mjs';
+import { strToU8, zipSync } from 'fflate';
 import { mulberry32 } from '../shared/demo';
 
 const here = path.dirname(fileURLToPath(import.meta.url));
@@ -69,6 +71,51 @@ function underEveryCap(file: string): void {
   );
 }
 
+/**
+ * The same trial as an .xlsx at the unzipped cap: inline strings, a note of six entries on each
+ * plot, about 94 MiB of sheet XML (written part by part; the parts a reader needs and no more).
+ */
+function workbookAtCap(file: string): void {
+  const rng = mulberry32(3);
+  const main = 'http://schemas.openxmlformats.org/spreadsheetml/2006/main';
+  const rel = (type: string, target: string) =>
+    `<Relationship Id="rId1" Type="http://schemas.openxmlformats.org/officeDocument/2006/relationships/${type}" Target="${target}"/>`;
+  const text = (ref: string, t: string) => `<c r="${ref}" t="inlineStr"><is><t>${t}</t></is></c>`;
+  const num = (ref: string, v: number | string) => `<c r="${ref}"><v>${v}</v></c>`;
+  const head = ['Site', 'Year', 'Plot', 'N rate (lb N/ac)', 'Yield (bu/ac)', 'Moisture (%)'];
+  const rows = [
+    `<row r="1">${[...head, 'Previous crop', 'Notes'].map((h, i) => text(`${'ABCDEFGH'[i]}1`, h)).join('')}</row>`,
+  ];
+  const rates = [0, 40, 80, 120, 160, 200];
+  for (let i = 0; i < 249_998; i++) {
+    const r = i + 2;
+    const rate = rates[i % 6];
+    const y = 110 + 80 * (1 - Math.exp(-rate / 60)) + (rng.next() - 0.5) * 20;
+    const note = Array.from({ length: 6 }, () => `n ${(rng.next() * 100).toFixed(3)}`).join('; ');
+    const site = `Larkspur Bend ${String(Math.floor(i / 5000) + 1).padStart(3, '0')}`;
+    rows.push(
+      `<row r="${r}">${text(`A${r}`, site)}${num(`B${r}`, 2025)}${num(`C${r}`, 1000 + (i % 5000))}${num(`D${r}`, rate)}${num(`E${r}`, y.toFixed(1))}${num(`F${r}`, (18 + rng.next() * 3).toFixed(1))}${text(`G${r}`, 'soybean')}${text(`H${r}`, note)}</row>`,
+    );
+  }
+  const bytes = zipSync({
+    '_rels/.rels': strToU8(
+      `<Relationships>${rel('officeDocument', 'xl/workbook.xml')}</Relationships>`,
+    ),
+    'xl/workbook.xml': strToU8(
+      `<workbook xmlns="${main}" xmlns:r="r"><sheets><sheet name="Plots" sheetId="1" r:id="rId1"/></sheets></workbook>`,
+    ),
+    'xl/_rels/workbook.xml.rels': strToU8(
+      `<Relationships>${rel('worksheet', 'worksheets/sheet1.xml')}</Relationships>`,
+    ),
+    'xl/worksheets/sheet1.xml': strToU8(
+      `<worksheet xmlns="${main}"><sheetData>${rows.join('')}</sheetData></worksheet>`,
+    ),
+  });
+  const fd = openSync(file, 'w');
+  writeSync(fd, bytes);
+  closeSync(fd);
+}
+
 function measured(cwd: string, args: string[]): string {
   const gnu = existsSync('/usr/bin/time');
   const t = process.hrtime.bigint();
@@ -85,7 +132,7 @@ function measured(cwd: string, args: string[]): string {
     .trimEnd()
     .split('\n')
     .filter((l) => !l.startsWith('Command exited'));
-  const peak = gnu ? `${(Number(lines.pop()) / 1024).toFixed(0)} MB peak` : 'peak not measured';
+  const peak = gnu ? `${(Number(lines.pop()) / 1024).toFixed(0)} MiB peak` : 'peak not measured';
   const reason = (lines.at(-1) ?? '').slice(0, 90);
   return `exit ${r.status}, ${wall.toFixed(1)} s, ${peak} — ${reason}`;
 }
@@ -104,11 +151,13 @@ export async function run(): Promise<void> {
       'Site,Plot,N rate (lb N/ac),Yield (bu/ac),Moisture (%)',
     );
     underEveryCap(path.join(dir, 'full.csv'));
+    workbookAtCap(path.join(dir, 'full.xlsx'));
     for (const [file, what] of [
       ['one-line.csv', '50 MB, one line'],
       ['one-cell.csv', '50 MB, one cell'],
       ['rows.csv', '1.5 M rows × 5 fields'],
       ['full.csv', '250 k rows × 8 columns, every cap met'],
+      ['full.xlsx', '.xlsx, 94 MiB of XML, every cap met'],
     ]) {
       const args = ['analyze', file, '--boot', '0', '--json', `${file}.json`];
       console.log(`${what.padEnd(40)} ${measured(dir, args)}`);
