@@ -10,7 +10,7 @@ export interface ImportLimits {
   /**
    * Largest total size of an .xlsx's contents once unzipped, bytes. 96 MiB keeps a workbook at
    * every other cap inside 1 GB: 250,000 plots × 8 columns with a note on each, 94 MiB of sheet
-   * XML, peaked at 927 MB through `plotrate analyze`, and 233 MB of XML at 1.48 GB. A trial
+   * XML, peaked at 906–935 MiB through `plotrate analyze`, and 233 MB of XML at 1.41 GiB. A trial
    * workbook of 50,000 plots (the seeded generator's, 7 columns) unzips to 12 MiB.
    */
   maxUncompressedBytes: number;
