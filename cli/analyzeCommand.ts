@@ -377,10 +377,14 @@ export async function analyzeCommand(
     findings.find((f) => f.severity === 'warning' && f.refs.length > 0);
   if (nothingFitted && (firstError || analyzablePlots(imported.table).length === 0)) {
     const ref = firstError?.refs[0];
+    // Without a cell to name, the files are named, with what to check in them.
+    const names = files.map((f) => `"${f.name}"`).join(', ');
     throw new ImportError(
       'no-data',
-      `Nothing could be fitted because of the input${firstError ? `: ${firstError.message}` : ': no plot has both a rate and a yield.'}`,
-      ref ? { file: ref.file, sheet: ref.sheet || undefined, cell: ref.cell } : null,
+      `Nothing could be fitted because of the input${firstError ? `: ${firstError.message}` : `: no plot in ${names} has both a rate and a yield; check that the rate and yield columns are filled in, or name them with --map.`}`,
+      ref
+        ? { file: ref.file, sheet: ref.sheet || undefined, cell: ref.cell }
+        : { file: files.map((f) => f.name).join(', ') },
     );
   }
   if (nothingFitted) {

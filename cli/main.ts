@@ -16,7 +16,9 @@ const version = (
 
 const log: Console2 = {
   out: (line) => process.stdout.write(`${line}\n`),
-  err: (line) => process.stderr.write(`${line}\n`),
+  // Every message is one line, whatever a cell it quotes holds: a reader of the log (or a
+  // script) can take each line as one message.
+  err: (line) => process.stderr.write(`${oneLine(line)}\n`),
 };
 
 /** One line: the reason, with no stack (the user can act on the message). */
@@ -71,7 +73,7 @@ async function main(argv: string[]): Promise<number> {
       return 1;
     }
     log.err(`plotrate: analysis failed: ${oneLine(e instanceof Error ? e.message : String(e))}`);
-    if (process.env.PLOTRATE_DEBUG && e instanceof Error) log.err(e.stack ?? '');
+    if (process.env.PLOTRATE_DEBUG && e instanceof Error) process.stderr.write(`${e.stack}\n`);
     return 1;
   }
 }

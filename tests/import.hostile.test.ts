@@ -164,7 +164,7 @@ describe('limits', () => {
     const e = await refusal('bomb.xlsx', bomb);
     expect(e.code).toBe('uncompressed-too-large');
     expect(e.message).toMatch(
-      /^"bomb\.xlsx" declares 1(\.0)? GiB of contents, more than the limit of 256 MiB/,
+      /^"bomb\.xlsx" declares 1(\.0)? GiB of contents, more than the limit of 96 MiB/,
     );
   });
 
@@ -216,6 +216,60 @@ describe('limits', () => {
     expect(e.message).toBe(
       '"long.csv" has more than 20 rows, the limit for one file; split it by site or year.',
     );
+  });
+
+  it('refuses a CSV line with more fields than the column cap, naming the first cell beyond', async () => {
+    const text = 'Plot,Yield\n1,200\n' + '7,'.repeat(2000);
+    const e = await refusal('wide.csv', new TextEncoder().encode(text));
+    expect(e.code).toBe('too-many-columns');
+    expect(e.where).toEqual({ file: 'wide.csv', cell: 'AMK3' });
+    expect(e.message).toBe(
+      '"wide.csv" has a field at AMK3, beyond the 1,024 columns Plotrate reads; check that the file uses one separator (comma, semicolon or tab) and that its lines end where rows end, or delete the columns right of the trial data, and save again.',
+    );
+    // 1,024 fields are read, and empty fields past them (trailing separators) are dropped.
+    const bytes = new TextEncoder().encode('7,'.repeat(1023) + '7' + ','.repeat(5000) + '\n1,2');
+    const rows = (await readTrialFile({ name: 'ok.csv', bytes })).sheets[0].rows;
+    expect(rows.map((r) => r.length)).toEqual([1024, 2]);
+  });
+
+  // 32,767 characters: the most an Excel worksheet cell holds (Microsoft KB 211878).
+  it.each([
+    ['a plain field', `Plot,Notes\n1,${'x'.repeat(40_000)}`, /check that this is the trial table/],
+    ['a quoted field', `Plot,Notes\n1,"${'x'.repeat(40_000)}"`, /stray double quote/],
+    [
+      'a quote never closed',
+      `Plot,Notes\n1,"oops\n${'2,ok\n'.repeat(10_000)}`,
+      /stray double quote/,
+    ],
+  ])('refuses %s longer than a spreadsheet cell holds, naming the cell', async (_, text, hint) => {
+    const e = await refusal('long.csv', new TextEncoder().encode(text));
+    expect(e.code).toBe('cell-too-long');
+    expect(e.where).toEqual({ file: 'long.csv', cell: 'B2' });
+    expect(e.message).toMatch(/^"long\.csv": cell B2 holds more than 32,767 characters/);
+    expect(e.message).toMatch(hint);
+  });
+
+  it('reads a field of exactly 32,767 characters, plain, quoted or with a doubled quote', async () => {
+    const long = 'y'.repeat(32_767);
+    for (const [field, text] of [
+      [long, long],
+      [`"${long}"`, long],
+      [`"${long.slice(1)}"""`, `${long.slice(1)}"`],
+    ]) {
+      const bytes = new TextEncoder().encode(`Plot,Notes\n1,${field}`);
+      expect((await readTrialFile({ name: 'ok.csv', bytes })).sheets[0].rows[1][1]?.text).toBe(
+        text,
+      );
+    }
+  });
+
+  it('refuses a CSV with more filled cells than the cap, naming the first cell past it', async () => {
+    const text =
+      'Plot,Yield,Notes\n' + Array.from({ length: 10 }, (_, i) => `${i},${200 + i},`).join('\n');
+    const e = await refusal('cells.csv', new TextEncoder().encode(text), { maxCells: 15 });
+    expect(e.code).toBe('too-many-cells');
+    // Empty fields do not count: 3 headers, then 2 per row; the 16th is the plot of row 8.
+    expect(e.where).toEqual({ file: 'cells.csv', cell: 'A8' });
   });
 
   it('refuses an xlsx sheet with more rows than the cap, naming the sheet', async () => {

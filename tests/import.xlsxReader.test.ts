@@ -12,7 +12,8 @@ import { zipSync } from 'fflate';
 import { describe, expect, it } from 'vitest';
 import * as XLSX from 'xlsx';
 import { ImportError, readTrialFile } from '../shared/import';
-import type { RawCell, RawWorkbook } from '../shared/import/rawWorkbook';
+import { cellAddress, type RawCell, type RawWorkbook } from '../shared/import/rawWorkbook';
+import { parseAddress } from '../shared/import/xlsxXml';
 
 const demoBytes = new Uint8Array(
   readFileSync(path.join(__dirname, '..', 'demo', 'wrenhollow-n-trials-2025.xlsx')),
@@ -22,8 +23,11 @@ const demoBytes = new Uint8Array(
 function ours(wb: RawWorkbook, sheet: string): Map<string, [string, string]> {
   const s = wb.sheets.find((x) => x.name === sheet)!;
   const out = new Map<string, [string, string]>();
-  for (const row of s.rows)
-    for (const c of row) if (c && !c.mergedFrom) out.set(c.address, [c.kind, c.text]);
+  s.rows.forEach((row, r) =>
+    row.forEach((c, col) => {
+      if (c && !c.mergedFrom) out.set(cellAddress(r + 1, col + 1), [c.kind, c.text]);
+    }),
+  );
   return out;
 }
 
@@ -99,8 +103,10 @@ describe('readXlsx agrees with SheetJS', () => {
     const bytes = new Uint8Array(XLSX.write(book, { type: 'array', bookType: 'xlsx' }));
     const wb = await readTrialFile({ name: 'sheetjs.xlsx', bytes });
     const plots = wb.sheets[0];
-    const cell = (a: string): RawCell | undefined =>
-      plots.rows.flat().find((c) => c?.address === a) ?? undefined;
+    const cell = (a: string): RawCell | undefined => {
+      const at = parseAddress(a)!;
+      return plots.rows[at.row - 1]?.[at.col - 1] ?? undefined;
+    };
     expect(wb.sheets.map((s) => [s.name, s.hidden])).toEqual([
       ['Plots', false],
       ['Notes', true],
@@ -231,5 +237,51 @@ describe('readXlsx holds its caps while reading', () => {
     const e = await refusal(bytes);
     expect(e.code).toBe('too-many-rows');
     expect(e.message).toMatch(/has 300,000 rows, more than the limit of 250,000/);
+  });
+  // 32,767 characters: the most an Excel worksheet cell holds (Microsoft KB 211878).
+  it.each([
+    [
+      'a shared string',
+      '<x:row r="1"><x:c r="A1"><x:v>1</x:v></x:c><x:c r="B1" t="s"><x:v>0</x:v></x:c></x:row>',
+    ],
+    [
+      'an inline string',
+      '<x:row r="1"><x:c r="A1"><x:v>1</x:v></x:c><x:c r="B1" t="inlineStr"><x:is><x:t>LONG</x:t></x:is></x:c></x:row>',
+    ],
+  ])('refuses %s longer than a spreadsheet cell holds, naming the cell', async (_, row) => {
+    const book = (text: string) =>
+      handWritten(row.replace('LONG', text), { strings: `<x:si><x:t>${text}</x:t></x:si>` });
+    const e = await refusal(book('n'.repeat(32_768)));
+    expect(e.code).toBe('cell-too-long');
+    expect(e.where).toEqual({ file: 'capped.xlsx', sheet: 'Trial & notes', cell: 'B1' });
+    expect(e.message).toMatch(/cell B1 holds more than 32,767 characters/);
+    // One character less is a cell like any other.
+    const read = await readTrialFile({ name: 'ok.xlsx', bytes: book('n'.repeat(32_767)) });
+    expect(read.sheets[0].rows[0][1]?.text).toHaveLength(32_767);
+  });
+
+  it('refuses a workbook with more filled cells than the cap, naming the first cell past it', async () => {
+    const rows = Array.from(
+      { length: 4 },
+      (_, i) =>
+        `<x:row r="${i + 1}">${['A', 'B', 'C'].map((c) => `<x:c r="${c}${i + 1}"><x:v>${i}</x:v></x:c>`).join('')}</x:row>`,
+    ).join('');
+    const e = await refusal(handWritten(rows), { maxCells: 10 });
+    expect(e.code).toBe('too-many-cells');
+    expect(e.where).toEqual({ file: 'capped.xlsx', sheet: 'Trial & notes', cell: 'B4' });
+    const read = await readTrialFile(
+      { name: 'ok.xlsx', bytes: handWritten(rows) },
+      { maxCells: 12 },
+    );
+    expect(read.sheets[0].rows).toHaveLength(4);
+  });
+
+  it('shares one cell among the cells of one shared string', async () => {
+    const rows =
+      '<x:row r="1"><x:c r="A1" t="s"><x:v>0</x:v></x:c><x:c r="B1" t="s"><x:v>0</x:v></x:c></x:row>';
+    const bytes = handWritten(rows, { strings: '<x:si><x:t>Rep</x:t></x:si>' });
+    const [a, b] = (await readTrialFile({ name: 's.xlsx', bytes })).sheets[0].rows[0];
+    expect(a).toEqual({ kind: 'text', value: 'Rep', text: 'Rep' });
+    expect(a).toBe(b);
   });
 });

@@ -113,8 +113,14 @@ export function fitRegionalMixedModel(
       reason: `A regional mixed model needs at least 4 site-years and 3 distinct rates; there are ${sites.length} and ${distinct}.`,
     };
   }
-  const low = Math.min(...rates);
-  const scale = Math.max(...rates);
+  // A loop, not Math.min(...rates): spreading every plot's rate as arguments overflows the
+  // stack past about 100,000 plots.
+  let low = Infinity;
+  let scale = -Infinity;
+  for (const x of rates) {
+    if (x < low) low = x;
+    if (x > scale) scale = x;
+  }
   if (!(scale > 0)) return { model: null, reason: 'Every tested rate is 0.' };
   const groups: MixedModelGroup[] = sites.map((s) => {
     const rows = s.rateKgHa.map((x) => {

@@ -15,6 +15,8 @@ export type ImportErrorCode =
   | 'uncompressed-too-large'
   | 'too-many-rows'
   | 'too-many-columns'
+  | 'too-many-cells'
+  | 'cell-too-long'
   | 'bad-text'
   | 'no-data'
   | 'bad-mapping'

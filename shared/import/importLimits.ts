@@ -7,7 +7,12 @@
 export interface ImportLimits {
   /** Largest file accepted, bytes. */
   maxFileBytes: number;
-  /** Largest total size of an .xlsx's contents once unzipped, bytes. */
+  /**
+   * Largest total size of an .xlsx's contents once unzipped, bytes. 96 MiB keeps a workbook at
+   * every other cap inside 1 GB: 250,000 plots × 8 columns with a note on each, 94 MiB of sheet
+   * XML, peaked at 906–935 MiB through `plotrate analyze`, and 233 MB of XML at 1.41 GiB. A trial
+   * workbook of 50,000 plots (the seeded generator's, 7 columns) unzips to 12 MiB.
+   */
   maxUncompressedBytes: number;
   /** Most rows accepted in one sheet or CSV file. */
   maxRows: number;
@@ -16,6 +21,21 @@ export interface ImportLimits {
    * dozen; a stray value far right would otherwise widen every row.
    */
   maxColumns: number;
+  /**
+   * Most characters in one cell or CSV field. 32,767 is the most a worksheet cell holds in
+   * Microsoft Excel since Excel 97 (Microsoft KB 211878, "Worksheet cells can contain a maximum
+   * of 32,767 characters"); a field longer than that cannot have come from a spreadsheet and
+   * is usually a lost line break or a stray quote.
+   */
+  maxCellChars: number;
+  /**
+   * Most filled cells read from one file, all sheets together. What keeps any file within the
+   * caps inside 1 GB: the rows and columns caps alone allow 256 million cells. A distinct cell
+   * costs about 106 bytes read (measured: 5 million distinct number cells took 532 MB of heap)
+   * and each plot of the table about 1.6 KB more while both are held, so 2 million cells
+   * (250,000 plots × 8 columns, or 100,000 × 20) stay inside 1 GB with the table beside them.
+   */
+  maxCells: number;
   /** Most entries accepted inside an .xlsx zip. */
   maxZipEntries: number;
   /**
@@ -33,9 +53,11 @@ export interface ImportLimits {
  */
 export const importLimits: Readonly<ImportLimits> = {
   maxFileBytes: 64 * 1024 * 1024,
-  maxUncompressedBytes: 256 * 1024 * 1024,
+  maxUncompressedBytes: 96 * 1024 * 1024,
   maxRows: 250_000,
   maxColumns: 1_024,
+  maxCellChars: 32_767,
+  maxCells: 2_000_000,
   maxZipEntries: 2_000,
   maxCompressionRatio: 400,
 };

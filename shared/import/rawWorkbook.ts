@@ -7,9 +7,12 @@ import type { SourceFile } from '../table/plotTable';
 
 export type RawValue = number | string | boolean | Date | null;
 
+/**
+ * One cell. Its address is its place (`rows[r - 1][c - 1]` is at `cellAddress(r, c)`), not a
+ * field: a file of millions of cells would otherwise hold millions of address strings, and a
+ * cell being a value lets a reader share one object among equal cells.
+ */
 export interface RawCell {
-  /** A1 address, e.g. "C7". */
-  address: string;
   /** The text as shown in the sheet (or as written in the CSV). */
   text: string;
   /** Typed value; for a formula, its cached result (null when it has none). */

@@ -1,91 +1,37 @@
 /**
  * A CSV, TSV or semicolon-separated text file as a one-sheet RawWorkbook.
- * Quoting follows RFC 4180 (double quotes, "" for a quote inside, line breaks
- * allowed inside quotes); the separator is the one of comma, semicolon and tab
- * that splits the first lines into the same number of fields most often; a
- * decimal comma is recognized when the separator is not a comma.
+ * Records are read by DelimitedRecords (RFC 4180 quoting, caps on rows, fields per line and
+ * characters per field checked while reading); the separator is the one of comma, semicolon
+ * and tab that splits the first lines into the same number of fields most often; a decimal
+ * comma is recognized when the separator is not a comma.
  */
 import type { SourceFile } from '../table/plotTable';
 import { ImportError } from './importError';
 import { importLimits, type ImportLimits } from './importLimits';
 import { parseNumberText } from '../table/parseNumberText';
+import { DelimitedRecords } from './delimitedRecords';
+import { tooManyCells } from './limitErrors';
 import { cellAddress, type RawCell, type RawWorkbook } from './rawWorkbook';
 
 type Separator = ',' | ';' | '\t';
 
-function splitRecords(text: string, sep: string, file: string, maxRows: number): string[][] {
-  const records: string[][] = [];
-  let field = '';
-  let record: string[] = [];
-  let i = 0;
-  const n = text.length;
-  let quoteStartRow: number;
-  while (i < n) {
-    const c = text[i];
-    if (c === '"' && field === '') {
-      // Quoted field.
-      quoteStartRow = records.length + 1;
-      i++;
-      let closed = false;
-      while (i < n) {
-        const d = text[i];
-        if (d === '"') {
-          if (text[i + 1] === '"') {
-            field += '"';
-            i += 2;
-            continue;
-          }
-          i++;
-          closed = true;
-          break;
-        }
-        field += d;
-        i++;
-      }
-      if (!closed) {
-        throw new ImportError(
-          'bad-text',
-          `"${file}", row ${quoteStartRow}: a quoted field starts there and is never closed; check for a stray double quote (") in that row and save the file again.`,
-          { file, cell: `row ${quoteStartRow}` },
-        );
-      }
-      // Text after the closing quote up to the separator is kept, as spreadsheet programs do.
-      while (i < n && text[i] !== sep && text[i] !== '\n' && text[i] !== '\r') field += text[i++];
-      continue;
-    }
-    if (c === sep) {
-      record.push(field);
-      field = '';
-      i++;
-      continue;
-    }
-    if (c === '\n' || c === '\r') {
-      record.push(field);
-      records.push(record);
-      if (records.length > maxRows) {
-        throw new ImportError(
-          'too-many-rows',
-          `"${file}" has more than ${maxRows.toLocaleString('en-US')} rows, the limit for one file; split it by site or year.`,
-          { file },
-        );
-      }
-      record = [];
-      field = '';
-      i += c === '\r' && text[i + 1] === '\n' ? 2 : 1;
-      continue;
-    }
-    field += c;
-    i++;
-  }
-  if (field !== '' || record.length > 0) {
-    record.push(field);
-    records.push(record);
-  }
-  return records;
-}
+type Limits = Pick<ImportLimits, 'maxRows' | 'maxColumns' | 'maxCellChars' | 'maxCells'>;
+
+/** How much of the file the separator is guessed from: its first lines, however long they are. */
+const SEPARATOR_SAMPLE_CHARS = 256 * 1024;
+
+/**
+ * Distinct cell texts whose cells are shared. A cell is a value (its place is its row and
+ * column), so every "0" of a rate column can be one object; trial files repeat a few hundred
+ * texts (rates, blocks, sites, years), and the table stays bounded when a file does not.
+ */
+const MAX_SHARED_CELLS = 65_536;
 
 function chooseSeparator(text: string, fileName: string): Separator {
-  const lines = text.split(/\r\n|\n|\r/, 60).filter((l) => l.trim() !== '');
+  const lines = text
+    .slice(0, SEPARATOR_SAMPLE_CHARS)
+    .split(/\r\n|\n|\r/, 60)
+    .filter((l) => l.trim() !== '');
   let best: Separator = ',';
   let bestScore = -1;
   const candidates: Separator[] = fileName.toLowerCase().endsWith('.tsv')
@@ -114,52 +60,80 @@ function chooseSeparator(text: string, fileName: string): Separator {
   return best;
 }
 
+/** Whether numbers in the first 500 records are written with a decimal comma ("12,5"). */
+function writesDecimalComma(records: DelimitedRecords): boolean {
+  let commaDecimals = 0;
+  let dotDecimals = 0;
+  for (let r = 0, rec = records.next(); rec && r < 500; r++, rec = records.next()) {
+    for (const f of rec) {
+      if (/^\s*-?\d+,\d+\s*$/.test(f)) commaDecimals++;
+      else if (/^\s*-?\d+\.\d+\s*$/.test(f)) dotDecimals++;
+    }
+  }
+  return commaDecimals > dotDecimals;
+}
+
 /**
  * Reads a delimited text file.
  * @param file - name, size and hash of the file
  * @param text - its decoded text
- * @param limits - row cap
+ * @param limits - caps on rows, fields per line, characters per field and filled cells
  * @returns a RawWorkbook with one sheet named ""
- * @throws {ImportError} "bad-text" for an unclosed quote (naming the row); "too-many-rows"; "no-data"
+ * @throws {ImportError} "bad-text" for an unclosed quote (naming the row); "too-many-rows",
+ *   "too-many-columns", "cell-too-long" and "too-many-cells" (naming the cell); "no-data"
  * @example
  * readDelimited(file, 'plot;yield\n1;12,5').sheets[0].rows[1][1].value // 12.5
  */
 export function readDelimited(
   file: SourceFile,
   text: string,
-  limits: Pick<ImportLimits, 'maxRows'> = importLimits,
+  limits: Limits = importLimits,
 ): RawWorkbook {
-  if (text.trim() === '') {
+  if (!/\S/.test(text)) {
     throw new ImportError('no-data', `"${file.name}" holds no text; choose the saved trial file.`, {
       file: file.name,
     });
   }
   const separator = chooseSeparator(text, file.name);
-  const records = splitRecords(text, separator, file.name, limits.maxRows);
-  let commaDecimals = 0;
-  let dotDecimals = 0;
-  if (separator !== ',') {
-    for (const r of records.slice(0, 500)) {
-      for (const f of r) {
-        if (/^\s*-?\d+,\d+\s*$/.test(f)) commaDecimals++;
-        else if (/^\s*-?\d+\.\d+\s*$/.test(f)) dotDecimals++;
+  const decimalComma =
+    separator !== ',' &&
+    writesDecimalComma(new DelimitedRecords(text, separator, file.name, limits));
+  const shared = new Map<string, RawCell>();
+  const cellOf = (f: string): RawCell => {
+    const known = shared.get(f);
+    if (known) return known;
+    const num = parseNumberText(f, decimalComma);
+    const cell: RawCell =
+      num === null ? { text: f, value: f, kind: 'text' } : { text: f, value: num, kind: 'number' };
+    if (shared.size < MAX_SHARED_CELLS) shared.set(f, cell);
+    return cell;
+  };
+  const records = new DelimitedRecords(text, separator, file.name, limits);
+  const rows: (RawCell | null)[][] = [];
+  let filled = 0;
+  for (let rec = records.next(); rec; rec = records.next()) {
+    // Trailing blank fields carry nothing; they are left off so they cannot look like missing plots.
+    let width = rec.length;
+    while (width > 0 && rec[width - 1] === '') width--;
+    const row: (RawCell | null)[] = [];
+    for (let c = 0; c < width; c++) {
+      const f = rec[c];
+      if (f === '') {
+        row.push(null);
+        continue;
       }
+      if (++filled > limits.maxCells)
+        throw tooManyCells(
+          { file: file.name },
+          cellAddress(rows.length + 1, c + 1),
+          limits.maxCells,
+        );
+      row.push(cellOf(f));
     }
+    rows.push(row);
   }
-  const decimalComma = commaDecimals > dotDecimals;
-  const rows: (RawCell | null)[][] = records.map((rec, ri) =>
-    rec.map((f, ci): RawCell | null => {
-      if (f === '') return null;
-      const num = parseNumberText(f, decimalComma);
-      const address = cellAddress(ri + 1, ci + 1);
-      return num === null
-        ? { address, text: f, value: f, kind: 'text' }
-        : { address, text: f, value: num, kind: 'number' };
-    }),
-  );
-  // Trailing blank lines and columns carry nothing; drop them so they cannot look like missing plots.
-  while (rows.length > 0 && rows[rows.length - 1].every((c) => c === null)) rows.pop();
-  for (const r of rows) while (r.length > 0 && r[r.length - 1] === null) r.pop();
+  // Trailing blank lines likewise.
+  while (rows.length > 0 && rows[rows.length - 1].length === 0) rows.pop();
   return {
     file,
     format: 'csv',

@@ -20,7 +20,7 @@ import { ImportError } from './importError';
 import type { ImportSettings } from './importSettings';
 import { nutrientRateKgHa } from './nutrientRateKgHa';
 import { plotWeightYieldKgHa } from './plotWeightYieldKgHa';
-import type { RawSheet, RawWorkbook } from './rawWorkbook';
+import { cellAddress, type RawSheet, type RawWorkbook } from './rawWorkbook';
 import type { TreatmentKeyEntry } from './readTreatmentKey';
 
 /** Values of the exclude column that mean "keep the plot". */
@@ -137,7 +137,7 @@ export function readPlotsSheet(
     const keep = (role: ColumnRole, a: ColumnAssignment | undefined) => {
       const c = at(a);
       if (a && (c || role === 'yield' || role === 'rate'))
-        original[role] = { text: c?.text ?? '', ref: cellRef(file, sheet.name, c, r, a.col) };
+        original[role] = { text: c?.text ?? '', ref: cellRef(file, sheet.name, r, a.col) };
       return c;
     };
     const num = (role: ColumnRole, a: ColumnAssignment | undefined): number | null => {
@@ -148,15 +148,15 @@ export function readPlotsSheet(
         findings.push({
           code: 'number-as-text',
           severity: 'info',
-          message: `${where} ${c.address} (${a.header}) holds a number stored as text ("${c.text}"); it was read as ${n.value}.`,
-          refs: [cellRef(file, sheet.name, c, r, a.col)],
+          message: `${where} ${cellAddress(r, a.col)} (${a.header}) holds a number stored as text ("${c.text}"); it was read as ${n.value}.`,
+          refs: [cellRef(file, sheet.name, r, a.col)],
         });
       } else if (n.status === 'formula-without-result' && c) {
         findings.push({
           code: 'formula-without-result',
           severity: 'warning',
-          message: `${where} ${c.address} (${a.header}) is a formula (=${c.formula}) saved without a calculated result, so it has no value here. Open the file, let it recalculate, save it, and import it again.`,
-          refs: [cellRef(file, sheet.name, c, r, a.col)],
+          message: `${where} ${cellAddress(r, a.col)} (${a.header}) is a formula (=${c.formula}) saved without a calculated result, so it has no value here. Open the file, let it recalculate, save it, and import it again.`,
+          refs: [cellRef(file, sheet.name, r, a.col)],
         });
       }
       return n.value;
@@ -204,9 +204,7 @@ export function readPlotsSheet(
         code: 'treatment-not-in-key',
         severity: 'warning',
         message: `${where} row ${r}: treatment "${treatment}" is not in the treatment key, so the plot has no rate. Add it to the key or correct the treatment.`,
-        refs: cols.treatment
-          ? [cellRef(file, sheet.name, at(cols.treatment), r, cols.treatment.col)]
-          : [],
+        refs: cols.treatment ? [cellRef(file, sheet.name, r, cols.treatment.col)] : [],
         site,
       });
     }
@@ -245,7 +243,7 @@ export function readPlotsSheet(
           code: 'moisture-missing',
           severity: 'warning',
           message: `${where} row ${r}: the yield was weighed at harvest moisture but the moisture ${mc && mc.text.trim() ? `"${mc.text}" is not a usable percentage` : 'is missing'}, so it is not adjusted to ${standardMoisturePct} %. Enter the moisture or exclude the plot.`,
-          refs: [cellRef(file, sheet.name, mc, r, cols.moisture.col)],
+          refs: [cellRef(file, sheet.name, r, cols.moisture.col)],
           site,
         });
       }

@@ -10,7 +10,7 @@ import { cellLabel, cellText } from './cellLabel';
 import { cellNumber } from './cellNumber';
 import { cellRef } from './cellRef';
 import { columnForRole, type MappedRole, type SheetMapping } from './columnMapping';
-import type { RawSheet, RawWorkbook } from './rawWorkbook';
+import { cellAddress, type RawSheet, type RawWorkbook } from './rawWorkbook';
 
 /** One treatment of the key. */
 export interface TreatmentKeyEntry {
@@ -61,8 +61,8 @@ export function readTreatmentKey(
       findings.push({
         code: 'number-as-text',
         severity: 'info',
-        message: `The rate in ${sheet.name} ${rc.address} is a number stored as text ("${rc.text}"); it was read as ${n.value}.`,
-        refs: [cellRef(raw.file.name, sheet.name, rc, r, rate!.col)],
+        message: `The rate in ${sheet.name} ${cellAddress(r, rate!.col)} is a number stored as text ("${rc.text}"); it was read as ${n.value}.`,
+        refs: [cellRef(raw.file.name, sheet.name, r, rate!.col)],
       });
     }
     const pText = product ? cellText(row[product.col - 1]) : '';
@@ -74,7 +74,7 @@ export function readTreatmentKey(
       productText: pText,
       timing: timing ? cellText(row[timing.col - 1]) : '',
       rateCell: rate
-        ? { text: rc?.text ?? '', ref: cellRef(raw.file.name, sheet.name, rc ?? null, r, rate.col) }
+        ? { text: rc?.text ?? '', ref: cellRef(raw.file.name, sheet.name, r, rate.col) }
         : null,
     });
   }

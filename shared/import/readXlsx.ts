@@ -12,6 +12,7 @@
 import type { SourceFile } from '../table/plotTable';
 import { ImportError } from './importError';
 import { importLimits, type ImportLimits } from './importLimits';
+import { cellTooLong, tooManyCells, tooManyColumns, tooManyRows } from './limitErrors';
 import {
   cellAddress,
   type RawCell,
@@ -33,7 +34,13 @@ import { unzipChecked } from './zipGuard';
 
 type Limits = Pick<
   ImportLimits,
-  'maxRows' | 'maxColumns' | 'maxUncompressedBytes' | 'maxZipEntries' | 'maxCompressionRatio'
+  | 'maxRows'
+  | 'maxColumns'
+  | 'maxCellChars'
+  | 'maxCells'
+  | 'maxUncompressedBytes'
+  | 'maxZipEntries'
+  | 'maxCompressionRatio'
 >;
 
 /** Most cells the merged ranges of one sheet may fill, beyond the cells the sheet holds. */
@@ -129,17 +136,22 @@ interface SheetContext {
   file: string;
   sheet: string;
   strings: string[];
+  /** One cell per shared string, made when first used: cells are values, so equal ones share. */
+  stringCells: (Plain | undefined)[];
   formats: (string | undefined)[];
   date1904: boolean;
   limits: Limits;
+  /** Filled cells kept so far in the workbook, against `maxCells`. */
+  kept: { cells: number };
 }
 
 /** A cell's value as shown, from its type, style and stored value (§18.3.1.4, §18.18.11). */
 function cellValue(t: string, v: string, style: number, ctx: SheetContext): Plain {
   switch (t) {
     case 's': {
-      const s = ctx.strings[Number(v)];
-      return s === undefined ? BLANK : textCell(s);
+      const i = Number(v);
+      const s = ctx.strings[i];
+      return s === undefined ? BLANK : (ctx.stringCells[i] ??= textCell(s));
     }
     case 'str':
     case 'inlineStr':
@@ -175,22 +187,6 @@ function child(inner: string, p: string, name: string): string | undefined {
   return end < 0 ? undefined : inner.slice(close + 1, end);
 }
 
-function tooManyRows(ctx: SheetContext, rows: number): ImportError {
-  return new ImportError(
-    'too-many-rows',
-    `Sheet "${ctx.sheet}" in "${ctx.file}" has ${rows.toLocaleString('en-US')} rows, more than the limit of ${ctx.limits.maxRows.toLocaleString('en-US')}; split it by site or year.`,
-    { file: ctx.file, sheet: ctx.sheet },
-  );
-}
-
-function tooManyColumns(ctx: SheetContext, address: string): ImportError {
-  return new ImportError(
-    'too-many-columns',
-    `Sheet "${ctx.sheet}" in "${ctx.file}" has a cell at ${address}, beyond the ${ctx.limits.maxColumns.toLocaleString('en-US')} columns Plotrate reads; delete the columns right of the trial data (they may look empty) and save again.`,
-    { file: ctx.file, sheet: ctx.sheet, cell: address },
-  );
-}
-
 /**
  * Puts a cell in its row: gaps of a few cells are filled with null as RawSheet promises; a
  * wide gap (a stray value far right) is left as a hole, which every reader of rows treats as
@@ -207,7 +203,8 @@ function readSheet(xml: string, ctx: SheetContext): Pick<RawSheet, 'rows' | 'hid
   // The declared extent first: a sheet that says it is too long is refused before any cell.
   const dim = tags(xml.slice(0, 4096), 'dimension')[0]?.ref?.split(':').pop();
   const declared = dim ? parseAddress(dim) : null;
-  if (declared && declared.row > ctx.limits.maxRows) throw tooManyRows(ctx, declared.row);
+  if (declared && declared.row > ctx.limits.maxRows)
+    throw tooManyRows(ctx, ctx.limits.maxRows, declared.row);
 
   const rows: (RawCell | null)[][] = [];
   const hiddenRows: number[] = [];
@@ -230,7 +227,7 @@ function readSheet(xml: string, ctx: SheetContext): Pick<RawSheet, 'rows' | 'hid
     const rowAttrs = attributes(xml.slice(at + rowOpen.length, tagEnd));
     const r = rowAttrs.r ? Number(rowAttrs.r) : lastRow + 1;
     lastRow = r;
-    if (r > ctx.limits.maxRows) throw tooManyRows(ctx, r);
+    if (r > ctx.limits.maxRows) throw tooManyRows(ctx, ctx.limits.maxRows, r);
     if (rowAttrs.hidden === '1' || rowAttrs.hidden === 'true') hiddenRows.push(r);
     if (xml[tagEnd - 1] === '/') {
       at = tagEnd;
@@ -248,8 +245,8 @@ function readSheet(xml: string, ctx: SheetContext): Pick<RawSheet, 'rows' | 'hid
       const pos = a.r ? parseAddress(a.r) : null;
       const col = pos ? pos.col : lastCol + 1;
       lastCol = col;
-      const address = cellAddress(r, col);
-      if (col > ctx.limits.maxColumns) throw tooManyColumns(ctx, address);
+      if (col > ctx.limits.maxColumns)
+        throw tooManyColumns(ctx, cellAddress(r, col), ctx.limits.maxColumns);
       let inner = '';
       if (m[2] !== '/') {
         const close = body.indexOf(cellClose, cellRe.lastIndex);
@@ -272,15 +269,25 @@ function readSheet(xml: string, ctx: SheetContext): Pick<RawSheet, 'rows' | 'hid
         }
         raw =
           v === undefined
-            ? { address, ...BLANK, formula, formulaMissingResult: true }
-            : { address, ...cellValue(t, v, style, ctx), formula };
+            ? { ...BLANK, formula, formulaMissingResult: true }
+            : { ...cellValue(t, v, style, ctx), formula };
       } else if (t === 'inlineStr') {
         const is = child(inner, p, 'is');
-        raw = { address, ...textCell(is ? stringItemText(is, p) : '') };
+        raw = textCell(is ? stringItemText(is, p) : '');
       } else {
-        raw = { address, ...(v === undefined ? BLANK : cellValue(t, v, style, ctx)) };
+        raw = v === undefined ? BLANK : cellValue(t, v, style, ctx);
       }
       if (raw.kind === 'blank' && !raw.formula) continue;
+      if (raw.text.length > ctx.limits.maxCellChars) {
+        throw cellTooLong(
+          ctx,
+          cellAddress(r, col),
+          ctx.limits.maxCellChars,
+          'shorten the text in that cell (notes belong in a notes sheet or column of short entries) and save again',
+        );
+      }
+      if (++ctx.kept.cells > ctx.limits.maxCells)
+        throw tooManyCells(ctx, cellAddress(r, col), ctx.limits.maxCells);
       place(cells, col, raw);
     }
     while (rows.length < r - 1) rows.push([]);
@@ -320,11 +327,7 @@ function fillMerges(xml: string, p: string, rows: (RawCell | null)[][], ctx: She
             { file: ctx.file, sheet: ctx.sheet },
           );
         }
-        place((rows[r - 1] ??= []), c, {
-          address: cellAddress(r, c),
-          ...shown,
-          mergedFrom: masterAddress,
-        });
+        place((rows[r - 1] ??= []), c, { ...shown, mergedFrom: masterAddress });
       }
     }
   }
@@ -376,6 +379,8 @@ export async function readXlsx(
   const base = {
     file: file.name,
     strings: stringsBytes ? sharedStrings(utf8.decode(stringsBytes)) : [],
+    stringCells: [],
+    kept: { cells: 0 },
     formats: stylesBytes ? styleFormats(utf8.decode(stylesBytes)) : [],
     date1904: pr?.date1904 === '1' || pr?.date1904 === 'true',
     limits,

@@ -62,7 +62,7 @@ function readEntries(name: string, bytes: Uint8Array, maxEntries: number): ZipEn
   if (count > maxEntries) {
     throw new ImportError(
       'uncompressed-too-large',
-      `"${name}" holds ${count} parts, more than the limit of ${maxEntries}; a trial workbook has a few dozen. Save a copy with only the trial sheets.`,
+      `"${name}" holds ${count.toLocaleString('en-US')} parts, more than the limit of ${maxEntries.toLocaleString('en-US')}; a trial workbook has a few dozen. Save a copy with only the trial sheets.`,
       { file: name },
     );
   }

@@ -13,7 +13,7 @@ import {
 import { crops } from '../units/crops';
 import { yieldFromKgHa } from '../units/convertYield';
 import { isMissingMarker, parseNumberText } from '../table/parseNumberText';
-import { describeRef, type QualityFinding } from '../table/qualityFinding';
+import { describeRef, quoteCellText, type QualityFinding } from '../table/qualityFinding';
 import { siteYearsOf } from '../table/siteYear';
 
 function isNumberText(text: string): boolean {
@@ -46,7 +46,7 @@ export function checkValues(
       finding(p, {
         code: 'not-a-number',
         severity: 'error',
-        message: `${describeRef(o.ref)} should hold the ${role === 'plotWeight' ? 'plot weight' : role} as a number but says "${t}"; the plot has no ${role} until the cell is corrected.`,
+        message: `${describeRef(o.ref)} should hold the ${role === 'plotWeight' ? 'plot weight' : role} as a number but says "${quoteCellText(t)}"; the plot has no ${role} until the cell is corrected.`,
         refs: [o.ref],
       });
     }
@@ -54,7 +54,7 @@ export function checkValues(
       finding(p, {
         code: 'missing-value',
         severity: 'info',
-        message: `${describeRef(p.original.yield.ref)}: plot ${p.plotLabel ?? ''} of ${nameOf(p)} has no yield${p.original.yield.text.trim() ? ` ("${p.original.yield.text.trim()}")` : ''}; it is left out of the fits.`,
+        message: `${describeRef(p.original.yield.ref)}: plot ${p.plotLabel ?? ''} of ${nameOf(p)} has no yield${p.original.yield.text.trim() ? ` ("${quoteCellText(p.original.yield.text)}")` : ''}; it is left out of the fits.`,
         refs: [p.original.yield.ref],
       });
     }

@@ -114,8 +114,13 @@ export function siteResponseChart(report: TrialReport, site: SiteReport): ChartS
     ...excluded.map((p) => u.yield(p.yieldKgHa!)),
     ...(best ? best.curve.yieldKgHa.map(u.yield) : []),
   ].filter(Number.isFinite);
-  const yLo = ys.length ? Math.min(...ys) : 0;
-  const yHi = ys.length ? Math.max(...ys) : 1;
+  // A loop, not Math.min(...ys): a site of 100,000 plots would overflow the stack as arguments.
+  let yLo = ys.length ? Infinity : 0;
+  let yHi = ys.length ? -Infinity : 1;
+  for (const y of ys) {
+    if (y < yLo) yLo = y;
+    if (y > yHi) yHi = y;
+  }
   const pad = 0.08 * Math.max(yHi - yLo, 1e-9);
   const pr = report.prices;
   return {

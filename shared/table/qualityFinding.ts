@@ -63,3 +63,20 @@ export interface QualityFinding {
 export function describeRef(ref: CellRef): string {
   return [ref.file, ref.sheet, ref.cell].filter((s) => s !== '').join(' › ');
 }
+
+/** Most characters of a cell's text a message quotes; the rest is cut with an ellipsis. */
+const QUOTED_TEXT_CHARS = 60;
+
+/**
+ * A cell's text the way a message quotes it: on one line (line breaks and tabs as spaces) and
+ * at most 60 characters, so a cell of notes, or of lines joined by a stray quote, cannot turn
+ * one message into a page.
+ * @param text - the cell's text
+ * @returns the text to put between quotes
+ * @example
+ * quoteCellText('12\n5') // '12 5'
+ */
+export function quoteCellText(text: string): string {
+  const flat = text.replace(/[\r\n\t]+/g, ' ').trim();
+  return flat.length > QUOTED_TEXT_CHARS ? `${flat.slice(0, QUOTED_TEXT_CHARS - 1)}…` : flat;
+}
