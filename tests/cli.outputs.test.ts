@@ -1,4 +1,4 @@
-// The command line's outputs (issue: outputs written all or nothing): every target is checked
+// The command line's outputs (written all or nothing): every target is checked
 // before any fit runs, a run writes all its outputs or none, an interrupted run leaves no
 // temporary file, and "--" lets a file name start with a dash. The real command line runs as a
 // child process in a temporary folder, on an invented trial from the seeded generator.
@@ -11,6 +11,7 @@ import {
   mkdirSync,
   mkdtempSync,
   readdirSync,
+  readFileSync,
   utimesSync,
   writeFileSync,
 } from 'node:fs';
@@ -145,4 +146,42 @@ describe('temporary files of a dead run', () => {
     expect(existsSync(mine)).toBe(true); // its process runs: a write may be going on
     expect(existsSync(recent)).toBe(true); // under a minute old: maybe another machine's
   });
+});
+
+describe('a run killed outright (SIGKILL, no handler runs)', () => {
+  it('leaves the previous report whole: the target is the old file or a complete new one', async () => {
+    const folder = mkdtempSync(path.join(tmpdir(), 'plotrate-kill-'));
+    writeFileSync(path.join(folder, 'trial.csv'), syntheticCsv({ sites: 8, seed: 5 }));
+    const previous = Buffer.from('{"the previous report": true}\n');
+    const target = path.join(folder, 'r.json');
+    writeFileSync(target, previous);
+    const outcomes: string[] = [];
+    // Kill at a few moments after writing starts, so at least one lands mid-write.
+    for (const delayMs of [0, 5, 20, 60]) {
+      const proc = spawn(
+        process.execPath,
+        [cli, 'analyze', 'trial.csv', '--boot', '20', '--out', 'r.xlsx', '--json', 'r.json'],
+        { cwd: folder, stdio: ['ignore', 'ignore', 'pipe'] },
+      );
+      let err = '';
+      const exit = new Promise<string | null>((resolve) =>
+        proc.on('exit', (_code, signal) => resolve(signal)),
+      );
+      proc.stderr.on('data', (d: Buffer) => {
+        err += d.toString();
+        if (err.includes('writing')) setTimeout(() => proc.kill('SIGKILL'), delayMs);
+      });
+      const signal = await exit;
+      const now = readFileSync(target);
+      if (now.equals(previous)) outcomes.push(`${signal}: previous kept`);
+      else {
+        // Renamed into place whole: the new results parse.
+        expect(() => JSON.parse(now.toString('utf8'))).not.toThrow();
+        outcomes.push(`${signal}: new report whole`);
+        writeFileSync(target, previous);
+      }
+    }
+    // At least one kill landed before the rename, or the test proved nothing.
+    expect(outcomes.some((o) => o === 'SIGKILL: previous kept')).toBe(true);
+  }, 120_000);
 });
