@@ -17,7 +17,6 @@
  * Tested against the in-memory writer cell by cell (tests/report.workbookStream.test.ts).
  */
 import { createRequire } from 'node:module';
-import { once } from 'node:events';
 import type { Writable } from 'node:stream';
 import type ExcelJS from 'exceljs';
 import { fillWorkbook, type WorkbookOptions } from '../shared/report/workbook';
@@ -106,9 +105,26 @@ class PictureSheetWriter extends WorksheetWriter {
 class PictureWorkbookWriter extends WorkbookWriter {
   drawingCount = 0;
   drawings: { name: string }[] = [];
+  /** Parts the zip has finished, each with whoever waits for it. */
+  private waiting = new Map<string, () => void>();
 
   constructor(options: Record<string, unknown>) {
     super(options);
+    this.zip.on('entry', (entry: { name: string }) => {
+      this.waiting.get(entry.name)?.();
+      this.waiting.delete(entry.name);
+    });
+  }
+
+  /**
+   * Resolves when the zip has deflated and written a sheet (archiver's 'entry' event; the zip
+   * itself waits for the file when the disk is slower). Building sheets never yields otherwise,
+   * so without this wait every sheet would sit in memory, unzipped, until the last.
+   */
+  sheetZipped(sheet: PictureSheetWriter): Promise<void> {
+    return new Promise((resolve) => {
+      this.waiting.set(`xl/worksheets/sheet${sheet.id}.xml`, resolve);
+    });
   }
 
   /** The media part's name as the in-memory writer names it (image1.png for the first). */
@@ -179,8 +195,7 @@ export async function streamWorkbook(
   });
   await fillWorkbook(wb as unknown as ExcelJS.Workbook, report, options, async (sheet) => {
     const s = sheet as unknown as PictureSheetWriter;
-    // Wait until the zip has taken the sheet, so sheets never pile up in memory.
-    const zipped = once(s.stream, 'zipped');
+    const zipped = wb.sheetZipped(s);
     s.commit();
     await zipped;
   });
