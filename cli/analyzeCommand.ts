@@ -11,6 +11,7 @@ import { accessSync, constants, realpathSync, statSync } from 'node:fs';
 import path from 'node:path';
 import { writeFilesAtomic, type PendingOutput } from '../electron/atomicWrite';
 import { readCappedFile } from '../electron/readCappedFile';
+import { collectGarbage } from './collectGarbage';
 import { OpenFileError } from '../electron/shellErrors';
 import { analysisSettings } from '../shared/analysis/analysisSettings';
 import { analyzeTrial } from '../shared/analysis/analyzeTrial';
@@ -35,6 +36,9 @@ import { displayUnits, type DisplayUnits } from '../shared/units/displayUnits';
 import { formatQuantity } from '../shared/units/formatQuantity';
 import type { AnalyzeArgs } from './parseArgs';
 import { UsageError } from './usageError';
+
+/** Sheets written between full collections while the workbook is streamed (about 200 MB of garbage). */
+const GARBAGE_EVERY_SHEETS = 200;
 
 /** Thrown when the analysis ran but produced nothing usable: exit code 1. */
 export class AnalysisFailed extends Error {
@@ -307,12 +311,23 @@ export async function analyzeCommand(
       target: path.resolve(args.out),
       stream: async (out) => {
         const { streamWorkbook } = await import('./streamedWorkbook');
-        await streamWorkbook(out, report, {
-          siteCharts: charts.sites,
-          acrossChart: charts.region,
-          // Fast deflate for big runs: most bytes are PNGs that do not shrink further.
-          zipLevel: report.sites.length > 100 ? 1 : undefined,
-        });
+        await streamWorkbook(
+          out,
+          report,
+          {
+            siteCharts: charts.sites,
+            acrossChart: charts.region,
+            // Fast deflate for big runs: most bytes are PNGs that do not shrink further.
+            zipLevel: report.sites.length > 100 ? 1 : undefined,
+          },
+          (sheets) => {
+            // Each site's sheet leaves about a megabyte of garbage, which V8 would let grow to
+            // gigabytes before collecting (see collectGarbage); the sheets after the sites are
+            // few and large, so each of them starts clean.
+            if (sheets % GARBAGE_EVERY_SHEETS === 0 || sheets > report.sites.length)
+              collectGarbage();
+          },
+        );
       },
     });
   }
@@ -350,9 +365,11 @@ export async function analyzeCommand(
     const given = new Map(
       [args.out, args.pdf, args.json].flatMap((p) => (p ? [[path.resolve(p), p] as const] : [])),
     );
-    await writeFilesAtomic(outputs, (target) =>
-      log.err(`plotrate: writing ${given.get(target) ?? target}`),
-    );
+    await writeFilesAtomic(outputs, (target) => {
+      // The analysis, or the output before, is garbage now: collect it before the next starts.
+      collectGarbage();
+      log.err(`plotrate: writing ${given.get(target) ?? target}`);
+    });
   } catch (e) {
     const err = e as NodeJS.ErrnoException;
     throw new OutputFailed(
@@ -434,8 +451,8 @@ async function analyzedReport(
   log.err(
     `plotrate: ${imported.table.plots.length} plots at ${where}; fitting seven models per site${args.boot ? ` with ${args.boot} bootstrap resamples` : ''}`,
   );
-  // Past the chart limit the outputs say so (overview, every grower page, results), and so does
-  // the progress.
+  // Past the chart limit the outputs with charts say so (the overview, every grower page), and
+  // so does the progress.
   const chartsNote = args.out || args.pdf ? siteChartsNote(siteCount, args.siteChartLimit) : null;
   if (chartsNote) log.err(`plotrate: ${chartsNote}`);
   const step = Math.max(1, Math.ceil(siteCount / 10));

@@ -178,6 +178,7 @@ class PictureWorkbookWriter extends WorkbookWriter {
  * @param out - where the .xlsx bytes go (the caller's temporary file); ended when done
  * @param report - the assembled analysis
  * @param options - chart pictures and deflate level (1–9; zlib's default when omitted)
+ * @param afterSheet - called with the number of sheets written after each one is in the zip
  * @returns when the last byte is handed to `out` and `out` has finished
  * @example
  * await streamWorkbook(createWriteStream('report.xlsx'), report, { zipLevel: 1 });
@@ -186,6 +187,7 @@ export async function streamWorkbook(
   out: Writable,
   report: TrialReport,
   options: WorkbookOptions = {},
+  afterSheet: (written: number) => void = () => undefined,
 ): Promise<void> {
   const wb = new PictureWorkbookWriter({
     stream: out,
@@ -193,11 +195,13 @@ export async function streamWorkbook(
     useSharedStrings: false,
     zip: options.zipLevel === undefined ? undefined : { zlib: { level: options.zipLevel } },
   });
+  let written = 0;
   await fillWorkbook(wb as unknown as ExcelJS.Workbook, report, options, async (sheet) => {
     const s = sheet as unknown as PictureSheetWriter;
     const zipped = wb.sheetZipped(s);
     s.commit();
     await zipped;
+    afterSheet(++written);
   });
   await wb.commit();
 }
