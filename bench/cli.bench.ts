@@ -3,7 +3,10 @@
 //   - `plotrate --help`, start-up alone (median of several runs);
 //   - `plotrate analyze` on a generated 1,000-site, 24,000-plot CSV (invented
 //     data from the seeded synthetic generator) writing the results JSON only;
-//   - the same writing the report workbook and the results JSON, with peak memory.
+//   - the same writing all three outputs (workbook, grower PDF, results JSON), on
+//     1,000 sites (a chart for every site) and 5,000 sites (past the default
+//     --site-charts limit of 1,000: the regional chart only), with peak memory.
+// PLOTRATE_BENCH_SITES and PLOTRATE_BENCH_LARGE_SITES change the two sizes.
 // Peak memory comes from GNU time (-v, "Maximum resident set size") when
 // /usr/bin/time exists, else from the child's own process.resourceUsage().
 import { spawnSync } from 'node:child_process';
@@ -11,6 +14,7 @@ import { existsSync, mkdtempSync, rmSync, statSync, writeFileSync } from 'node:f
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { SITE_CHART_LIMIT } from '../cli/parseArgs';
 import { buildCli } from '../scripts/buildCli.mjs';
 import { syntheticCsv } from '../shared/demo';
 
@@ -92,26 +96,38 @@ export async function run(): Promise<void> {
       `  wall time      ${json.wallS.toFixed(1)} s (whole process); ${(json.rssKb / 1024).toFixed(0)} MB peak`,
     );
 
-    const full = runCli([
-      'analyze',
-      csv,
-      '--out',
-      path.join(dir, 'report.xlsx'),
-      '--json',
-      path.join(dir, 'results.json'),
-      ...prices,
-    ]);
-    if (!full.ok) return failed('plotrate analyze --out --json', full);
-    const size = (f: string): string => `${(statSync(path.join(dir, f)).size / 1e6).toFixed(1)} MB`;
-    console.log(
-      `plotrate analyze, ${sites} sites × 24 plots, workbook + JSON written, default 200 bootstrap resamples`,
-    );
-    console.log(`  wall time      ${full.wallS.toFixed(1)} s (whole process, from spawn to exit)`);
-    console.log(
-      `  peak memory    ${(full.rssKb / 1024).toFixed(0)} MB (max resident set, ${gnuTime ? 'GNU time -v' : 'process.resourceUsage'})`,
-    );
-    console.log(`  report.xlsx    ${size('report.xlsx')}`);
-    console.log(`  results.json   ${size('results.json')}`);
+    for (const n of [sites, Number(process.env.PLOTRATE_BENCH_LARGE_SITES ?? 5000)]) {
+      const input = n === sites ? csv : path.join(dir, `trial-${n}.csv`);
+      if (n !== sites) writeFileSync(input, syntheticCsv({ sites: n, seed: 7 }));
+      const outs = ['report.xlsx', 'report.pdf', 'results.json'].map((f) => path.join(dir, f));
+      const full = runCli([
+        'analyze',
+        input,
+        '--out',
+        outs[0],
+        '--pdf',
+        outs[1],
+        '--json',
+        outs[2],
+        ...prices,
+      ]);
+      if (!full.ok) return failed(`plotrate analyze ${n} sites --out --pdf --json`, full);
+      const size = (f: string): string => `${(statSync(f).size / 1e6).toFixed(1)} MB`;
+      const charts =
+        n <= SITE_CHART_LIMIT ? 'a chart per site' : 'regional chart only (past --site-charts)';
+      console.log(
+        `plotrate analyze, ${n} sites × 24 plots, workbook + PDF + JSON written (${charts}), 200 bootstrap resamples`,
+      );
+      console.log(
+        `  wall time      ${full.wallS.toFixed(1)} s (whole process, from spawn to exit)`,
+      );
+      console.log(
+        `  peak memory    ${(full.rssKb / 1024).toFixed(0)} MB (max resident set, ${gnuTime ? 'GNU time -v' : 'process.resourceUsage'})`,
+      );
+      console.log(
+        `  sizes          ${outs.map((f) => `${path.basename(f)} ${size(f)}`).join(', ')}`,
+      );
+    }
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }

@@ -13,6 +13,7 @@ import { accessSync, constants, realpathSync, statSync } from 'node:fs';
 import path from 'node:path';
 import { writeFilesAtomic, type PendingOutput } from '../electron/atomicWrite';
 import { readCappedFile } from '../electron/readCappedFile';
+import { collectGarbage } from './collectGarbage';
 import { OpenFileError } from '../electron/shellErrors';
 import { analysisSettings } from '../shared/analysis/analysisSettings';
 import { analyzeTrial } from '../shared/analysis/analyzeTrial';
@@ -37,6 +38,9 @@ import { displayUnits, type DisplayUnits } from '../shared/units/displayUnits';
 import { formatQuantity } from '../shared/units/formatQuantity';
 import type { AnalyzeArgs } from './parseArgs';
 import { UsageError } from './usageError';
+
+/** Sheets written between full collections while the workbook is streamed (about 200 MB of garbage). */
+const GARBAGE_EVERY_SHEETS = 200;
 
 /** Thrown when the analysis ran but produced nothing usable: exit code 1. */
 export class AnalysisFailed extends Error {
@@ -199,12 +203,14 @@ function pricesFrom(args: AnalyzeArgs, units: DisplayUnits, crop: CropId): Price
   };
 }
 
-/** The report's charts as PNG, by site, and the regional one. */
+/** The report's charts as PNG, by site (none past the limit), and the regional one. */
 async function drawCharts(
   report: TrialReport,
+  siteChartLimit: number,
   log: Console2,
 ): Promise<{ sites: Record<string, SheetImage>; region: SheetImage | null }> {
-  const specs = report.sites.map((s) => siteResponseChart(report, s));
+  const drawn = report.sites.length <= siteChartLimit ? report.sites : [];
+  const specs = drawn.map((s) => siteResponseChart(report, s));
   const rs = regionalReturnChart(report);
   if (rs) specs.push(rs);
   // Print sharpness (2×) for a report someone reads page by page; 1× past 100 sites keeps a big run small.
@@ -219,7 +225,7 @@ async function drawCharts(
     }
   });
   const sites: Record<string, SheetImage> = {};
-  report.sites.forEach((s, i) => {
+  drawn.forEach((s, i) => {
     sites[s.site] = { png: pngs[i], widthPx: specs[i].widthPx, heightPx: specs[i].heightPx };
   });
   return {
@@ -288,9 +294,127 @@ export async function analyzeCommand(
   args: AnalyzeArgs,
   log: Console2,
   version: string,
-  extra: { sheets?: string[]; createdAt?: string; warnings?: string[] } = {},
+  extra: AnalyzeExtra = {},
 ): Promise<TrialReport> {
   checkOutputs(args);
+  // The analysis (plot table, fits, bootstrap draws) is let go once the report is made: only the
+  // report is needed for the outputs, and a run of thousands of sites needs that memory back.
+  const report = await analyzedReport(args, log, version, extra);
+  const charts =
+    args.out || args.pdf
+      ? await drawCharts(report, args.siteChartLimit, log)
+      : { sites: {}, region: null };
+  // Every output goes to a temporary file first and all are renamed together at the end, so a
+  // run leaves all of them or none (a failure, or SIGINT/SIGTERM, removes the temporaries). The
+  // workbook and the PDF are streamed into theirs, a sheet or a page at a time.
+  const outputs: PendingOutput[] = [];
+  if (args.out) {
+    outputs.push({
+      target: path.resolve(args.out),
+      stream: async (out) => {
+        const { streamWorkbook } = await import('./streamedWorkbook');
+        await streamWorkbook(
+          out,
+          report,
+          {
+            siteCharts: charts.sites,
+            acrossChart: charts.region,
+            // Fast deflate for big runs: most bytes are PNGs that do not shrink further.
+            zipLevel: report.sites.length > 100 ? 1 : undefined,
+          },
+          (sheets) => {
+            // Each site's sheet leaves about a megabyte of garbage, which V8 would let grow to
+            // gigabytes before collecting (see collectGarbage); the sheets after the sites are
+            // few and large, so each of them starts clean.
+            if (sheets % GARBAGE_EVERY_SHEETS === 0 || sheets > report.sites.length)
+              collectGarbage();
+          },
+        );
+      },
+    });
+  }
+  if (args.pdf) {
+    outputs.push({
+      target: path.resolve(args.pdf),
+      stream: async (out) => {
+        const pageCharts: Record<string, { png: Uint8Array; aspect: number }> = {};
+        for (const [site, c] of Object.entries(charts.sites))
+          pageCharts[site] = { png: c.png, aspect: c.heightPx / c.widthPx };
+        if (charts.region && report.acrossSites) {
+          pageCharts[`Region (${report.acrossSites.sites.length} sites)`] = {
+            png: charts.region.png,
+            aspect: charts.region.heightPx / charts.region.widthPx,
+          };
+        }
+        const { streamGrowerPdf } = await import('./growerPdf');
+        const { reportGrowerPages } = await import('../shared/report/reportGrowerPages');
+        await streamGrowerPdf(
+          out,
+          reportGrowerPages(report),
+          pageCharts,
+          new Date(report.createdAt),
+        );
+      },
+    });
+  }
+  if (args.json) {
+    outputs.push({
+      target: path.resolve(args.json),
+      make: async () => `${JSON.stringify(resultsJson(report), null, 2)}\n`,
+    });
+  }
+  try {
+    const given = new Map(
+      [args.out, args.pdf, args.json].flatMap((p) => (p ? [[path.resolve(p), p] as const] : [])),
+    );
+    await writeFilesAtomic(outputs, (target) => {
+      // The analysis, or the output before, is garbage now: collect it before the next starts.
+      collectGarbage();
+      log.err(`plotrate: writing ${given.get(target) ?? target}`);
+    });
+  } catch (e) {
+    const err = e as NodeJS.ErrnoException;
+    throw new OutputFailed(
+      `could not write the outputs (${err.code ?? 'error'}: ${err.message}); none was written.`,
+    );
+  }
+  for (const line of summary(report)) log.out(line);
+  return report;
+}
+
+/** What the demo command adds to a run: sheets to import, a fixed time stamp, run notes. */
+export interface AnalyzeExtra {
+  sheets?: string[];
+  createdAt?: string;
+  warnings?: string[];
+}
+
+/**
+ * A sentence for every output when the run has more sites than get a chart each.
+ * @param sites - the run's site count
+ * @param limit - the most sites that get a chart each (`--site-charts`)
+ * @returns the note, or null when every site gets its chart
+ * @example
+ * siteChartsNote(5000, 1000) // 'Site charts are left out: 5,000 sites is more than …'
+ */
+export function siteChartsNote(sites: number, limit: number): string | null {
+  if (sites <= limit) return null;
+  const n = (x: number) => x.toLocaleString('en-US');
+  return limit === 0
+    ? 'Site charts are left out (--site-charts 0); the tables hold every number a chart would show.'
+    : `Site charts are left out: ${n(sites)} sites is more than the ${n(limit)} a run draws a chart for (--site-charts); the tables hold every number a chart would show.`;
+}
+
+/**
+ * Reads, analyzes and prices the trial and assembles its report; the analysis behind it is
+ * released when this returns.
+ */
+async function analyzedReport(
+  args: AnalyzeArgs,
+  log: Console2,
+  version: string,
+  extra: AnalyzeExtra,
+): Promise<TrialReport> {
   const files = await readInputs(args.files);
   log.err(`plotrate: reading ${files.map((f) => f.name).join(', ')}`);
   const imported = await importFiles(files, {
@@ -340,6 +464,10 @@ export async function analyzeCommand(
   // Which crop, and why: its bushel weight and moisture enter every yield.
   const cropNote = imported.findings.find((f) => f.code === 'crop-from-files');
   if (cropNote) log.err(`plotrate: ${cropNote.message}`);
+  // Past the chart limit the outputs with charts say so (the overview, every grower page), and
+  // so does the progress.
+  const chartsNote = args.out || args.pdf ? siteChartsNote(siteCount, args.siteChartLimit) : null;
+  if (chartsNote) log.err(`plotrate: ${chartsNote}`);
   const step = Math.max(1, Math.ceil(siteCount / 10));
   const analysis = analyzeTrial(imported.table, settings, (done, total) => {
     if (total >= 20 && (done % step === 0 || done === total))
@@ -364,7 +492,7 @@ export async function analyzeCommand(
     tool: { name: 'Plotrate', version },
     createdAt: extra.createdAt ?? new Date().toISOString().replace(/\.\d+Z$/, 'Z'),
     mapping: imported.mapping,
-    warnings: extra.warnings,
+    warnings: chartsNote ? [...(extra.warnings ?? []), chartsNote] : extra.warnings,
     findings: imported.findings,
   });
   // Nothing fitted where the input holds errors (impossible rates or yields, text in number
@@ -392,62 +520,5 @@ export async function analyzeCommand(
       `No site could be fitted: ${report.sites[0]?.warnings[0] ?? 'no plots with both a rate and a yield'}`,
     );
   }
-  const charts = args.out || args.pdf ? await drawCharts(report, log) : null;
-  // Every output goes to a temporary file first and all are renamed together at the end, so a
-  // run leaves all of them or none (a failure, or SIGINT/SIGTERM, removes the temporaries).
-  const outputs: PendingOutput[] = [];
-  if (args.out && charts) {
-    outputs.push({
-      target: path.resolve(args.out),
-      make: async () => {
-        const { writeWorkbook } = await import('../shared/report/workbook');
-        return writeWorkbook(report, {
-          siteCharts: charts.sites,
-          acrossChart: charts.region,
-          // Fast deflate for big runs: most bytes are PNGs that do not shrink further.
-          zipLevel: report.sites.length > 100 ? 1 : undefined,
-        });
-      },
-    });
-  }
-  if (args.pdf && charts) {
-    outputs.push({
-      target: path.resolve(args.pdf),
-      make: async () => {
-        const pageCharts: Record<string, { png: Uint8Array; aspect: number }> = {};
-        for (const [site, c] of Object.entries(charts.sites))
-          pageCharts[site] = { png: c.png, aspect: c.heightPx / c.widthPx };
-        if (charts.region && report.acrossSites) {
-          pageCharts[`Region (${report.acrossSites.sites.length} sites)`] = {
-            png: charts.region.png,
-            aspect: charts.region.heightPx / charts.region.widthPx,
-          };
-        }
-        const { growerPdf } = await import('./growerPdf');
-        const { reportGrowerPages } = await import('../shared/report/reportGrowerPages');
-        return growerPdf(reportGrowerPages(report), pageCharts, new Date(report.createdAt));
-      },
-    });
-  }
-  if (args.json) {
-    outputs.push({
-      target: path.resolve(args.json),
-      make: async () => `${JSON.stringify(resultsJson(report), null, 2)}\n`,
-    });
-  }
-  try {
-    const given = new Map(
-      [args.out, args.pdf, args.json].flatMap((p) => (p ? [[path.resolve(p), p] as const] : [])),
-    );
-    await writeFilesAtomic(outputs, (target) =>
-      log.err(`plotrate: writing ${given.get(target) ?? target}`),
-    );
-  } catch (e) {
-    const err = e as NodeJS.ErrnoException;
-    throw new OutputFailed(
-      `could not write the outputs (${err.code ?? 'error'}: ${err.message}); none was written.`,
-    );
-  }
-  for (const line of summary(report)) log.out(line);
   return report;
 }

@@ -2,6 +2,7 @@
  * The text of `plotrate --help`, with the same cautions the reports carry.
  */
 import { recommendationCautions } from '../shared/economics/recommendationCautions';
+import { SITE_CHART_LIMIT } from './parseArgs';
 
 /**
  * The help screen.
@@ -46,6 +47,9 @@ Options for analyze
                          rate may return less than the best before the risk
                          tables count it as falling short (default: the cost
                          of 10 kg N/ha at the prices)
+  --site-charts N        draw each site's chart (workbook and PDF) when the run
+                         has at most N sites (default ${SITE_CHART_LIMIT}; 0 for none); past
+                         that the outputs say the site charts were left out
   --map role=Header ...  say which column holds what, e.g. --map yield=Grain
                          rate="N applied"; roles: site, year, block, plot,
                          treatment, rate, yield, moisture, exclude, notes,

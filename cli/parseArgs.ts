@@ -41,7 +41,18 @@ export interface AnalyzeArgs {
    * null: the default, the cost of 10 kg N/ha at the prices.
    */
   shortfallTolerance: number | null;
+  /**
+   * Most sites a run draws a chart for, per site, in the workbook and the PDF (the regional chart
+   * is always drawn); past it the outputs say that the site charts were left out.
+   */
+  siteChartLimit: number;
 }
+
+/**
+ * Default of `--site-charts`: the most sites a run draws a chart for. Drawing is most of the
+ * time of a big run with --out or --pdf, and the charts most of its memory (README, Benchmarks).
+ */
+export const SITE_CHART_LIMIT = 1000;
 
 /**
  * The analyze command's settings before any option is read: no outputs, corn,
@@ -72,6 +83,7 @@ export function analyzeDefaults(files: string[] = []): AnalyzeArgs {
     map: [],
     columnUnits: [],
     shortfallTolerance: null,
+    siteChartLimit: SITE_CHART_LIMIT,
   };
 }
 
@@ -197,6 +209,14 @@ export function parseArgs(argv: readonly string[]): Command {
         break;
       case '--shortfall-tolerance':
         a.shortfallTolerance = number(w, rest[++i], (v) => v >= 0, 'an amount of 0 or more');
+        break;
+      case '--site-charts':
+        a.siteChartLimit = number(
+          w,
+          rest[++i],
+          (v) => Number.isInteger(v) && v >= 0,
+          'the most sites to draw a chart for, a whole number (0 for none)',
+        );
         break;
       case '--blocks': {
         const v = rest[++i];

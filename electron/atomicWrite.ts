@@ -18,8 +18,10 @@
  */
 import { randomBytes } from 'node:crypto';
 import { unlinkSync } from 'node:fs';
-import { open, readdir, rename, stat, unlink } from 'node:fs/promises';
+import { open, readdir, rename, stat, unlink, type FileHandle } from 'node:fs/promises';
 import path from 'node:path';
+import { Writable } from 'node:stream';
+import { finished } from 'node:stream/promises';
 
 /** Bytes written per call, so a large project does not need one giant buffer copy. */
 const CHUNK_BYTES = 1 << 20;
@@ -84,22 +86,20 @@ async function discardTemporary(temporary: string): Promise<void> {
   await unlink(temporary).catch(() => undefined);
 }
 
-/** Writes data to a new temporary file beside target (O_EXCL) and fsyncs it; returns its name. */
-async function writeTemporary(target: string, data: Uint8Array | string): Promise<string> {
-  const bytes = typeof data === 'string' ? Buffer.from(data, 'utf8') : data;
+/**
+ * Creates a new temporary file beside target (O_EXCL), lets `fill` write into it, fsyncs it and
+ * returns its name; on any failure the file is removed.
+ */
+async function writeTemporaryWith(
+  target: string,
+  fill: (handle: FileHandle) => Promise<void>,
+): Promise<string> {
   const temporary = temporaryNameFor(target);
   // 'wx' is O_CREAT | O_EXCL: never follows a symbolic link planted at the temporary name.
   const handle = await open(temporary, 'wx', 0o644);
   live.add(temporary);
   try {
-    for (let at = 0; at < bytes.length; at += CHUNK_BYTES) {
-      const end = Math.min(at + CHUNK_BYTES, bytes.length);
-      let done = at;
-      while (done < end) {
-        const { bytesWritten } = await handle.write(bytes, done, end - done, done);
-        done += bytesWritten;
-      }
-    }
+    await fill(handle);
     await handle.sync();
     await handle.close();
   } catch (e) {
@@ -110,15 +110,76 @@ async function writeTemporary(target: string, data: Uint8Array | string): Promis
   return temporary;
 }
 
-/** One output of a run: where it goes and a function that makes its bytes when its turn comes. */
-export interface PendingOutput {
-  target: string;
-  make: () => Promise<Uint8Array | string>;
+/** Writes data to a new temporary file beside target (O_EXCL) and fsyncs it; returns its name. */
+async function writeTemporary(target: string, data: Uint8Array | string): Promise<string> {
+  const bytes = typeof data === 'string' ? Buffer.from(data, 'utf8') : data;
+  return writeTemporaryWith(target, async (handle) => {
+    for (let at = 0; at < bytes.length; at += CHUNK_BYTES) {
+      const end = Math.min(at + CHUNK_BYTES, bytes.length);
+      let done = at;
+      while (done < end) {
+        const { bytesWritten } = await handle.write(bytes, done, end - done, done);
+        done += bytesWritten;
+      }
+    }
+  });
 }
 
 /**
- * Writes every output of a run or none: each is made and written to its own temporary file in
- * turn (so only one output's bytes are held at a time), and only when all are on disk are they
+ * Streams an output into a new temporary file beside target (O_EXCL) and fsyncs it; returns its
+ * name. The writer ends the stream (a pipe does); its bytes are on disk when this resolves.
+ */
+async function streamTemporary(
+  target: string,
+  write: (out: Writable) => Promise<void>,
+): Promise<string> {
+  return writeTemporaryWith(target, async (handle) => {
+    const out = fileSink(handle);
+    try {
+      await write(out);
+      await finished(out);
+    } catch (e) {
+      out.destroy();
+      throw e;
+    }
+  });
+}
+
+/**
+ * A stream that writes into an open file and leaves it open (to be synced and closed by its
+ * owner). Node's own `handle.createWriteStream({ autoClose: false })` keeps the handle in use,
+ * so closing the handle afterwards never finishes.
+ */
+function fileSink(handle: FileHandle): Writable {
+  let position = 0;
+  return new Writable({
+    highWaterMark: CHUNK_BYTES,
+    write(chunk: Buffer, _encoding, done) {
+      const all = async (): Promise<void> => {
+        for (let at = 0; at < chunk.length;) {
+          const { bytesWritten } = await handle.write(chunk, at, chunk.length - at, position);
+          at += bytesWritten;
+          position += bytesWritten;
+        }
+      };
+      all().then(() => done(), done);
+    },
+  });
+}
+
+/**
+ * One output of a run: where it goes and either a function that makes its bytes when its turn
+ * comes (`make`) or one that writes them into a stream (`stream`: the temporary file, so a big
+ * output is never held whole; the function ends the stream, as a pipe does, and resolves when
+ * it has written everything).
+ */
+export type PendingOutput =
+  | { target: string; make: () => Promise<Uint8Array | string> }
+  | { target: string; stream: (out: Writable) => Promise<void> };
+
+/**
+ * Writes every output of a run or none: each is made (or streamed) and written to its own
+ * temporary file in turn (so at most one output's bytes are held at a time), and only when all are on disk are they
  * renamed over their targets; a failure on the way removes every temporary file and leaves
  * every target as it was. (The renames themselves are one system call each and are not one
  * transaction: a failure between two renames, which needs the disk to vanish mid-run, leaves
@@ -137,7 +198,11 @@ export async function writeFilesAtomic(
   try {
     for (const o of outputs) {
       onWrite(o.target);
-      written.push({ temporary: await writeTemporary(o.target, await o.make()), target: o.target });
+      const temporary =
+        'stream' in o
+          ? await streamTemporary(o.target, o.stream)
+          : await writeTemporary(o.target, await o.make());
+      written.push({ temporary, target: o.target });
     }
   } catch (e) {
     for (const w of written) await discardTemporary(w.temporary);

@@ -4,23 +4,27 @@
 // child process in a temporary folder, on an invented trial from the seeded generator.
 // "Before any fit" is read from the progress lines: the command prints "fitting seven models"
 // before it fits, so a refusal without that line came first.
-import { spawn } from 'node:child_process';
+import { execFileSync, spawn } from 'node:child_process';
+import { once } from 'node:events';
 import {
   existsSync,
   linkSync,
   mkdirSync,
   mkdtempSync,
-  readdirSync,
   readFileSync,
+  readdirSync,
   utimesSync,
   writeFileSync,
 } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
+import { unzipSync } from 'fflate';
 import { beforeAll, describe, expect, it } from 'vitest';
+import * as XLSX from 'xlsx';
 import { cliPath as cli, runCli } from './support/runCli';
 import { syntheticCsv } from '../shared/demo';
 import { removeStaleTemporaries, writeFilesAtomic } from '../electron/atomicWrite';
+import { collectGarbage } from '../cli/collectGarbage';
 
 const dir = mkdtempSync(path.join(tmpdir(), 'plotrate-outputs-'));
 
@@ -83,6 +87,53 @@ describe('plotrate analyze: all outputs or none', () => {
     expect(temporaries(folder)).toEqual([]);
   });
 
+  it('streams an output into its temporary file, in order, and renames it with the rest', async () => {
+    const folder = mkdtempSync(path.join(tmpdir(), 'plotrate-stream-'));
+    const streamed = path.join(folder, 'big.txt');
+    const made = path.join(folder, 'small.json');
+    // 3 MiB in 1,000-byte lines: more than the writer's 1 MiB chunk, so order and splits show.
+    const lines = Array.from(
+      { length: 3 * 1024 + 7 },
+      (_, i) => `${String(i).padStart(999, '.')}\n`,
+    );
+    const seen: string[] = [];
+    await writeFilesAtomic(
+      [
+        {
+          target: streamed,
+          stream: async (out) => {
+            for (const l of lines) if (!out.write(l)) await once(out, 'drain');
+            out.end();
+          },
+        },
+        { target: made, make: async () => '{}\n' },
+      ],
+      (t) => seen.push(path.basename(t)),
+    );
+    expect(seen).toEqual(['big.txt', 'small.json']);
+    expect(readFileSync(streamed, 'utf8')).toBe(lines.join(''));
+    expect(readFileSync(made, 'utf8')).toBe('{}\n');
+    expect(temporaries(folder)).toEqual([]);
+  });
+
+  it('leaves no output and no temporary file when a streamed output fails half-way', async () => {
+    const folder = mkdtempSync(path.join(tmpdir(), 'plotrate-stream-fail-'));
+    const first = path.join(folder, 'first.json');
+    await expect(
+      writeFilesAtomic([
+        { target: first, make: async () => '{"a": 1}\n' },
+        {
+          target: path.join(folder, 'second.pdf'),
+          stream: async (out) => {
+            out.write('%PDF-1.3\n');
+            throw new Error('drawing failed');
+          },
+        },
+      ]),
+    ).rejects.toThrow('drawing failed');
+    expect(readdirSync(folder)).toEqual([]);
+  });
+
   it('leaves no temporary file and no output when stopped by SIGTERM while writing', async () => {
     const folder = mkdtempSync(path.join(tmpdir(), 'plotrate-term-'));
     writeFileSync(path.join(folder, 'trial.csv'), syntheticCsv({ sites: 6, seed: 7 }));
@@ -116,6 +167,55 @@ describe('plotrate analyze: all outputs or none', () => {
     expect(temporaries(folder)).toEqual([]);
     expect(existsSync(path.join(folder, 'r.xlsx'))).toBe(false);
     expect(existsSync(path.join(folder, 'r.json'))).toBe(false);
+  });
+});
+
+describe('plotrate analyze: site charts past --site-charts', () => {
+  it('leaves them out and says so on stderr, in the overview and on every grower page', async () => {
+    const r = run([
+      'analyze',
+      'trial.csv',
+      '--boot',
+      '20',
+      '--site-charts',
+      '1',
+      '--out',
+      'few.xlsx',
+      '--pdf',
+      'few.pdf',
+    ]);
+    expect(r.code).toBe(0);
+    const note = /Site charts are left out: 2 sites is more than the 1 a run draws a chart for/;
+    expect(r.err).toMatch(note);
+    // Read back by SheetJS (an independent reader): the note heads the overview, and the only
+    // picture left is the regional one, on the across-sites sheet.
+    const bytes = readFileSync(path.join(dir, 'few.xlsx'));
+    const wb = XLSX.read(bytes);
+    const overview = XLSX.utils.sheet_to_csv(wb.Sheets.Overview);
+    expect(overview).toMatch(note);
+    const media = Object.keys(unzipSync(new Uint8Array(bytes))).filter((n) =>
+      n.startsWith('xl/media/'),
+    );
+    expect(media).toHaveLength(1);
+    // The PDF's pages as text (poppler's pdftotext, Debian poppler-utils): every page says it.
+    const pages = execFileSync('pdftotext', ['-layout', path.join(dir, 'few.pdf'), '-'], {
+      encoding: 'utf8',
+    })
+      .split('\f')
+      .filter((p) => p.trim());
+    expect(pages.length).toBeGreaterThanOrEqual(2);
+    for (const p of pages) expect(p.replace(/\s+/g, ' ')).toMatch(/Site charts are left out/);
+  });
+});
+
+describe('collectGarbage (between outputs and every 200 sheets)', () => {
+  it('frees an object nothing refers to any more, without --expose-gc', async () => {
+    // 8 MB in V8's large-object space: only a full collection frees it.
+    const ref = new WeakRef(new Array<number>(1_000_000).fill(1));
+    // A WeakRef keeps its target to the end of the current job (ECMA-262, AddToKeptObjects).
+    await new Promise((resolve) => setImmediate(resolve));
+    collectGarbage();
+    expect(ref.deref()).toBeUndefined();
   });
 });
 

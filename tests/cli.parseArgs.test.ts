@@ -33,6 +33,8 @@ describe('parseArgs', () => {
       'fixed',
       '--shortfall-tolerance',
       '7.5',
+      '--site-charts',
+      '40',
       '--map',
       'yield=Grain (t/ha)',
       'block=Rep',
@@ -60,6 +62,7 @@ describe('parseArgs', () => {
       ],
       columnUnits: [{ role: 'plotArea', unit: 'ft2' }],
       shortfallTolerance: 7.5,
+      siteChartLimit: 40,
     });
   });
 
@@ -82,6 +85,7 @@ describe('parseArgs', () => {
       blocks: 'fixed',
       out: null,
       shortfallTolerance: null,
+      siteChartLimit: 1000,
     });
   });
 
@@ -98,6 +102,10 @@ describe('parseArgs', () => {
       /--shortfall-tolerance -3: an amount of 0 or more/,
     ],
     [['analyze', 'a.csv', '--map', 'yield'], /write role=Header/],
+    [
+      ['analyze', 'a.csv', '--site-charts', '2.5'],
+      /--site-charts 2.5: the most sites .*0 for none/,
+    ],
     [
       ['analyze', 'a.csv', '--product', 'water', '--product-price', '1'],
       /--product water: use one of urea/,

@@ -32,18 +32,29 @@ export interface WorkbookOptions {
 export { reportGrowerPages };
 
 /**
- * Writes the report workbook.
+ * Called with each finished sheet, in order. exceljs's streaming writer commits the sheet
+ * here (its rows leave memory); the in-memory workbook needs nothing.
+ */
+export type SheetFinished = (sheet: ExcelJS.Worksheet) => Promise<void> | void;
+
+/**
+ * Fills a workbook with the report's sheets, one at a time: the in-memory `ExcelJS.Workbook`
+ * (the workspace) or exceljs's streaming writer, which the command line supplies with its file
+ * (no file system here). Each sheet is complete (widths, views, print setup, picture) before
+ * `finished` is called with it, so a streaming writer may write it out and forget it.
+ * @param wb - the workbook to fill (a streaming `WorkbookWriter` has the same calls)
  * @param report - the assembled analysis (canonical units inside)
  * @param options - chart pictures to embed
- * @returns .xlsx bytes
+ * @param finished - called with each sheet once it is complete
  * @example
- * const bytes = await writeWorkbook(report, { siteCharts });
+ * await fillWorkbook(new ExcelJS.Workbook(), report, { siteCharts });
  */
-export async function writeWorkbook(
+export async function fillWorkbook(
+  wb: ExcelJS.Workbook,
   report: TrialReport,
-  options: WorkbookOptions = {},
-): Promise<Uint8Array> {
-  const wb = new ExcelJS.Workbook();
+  options: Omit<WorkbookOptions, 'zipLevel'> = {},
+  finished: SheetFinished = () => undefined,
+): Promise<void> {
   wb.creator = `${report.tool.name} ${report.tool.version}`;
   // A fixed time from the report (not "now") keeps the file the same for the same analysis.
   const when = new Date(report.createdAt);
@@ -60,24 +71,34 @@ export async function writeWorkbook(
     'recommendations',
     'provenance',
   ]);
-  workbookOverview(wb, report, u, paper);
+  await finished(workbookOverview(wb, report, u, paper));
   for (const s of report.sites) {
-    workbookSite(
-      wb,
-      sheetName(s.site, taken),
-      s,
-      report,
-      u,
-      paper,
-      options.siteCharts?.[s.site] ?? null,
-    );
+    const chart = options.siteCharts?.[s.site] ?? null;
+    await finished(workbookSite(wb, sheetName(s.site, taken), s, report, u, paper, chart));
   }
-  workbookAcrossSites(wb, report, u, paper, options.acrossChart ?? null);
-  workbookRegionalModel(wb, report, u, paper);
-  workbookEconomics(wb, report, paper);
-  workbookSensitivity(wb, report, u, paper);
-  workbookGrowerSheet(wb, reportGrowerPages(report), paper);
-  workbookProvenance(wb, report, paper);
+  await finished(workbookAcrossSites(wb, report, u, paper, options.acrossChart ?? null));
+  await finished(workbookRegionalModel(wb, report, u, paper));
+  await finished(workbookEconomics(wb, report, paper));
+  await finished(workbookSensitivity(wb, report, u, paper));
+  await finished(workbookGrowerSheet(wb, reportGrowerPages(report), paper));
+  await finished(workbookProvenance(wb, report, paper));
+}
+
+/**
+ * Writes the report workbook in memory (the workspace's path; the command line streams it
+ * with {@link fillWorkbook}).
+ * @param report - the assembled analysis (canonical units inside)
+ * @param options - chart pictures to embed
+ * @returns .xlsx bytes
+ * @example
+ * const bytes = await writeWorkbook(report, { siteCharts });
+ */
+export async function writeWorkbook(
+  report: TrialReport,
+  options: WorkbookOptions = {},
+): Promise<Uint8Array> {
+  const wb = new ExcelJS.Workbook();
+  await fillWorkbook(wb, report, options);
   const buf = await wb.xlsx.writeBuffer(
     // Level 1: the bulk is chart PNGs, already compressed, so harder deflating only costs time.
     options.zipLevel === undefined
