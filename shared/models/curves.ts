@@ -64,6 +64,17 @@ export function modelLabel(model: ModelName): string {
 }
 
 /**
+ * The name of the model a site's recommendation follows, as legends and tables mark it: the
+ * screen's "Leads" column, the charts and the workbook say the same word.
+ * @param model - the model name
+ * @returns e.g. "Quadratic-plateau (leading)"
+ * @example leadingModelLabel('quadratic') // 'Quadratic (leading)'
+ */
+export function leadingModelLabel(model: ModelName): string {
+  return `${modelLabel(model)} (leading)`;
+}
+
+/**
  * A model's display name in running text, after "the".
  * @param model - the model name
  * @returns the name in lower case

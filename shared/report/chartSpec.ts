@@ -59,7 +59,7 @@ export interface PointLayer {
 /** A fitted curve sampled densely enough to draw as a polyline. */
 export interface CurveLayer {
   kind: 'curve';
-  /** Legend text, e.g. "Quadratic-plateau (chosen)". */
+  /** Legend text, e.g. "Quadratic-plateau (leading)". */
   name: string;
   /** The model this curve comes from; null for a curve that is not a model fit. */
   model: ChartModelName | null;

@@ -4,6 +4,7 @@
  * bootstrap interval as a band, and the chosen model's residuals below.
  * Built in display units, for the SVG/PNG reports and the screen alike.
  */
+import { leadingModelLabel } from '../models/curves';
 import type { ChartLayer, ChartSpec, PointLayer } from './chartSpec';
 import type { SiteReport, TrialReport } from './trialReport';
 import { unitScale } from './unitScale';
@@ -66,7 +67,7 @@ export function siteResponseChart(report: TrialReport, site: SiteReport): ChartS
   if (best) {
     layers.push({
       kind: 'curve',
-      name: `${best.label} (chosen)`,
+      name: leadingModelLabel(best.model),
       model: best.model,
       role: 'chosen',
       x: best.curve.rateKgHa.map(u.rate),

@@ -5,6 +5,7 @@
  * column A so the sheet prints top to bottom; the chart sits to the right of
  * the plot data.
  */
+import { leadingModelLabel } from '../models/curves';
 import { intervalBasisText, intervalSharesText } from './intervalShares';
 import { joinProfileNote, PROFILE_OPEN_ENDS_LEGEND, profileIntervalText } from './modelNotes';
 import type ExcelJS from 'exceljs';
@@ -204,7 +205,7 @@ export function workbookSite(
       })
       .join('; ');
     row.values = [
-      m.label + (m.model === site.bestModel ? ' (chosen)' : ''),
+      m.model === site.bestModel ? leadingModelLabel(m.model) : m.label,
       m.status,
       params,
       m.sse * f2,

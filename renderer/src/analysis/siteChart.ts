@@ -4,7 +4,7 @@
  * conversion and layering happen here; every number comes from shared/.
  */
 import type { EconomicOptimum } from '../../../shared/economics/economicOptimum';
-import { modelLabel } from '../../../shared/models/curves';
+import { leadingModelLabel, modelLabel } from '../../../shared/models/curves';
 import type { ModelName } from '../../../shared/models/modelTypes';
 import type { ChartLayer, ChartSpec, PointLayer } from '../../../shared/report/chartSpec';
 import type { RegionalReturn } from '../../../shared/analysis/regionalReturn';
@@ -97,7 +97,7 @@ export function siteChartSpec(
   if (leading && lead) {
     response.push({
       kind: 'curve',
-      name: `${modelLabel(leading)} (leading)`,
+      name: leadingModelLabel(leading),
       model: leading,
       role: 'chosen',
       x: Array.from(lead.curve.rateKgHa, r),
