@@ -111,6 +111,19 @@ describe('the workspace in chromium', () => {
     // Moisture column set aside: yields are no longer brought to standard moisture.
     await page.getByTestId('role-Plots-G').selectOption('ignore');
     await expect.poll(() => syntheticYield.textContent()).not.toBe(adjusted);
+    // The yield column made a plot weight: the unit box offers weights, with one chosen (the
+    // header's "bu/ac" is no weight, so the first of kg, g, lb), and undo brings bu/ac back.
+    await page.getByTestId('role-Plots-F').selectOption('plotWeight');
+    const unit = page.getByLabel('Unit of column F (Yield (bu/ac))');
+    await expect(unit.locator('option').allTextContents()).resolves.toEqual([
+      '(not given)',
+      'kg',
+      'g',
+      'lb',
+    ]);
+    await expect(unit.inputValue()).resolves.toBe('kg');
+    await page.getByRole('button', { name: /^Undo/ }).click();
+    await expect(unit.inputValue()).resolves.toBe('bu/ac');
     // The N rate column set aside: the synthetic sheet cannot be built, and the message names it.
     await page.getByTestId('role-Plots-E').selectOption('ignore');
     await page.getByTestId('build-problem').waitFor();
