@@ -73,10 +73,13 @@ beforeAll(() => {
       { length: SITES_PER_REGION },
       () => TRUTH_NAMES[pick.int(0, TRUTH_NAMES.length - 1)],
     );
+    const run = simulateAndAnalyze(mix, 4200 + r, prices);
     return {
       truths: mix,
-      regionalRateKgHa: simulateAndAnalyze(mix, 4200 + r, prices).regionalRateKgHa,
+      regionalRateKgHa: run.regionalRateKgHa,
       trueRegionalOptimumKgHa: trueRegionalOptimumKgHa(mix, priceRatio),
+      intervalKgHa: run.regionalIntervalKgHa,
+      populationOptimumKgHa: trueRegionalOptimumKgHa(TRUTH_NAMES, priceRatio),
     };
   });
 });

@@ -196,6 +196,14 @@ export interface RegionOutcome {
   truths: TruthName[];
   regionalRateKgHa: number;
   trueRegionalOptimumKgHa: number;
+  /** The regional rate's interval from resampling site-years, kg/ha; null without one. */
+  intervalKgHa: [number, number] | null;
+  /**
+   * The population's regional optimum: the five truths in equal shares, from which every region
+   * draws its sites. Resampling site-years estimates the spread around this one, not around the
+   * optimum of the region's own twelve sites.
+   */
+  populationOptimumKgHa: number;
 }
 
 /**
@@ -235,6 +243,12 @@ export interface RegionFigures {
   rmseKgHa: number;
   meanTrueOptimumKgHa: number;
   meanRegionalRateKgHa: number;
+  /** Share of regions whose site-year interval holds the population's regional optimum. */
+  intervalCoverage: number;
+  /** Regions with an interval. */
+  intervalRegions: number;
+  meanIntervalWidthKgHa: number;
+  populationOptimumKgHa: number;
 }
 
 /**
@@ -248,6 +262,7 @@ export function regionFigures(regions: readonly RegionOutcome[]): RegionFigures 
   const n = regions.length;
   const errors = regions.map((r) => r.regionalRateKgHa - r.trueRegionalOptimumKgHa);
   const sum = (xs: number[]) => xs.reduce((s, x) => s + x, 0);
+  const withInterval = regions.filter((r) => r.intervalKgHa !== null);
   return {
     regions: n,
     sitesPerRegion: n > 0 ? regions[0].truths.length : 0,
@@ -255,5 +270,15 @@ export function regionFigures(regions: readonly RegionOutcome[]): RegionFigures 
     rmseKgHa: Math.sqrt(sum(errors.map((e) => e * e)) / n),
     meanTrueOptimumKgHa: sum(regions.map((r) => r.trueRegionalOptimumKgHa)) / n,
     meanRegionalRateKgHa: sum(regions.map((r) => r.regionalRateKgHa)) / n,
+    intervalCoverage:
+      withInterval.filter(
+        (r) =>
+          r.intervalKgHa![0] <= r.populationOptimumKgHa &&
+          r.populationOptimumKgHa <= r.intervalKgHa![1],
+      ).length / withInterval.length,
+    intervalRegions: withInterval.length,
+    meanIntervalWidthKgHa:
+      sum(withInterval.map((r) => r.intervalKgHa![1] - r.intervalKgHa![0])) / withInterval.length,
+    populationOptimumKgHa: n > 0 ? regions[0].populationOptimumKgHa : NaN,
   };
 }

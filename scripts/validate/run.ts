@@ -122,6 +122,9 @@ console.log(
     `bias ${r.meanBiasKgHa.toFixed(1)}, RMSE ${r.rmseKgHa.toFixed(1)} kg/ha`,
 );
 console.log(
+  `regional rate's 90 % interval from resampling site-years: held the population's regional optimum (${r.populationOptimumKgHa} kg/ha, the five truths in equal shares) in ${(100 * r.intervalCoverage).toFixed(1)} % of ${r.intervalRegions} regions; mean width ${r.meanIntervalWidthKgHa.toFixed(1)} kg/ha`,
+);
+console.log(
   `\n### regional mixed model: ${mixed.regions} regions of ${mixed.siteYearsPerRegion} site-years, population quadratic (shared/demo/simulatedRegion)`,
 );
 console.log(

@@ -85,6 +85,8 @@ export function runValidation(options: ValidationOptions): Validation {
       truths: mix,
       regionalRateKgHa: run.regionalRateKgHa,
       trueRegionalOptimumKgHa: trueRegionalOptimumKgHa(mix, priceRatio),
+      intervalKgHa: run.regionalIntervalKgHa,
+      populationOptimumKgHa: trueRegionalOptimumKgHa(TRUTH_NAMES, priceRatio),
     });
   }
   options.onProgress?.(`${options.regions} regions of ${options.sitesPerRegion} sites`);

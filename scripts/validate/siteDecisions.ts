@@ -46,6 +46,8 @@ export interface SimulatedRun {
   decisions: SiteDecision[];
   /** The regional rate of all the table's sites at the prices, kg/ha. */
   regionalRateKgHa: number;
+  /** The regional rate's interval from resampling site-years, kg/ha; null without one. */
+  regionalIntervalKgHa: [number, number] | null;
 }
 
 /** An interval's two ends, or null. */
@@ -107,5 +109,10 @@ export function simulateAndAnalyze(
       responded: analyzed.responded,
     };
   });
-  return { decisions, regionalRateKgHa: priced.across.regional.regional.bestRateKgHa };
+  const interval = priced.across.regional.rateInterval;
+  return {
+    decisions,
+    regionalRateKgHa: priced.across.regional.regional.bestRateKgHa,
+    regionalIntervalKgHa: interval ? [interval.lowKgHa, interval.highKgHa] : null,
+  };
 }

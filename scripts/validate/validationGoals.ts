@@ -144,5 +144,14 @@ export function validationGoals(
     goal: `|bias| < ${GOALS.regionalBiasKgHa}`,
     met: Math.abs(regions.meanBiasKgHa) < GOALS.regionalBiasKgHa,
   });
+  checks.push({
+    figure: "coverage of the regional rate's 90 % site-year interval (population optimum)",
+    on: 'regions',
+    value: regions.intervalCoverage,
+    goal: `${GOALS.coverage.low}–${GOALS.coverage.high}`,
+    met:
+      regions.intervalCoverage >= GOALS.coverage.low &&
+      regions.intervalCoverage <= GOALS.coverage.high,
+  });
   return checks;
 }

@@ -25,6 +25,12 @@ import {
 } from './regionalReturn';
 import { regionalRecommendation, type RegionalRecommendationText } from './regionalRecommendation';
 import { regionalShortfallRisk } from './regionalShortfallRisk';
+import {
+  regionalRateInterval,
+  resampleRegionalGains,
+  type RegionalRateInterval,
+  type ResampledRegionalGains,
+} from './regionalRateInterval';
 
 /** The regional rate of a set of sites and what stands behind it. */
 export interface RegionalAnalysis {
@@ -37,6 +43,13 @@ export interface RegionalAnalysis {
   gridNote: string;
   /** Price-free part, for repricing. */
   prepared: PreparedRegionalReturn;
+  /** The site-years resampled (price-free), or null without resamples or with one site-year. */
+  resampled: ResampledRegionalGains | null;
+  /**
+   * The regional rate's interval from resampling site-years and each candidate rate's share of
+   * resamples within the tolerance of their best (regionalRateInterval); null without resamples.
+   */
+  rateInterval: RegionalRateInterval | null;
   /** The same sites' gains at the rates tested at them (within the grid), price-free. */
   atTestedRates: PreparedRegionalReturn;
   /**
@@ -63,13 +76,13 @@ export interface RegionalSensitivityRow extends RatioMultiple {
 /** Every part of a regional analysis that depends on prices. */
 export type RegionalAtPrices = Pick<
   RegionalAnalysis,
-  'regional' | 'text' | 'priceRatioSensitivity' | 'shortfallRisk'
+  'regional' | 'text' | 'priceRatioSensitivity' | 'shortfallRisk' | 'rateInterval'
 >;
 
 /**
  * The priced parts of a regional analysis: the regional return and its sentence, its
  * price-ratio table and its shortfall risk.
- * @param r - the price-free parts (grid gains, gains at the tested rates)
+ * @param r - the price-free parts (grid gains, gains at the tested rates, resampled site-years)
  * @param prices - canonical prices
  * @param bandPerHa - profitable band, currency/ha
  * @param tolerancePerHa - shortfall tolerance, currency/ha
@@ -77,7 +90,9 @@ export type RegionalAtPrices = Pick<
  * @throws {StatsInputError} "bad-argument" for a price that is not positive
  */
 export function regionalAtPrices(
-  r: Pick<RegionalAnalysis, 'prepared' | 'atTestedRates'>,
+  r: Pick<RegionalAnalysis, 'prepared' | 'atTestedRates'> & {
+    resampled?: ResampledRegionalGains | null;
+  },
   prices: Prices,
   bandPerHa: number,
   tolerancePerHa: number,
@@ -96,6 +111,15 @@ export function regionalAtPrices(
     text: regionalRecommendation(regional),
     priceRatioSensitivity: sensitivity,
     shortfallRisk: regionalShortfallRisk(r.prepared, r.atTestedRates, regional, tolerancePerHa),
+    rateInterval:
+      r.resampled && Number.isFinite(regional.bestRateKgHa)
+        ? regionalRateInterval(
+            r.resampled,
+            prices,
+            tolerancePerHa,
+            candidateRates(Array.from(r.atTestedRates.gridKgHa), regional.bestRateKgHa),
+          )
+        : null,
   };
 }
 
@@ -144,8 +168,10 @@ export function regionalAnalysis(
     tested.length > 0 ? Float64Array.from(tested) : Float64Array.of(grid[0]),
   );
   const tolerance = toleranceInForce(o.shortfallTolerancePerHa, o.prices);
+  const resampled = resampleRegionalGains(prepared, o.resamples, o.seed, o.intervalLevel);
   return {
-    ...regionalAtPrices({ prepared, atTestedRates }, o.prices, o.bandPerHa, tolerance),
+    ...regionalAtPrices({ prepared, atTestedRates, resampled }, o.prices, o.bandPerHa, tolerance),
+    resampled,
     sitesUsed,
     sitesLeftOut: leftOut,
     gridNote,

@@ -446,6 +446,14 @@ function acrossSitesOf(
       'sites',
       regional.bestRateKgHa,
     ),
+    bestRateInterval: analysis.regional.rateInterval
+      ? {
+          lowKgHa: analysis.regional.rateInterval.lowKgHa,
+          highKgHa: analysis.regional.rateInterval.highKgHa,
+          level: analysis.regional.rateInterval.level,
+          resamples: analysis.regional.rateInterval.resamples,
+        }
+      : null,
     tests,
     notes,
     mixed: mixedModelReport(analysis.mixed, mixedOptimum),

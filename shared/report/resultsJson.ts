@@ -150,6 +150,12 @@ export interface ResultsJson {
   acrossSites: {
     sites: string[];
     bestRate: number;
+    /**
+     * The regional rate's interval from resampling site-years ([low, high], output units) at
+     * `bestRateCILevel`; null without resamples or with one site-year.
+     */
+    bestRateCI: [number, number] | null;
+    bestRateCILevel: number | null;
     profitableRange: [number, number];
     bestMeanReturn: number;
     returnUnit: string;
@@ -396,6 +402,13 @@ export function resultsJson(report: TrialReport): ResultsJson {
       ? {
           sites: [...report.acrossSites.sites],
           bestRate: clean(u.rate(report.acrossSites.bestRateKgHa)),
+          bestRateCI: report.acrossSites.bestRateInterval
+            ? [
+                clean(u.rate(report.acrossSites.bestRateInterval.lowKgHa)),
+                clean(u.rate(report.acrossSites.bestRateInterval.highKgHa)),
+              ]
+            : null,
+          bestRateCILevel: report.acrossSites.bestRateInterval?.level ?? null,
           profitableRange: [
             clean(u.rate(report.acrossSites.profitableRangeKgHa[0])),
             clean(u.rate(report.acrossSites.profitableRangeKgHa[1])),

@@ -226,6 +226,11 @@ export interface AcrossSitesReport {
   priceRatioSensitivity: SensitivitySummaryRow[];
   /** The share of sites each tested rate and the regional rate leave short (between sites). */
   shortfallRisk: ShortfallSummary | null;
+  /**
+   * The regional rate's interval from resampling site-years, kg/ha, with its level and the
+   * number of resamples (shared/analysis/regionalRateInterval); null without resamples.
+   */
+  bestRateInterval: { lowKgHa: number; highKgHa: number; level: number; resamples: number } | null;
   /** Pooling F-tests: does one response describe every site? */
   tests: { question: string; F: number; df1: number; df2: number; p: number; verdict: string }[];
   notes: string[];

@@ -1,0 +1,137 @@
+/**
+ * How sure the regional rate is, from resampling site-years: the nonparametric bootstrap over the
+ * units of the regional analysis (Efron & Tibshirani, "An Introduction to the Bootstrap", 1993,
+ * ch. 6 and 13: resample the independent units with replacement, percentile interval). Each
+ * resample draws as many site-years as there are, with replacement, and averages their gain
+ * curves (price-free, done once); at any prices its best rate is the argmax of the averaged
+ * return. The interval is the central share of those best rates; beside it, for each candidate
+ * rate, the share of resamples in which that rate returns within the tolerance of the resample's
+ * best, i.e. how often it would have been close enough had other site-years been in the trial.
+ *
+ * It answers "would another set of site-years like these have given a different regional rate?"
+ * It leaves out each site's own curve uncertainty (each site's interval carries that), so with
+ * few site-years it is wide for the right reason and with many it narrows as the region is known.
+ */
+import { seededRandom } from '../optimize/seededRandom';
+import type { Prices } from '../economics/priceRatio';
+import { sortedQuantile } from '../stats/quantile';
+import type { PreparedRegionalReturn } from './regionalReturn';
+
+/** The price-free part: each resample's mean gain on the grid. */
+export interface ResampledRegionalGains {
+  gridKgHa: Float64Array;
+  /** meanGains[b][g]: resample b's mean gain over its drawn site-years at grid rate g, kg/ha. */
+  meanGains: Float64Array[];
+  /** Site-years drawn in each resample: all the regional rate used. */
+  siteYears: number;
+  /** Central level of the interval the resamples give, e.g. 0.9. */
+  level: number;
+}
+
+export interface RegionalRateInterval {
+  /** Central level of the interval, e.g. 0.9. */
+  level: number;
+  lowKgHa: number;
+  highKgHa: number;
+  resamples: number;
+  /** Site-years drawn in each resample (all the regional rate used). */
+  siteYears: number;
+  /** For each candidate rate, the share of resamples in which it returns within the tolerance of their best. */
+  withinTolerance: { rateKgHa: number; share: number }[];
+  tolerancePerHa: number;
+}
+
+/**
+ * Draws the resamples of site-years and averages each one's gains (price-free).
+ * @param prepared - the regional grid's gains per site-year
+ * @param resamples - how many resamples (0: none)
+ * @param seed - the run's seed
+ * @param level - the interval's central level, e.g. 0.9
+ * @returns the resampled mean gains, or null without resamples or with fewer than 2 site-years
+ * @example resampleRegionalGains(r.prepared, 200, 1, 0.9)!.meanGains.length // 200
+ */
+export function resampleRegionalGains(
+  prepared: PreparedRegionalReturn,
+  resamples: number,
+  seed: number,
+  level: number,
+): ResampledRegionalGains | null {
+  const n = prepared.gains.length;
+  if (!(resamples > 0) || n < 2) return null;
+  const g = prepared.gridKgHa.length;
+  const random = seededRandom(seed);
+  const stretch = Math.sqrt(n / (n - 1));
+  const meanGains: Float64Array[] = [];
+  for (let b = 0; b < resamples; b++) {
+    const mean = new Float64Array(g);
+    for (let i = 0; i < n; i++) {
+      const gain = prepared.gains[random.nextInt(n)];
+      for (let j = 0; j < g; j++) mean[j] += gain[j];
+    }
+    // Stretched about the sample mean by √(n/(n−1)), so each resampled mean varies as much as the
+    // mean of n new site-years would (the plain bootstrap's variance is (n−1)/n of it; Davison &
+    // Hinkley, "Bootstrap Methods and their Application", 1997, §2.3 and §3.3).
+    for (let j = 0; j < g; j++)
+      mean[j] = prepared.meanGainKgHa[j] + stretch * (mean[j] / n - prepared.meanGainKgHa[j]);
+    meanGains.push(mean);
+  }
+  return { gridKgHa: prepared.gridKgHa, meanGains, siteYears: n, level };
+}
+
+/**
+ * The regional rate's interval and each candidate's share within the tolerance, at some prices.
+ * @param resampled - from resampleRegionalGains
+ * @param prices - canonical prices
+ * @param tolerancePerHa - how far below the best a rate may return, currency/ha
+ * @param candidatesKgHa - rates to report the share for (the tested rates and the regional rate)
+ * @returns the interval (Hyndman & Fan type 7 quantiles of the resamples' best rates)
+ * @example regionalRateInterval(res, prices, 12, [0, 60, 120])  // { lowKgHa: 118, highKgHa: 160, … }
+ */
+export function regionalRateInterval(
+  resampled: ResampledRegionalGains,
+  prices: Prices,
+  tolerancePerHa: number,
+  candidatesKgHa: readonly number[],
+): RegionalRateInterval {
+  const { gridKgHa, meanGains, level } = resampled;
+  const g = gridKgHa.length;
+  const app = prices.applicationCostPerHa ?? 0;
+  const cost = Float64Array.from(
+    gridKgHa,
+    (x) => prices.nutrientPricePerKg * x + (x > 0 ? app : 0),
+  );
+  // Each candidate's nearest grid point (candidates are tested rates inside the grid).
+  const at = candidatesKgHa.map((x) => {
+    let k = 0;
+    for (let j = 1; j < g; j++) if (Math.abs(gridKgHa[j] - x) < Math.abs(gridKgHa[k] - x)) k = j;
+    return k;
+  });
+  const close = new Float64Array(candidatesKgHa.length);
+  const best = new Float64Array(meanGains.length);
+  const r = new Float64Array(g);
+  meanGains.forEach((mean, b) => {
+    let top = 0;
+    for (let j = 0; j < g; j++) {
+      r[j] = prices.grainPricePerKg * mean[j] - cost[j];
+      if (r[j] > r[top]) top = j;
+    }
+    best[b] = gridKgHa[top];
+    at.forEach((k, c) => {
+      if (r[k] >= r[top] - tolerancePerHa) close[c]++;
+    });
+  });
+  best.sort();
+  const tail = (1 - level) / 2;
+  return {
+    level,
+    lowKgHa: sortedQuantile(best, tail),
+    highKgHa: sortedQuantile(best, 1 - tail),
+    resamples: meanGains.length,
+    siteYears: resampled.siteYears,
+    withinTolerance: candidatesKgHa.map((x, c) => ({
+      rateKgHa: x,
+      share: close[c] / meanGains.length,
+    })),
+    tolerancePerHa,
+  };
+}
