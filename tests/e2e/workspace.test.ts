@@ -245,6 +245,12 @@ describe('the workspace in chromium', () => {
     await page.getByTestId('best-rate').waitFor();
     await expect(page.getByTestId('best-rate').textContent()).resolves.toMatch(/\d+ kg\/ha/);
     await page.getByText('Do the sites share a response?').waitFor();
+    // The interval from resampling site-years arrives with the bootstrap from the worker.
+    await expect(
+      page.getByTestId('regional-rate-interval').textContent({ timeout: 60_000 }),
+    ).resolves.toMatch(
+      /anywhere from \d+ kg\/ha to \d+ kg\/ha \(90 % interval from\s+resampling the \d+ site-years/,
+    );
     await shot(page, '05-all-sites');
     expect(session.pageErrors.map((e) => e.slice(0, 300))).toEqual([]);
   });
