@@ -128,7 +128,7 @@ export function weightOrYield(input: WeightOrYieldInput): WeightOrYieldDecision 
     },
     { role: 'yield', unit: yieldUnit, medianYieldKgHa: asYield, meaning: `yields in ${yieldUnit}` },
   ];
-  const values$ = Number.isFinite(m) ? `values near ${Number(m.toPrecision(3))}` : 'no values';
+  const near = Number.isFinite(m) ? `values near ${Number(m.toPrecision(3))}` : 'no values';
   const says = (r: ColumnReading) =>
     r.medianYieldKgHa === null
       ? `${r.meaning} (no plot area to convert them)`
@@ -153,25 +153,25 @@ export function weightOrYield(input: WeightOrYieldInput): WeightOrYieldDecision 
     if (plausible(asWeight))
       return take(
         weightReading,
-        `no unit in the header; with the sheet's plot size, ${values$} give ${kgHa(asWeight!)} as ${weightReading.meaning}`,
+        `no unit in the header; with the sheet's plot size, ${near} give ${kgHa(asWeight!)} as ${weightReading.meaning}`,
       );
     if (plausible(asYield))
       return ask(
-        `header word "${weightWord}" says plot weight, but the ${values$} only make sense as yields`,
+        `header word "${weightWord}" says plot weight, but the ${near} only make sense as yields`,
       );
     return take(weightReading, `no unit in the header; taken as ${massUnit}`);
   }
   // Named a yield (yield, yld, grain) with no unit.
   if (plotAreaM2 === null || !Number.isFinite(m))
-    return take(yieldReading, `no unit in the header; ${values$} read as ${yieldUnit}`);
+    return take(yieldReading, `no unit in the header; ${near} read as ${yieldUnit}`);
   if (plausible(asYield) && plausible(asWeight))
     return ask(
-      `the header names no unit and the sheet has plot sizes, so the ${values$} could be plot weights or yields`,
+      `the header names no unit and the sheet has plot sizes, so the ${near} could be plot weights or yields`,
     );
   if (plausible(asWeight))
-    return ask(`the header says yield, but the ${values$} only make sense as plot weights`);
+    return ask(`the header says yield, but the ${near} only make sense as plot weights`);
   return take(
     yieldReading,
-    `no unit in the header; ${values$} read as ${yieldUnit} (as plot weights they would give ${kgHa(asWeight!)}, no yield of the crop)`,
+    `no unit in the header; ${near} read as ${yieldUnit} (as plot weights they would give ${kgHa(asWeight!)}, no yield of the crop)`,
   );
 }
