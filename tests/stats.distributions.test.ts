@@ -1,6 +1,6 @@
 // The distribution functions in shared/stats/distributions.ts against
 // (1) printed tables of critical values and (2) jstat on a grid.
-import { describe, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import jStat from 'jstat';
 import {
   chiSquareCdf,
@@ -196,5 +196,25 @@ describe('p-value helpers', () => {
         `p for F = ${t}² on (1, ${df})`,
       );
     }
+  });
+});
+
+describe('remembered quantiles', () => {
+  // R (Debian r-base-core), print(…, digits = 16): qt(0.975, 10) = 2.228138851986274,
+  // qf(0.95, 3, 10) = 3.708264819046843.
+  it('give the same number the first time and every time after, for t and F alike', () => {
+    for (let i = 0; i < 3; i++) {
+      expect(studentTQuantile(0.975, 10)).toBeCloseTo(2.228138851986274, 12);
+      expect(fisherFQuantile(0.95, 3, 10)).toBeCloseTo(3.708264819046843, 12);
+    }
+    // Neighbouring arguments are not confused: each is its own quantile.
+    expect(studentTQuantile(0.975, 11)).not.toBe(studentTQuantile(0.975, 10));
+    expect(studentTQuantile(0.95, 10)).not.toBe(studentTQuantile(0.975, 10));
+    expect(fisherFQuantile(0.95, 10, 3)).not.toBe(fisherFQuantile(0.95, 3, 10));
+  });
+
+  it('stay right past the memory bound (it starts again, it does not grow)', () => {
+    for (let df = 1; df <= 5000; df++) studentTQuantile(0.9, df);
+    expect(studentTQuantile(0.975, 10)).toBeCloseTo(2.228138851986274, 12);
   });
 });

@@ -16,6 +16,24 @@ import normalCdf from '@stdlib/stats-base-dists-normal-cdf';
 import normalQuantile from '@stdlib/stats-base-dists-normal-quantile';
 import { StatsInputError } from './errors';
 
+/**
+ * Quantiles remembered by their arguments. A run asks for the same few (t at 0.975 or 0.95 on a
+ * site's error df, F at 0.9 on its model's df) thousands of times, and each stdlib call inverts
+ * an incomplete beta; a quantile is a pure function, so the remembered value is the same number.
+ * Bounded: past QUANTILE_CACHE_SIZE distinct arguments the memory starts again.
+ */
+const QUANTILE_CACHE_SIZE = 4096;
+const quantileCache = new Map<string, number>();
+
+function remembered(key: string, compute: () => number): number {
+  const known = quantileCache.get(key);
+  if (known !== undefined) return known;
+  const value = compute();
+  if (quantileCache.size >= QUANTILE_CACHE_SIZE) quantileCache.clear();
+  quantileCache.set(key, value);
+  return value;
+}
+
 function checkDf(df: number, fn: string, name = 'df'): void {
   if (!(df > 0)) {
     throw new StatsInputError(
@@ -60,7 +78,7 @@ export function studentTCdf(t: number, df: number): number {
 export function studentTQuantile(p: number, df: number): number {
   checkProbability(p, 'studentTQuantile');
   checkDf(df, 'studentTQuantile');
-  return tQuantile(p, df);
+  return remembered(`t|${p}|${df}`, () => tQuantile(p, df));
 }
 
 /**
@@ -132,7 +150,7 @@ export function fisherFQuantile(p: number, df1: number, df2: number): number {
   checkProbability(p, 'fisherFQuantile');
   checkDf(df1, 'fisherFQuantile', 'df1');
   checkDf(df2, 'fisherFQuantile', 'df2');
-  return fQuantile(p, df1, df2);
+  return remembered(`F|${p}|${df1}|${df2}`, () => fQuantile(p, df1, df2));
 }
 
 /**
