@@ -252,6 +252,20 @@ describe('the workspace in chromium', () => {
       /anywhere from \d+ kg\/ha to \d+ kg\/ha \(90 % interval from\s+resampling the \d+ site-years/,
     );
     await shot(page, '05-all-sites');
+    // Side by side, every site's chart has the same axes.
+    await page.getByLabel('side by side').check();
+    const charts = page.locator('.grid [data-testid="chart"]');
+    await expect.poll(() => charts.count()).toBeGreaterThan(1);
+    await page.locator('.grid [data-testid="chart"] .main-svg').last().waitFor();
+    const ranges = await charts.evaluateAll((els) =>
+      els.map((el) => {
+        const full = (el as unknown as { _fullLayout: Record<string, { range: number[] }> })
+          ._fullLayout;
+        return JSON.stringify([full.xaxis.range, full.yaxis.range]);
+      }),
+    );
+    expect(new Set(ranges).size).toBe(1);
+    await page.getByLabel('overlaid').check();
     expect(session.pageErrors.map((e) => e.slice(0, 300))).toEqual([]);
   });
 
