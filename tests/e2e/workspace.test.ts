@@ -479,6 +479,28 @@ describe('the workspace in chromium', () => {
     expect(session.pageErrors.map((e) => e.slice(0, 300))).toEqual([]);
   });
 
+  it('fits 1024 px: the model table inside its panel, the ratio and risk tables apart', async () => {
+    const { page } = session;
+    await page.setViewportSize({ width: 1024, height: 768 });
+    try {
+      await page.getByRole('button', { name: /One site/ }).click();
+      const table = page.getByTestId('model-table');
+      await table.waitFor();
+      const [tableBox, panelBox] = await Promise.all([
+        table.boundingBox(),
+        page.locator('section.panel', { has: table }).last().boundingBox(),
+      ]);
+      expect(tableBox!.x + tableBox!.width).toBeLessThanOrEqual(panelBox!.x + panelBox!.width);
+      const ratio = (await page.getByTestId('site-ratio-table').boundingBox())!;
+      const risk = (await page.getByTestId('site-risk-table').boundingBox())!;
+      // Side by side without overlap, or one above the other.
+      expect(ratio.x + ratio.width <= risk.x || ratio.y + ratio.height <= risk.y).toBe(true);
+      await shot(page, '07c-one-site-1024');
+    } finally {
+      await page.setViewportSize({ width: 1360, height: 900 });
+    }
+  });
+
   it('keeps the work across a reload', async () => {
     const { page } = session;
     await page.getByRole('button', { name: /Prices/ }).click();
