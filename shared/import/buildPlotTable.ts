@@ -31,6 +31,11 @@ import { readTreatmentKey, type TreatmentKeyEntry } from './readTreatmentKey';
 import { validateMapping } from './validateMapping';
 import { roleFromHeader } from './headerWords';
 
+/** Where a plots sheet is, for a message: 'Sheet "Plots" of "t.xlsx"', or '"t.csv"' for a CSV. */
+function sheetOfFile(file: string, sheet: string): string {
+  return sheet ? `Sheet "${sheet}" of "${file}"` : `"${file}"`;
+}
+
 /**
  * A column set aside that reads as a yield or a plot weight, beside the one used: said, so a
  * second yield (dry and wet, two harvests) is never dropped unseen.
@@ -45,7 +50,7 @@ function secondYieldColumns(file: string, m: SheetMapping, findings: QualityFind
     findings.push({
       code: 'second-yield-column',
       severity: 'warning',
-      message: `${m.sheet ? `Sheet "${m.sheet}" of "${file}"` : `"${file}"`}: column ${c.letter} "${c.header}" also looks like a ${role === 'yield' ? 'yield' : 'plot weight'} and is not used; yields are read from column ${used.letter} "${used.header}". Give column ${c.letter} the role instead if it is the right one.`,
+      message: `${sheetOfFile(file, m.sheet)}: column ${c.letter} "${c.header}" also looks like a ${role === 'yield' ? 'yield' : 'plot weight'} and is not used; yields are read from column ${used.letter} "${used.header}". Give column ${c.letter} the role instead if it is the right one.`,
       refs: [{ file, sheet: m.sheet, cell: `${c.letter}${m.headerRow}`, row: m.headerRow }],
     });
   }
@@ -136,7 +141,7 @@ export function buildPlotTable(
         findings.push({
           code: 'crop-differs',
           severity: 'warning',
-          message: `${m.sheet ? `Sheet "${m.sheet}" of "${raw.file.name}"` : `"${raw.file.name}"`} names ${crops(m.cropHint).label.toLowerCase()} (${m.cropEvidence ?? 'its title'}), but the analysis is set to ${crops(crop).label.toLowerCase()}: bushel weight, standard moisture and plausible yields are taken from ${crops(crop).label.toLowerCase()}. Set the crop to ${m.cropHint} if the file is right.`,
+          message: `${sheetOfFile(raw.file.name, m.sheet)} names ${crops(m.cropHint).label.toLowerCase()} (${m.cropEvidence ?? 'its title'}), but the analysis is set to ${crops(crop).label.toLowerCase()}: bushel weight, standard moisture and plausible yields are taken from ${crops(crop).label.toLowerCase()}. Set the crop to ${m.cropHint} if the file is right.`,
           refs: [],
         });
     }

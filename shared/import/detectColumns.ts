@@ -19,6 +19,7 @@ import { columnLetters, type RawSheet, type RawWorkbook } from './rawWorkbook';
 import { shapeSignature } from './shapeSignature';
 import { cropFromText } from './cropFromText';
 import { weightOrYield } from './weightOrYield';
+import { sampleMedian } from '../stats/quantile';
 import type { CropId } from '../table/plotTable';
 import { areaToM2, lengthToM, type AreaUnit, type LengthUnit } from '../units/convertYield';
 
@@ -74,13 +75,6 @@ function columnValues(sheet: RawSheet, headerRow: number, col: number): ColumnVa
   return out;
 }
 
-function median(xs: number[]): number {
-  if (xs.length === 0) return NaN;
-  const s = [...xs].sort((a, b) => a - b);
-  const m = s.length >> 1;
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
-}
-
 function valuesEvidence(v: ColumnValues): string {
   return v.filled === 0
     ? 'no values below the header'
@@ -132,18 +126,21 @@ function medianPlotAreaM2(
   taken: ReadonlyMap<MappedRole, ColumnAssignment>,
 ): number | null {
   const numbers = (a: ColumnAssignment | undefined) =>
-    a ? columnValues(sheet, headerRow, a.col).numbers.filter((v) => v > 0) : [];
+    a
+      ? columnValues(sheet, headerRow, a.col).numbers.filter((v) => v > 0 && Number.isFinite(v))
+      : [];
   const area = taken.get('plotArea');
   const areas = numbers(area);
-  if (area && areas.length > 0) return areaToM2(median(areas), (area.unit as AreaUnit) ?? 'm2');
+  if (area && areas.length > 0)
+    return areaToM2(sampleMedian(areas), (area.unit as AreaUnit) ?? 'm2');
   const length = taken.get('plotLength');
   const width = taken.get('plotWidth');
   const ls = numbers(length);
   const ws = numbers(width);
   if (length && width && ls.length > 0 && ws.length > 0)
     return (
-      lengthToM(median(ls), (length.unit as LengthUnit) ?? 'm') *
-      lengthToM(median(ws), (width.unit as LengthUnit) ?? 'm')
+      lengthToM(sampleMedian(ls), (length.unit as LengthUnit) ?? 'm') *
+      lengthToM(sampleMedian(ws), (width.unit as LengthUnit) ?? 'm')
     );
   return null;
 }

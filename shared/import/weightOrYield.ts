@@ -26,6 +26,7 @@ import {
   type HeaderUnit,
 } from './columnMapping';
 import { normalizeHeader, unitFromHeader } from './headerWords';
+import { sampleMedian } from '../stats/quantile';
 
 /** What the decision needs to know about a column and its sheet. */
 export interface WeightOrYieldInput {
@@ -51,12 +52,6 @@ export interface WeightOrYieldDecision {
 
 /** Words for a weighed plot; "grain wt" and "plot yield" are plot weights, "grain" alone is not. */
 const WEIGHT_WORDS = /\b(w(eigh)?t|mass|harvested|per plot|plot yield|plot grain)\b/;
-
-function median(xs: readonly number[]): number {
-  const s = [...xs].sort((a, b) => a - b);
-  const m = s.length >> 1;
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
-}
 
 /**
  * The yield unit values are in when the header names none: the ranges of t/ha (under 25),
@@ -110,7 +105,8 @@ export function weightOrYield(input: WeightOrYieldInput): WeightOrYieldDecision 
   const plausible = (v: number | null) => v !== null && v >= low && v <= high;
   const crop = input.crop ?? 'corn';
 
-  const m = values.length > 0 ? median(values) : NaN;
+  const finite = values.filter(Number.isFinite);
+  const m = finite.length > 0 ? sampleMedian(finite) : NaN;
   const yieldUnit = yieldUnitFromValues(m, usHints);
   const massUnit: MassUnit = usHints ? 'lb' : 'kg';
   const asYield = Number.isFinite(m) ? convertYield(m, yieldUnit, crop) : null;
