@@ -7,7 +7,7 @@
  * imported where their output is written, so a run that writes only JSON
  * never loads them.
  */
-import { checkPriceRatio } from '../shared/economics/priceRatioCheck';
+import { checkPriceRatio, priceRatioFarOff } from '../shared/economics/priceRatioCheck';
 import type { CropId } from '../shared/table/plotTable';
 import { accessSync, constants, realpathSync, statSync } from 'node:fs';
 import path from 'node:path';
@@ -442,7 +442,7 @@ async function analyzedReport(
   const ratioCheck = checkPriceRatio(canonical, imported.table.crop);
   if (!ratioCheck.plausible)
     log.err(
-      `plotrate: warning: the price ratio is ${ratioCheck.ratio.toPrecision(3)} kg grain per kg N, ${ratioCheck.factor >= 1 ? `${ratioCheck.factor.toPrecision(2)} times` : `1/${(1 / ratioCheck.factor).toPrecision(2)} of`} the usual ${ratioCheck.usual.toPrecision(3)}; check --grain-price and the nitrogen price and their units before using any rate.`,
+      `plotrate: warning: ${priceRatioFarOff(ratioCheck, imported.table.crop)}; check --grain-price and the nitrogen price and their units before using any rate.`,
     );
   const settings = analysisSettings({
     prices: canonical,

@@ -7,6 +7,7 @@
  * inside it); beyond it a rate would follow from a typing slip, so the screen asks first.
  */
 import type { CropId } from '../table/plotTable';
+import { crops } from '../units/crops';
 import { illustrativePrices } from './illustrativePrices';
 import { priceRatio, type Prices } from './priceRatio';
 
@@ -42,4 +43,17 @@ export function checkPriceRatio(prices: Prices, crop: CropId): PriceRatioCheck {
     factor,
     plausible: factor <= PRICE_RATIO_FACTOR_LIMIT && factor >= 1 / PRICE_RATIO_FACTOR_LIMIT,
   };
+}
+
+/**
+ * What is unusual about a ratio, in words the screen and the command line both print before
+ * their own advice.
+ * @param check - from checkPriceRatio
+ * @param crop - the crop
+ * @returns e.g. "The price ratio is 761 kg grain per kg N, 108 times the usual 7.03 for corn (maize)"
+ */
+export function priceRatioFarOff(check: PriceRatioCheck, crop: CropId): string {
+  const r = (v: number) => Number(v.toPrecision(3)).toLocaleString('en-US');
+  const times = check.factor >= 1 ? `${r(check.factor)} times` : `1/${r(1 / check.factor)} of`;
+  return `The price ratio is ${r(check.ratio)} kg grain per kg N, ${times} the usual ${r(check.usual)} for ${crops(crop).label.toLowerCase()}`;
 }

@@ -1,8 +1,11 @@
 // The prices every optimum and chart reads; stored canonical (per kg, per ha).
 import type { Prices as CanonicalPrices } from '../../../shared/economics/priceRatio';
 import type { CropId } from '../../../shared/table/plotTable';
-import { checkPriceRatio, type PriceRatioCheck } from '../../../shared/economics/priceRatioCheck';
-import { crops } from '../../../shared/units/crops';
+import {
+  checkPriceRatio,
+  priceRatioFarOff,
+  type PriceRatioCheck,
+} from '../../../shared/economics/priceRatioCheck';
 import { History } from './history.svelte';
 import {
   canonicalPrices,
@@ -74,12 +77,9 @@ export class Prices {
       }
       const check = checkPriceRatio(prices, this.#crop());
       if (!check.plausible && this.confirmedRatio !== check.ratio) {
-        const r = (v: number) => Number(v.toPrecision(3)).toLocaleString('en-US');
-        const times =
-          check.factor >= 1 ? `${r(check.factor)} times` : `1/${r(1 / check.factor)} of`;
         return {
           ok: false,
-          reason: `The price ratio is ${r(check.ratio)} kg grain per kg N, ${times} the usual ${r(check.usual)} for ${crops(this.#crop()).label.toLowerCase()}. Check the prices (a decimal mark, or a price per tonne typed as per kilogram?); no rate is shown until they are right or you confirm them.`,
+          reason: `${priceRatioFarOff(check, this.#crop())}. Check the prices (a decimal mark, or a price per tonne typed as per kilogram?); no rate is shown until they are right or you confirm them.`,
           ratioCheck: check,
         };
       }
