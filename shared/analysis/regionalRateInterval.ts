@@ -15,7 +15,7 @@
 import { seededRandom } from '../optimize/seededRandom';
 import type { Prices } from '../economics/priceRatio';
 import { sortedQuantile } from '../stats/quantile';
-import type { PreparedRegionalReturn } from './regionalReturn';
+import { argMaxLowest, costOnGrid, type PreparedRegionalReturn } from './regionalReturn';
 
 /** The price-free part: each resample's mean gain on the grid. */
 export interface ResampledRegionalGains {
@@ -95,11 +95,7 @@ export function regionalRateInterval(
 ): RegionalRateInterval {
   const { gridKgHa, meanGains, level } = resampled;
   const g = gridKgHa.length;
-  const app = prices.applicationCostPerHa ?? 0;
-  const cost = Float64Array.from(
-    gridKgHa,
-    (x) => prices.nutrientPricePerKg * x + (x > 0 ? app : 0),
-  );
+  const cost = costOnGrid(gridKgHa, prices);
   // Each candidate's nearest grid point (candidates are tested rates inside the grid).
   const at = candidatesKgHa.map((x) => {
     let k = 0;
@@ -110,11 +106,9 @@ export function regionalRateInterval(
   const best = new Float64Array(meanGains.length);
   const r = new Float64Array(g);
   meanGains.forEach((mean, b) => {
-    let top = 0;
-    for (let j = 0; j < g; j++) {
-      r[j] = prices.grainPricePerKg * mean[j] - cost[j];
-      if (r[j] > r[top]) top = j;
-    }
+    for (let j = 0; j < g; j++) r[j] = prices.grainPricePerKg * mean[j] - cost[j];
+    // The regional rate's own rule for the best (ties to the lowest rate).
+    const top = argMaxLowest(r);
     best[b] = gridKgHa[top];
     at.forEach((k, c) => {
       if (r[k] >= r[top] - tolerancePerHa) close[c]++;

@@ -130,8 +130,18 @@ export function prepareRegionalReturn(
   return { gridKgHa, sites: curves.map((c) => c.site), gains, meanGainKgHa };
 }
 
+/**
+ * Nutrient and application cost at each grid rate, currency/ha: p_N·x, plus the application
+ * cost wherever any N is applied.
+ * @example costOnGrid(Float64Array.of(0, 100), { grainPricePerKg: 0.2, nutrientPricePerKg: 1, applicationCostPerHa: 10 }) // [0, 110]
+ */
+export function costOnGrid(gridKgHa: Float64Array, prices: Prices): Float64Array {
+  const app = prices.applicationCostPerHa ?? 0;
+  return Float64Array.from(gridKgHa, (x) => prices.nutrientPricePerKg * x + (x > 0 ? app : 0));
+}
+
 /** Index of the largest value, the lowest index among values within TIE of it. */
-function argMaxLowest(values: ArrayLike<number>): number {
+export function argMaxLowest(values: ArrayLike<number>): number {
   let best = -Infinity;
   for (let j = 0; j < values.length; j++) if (values[j] > best) best = values[j];
   const tol = TIE * Math.max(1, Math.abs(best));
@@ -163,10 +173,9 @@ export function regionalReturnAtPrices(
   }
   const { gridKgHa, gains, meanGainKgHa, sites } = prepared;
   const { grainPricePerKg: pg, nutrientPricePerKg: pn } = prices;
-  const app = prices.applicationCostPerHa ?? 0;
   const g = gridKgHa.length;
   // Nutrient and application cost per grid rate, shared by every site.
-  const cost = Float64Array.from(gridKgHa, (x) => pn * x + (x > 0 ? app : 0));
+  const cost = costOnGrid(gridKgHa, prices);
   const meanReturnPerHa = new Float64Array(g);
   for (let j = 0; j < g; j++) meanReturnPerHa[j] = pg * meanGainKgHa[j] - cost[j];
 
