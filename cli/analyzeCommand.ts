@@ -27,7 +27,7 @@ import { describeRef } from '../shared/table/qualityFinding';
 import { analyzablePlots } from '../shared/table/plotTable';
 import { siteYearsOf } from '../shared/table/siteYear';
 import { assembleReport } from '../shared/report/assembleReport';
-import { regionalReturnChart } from '../shared/report/regionalReturnChart';
+import { reportRegionalChart } from '../shared/report/regionalReturnChart';
 import { resultsJson } from '../shared/report/resultsJson';
 import type { DisplaySettings } from '../shared/report/reportSettings';
 import { siteResponseChart } from '../shared/report/siteResponseChart';
@@ -211,7 +211,7 @@ async function drawCharts(
 ): Promise<{ sites: Record<string, SheetImage>; region: SheetImage | null }> {
   const drawn = report.sites.length <= siteChartLimit ? report.sites : [];
   const specs = drawn.map((s) => siteResponseChart(report, s));
-  const rs = regionalReturnChart(report);
+  const rs = reportRegionalChart(report);
   if (rs) specs.push(rs);
   // Print sharpness (2×) for a report someone reads page by page; 1× past 100 sites keeps a big run small.
   const scale = report.sites.length > 100 ? 1 : 2;
@@ -430,7 +430,12 @@ async function analyzedReport(
       `plotrate: no ${args.grainPrice === null ? 'grain' : 'nitrogen'} price given; using illustrative prices (see --grain-price, --nutrient-price).`,
     );
   }
-  const display: DisplaySettings = { units, unitSystem: args.units, prices };
+  const display: DisplaySettings = {
+    units,
+    unitSystem: args.units,
+    prices,
+    currency: args.currency,
+  };
   const terms = priceTerms({ ...display, crop: imported.table.crop });
   const canonical = {
     grainPricePerKg: terms.grainPricePerKg,

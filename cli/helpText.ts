@@ -28,6 +28,8 @@ Options for analyze
                          a title row, a crop column), else corn
   --units us|metric      show rates and yields in lb/ac and bu/ac, or kg/ha and
                          t/ha; default: the units of the input
+  --currency CODE        the prices' currency, written on every amount: USD,
+                         EUR, CAD, … (default USD)
   --grain-price N        grain price per bushel (bu/ac yields), per tonne
                          (t/ha), per kg (kg/ha) or per lb (lb/ac)
   --nutrient-price N     N price per lb of N (lb/ac rates) or per kg of N

@@ -28,6 +28,8 @@ export interface AnalyzeArgs {
   units: 'us' | 'metric' | null;
   grainPrice: number | null;
   nutrientPrice: number | null;
+  /** The prices' currency, an ISO 4217 code (USD, EUR, CAD, …), written on every amount. */
+  currency: string;
   product: ProductId | null;
   productPrice: number | null;
   boot: number;
@@ -74,6 +76,7 @@ export function analyzeDefaults(files: string[] = []): AnalyzeArgs {
     crop: null,
     units: null,
     grainPrice: null,
+    currency: 'USD',
     nutrientPrice: null,
     product: null,
     productPrice: null,
@@ -167,6 +170,16 @@ export function parseArgs(argv: readonly string[]): Command {
         if (v !== 'us' && v !== 'metric')
           throw new UsageError(`--units ${v ?? '(missing)'}: use us or metric.`);
         a.units = v;
+        break;
+      }
+      case '--currency': {
+        const v = (rest[++i] ?? '').trim().toUpperCase();
+        // Three letters, as ISO 4217 writes them; the reports print its symbol where one exists.
+        if (!/^[A-Z]{3}$/.test(v))
+          throw new UsageError(
+            `--currency ${v || '(missing)'}: give a three-letter currency code such as USD, EUR or CAD.`,
+          );
+        a.currency = v;
         break;
       }
       case '--grain-price':

@@ -122,6 +122,7 @@ describe('the report and the regional return recommend from the same model', () 
     {
       units: { rate: 'kg/ha', yield: 'kg/ha' },
       unitSystem: 'metric',
+      currency: 'USD',
       crop: table.crop,
       prices: { grainPrice: 0.18, nutrientPrice: 1.1, product: null, defaulted: false },
       boot: 0,

@@ -20,29 +20,43 @@ const sites = Array.from({ length: 10 }, (_, i) => ({
 }));
 const prices = { grainPricePerKg: 0.2, nutrientPricePerKg: 1.4 };
 
-/** The exact distribution of the resampled best rate: k of the first kind in 10 draws. */
-function exactBestRates(): { rate: number; p: number }[] {
+/** A resample's net return at x when it drew k site-years of the first kind of n = 10. */
+function resampleReturn(k: number, x: number): number {
   const n = 10;
   const stretch = Math.sqrt(n / (n - 1));
-  const out: { rate: number; p: number }[] = [];
+  const sample = (k * steep(x) + (n - k) * shallow(x)) / n;
+  const all = (steep(x) + shallow(x)) / 2;
+  const gain = all + stretch * (sample - all);
+  return prices.grainPricePerKg * gain - prices.nutrientPricePerKg * x;
+}
+
+/** Binomial(10, 1/2) probabilities of k = 0 … 10. */
+function binomialTen(): number[] {
+  const p: number[] = [];
   let choose = 1;
-  for (let k = 0; k <= n; k++) {
-    if (k > 0) choose = (choose * (n - k + 1)) / k;
-    let best = 0;
-    let bestReturn = -Infinity;
-    for (const x of grid) {
-      const sample = (k * steep(x) + (n - k) * shallow(x)) / n;
-      const all = (steep(x) + shallow(x)) / 2;
-      const gain = all + stretch * (sample - all);
-      const r = prices.grainPricePerKg * gain - prices.nutrientPricePerKg * x;
-      if (r > bestReturn) {
-        bestReturn = r;
-        best = x;
-      }
-    }
-    out.push({ rate: best, p: choose / 2 ** n });
+  for (let k = 0; k <= 10; k++) {
+    if (k > 0) choose = (choose * (10 - k + 1)) / k;
+    p.push(choose / 2 ** 10);
   }
-  return out.sort((a, b) => a.rate - b.rate);
+  return p;
+}
+
+/** The exact distribution of the resampled best rate: k of the first kind in 10 draws. */
+function exactBestRates(): { rate: number; p: number }[] {
+  return binomialTen()
+    .map((p, k) => {
+      let best = 0;
+      let bestReturn = -Infinity;
+      for (const x of grid) {
+        const r = resampleReturn(k, x);
+        if (r > bestReturn) {
+          bestReturn = r;
+          best = x;
+        }
+      }
+      return { rate: best, p };
+    })
+    .sort((a, b) => a.rate - b.rate);
 }
 
 /** The rate at which the exact CDF first reaches q. */
@@ -68,6 +82,36 @@ describe('regionalRateInterval', () => {
     expect(interval.highKgHa).toBeLessThanOrEqual(exactQuantile(dist, 0.96));
     expect(interval.highKgHa).toBeGreaterThan(interval.lowKgHa);
     expect(interval).toMatchObject({ level: 0.9, resamples: 4000, siteYears: 10 });
+  });
+
+  it('reads the same resamples along the grid: the band of the mean return and the chance of falling short', () => {
+    const prepared = prepareRegionalReturn(sites, grid);
+    const resampled = resampleRegionalGains(prepared, 4000, 11, 0.9)!;
+    const tolerance = 5;
+    const { alongGrid } = regionalRateInterval(resampled, prices, tolerance, [100]);
+    const pk = binomialTen();
+    for (const x of [60, 100, 137, 200]) {
+      const j = grid.indexOf(x);
+      // Exact: the return at x is increasing in k (steep > shallow for x > 0), so its quantiles
+      // are those of k; the chance of falling short sums P(k) over the k where x is short.
+      const byReturn = pk.map((p, k) => ({ r: resampleReturn(k, x), p })).sort((a, b) => a.r - b.r);
+      const at = (q: number) => {
+        let c = 0;
+        for (const d of byReturn) if ((c += d.p) >= q - 1e-12) return d.r;
+        return byReturn[byReturn.length - 1].r;
+      };
+      expect(alongGrid.lowPerHa[j]).toBeGreaterThanOrEqual(at(0.04) - 1e-9);
+      expect(alongGrid.lowPerHa[j]).toBeLessThanOrEqual(at(0.06) + 1e-9);
+      expect(alongGrid.highPerHa[j]).toBeGreaterThanOrEqual(at(0.94) - 1e-9);
+      expect(alongGrid.highPerHa[j]).toBeLessThanOrEqual(at(0.96) + 1e-9);
+      let short = 0;
+      pk.forEach((p, k) => {
+        const best = Math.max(...Array.from(grid, (g) => resampleReturn(k, g)));
+        if (resampleReturn(k, x) < best - tolerance) short += p;
+      });
+      // Monte Carlo SE of a share from 4,000 draws is at most 0.008; four SEs.
+      expect(Math.abs(alongGrid.shortShare[j] - short)).toBeLessThan(0.032);
+    }
   });
 
   it('collapses to the best rate when every site-year is alike, and shares 1 within tolerance', () => {

@@ -4,7 +4,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import {
-  ONE_PER_ACRE_IN_PER_HA,
   prepareRegionalReturn,
   regionalReturnAtPrices,
   type SiteGainCurve,
@@ -13,6 +12,7 @@ import { rateGrid } from '../shared/analysis/rateGrid';
 import { regionalRecommendation } from '../shared/analysis/regionalRecommendation';
 import { recommendationCautions } from '../shared/economics/recommendationCautions';
 import { SitesInputError } from '../shared/analysis/sitesInputError';
+import { defaultShortfallTolerancePerHa } from '../shared/economics/shortfallRule';
 import { StatsInputError } from '../shared/stats/errors';
 
 /** A gain curve through the points (x, gain), straight between them. */
@@ -97,10 +97,11 @@ describe('regionalReturnAtPrices on a two-site example worked by hand', () => {
     expect(dear.bestRateKgHa).toBe(50);
     expect(dear.profitableRange).toMatchObject({ lowKgHa: 50, highKgHa: 100 });
   });
-  it('uses a band of 1 per acre (≈ 2.471 per ha, common practice) by default', () => {
-    expect(ONE_PER_ACRE_IN_PER_HA).toBeCloseTo(2.4710538, 6);
-    const d = regionalReturnAtPrices(prepared, { grainPricePerKg: 0.2, nutrientPricePerKg: 1 });
-    expect(d.profitableRange.bandPerHa).toBe(ONE_PER_ACRE_IN_PER_HA);
+  it('takes the default tolerance, the cost of 10 kg N/ha, as its band (one rule with the risk tables)', () => {
+    const prices = { grainPricePerKg: 0.2, nutrientPricePerKg: 1 };
+    const d = regionalReturnAtPrices(prepared, prices);
+    expect(d.profitableRange.bandPerHa).toBe(defaultShortfallTolerancePerHa(prices));
+    expect(d.profitableRange.bandPerHa).toBe(10);
     expect(d.profitableRange).toMatchObject({ lowKgHa: 100, highKgHa: 100 });
   });
 });

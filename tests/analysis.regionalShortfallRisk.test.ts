@@ -53,7 +53,6 @@ describe('regionalShortfallRisk', () => {
         atTestedRates: prepareRegionalReturn(curves, tested),
       },
       prices,
-      2.471,
       60,
     );
     const risk = r.shortfallRisk!;

@@ -136,6 +136,7 @@ describe('the report, the grower page and the results file say the same', () => 
     {
       units: { rate: 'lb/ac', yield: 'bu/ac' },
       unitSystem: 'us',
+      currency: 'USD',
       crop: table.crop,
       prices: { grainPrice: 4.5, nutrientPrice: 0.6, product: null, defaulted: false },
       boot: 200,

@@ -160,6 +160,7 @@ describe('the grower page of one season of a site tried over several', () => {
       {
         units: { rate: 'kg/ha', yield: 't/ha' },
         unitSystem: 'metric',
+        currency: 'USD',
         crop: 'corn',
         prices: { grainPrice: 180, nutrientPrice: 1.1, product: null, defaulted: false },
         boot: 0,

@@ -33,6 +33,8 @@ describe('parseArgs', () => {
       'fixed',
       '--shortfall-tolerance',
       '7.5',
+      '--currency',
+      'eur',
       '--site-charts',
       '40',
       '--map',
@@ -50,6 +52,7 @@ describe('parseArgs', () => {
       crop: 'wheat',
       units: 'metric',
       grainPrice: 220,
+      currency: 'EUR',
       nutrientPrice: null,
       product: 'uan32',
       productPrice: 0.35,
@@ -71,6 +74,8 @@ describe('parseArgs', () => {
     [['--column-unit', 'block=m'], /"block" is not a role with a unit/],
     [['--column-unit', 'kg'], /write role=unit/],
     [['--column-unit'], /needs at least one role=unit/],
+    [['--currency', 'euro'], /three-letter currency code such as USD/],
+    [['--currency'], /--currency \(missing\)/],
   ])('refuses %j with a line that says what it takes', (words, message) => {
     expect(() => parseArgs(['analyze', 'a.csv', ...words])).toThrow(message);
   });

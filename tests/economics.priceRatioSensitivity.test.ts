@@ -25,7 +25,7 @@ import { CORN_PRICES as prices, simulatedAnalysis as analyzed } from './analysis
 
 const PR = prices.nutrientPricePerKg / prices.grainPricePerKg;
 const LEVEL = 0.9;
-const BAND = 2.471;
+const TOLERANCE = 12;
 
 /** The rate of the largest net return on a 0.01 kg/ha grid over the tested rates. */
 function numericOptimum(fit: Parameters<typeof netReturn>[0], p: typeof prices, hi: number) {
@@ -77,7 +77,7 @@ describe('a site at multiples of the price ratio', () => {
     'the %s picked by the analyst: each row is the closed form at that price ratio (1e-9 kg/ha)',
     (model, index, closedForm) => {
       const s = trial.across.sites[index];
-      const priced = priceSite(s, prices, { [s.site]: model }, LEVEL, BAND);
+      const priced = priceSite(s, prices, { [s.site]: model }, LEVEL, TOLERANCE);
       const fit = s.fits!.fits[model];
       const highest = fit.testedRates.highestKgHa;
       expect(priced.priceRatioSensitivity).toHaveLength(PRICE_RATIO_MULTIPLIERS.length);
@@ -101,13 +101,13 @@ describe('a site at multiples of the price ratio', () => {
 
   it('gives at each ratio the interval of the same resamples priced at that ratio, and 1× is the recommendation', () => {
     for (const s of trial.across.sites) {
-      const priced = priceSite(s, prices, {}, LEVEL, BAND);
+      const priced = priceSite(s, prices, {}, LEVEL, TOLERANCE);
       for (const row of priced.priceRatioSensitivity!) {
         const scaled = pricesAtRatioMultiple(prices, row.ratioMultiplier);
         const interval = optimumInterval(s.draws!, priced.lead.model!, scaled, LEVEL);
         expect(row.intervalKgHa).toEqual(interval!.ciKgHa);
         expect(row.rateKgHa).toBe(
-          recommendedRateKgHa(priceSite(s, scaled, {}, LEVEL, BAND).optimum),
+          recommendedRateKgHa(priceSite(s, scaled, {}, LEVEL, TOLERANCE).optimum),
         );
       }
       const one = priced.priceRatioSensitivity!.find((r) => r.ratioMultiplier === 1)!;
@@ -130,7 +130,7 @@ describe('the optimum never rises as the price ratio rises (property)', () => {
       const rows = priceRatioSensitivity(
         prices,
         (p) => {
-          const priced = priceSite(s, p, {}, LEVEL, BAND);
+          const priced = priceSite(s, p, {}, LEVEL, TOLERANCE);
           return { rate: recommendedRateKgHa(priced.optimum), ci: priced.interval!.ciKgHa! };
         },
         multiples,
@@ -148,7 +148,7 @@ describe('the optimum never rises as the price ratio rises (property)', () => {
     const region = priceTrial(trial, prices, {}).across.regional;
     const rows = priceRatioSensitivity(
       prices,
-      (p) => regionalAtPrices(region, p, BAND, 10).regional,
+      (p) => regionalAtPrices(region, p, 10).regional,
       multiples,
     );
     for (let i = 1; i < rows.length; i++)
@@ -173,7 +173,6 @@ describe('the region at multiples of the price ratio', () => {
         atTestedRates: prepareRegionalReturn(curves, Float64Array.of(0, 100, 200)),
       },
       prices,
-      BAND,
       10,
     );
     for (const row of r.priceRatioSensitivity) {

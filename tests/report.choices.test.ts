@@ -21,6 +21,7 @@ function settings(extra: Partial<ReportSettings> = {}, applicationCostPerHa = 0)
   return {
     units: { rate: 'kg/ha', yield: 'kg/ha' },
     unitSystem: 'metric',
+    currency: 'USD',
     crop: table.crop,
     prices: {
       grainPrice: 0.18,

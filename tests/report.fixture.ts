@@ -48,6 +48,7 @@ export async function demoReport(units: 'us' | 'metric', boot = 60): Promise<Tri
     {
       units: us ? { rate: 'lb/ac', yield: 'bu/ac' } : { rate: 'kg/ha', yield: 't/ha' },
       unitSystem: units,
+      currency: 'USD',
       crop: 'corn',
       prices: us
         ? {

@@ -37,7 +37,7 @@ export function reportOf(table: PlotTable, s: ReportSettings, meta: ReportMeta):
   return assembleReport(
     analysis,
     priceTrial(analysis, prices, s.siteModels ?? {}),
-    { units: s.units, unitSystem: s.unitSystem, prices: s.prices },
+    { units: s.units, unitSystem: s.unitSystem, prices: s.prices, currency: s.currency },
     meta,
   );
 }

@@ -258,7 +258,9 @@ describe('resultsJson', () => {
     for (const s of json.sites) {
       const risk = s.shortfallRisk!;
       expect(risk.tolerance).toBe(json.settings.shortfallTolerance);
-      expect(risk.toleranceUnit).toBe('currency/ac');
+      // The fixture's prices are in USD (tests/report.fixture.ts); every money unit names it.
+      expect(json.settings.currency).toBe('USD');
+      expect(risk.toleranceUnit).toBe('USD/ac');
       expect(risk.resamples).toBe(40);
       for (const r of risk.rows) expect(r.share >= 0 && r.share <= 1).toBe(true);
       expect(risk.rows.filter((r) => r.recommended).map((r) => r.rate)).toEqual([

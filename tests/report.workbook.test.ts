@@ -376,6 +376,7 @@ describe('the model table of sites whose fits reach a limit', () => {
       {
         units: { rate: 'kg/ha', yield: 'kg/ha' },
         unitSystem: 'metric',
+        currency: 'USD',
         crop: 'corn',
         prices: {
           grainPrice: METRIC_GRAIN_PER_T,

@@ -30,8 +30,8 @@
  *               regionalModel?: 'best' | ModelName,         // each site's recommendationModel, or one model for all
  *               curvePoints?: 61,                           // points kept on each fitted curve
  *               gridStepKgHa?: 1, gridFromKgHa?: 0, gridToKgHa?: lowest of the sites' highest rates,
- *               bandPerHa?: ONE_PER_ACRE_IN_PER_HA (≈ 2.471, $1/acre: common practice),
- *               shortfallTolerancePerHa?: null (the cost of 10 kg N/ha at the prices),
+ *               shortfallTolerancePerHa?: null (the cost of 10 kg N/ha at the prices; also the
+ *                 profitable range's band below the best return),
  *               alpha?: 0.05, levels?: 'site' | 'blockWithinSite', groupKeys?: every site-level Plot.groups key + 'year' }
  *   result  = { sites: SiteAnalysis[]          // one per site: fits (AllModelsFitData), recommended
  *                                              //   (recommendationModel), rateEffect, responded,
@@ -50,7 +50,7 @@
  *               response: { definition, responded, assessed, share, notAssessed }
  *               groups: { key, values: [{ value, sites, regional, response, sharedResponse }],
  *                         sitesWithoutValue, differ: { linear, quadratic, plateau } }[] }
- * repriceAcrossSites(analysis, prices, { bandPerHa?, rows?: true, shortfallTolerancePerHa? }): AcrossSiteAnalysis
+ * repriceAcrossSites(analysis, prices, { rows?: true, shortfallTolerancePerHa? }): AcrossSiteAnalysis
  *   // no refit; rows: false re-prices only the regional curves (about 2 ms at 500 sites)
  * sortSiteRows(rows, key: SiteRowKey, 'asc' | 'desc'): SiteModelRow[]       // stable, empty values last
  * filterSiteRows(rows, { sites?, models?, statuses?, aiccWinnersOnly?, responded?, group?, siteContains?,
@@ -60,7 +60,7 @@
  * Every test is { result: { kind: 'f-test', df1, df2, f, p, extraSse } | { kind: 'no-test', reason },
  * sentence } and lists the sites it left out with the reason. RegionalReturn holds the mean
  * return curve (gridKgHa, meanReturnPerHa), bestRateKgHa, profitableRange { lowKgHa, highKgHa,
- * bandPerHa, contiguous }, siteOptima and siteOptimumDistribution (min, quartiles, median, max).
+ * bandPerHa (the tolerance in force), contiguous }, siteOptima and siteOptimumDistribution (min, quartiles, median, max).
  * Show `regional.text.cautions` wherever the regional rate is shown. "Responded" = the site's rate
  * effect (yield on rate as a factor, with blocks) is significant at alpha. With one model for all
  * sites, a site where that model reaches no plateau enters the regional mean through its limit

@@ -11,7 +11,6 @@ import { ANALYSIS_DEFAULTS } from './analysisSettings';
 import type { PlotTable } from '../table/plotTable';
 import type { LevelTerms } from './commonResponseTests';
 import { rateGrid } from './rateGrid';
-import { ONE_PER_ACRE_IN_PER_HA } from './regionalReturn';
 import { sitePlots, type SitePlots } from './sitePlots';
 import { SitesInputError } from './sitesInputError';
 
@@ -56,11 +55,10 @@ export interface AcrossSiteOptions {
   gridFromKgHa?: number;
   /** Grid end, kg/ha; default the lowest of the sites' highest tested rates (no curve extrapolated). */
   gridToKgHa?: number;
-  /** Profitable band below the best mean return, currency/ha; default 1 per acre (common practice). */
-  bandPerHa?: number;
   /**
-   * Shortfall beyond which a rate counts as falling short of a site's best in the regional
-   * risk, currency/ha; default null: the cost of 10 kg N/ha at the prices in force
+   * The user's tolerance, currency/ha: a rate returning less than the best by more than this
+   * falls short (the risk tables), and the rates within it of the best regional return are the
+   * profitable range; default null: the cost of 10 kg N/ha at the prices in force
    * (defaultShortfallTolerancePerHa).
    */
   shortfallTolerancePerHa?: number | null;
@@ -152,17 +150,13 @@ export function planAcrossSites(
     gridStepKgHa: options.gridStepKgHa ?? 1,
     gridFromKgHa: options.gridFromKgHa ?? 0,
     gridToKgHa: options.gridToKgHa ?? null,
-    bandPerHa: options.bandPerHa ?? ONE_PER_ACRE_IN_PER_HA,
     shortfallTolerancePerHa: options.shortfallTolerancePerHa ?? null,
     alpha,
     levels: options.levels ?? 'site',
     groupKeys: options.groupKeys ?? [...keys].filter((k) => !skipped.has(k)),
   };
-  // Check prices, band and grid once, before any fitting.
+  // Check prices, tolerance and grid once, before any fitting.
   assertPrices(o.prices);
-  if (!(Number.isFinite(o.bandPerHa) && o.bandPerHa >= 0)) {
-    throw new SitesInputError('bad-argument', `bandPerHa is ${o.bandPerHa}; it must be 0 or more.`);
-  }
   if (o.shortfallTolerancePerHa !== null) assertTolerance(o.shortfallTolerancePerHa);
   rateGrid(o.gridFromKgHa, o.gridToKgHa ?? o.gridFromKgHa, o.gridStepKgHa);
   return { plots, options: o, groupKeysSkipped };

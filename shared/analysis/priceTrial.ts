@@ -228,8 +228,8 @@ function recommendationAt(
  * @param prices - canonical prices
  * @param choices - site → the analyst's model
  * @param level - interval level, e.g. 0.9
- * @param bandPerHa - profitable band, currency/ha
- * @param tolerancePerHa - shortfall tolerance, currency/ha; default the cost of 10 kg N/ha
+ * @param tolerancePerHa - the tolerance, currency/ha (the profitable range's band below the best
+ *   return and the shortfall risk's limit); default the cost of 10 kg N/ha
  * @returns the site's lead, optimum, interval, profitable range, price-ratio sensitivity and
  *   shortfall risk
  * @throws {StatsInputError} "bad-argument" for a bad price or a negative tolerance
@@ -239,7 +239,6 @@ export function priceSite(
   prices: Prices,
   choices: Readonly<Record<string, ModelName>>,
   level: number,
-  bandPerHa: number,
   tolerancePerHa: number = toleranceInForce(null, prices),
 ): PricedSite {
   const lead = siteLead(s, choices);
@@ -275,7 +274,7 @@ export function priceSite(
       lead.basis === 'no-response'
         ? null
         : optimumProfileInterval(fit, s.joinProfiles[model] ?? null, prices, level),
-    profitableRangeKgHa: profitableRange(s, model, lead.basis, prices, bandPerHa),
+    profitableRangeKgHa: profitableRange(s, model, lead.basis, prices, tolerancePerHa),
     acrossModels: optimumAcrossModels(s.fits!.fits, s.fits!.ranking, prices),
     priceRatioSensitivity: sensitivity,
     shortfallRisk: s.draws
@@ -309,13 +308,12 @@ export function priceTrial(
     shortfallTolerancePerHa: given,
   });
   const { intervalLevel } = analysis.settings;
-  const band = across.options.bandPerHa;
   return {
     prices: { ...prices },
     shortfallTolerance: { perHa: tolerance, isDefault: given === null },
     choices: { ...choices },
     across,
-    sites: across.sites.map((s) => priceSite(s, prices, choices, intervalLevel, band, tolerance)),
+    sites: across.sites.map((s) => priceSite(s, prices, choices, intervalLevel, tolerance)),
     mixedOptimum:
       across.mixed.model === null
         ? null

@@ -84,8 +84,8 @@ export type RegionalAtPrices = Pick<
  * price-ratio table and its shortfall risk.
  * @param r - the price-free parts (grid gains, gains at the tested rates, resampled site-years)
  * @param prices - canonical prices
- * @param bandPerHa - profitable band, currency/ha
- * @param tolerancePerHa - shortfall tolerance, currency/ha
+ * @param tolerancePerHa - the tolerance, currency/ha: the profitable range's band below the best
+ *   return and the shortfall risk's limit (one rule, shared/economics/shortfallRule)
  * @returns the priced parts
  * @throws {StatsInputError} "bad-argument" for a price that is not positive
  */
@@ -94,9 +94,9 @@ export function regionalAtPrices(
     resampled?: ResampledRegionalGains | null;
   },
   prices: Prices,
-  bandPerHa: number,
   tolerancePerHa: number,
 ): RegionalAtPrices {
+  const bandPerHa = tolerancePerHa;
   const regional = regionalReturnAtPrices(r.prepared, prices, { bandPerHa });
   const sensitivity = priceRatioSensitivity(prices, (scaled, m) => {
     const at = m === 1 ? regional : regionalReturnAtPrices(r.prepared, scaled, { bandPerHa });
@@ -170,7 +170,7 @@ export function regionalAnalysis(
   const tolerance = toleranceInForce(o.shortfallTolerancePerHa, o.prices);
   const resampled = resampleRegionalGains(prepared, o.resamples, o.seed, o.intervalLevel);
   return {
-    ...regionalAtPrices({ prepared, atTestedRates, resampled }, o.prices, o.bandPerHa, tolerance),
+    ...regionalAtPrices({ prepared, atTestedRates, resampled }, o.prices, tolerance),
     resampled,
     sitesUsed,
     sitesLeftOut: leftOut,

@@ -39,6 +39,24 @@ export interface RegionalRateInterval {
   /** For each candidate rate, the share of resamples in which it returns within the tolerance of their best. */
   withinTolerance: { rateKgHa: number; share: number }[];
   tolerancePerHa: number;
+  /** The same resamples read along the whole grid, for the regional chart. */
+  alongGrid: ReturnAlongGrid;
+}
+
+/**
+ * The resampled regional return at every grid rate (ResampledRegionalGains.gridKgHa): the central
+ * `level` share of the resamples' mean net return (type 7 quantiles, pointwise, so the band shows
+ * how far the mean curve itself could move, not where a single site's return lies), and the share
+ * of resamples in which the rate returns less than that resample's best by more than the
+ * tolerance.
+ */
+export interface ReturnAlongGrid {
+  /** Lower end of the pointwise band, currency/ha. */
+  lowPerHa: Float64Array;
+  /** Upper end of the pointwise band, currency/ha. */
+  highPerHa: Float64Array;
+  /** Share of resamples in which the rate falls short of their best by more than the tolerance, in [0, 1]. */
+  shortShare: Float64Array;
 }
 
 /**
@@ -102,30 +120,40 @@ export function regionalRateInterval(
     for (let j = 1; j < g; j++) if (Math.abs(gridKgHa[j] - x) < Math.abs(gridKgHa[k] - x)) k = j;
     return k;
   });
-  const close = new Float64Array(candidatesKgHa.length);
-  const best = new Float64Array(meanGains.length);
+  const count = meanGains.length;
+  const best = new Float64Array(count);
+  // Returns grid-major (rate j's resamples side by side), so each rate's band is one sort.
+  const returns = new Float64Array(g * count);
+  const short = new Float64Array(g);
   const r = new Float64Array(g);
   meanGains.forEach((mean, b) => {
     for (let j = 0; j < g; j++) r[j] = prices.grainPricePerKg * mean[j] - cost[j];
     // The regional rate's own rule for the best (ties to the lowest rate).
     const top = argMaxLowest(r);
     best[b] = gridKgHa[top];
-    at.forEach((k, c) => {
-      if (r[k] >= r[top] - tolerancePerHa) close[c]++;
-    });
+    for (let j = 0; j < g; j++) {
+      returns[j * count + b] = r[j];
+      if (r[j] < r[top] - tolerancePerHa) short[j]++;
+    }
   });
   best.sort();
   const tail = (1 - level) / 2;
+  const lowPerHa = new Float64Array(g);
+  const highPerHa = new Float64Array(g);
+  for (let j = 0; j < g; j++) {
+    const column = returns.subarray(j * count, (j + 1) * count).sort();
+    lowPerHa[j] = sortedQuantile(column, tail);
+    highPerHa[j] = sortedQuantile(column, 1 - tail);
+    short[j] /= count;
+  }
   return {
     level,
     lowKgHa: sortedQuantile(best, tail),
     highKgHa: sortedQuantile(best, 1 - tail),
     resamples: meanGains.length,
     siteYears: resampled.siteYears,
-    withinTolerance: candidatesKgHa.map((x, c) => ({
-      rateKgHa: x,
-      share: close[c] / meanGains.length,
-    })),
+    withinTolerance: candidatesKgHa.map((x, c) => ({ rateKgHa: x, share: 1 - short[at[c]] })),
     tolerancePerHa,
+    alongGrid: { lowPerHa, highPerHa, shortShare: short },
   };
 }

@@ -10,8 +10,9 @@
  * at all (shared/economics Prices, default 0). The regional curve is the plain mean over
  * sites, R̄(x) = (1/S) Σ_s R_s(x); the regional rate is the grid rate with the
  * highest R̄, and the profitable range is every grid rate whose R̄ is within a
- * band of that best (1 currency unit per acre, 2.471 per ha, is the usual
- * band: common practice, no document).
+ * band of that best. The band is the user's own tolerance, the same number that says when a rate
+ * "falls short" in the risk tables (shared/economics/shortfallRule; default the cost of 10 kg N/ha
+ * at the user's nitrogen price), so "profitable" and "short" never disagree.
  *
  * Price sensitivity: the yield gains ŷ_s(x) − ŷ_s(0) do not depend on prices, so
  * prepareRegionalReturn() evaluates them once and regionalReturnAtPrices()
@@ -27,7 +28,7 @@
  */
 import { assertPrices, type Prices } from '../economics/priceRatio';
 import { sortedQuantile } from '../stats/quantile';
-import { M2_PER_ACRE, M2_PER_HA } from '../units/unitConstants';
+import { toleranceInForce } from '../economics/shortfallRule';
 import { SitesInputError } from './sitesInputError';
 
 /** A site's fitted response, as yield gain over its own zero-rate check. */
@@ -40,9 +41,6 @@ export interface SiteGainCurve {
    */
   gainKgHa: (rateKgHa: number) => number;
 }
-
-/** A band of 1 currency unit per acre expressed per hectare (≈ 2.471); common practice. */
-export const ONE_PER_ACRE_IN_PER_HA = M2_PER_HA / M2_PER_ACRE;
 
 export interface PreparedRegionalReturn {
   /** Grid rates, kg/ha. */
@@ -97,7 +95,11 @@ export interface RegionalReturn {
 }
 
 export interface RegionalReturnOptions {
-  /** Band below the best mean return, currency/ha; default ONE_PER_ACRE_IN_PER_HA. */
+  /**
+   * Band below the best mean return, currency/ha; default the shortfall tolerance's default
+   * (shared/economics/shortfallRule: the cost of 10 kg N/ha), so "profitable" and "falls short"
+   * are one rule with one number.
+   */
   bandPerHa?: number;
 }
 
@@ -154,7 +156,7 @@ export function argMaxLowest(values: ArrayLike<number>): number {
  * @param prepared - from prepareRegionalReturn
  * @param prices - grain price (currency/kg grain), nutrient price (currency/kg N), optional
  *   application cost (currency/ha)
- * @param options - the profitable band, currency/ha (default 1 per acre)
+ * @param options - the profitable band, currency/ha (default the shortfall tolerance's default)
  * @returns the regional return curve and what it recommends
  * @throws {StatsInputError} "bad-argument" for a price that is not positive (shared/economics)
  * @throws {SitesInputError} "bad-argument" for a negative or non-finite band
@@ -167,7 +169,7 @@ export function regionalReturnAtPrices(
   options: RegionalReturnOptions = {},
 ): RegionalReturn {
   assertPrices(prices);
-  const bandPerHa = options.bandPerHa ?? ONE_PER_ACRE_IN_PER_HA;
+  const bandPerHa = options.bandPerHa ?? toleranceInForce(null, prices);
   if (!(Number.isFinite(bandPerHa) && bandPerHa >= 0)) {
     throw new SitesInputError('bad-argument', `bandPerHa is ${bandPerHa}; it must be 0 or more.`);
   }

@@ -12,8 +12,6 @@ import { regionalAtPrices, type RegionalAnalysis } from './regionalAnalysis';
 import { siteModelRows } from './siteModelRows';
 
 export interface RepriceOptions {
-  /** New profitable band, currency/ha; default the analysis' band. */
-  bandPerHa?: number;
   /**
    * Re-price the side-by-side rows too (default true). A slider that shows only the regional
    * curve can pass false and re-price the rows when it stops: the rows cost one
@@ -21,30 +19,25 @@ export interface RepriceOptions {
    */
   rows?: boolean;
   /**
-   * Shortfall tolerance of the regional risk, currency/ha; default the analysis' setting, else
-   * the cost of 10 kg N/ha at the new prices.
+   * The tolerance (shortfall risk and profitable range), currency/ha; default the analysis'
+   * setting, else the cost of 10 kg N/ha at the new prices.
    */
   shortfallTolerancePerHa?: number | null;
 }
 
-function reprice(
-  r: RegionalAnalysis,
-  prices: Prices,
-  bandPerHa: number,
-  tolerancePerHa: number,
-): RegionalAnalysis {
-  return { ...r, ...regionalAtPrices(r, prices, bandPerHa, tolerancePerHa) };
+function reprice(r: RegionalAnalysis, prices: Prices, tolerancePerHa: number): RegionalAnalysis {
+  return { ...r, ...regionalAtPrices(r, prices, tolerancePerHa) };
 }
 
 /**
  * The same analysis at other prices; the fits and tests are shared, not copied.
  * @param analysis - from analyzeAcrossSites
  * @param prices - grain and nutrient price (currency/kg), optional application cost (currency/ha)
- * @param options - a new profitable band (currency/ha)
+ * @param options - a new tolerance (currency/ha); rows or not
  * @returns a new analysis with rows (unless rows: false, when the old rows are kept), regional
  *   rates and group regional rates at these prices
  * @throws {StatsInputError} "bad-argument" for a price that is not positive
- * @throws {SitesInputError} "bad-argument" for a negative band
+ * @throws {StatsInputError} "bad-argument" for a negative tolerance
  * @example
  * const dearer = repriceAcrossSites(a, { grainPricePerKg: 0.18, nutrientPricePerKg: 1.4 });
  * dearer.regional.regional.bestRateKgHa // lower than at 1.1 per kg N
@@ -54,16 +47,14 @@ export function repriceAcrossSites(
   prices: Prices,
   options: RepriceOptions = {},
 ): AcrossSiteAnalysis {
-  const bandPerHa = options.bandPerHa ?? analysis.options.bandPerHa;
   const given = options.shortfallTolerancePerHa ?? analysis.options.shortfallTolerancePerHa;
   const tolerance = toleranceInForce(given, prices);
-  const regional = reprice(analysis.regional, prices, bandPerHa, tolerance);
+  const regional = reprice(analysis.regional, prices, tolerance);
   return {
     ...analysis,
     options: {
       ...analysis.options,
       prices: { ...prices },
-      bandPerHa,
       shortfallTolerancePerHa: given,
     },
     regional,
@@ -75,7 +66,7 @@ export function repriceAcrossSites(
       ...g,
       values: g.values.map((v) => ({
         ...v,
-        regional: reprice(v.regional, prices, bandPerHa, tolerance),
+        regional: reprice(v.regional, prices, tolerance),
       })),
     })),
   };

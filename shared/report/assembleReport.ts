@@ -28,6 +28,7 @@ import { intervalSharesWarning } from './intervalShares';
 import { fitMessage, optimumNote } from './modelNotes';
 import { priceTerms } from '../economics/priceQuote';
 import type { DisplaySettings } from './reportSettings';
+import { regionalChartData } from './regionalReturnChart';
 import { isBlockLabel } from '../stats/hasBlocks';
 import type {
   AcrossSitesReport,
@@ -418,15 +419,6 @@ function acrossSitesOf(
       verdict: x.sentence,
     });
   }
-  // Thin the curve for charts and files: about 200 points is smooth at report sizes.
-  const grid = regional.gridKgHa;
-  const every = Math.max(1, Math.floor(grid.length / 200));
-  const rateKgHa: number[] = [];
-  const returnPerHa: number[] = [];
-  for (let i = 0; i < grid.length; i += every) {
-    rateKgHa.push(grid[i]);
-    returnPerHa.push(regional.meanReturnPerHa[i]);
-  }
   return {
     sites: sitesUsed.map((u) => u.site),
     bestRateKgHa: regional.bestRateKgHa,
@@ -434,7 +426,7 @@ function acrossSitesOf(
     bandPerHa: regional.profitableRange.bandPerHa,
     bestMeanReturnPerHa: regional.bestMeanReturnPerHa,
     meanYieldGainAtBestKgHa: regional.meanYieldGainAtBestKgHa,
-    returnCurve: { rateKgHa, returnPerHa },
+    chart: regionalChartData(regional, analysis.regional.rateInterval),
     siteOptima: regional.siteOptima.map((o) => ({
       site: o.site,
       rateKgHa: o.rateKgHa,

@@ -63,8 +63,11 @@ export interface CurveLayer {
   name: string;
   /** The model this curve comes from; null for a curve that is not a model fit. */
   model: ChartModelName | null;
-  /** "chosen" is drawn bold; "alternative" thin; "return" is an economic return curve. */
-  role: 'chosen' | 'alternative' | 'return';
+  /**
+   * "chosen" is drawn bold; "alternative" thin; "return" is an economic return curve; "risk" a
+   * share in percent (how often a rate falls short), drawn in its own color.
+   */
+  role: 'chosen' | 'alternative' | 'return' | 'risk';
   /** x values in axis units, increasing. */
   x: number[];
   /** y values in axis units; same length as `x`. */
@@ -85,6 +88,22 @@ export interface RateBandLayer {
   high: number;
 }
 
+/**
+ * A shaded ribbon between two lines over the same x values: how far a curve could move (a
+ * pointwise interval), e.g. the regional mean return over resampled site-years.
+ */
+export interface RibbonLayer {
+  kind: 'ribbon';
+  name: string;
+  role: 'returnBand';
+  /** x values in axis units, increasing. */
+  x: number[];
+  /** Lower edge at each x, y-axis units. */
+  low: number[];
+  /** Upper edge at each x, y-axis units. */
+  high: number[];
+}
+
 /** A vertical line at one x value with a short label: the optimum or best rate. */
 export interface RateMarkerLayer {
   kind: 'marker';
@@ -97,7 +116,7 @@ export interface RateMarkerLayer {
 }
 
 /** Any layer of a panel. */
-export type ChartLayer = PointLayer | CurveLayer | RateBandLayer | RateMarkerLayer;
+export type ChartLayer = PointLayer | CurveLayer | RateBandLayer | RibbonLayer | RateMarkerLayer;
 
 /** One panel: its own axes and layers. Panels of a chart share the width. */
 export interface ChartPanel {
@@ -142,6 +161,8 @@ export const chartPalette = {
   return: '#1f5fa8',
   optimumInterval: 'rgba(217, 115, 26, 0.18)',
   profitableRange: 'rgba(42, 140, 111, 0.18)',
+  returnBand: 'rgba(31, 95, 168, 0.16)',
+  risk: '#b5475b',
   optimumRate: '#d9731a',
   bestRate: '#2a8c6f',
   grid: '#e4e4e4',

@@ -9,6 +9,7 @@ import { paperSize, type PaperSize } from './paperSize';
 import { recommendationCautions } from '../economics/recommendationCautions';
 import { crops } from '../units/crops';
 import { formatQuantity } from '../units/formatQuantity';
+import { formatMoney, formatMoneyPerArea } from '../units/formatMoney';
 import { products } from '../units/products';
 import { priceWeightName } from '../units/unitWeights';
 import type { TrialReport, YearComparisonReport } from './trialReport';
@@ -125,23 +126,25 @@ export function growerPage(report: TrialReport, which: string | 'region'): Growe
   const fmtRate = (kgHa: number): string =>
     formatQuantity(applicationRound(u.rate(kgHa), ru), `${ru}`, 0).replace(ru, nutrientUnit(ru));
   const fmtYield = (kgHa: number): string => formatQuantity(u.yield(kgHa), yu);
-  const money = (perHa: number): string =>
-    `${perHa < 0 ? '−' : ''}${Math.abs(u.perArea(perHa)).toFixed(2)} per ${u.areaName}`;
   const { settings, prices } = report;
+  const { currency, locale } = settings;
+  const money = (perHa: number): string => formatMoneyPerArea(perHa, currency, ru, locale);
+  const price = (amount: number, decimals: number): string =>
+    formatMoney(amount, currency, locale, decimals);
   const product = settings.prices.product ? products(settings.prices.product.id) : null;
   const priceFacts: GrowerFact[] = [
     {
       label: 'Grain price',
-      value: `${settings.prices.grainPrice.toFixed(2)} per ${priceWeightName(yu)}`,
+      value: `${price(settings.prices.grainPrice, 2)} per ${priceWeightName(yu)}`,
     },
     product
       ? {
           label: 'Product price',
-          value: `${settings.prices.product!.price.toFixed(3)} per ${priceWeightName(ru)} of ${product.label} (${prices.nutrientPriceDisplay.toFixed(3)} per ${priceWeightName(ru)} N)`,
+          value: `${price(settings.prices.product!.price, 3)} per ${priceWeightName(ru)} of ${product.label} (${price(prices.nutrientPriceDisplay, 3)} per ${priceWeightName(ru)} N)`,
         }
       : {
           label: 'Nitrogen price',
-          value: `${prices.nutrientPriceDisplay.toFixed(3)} per ${priceWeightName(ru)} N`,
+          value: `${price(prices.nutrientPriceDisplay, 3)} per ${priceWeightName(ru)} N`,
         },
     {
       label: 'Price ratio (N : grain)',
@@ -185,13 +188,17 @@ export function growerPage(report: TrialReport, which: string | 'region'): Growe
         { label: 'Mean yield gain over no N', value: fmtYield(a.meanYieldGainAtBestKgHa) },
         { label: 'Mean net return over no N', value: money(a.bestMeanReturnPerHa) },
       ],
-      certainty: spreadCertainty(
-        a.siteOptima.map((o) => o.rateKgHa),
+      certainty: withSiteYearInterval(
+        spreadCertainty(
+          a.siteOptima.map((o) => o.rateKgHa),
+          fmtRate,
+        ),
+        a.bestRateInterval,
         fmtRate,
       ),
       basis: [
         `${a.sites.length} sites: ${a.sites.join(', ')}.`,
-        `The rate with the highest net return averaged over the sites' fitted curves; rates within ${money(a.bandPerHa)} of that best return count as profitable.`,
+        `The rate with the highest net return averaged over the sites' fitted curves (maximum return to N across sites); rates within ${money(a.bandPerHa)} of that best return, the tolerance set with the prices, count as profitable.`,
         ...a.notes,
       ],
       warnings,
@@ -345,6 +352,23 @@ function spreadCertainty(
   return {
     level: 'not very sure',
     text: `Not very sure: ${text} Fields differ a lot; a field's own trial or test tells more.`,
+  };
+}
+
+/**
+ * The regional certainty with the regional rate's own interval from resampling site-years added
+ * in plain words, where there is one: the spread of single sites says how much fields differ, the
+ * interval how well these site-years pin down the average.
+ */
+function withSiteYearInterval(
+  certainty: GrowerPage['certainty'],
+  interval: { lowKgHa: number; highKgHa: number; level: number } | null,
+  fmt: (v: number) => string,
+): GrowerPage['certainty'] {
+  if (!interval) return certainty;
+  return {
+    ...certainty,
+    text: `${certainty.text} With other site-years like these the regional rate could have come out anywhere from ${fmt(interval.lowKgHa)} to ${fmt(interval.highKgHa)} (${Math.round(interval.level * 100)} in 100 resamples of the site-years).`,
   };
 }
 

@@ -20,6 +20,13 @@ export interface DisplaySettings {
   unitSystem: 'us' | 'metric' | null;
   /** Prices as the user quoted them in the display units (the analysis has them canonical). */
   prices: PriceInput;
+  /**
+   * The currency the prices are in: an ISO 4217 code such as "USD" (or the user's own label),
+   * written on every amount (shared/units/formatMoney).
+   */
+  currency: string;
+  /** BCP 47 locale of the numbers in text (the screen's); undefined: the platform's. */
+  locale?: string;
   /** Paper of the printed pages and workbook; default paperSize of the units (Letter for US units). */
   paper?: PaperSize;
 }

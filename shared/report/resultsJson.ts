@@ -133,6 +133,8 @@ export interface ResultsJson {
   settings: {
     units: { rate: string; yield: string };
     crop: string;
+    /** The prices' currency (ISO 4217 code, or the user's label); money fields are in it. */
+    currency: string;
     grainPrice: number;
     nutrientPrice: number;
     priceRatio: number;
@@ -250,7 +252,7 @@ export function resultsJson(report: TrialReport): ResultsJson {
   // Grain per unit of N in the unit the price ratio is quoted in (a scale factor).
   const perN = (kgPerKg: number) =>
     clean(priceRatioQuote(kgPerKg, settings.units, report.crop).value);
-  const moneyUnit = `currency/${u.areaName}`;
+  const moneyUnit = `${settings.currency}/${u.areaName}`;
   const range = (r: [number, number]): [number, number] => [
     clean(u.rate(r[0])),
     clean(u.rate(r[1])),
@@ -266,6 +268,7 @@ export function resultsJson(report: TrialReport): ResultsJson {
     settings: {
       units: { rate: settings.units.rate, yield: settings.units.yield },
       crop: report.crop,
+      currency: settings.currency,
       grainPrice: clean(settings.prices.grainPrice),
       nutrientPrice: clean(prices.nutrientPriceDisplay),
       priceRatio: clean(prices.priceRatioDisplay),

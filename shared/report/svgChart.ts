@@ -68,7 +68,13 @@ function extent(layers: ChartLayer[], axis: 'x' | 'y'): [number, number] {
   };
   for (const l of layers) {
     if (l.kind === 'points' || l.kind === 'curve') l[axis].forEach(take);
-    else if (axis === 'x' && l.kind === 'band') {
+    else if (l.kind === 'ribbon') {
+      if (axis === 'x') l.x.forEach(take);
+      else {
+        l.low.forEach(take);
+        l.high.forEach(take);
+      }
+    } else if (axis === 'x' && l.kind === 'band') {
       take(l.low);
       take(l.high);
     } else if (axis === 'x' && l.kind === 'marker') take(l.x);
@@ -131,6 +137,7 @@ function pointStyle(layer: PointLayer): { symbol: ChartSymbol; style: string } {
 function curveStyle(layer: CurveLayer, index: number): string {
   if (layer.role === 'chosen') return `stroke="${chartPalette.chosen}" stroke-width="2.6"`;
   if (layer.role === 'return') return `stroke="${chartPalette.return}" stroke-width="2.4"`;
+  if (layer.role === 'risk') return `stroke="${chartPalette.risk}" stroke-width="2.2"`;
   // Alternatives differ by dash so they stay apart in greyscale print: a model's
   // curve has its own (its curve entry's, as on the screen), any other curve one by order.
   const dash = layer.model
@@ -159,7 +166,7 @@ function legendItems(panel: ChartPanel, size: number): LegendItem[] {
         swatch: `<line x1="0" y1="${n(-size * 0.35)}" x2="16" y2="${n(-size * 0.35)}" ${style} fill="none"/>`,
         text: l.name,
       });
-    } else if (l.kind === 'band') {
+    } else if (l.kind === 'band' || l.kind === 'ribbon') {
       items.push({
         swatch: `<rect x="0" y="${n(-size * 0.8)}" width="16" height="${n(size * 0.9)}" fill="${chartPalette[l.role]}"/>`,
         text: l.name,
@@ -265,6 +272,19 @@ function drawPanel(
       out.push(
         `<rect x="${n(x1)}" y="${n(box.y)}" width="${n(Math.max(1, x2 - x1))}" height="${n(box.h)}" fill="${chartPalette[l.role]}"/>`,
       );
+    } else if (l.kind === 'ribbon') {
+      const upper: string[] = [];
+      const lower: string[] = [];
+      l.x.forEach((xv, i) => {
+        if (!(Number.isFinite(xv) && Number.isFinite(l.low[i]) && Number.isFinite(l.high[i])))
+          return;
+        upper.push(`${n(sx(xv))},${n(sy(l.high[i]))}`);
+        lower.push(`${n(sx(xv))},${n(sy(l.low[i]))}`);
+      });
+      if (upper.length > 1)
+        out.push(
+          `<polygon points="${[...upper, ...lower.reverse()].join(' ')}" fill="${chartPalette[l.role]}" stroke="none"/>`,
+        );
     } else if (l.kind === 'curve') {
       const pts: string[] = [];
       l.x.forEach((xv, i) => {

@@ -21,6 +21,7 @@ import type { Plot, SourceFile, CropId } from '../table/plotTable';
 export type { MappingEntry } from '../import/mappingEntries';
 import type { PriceTerms } from '../economics/priceQuote';
 import type { ReportSettings } from './reportSettings';
+import type { RegionalChartData } from './regionalReturnChart';
 
 /** One model's fit at one site, as the model table and the JSON show it. */
 export interface ModelRow {
@@ -219,8 +220,8 @@ export interface AcrossSitesReport {
   bandPerHa: number;
   bestMeanReturnPerHa: number;
   meanYieldGainAtBestKgHa: number;
-  /** The regional mean return curve, for the chart. */
-  returnCurve: { rateKgHa: number[]; returnPerHa: number[] };
+  /** The regional chart's curve, ribbon and risk (shared/report/regionalReturnChart). */
+  chart: RegionalChartData;
   siteOptima: { site: string; rateKgHa: number; returnPerHa: number }[];
   /** The regional rate and profitable range at 0.5, 0.75, 1, 1.5 and 2 times the price ratio. */
   priceRatioSensitivity: SensitivitySummaryRow[];

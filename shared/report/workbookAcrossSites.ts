@@ -37,7 +37,7 @@ export function workbookAcrossSites(
   const ru = u.units.rate;
   // "lb N/ac": the rate is of nutrient, written the way agronomists write it.
   const rN = ru.replace('/', ' N/');
-  const money = `currency/${u.areaName}`;
+  const money = `${report.settings.currency}/${u.areaName}`;
   ws.getCell('A1').value = 'Across sites: one rate for the region';
   styleTitle(ws.getCell('A1'), 14);
   const a = report.acrossSites;

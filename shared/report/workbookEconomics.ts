@@ -27,23 +27,27 @@ export function workbookEconomics(
   ws.getCell('A1').value = 'Prices and price ratio';
   styleTitle(ws.getCell('A1'), 14);
   const rows: [string, string | number, string?][] = [
-    [`Grain price (currency/${yw})`, settings.prices.grainPrice, '0.00'],
+    [`Grain price (${settings.currency}/${yw})`, settings.prices.grainPrice, '0.00'],
   ];
   if (settings.prices.product) {
     const p = products(settings.prices.product.id);
     rows.push(['Product', p.label]);
     rows.push(['Product N content (%)', p.nitrogenPct, '0']);
     rows.push([
-      `Product price (currency/${rw} of product)`,
+      `Product price (${settings.currency}/${rw} of product)`,
       settings.prices.product.price,
       '0.000',
     ]);
   }
-  rows.push([`Nitrogen price (currency/${rw} N)`, prices.nutrientPriceDisplay, '0.000']);
+  rows.push([
+    `Nitrogen price (${settings.currency}/${rw} N)`,
+    prices.nutrientPriceDisplay,
+    '0.000',
+  ]);
   rows.push([`Price ratio (${prices.priceRatioUnit})`, prices.priceRatioDisplay, '0.0000']);
   rows.push(['Price ratio (kg grain/kg N)', prices.priceRatioKgPerKg, '0.00']);
-  rows.push(['Grain price (currency/kg)', prices.grainPricePerKg, '0.0000']);
-  rows.push(['Nitrogen price (currency/kg N)', prices.nutrientPricePerKg, '0.000']);
+  rows.push([`Grain price (${settings.currency}/kg)`, prices.grainPricePerKg, '0.0000']);
+  rows.push([`Nitrogen price (${settings.currency}/kg N)`, prices.nutrientPricePerKg, '0.000']);
   rows.push([
     'Prices given by the user',
     settings.prices.defaulted ? 'no: illustrative defaults, replace them with your own' : 'yes',

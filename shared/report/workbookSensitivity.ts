@@ -49,7 +49,7 @@ export function workbookSensitivity(
   const ws = wb.addWorksheet(SENSITIVITY_SHEET);
   const ru = u.units.rate;
   const rN = ru.replace('/', ' N/');
-  const money = `currency/${u.areaName}`;
+  const money = `${report.settings.currency}/${u.areaName}`;
   const prUnit = report.prices.priceRatioUnit;
   const quoted = (kgPerKg: number) =>
     priceRatioQuote(kgPerKg, report.settings.units, report.crop).value;

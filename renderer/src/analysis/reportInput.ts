@@ -34,5 +34,7 @@ export function reportDisplay(
     unitSystem: system,
     paper: paperSize(units, locale),
     prices: quotePrices(prices, units, crop, prices.illustrative),
+    currency: prices.currency,
+    ...(locale ? { locale } : {}),
   };
 }

@@ -7,11 +7,9 @@ import type { EconomicOptimum } from '../../../shared/economics/economicOptimum'
 import { leadingModelLabel, modelLabel } from '../../../shared/models/curves';
 import type { ModelName } from '../../../shared/models/modelTypes';
 import type { ChartLayer, ChartSpec, PointLayer } from '../../../shared/report/chartSpec';
-import type { RegionalReturn } from '../../../shared/analysis/regionalReturn';
 import type { CropId, Plot } from '../../../shared/table/plotTable';
 import { rateFromKgHa, type RateUnit } from '../../../shared/units/convertRate';
 import { yieldFromKgHa, type YieldUnit } from '../../../shared/units/convertYield';
-import { M2_PER_ACRE, M2_PER_HA } from '../../../shared/units/unitConstants';
 import type { SiteAnalysis } from './siteAnalysis';
 
 /** Units and crop a chart is drawn in. */
@@ -194,61 +192,6 @@ export function sitesOverlaySpec(
         y: { title: 'Yield', unit: units.yield },
         heightShare: 1,
         layers,
-      },
-    ],
-    note: '',
-  };
-}
-
-/**
- * The regional return chart: mean net return over the checks against rate,
- * with the best rate and the profitable range.
- * @param regional - the regional return at current prices
- * @param units - display units (money per display area)
- * @returns the chart description
- */
-export function regionalReturnSpec(regional: RegionalReturn, units: ChartUnits): ChartSpec {
-  const perArea = units.rate === 'lb/ac' ? 'ac' : 'ha';
-  // Money per ha → per acre: × ha per acre.
-  const money = (v: number) => (perArea === 'ac' ? (v * M2_PER_ACRE) / M2_PER_HA : v);
-  const r = (v: number) => rateFromKgHa(v, units.rate);
-  const best = r(regional.bestRateKgHa);
-  return {
-    title: 'Regional net return over the check',
-    subtitle: `Mean over ${regional.siteOptima.length} sites`,
-    widthPx: 900,
-    heightPx: 420,
-    panels: [
-      {
-        id: 'return',
-        title: '',
-        x: { title: 'N rate', unit: nutrientRateUnit(units.rate) },
-        y: { title: 'Net return over check', unit: `${units.currency}/${perArea}`, zeroLine: true },
-        heightShare: 1,
-        layers: [
-          {
-            kind: 'band',
-            name: 'Profitable range',
-            role: 'profitableRange',
-            low: r(regional.profitableRange.lowKgHa),
-            high: r(regional.profitableRange.highKgHa),
-          },
-          {
-            kind: 'curve',
-            name: 'Mean net return',
-            model: null,
-            role: 'return',
-            x: Array.from(regional.gridKgHa, r),
-            y: Array.from(regional.meanReturnPerHa, money),
-          },
-          {
-            kind: 'marker',
-            name: 'Best rate',
-            role: 'bestRate',
-            x: best,
-            label: `Best ${Math.round(best)}`,
-          },
-        ],
       },
     ],
     note: '',

@@ -15,7 +15,8 @@ import {
   type DisplayUnits as SharedDisplayUnits,
   type UnitSystem,
 } from '../../../shared/units/displayUnits';
-import { M2_PER_ACRE, M2_PER_HA } from '../../../shared/units/unitConstants';
+// Money has one owner in the engine, shared by the screen and the reports.
+export { formatMoney, formatMoneyPerArea } from '../../../shared/units/formatMoney';
 
 /** The one switch between unit families ('metric' or 'us'), as shared/units names it. */
 export type { UnitSystem };
@@ -169,36 +170,6 @@ export function formatYield(
 }
 
 /**
- * Money in a currency, in the locale. An unknown currency code (a user's own
- * label) falls back to the number followed by the label.
- * @param amount - the amount
- * @param currency - ISO 4217 code such as 'USD', or any label
- * @param locale - a BCP 47 tag
- * @param decimals - digits after the separator, 2 unless told
- * @returns e.g. '$1.20' or '1,20 €'
- * @example
- * formatMoney(1.2, 'USD', 'en-US') // '$1.20'
- */
-export function formatMoney(
-  amount: number | null,
-  currency: string,
-  locale?: string,
-  decimals = 2,
-): string {
-  if (amount === null || !Number.isFinite(amount)) return '–';
-  try {
-    return new Intl.NumberFormat(locale, {
-      style: 'currency',
-      currency,
-      minimumFractionDigits: decimals,
-      maximumFractionDigits: decimals,
-    }).format(amount);
-  } catch {
-    return `${formatNumber(amount, decimals, locale)} ${currency}`;
-  }
-}
-
-/**
  * A date in the user's locale, e.g. for "saved at".
  * @param iso - ISO 8601 text or a Date
  * @param locale - a BCP 47 tag
@@ -247,29 +218,6 @@ export function formatFileSize(bytes: number, locale?: string): string {
   return bytes < 1_000_000
     ? `${formatNumber(bytes / 1000, 1, locale)} kB`
     : `${formatNumber(bytes / 1_000_000, 1, locale)} MB`;
-}
-
-/**
- * Money per area (net return, application cost), held per ha, shown per the
- * display area: per acre when rates show in lb/ac, else per hectare.
- * @param perHa - amount per hectare
- * @param currency - ISO 4217 code
- * @param rateUnit - the display rate unit, which decides the area
- * @param locale - a BCP 47 tag
- * @returns e.g. '$41.20/ac'
- * @example
- * formatMoneyPerArea(100, 'USD', 'lb/ac', 'en-US') // '$40.47/ac'
- */
-export function formatMoneyPerArea(
-  perHa: number | null,
-  currency: string,
-  rateUnit: RateUnit,
-  locale?: string,
-): string {
-  if (perHa === null || !Number.isFinite(perHa)) return '–';
-  const perAcre = rateUnit === 'lb/ac';
-  const amount = perAcre ? (perHa * M2_PER_ACRE) / M2_PER_HA : perHa;
-  return `${formatMoney(amount, currency, locale)}/${perAcre ? 'ac' : 'ha'}`;
 }
 
 /**

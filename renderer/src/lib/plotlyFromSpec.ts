@@ -182,14 +182,46 @@ export function plotlyFromSpec(spec: ChartSpec, options: FigureOptions = {}): Pl
                 ? { color: chartPalette.chosen, width: 3 }
                 : layer.role === 'return'
                   ? { color: chartPalette.return, width: 2.5 }
-                  : {
-                      color: options.colorCurves
-                        ? chartPalette.groups[curveIndex++ % chartPalette.groups.length]
-                        : chartPalette.alternative,
-                      width: 1.5,
-                      dash: layer.model ? modelDash(layer.model) : 'dot',
-                    },
+                  : layer.role === 'risk'
+                    ? { color: chartPalette.risk, width: 2.2 }
+                    : {
+                        color: options.colorCurves
+                          ? chartPalette.groups[curveIndex++ % chartPalette.groups.length]
+                          : chartPalette.alternative,
+                        width: 1.5,
+                        dash: layer.model ? modelDash(layer.model) : 'dot',
+                      },
           });
+          break;
+        case 'ribbon':
+          // Plotly fills between consecutive traces: the lower edge first, then the upper one
+          // filled down to it ("tonexty"), both without lines.
+          data.push(
+            {
+              type: 'scatter',
+              mode: 'lines',
+              x: layer.x,
+              y: layer.low,
+              xaxis: ids.x,
+              yaxis: ids.y,
+              line: { width: 0 },
+              hoverinfo: 'skip',
+              showlegend: false,
+            },
+            {
+              type: 'scatter',
+              mode: 'lines',
+              name: layer.name,
+              x: layer.x,
+              y: layer.high,
+              xaxis: ids.x,
+              yaxis: ids.y,
+              fill: 'tonexty',
+              fillcolor: chartPalette[layer.role],
+              line: { width: 0 },
+              hoverinfo: 'skip',
+            },
+          );
           break;
         case 'band':
           shapes.push({

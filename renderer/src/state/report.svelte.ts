@@ -2,7 +2,7 @@
 // view (no refit, no bootstrap: assembleReport only reshapes), previewed as the
 // grower page, exported as the workbook, printed or saved as PDF.
 import { growerPage, type GrowerPage } from '../../../shared/report/growerPage';
-import { regionalReturnChart } from '../../../shared/report/regionalReturnChart';
+import { reportRegionalChart } from '../../../shared/report/regionalReturnChart';
 import { siteResponseChart } from '../../../shared/report/siteResponseChart';
 import type { TrialReport } from '../../../shared/report/trialReport';
 import type { SheetImage } from '../../../shared/report/workbookSite';
@@ -112,7 +112,7 @@ export class Report {
       const siteCharts: Record<string, SheetImage> = {};
       for (const site of report.sites)
         siteCharts[site.site] = await chartPng(siteResponseChart(report, site));
-      const regional = regionalReturnChart(report);
+      const regional = reportRegionalChart(report);
       const acrossChart = regional ? await chartPng(regional) : null;
       const bytes = await ws.jobs.run<Uint8Array>('Writing the workbook', 'workbook', {
         report,
