@@ -28,7 +28,7 @@ import { analyzablePlots } from '../shared/table/plotTable';
 import { siteYearsOf } from '../shared/table/siteYear';
 import { assembleReport } from '../shared/report/assembleReport';
 import { reportRegionalChart } from '../shared/report/regionalReturnChart';
-import { resultsJson } from '../shared/report/resultsJson';
+import { resultsJsonText } from '../shared/report/resultsJson';
 import type { DisplaySettings } from '../shared/report/reportSettings';
 import { siteResponseChart } from '../shared/report/siteResponseChart';
 import { unitScale } from '../shared/report/unitScale';
@@ -360,7 +360,7 @@ export async function analyzeCommand(
   if (args.json) {
     outputs.push({
       target: path.resolve(args.json),
-      make: async () => `${JSON.stringify(resultsJson(report), null, 2)}\n`,
+      make: async () => resultsJsonText(report),
     });
   }
   try {

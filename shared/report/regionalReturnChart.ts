@@ -163,9 +163,13 @@ export function regionalReturnChart(data: RegionalChartData, how: RegionalChartU
     panels: [
       {
         id: 'return',
-        title: 'Net return above the zero-N plots',
+        title: '',
         x: xAxis,
-        y: { title: 'Net return', unit: `${how.currency}/${u.areaName}`, zeroLine: false },
+        y: {
+          title: 'Net return over zero N',
+          unit: `${how.currency}/${u.areaName}`,
+          zeroLine: false,
+        },
         heightShare: 1,
         layers: top,
       },
@@ -173,14 +177,14 @@ export function regionalReturnChart(data: RegionalChartData, how: RegionalChartU
         ? [
             {
               id: 'risk',
-              title: `Chance of losing more than ${how.toleranceText}`,
+              title: `How often the average loses more than ${how.toleranceText}`,
               x: xAxis,
               y: { title: 'Resamples', unit: '%', min: 0, max: 100 },
               heightShare: 0.45,
               layers: [
                 {
                   kind: 'curve' as const,
-                  name: 'Chance of a shortfall',
+                  name: 'Average short by more than the tolerance',
                   model: null,
                   role: 'risk' as const,
                   x,

@@ -483,3 +483,15 @@ function mixedJson(m: MixedModelReport, u: UnitScale, fy2: number): ResultsMixed
 function fNumbers(t: FTestNumbers): FTestNumbers {
   return { F: clean(t.F), df1: t.df1, df2: t.df2, p: clean(t.p) };
 }
+
+/**
+ * The results file's text, as the command line writes it and the workspace exports it: two-space
+ * indented JSON with a final newline, so the same analysis gives the same bytes from both.
+ * @param report - the assembled report
+ * @returns the text of the .json file
+ * @example
+ * resultsJsonText(report).endsWith('}\n') // true
+ */
+export function resultsJsonText(report: TrialReport): string {
+  return `${JSON.stringify(resultsJson(report), null, 2)}\n`;
+}

@@ -516,4 +516,51 @@ describe('the workspace in chromium', () => {
     // After every step above (imports, exports, reload): no request left the local server.
     expect(session.offsiteRequests).toEqual([]);
   });
+
+  it('in the browser build: saves the results JSON and a project file, and the project opens again', async () => {
+    const { page } = session;
+    await page.getByRole('button', { name: /Prices/ }).click();
+    const onScreen = leadingNumber(await page.getByTestId('optimum-Quillmere North').textContent());
+    await page.getByRole('button', { name: /Report/ }).click();
+    await page.getByTestId('grower-page').waitFor({ timeout: 60_000 });
+    const dir = await mkdtemp(path.join(tmpdir(), 'plotrate-e2e-project-'));
+    const [jsonDownload] = await Promise.all([
+      page.waitForEvent('download', { timeout: 60_000 }),
+      page.getByTestId('export-json').click(),
+    ]);
+    const jsonPath = path.join(dir, jsonDownload.suggestedFilename());
+    await jsonDownload.saveAs(jsonPath);
+    expect(jsonPath).toMatch(/\.json$/);
+    const results = JSON.parse(await readFile(jsonPath, 'utf8')) as {
+      settings: { currency: string; units: { rate: string } };
+      sites: { site: string; recommendation: { rate: number | null } }[];
+    };
+    // The workspace's prices start in USD (the illustrative prices); the JSON names it.
+    expect(results.settings.currency).toBe('USD');
+    expect(results.settings.units.rate).toBe('kg/ha');
+    const site = results.sites.find((x) => x.site === 'Quillmere North')!;
+    expect(Math.abs(site.recommendation.rate! - onScreen)).toBeLessThanOrEqual(0.5);
+
+    const [projectDownload] = await Promise.all([
+      page.waitForEvent('download', { timeout: 60_000 }),
+      page.getByTestId('save-project').click(),
+    ]);
+    const projectPath = path.join(dir, projectDownload.suggestedFilename());
+    await projectDownload.saveAs(projectPath);
+    expect(projectPath).toMatch(/\.plotrate$/);
+    await page.getByTestId('project-file-input').setInputFiles(projectPath);
+    await page.getByText(`Opened ${path.basename(projectPath)}`).waitFor({ timeout: 30_000 });
+    await page.getByRole('button', { name: /Prices/ }).click();
+    await page.getByTestId('optimum-Quillmere North').waitFor({ timeout: 60_000 });
+    const reopened = leadingNumber(await page.getByTestId('optimum-Quillmere North').textContent());
+    expect(reopened).toBe(onScreen);
+    // A file that is not a project gets a message naming it; the work stays.
+    const notProject = path.join(dir, 'notes.plotrate');
+    await writeFile(notProject, 'these are my notes, not a project');
+    await page.getByTestId('project-file-input').setInputFiles(notProject);
+    await page.getByText('notes.plotrate could not be opened').waitFor({ timeout: 10_000 });
+    await expect(page.getByTestId('optimum-Quillmere North').count()).resolves.toBe(1);
+    expect(session.pageErrors.map((e) => e.slice(0, 300))).toEqual([]);
+    expect(session.offsiteRequests).toEqual([]);
+  });
 });

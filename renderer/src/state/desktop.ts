@@ -5,8 +5,10 @@ import type {
   MenuCommand,
   OpenedProject,
 } from '../../../shared/desktop/desktopContract';
-import { projectFromWorkspace, sessionFromProject } from '../lib/projectView';
+import { currentProject, openProject } from './projectFile';
 import type { Workspace } from './workspace.svelte';
+
+export { currentProject, openProject };
 
 function inTextField(): boolean {
   const el = document.activeElement;
@@ -14,40 +16,6 @@ function inTextField(): boolean {
     el instanceof HTMLTextAreaElement ||
     (el instanceof HTMLInputElement && !['radio', 'checkbox', 'range', 'button'].includes(el.type))
   );
-}
-
-/** The current work as a project for the shell. */
-export function currentProject(ws: Workspace, api: DesktopApi) {
-  const priced = ws.prices.canonical;
-  return projectFromWorkspace(
-    ws.session(),
-    ws.trial.table,
-    priced.ok ? priced.prices : null,
-    ws.settings.units,
-    new Date(Date.now()),
-    api.appVersion,
-  );
-}
-
-/**
- * Opens a project: its table and edits come back; its spreadsheets are not in it.
- * @param ws - the workspace
- * @param opened - the project the shell read
- */
-export async function openProject(ws: Workspace, opened: OpenedProject): Promise<void> {
-  const session = sessionFromProject(opened.project);
-  for (const file of [...ws.sources.files]) ws.sources.remove(file.name);
-  ws.trial.projectTable = opened.project.table;
-  if (session) await ws.restore(session);
-  ws.messages.add(
-    'info',
-    `Opened ${opened.name}`,
-    (opened.migratedFrom !== null
-      ? `It was written by an older Plotrate (format ${opened.migratedFrom}); saving writes the current format. `
-      : '') +
-      'The plot table and your decisions are back. To change column roles, open the trial files again.',
-  );
-  if (ws.step === 'files' || ws.step === 'columns') ws.step = 'site';
 }
 
 async function command(ws: Workspace, api: DesktopApi, cmd: MenuCommand): Promise<void> {
@@ -62,7 +30,9 @@ async function command(ws: Workspace, api: DesktopApi, cmd: MenuCommand): Promis
     }
     case 'save':
     case 'save-as': {
-      const saved = await api.saveProject(currentProject(ws, api), { saveAs: cmd === 'save-as' });
+      const saved = await api.saveProject(currentProject(ws, api.appVersion), {
+        saveAs: cmd === 'save-as',
+      });
       if (saved) {
         api.noteUnsavedChanges(null);
         ws.messages.add('info', `Saved ${saved.name}`);

@@ -8,8 +8,10 @@ import type { TrialReport } from '../../../shared/report/trialReport';
 import type { SheetImage } from '../../../shared/report/workbookSite';
 import type { ChartSpec } from '../../../shared/report/chartSpec';
 import { assembleReport } from '../../../shared/report/assembleReport';
+import { resultsJsonText } from '../../../shared/report/resultsJson';
 import { mappingEntries } from '../../../shared/import/mappingEntries';
 import { reportDisplay } from '../analysis/reportInput';
+import { APP_VERSION } from '../lib/appVersion';
 import { plotlyFromSpec } from '../lib/plotlyFromSpec';
 import type { FileBridge } from '../lib/fileBridge';
 import type { Analysis } from './analysis.svelte';
@@ -29,10 +31,6 @@ export interface ReportHost {
   bridge: FileBridge;
   messages: Messages;
 }
-
-/** Version written into reports (the desktop shell's own when present). */
-const APP_VERSION =
-  typeof window !== 'undefined' ? (window.plotrate?.appVersion ?? '0.1.0') : '0.1.0';
 
 /** The time now, ISO 8601 (a plain timestamp, not reactive state). */
 function nowIso(): string {
@@ -101,6 +99,19 @@ export class Report {
       return null;
     }
   });
+
+  /**
+   * Writes the results JSON (the command line's --json file, the same bytes for the same analysis)
+   * and hands it to the shell or a download.
+   * @returns the name written, or null when there is no report or the user cancelled
+   */
+  async exportJson(): Promise<string | null> {
+    const report = this.report;
+    if (!report) return null;
+    const stamp = report.createdAt.slice(0, 10);
+    const bytes = new TextEncoder().encode(resultsJsonText(report));
+    return this.#ws.bridge.exportFile(`Plotrate results ${stamp}.json`, bytes, 'json');
+  }
 
   /** Draws the charts, writes the workbook in the worker and hands it to the shell or a download. */
   async exportWorkbook(): Promise<string | null> {
