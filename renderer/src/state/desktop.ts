@@ -1,14 +1,8 @@
 // The desktop shell's side of the workspace: menu commands, files handed in
 // from outside, project save and open, unsaved-change notes and error logs.
-import type {
-  DesktopApi,
-  MenuCommand,
-  OpenedProject,
-} from '../../../shared/desktop/desktopContract';
+import type { DesktopApi, MenuCommand } from '../../../shared/desktop/desktopContract';
 import { currentProject, openProject } from './projectFile';
 import type { Workspace } from './workspace.svelte';
-
-export { currentProject, openProject };
 
 function inTextField(): boolean {
   const el = document.activeElement;
