@@ -435,6 +435,7 @@ async function analyzedReport(
     unitSystem: args.units,
     prices,
     currency: args.currency,
+    pageFields: args.pageFields,
   };
   const terms = priceTerms({ ...display, crop: imported.table.crop });
   const canonical = {

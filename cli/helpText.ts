@@ -28,6 +28,8 @@ Options for analyze
                          a title row, a crop column), else corn
   --units us|metric      show rates and yields in lb/ac and bu/ac, or kg/ha and
                          t/ha; default: the units of the input
+  --page-field NAME=TEXT the grower pages' grower, field, season or advisor,
+                         e.g. --page-field "field=North 40" (repeat for each)
   --currency CODE        the prices' currency, written on every amount: USD,
                          EUR, CAD, … (default USD)
   --grain-price N        grain price per bushel (bu/ac yields), per tonne

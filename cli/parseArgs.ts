@@ -4,6 +4,13 @@
  */
 // The roles come from their owner, not from importFiles (which re-exports them): this
 // module loads on every start, and importFiles would bring the whole import code.
+import {
+  EMPTY_PAGE_FIELDS,
+  PAGE_FIELD_MAX_CHARS,
+  PAGE_FIELD_NAMES,
+  type PageFieldName,
+  type PageFields,
+} from '../shared/report/pageFields';
 import { ANALYSIS_DEFAULTS } from '../shared/analysis/analysisSettings';
 import {
   MAPPED_ROLES,
@@ -38,6 +45,8 @@ export interface AnalyzeArgs {
   map: RoleOverride[];
   /** The unit of a role's column, where the file does not say it (--column-unit plotWeight=kg). */
   columnUnits: UnitOverride[];
+  /** Grower, advisor, field and season printed on the grower pages (--page-field grower=…). */
+  pageFields: PageFields;
   /**
    * Shortfall tolerance of the risk tables in money per acre (lb/ac output) or per hectare;
    * null: the default, the cost of 10 kg N/ha at the prices.
@@ -85,6 +94,7 @@ export function analyzeDefaults(files: string[] = []): AnalyzeArgs {
     blocks: 'fixed',
     map: [],
     columnUnits: [],
+    pageFields: { ...EMPTY_PAGE_FIELDS },
     shortfallTolerance: null,
     siteChartLimit: SITE_CHART_LIMIT,
   };
@@ -256,6 +266,22 @@ export function parseArgs(argv: readonly string[]): Command {
           any = true;
         }
         if (!any) throw new UsageError('--map needs at least one role=Header.');
+        break;
+      }
+      case '--page-field': {
+        const pair = rest[++i] ?? '';
+        const eq = pair.indexOf('=');
+        const name = pair.slice(0, eq).trim() as PageFieldName;
+        const text = pair.slice(eq + 1).trim();
+        if (eq < 1 || !PAGE_FIELD_NAMES.includes(name))
+          throw new UsageError(
+            `--page-field ${pair || '(missing)'}: write name=text with a name of ${PAGE_FIELD_NAMES.join(', ')}, e.g. --page-field "field=North 40".`,
+          );
+        if (text.length > PAGE_FIELD_MAX_CHARS)
+          throw new UsageError(
+            `--page-field ${name}: at most ${PAGE_FIELD_MAX_CHARS} characters; got ${text.length}.`,
+          );
+        a.pageFields[name] = text;
         break;
       }
       case '--column-unit': {

@@ -42,6 +42,10 @@ describe('parseArgs', () => {
       'block=Rep',
       '--column-unit',
       'plotArea=ft2',
+      '--page-field',
+      'grower=Ada Brinkwater',
+      '--page-field',
+      'season= 2026 ',
     ]);
     expect(c).toEqual({
       command: 'analyze',
@@ -64,6 +68,7 @@ describe('parseArgs', () => {
         { role: 'block', header: 'Rep' },
       ],
       columnUnits: [{ role: 'plotArea', unit: 'ft2' }],
+      pageFields: { grower: 'Ada Brinkwater', advisor: '', field: '', season: '2026' },
       shortfallTolerance: 7.5,
       siteChartLimit: 40,
     });
@@ -75,6 +80,8 @@ describe('parseArgs', () => {
     [['--column-unit', 'kg'], /write role=unit/],
     [['--column-unit'], /needs at least one role=unit/],
     [['--currency', 'euro'], /three-letter currency code such as USD/],
+    [['--page-field', 'farm=North'], /a name of grower, field, season, advisor/],
+    [['--page-field', `field=${'x'.repeat(121)}`], /at most 120 characters/],
     [['--currency'], /--currency \(missing\)/],
   ])('refuses %j with a line that says what it takes', (words, message) => {
     expect(() => parseArgs(['analyze', 'a.csv', ...words])).toThrow(message);

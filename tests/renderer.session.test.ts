@@ -44,6 +44,17 @@ describe('checkSession', () => {
     }
   });
 
+  it('keeps the grower page fields, blanking one that is not text or too long rather than the session', () => {
+    const fields = { grower: 'Ada', advisor: 'Ben', field: 'Long Acre', season: '2026' };
+    expect(checkSession({ ...good, pageFields: fields })).toEqual({ ...good, pageFields: fields });
+    const odd = { ...fields, season: 2026, advisor: 'x'.repeat(500) };
+    expect(checkSession({ ...good, pageFields: odd })!.pageFields).toEqual({
+      ...fields,
+      season: '',
+      advisor: '',
+    });
+  });
+
   it.each([
     ['another version', { ...good, version: 2 }],
     ['files without bytes', { ...good, files: [{ name: 'a.csv' }] }],

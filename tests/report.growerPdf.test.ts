@@ -80,6 +80,19 @@ describe('growerPdf', () => {
     });
     expect(text.join(' ')).toMatch(/of Urea 46-0-0/);
   });
+
+  it('prints the grower, field, season and advisor under the title, and a line where one is blank', async () => {
+    const fields = { grower: 'Ada Brinkwater', field: 'Long Acre', season: '2026', advisor: '' };
+    const addressed = { ...us, settings: { ...us.settings, pageFields: fields } };
+    const { text } = await render(addressed, 'us-fields');
+    for (const page of text) {
+      const t = page.replace(/\s+/g, ' ');
+      expect(t).toContain('Grower: Ada Brinkwater');
+      expect(t).toContain('Field: Long Acre');
+      expect(t).toContain('Season: 2026');
+      expect(t).toMatch(/Advisor: _{5,}/);
+    }
+  });
 });
 
 describe('growerPage', () => {

@@ -14,6 +14,9 @@ describe('formatMoney', () => {
     expect(formatMoney(1.2, 'USD', 'en-US')).toBe('$1.20');
     expect(formatMoney(1.2, 'EUR', 'de-DE')).toBe('1,20\u00a0€');
     expect(formatMoney(0.573, 'EUR', 'en-GB', 3)).toBe('€0.573');
+    // A third decimal only where the price has one: 1.2 never reads as "1.200" (twelve hundred?).
+    expect(formatMoney(1.2, 'USD', 'en-US', 3)).toBe('$1.20');
+    expect(formatMoney(2.6087, 'USD', 'en-US', 3)).toBe('$2.609');
     expect(formatMoney(12.5, 'bushels of goodwill', 'en-US')).toBe('12.50 bushels of goodwill');
     expect(formatMoney(null, 'USD')).toBe('–');
   });

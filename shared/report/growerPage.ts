@@ -10,6 +10,7 @@ import { recommendationCautions } from '../economics/recommendationCautions';
 import { crops } from '../units/crops';
 import { formatQuantity } from '../units/formatQuantity';
 import { formatMoney, formatMoneyPerArea } from '../units/formatMoney';
+import { pageFieldRows } from './pageFields';
 import { products } from '../units/products';
 import { priceWeightName } from '../units/unitWeights';
 import type { TrialReport, YearComparisonReport } from './trialReport';
@@ -28,6 +29,8 @@ export interface GrowerPage {
   heading: string;
   /** The site, or "Region (6 sites)". */
   subject: string;
+  /** Grower, field, season and advisor as the user typed them (pageFields); "" where blank. */
+  addressedTo: GrowerFact[];
   cropLabel: string;
   /** The headline: "Apply about 150 lb N/ac". */
   recommendation: string;
@@ -161,6 +164,7 @@ export function growerPage(report: TrialReport, which: string | 'region'): Growe
     prices: priceFacts,
     cautions: recommendationCautions,
     footer,
+    addressedTo: pageFieldRows(settings.pageFields),
     paper,
   };
   const productText = (rateKgHa: number): string => {

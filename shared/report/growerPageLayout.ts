@@ -68,6 +68,16 @@ export function growerPageLayout(page: GrowerPage, withChart: boolean): PageLayo
     },
     {
       kind: 'text',
+      // A blank field prints as a line to write on, so a page printed before the names are typed
+      // can still be filled in by hand.
+      text: page.addressedTo.map((f) => `${f.label}: ${f.value || '_______________'}`).join('    '),
+      sizePt: 9.5,
+      bold: false,
+      color: grey,
+      gapAfterPt: 8,
+    },
+    {
+      kind: 'text',
       text: page.recommendation,
       sizePt: 24,
       bold: true,

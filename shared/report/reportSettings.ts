@@ -9,6 +9,7 @@ import type { PriceInput } from '../economics/priceQuote';
 import type { CropId } from '../table/plotTable';
 import type { DisplayUnits } from '../units/displayUnits';
 import type { PaperSize } from './paperSize';
+import type { PageFields } from './pageFields';
 
 /** The units numbers are shown in (JSON, workbook, PDF). */
 export type ReportUnits = DisplayUnits;
@@ -27,6 +28,8 @@ export interface DisplaySettings {
   currency: string;
   /** BCP 47 locale of the numbers in text (the screen's); undefined: the platform's. */
   locale?: string;
+  /** Who and what the grower pages are for (shared/report/pageFields); undefined: all blank. */
+  pageFields?: PageFields;
   /** Paper of the printed pages and workbook; default paperSize of the units (Letter for US units). */
   paper?: PaperSize;
 }

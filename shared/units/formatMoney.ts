@@ -13,10 +13,13 @@ import { M2_PER_ACRE, M2_PER_HA } from './unitConstants';
  * @param amount - the amount; null or NaN prints "–"
  * @param currency - ISO 4217 code such as 'USD', or any label
  * @param locale - a BCP 47 tag; undefined uses the platform's
- * @param decimals - digits after the separator, 2 unless told
+ * @param decimals - most digits after the separator, 2 unless told; never fewer than 2 (or
+ *   `decimals` when it is below 2), so a price of 1.2 at 3 decimals reads "$1.20", not "$1.200",
+ *   which a reader used to a comma for thousands could take for twelve hundred
  * @returns e.g. '$1.20' or '1,20 €'
  * @example
  * formatMoney(1.2, 'USD', 'en-US') // '$1.20'
+ * formatMoney(0.573, 'USD', 'en-US', 3) // '$0.573'
  */
 export function formatMoney(
   amount: number | null,
@@ -25,19 +28,12 @@ export function formatMoney(
   decimals = 2,
 ): string {
   if (amount === null || !Number.isFinite(amount)) return '–';
+  const digits = { minimumFractionDigits: Math.min(2, decimals), maximumFractionDigits: decimals };
   try {
-    return new Intl.NumberFormat(locale, {
-      style: 'currency',
-      currency,
-      minimumFractionDigits: decimals,
-      maximumFractionDigits: decimals,
-    }).format(amount);
+    return new Intl.NumberFormat(locale, { style: 'currency', currency, ...digits }).format(amount);
   } catch {
     // Not an ISO code (a user's own label): the number, then the label.
-    const number = new Intl.NumberFormat(locale, {
-      minimumFractionDigits: decimals,
-      maximumFractionDigits: decimals,
-    }).format(amount);
+    const number = new Intl.NumberFormat(locale, digits).format(amount);
     return `${number} ${currency}`;
   }
 }

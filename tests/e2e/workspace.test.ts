@@ -1,4 +1,5 @@
 // The workspace end to end in real chromium against the built renderer.
+import { execFileSync } from 'node:child_process';
 import { mkdtemp, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
@@ -541,6 +542,25 @@ describe('the workspace in chromium', () => {
     const site = results.sites.find((x) => x.site === 'Quillmere North')!;
     expect(Math.abs(site.recommendation.rate! - onScreen)).toBeLessThanOrEqual(0.5);
 
+    // The page's four fields, typed here, are printed under its title with its chart.
+    await page.getByTestId('page-field-grower').fill('Ada Brinkwater');
+    await page.getByTestId('page-field-field').fill('Long Acre');
+    const addressed = page.getByTestId('page-addressed');
+    await expect(addressed.textContent()).resolves.toMatch(
+      /Grower: Ada Brinkwater.*Field: Long Acre/s,
+    );
+    await expect(page.getByTestId('grower-page-chart').locator('svg').count()).resolves.toBe(1);
+    // Printed (Chromium's own PDF of the page): one sheet of Letter, with the fields and the chart.
+    await page.emulateMedia({ media: 'print' });
+    const printed = path.join(dir, 'printed.pdf');
+    await page.pdf({ path: printed, format: 'Letter', printBackground: true });
+    await page.emulateMedia({ media: 'screen' });
+    const info = execFileSync('/usr/bin/pdfinfo', [printed]).toString();
+    expect(info).toMatch(/Pages:\s+1\n/);
+    const words = execFileSync('/usr/bin/pdftotext', [printed, '-']).toString();
+    expect(words).toMatch(/Grower: Ada Brinkwater/);
+    await shot(page, '06c-grower-page-fields');
+
     const [projectDownload] = await Promise.all([
       page.waitForEvent('download', { timeout: 60_000 }),
       page.getByTestId('save-project').click(),
@@ -554,11 +574,16 @@ describe('the workspace in chromium', () => {
     await page.getByTestId('optimum-Quillmere North').waitFor({ timeout: 60_000 });
     const reopened = leadingNumber(await page.getByTestId('optimum-Quillmere North').textContent());
     expect(reopened).toBe(onScreen);
+    await page.getByRole('button', { name: /Report/ }).click();
+    await expect(page.getByTestId('page-field-grower').inputValue()).resolves.toBe(
+      'Ada Brinkwater',
+    );
     // A file that is not a project gets a message naming it; the work stays.
     const notProject = path.join(dir, 'notes.plotrate');
     await writeFile(notProject, 'these are my notes, not a project');
     await page.getByTestId('project-file-input').setInputFiles(notProject);
     await page.getByText('notes.plotrate could not be opened').waitFor({ timeout: 10_000 });
+    await page.getByRole('button', { name: /Prices/ }).click();
     await expect(page.getByTestId('optimum-Quillmere North').count()).resolves.toBe(1);
     expect(session.pageErrors.map((e) => e.slice(0, 300))).toEqual([]);
     expect(session.offsiteRequests).toEqual([]);

@@ -3,6 +3,7 @@
  * after a reload — the trial files' bytes (base64), the user's edits, prices,
  * display settings, model choices and where the user was. Plain JSON.
  */
+import { readPageFields, type PageFields } from '../../../shared/report/pageFields';
 import type { Edits } from '../analysis/edits';
 import type { PriceSettings } from '../analysis/priceInputs';
 import { MODEL_NAMES, type BlockTerms, type ModelName } from '../../../shared/models/modelTypes';
@@ -23,6 +24,8 @@ export interface Session {
   selectedSite: string | null;
   /** The risk tables' tolerance, currency/ha; null or absent (older sessions): the default. */
   shortfallTolerancePerHa?: number | null;
+  /** Grower, advisor, field and season of the grower pages; absent in older sessions. */
+  pageFields?: PageFields;
 }
 
 function isObject(v: unknown): v is Record<string, unknown> {
@@ -95,5 +98,8 @@ export function checkSession(data: unknown): Session | null {
     !(typeof tolerance === 'number' && tolerance >= 0)
   )
     return null;
-  return data as unknown as Session;
+  // Page fields are read field by field (readPageFields): a bad one is blanked, not fatal.
+  const pageFields =
+    data.pageFields === undefined ? {} : { pageFields: readPageFields(data.pageFields) };
+  return { ...(data as unknown as Session), ...pageFields };
 }

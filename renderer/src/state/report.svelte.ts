@@ -1,7 +1,10 @@
 // The report: assembled on the main thread from the one analysis and its priced
 // view (no refit, no bootstrap: assembleReport only reshapes), previewed as the
 // grower page, exported as the workbook, printed or saved as PDF.
+import { EMPTY_PAGE_FIELDS, type PageFields } from '../../../shared/report/pageFields';
 import { growerPage, type GrowerPage } from '../../../shared/report/growerPage';
+import { growerPageChart } from '../../../shared/report/growerPageChart';
+import { renderChartSvg } from '../../../shared/report/svgChart';
 import { reportRegionalChart } from '../../../shared/report/regionalReturnChart';
 import { siteResponseChart } from '../../../shared/report/siteResponseChart';
 import type { TrialReport } from '../../../shared/report/trialReport';
@@ -52,6 +55,8 @@ async function chartPng(spec: ChartSpec): Promise<SheetImage> {
 export class Report {
   /** The page shown: a site name or "region". */
   which = $state<string>('region');
+  /** Who and what the pages are for, as typed in the report step; kept with the session and project. */
+  fields = $state<PageFields>({ ...EMPTY_PAGE_FIELDS });
   busy = $state(false);
   readonly #ws: ReportHost;
 
@@ -68,13 +73,16 @@ export class Report {
     const analysis = ws.analysis.output;
     const priced = ws.analysis.priced;
     if (!analysis || !priced) return null;
-    const display = reportDisplay(
-      ws.prices.settings,
-      ws.settings.units,
-      ws.settings.unitSystem,
-      analysis.crop,
-      ws.settings.locale,
-    );
+    const display = {
+      ...reportDisplay(
+        ws.prices.settings,
+        ws.settings.units,
+        ws.settings.unitSystem,
+        analysis.crop,
+        ws.settings.locale,
+      ),
+      pageFields: { ...this.fields },
+    };
     const mapping = mappingEntries(
       Object.entries(ws.trial.edits.mappings).map(([file, m]) => ({ file, mapping: m })),
     );
@@ -87,17 +95,30 @@ export class Report {
     });
   });
 
+  /** The page shown: "region" when there is an across-site result, else the chosen or first site. */
+  #shown: string | null = $derived.by(() => {
+    const r = this.report;
+    if (!r) return null;
+    return (this.which === 'region' && !r.acrossSites ? r.sites[0]?.site : this.which) ?? null;
+  });
+
   /** Grower page of the chosen site or region, or null before the report exists. */
   page: GrowerPage | null = $derived.by(() => {
     const r = this.report;
-    if (!r) return null;
-    const which = this.which === 'region' && !r.acrossSites ? r.sites[0]?.site : this.which;
-    if (!which) return null;
+    if (!r || !this.#shown) return null;
     try {
-      return growerPage(r, which);
+      return growerPage(r, this.#shown);
     } catch {
       return null;
     }
+  });
+
+  /** The page's chart as SVG, the same description the PDF draws (growerPageChart); null without one. */
+  pageChartSvg: string | null = $derived.by(() => {
+    const r = this.report;
+    if (!r || !this.#shown) return null;
+    const spec = growerPageChart(r, this.#shown);
+    return spec ? renderChartSvg(spec) : null;
   });
 
   /**

@@ -1,4 +1,5 @@
 // The analyst's workspace: everything the screens share, passed by context.
+import { EMPTY_PAGE_FIELDS } from '../../../shared/report/pageFields';
 import type { TrialFileBytes } from '../../../shared/desktop/desktopContract';
 import { fetchDemoFile } from '../lib/demoFile';
 import type { FileBridge } from '../lib/fileBridge';
@@ -94,6 +95,7 @@ export class Workspace {
       step: this.step,
       selectedSite: this.analysis.selectedSite,
       shortfallTolerancePerHa: this.prices.shortfallTolerancePerHa,
+      pageFields: { ...this.report.fields },
     };
   }
 
@@ -103,6 +105,7 @@ export class Workspace {
     this.settings.locale = session.locale;
     this.prices.settings = session.prices;
     this.prices.shortfallTolerancePerHa = session.shortfallTolerancePerHa ?? null;
+    this.report.fields = { ...(session.pageFields ?? EMPTY_PAGE_FIELDS) };
     this.analysis.choices = session.choices;
     this.analysis.blocks = session.blocks;
     this.analysis.selectedSite = session.selectedSite;

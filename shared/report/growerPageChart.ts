@@ -1,0 +1,22 @@
+/**
+ * The chart a grower page carries: the site's response chart on a site's page, the regional
+ * chart on the region's. One choice for the workspace's preview and the command line's PDF, so
+ * the printed page and the screen show the same picture.
+ */
+import type { ChartSpec } from './chartSpec';
+import { reportRegionalChart } from './regionalReturnChart';
+import { siteResponseChart } from './siteResponseChart';
+import type { TrialReport } from './trialReport';
+
+/**
+ * The chart of one grower page.
+ * @param report - the assembled report
+ * @param which - a site's name, or "region"
+ * @returns the chart, or null when that page has none (an unknown site, no across-site result)
+ * @example growerPageChart(report, 'region')?.panels[0].id // 'return'
+ */
+export function growerPageChart(report: TrialReport, which: string): ChartSpec | null {
+  if (which === 'region') return reportRegionalChart(report);
+  const site = report.sites.find((s) => s.site === which);
+  return site ? siteResponseChart(report, site) : null;
+}
