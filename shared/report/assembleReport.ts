@@ -21,7 +21,7 @@ import type { MixedModelOptimum } from '../economics/mixedModelOptimum';
 import type { RateProfileInterval } from '../models/joinProfile';
 import type { ModelName } from '../models/modelTypes';
 import { describeRef, type QualityFinding } from '../table/qualityFinding';
-import type { Plot } from '../table/plotTable';
+import type { OriginalCell, Plot, PlotTable } from '../table/plotTable';
 import { siteYearsOf } from '../table/siteYear';
 import { yearsComparedReport } from './yearsComparedReport';
 import { intervalSharesWarning } from './intervalShares';
@@ -200,6 +200,7 @@ export function assembleReport(
     runWarnings.push(
       'No prices were given: illustrative prices were used. Give your own grain and nitrogen prices before acting on any rate.',
     );
+  const used = filesWithPlots(table);
   return {
     tool: meta.tool,
     createdAt: meta.createdAt,
@@ -215,8 +216,10 @@ export function assembleReport(
       shortfallTolerance: { ...priced.shortfallTolerance },
     },
     prices: terms,
-    sources: table.sources,
-    mapping: meta.mapping,
+    // Provenance names what the analysis read: files that gave plots, and their mapping only
+    // (a file opened and closed again, or one with no plot rows, is not behind any number here).
+    sources: table.sources.filter((s) => used.has(s.name)),
+    mapping: meta.mapping.filter((m) => used.has(m.file)),
     sites,
     acrossSites: acrossSitesOf(priced.across, priced.mixedOptimum),
     yearsCompared: yearsComparedReport(priced.across),
@@ -471,4 +474,13 @@ function mixedModelReport(
   if (mixed.model === null || optimum === null) return null;
   const { siteCurves, ...fit } = mixed;
   return { fit, siteCurves, optimum };
+}
+
+/** Names of the files at least one plot of the table was read from. */
+function filesWithPlots(table: PlotTable): Set<string> {
+  const files = new Set<string>();
+  for (const plot of table.plots)
+    for (const cell of Object.values(plot.original) as (OriginalCell | undefined)[])
+      if (cell) files.add(cell.ref.file);
+  return files;
 }
