@@ -122,8 +122,11 @@ export function prepareRegionalReturn(
   const g = gridKgHa.length;
   const meanGainKgHa = new Float64Array(g);
   const gains = curves.map((c) => {
-    const row = Float64Array.from(gridKgHa, (x) => c.gainKgHa(x));
-    for (let j = 0; j < g; j++) meanGainKgHa[j] += row[j];
+    const row = new Float64Array(g);
+    for (let j = 0; j < g; j++) {
+      row[j] = c.gainKgHa(gridKgHa[j]);
+      meanGainKgHa[j] += row[j];
+    }
     return row;
   });
   if (curves.length > 0) for (let j = 0; j < g; j++) meanGainKgHa[j] /= curves.length;
@@ -137,7 +140,12 @@ export function prepareRegionalReturn(
  */
 export function costOnGrid(gridKgHa: Float64Array, prices: Prices): Float64Array {
   const app = prices.applicationCostPerHa ?? 0;
-  return Float64Array.from(gridKgHa, (x) => prices.nutrientPricePerKg * x + (x > 0 ? app : 0));
+  const cost = new Float64Array(gridKgHa.length);
+  for (let j = 0; j < cost.length; j++) {
+    const x = gridKgHa[j];
+    cost[j] = prices.nutrientPricePerKg * x + (x > 0 ? app : 0);
+  }
+  return cost;
 }
 
 /** Index of the largest value, the lowest index among values within TIE of it. */
