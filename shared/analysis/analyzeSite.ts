@@ -16,6 +16,7 @@ import {
   type RateBlockProblem,
 } from '../stats/rateBlockModel';
 import { testIntercept } from '../stats/interceptTest';
+import { toNumberArray } from '../stats/toNumberArray';
 import { pearsonCorrelation, type PearsonResult } from '../stats/pearson';
 import { bootstrapSeed } from './analysisSettings';
 import type { AcrossSiteSettings } from './planAcrossSites';
@@ -204,8 +205,13 @@ export function analyzeSite(
     correlation = orProblem(() => pearsonCorrelation(site.rateKgHa, site.yieldKgHa));
     responseOverCheck = siteResponseOverCheck(site, rateBlock, alpha);
   }
-  const rates = Array.from(site.rateKgHa);
-  const { anova, means } = siteAnova(rates, Array.from(site.yieldKgHa), [...site.block], rateBlock);
+  const rates = toNumberArray(site.rateKgHa);
+  const { anova, means } = siteAnova(
+    rates,
+    toNumberArray(site.yieldKgHa),
+    [...site.block],
+    rateBlock,
+  );
   let draws: BootstrapDraws | null = null;
   if (fits && settings.resamples > 0 && new Set(rates).size >= 2) {
     const drawn = (Object.keys(fits.fits) as ModelName[]).filter(

@@ -29,6 +29,7 @@ import { fitMessage, optimumNote } from './modelNotes';
 import { priceTerms } from '../economics/priceQuote';
 import type { DisplaySettings } from './reportSettings';
 import { isBlockLabel } from '../stats/hasBlocks';
+import { toNumberArray } from '../stats/toNumberArray';
 import type {
   AcrossSitesReport,
   MixedModelReport,
@@ -149,8 +150,8 @@ function modelRow(
     optimumNote:
       row.optimumStatus === 'not-fitted' ? '' : optimumNote({ status: row.optimumStatus }),
     curve: {
-      rateKgHa: Array.from(f.curve.rateKgHa),
-      yieldKgHa: Array.from(f.curve.yieldKgHa),
+      rateKgHa: toNumberArray(f.curve.rateKgHa),
+      yieldKgHa: toNumberArray(f.curve.yieldKgHa),
     },
   };
 }
@@ -255,7 +256,7 @@ function siteReport(
     intervalLevel: number;
   },
 ): SiteReport {
-  const rates = Array.from(used.rateKgHa);
+  const rates = toNumberArray(used.rateKgHa);
   const blocks = used.block;
   // A long list hides the important lines; the rest are in the quality report on screen.
   const warnings: string[] =
