@@ -7,61 +7,26 @@
 //     1,000 sites (a chart for every site) and 5,000 sites (past the default
 //     --site-charts limit of 1,000: the regional chart only), with peak memory.
 // PLOTRATE_BENCH_SITES and PLOTRATE_BENCH_LARGE_SITES change the two sizes.
-// Peak memory comes from GNU time (-v, "Maximum resident set size") when
-// /usr/bin/time exists, else from the child's own process.resourceUsage().
-import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, rmSync, statSync, writeFileSync } from 'node:fs';
+// Peak memory: see spawnTimed.ts.
+import { mkdtempSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { SITE_CHART_LIMIT } from '../cli/parseArgs';
 import { buildCli } from '../scripts/buildCli.mjs';
 import { syntheticCsv } from '../shared/demo';
+import { failure, peakMemorySource, spawnTimed, type TimedRun } from './spawnTimed';
+import { median } from './timing';
 
 const here = path.dirname(fileURLToPath(import.meta.url));
 const cli = path.join(here, '..', 'cli', 'plotrate.mjs');
-const gnuTime = existsSync('/usr/bin/time');
-
-interface Run {
-  ok: boolean;
-  wallS: number;
-  rssKb: number;
-  stderr: string;
-}
 
 /** One run of the command line with its wall time and peak memory. */
-function runCli(args: string[]): Run {
-  const started = process.hrtime.bigint();
-  const r = gnuTime
-    ? spawnSync('/usr/bin/time', ['-v', process.execPath, cli, ...args], {
-        encoding: 'utf8',
-        maxBuffer: 64 << 20,
-      })
-    : spawnSync(
-        process.execPath,
-        [
-          '--import',
-          'data:text/javascript,process.on("exit",()=>process.stderr.write("maxRSS_kB "+process.resourceUsage().maxRSS+"\\n"))',
-          cli,
-          ...args,
-        ],
-        { encoding: 'utf8', maxBuffer: 64 << 20 },
-      );
-  const wallS = Number(process.hrtime.bigint() - started) / 1e9;
-  const rssKb = gnuTime
-    ? Number(/Maximum resident set size \(kbytes\): (\d+)/.exec(r.stderr)?.[1] ?? NaN)
-    : Number(/maxRSS_kB (\d+)/.exec(r.stderr)?.[1] ?? NaN);
-  return { ok: r.status === 0, wallS, rssKb, stderr: r.stderr };
-}
+const runCli = (args: string[]): TimedRun => spawnTimed(process.execPath, [cli, ...args]);
 
-function failed(what: string, r: Run): void {
-  console.log(`${what} failed: ${r.stderr.split('\n').slice(-5).join(' ')}`);
+function failed(what: string, r: TimedRun): void {
+  console.log(failure(what, r));
 }
-
-const median = (xs: number[]): number => {
-  const s = [...xs].sort((a, b) => a - b);
-  return s.length % 2 ? s[(s.length - 1) / 2] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
-};
 
 /** Runs the benchmark and prints wall times, peak memory and output sizes. */
 export async function run(): Promise<void> {
@@ -122,7 +87,7 @@ export async function run(): Promise<void> {
         `  wall time      ${full.wallS.toFixed(1)} s (whole process, from spawn to exit)`,
       );
       console.log(
-        `  peak memory    ${(full.rssKb / 1024).toFixed(0)} MB (max resident set, ${gnuTime ? 'GNU time -v' : 'process.resourceUsage'})`,
+        `  peak memory    ${(full.rssKb / 1024).toFixed(0)} MB (max resident set, ${peakMemorySource})`,
       );
       console.log(
         `  sizes          ${outs.map((f) => `${path.basename(f)} ${size(f)}`).join(', ')}`,

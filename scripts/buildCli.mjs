@@ -4,9 +4,12 @@
 // and `npm ci`), as `npm run build:cli`, and once before every vitest run
 // (tests/support/buildCliBundle.ts) so tests exercise the current sources.
 //
-// Packages stay external (loaded from node_modules at run time, as before):
-// @resvg/resvg-js is native, pdfkit reads its font metrics from its own
-// folder. Code splitting keeps each dynamic import() of a heavy output module
+// Packages stay external (loaded from node_modules at run time), all but the
+// @stdlib distributions: @resvg/resvg-js is native, pdfkit reads its font
+// metrics from its own folder, exceljs and fflate are only wanted with an
+// .xlsx in or out. The @stdlib packages are plain CommonJS spread over a few
+// hundred small files, which Node took about 0.15 s to find and compile on
+// every analysis; bundled, they are one more part of the analysis' chunk. Code splitting keeps each dynamic import() of a heavy output module
 // (workbook, PDF, charts) in its own chunk, so its packages load only when
 // that output is asked for; without splitting esbuild would hoist their
 // imports to the top of the one file. The chart worker is a second entry
@@ -16,6 +19,24 @@ import path from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 
 const root = path.join(path.dirname(fileURLToPath(import.meta.url)), '..');
+
+/**
+ * An esbuild plugin that leaves every package import external except those matching `bundled`
+ * (what `packages: 'external'` does, with exceptions).
+ * @param {RegExp} bundled - package names to bundle
+ * @returns {import('esbuild').Plugin}
+ */
+function externalPackagesBut(bundled) {
+  return {
+    name: 'external-packages-but',
+    setup(build) {
+      // A bare specifier (not relative, not absolute) names a package or a node: builtin.
+      build.onResolve({ filter: /^[^./]/ }, (args) =>
+        bundled.test(args.path) ? undefined : { path: args.path, external: true },
+      );
+    },
+  };
+}
 
 /**
  * Builds the command-line bundle.
@@ -42,7 +63,12 @@ export async function buildCli({
     format: 'esm',
     platform: 'node',
     target: 'node20',
-    packages: 'external',
+    plugins: [externalPackagesBut(/^@stdlib\//)],
+    // The bundled CommonJS still require()s a few packages (debug) and Node's own modules,
+    // which an ES module can only do through a require made for it.
+    banner: {
+      js: "import { createRequire as __plotrateRequire } from 'node:module'; const require = __plotrateRequire(import.meta.url);",
+    },
     outExtension: { '.js': '.mjs' },
     // Flat, beside the chart worker: chartPng.ts finds it at ./chartWorker.mjs.
     chunkNames: '[name]-[hash]',

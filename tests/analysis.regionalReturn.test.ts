@@ -5,6 +5,7 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import {
   prepareRegionalReturn,
+  profitableRangeAtPrices,
   regionalReturnAtPrices,
   type SiteGainCurve,
 } from '../shared/analysis/regionalReturn';
@@ -72,6 +73,15 @@ describe('regionalReturnAtPrices on a two-site example worked by hand', () => {
       contiguous: true,
     });
   });
+  it('profitableRangeAtPrices gives the same range, 100–150 kg/ha, by itself', () => {
+    expect(
+      profitableRangeAtPrices(
+        prepared,
+        { grainPricePerKg: 0.2, nutrientPricePerKg: 1 },
+        { bandPerHa: 25 },
+      ),
+    ).toEqual({ bandPerHa: 25, lowKgHa: 100, highKgHa: 150, contiguous: true });
+  });
   it('gives each site its own optimum and their quartiles', () => {
     expect(r.siteOptima.map((o) => [o.site, o.rateKgHa, +o.returnPerHa.toFixed(9)])).toEqual([
       ['A', 100, 220],
@@ -125,6 +135,27 @@ describe('regionalReturnAtPrices properties (fast-check)', () => {
     curves: SiteGainCurve[],
     p: { grainPricePerKg: number; nutrientPricePerKg: number },
   ) => regionalReturnAtPrices(prepareRegionalReturn(curves, grid), p);
+
+  it('profitableRangeAtPrices: the same range as regionalReturnAtPrices, on grids of any length in turn', () => {
+    fc.assert(
+      fc.property(
+        fc.array(site, { minLength: 1, maxLength: 4 }),
+        prices,
+        fc.double({ min: 0, max: 40, noNaN: true }),
+        fc.double({ min: 0, max: 30, noNaN: true }),
+        fc.integer({ min: 60, max: 400 }),
+        (sites, p, app, bandPerHa, top) => {
+          const withCost = { ...p, applicationCostPerHa: app };
+          // A grid longer or shorter than the one before: the working buffer is reused.
+          const prepared = prepareRegionalReturn(sites.map(toCurve), rateGrid(0, top, 1));
+          expect(profitableRangeAtPrices(prepared, withCost, { bandPerHa })).toEqual(
+            regionalReturnAtPrices(prepared, withCost, { bandPerHa }).profitableRange,
+          );
+        },
+      ),
+      { numRuns: 200, seed: 20261203 },
+    );
+  });
 
   it('regionalReturnAtPrices: the best rate and range do not depend on site order', () => {
     fc.assert(

@@ -9,6 +9,7 @@ import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { syntheticCsv } from '../shared/demo';
 
@@ -34,6 +35,17 @@ function loadsOf(args: string[]): { code: number | null; err: string; urls: stri
 /** Loaded URLs that belong to the named package or file. */
 const matching = (urls: string[], part: string): string[] => urls.filter((u) => u.includes(part));
 
+/**
+ * Loaded bundle files holding the analysis: its code (with the bundled @stdlib distributions)
+ * sits in a chunk of its own, found by the function that runs it.
+ */
+const analysisChunks = (urls: string[]): string[] =>
+  urls.filter(
+    (u) =>
+      u.includes('/dist-cli/') &&
+      readFileSync(fileURLToPath(u), 'utf8').includes('function* analyzeTrialSteps('),
+  );
+
 const heavy = ['/node_modules/exceljs/', '/node_modules/pdfkit/', '/node_modules/@resvg/'];
 const priced = ['--grain-price', '4.5', '--nutrient-price', '0.6', '--boot', '0'];
 
@@ -50,7 +62,8 @@ describe('plotrate loads heavy modules only for the outputs that need them', () 
     expect(matching(r.urls, '/dist-cli/plotrate.mjs')).toHaveLength(1);
     expect(r.urls.filter((u) => /\.(c|m)?ts$/.test(u))).toEqual([]);
     expect(matching(r.urls, '/node_modules/tsx/')).toEqual([]);
-    // The analysis is loaded only for a run (its statistics come from @stdlib).
+    // The analysis (with the @stdlib distributions bundled into it) is loaded only for a run.
+    expect(analysisChunks(r.urls)).toEqual([]);
     expect(matching(r.urls, '/node_modules/@stdlib/')).toEqual([]);
     for (const p of heavy) expect(matching(r.urls, p), p).toEqual([]);
   });
@@ -59,6 +72,10 @@ describe('plotrate loads heavy modules only for the outputs that need them', () 
     const r = loadsOf(['analyze', 'trial.csv', '--json', 'only.json', ...priced]);
     expect(r.code, r.err).toBe(0);
     expect(JSON.parse(readFileSync(path.join(dir, 'only.json'), 'utf8')).sites).toHaveLength(2);
+    // A run loads the analysis' chunk (so the check on --help can fail), and no @stdlib file
+    // from node_modules: the distributions are bundled, not found and compiled at every start.
+    expect(analysisChunks(r.urls)).toHaveLength(1);
+    expect(matching(r.urls, '/node_modules/@stdlib/')).toEqual([]);
     for (const p of [...heavy, '/dist-cli/chartWorker.mjs'])
       expect(matching(r.urls, p), p).toEqual([]);
   });

@@ -38,4 +38,18 @@ describe('fitLeastSquares on NIST StRD Norris', () => {
     expectDigits(fit.fStatistic, 5436385.54079785, 9, 'fit.fStatistic');
     expect(fit.r2Kind).toBe('centered');
   });
+
+  it('without inference keeps every estimate and residual and leaves the p-values and intervals NaN', () => {
+    const bare = fitLeastSquares({ columns: [x], y, intercept: true, inference: false });
+    // The same certified digits, and the same numbers to the last bit as the full fit.
+    expectDigits(bare.coefficients[1].estimate, 1.00211681802045, 9, 'bare slope');
+    expectDigits(bare.fStatistic, 5436385.54079785, 9, 'bare F');
+    expect(bare.coefficients.map((c) => [c.estimate, c.stdError, c.t])).toEqual(
+      fit.coefficients.map((c) => [c.estimate, c.stdError, c.t]),
+    );
+    expect(Array.from(bare.studentizedResiduals)).toEqual(Array.from(fit.studentizedResiduals));
+    expect(bare.coefficients.every((c) => Number.isNaN(c.p) && Number.isNaN(c.ciLow))).toBe(true);
+    expect(bare.fP).toBeNaN();
+    expect(fit.coefficients.every((c) => Number.isFinite(c.p))).toBe(true);
+  });
 });

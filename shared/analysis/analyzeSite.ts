@@ -10,8 +10,13 @@ import type { BlockTerms, ModelFit, ModelName } from '../models/modelTypes';
 import { prepareSite, type PreparedSite } from '../models/prepareSite';
 import { StatsInputError } from '../stats/errors';
 import { defaultBlockTerms } from '../stats/hasBlocks';
-import { fitRateBlockModel } from '../stats/rateBlockModel';
+import {
+  fitRateBlockModel,
+  type RateBlockModel,
+  type RateBlockProblem,
+} from '../stats/rateBlockModel';
 import { testIntercept } from '../stats/interceptTest';
+import { toNumberArray } from '../stats/toNumberArray';
 import { pearsonCorrelation, type PearsonResult } from '../stats/pearson';
 import { bootstrapSeed } from './analysisSettings';
 import type { AcrossSiteSettings } from './planAcrossSites';
@@ -133,6 +138,8 @@ function orProblem<T>(compute: () => T): T | { problem: string } {
  * @param settings - the plan's settings (planAcrossSites): block terms, alpha, curve points,
  *   resamples, the run's seed and the interval level
  * @param siteIndex - the site's position in the table's site order (seeds its resamples)
+ * @param fitted - the site's rate + block model when the caller has fitted it (fitRateBlockModel
+ *   on these plots), so the quality checks and this step share one fit
  * @returns the site's analysis; a site the models refuse keeps its rows with the reason
  * @example
  * const plan = planAcrossSites(table, { prices });
@@ -146,15 +153,18 @@ export function analyzeSite(
     'blocks' | 'alpha' | 'curvePoints' | 'resamples' | 'seed' | 'intervalLevel'
   >,
   siteIndex = 0,
+  fitted?: RateBlockModel | RateBlockProblem,
 ): SiteAnalysis {
   const { blocks, alpha, curvePoints } = settings;
   const b = siteBlocks(site, blocks);
   // One rate + block model per site, read by the rate effect and the ANOVA alike.
-  const rateBlock = fitRateBlockModel({
-    rateKgHa: site.rateKgHa,
-    yieldKgHa: site.yieldKgHa,
-    block: site.block,
-  });
+  const rateBlock =
+    fitted ??
+    fitRateBlockModel({
+      rateKgHa: site.rateKgHa,
+      yieldKgHa: site.yieldKgHa,
+      block: site.block,
+    });
   const rateEffect = siteRateEffect(site, rateBlock);
   const responded = rateEffect.test.kind === 'f-test' && rateEffect.test.p < alpha;
   let fits: AllModelsFitData | null = null;
@@ -195,8 +205,13 @@ export function analyzeSite(
     correlation = orProblem(() => pearsonCorrelation(site.rateKgHa, site.yieldKgHa));
     responseOverCheck = siteResponseOverCheck(site, rateBlock, alpha);
   }
-  const rates = Array.from(site.rateKgHa);
-  const { anova, means } = siteAnova(rates, Array.from(site.yieldKgHa), [...site.block], rateBlock);
+  const rates = toNumberArray(site.rateKgHa);
+  const { anova, means } = siteAnova(
+    rates,
+    toNumberArray(site.yieldKgHa),
+    [...site.block],
+    rateBlock,
+  );
   let draws: BootstrapDraws | null = null;
   if (fits && settings.resamples > 0 && new Set(rates).size >= 2) {
     const drawn = (Object.keys(fits.fits) as ModelName[]).filter(

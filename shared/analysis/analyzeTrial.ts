@@ -8,6 +8,7 @@
  * a re-pricing of this result, never a refit.
  */
 import { checkQuality } from '../quality/checkQuality';
+import { fitRateBlockModel } from '../stats/rateBlockModel';
 import type { QualityFinding } from '../table/qualityFinding';
 import type { CropId, PlotTable } from '../table/plotTable';
 import { acrossSites, type AcrossSiteAnalysis } from './acrossSites';
@@ -55,11 +56,18 @@ export function* analyzeTrialSteps(
     seed: settings.seed,
     intervalLevel: settings.intervalLevel,
   });
-  const findings = checkQuality(table);
+  // Each site's rate + block model, fitted once: the quality checks (CV, outliers) and the
+  // site's analysis (rate effect, ANOVA, gain over the check) read the same fit.
+  const rateBlock = plan.plots.map((p) =>
+    fitRateBlockModel({ rateKgHa: p.rateKgHa, yieldKgHa: p.yieldKgHa, block: p.block }),
+  );
+  const findings = checkQuality(table, {
+    rateBlockModels: new Map(plan.plots.map((p, i) => [p.site, rateBlock[i]])),
+  });
   const sites: SiteAnalysis[] = [];
   const total = plan.plots.length;
   for (const [i, p] of plan.plots.entries()) {
-    sites.push(analyzeSite(p, plan.options, i));
+    sites.push(analyzeSite(p, plan.options, i, rateBlock[i]));
     yield { done: i + 1, total, site: p.site };
   }
   return {

@@ -31,7 +31,7 @@ import { chooseSiteModels } from './chooseSiteModels';
 import { rateGrid } from './rateGrid';
 import {
   prepareRegionalReturn,
-  regionalReturnAtPrices,
+  profitableRangeAtPrices,
   type PreparedRegionalReturn,
 } from './regionalReturn';
 import { repriceAcrossSites } from './repriceAcrossSites';
@@ -151,8 +151,8 @@ function profitableRange(
     );
     cache.set(fit, prepared);
   }
-  const r = regionalReturnAtPrices(prepared, prices, { bandPerHa });
-  return [r.profitableRange.lowKgHa, r.profitableRange.highKgHa];
+  const r = profitableRangeAtPrices(prepared, prices, { bandPerHa });
+  return [r.lowKgHa, r.highKgHa];
 }
 
 /**

@@ -39,5 +39,9 @@ export function rateGrid(fromKgHa: number, toKgHa: number, stepKgHa: number): Fl
       `rateGrid: a step of ${stepKgHa} kg/ha gives ${count} points; at most ${MAX_GRID_POINTS} are allowed.`,
     );
   }
-  return Float64Array.from({ length: count }, (_, i) => fromKgHa + i * stepKgHa);
+  // A plain loop: Float64Array.from with a function is many times slower (every site's
+  // profitable range builds a grid of about 400 rates at each pricing).
+  const grid = new Float64Array(count);
+  for (let i = 0; i < count; i++) grid[i] = fromKgHa + i * stepKgHa;
+  return grid;
 }

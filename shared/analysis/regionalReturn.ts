@@ -124,8 +124,11 @@ export function prepareRegionalReturn(
   const g = gridKgHa.length;
   const meanGainKgHa = new Float64Array(g);
   const gains = curves.map((c) => {
-    const row = Float64Array.from(gridKgHa, (x) => c.gainKgHa(x));
-    for (let j = 0; j < g; j++) meanGainKgHa[j] += row[j];
+    const row = new Float64Array(g);
+    for (let j = 0; j < g; j++) {
+      row[j] = c.gainKgHa(gridKgHa[j]);
+      meanGainKgHa[j] += row[j];
+    }
     return row;
   });
   if (curves.length > 0) for (let j = 0; j < g; j++) meanGainKgHa[j] /= curves.length;
@@ -139,7 +142,12 @@ export function prepareRegionalReturn(
  */
 export function costOnGrid(gridKgHa: Float64Array, prices: Prices): Float64Array {
   const app = prices.applicationCostPerHa ?? 0;
-  return Float64Array.from(gridKgHa, (x) => prices.nutrientPricePerKg * x + (x > 0 ? app : 0));
+  const cost = new Float64Array(gridKgHa.length);
+  for (let j = 0; j < cost.length; j++) {
+    const x = gridKgHa[j];
+    cost[j] = prices.nutrientPricePerKg * x + (x > 0 ? app : 0);
+  }
+  return cost;
 }
 
 /** Index of the largest value, the lowest index among values within TIE of it. */
@@ -149,6 +157,81 @@ export function argMaxLowest(values: ArrayLike<number>): number {
   const tol = TIE * Math.max(1, Math.abs(best));
   for (let j = 0; j < values.length; j++) if (values[j] >= best - tol) return j;
   return 0;
+}
+
+/** The prices checked and the band in force, currency/ha. */
+function checkedBand(prices: Prices, options: RegionalReturnOptions): number {
+  assertPrices(prices);
+  const bandPerHa = options.bandPerHa ?? toleranceInForce(null, prices);
+  if (!(Number.isFinite(bandPerHa) && bandPerHa >= 0)) {
+    throw new SitesInputError('bad-argument', `bandPerHa is ${bandPerHa}; it must be 0 or more.`);
+  }
+  return bandPerHa;
+}
+
+/**
+ * The grid rates whose mean return lies within the band of the best (index `best`), as the
+ * lowest and highest of them and whether every rate between them is in the band too.
+ */
+function bandAroundBest(
+  meanReturnPerHa: ArrayLike<number>,
+  gridKgHa: Float64Array,
+  best: number,
+  bandPerHa: number,
+): { lowKgHa: number; highKgHa: number; contiguous: boolean } {
+  const g = gridKgHa.length;
+  const floor =
+    meanReturnPerHa[best] - bandPerHa - TIE * Math.max(1, Math.abs(meanReturnPerHa[best]));
+  let lo = -1;
+  let hi = -1;
+  for (let j = 0; j < g; j++) {
+    if (meanReturnPerHa[j] >= floor) {
+      if (lo < 0) lo = j;
+      hi = j;
+    }
+  }
+  let contiguous = true;
+  for (let j = lo; j <= hi; j++) if (meanReturnPerHa[j] < floor) contiguous = false;
+  return { lowKgHa: gridKgHa[lo], highKgHa: gridKgHa[hi], contiguous };
+}
+
+/** Mean returns of profitableRangeAtPrices, reused from call to call (grown when a grid is longer). */
+let returnScratch = new Float64Array(0);
+
+/**
+ * The profitable range alone: what regionalReturnAtPrices gives as `profitableRange`, by the same
+ * arithmetic, without the site optima or a new return curve. Each site's own range is asked at
+ * every pricing, so this allocates nothing but the result.
+ * @param prepared - from prepareRegionalReturn
+ * @param prices - grain price (currency/kg grain), nutrient price (currency/kg N), optional
+ *   application cost (currency/ha)
+ * @param options - the profitable band, currency/ha (default 1 per acre)
+ * @returns the band, its lowest and highest rate (kg/ha; NaN with no sites) and whether it has gaps
+ * @throws as regionalReturnAtPrices
+ * @example
+ * profitableRangeAtPrices(prepared, prices).lowKgHa // the same as regionalReturnAtPrices(prepared, prices).profitableRange.lowKgHa
+ */
+export function profitableRangeAtPrices(
+  prepared: PreparedRegionalReturn,
+  prices: Prices,
+  options: RegionalReturnOptions = {},
+): RegionalReturn['profitableRange'] {
+  const bandPerHa = checkedBand(prices, options);
+  const { gridKgHa, meanGainKgHa } = prepared;
+  const g = gridKgHa.length;
+  if (prepared.gains.length === 0)
+    return { bandPerHa, lowKgHa: NaN, highKgHa: NaN, contiguous: true };
+  if (returnScratch.length < g) returnScratch = new Float64Array(g);
+  const meanReturnPerHa = returnScratch.subarray(0, g);
+  const { grainPricePerKg: pg, nutrientPricePerKg: pn } = prices;
+  const app = prices.applicationCostPerHa ?? 0;
+  // The cost as costOnGrid has it, term for term, so the returns are the same doubles.
+  for (let j = 0; j < g; j++) {
+    const x = gridKgHa[j];
+    meanReturnPerHa[j] = pg * meanGainKgHa[j] - (pn * x + (x > 0 ? app : 0));
+  }
+  const best = argMaxLowest(meanReturnPerHa);
+  return { bandPerHa, ...bandAroundBest(meanReturnPerHa, gridKgHa, best, bandPerHa) };
 }
 
 /**
@@ -168,11 +251,7 @@ export function regionalReturnAtPrices(
   prices: Prices,
   options: RegionalReturnOptions = {},
 ): RegionalReturn {
-  assertPrices(prices);
-  const bandPerHa = options.bandPerHa ?? toleranceInForce(null, prices);
-  if (!(Number.isFinite(bandPerHa) && bandPerHa >= 0)) {
-    throw new SitesInputError('bad-argument', `bandPerHa is ${bandPerHa}; it must be 0 or more.`);
-  }
+  const bandPerHa = checkedBand(prices, options);
   const { gridKgHa, gains, meanGainKgHa, sites } = prepared;
   const { grainPricePerKg: pg, nutrientPricePerKg: pn } = prices;
   const g = gridKgHa.length;
@@ -192,24 +271,9 @@ export function regionalReturnAtPrices(
 
   const empty = gains.length === 0;
   const best = empty ? -1 : argMaxLowest(meanReturnPerHa);
-  let low = NaN;
-  let high = NaN;
-  let contiguous = true;
-  if (!empty) {
-    const floor =
-      meanReturnPerHa[best] - bandPerHa - TIE * Math.max(1, Math.abs(meanReturnPerHa[best]));
-    let lo = -1;
-    let hi = -1;
-    for (let j = 0; j < g; j++) {
-      if (meanReturnPerHa[j] >= floor) {
-        if (lo < 0) lo = j;
-        hi = j;
-      }
-    }
-    for (let j = lo; j <= hi; j++) if (meanReturnPerHa[j] < floor) contiguous = false;
-    low = gridKgHa[lo];
-    high = gridKgHa[hi];
-  }
+  const band = empty
+    ? { lowKgHa: NaN, highKgHa: NaN, contiguous: true }
+    : bandAroundBest(meanReturnPerHa, gridKgHa, best, bandPerHa);
 
   const sorted = Float64Array.from(siteOptima, (o) => o.rateKgHa).sort();
   return {
@@ -220,7 +284,7 @@ export function regionalReturnAtPrices(
     bestRateKgHa: empty ? NaN : gridKgHa[best],
     bestMeanReturnPerHa: empty ? NaN : meanReturnPerHa[best],
     meanYieldGainAtBestKgHa: empty ? NaN : meanGainKgHa[best],
-    profitableRange: { bandPerHa, lowKgHa: low, highKgHa: high, contiguous },
+    profitableRange: { bandPerHa, ...band },
     siteOptima,
     siteOptimumDistribution: empty
       ? null

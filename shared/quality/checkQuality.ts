@@ -2,6 +2,7 @@
  * All data checks on a plot table, each finding with a severity, a message and
  * the cells concerned. Checks never change the table.
  */
+import type { RateBlockModel, RateBlockProblem } from '../stats/rateBlockModel';
 import type { PlotTable } from '../table/plotTable';
 import { checkDesign } from './checkDesign';
 import { checkResiduals } from './checkResiduals';
@@ -15,6 +16,11 @@ export interface QualityOptions {
   outlierAbsResidual?: number;
   /** Accepted harvest moisture, %; default [5, 40]. */
   moistureRangePct?: [number, number];
+  /**
+   * Site-year name → its rate + block model, when the caller (the analysis) has fitted it on the
+   * site's analyzable plots in table order; the checks then read it instead of fitting it again.
+   */
+  rateBlockModels?: ReadonlyMap<string, RateBlockModel | RateBlockProblem>;
 }
 
 /**
@@ -42,6 +48,6 @@ export function checkQuality(table: PlotTable, options: QualityOptions = {}): Qu
   return [
     ...checkValues(table, moisture),
     ...checkDesign(table),
-    ...checkResiduals(table, cvWarnPct, outlier),
+    ...checkResiduals(table, cvWarnPct, outlier, options.rateBlockModels),
   ].sort((a, b) => rank[a.severity] - rank[b.severity]);
 }

@@ -4,6 +4,7 @@
  * a bound (Belsley, Kuh & Welsch, Regression Diagnostics, 1980, §2.1). Flagged
  * plots are not excluded: the user decides.
  */
+import type { RateBlockModel, RateBlockProblem } from '../stats/rateBlockModel';
 import { analyzablePlots, type Plot, type PlotTable } from '../table/plotTable';
 import { describeRef, type QualityFinding } from '../table/qualityFinding';
 import { siteYearsOf } from '../table/siteYear';
@@ -14,6 +15,8 @@ import { fitTreatmentBlock } from './treatmentBlockModel';
  * @param table - the plot table
  * @param cvWarnPct - CV above which a site is warned, % (15 is common practice for yield trials)
  * @param outlierAbsResidual - |studentized residual| above which a plot is flagged (3)
+ * @param fitted - site-year name → its rate + block model already fitted on its analyzable
+ *   plots in table order (the analysis' one fit per site); sites absent are fitted here
  * @returns one "trial-cv" or "high-cv" finding per site, and "outlier" findings
  * @example
  * checkResiduals(table, 15, 3).filter((f) => f.code === 'outlier')
@@ -22,6 +25,7 @@ export function checkResiduals(
   table: PlotTable,
   cvWarnPct: number,
   outlierAbsResidual: number,
+  fitted?: ReadonlyMap<string, RateBlockModel | RateBlockProblem>,
 ): QualityFinding[] {
   const out: QualityFinding[] = [];
   const bySite = new Map<string, Plot[]>();
@@ -32,7 +36,7 @@ export function checkResiduals(
     bySite.get(site)!.push(p);
   }
   for (const [site, plots] of bySite) {
-    const m = fitTreatmentBlock(plots);
+    const m = fitTreatmentBlock(plots, fitted?.get(site));
     if ('reason' in m) {
       out.push({
         code: 'model-not-fitted',

@@ -30,6 +30,7 @@ import { priceTerms } from '../economics/priceQuote';
 import type { DisplaySettings } from './reportSettings';
 import { regionalChartData } from './regionalReturnChart';
 import { isBlockLabel } from '../stats/hasBlocks';
+import { toNumberArray } from '../stats/toNumberArray';
 import type {
   AcrossSitesReport,
   MixedModelReport,
@@ -150,8 +151,8 @@ function modelRow(
     optimumNote:
       row.optimumStatus === 'not-fitted' ? '' : optimumNote({ status: row.optimumStatus }),
     curve: {
-      rateKgHa: Array.from(f.curve.rateKgHa),
-      yieldKgHa: Array.from(f.curve.yieldKgHa),
+      rateKgHa: toNumberArray(f.curve.rateKgHa),
+      yieldKgHa: toNumberArray(f.curve.yieldKgHa),
     },
   };
 }
@@ -259,7 +260,7 @@ function siteReport(
     intervalLevel: number;
   },
 ): SiteReport {
-  const rates = Array.from(used.rateKgHa);
+  const rates = toNumberArray(used.rateKgHa);
   const blocks = used.block;
   // A long list hides the important lines; the rest are in the quality report on screen.
   const warnings: string[] =

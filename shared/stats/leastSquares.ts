@@ -31,6 +31,12 @@ export interface LeastSquaresInput {
   intercept: boolean;
   /** Confidence level for the coefficient intervals, default 0.95. */
   confidence?: number;
+  /**
+   * Default true. False leaves each coefficient's p-value and interval and the overall F's
+   * p-value NaN (estimates, standard errors, t and F are kept): for callers that read only the
+   * fit and its residuals, since each p-value is an incomplete beta function.
+   */
+  inference?: boolean;
 }
 
 export interface CoefficientEstimate {
@@ -179,7 +185,8 @@ export function fitLeastSquares(input: LeastSquaresInput): LeastSquaresFit {
   const unscaled = unscaledCovariance(qr);
   const covariance = unscaled.map((row) => row.map((v) => v * s2));
   const level = input.confidence ?? 0.95;
-  const tCrit = studentTQuantile(1 - (1 - level) / 2, dfResidual);
+  const inference = input.inference ?? true;
+  const tCrit = inference ? studentTQuantile(1 - (1 - level) / 2, dfResidual) : NaN;
   const coefficients = names.map((name, j) => {
     const stdError = Math.sqrt(covariance[j][j]);
     const t = b[j] / stdError;
@@ -188,7 +195,7 @@ export function fitLeastSquares(input: LeastSquaresInput): LeastSquaresFit {
       estimate: b[j],
       stdError,
       t,
-      p: studentTTwoSidedP(t, dfResidual),
+      p: inference ? studentTTwoSidedP(t, dfResidual) : NaN,
       ciLow: b[j] - tCrit * stdError,
       ciHigh: b[j] + tCrit * stdError,
     };
@@ -209,7 +216,8 @@ export function fitLeastSquares(input: LeastSquaresInput): LeastSquaresFit {
   const adjustedR2 = 1 - (1 - r2) * (dfTotal / dfResidual);
   const msRegression = dfRegression > 0 ? ssRegression / dfRegression : NaN;
   const fStatistic = dfRegression > 0 ? msRegression / s2 : NaN;
-  const fP = dfRegression > 0 ? fisherFUpperP(fStatistic, dfRegression, dfResidual) : NaN;
+  const fP =
+    inference && dfRegression > 0 ? fisherFUpperP(fStatistic, dfRegression, dfResidual) : NaN;
 
   const k = p + 1;
   const logLikelihood = -0.5 * n * (Math.log(2 * Math.PI) + Math.log(sse / n) + 1);

@@ -142,26 +142,45 @@ export function fitRateBlockModel(input: RateBlockInput): RateBlockModel | RateB
  * per block but the first when the site has blocks), for residual diagnostics: studentized
  * residuals and leverages.
  * @param input - the site's rates (kg/ha), yields (kg/ha) and block labels
+ * @param options - `inference: false` skips the coefficient tests and intervals (NaN), for a
+ *   caller that reads only the residuals and leverages (fitLeastSquares)
  * @returns the fit; coefficients are contrasts with the lowest rate and the first block
  * @throws {StatsInputError} "rank-deficient" when blocks and rates are confounded, "too-few-points"
  * @example
  * fitRateBlockLeastSquares(site).studentizedResiduals // one per plot
  */
-export function fitRateBlockLeastSquares(input: RateBlockInput): LeastSquaresFit {
-  const rates = [...new Set(Array.from(input.rateKgHa))].sort((a, b) => a - b);
+export function fitRateBlockLeastSquares(
+  input: RateBlockInput,
+  options: { inference?: boolean } = {},
+): LeastSquaresFit {
+  const { rateKgHa, block } = input;
+  const n = rateKgHa.length;
+  const rates = [...new Set(Array.from(rateKgHa))].sort((a, b) => a - b);
   const columns: Float64Array[] = [];
   const names: string[] = [];
+  // Indicator columns by plain loops: Float64Array.from with a function costs far more.
+  const indicator = (is: (i: number) => boolean): Float64Array => {
+    const column = new Float64Array(n);
+    for (let i = 0; i < n; i++) if (is(i)) column[i] = 1;
+    return column;
+  };
   for (const level of rates.slice(1)) {
-    columns.push(Float64Array.from(input.rateKgHa, (r) => (r === level ? 1 : 0)));
+    columns.push(indicator((i) => rateKgHa[i] === level));
     names.push(`rate ${level}`);
   }
-  if (hasBlocks(input.block)) {
-    for (const b of [...new Set(input.block)].slice(1)) {
-      columns.push(Float64Array.from(input.block, (label) => (label === b ? 1 : 0)));
+  if (hasBlocks(block)) {
+    for (const b of [...new Set(block)].slice(1)) {
+      columns.push(indicator((i) => block[i] === b));
       names.push(`block ${b}`);
     }
   }
-  return fitLeastSquares({ columns, columnNames: names, y: input.yieldKgHa, intercept: true });
+  return fitLeastSquares({
+    columns,
+    columnNames: names,
+    y: input.yieldKgHa,
+    intercept: true,
+    inference: options.inference,
+  });
 }
 
 /** The data problems the ANOVA routines report, as a site's reason. */
