@@ -13,6 +13,7 @@ import type { CropId, PlotTable } from '../table/plotTable';
 import { acrossSites, type AcrossSiteAnalysis } from './acrossSites';
 import { CURVE_POINTS, type AnalysisSettings } from './analysisSettings';
 import { analyzeSite, type SiteAnalysis } from './analyzeSite';
+import { trialLevels, type SiteLevelsAnalysis } from './analyzeLevels';
 import { planAcrossSites } from './planAcrossSites';
 import type { SitePlots } from './sitePlots';
 
@@ -28,6 +29,11 @@ export interface TrialAnalysis {
   findings: QualityFinding[];
   /** Fits, tests and draws per site; rows, pooling tests and regional rate at the first prices. */
   across: AcrossSiteAnalysis;
+  /**
+   * Rate × factor sites (PlotTable.factorKeys): each level analyzed as a site of its own (its
+   * plots and the shared checks) and the tests of whether the levels differ; [] without a factor.
+   */
+  levels: SiteLevelsAnalysis[];
 }
 
 /**
@@ -54,6 +60,7 @@ export function* analyzeTrialSteps(
     resamples: settings.resamples,
     seed: settings.seed,
     intervalLevel: settings.intervalLevel,
+    factorKeys: table.factorKeys,
   });
   const findings = checkQuality(table);
   const sites: SiteAnalysis[] = [];
@@ -69,6 +76,7 @@ export function* analyzeTrialSteps(
     plots: [...plan.plots],
     findings,
     across: acrossSites(plan, sites),
+    levels: trialLevels(table, plan.plots, plan.options),
   };
 }
 
