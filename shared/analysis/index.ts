@@ -105,4 +105,5 @@ export * from './analyzeTrial';
 export * from './siteLevels';
 export * from './levelResponseTest';
 export * from './analyzeLevels';
+export * from './priceLevels';
 export * from './priceTrial';
