@@ -38,6 +38,10 @@ describe('parseArgs', () => {
       '--map',
       'yield=Grain (t/ha)',
       'block=Rep',
+      'factor=Source',
+      '--level-price',
+      'Stabilised urea=0.75',
+      'UAN=0.62',
       '--column-unit',
       'plotArea=ft2',
     ]);
@@ -59,7 +63,9 @@ describe('parseArgs', () => {
       map: [
         { role: 'yield', header: 'Grain (t/ha)' },
         { role: 'block', header: 'Rep' },
+        { role: 'factor', header: 'Source' },
       ],
+      levelPrices: { 'Stabilised urea': 0.75, UAN: 0.62 },
       columnUnits: [{ role: 'plotArea', unit: 'ft2' }],
       shortfallTolerance: 7.5,
       siteChartLimit: 40,
@@ -71,6 +77,9 @@ describe('parseArgs', () => {
     [['--column-unit', 'block=m'], /"block" is not a role with a unit/],
     [['--column-unit', 'kg'], /write role=unit/],
     [['--column-unit'], /needs at least one role=unit/],
+    [['--level-price', 'Split'], /write Level=price with a price above 0/],
+    [['--level-price', 'Split=-1'], /write Level=price with a price above 0/],
+    [['--level-price'], /needs at least one Level=price/],
   ])('refuses %j with a line that says what it takes', (words, message) => {
     expect(() => parseArgs(['analyze', 'a.csv', ...words])).toThrow(message);
   });

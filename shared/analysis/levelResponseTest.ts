@@ -51,6 +51,8 @@ export interface LevelResponseTests {
   linear: LevelCurveTest;
   /** Fertilized plots left out because their factor cell is blank. */
   plotsWithoutLevel: string[];
+  /** The significance level the sentences read the tests at. */
+  alpha: number;
 }
 
 function readings(model: LevelTestModel, factor: string): TestReadings {
@@ -164,5 +166,6 @@ export function levelResponseTests(
     quadratic: test('quadratic'),
     linear: test('linear'),
     plotsWithoutLevel: [...split.withoutLevel],
+    alpha,
   };
 }

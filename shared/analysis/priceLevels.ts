@@ -23,6 +23,7 @@ import type { ModelName } from '../models/modelTypes';
 import type { SiteLevelsAnalysis } from './analyzeLevels';
 import type { LevelResponseTests } from './levelResponseTest';
 import { priceSite, type PricedSite } from './priceSite';
+import { siteModelRows, type SiteModelRow } from './siteModelRows';
 
 /** One level at its prices. */
 export interface PricedLevel {
@@ -35,6 +36,8 @@ export interface PricedLevel {
   priced: PricedSite;
   /** Net return at its recommended optimum, currency/ha; null without one. */
   returnAtOptimumPerHa: number | null;
+  /** Its model rows at its prices (siteModelRows), as the across-site rows are for a site. */
+  rows: SiteModelRow[];
 }
 
 /** Another level set against the one that returns most. */
@@ -152,6 +155,7 @@ export function priceSiteLevels(
       ownNutrientPrice: own,
       priced,
       returnAtOptimumPerHa: priced.optimum?.netReturnPerHa ?? null,
+      rows: siteModelRows(l.analysis, at),
     };
   });
   return {
