@@ -32,10 +32,12 @@ import { resultsJsonText } from '../shared/report/resultsJson';
 import type { DisplaySettings } from '../shared/report/reportSettings';
 import { siteResponseChart } from '../shared/report/siteResponseChart';
 import { unitScale } from '../shared/report/unitScale';
-import type { TrialReport } from '../shared/report/trialReport';
+import type { SiteReport, TrialReport } from '../shared/report/trialReport';
+import { bestLevelSentence, levelTestSentence } from '../shared/report/levelSentences';
 import type { SheetImage } from '../shared/report/workbookSite';
 import { displayUnits, type DisplayUnits } from '../shared/units/displayUnits';
 import { formatQuantity } from '../shared/units/formatQuantity';
+import { KG_PER_LB } from '../shared/units/unitConstants';
 import type { AnalyzeArgs } from './parseArgs';
 import { UsageError } from './usageError';
 
@@ -239,9 +241,11 @@ function summary(report: TrialReport): string[] {
   const ru = report.settings.units.rate;
   const rate = (kgHa: number | null | undefined): string =>
     kgHa == null ? '—' : formatQuantity(u.rate(kgHa), ru, 0).replace(ru, ru.replace('/', ' N/'));
+  const money = (perHa: number): string =>
+    `${Math.round(u.perArea(perHa)).toLocaleString('en-US')} per ${u.areaName}`;
   const lines: string[] = [];
   const show = report.sites.slice(0, 20);
-  for (const s of show) {
+  const siteText = (s: SiteReport): string => {
     // The site's recommendation as its decision makes it (no response, full response, a curve).
     const r = s.recommendation;
     const m = s.models.find((x) => x.model === r.model);
@@ -263,7 +267,16 @@ function summary(report: TrialReport): string[] {
       text = `full response by the lowest rate: at most ${rate(r.rangeKgHa[1])}${ci}`;
     else if (m && r.rateKgHa !== null)
       text = `${m.label}, optimum ${rate(r.rateKgHa)}${ci}${yieldText}`;
-    lines.push(`${s.site}: ${text}`);
+    return text;
+  };
+  for (const s of show) {
+    lines.push(`${s.site}: ${siteText(s)}`);
+    // A rate × factor site: each level's recommendation and which level returns most.
+    for (const f of report.levels.filter((l) => l.site === s.site)) {
+      for (const l of f.levels) lines.push(`  ${f.factor} ${l.level}: ${siteText(l.report)}`);
+      lines.push(`  ${levelTestSentence(f)}`);
+      lines.push(`  ${bestLevelSentence(f, { rate: (v) => rate(v), money })}`);
+    }
   }
   if (report.sites.length > show.length)
     lines.push(`… ${report.sites.length - show.length} more sites in the report.`);
@@ -493,7 +506,26 @@ async function analyzedReport(
   const perArea = unitScale(units, imported.table.crop).perArea(1);
   const shortfallTolerancePerHa =
     args.shortfallTolerance === null ? null : args.shortfallTolerance / perArea;
-  const priced = priceTrial(analysis, canonical, {}, { shortfallTolerancePerHa });
+  // A level's own N price is quoted as --nutrient-price is: per lb of N with lb/ac rates.
+  const perKgN = units.rate === 'lb/ac' ? 1 / KG_PER_LB : 1;
+  const levelNutrientPricePerKg = Object.fromEntries(
+    Object.entries(args.levelPrices).map(([level, p]) => [level, p * perKgN]),
+  );
+  const known = new Set(analysis.levels.flatMap((s) => s.levels.map((l) => l.level)));
+  for (const level of Object.keys(levelNutrientPricePerKg))
+    if (!known.has(level))
+      log.err(
+        `plotrate: warning: --level-price names "${level}", which is no level of a treatment factor here${known.size ? ` (levels: ${[...known].join(', ')})` : ' (no column has the factor role; see --map factor=Header)'}; it is not used.`,
+      );
+  const priced = priceTrial(
+    analysis,
+    canonical,
+    {},
+    {
+      shortfallTolerancePerHa,
+      levelNutrientPricePerKg,
+    },
+  );
   const report = assembleReport(analysis, priced, display, {
     tool: { name: 'Plotrate', version },
     createdAt: extra.createdAt ?? new Date().toISOString().replace(/\.\d+Z$/, 'Z'),

@@ -57,7 +57,16 @@ Options for analyze
   --map role=Header ...  say which column holds what, e.g. --map yield=Grain
                          rate="N applied"; roles: site, year, block, plot,
                          treatment, rate, yield, moisture, exclude, notes,
-                         plotWeight, plotArea, group, ignore
+                         plotWeight, plotArea, group, factor, ignore
+                         factor: a treatment factor (source, timing,
+                         placement…): each of its values gets its own curve
+                         and recommendation, the zero-rate check plots shared
+                         by all, e.g. --map factor=Source (a Timing column of
+                         a plots sheet is taken as the factor by itself)
+  --level-price Level=N ...
+                         a factor level's own N price, as --nutrient-price,
+                         e.g. --level-price "Stabilised urea=0.75"; other
+                         levels take the run's N price
   --column-unit role=unit ...
                          the unit of a column whose header names none, e.g.
                          --column-unit plotWeight=kg yield=t/ha; rate: kg/ha,

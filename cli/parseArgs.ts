@@ -43,6 +43,11 @@ export interface AnalyzeArgs {
   seed: number;
   blocks: 'none' | 'fixed';
   map: RoleOverride[];
+  /**
+   * A treatment level's own N price (--level-price Split=0.62), per lb of N with lb/ac rates or
+   * per kg of N, as --nutrient-price; level name → price.
+   */
+  levelPrices: Record<string, number>;
   /** The unit of a role's column, where the file does not say it (--column-unit plotWeight=kg). */
   columnUnits: UnitOverride[];
   /** Grower, advisor, field and season printed on the grower pages (--page-field grower=…). */
@@ -93,6 +98,7 @@ export function analyzeDefaults(files: string[] = []): AnalyzeArgs {
     seed: ANALYSIS_DEFAULTS.seed,
     blocks: 'fixed',
     map: [],
+    levelPrices: {},
     columnUnits: [],
     pageFields: { ...EMPTY_PAGE_FIELDS },
     shortfallTolerance: null,
@@ -282,6 +288,23 @@ export function parseArgs(argv: readonly string[]): Command {
             `--page-field ${name}: at most ${PAGE_FIELD_MAX_CHARS} characters; got ${text.length}.`,
           );
         a.pageFields[name] = text;
+        break;
+      }
+      case '--level-price': {
+        let any = false;
+        while (i + 1 < rest.length && !rest[i + 1].startsWith('--')) {
+          const pair = rest[++i];
+          const eq = pair.lastIndexOf('=');
+          const level = pair.slice(0, eq).trim();
+          const price = Number(pair.slice(eq + 1));
+          if (eq < 1 || !level || !(Number.isFinite(price) && price > 0))
+            throw new UsageError(
+              `--level-price ${pair}: write Level=price with a price above 0, e.g. --level-price Split=0.62.`,
+            );
+          a.levelPrices[level] = price;
+          any = true;
+        }
+        if (!any) throw new UsageError('--level-price needs at least one Level=price.');
         break;
       }
       case '--column-unit': {

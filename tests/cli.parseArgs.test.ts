@@ -40,6 +40,10 @@ describe('parseArgs', () => {
       '--map',
       'yield=Grain (t/ha)',
       'block=Rep',
+      'factor=Source',
+      '--level-price',
+      'Stabilised urea=0.75',
+      'UAN=0.62',
       '--column-unit',
       'plotArea=ft2',
       '--page-field',
@@ -66,7 +70,9 @@ describe('parseArgs', () => {
       map: [
         { role: 'yield', header: 'Grain (t/ha)' },
         { role: 'block', header: 'Rep' },
+        { role: 'factor', header: 'Source' },
       ],
+      levelPrices: { 'Stabilised urea': 0.75, UAN: 0.62 },
       columnUnits: [{ role: 'plotArea', unit: 'ft2' }],
       pageFields: { grower: 'Ada Brinkwater', advisor: '', field: '', season: '2026' },
       shortfallTolerance: 7.5,
@@ -83,6 +89,9 @@ describe('parseArgs', () => {
     [['--page-field', 'farm=North'], /a name of grower, field, season, advisor/],
     [['--page-field', `field=${'x'.repeat(121)}`], /at most 120 characters/],
     [['--currency'], /--currency \(missing\)/],
+    [['--level-price', 'Split'], /write Level=price with a price above 0/],
+    [['--level-price', 'Split=-1'], /write Level=price with a price above 0/],
+    [['--level-price'], /needs at least one Level=price/],
   ])('refuses %j with a line that says what it takes', (words, message) => {
     expect(() => parseArgs(['analyze', 'a.csv', ...words])).toThrow(message);
   });

@@ -14,6 +14,7 @@ import type { CropId, PlotTable } from '../table/plotTable';
 import { acrossSites, type AcrossSiteAnalysis } from './acrossSites';
 import { CURVE_POINTS, type AnalysisSettings } from './analysisSettings';
 import { analyzeSite, type SiteAnalysis } from './analyzeSite';
+import { trialLevels, type SiteLevelsAnalysis } from './analyzeLevels';
 import { planAcrossSites } from './planAcrossSites';
 import type { SitePlots } from './sitePlots';
 
@@ -29,6 +30,11 @@ export interface TrialAnalysis {
   findings: QualityFinding[];
   /** Fits, tests and draws per site; rows, pooling tests and regional rate at the first prices. */
   across: AcrossSiteAnalysis;
+  /**
+   * Rate × factor sites (PlotTable.factorKeys): each level analyzed as a site of its own (its
+   * plots and the shared checks) and the tests of whether the levels differ; [] without a factor.
+   */
+  levels: SiteLevelsAnalysis[];
 }
 
 /**
@@ -55,6 +61,7 @@ export function* analyzeTrialSteps(
     resamples: settings.resamples,
     seed: settings.seed,
     intervalLevel: settings.intervalLevel,
+    factorKeys: table.factorKeys,
   });
   // Each site's rate + block model, fitted once: the quality checks (CV, outliers) and the
   // site's analysis (rate effect, ANOVA, gain over the check) read the same fit.
@@ -77,6 +84,7 @@ export function* analyzeTrialSteps(
     plots: [...plan.plots],
     findings,
     across: acrossSites(plan, sites),
+    levels: trialLevels(table, plan.plots, plan.options),
   };
 }
 

@@ -102,4 +102,8 @@ export * from './chooseSiteModels';
 export * from './repriceAcrossSites';
 export * from './analysisSettings';
 export * from './analyzeTrial';
+export * from './siteLevels';
+export * from './levelResponseTest';
+export * from './analyzeLevels';
+export * from './priceLevels';
 export * from './priceTrial';

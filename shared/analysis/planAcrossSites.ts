@@ -73,11 +73,16 @@ export interface AcrossSiteOptions {
    * listed in `groupKeysSkipped` with the reason.
    */
   groupKeys?: readonly string[];
+  /**
+   * Treatment-factor columns (PlotTable.factorKeys): they split a site into levels
+   * (analyzeLevels), so they are neither groups nor listed as skipped.
+   */
+  factorKeys?: readonly string[];
 }
 
 /** The options of an analysis with every default filled in. */
 export type AcrossSiteSettings = Required<
-  Omit<AcrossSiteOptions, 'gridToKgHa' | 'groupKeys' | 'curvePoints'>
+  Omit<AcrossSiteOptions, 'gridToKgHa' | 'groupKeys' | 'curvePoints' | 'factorKeys'>
 > & {
   gridToKgHa: number | null;
   groupKeys: readonly string[];
@@ -128,6 +133,7 @@ export function planAcrossSites(
     : sitePlots(source as PlotTable);
   const keys = new Set<string>();
   for (const p of plots) for (const k of Object.keys(p.groups)) keys.add(k);
+  for (const k of options.factorKeys ?? []) keys.delete(k);
   // sitePlots maps a column that differs within a site to null for that site.
   const groupKeysSkipped = options.groupKeys
     ? []

@@ -5,91 +5,23 @@
  * draws, its profitable range on the fitted curve, how its recommendation moves
  * with the price ratio (priceRatioSensitivity) and the risk of each candidate rate
  * (shortfallRisk), and the across-site rows and regional rate (chooseSiteModels,
- * repriceAcrossSites). Every view (screen, workbook, grower page, JSON,
+ * repriceAcrossSites); one site's part is priceSite (shared/analysis/priceSite.ts), each
+ * treatment level's priceLevels. Every view (screen, workbook, grower page, JSON,
  * command-line summary) reads this one value.
  */
-import {
-  economicOptimum,
-  recommendedRateKgHa,
-  type EconomicOptimum,
-} from '../economics/economicOptimum';
-import { optimumAcrossModels, type OptimumComparison } from '../economics/optimumAcrossModels';
-import { optimumInterval, type OptimumInterval } from '../economics/optimumInterval';
-import { optimumProfileInterval, type OptimumProfileInterval } from '../economics/optimumProfile';
 import { assertPrices, priceRatio, type Prices } from '../economics/priceRatio';
-import { priceRatioSensitivity, type RatioMultiple } from '../economics/priceRatioSensitivity';
-import { shortfallRisk } from '../economics/shortfallRisk';
-import { candidateRates, toleranceInForce, type ShortfallRisk } from '../economics/shortfallRule';
-import type { IntervalBasis } from '../economics/drawChoices';
+import { toleranceInForce } from '../economics/shortfallRule';
 import { mixedModelOptimum, type MixedModelOptimum } from '../economics/mixedModelOptimum';
-import { curveValue } from '../models/curveValue';
 import type { ModelName } from '../models/modelTypes';
 import type { AcrossSiteAnalysis } from './acrossSites';
 import type { TrialAnalysis } from './analyzeTrial';
-import type { FitData, SiteAnalysis } from './analyzeSite';
 import { chooseSiteModels } from './chooseSiteModels';
-import { rateGrid } from './rateGrid';
-import {
-  prepareRegionalReturn,
-  profitableRangeAtPrices,
-  type PreparedRegionalReturn,
-} from './regionalReturn';
+import { priceTrialLevels, type PricedSiteLevels } from './priceLevels';
+import { priceSite, type PricedSite } from './priceSite';
 import { repriceAcrossSites } from './repriceAcrossSites';
-import {
-  noResponseSentence,
-  siteDecision,
-  siteGainCurve,
-  type RecommendationBasis,
-  type SiteLead,
-} from './siteDecision';
 
 export type { SiteLead } from './siteDecision';
-
-/** One site at these prices. */
-export interface PricedSite {
-  site: string;
-  lead: SiteLead;
-  /** The leading model's optimum at these prices; null without a leading model. */
-  optimum: EconomicOptimum | null;
-  /**
-   * The bootstrap interval of the site's optimum; null without draws. With the rule's model
-   * the model is chosen again inside every resample ("model-reselected"); with the analyst's
-   * pick it is that model's interval ("fixed-model"), see priceSite.
-   */
-  interval: OptimumInterval | null;
-  /**
-   * The profile interval of the leading model's optimum at these prices, beside the bootstrap
-   * interval (optimumProfileInterval: the linear-plateau's join interval when its slope pays,
-   * the quadratic's in closed form); null for the other models, without a leading model and
-   * for a site that did not respond.
-   */
-  optimumProfile: OptimumProfileInterval | null;
-  /** Rates within the analysis' band of the best return on the leading curve, kg/ha. */
-  profitableRangeKgHa: [number, number] | null;
-  /**
-   * The ranked curves' optima side by side (optimumAcrossModels): their spread, and a warning
-   * when they lie more than 20 kg/ha apart, because then the choice of model matters.
-   */
-  acrossModels: OptimumComparison | null;
-  /**
-   * The recommended rate and its interval at the price ratio scaled by 0.5, 0.75, 1, 1.5 and 2
-   * (the nitrogen price scaled, the grain price kept); null without a leading model.
-   */
-  priceRatioSensitivity: SiteSensitivityRow[] | null;
-  /**
-   * For the tested rates and the recommended rate: the share of resamples in which the rate
-   * returns less than that resample's best by more than the tolerance; null without draws.
-   */
-  shortfallRisk: ShortfallRisk | null;
-}
-
-/** The site's recommendation at one multiple of the price ratio. */
-export interface SiteSensitivityRow extends RatioMultiple {
-  /** The recommended rate at this ratio (recommendedRateKgHa), kg/ha. */
-  rateKgHa: number | null;
-  /** Its bootstrap interval at this ratio, kg/ha; null without draws. */
-  intervalKgHa: [number, number] | null;
-}
+export { priceSite, siteLead, type PricedSite, type SiteSensitivityRow } from './priceSite';
 
 /** Settings of the priced view that are not prices. */
 export interface PriceTrialOptions {
@@ -98,6 +30,11 @@ export interface PriceTrialOptions {
    * absent: the cost of 10 kg N/ha at these prices (defaultShortfallTolerancePerHa).
    */
   shortfallTolerancePerHa?: number | null;
+  /**
+   * A treatment level's own N price, currency per kg N, by level name (a product that costs
+   * more or less per kg N than the run's); absent levels take the run's price (priceLevels).
+   */
+  levelNutrientPricePerKg?: Readonly<Record<string, number>>;
 }
 
 export interface PricedTrial {
@@ -115,172 +52,13 @@ export interface PricedTrial {
    * analysis' level (mixedModelOptimum, closed form, no refit); null without a mixed model.
    */
   mixedOptimum: MixedModelOptimum | null;
-}
-
-/** The leading model of one site, the reason to print beside it and its basis (siteDecision). */
-export function siteLead(s: SiteAnalysis, choices: Readonly<Record<string, ModelName>>): SiteLead {
-  return siteDecision(s, choices);
-}
-
-/**
- * Each fitted curve's gain over its check on a fine grid of its tested rates: price-free, so it
- * is made once per fit and kept with it (a slider then costs only the pricing of the grid).
- */
-const preparedCurves = new WeakMap<object, PreparedRegionalReturn>();
-/** The same for a non-responding site's flat gain (zero at every rate). */
-const preparedFlat = new WeakMap<object, PreparedRegionalReturn>();
-
-/** Rates within `bandPerHa` of the best return on one fitted curve, kg/ha. */
-function profitableRange(
-  s: SiteAnalysis,
-  model: ModelName,
-  basis: RecommendationBasis | null,
-  prices: Prices,
-  bandPerHa: number,
-): [number, number] {
-  const fit = s.fits!.fits[model];
-  const flat = basis === 'no-response';
-  const cache = flat ? preparedFlat : preparedCurves;
-  let prepared = cache.get(fit);
-  if (!prepared) {
-    const t = fit.testedRates;
-    const step = Math.max((t.highestKgHa - t.lowestKgHa) / 400, 0.25);
-    prepared = prepareRegionalReturn(
-      [{ site: s.site, gainKgHa: siteGainCurve(fit, basis) }],
-      rateGrid(t.lowestKgHa, t.highestKgHa, step),
-    );
-    cache.set(fit, prepared);
-  }
-  const r = profitableRangeAtPrices(prepared, prices, { bandPerHa });
-  return [r.lowKgHa, r.highKgHa];
-}
-
-/**
- * How a site's resamples are read, for its interval and its shortfall risk alike. The rule's
- * model gets the model chosen again in each resample (the choice is part of the estimate). An
- * analyst's pick keeps that model alone: the analyst has fixed the model, so the interval
- * answers "if this curve is right", and the lead's reason says it was picked.
- */
-function resampleBasis(lead: SiteLead): IntervalBasis {
-  return lead.picked ? 'fixed-model' : 'model-reselected';
-}
-
-/**
- * A non-responding site's optimum: no N, with its own sentence, whatever the curve says
- * (siteDecision). Yield and return are the fitted check's.
- */
-function noResponseOptimum(
-  fitted: EconomicOptimum,
-  fit: FitData,
-  prices: Prices,
-  rateEffect: SiteAnalysis['rateEffect'],
-): EconomicOptimum {
-  const at0 = curveValue(fit.model, fit.params, 0);
-  const check = Number.isFinite(at0) ? at0 : fit.curve.yieldKgHa[0];
-  const p = rateEffect.test.kind === 'f-test' ? rateEffect.test.p : NaN;
-  return {
-    ...fitted,
-    status: 'zero',
-    rateKgHa: 0,
-    uncappedRateKgHa: 0,
-    rangeKgHa: null,
-    yieldKgHa: check,
-    netReturnPerHa: prices.grainPricePerKg * check,
-    gainOverCheckPerHa: 0,
-    cappedAtHighest: false,
-    explanation: noResponseSentence(p),
-  };
-}
-
-/**
- * The interval of a non-responding site, widened down to 0 when its resamples' choices all lay
- * above: the site's answer is 0 because the test could not rule out no response, so 0 stays
- * inside the interval; the upper end still says how high the optimum could be if the site did
- * respond (the curves chosen in the resamples). The shares are the resamples' own.
- */
-function reachingZero(interval: OptimumInterval): OptimumInterval {
-  const ci = interval.ciKgHa;
-  return ci && ci[0] > 0 ? { ...interval, ciKgHa: [0, ci[1]] } : interval;
-}
-
-/** A site's optimum and interval at one set of prices, as its decision makes them. */
-function recommendationAt(
-  s: SiteAnalysis,
-  lead: SiteLead & { model: ModelName },
-  fit: FitData,
-  prices: Prices,
-  level: number,
-): { optimum: EconomicOptimum; interval: OptimumInterval | null } {
-  const fitted = economicOptimum(fit, prices);
-  const interval = s.draws
-    ? optimumInterval(s.draws, lead.model, prices, level, resampleBasis(lead))
-    : null;
-  const noResponse = lead.basis === 'no-response';
-  return {
-    optimum: noResponse ? noResponseOptimum(fitted, fit, prices, s.rateEffect) : fitted,
-    interval: noResponse && interval ? reachingZero(interval) : interval,
-  };
-}
-
-/**
- * One site at these prices and picks.
- * @param s - the site's analysis
- * @param prices - canonical prices
- * @param choices - site → the analyst's model
- * @param level - interval level, e.g. 0.9
- * @param tolerancePerHa - the tolerance, currency/ha (the profitable range's band below the best
- *   return and the shortfall risk's limit); default the cost of 10 kg N/ha
- * @returns the site's lead, optimum, interval, profitable range, price-ratio sensitivity and
- *   shortfall risk
- * @throws {StatsInputError} "bad-argument" for a bad price or a negative tolerance
- */
-export function priceSite(
-  s: SiteAnalysis,
-  prices: Prices,
-  choices: Readonly<Record<string, ModelName>>,
-  level: number,
-  tolerancePerHa: number = toleranceInForce(null, prices),
-): PricedSite {
-  const lead = siteLead(s, choices);
-  const model = lead.model;
-  const fit = model && s.fits ? s.fits.fits[model] : null;
-  if (!model || !fit) {
-    return {
-      site: s.site,
-      lead,
-      optimum: null,
-      interval: null,
-      optimumProfile: null,
-      profitableRangeKgHa: null,
-      acrossModels: null,
-      priceRatioSensitivity: null,
-      shortfallRisk: null,
-    };
-  }
-  const led = { ...lead, model };
-  const here = recommendationAt(s, led, fit, prices, level);
-  // The 1× row is the recommendation itself; the other rows ask the same function again.
-  const sensitivity = priceRatioSensitivity(prices, (scaled, m) => {
-    const r = m === 1 ? here : recommendationAt(s, led, fit, scaled, level);
-    return { rateKgHa: recommendedRateKgHa(r.optimum), intervalKgHa: r.interval?.ciKgHa ?? null };
-  });
-  const rates = candidateRates(fit.testedRates.distinctKgHa, recommendedRateKgHa(here.optimum));
-  return {
-    site: s.site,
-    lead,
-    optimum: here.optimum,
-    interval: here.interval,
-    optimumProfile:
-      lead.basis === 'no-response'
-        ? null
-        : optimumProfileInterval(fit, s.joinProfiles[model] ?? null, prices, level),
-    profitableRangeKgHa: profitableRange(s, model, lead.basis, prices, tolerancePerHa),
-    acrossModels: optimumAcrossModels(s.fits!.fits, s.fits!.ranking, prices),
-    priceRatioSensitivity: sensitivity,
-    shortfallRisk: s.draws
-      ? shortfallRisk(s.draws, model, resampleBasis(lead), prices, rates, tolerancePerHa)
-      : null,
-  };
+  /** Each treatment level's own N price by level name, as given (priceTrialLevels reads it). */
+  levelNutrientPricePerKg: Readonly<Record<string, number>>;
+  /**
+   * Each rate × factor site's levels at these prices (each level at its own N price where it has
+   * one), the level tests and which level returns most (priceLevels); [] without a factor.
+   */
+  levels: PricedSiteLevels[];
 }
 
 /**
@@ -318,5 +96,13 @@ export function priceTrial(
       across.mixed.model === null
         ? null
         : mixedModelOptimum(across.mixed, priceRatio(prices), intervalLevel),
+    levelNutrientPricePerKg: { ...options.levelNutrientPricePerKg },
+    levels: priceTrialLevels(analysis.levels ?? [], {
+      prices,
+      levelNutrientPricePerKg: { ...options.levelNutrientPricePerKg },
+      choices,
+      level: intervalLevel,
+      tolerancePerHa: given,
+    }),
   };
 }

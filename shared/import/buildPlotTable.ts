@@ -89,6 +89,8 @@ export function buildPlotTable(
   const plots: Plot[] = [];
   const sources: SourceFile[] = books.map((b) => b.file);
   const perFile: { name: string; plots: Plot[] }[] = [];
+  // Headers of the columns given the treatment-factor role: each splits its sites into levels.
+  const factorKeys: string[] = [];
   // Sheets that name another crop stay out unless chosen by name, or unless nothing else is left
   // in any of the files (then each is read with a warning that its crop differs).
   const otherCrop = (s: SheetMapping) => !settings.sheets && !!s.cropHint && s.cropHint !== crop;
@@ -136,6 +138,8 @@ export function buildPlotTable(
         );
       }
       readPlotsSheet(raw, sheet, m, key, settings, crop, standardMoisturePct, plots, findings);
+      for (const c of m.columns)
+        if (c.role === 'factor' && !factorKeys.includes(c.header)) factorKeys.push(c.header);
       secondYieldColumns(raw.file.name, m, findings);
       if (m.cropHint && m.cropHint !== crop)
         findings.push({
@@ -157,5 +161,7 @@ export function buildPlotTable(
       { file: books[0]?.file.name ?? '' },
     );
   }
-  return { table: { crop, standardMoisturePct, plots, sources }, findings };
+  const table: PlotTable = { crop, standardMoisturePct, plots, sources };
+  if (factorKeys.length > 0) table.factorKeys = factorKeys;
+  return { table, findings };
 }

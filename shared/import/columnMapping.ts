@@ -7,10 +7,11 @@ import { COLUMN_ROLES, type CropId } from '../table/plotTable';
 
 /**
  * Every meaning a column can be given: the plot-table roles, the treatment-key
- * fields (product, timing) and "ignore"; the one list that detection,
+ * fields (product, timing), a treatment factor of a plots sheet (its values are levels, each
+ * with its own response curve: shared/analysis/siteLevels) and "ignore"; the one list that detection,
  * validation and the command line's --map check against.
  */
-export const MAPPED_ROLES = [...COLUMN_ROLES, 'product', 'timing', 'ignore'] as const;
+export const MAPPED_ROLES = [...COLUMN_ROLES, 'product', 'timing', 'factor', 'ignore'] as const;
 
 /** A column's meaning: a plot-table role, a treatment-key field, or nothing. */
 export type MappedRole = (typeof MAPPED_ROLES)[number];
@@ -35,6 +36,7 @@ export const ROLE_LABELS: Readonly<Record<MappedRole, string>> = {
   group: 'Grouping (soil, previous crop…)',
   product: 'Product (key)',
   timing: 'Timing (key)',
+  factor: 'Treatment factor (source, timing…)',
   ignore: 'Not used',
 };
 

@@ -197,6 +197,20 @@ function ignoredSheet(sheet: RawSheet, evidence: string): SheetMapping {
   };
 }
 
+/**
+ * On a plots sheet a timing column is a treatment factor (rate × timing): its values are the
+ * levels, each with its own curve from the shared check. A timing column matters only there or
+ * in a treatment key, so the change loses nothing; one factor column per sheet.
+ */
+function timingAsFactor(columns: ColumnAssignment[]): void {
+  if (columns.some((c) => c.role === 'factor')) return;
+  const timing = columns.find((c) => c.role === 'timing');
+  if (!timing) return;
+  timing.role = 'factor';
+  timing.evidence +=
+    '; a timing column on a plots sheet is a treatment factor: each timing gets its own response curve, the zero-rate check shared';
+}
+
 function mapSheet(sheet: RawSheet, multipleSheets: boolean, fileName: string): SheetMapping {
   if (sheet.hidden)
     return ignoredSheet(sheet, 'hidden sheet; include it by hand if it holds plots');
@@ -361,6 +375,7 @@ function mapSheet(sheet: RawSheet, multipleSheets: boolean, fileName: string): S
   } else {
     evidence = `header in row ${headerRow} but no yield, plot weight or treatment key columns`;
   }
+  if (use === 'plots') timingAsFactor(columns);
   const generic = /^(sheet\s*\d*|data|plots?|yields?|results?|raw|)$/i.test(sheet.name.trim());
   const site: SheetMapping['site'] = has('site')
     ? { from: 'column' }

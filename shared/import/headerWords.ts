@@ -31,6 +31,7 @@ const rules: [Exclude<MappedRole, 'ignore'>, RegExp][] = [
   ['plot', /\bplot\b|\bplot\s*(no|#|id|number)\b|^plt$/],
   ['site', /\b(site|location|loc|field|farm|station)\b/],
   ['year', /\b(year|yr|season)\b/],
+  ['factor', /\b(placement|application\s*method)\b/],
   ['timing', /\b(timing|stage|application\s*time)\b/],
   ['product', /\b(source|product|fertili[sz]er|form)\b/],
 ];

@@ -74,7 +74,7 @@ export function readPlotsSheet(
     exclude: col('exclude'),
   };
   const groupCols = m.columns.filter(
-    (c) => c.role === 'group' || c.role === 'product' || c.role === 'timing',
+    (c) => c.role === 'group' || c.role === 'product' || c.role === 'timing' || c.role === 'factor',
   );
   if (!cols.yield && !cols.plotWeight) {
     throw new ImportError(

@@ -33,12 +33,14 @@ import { isBlockLabel } from '../stats/hasBlocks';
 import { toNumberArray } from '../stats/toNumberArray';
 import type {
   AcrossSitesReport,
+  LevelReport,
   MixedModelReport,
   InterceptSummary,
   LackOfFitSummary,
   ModelRow,
   SensitivitySummaryRow,
   ShortfallSummary,
+  SiteLevelsReport,
   SiteReport,
   TrialReport,
 } from './trialReport';
@@ -225,7 +227,52 @@ export function assembleReport(
     acrossSites: acrossSitesOf(priced.across, priced.mixedOptimum),
     yearsCompared: yearsComparedReport(priced.across),
     warnings: runWarnings,
+    levels: levelsOf(analysis, priced, a.blocks, a.intervalLevel),
   };
+}
+
+/**
+ * Each rate × factor site's levels as the report shows them: every level through siteReport,
+ * with its own model rows and priced view (PricedTrial.levels), so a level reads as a site does.
+ */
+function levelsOf(
+  analysis: TrialAnalysis,
+  priced: PricedTrial,
+  blocksAsked: 'auto' | 'none',
+  intervalLevel: number,
+): SiteLevelsReport[] {
+  const byId = new Map(analysis.table.plots.map((p) => [p.id, p]));
+  return (priced.levels ?? []).map((pl, i) => {
+    const s = analysis.levels[i];
+    return {
+      site: pl.site,
+      factor: pl.factor,
+      test: pl.test,
+      comparison: pl.comparison,
+      levels: pl.levels.map((l, k): LevelReport => {
+        const la = s.levels[k];
+        return {
+          level: l.level,
+          checkPlots: la.checkPlots,
+          nutrientPricePerKg: l.prices.nutrientPricePerKg,
+          ownNutrientPrice: l.ownNutrientPrice,
+          returnAtOptimumPerHa: l.returnAtOptimumPerHa,
+          report: siteReport(
+            la.analysis,
+            la.plots,
+            la.plots.plotIds.flatMap((id) => byId.get(id) ?? []),
+            {
+              rows: new Map(l.rows.map((r) => [r.model, r])),
+              findings: [],
+              priced: l.priced,
+              blocksAsked,
+              intervalLevel,
+            },
+          ),
+        };
+      }),
+    };
+  });
 }
 
 /** A shortfall risk as the report keeps it, with the recommended rate marked. */

@@ -6,7 +6,14 @@
  */
 import type { RateProfileInterval } from '../models/joinProfile';
 import type { ModelName, FitStatus } from '../models/modelTypes';
-import type { FTestNumbers, MixedModelReport, ShortfallSummary, TrialReport } from './trialReport';
+import type {
+  FTestNumbers,
+  MixedModelReport,
+  ShortfallSummary,
+  SiteLevelsReport,
+  SiteReport,
+  TrialReport,
+} from './trialReport';
 import { priceRatioQuote } from '../economics/priceQuote';
 import { unitScale, type UnitScale } from './unitScale';
 
@@ -126,6 +133,61 @@ export interface ResultsSite {
     rows: { rate: number; share: number; recommended: boolean }[];
   } | null;
   warnings: string[];
+  /**
+   * A rate × factor site (source, timing…): each level's recommendation and models as a site's,
+   * from its own plots and the shared zero-rate checks (`site` names it "Site (Factor: level)",
+   * `checkPlots` of its `n` plots are shared checks), priced at `nutrientPricePerKgN` (currency
+   * per kg N; `ownNutrientPrice`: the level's own, else the run's), with its return at that rate
+   * in money per area; [] for a rate-only site.
+   */
+  levels: ResultsLevel[];
+  /** Whether the levels differ and which returns most (first factor); null for a rate-only site. */
+  levelTest: ResultsLevelTest | null;
+}
+
+/** One treatment level of a site in the results file. */
+export interface ResultsLevel {
+  factor: string;
+  level: string;
+  site: string;
+  n: number;
+  checkPlots: number;
+  nutrientPricePerKgN: number;
+  ownNutrientPrice: boolean;
+  returnAtOptimum: number | null;
+  recommendation: ResultsSite['recommendation'];
+  models: ResultsModel[];
+}
+
+/**
+ * The levels compared: nested F tests of one curve for every level against one per level, the
+ * zero-rate check shared (`quadratic` leads, `linear` beside it; null when no test could be made,
+ * with the reason in the sentence), `differ` (quadratic p below the run's alpha, 0.05), the level that returns most
+ * at its own optimum (`best`), the share of the paired resamples in which it did (`bestShare`),
+ * and every other level's difference from it in optimum (rate unit) and in return (`returnUnit`)
+ * with percentile intervals at `level`.
+ */
+export interface ResultsLevelTest {
+  factor: string;
+  levels: string[];
+  blocks: 'fixed' | 'none';
+  quadratic: FTestNumbers | null;
+  linear: FTestNumbers | null;
+  differ: boolean | null;
+  sentence: string;
+  best: string | null;
+  bestShare: number | null;
+  resamplesCompared: number;
+  resamplesLeftOut: number;
+  level: number;
+  returnUnit: string;
+  differences: {
+    level: string;
+    optimumDifference: number | null;
+    optimumDifferenceInterval: [number, number] | null;
+    returnDifference: number | null;
+    returnDifferenceInterval: [number, number] | null;
+  }[];
 }
 
 export interface ResultsJson {
@@ -263,6 +325,44 @@ export function resultsJson(report: TrialReport): ResultsJson {
       share: clean(r.share),
       recommended: r.recommended,
     }));
+  const recommendationOf = (s: SiteReport): ResultsSite['recommendation'] => ({
+    rate: cleanOrNull(
+      s.recommendation.rateKgHa === null ? null : u.rate(s.recommendation.rateKgHa),
+    ),
+    interval: s.recommendation.ciKgHa
+      ? [clean(u.rate(s.recommendation.ciKgHa[0])), clean(u.rate(s.recommendation.ciKgHa[1]))]
+      : null,
+    level: s.recommendation.level,
+    model: s.recommendation.model,
+    basis: s.recommendation.basis,
+  });
+  const modelsOf = (s: SiteReport): ResultsModel[] =>
+    s.models.map((m) => ({
+      model: m.model,
+      status: m.status,
+      params: Object.fromEntries(
+        Object.entries(m.params).map(([k, v]) => [k, clean(u.param(m.model, k, v))]),
+      ),
+      stdErrors: Object.fromEntries(
+        Object.entries(m.stdErrors).map(([k, v]) => [k, clean(u.param(m.model, k, v))]),
+      ),
+      sse: clean(m.sse * fy2),
+      dfResidual: m.dfResidual,
+      // AICc changes by a constant with the unit (n·ln of the squared factor); keep it comparable within the file.
+      aicc: clean(m.aicc + s.n * Math.log(fy2)),
+      optimumRate: cleanOrNull(m.optimumRateKgHa === null ? null : u.rate(m.optimumRateKgHa)),
+      optimumCI: m.optimumCiKgHa
+        ? [clean(u.rate(m.optimumCiKgHa[0])), clean(u.rate(m.optimumCiKgHa[1]))]
+        : null,
+      yieldAtOptimum: cleanOrNull(
+        m.yieldAtOptimumKgHa === null ? null : u.yield(m.yieldAtOptimumKgHa),
+      ),
+      joinProfileInterval: m.joinProfile ? profileJson(m.joinProfile, u.rate) : null,
+      optimumProfileInterval: m.optimumProfile
+        ? { ...profileJson(m.optimumProfile, u.rate), basis: m.optimumProfile.basis }
+        : null,
+    }));
+  const levelsOf = (site: string) => report.levels.filter((l) => l.site === site);
   return {
     tool: { ...report.tool },
     settings: {
@@ -329,17 +429,7 @@ export function resultsJson(report: TrialReport): ResultsJson {
           }
         : null,
       bestModel: s.bestModel,
-      recommendation: {
-        rate: cleanOrNull(
-          s.recommendation.rateKgHa === null ? null : u.rate(s.recommendation.rateKgHa),
-        ),
-        interval: s.recommendation.ciKgHa
-          ? [clean(u.rate(s.recommendation.ciKgHa[0])), clean(u.rate(s.recommendation.ciKgHa[1]))]
-          : null,
-        level: s.recommendation.level,
-        model: s.recommendation.model,
-        basis: s.recommendation.basis,
-      },
+      recommendation: recommendationOf(s),
       optimumSpread: s.optimumSpreadKgHa
         ? [clean(u.rate(s.optimumSpreadKgHa[0])), clean(u.rate(s.optimumSpreadKgHa[1]))]
         : null,
@@ -360,31 +450,7 @@ export function resultsJson(report: TrialReport): ResultsJson {
             ),
           }
         : null,
-      models: s.models.map((m) => ({
-        model: m.model,
-        status: m.status,
-        params: Object.fromEntries(
-          Object.entries(m.params).map(([k, v]) => [k, clean(u.param(m.model, k, v))]),
-        ),
-        stdErrors: Object.fromEntries(
-          Object.entries(m.stdErrors).map(([k, v]) => [k, clean(u.param(m.model, k, v))]),
-        ),
-        sse: clean(m.sse * fy2),
-        dfResidual: m.dfResidual,
-        // AICc changes by a constant with the unit (n·ln of the squared factor); keep it comparable within the file.
-        aicc: clean(m.aicc + s.n * Math.log(fy2)),
-        optimumRate: cleanOrNull(m.optimumRateKgHa === null ? null : u.rate(m.optimumRateKgHa)),
-        optimumCI: m.optimumCiKgHa
-          ? [clean(u.rate(m.optimumCiKgHa[0])), clean(u.rate(m.optimumCiKgHa[1]))]
-          : null,
-        yieldAtOptimum: cleanOrNull(
-          m.yieldAtOptimumKgHa === null ? null : u.yield(m.yieldAtOptimumKgHa),
-        ),
-        joinProfileInterval: m.joinProfile ? profileJson(m.joinProfile, u.rate) : null,
-        optimumProfileInterval: m.optimumProfile
-          ? { ...profileJson(m.optimumProfile, u.rate), basis: m.optimumProfile.basis }
-          : null,
-      })),
+      models: modelsOf(s),
       priceRatioSensitivity: s.priceRatioSensitivity.map((r) => ({
         ratioMultiplier: r.ratioMultiplier,
         priceRatio: perN(r.priceRatioKgPerKg),
@@ -400,6 +466,23 @@ export function resultsJson(report: TrialReport): ResultsJson {
           }
         : null,
       warnings: [...s.warnings],
+      levels: levelsOf(s.site).flatMap((f) =>
+        f.levels.map((l) => ({
+          factor: f.factor,
+          level: l.level,
+          site: l.report.site,
+          n: l.report.n,
+          checkPlots: l.checkPlots,
+          nutrientPricePerKgN: clean(l.nutrientPricePerKg),
+          ownNutrientPrice: l.ownNutrientPrice,
+          returnAtOptimum: cleanOrNull(
+            l.returnAtOptimumPerHa === null ? null : u.perArea(l.returnAtOptimumPerHa),
+          ),
+          recommendation: recommendationOf(l.report),
+          models: modelsOf(l.report),
+        })),
+      ),
+      levelTest: levelsOf(s.site).map((f) => levelTestJson(f, u, moneyUnit))[0] ?? null,
     })),
     acrossSites: report.acrossSites
       ? {
@@ -494,4 +577,40 @@ function fNumbers(t: FTestNumbers): FTestNumbers {
  */
 export function resultsJsonText(report: TrialReport): string {
   return `${JSON.stringify(resultsJson(report), null, 2)}\n`;
+}
+
+/** A site's level tests and comparison in the output units. */
+function levelTestJson(f: SiteLevelsReport, u: UnitScale, moneyUnit: string): ResultsLevelTest {
+  const numbers = (r: SiteLevelsReport['test']['quadratic']['result']): FTestNumbers | null =>
+    r.kind === 'f-test' ? fNumbers({ F: r.f, df1: r.df1, df2: r.df2, p: r.p }) : null;
+  const q = f.test.quadratic.result;
+  const pair = (r: [number, number] | null, scale: (v: number) => number) =>
+    r ? ([clean(scale(r[0])), clean(scale(r[1]))] as [number, number]) : null;
+  // A difference of rates scales like a rate (kg/ha → lb/ac is a factor, no offset).
+  return {
+    factor: f.factor,
+    levels: [...f.test.levels],
+    blocks: f.test.blocks,
+    quadratic: numbers(q),
+    linear: numbers(f.test.linear.result),
+    differ: q.kind === 'f-test' ? q.p < f.test.alpha : null,
+    sentence: f.test.quadratic.sentence,
+    best: f.comparison.best,
+    bestShare: f.comparison.bestShare === null ? null : clean(f.comparison.bestShare),
+    resamplesCompared: f.comparison.resamplesCompared,
+    resamplesLeftOut: f.comparison.resamplesLeftOut,
+    level: f.comparison.level,
+    returnUnit: moneyUnit,
+    differences: f.comparison.differences.map((d) => ({
+      level: d.level,
+      optimumDifference: cleanOrNull(
+        d.optimumDifferenceKgHa === null ? null : u.rate(d.optimumDifferenceKgHa),
+      ),
+      optimumDifferenceInterval: pair(d.optimumDifferenceIntervalKgHa, u.rate),
+      returnDifference: cleanOrNull(
+        d.returnDifferencePerHa === null ? null : u.perArea(d.returnDifferencePerHa),
+      ),
+      returnDifferenceInterval: pair(d.returnDifferenceIntervalPerHa, u.perArea),
+    })),
+  };
 }

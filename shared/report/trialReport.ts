@@ -6,6 +6,8 @@
  * Keeping the writers on this one summary means a change inside an engine
  * stage touches only assembleReport, not every writer.
  */
+import type { LevelResponseTests } from '../analysis/levelResponseTest';
+import type { LevelComparison } from '../analysis/priceLevels';
 import type { ModelName, FitStatus } from '../models/modelTypes';
 import type { RecommendationBasis } from '../analysis/siteDecision';
 import type { ResponseOverCheckOutcome } from '../analysis/siteResponseOverCheck';
@@ -289,4 +291,30 @@ export interface TrialReport {
   yearsCompared: YearComparisonReport[];
   /** Findings about the whole run (defaulted prices, skipped sites). */
   warnings: string[];
+  /** Rate × factor sites (source, timing…): each level reported as a site; empty without a factor. */
+  levels: SiteLevelsReport[];
+}
+
+/** One treatment level of a rate × factor site, reported as a site of its own. */
+export interface LevelReport {
+  level: string;
+  /** The level's plots (its own and the shared checks) as a site: "Hollins Gap (Timing: Split)". */
+  report: SiteReport;
+  /** Shared check plots among them. */
+  checkPlots: number;
+  /** The N price it was priced at, currency per kg N, and whether it is the level's own. */
+  nutrientPricePerKg: number;
+  ownNutrientPrice: boolean;
+  /** Net return at its recommended rate, currency/ha; null without one. */
+  returnAtOptimumPerHa: number | null;
+}
+
+/** A rate × factor site: its levels, whether they differ, which returns most. */
+export interface SiteLevelsReport {
+  site: string;
+  /** The factor's column header. */
+  factor: string;
+  levels: LevelReport[];
+  test: LevelResponseTests;
+  comparison: LevelComparison;
 }

@@ -114,6 +114,13 @@ export interface PlotTable {
   standardMoisturePct: number;
   plots: Plot[];
   sources: SourceFile[];
+  /**
+   * Headers of the columns given the treatment-factor role (source, timing, placement, or any
+   * column the user names): each plot's value is in `Plot.groups` under the header, and each
+   * value is a level with its own response curve; plots at rate 0 belong to every level (the
+   * shared check). Absent or empty: a rate-only trial.
+   */
+  factorKeys?: string[];
 }
 
 /**

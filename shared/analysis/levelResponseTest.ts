@@ -1,0 +1,171 @@
+/**
+ * Do the levels of a treatment factor (source, timing…) respond to N differently? Nested linear
+ * models on one site's plots, with the zero-rate check shared by every level, so the levels
+ * share the yield at rate 0 (and the block offsets) and differ only in the response to rate:
+ *
+ *   common curve:     y = block + g(x)          one response for every level
+ *   curves per level: y = block + g_level(x)    each level its own response, same check
+ *
+ * with g(x) = b·x + c·x² (quadratic, the headline: an exact F test) or b·x (straight line), and
+ * one offset per block (or one intercept without blocks). g(0) = 0, so a check plot adds the
+ * same terms to every level and counts once. The extra-sum-of-squares F test
+ * (extraSumOfSquaresTest) divides by the per-level curves' residual mean square, as R's
+ * anova(lm(y ~ block + x + I(x^2)), lm(y ~ block + x:level + I(x^2):level)) does (checked
+ * against R in tests/analysis.levelResponseTest.test.ts).
+ *
+ * Edge cases: fewer than two levels, a level with fewer fertilized rates than the curve's rate
+ * terms, or a design that is not of full rank: no test, with the reason. Fertilized plots
+ * without a level are left out of both models.
+ */
+import { defaultBlockTerms } from '../stats/hasBlocks';
+import type { BlockChoice } from './analysisSettings';
+import { describeFTest, type TestReadings } from './describeFTest';
+import { designSse } from './designSse';
+import { extraSumOfSquaresTest, type FTestResult, type NoTest } from './extraSumOfSquaresTest';
+import type { SiteLevelSplit } from './siteLevels';
+import type { SitePlots } from './sitePlots';
+
+/** The response models the level tests use (linear least squares). */
+export type LevelTestModel = 'quadratic' | 'linear';
+
+/** One nested comparison: common curve against one curve per level. */
+export interface LevelCurveTest {
+  model: LevelTestModel;
+  /** Plots in both fits (checks once, fertilized plots with a level). */
+  n: number;
+  common: { sse: number; df: number } | null;
+  perLevel: { sse: number; df: number } | null;
+  result: FTestResult | NoTest;
+  sentence: string;
+}
+
+/** Whether a site's levels differ in their response to N. */
+export interface LevelResponseTests {
+  factor: string;
+  levels: string[];
+  /** Block offsets in both models ("fixed") or one intercept ("none"). */
+  blocks: 'fixed' | 'none';
+  /** The headline: quadratic response per level against one common quadratic. */
+  quadratic: LevelCurveTest;
+  /** The same with straight lines. */
+  linear: LevelCurveTest;
+  /** Fertilized plots left out because their factor cell is blank. */
+  plotsWithoutLevel: string[];
+  /** The significance level the sentences read the tests at. */
+  alpha: number;
+}
+
+function readings(model: LevelTestModel, factor: string): TestReadings {
+  const curve = model === 'quadratic' ? 'quadratic' : 'straight line';
+  return {
+    comparison: `One ${curve} per ${factor.toLowerCase()} level against one ${curve} for all levels (the zero-rate check shared)`,
+    significant: `the response to N differs between the ${factor.toLowerCase()} levels`,
+    notSignificant: `the ${factor.toLowerCase()} levels do not differ detectably in their response to N`,
+  };
+}
+
+/** The block (or intercept) columns of the plots kept. */
+function levelColumns(blocks: (string | null)[], fixed: boolean): Float64Array[] {
+  const n = blocks.length;
+  if (!fixed) return [new Float64Array(n).fill(1)];
+  const labels = [...new Set(blocks)];
+  return labels.map((b) => Float64Array.from(blocks, (v) => (v === b ? 1 : 0)));
+}
+
+function curveTest(
+  model: LevelTestModel,
+  x: Float64Array,
+  y: Float64Array,
+  level: Int32Array,
+  levelCount: number,
+  base: Float64Array[],
+  factor: string,
+  alpha: number,
+): LevelCurveTest {
+  const n = y.length;
+  const powers = model === 'quadratic' ? [1, 2] : [1];
+  const term = (p: number, k: number | null) =>
+    Float64Array.from(x, (v, i) => (k === null || level[i] === k ? v ** p : 0));
+  const words = readings(model, factor);
+  const none = (reason: string): LevelCurveTest => {
+    const result: NoTest = { kind: 'no-test', reason };
+    return {
+      model,
+      n,
+      common: null,
+      perLevel: null,
+      result,
+      sentence: describeFTest(result, words, alpha),
+    };
+  };
+  for (let k = 0; k < levelCount; k++) {
+    const rates = new Set(Array.from(x).filter((_, i) => level[i] === k));
+    if (rates.size < powers.length) {
+      return none(`a level has fewer fertilized rates than the ${model} has rate terms`);
+    }
+  }
+  const commonCols = [...base, ...powers.map((p) => term(p, null))];
+  const perCols = [...base];
+  for (let k = 0; k < levelCount; k++) for (const p of powers) perCols.push(term(p, k));
+  const c = designSse(commonCols, y);
+  const f = designSse(perCols, y);
+  if (c.rank < c.columns || f.rank < f.columns) {
+    return none('the design is not of full rank (blocks confounded with the levels or rates)');
+  }
+  const common = { sse: c.sse, df: n - c.columns };
+  const perLevel = { sse: f.sse, df: n - f.columns };
+  const result = extraSumOfSquaresTest(common, perLevel);
+  return { model, n, common, perLevel, result, sentence: describeFTest(result, words, alpha) };
+}
+
+/**
+ * The nested tests of whether a site's levels share one response to N.
+ * @param site - the site's analyzable plots (kg/ha)
+ * @param split - its levels (splitSiteLevels); checks have level −1, plots without a level −2
+ * @param blocks - "auto" (block offsets when every plot has a block label, hasBlocks) or "none"
+ * @param alpha - significance level of the sentences, e.g. 0.05
+ * @returns the quadratic (headline) and straight-line tests, each with its sentence
+ * @example
+ * levelResponseTests(site, split, 'auto', 0.05).quadratic.result // { kind: 'f-test', f, df1: 2, df2, p }
+ */
+export function levelResponseTests(
+  site: SitePlots,
+  split: SiteLevelSplit,
+  blocks: BlockChoice,
+  alpha: number,
+): LevelResponseTests {
+  const keep: number[] = [];
+  split.levelIndex.forEach((k, i) => {
+    if (k !== -2) keep.push(i);
+  });
+  const x = Float64Array.from(keep, (i) => site.rateKgHa[i]);
+  const y = Float64Array.from(keep, (i) => site.yieldKgHa[i]);
+  const level = Int32Array.from(keep, (i) => split.levelIndex[i]);
+  const labels = keep.map((i) => site.block[i]);
+  const fixed = blocks === 'auto' && defaultBlockTerms(labels) === 'fixed';
+  const base = levelColumns(labels, fixed);
+  const levelCount = split.levels.length;
+  const test = (model: LevelTestModel) =>
+    levelCount < 2
+      ? (() => {
+          const result: NoTest = { kind: 'no-test', reason: 'fewer than two levels' };
+          return {
+            model,
+            n: keep.length,
+            common: null,
+            perLevel: null,
+            result,
+            sentence: describeFTest(result, readings(model, split.factor), alpha),
+          };
+        })()
+      : curveTest(model, x, y, level, levelCount, base, split.factor, alpha);
+  return {
+    factor: split.factor,
+    levels: split.levels.map((l) => l.level),
+    blocks: fixed ? 'fixed' : 'none',
+    quadratic: test('quadratic'),
+    linear: test('linear'),
+    plotsWithoutLevel: [...split.withoutLevel],
+    alpha,
+  };
+}
