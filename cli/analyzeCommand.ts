@@ -27,7 +27,7 @@ import { describeRef } from '../shared/table/qualityFinding';
 import { analyzablePlots } from '../shared/table/plotTable';
 import { siteYearsOf } from '../shared/table/siteYear';
 import { assembleReport } from '../shared/report/assembleReport';
-import { reportRegionalChart } from '../shared/report/regionalReturnChart';
+import { reportRegionalChart } from '../shared/report/growerPageChart';
 import { resultsJsonText } from '../shared/report/resultsJson';
 import type { DisplaySettings } from '../shared/report/reportSettings';
 import { siteResponseChart } from '../shared/report/siteResponseChart';

@@ -6,7 +6,7 @@ import { describe, expect, it } from 'vitest';
 import { formatMoney, formatMoneyPerArea, moneyArea } from '../shared/units/formatMoney';
 import { growerPage } from '../shared/report/growerPage';
 import { resultsJson } from '../shared/report/resultsJson';
-import { reportRegionalChart } from '../shared/report/regionalReturnChart';
+import { reportRegionalChart } from '../shared/report/growerPageChart';
 import { demoReport } from './report.fixture';
 
 describe('formatMoney', () => {

@@ -4,7 +4,8 @@
  * the printed page and the screen show the same picture.
  */
 import type { ChartSpec } from './chartSpec';
-import { reportRegionalChart } from './regionalReturnChart';
+import { regionalReturnChart } from './regionalReturnChart';
+import { formatMoneyPerArea } from '../units/formatMoney';
 import { siteResponseChart } from './siteResponseChart';
 import type { TrialReport } from './trialReport';
 
@@ -19,4 +20,23 @@ export function growerPageChart(report: TrialReport, which: string): ChartSpec |
   if (which === 'region') return reportRegionalChart(report);
   const site = report.sites.find((s) => s.site === which);
   return site ? siteResponseChart(report, site) : null;
+}
+
+/**
+ * The regional chart of a report, in its display units and currency.
+ * @param report - the assembled report
+ * @returns the chart, or null when there is no across-site result
+ * @example
+ * reportRegionalChart(report)?.panels[0].id // 'return'
+ */
+export function reportRegionalChart(report: TrialReport): ChartSpec | null {
+  const a = report.acrossSites;
+  if (!a) return null;
+  const { units, currency, locale } = report.settings;
+  return regionalReturnChart(a.chart, {
+    units,
+    crop: report.crop,
+    currency,
+    toleranceText: formatMoneyPerArea(a.bandPerHa, currency, units.rate, locale),
+  });
 }

@@ -3,7 +3,6 @@
  * which season. Typed by the user (the workspace's report step, the command line's --page-field),
  * kept with the project, printed under the page's title; a blank one prints as a line to write on.
  */
-import type { GrowerFact } from './growerPage';
 
 export interface PageFields {
   grower: string;
@@ -60,7 +59,7 @@ export function readPageFields(value: unknown): PageFields {
  * @returns one row per field
  * @example pageFieldRows({ ...EMPTY_PAGE_FIELDS, grower: 'Ada' })[0] // { label: 'Grower', value: 'Ada' }
  */
-export function pageFieldRows(fields: PageFields | undefined): GrowerFact[] {
+export function pageFieldRows(fields: PageFields | undefined): { label: string; value: string }[] {
   const f = fields ?? EMPTY_PAGE_FIELDS;
   return PAGE_FIELD_NAMES.map((name) => ({ label: PAGE_FIELD_LABELS[name], value: f[name] }));
 }

@@ -16,9 +16,7 @@ import type { RegionalRateInterval } from '../analysis/regionalRateInterval';
 import type { CropId } from '../table/plotTable';
 import type { DisplayUnits } from '../units/displayUnits';
 import type { ChartLayer, ChartSpec } from './chartSpec';
-import type { TrialReport } from './trialReport';
 import { unitScale } from './unitScale';
-import { formatMoneyPerArea } from '../units/formatMoney';
 
 /** What the regional chart draws, in canonical units, thinned to about 200 rates. */
 export interface RegionalChartData {
@@ -203,23 +201,4 @@ export function regionalReturnChart(data: RegionalChartData, how: RegionalChartU
         : []),
     ],
   };
-}
-
-/**
- * The regional chart of a report, in its display units and currency.
- * @param report - the assembled report
- * @returns the chart, or null when there is no across-site result
- * @example
- * reportRegionalChart(report)?.panels[0].id // 'return'
- */
-export function reportRegionalChart(report: TrialReport): ChartSpec | null {
-  const a = report.acrossSites;
-  if (!a) return null;
-  const { units, currency, locale } = report.settings;
-  return regionalReturnChart(a.chart, {
-    units,
-    crop: report.crop,
-    currency,
-    toleranceText: formatMoneyPerArea(a.bandPerHa, currency, units.rate, locale),
-  });
 }

@@ -5,7 +5,7 @@ import { EMPTY_PAGE_FIELDS, type PageFields } from '../../../shared/report/pageF
 import { growerPage, type GrowerPage } from '../../../shared/report/growerPage';
 import { growerPageChart } from '../../../shared/report/growerPageChart';
 import { renderChartSvg } from '../../../shared/report/svgChart';
-import { reportRegionalChart } from '../../../shared/report/regionalReturnChart';
+import { reportRegionalChart } from '../../../shared/report/growerPageChart';
 import { siteResponseChart } from '../../../shared/report/siteResponseChart';
 import type { TrialReport } from '../../../shared/report/trialReport';
 import type { SheetImage } from '../../../shared/report/workbookSite';
