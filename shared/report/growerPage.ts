@@ -9,6 +9,12 @@ import { paperSize, type PaperSize } from './paperSize';
 import { recommendationCautions } from '../economics/recommendationCautions';
 import { crops } from '../units/crops';
 import { formatQuantity } from '../units/formatQuantity';
+import {
+  RATE_DECIMALS,
+  applicationRate,
+  applicationRateDown,
+  shownRate,
+} from '../units/rateRounding';
 import { formatMoney, formatMoneyPerArea } from '../units/formatMoney';
 import { pageFieldRows } from './pageFields';
 import { products } from '../units/products';
@@ -57,21 +63,6 @@ export interface GrowerPage {
   footer: string;
   /** The report's paper (paperSize). */
   paper: PaperSize;
-}
-
-/**
- * Rounds a rate to what a spreader or applicator is set to: 5 units (lb/ac or kg/ha;
- * common practice), 0.5 for g/m².
- */
-function applicationRound(v: number, rateUnit: string): number {
-  const step = rateUnit === 'g/m2' ? 0.5 : 5;
-  return Math.round(v / step) * step;
-}
-
-/** The same, rounded down: for a rate that must not be exceeded (a full response's top). */
-function applicationRoundDown(v: number, rateUnit: string): number {
-  const step = rateUnit === 'g/m2' ? 0.5 : 5;
-  return Math.floor(v / step + 1e-9) * step;
 }
 
 /** How sure the optimum is, in words a grower uses, from its interval (display units). */
@@ -126,8 +117,13 @@ export function growerPage(report: TrialReport, which: string | 'region'): Growe
   const u = unitScale(report.settings.units, report.crop);
   const ru = report.settings.units.rate;
   const yu = report.settings.units.yield;
-  const fmtRate = (kgHa: number): string =>
-    formatQuantity(applicationRound(u.rate(kgHa), ru), `${ru}`, 0).replace(ru, nutrientUnit(ru));
+  // Reported rates (ranges, intervals, tested rates) as every view rounds them; a rate to apply
+  // (the headline) to the spreader's step (shared/units/rateRounding).
+  const shown = (v: number): string =>
+    formatQuantity(shownRate(v, ru), ru, RATE_DECIMALS[ru]).replace(ru, nutrientUnit(ru));
+  const fmtRate = (kgHa: number): string => shown(u.rate(kgHa));
+  const fmtApply = (kgHa: number): string =>
+    formatQuantity(applicationRate(u.rate(kgHa), ru), ru, 0).replace(ru, nutrientUnit(ru));
   const fmtYield = (kgHa: number): string => formatQuantity(u.yield(kgHa), yu);
   const { settings, prices } = report;
   const { currency, locale } = settings;
@@ -169,7 +165,7 @@ export function growerPage(report: TrialReport, which: string | 'region'): Growe
   };
   const productText = (rateKgHa: number): string => {
     if (!product) return '';
-    const p = applicationRound(u.rate(rateKgHa) / (product.nitrogenPct / 100), ru);
+    const p = applicationRate(u.rate(rateKgHa) / (product.nitrogenPct / 100), ru);
     return `≈ ${formatQuantity(p, ru, 0)} of ${product.label}`;
   };
 
@@ -177,11 +173,11 @@ export function growerPage(report: TrialReport, which: string | 'region'): Growe
     const a = report.acrossSites;
     if (!a)
       throw new RangeError('growerPage: the report has no across-site result to recommend from.');
-    const rate = applicationRound(u.rate(a.bestRateKgHa), ru);
+    const rate = applicationRate(u.rate(a.bestRateKgHa), ru);
     return {
       ...base,
       subject: `Region (${a.sites.length} sites)`,
-      recommendation: `Apply about ${fmtRate(a.bestRateKgHa)}`,
+      recommendation: `Apply about ${fmtApply(a.bestRateKgHa)}`,
       productRecommendation: productText(a.bestRateKgHa),
       rate,
       facts: [
@@ -232,7 +228,7 @@ export function growerPage(report: TrialReport, which: string | 'region'): Growe
     return certaintyOf(
       u.rate(rate),
       ci ? [u.rate(ci[0]), u.rate(ci[1])] : null,
-      (v) => `${formatQuantity(applicationRound(v, ru), ru, 0).replace(ru, nutrientUnit(ru))}`,
+      shown,
       s.bootstrap?.level ?? 0.9,
       u.rate(rates[rates.length - 1] ?? 0),
     );
@@ -255,7 +251,7 @@ export function growerPage(report: TrialReport, which: string | 'region'): Growe
   if (best && rec.basis === 'full-response' && rec.rangeKgHa && rec.rateKgHa !== null) {
     const [low, high] = rec.rangeKgHa;
     // "No more than": the top of the range rounded down to a spreader setting.
-    const top = applicationRoundDown(u.rate(high), ru);
+    const top = applicationRateDown(u.rate(high), ru);
     const topText = formatQuantity(top, ru, 0).replace(ru, nutrientUnit(ru));
     const facts: GrowerFact[] = [
       { label: 'Best rate lies between', value: `${fmtRate(low)} and ${topText}` },
@@ -310,18 +306,18 @@ export function growerPage(report: TrialReport, which: string | 'region'): Growe
   const cert = certaintyOf(
     u.rate(opt),
     ci ? [u.rate(ci[0]), u.rate(ci[1])] : null,
-    (v) => `${formatQuantity(applicationRound(v, ru), ru, 0).replace(ru, nutrientUnit(ru))}`,
+    shown,
     s.bootstrap?.level ?? 0.9,
     u.rate(rates[rates.length - 1] ?? 0),
   );
-  const roundedRate = applicationRound(u.rate(opt), ru);
+  const roundedRate = applicationRate(u.rate(opt), ru);
   return {
     ...base,
     subject: s.site,
     recommendation:
       roundedRate === 0
         ? 'Apply no N: at these prices it did not pay here'
-        : `Apply about ${fmtRate(opt)}`,
+        : `Apply about ${fmtApply(opt)}`,
     productRecommendation: roundedRate === 0 ? '' : productText(opt),
     rate: roundedRate,
     facts,

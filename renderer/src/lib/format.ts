@@ -16,6 +16,7 @@ import {
   type UnitSystem,
 } from '../../../shared/units/displayUnits';
 // Money has one owner in the engine, shared by the screen and the reports.
+import { RATE_DECIMALS } from '../../../shared/units/rateRounding';
 export { formatMoney, formatMoneyPerArea } from '../../../shared/units/formatMoney';
 
 /** The one switch between unit families ('metric' or 'us'), as shared/units names it. */
@@ -51,7 +52,6 @@ const yieldDecimals: Record<YieldUnit, number> = {
   'bu/ac': 1,
   'g/m2': 0,
 };
-const rateDecimals: Record<RateUnit, number> = { 'kg/ha': 0, 'lb/ac': 0, 'g/m2': 1 };
 
 /** Unit labels as a reader writes them (superscripts rather than ASCII). */
 const unitLabels: Record<string, string> = {
@@ -123,7 +123,7 @@ export function formatSignificant(
  */
 export function formatRate(rateKgHa: number | null, unit: RateUnit, locale?: string): string {
   if (rateKgHa === null || !Number.isFinite(rateKgHa)) return '–';
-  return `${formatNumber(rateFromKgHa(rateKgHa, unit), rateDecimals[unit], locale)} ${unitLabel(unit)}`;
+  return `${formatNumber(rateFromKgHa(rateKgHa, unit), RATE_DECIMALS[unit], locale)} ${unitLabel(unit)}`;
 }
 
 /**
@@ -143,7 +143,7 @@ export function formatRateInterval(
 ): string {
   if (!interval) return '–';
   const text = profileIntervalText(interval, (kgHa) =>
-    formatNumber(rateFromKgHa(kgHa, unit), rateDecimals[unit], locale),
+    formatNumber(rateFromKgHa(kgHa, unit), RATE_DECIMALS[unit], locale),
   );
   return `${text} ${unitLabel(unit)}`;
 }
@@ -202,7 +202,7 @@ export function yieldDecimalsFor(unit: YieldUnit): number {
  * rateDecimalsFor('kg/ha') // 0
  */
 export function rateDecimalsFor(unit: RateUnit): number {
-  return rateDecimals[unit];
+  return RATE_DECIMALS[unit];
 }
 
 /**
