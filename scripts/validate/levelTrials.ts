@@ -48,6 +48,13 @@ export interface LevelFigures {
     /** Share of trials whose interval holds the true difference (−20 kg/ha). */
     holdsTruth: RateShare;
     trueDifferenceKgHa: number;
+    /**
+     * On the same number of trials of equal timings (one quadratic-plateau): share whose
+     * interval of the difference in return at the optimum excludes 0 (ought to be about
+     * 1 − level), and whose best timing returned the most in at least 95 % of the resamples.
+     */
+    equalReturnExcludesZero: RateShare;
+    equalBestShareAbove95: RateShare;
   };
 }
 
@@ -163,6 +170,16 @@ export function levelTrials(
     if (hi < 0) excludes++;
     if (lo <= truth && truth <= hi) holds++;
   }
+  let eqExcludes = 0;
+  let eqSure = 0;
+  for (let t = 0; t < bootTrials; t++) {
+    const table = levelTrial({ sites: [list[0].site], seed: seed + 95000 + t });
+    const a = analyzeTrial(table, analysisSettings({ prices, seed: seed + t }));
+    const c = priceTrial(a, prices, {}).levels[0].comparison;
+    const ri = c.differences[0]?.returnDifferenceIntervalPerHa;
+    if (ri && (ri[1] < 0 || ri[0] > 0)) eqExcludes++;
+    if (c.bestShare !== null && c.bestShare >= 0.95) eqSure++;
+  }
   return {
     trials,
     priceRatio: pr,
@@ -173,6 +190,8 @@ export function levelTrials(
       excludesZero: rate(excludes, bootTrials),
       holdsTruth: rate(holds, bootTrials),
       trueDifferenceKgHa: truth,
+      equalReturnExcludesZero: rate(eqExcludes, bootTrials),
+      equalBestShareAbove95: rate(eqSure, bootTrials),
     },
   };
 }

@@ -174,6 +174,10 @@ console.log(
   `difference in optimum (split − at planting, true ${li.trueDifferenceKgHa.toFixed(1)} kg/ha), ${Math.round(li.level * 100)} % interval from the paired resamples, ${li.trials} trials: ` +
     `excludes 0 in ${(100 * li.excludesZero.share).toFixed(1)} %, holds the true difference in ${(100 * li.holdsTruth.share).toFixed(1)} %`,
 );
+console.log(
+  `equal timings, ${li.trials} trials with resamples: the return difference's ${Math.round(li.level * 100)} % interval excludes 0 in ${(100 * li.equalReturnExcludesZero.share).toFixed(1)} %, ` +
+    `the best timing returned the most in ≥ 95 % of its resamples in ${(100 * li.equalBestShareAbove95.share).toFixed(1)} %`,
+);
 console.log('\n### goals');
 for (const g of v.goals) {
   const value =
