@@ -8,7 +8,8 @@
 //   optimum is 20 kg/ha lower and its plateau 1,000 kg/ha higher (the goal's case), and, beside
 //   it with no goal, when only the optimum moves and the plateau stays (how far the data reach);
 // - on fewer trials with the bootstrap, how often the paired-resample interval of the difference
-//   in optimum excludes 0 and holds the true difference.
+//   in optimum excludes 0 and holds the true difference, and, on equal timings, how often the
+//   interval of the difference in return excludes 0 and the best timing wins ≥ 95 % of resamples.
 import { analysisSettings, analyzeTrial, priceTrial } from '../../shared/analysis';
 import {
   joinForOptimum,
