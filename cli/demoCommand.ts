@@ -1,14 +1,21 @@
 /**
  * `plotrate demo`: writes the invented demo trial workbook and its full
  * report (workbook, grower PDF, results JSON) for the corn sites in US units
- * and for the wheat site in metric units, so a new user sees every output.
+ * and for the wheat site in metric units, and an invented rate × timing set (a curve per timing
+ * from shared checks) with its report, so a new user sees every output.
  * Nitrogen is bought as urea (46 % N), so the grower page gives the rate in
  * product as well as in N; the prices are illustrative and every output says so.
  */
 import { mkdirSync, existsSync } from 'node:fs';
 import path from 'node:path';
 import { writeFileAtomic } from '../electron/atomicWrite';
-import { demoTrial, writeDemoWorkbook, demoSheetNames } from '../shared/demo';
+import {
+  demoTimingCsv,
+  demoTimingFileName,
+  demoTrial,
+  writeDemoWorkbook,
+  demoSheetNames,
+} from '../shared/demo';
 import { illustrativePrices } from '../shared/economics/illustrativePrices';
 import { quotePrices } from '../shared/economics/priceQuote';
 import { displayUnits } from '../shared/units/displayUnits';
@@ -100,4 +107,36 @@ export async function demoCommand(dir: string, log: Console2, version: string): 
     );
     log.out(`Wrote ${out}, ${pdf}, ${json}`);
   }
+  // The rate × timing set: a Timing column on the plots sheet, so each timing gets its own curve
+  // from the shared checks (shared/demo/demoTiming).
+  const timingInput = path.join(dir, demoTimingFileName);
+  if (existsSync(timingInput)) {
+    log.err(`plotrate: ${timingInput} exists; analyzing that copy as it is.`);
+  } else {
+    await writeFileAtomic(path.resolve(timingInput), new TextEncoder().encode(demoTimingCsv()));
+    log.out(`\nWrote ${timingInput}`);
+  }
+  const timingPrices = quoted('corn', 'metric');
+  const out = path.join(dir, 'demo-timing-report.xlsx');
+  const pdf = path.join(dir, 'demo-timing-recommendation.pdf');
+  const json = path.join(dir, 'demo-timing-results.json');
+  log.out(`\nCorn N timing trial (metric units, ${timingPrices.text})`);
+  await analyzeCommand(
+    {
+      ...analyzeDefaults([timingInput]),
+      out,
+      pdf,
+      json,
+      crop: 'corn',
+      units: 'metric',
+      grainPrice: timingPrices.grainPrice,
+      nutrientPrice: null,
+      product: 'urea',
+      productPrice: timingPrices.ureaPrice,
+    },
+    log,
+    version,
+    { createdAt, warnings: [DEMO_PRICE_NOTE] },
+  );
+  log.out(`Wrote ${out}, ${pdf}, ${json}`);
 }

@@ -269,6 +269,10 @@ describe('plotrate demo', () => {
       'demo-corn-recommendation.pdf',
       'demo-corn-results.json',
       'demo-wheat-report.xlsx',
+      'wrenhollow-timing-2025.csv',
+      'demo-timing-report.xlsx',
+      'demo-timing-recommendation.pdf',
+      'demo-timing-results.json',
     ]) {
       expect(existsSync(path.join(dir, 'demo-out', f)), f).toBe(true);
     }
@@ -278,6 +282,22 @@ describe('plotrate demo', () => {
     expect(j.settings.units).toEqual({ rate: 'lb/ac', yield: 'bu/ac' });
     expect(j.sites).toHaveLength(6);
     expect(r.out).toContain('Demo prices (grain and urea) are illustrative');
+    // The rate × timing set: the Timing column found as the factor, a curve per timing.
+    const t = JSON.parse(
+      readFileSync(path.join(dir, 'demo-out', 'demo-timing-results.json'), 'utf8'),
+    );
+    expect(t.sites.map((s: { site: string }) => s.site)).toEqual([
+      'Larkspur Bottom',
+      'Fennimore Rise',
+    ]);
+    for (const s of t.sites) {
+      expect(s.levels.map((l: { level: string }) => l.level)).toEqual([
+        'At planting',
+        'Split (V6)',
+      ]);
+      expect(s.levelTest.factor).toBe('Timing');
+    }
+    expect(r.out).toMatch(/ {2}Timing Split \(V6\): /);
   });
 
   it("prints the demo's grower pages with the rate in urea and N, one page per site and the region", () => {

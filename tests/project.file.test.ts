@@ -48,6 +48,18 @@ describe('writeProjectFile and readProjectFile', () => {
   });
 });
 
+describe('a rate × factor table', () => {
+  it('keeps its treatment-factor columns (factorKeys) through save and open', () => {
+    const project = exampleProject();
+    project.table!.factorKeys = ['Timing'];
+    const text = serializeProject(project, new Date('2026-03-01T08:00:00.000Z'));
+    expect(parseProject(text, 'timing.plotrate').project.table!.factorKeys).toEqual(['Timing']);
+    // An older project has none, and reads as a rate-only table.
+    const plain = serializeProject(exampleProject(), new Date('2026-03-01T08:00:00.000Z'));
+    expect(parseProject(plain, 'plain.plotrate').project.table!.factorKeys).toBeUndefined();
+  });
+});
+
 describe('migration from version 1', () => {
   it('renames the prices, moves exclusions onto plots, keeps unmatched reasons and leaves the old file untouched', async () => {
     const file = path.join(dir, 'first season.plotrate');

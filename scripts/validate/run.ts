@@ -5,12 +5,16 @@
 // join's profile interval), the recommended rate's bias and RMSE, the edge
 // cases' shares, the gain-over-check test's rejection rate and the share that responded; then
 // the regional rate's bias over simulated regions; the regional mixed model's interval coverage
-// over simulated quadratic regions (shared/demo/simulatedRegion); each goal beside its figure.
+// over simulated quadratic regions (shared/demo/simulatedRegion); the level test of rate × timing
+// trials (shared/demo/simulatedLevels): Type I error and the share of real 20 kg N/ha
+// differences found; each goal beside its figure.
 // Writes the figures to test-output/validate.json. Measures only: it never fails on a missed goal.
 //
 // Sizes: PLOTRATE_VALIDATE_SITES (sites per truth, default 400) or --sites N;
 // PLOTRATE_VALIDATE_REGIONS (default 50) or --regions N; PLOTRATE_VALIDATE_MIXED_REGIONS
-// (default 200) or --mixed-regions N; PLOTRATE_VALIDATE_SEED (default 20260301).
+// (default 200) or --mixed-regions N; PLOTRATE_VALIDATE_LEVEL_TRIALS (rate × timing trials per
+// scenario, default 1000) or --level-trials N; PLOTRATE_VALIDATE_LEVEL_BOOT_TRIALS (of them with
+// resamples, default 100) or --level-boot-trials N; PLOTRATE_VALIDATE_SEED (default 20260301).
 import { mkdirSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -22,6 +26,7 @@ import {
 import { ANALYSIS_DEFAULTS } from '../../shared/analysis/analysisSettings';
 import { illustrativePrices } from '../../shared/economics/illustrativePrices';
 import { SECOND_LOWEST_RATE_KG_HA, type Share } from './decisionFigures';
+import { levelTrials } from './levelTrials';
 import { mixedModelRegions } from './mixedModelRegions';
 import { runValidation } from './runValidation';
 import { GOALS } from './validationGoals';
@@ -40,6 +45,8 @@ const sitesPerTruth = setting('--sites', 'PLOTRATE_VALIDATE_SITES', 400);
 const regions = setting('--regions', 'PLOTRATE_VALIDATE_REGIONS', 50);
 const sitesPerRegion = 12;
 const mixedRegions = setting('--mixed-regions', 'PLOTRATE_VALIDATE_MIXED_REGIONS', 200);
+const levelTrialCount = setting('--level-trials', 'PLOTRATE_VALIDATE_LEVEL_TRIALS', 1000);
+const levelBootTrials = setting('--level-boot-trials', 'PLOTRATE_VALIDATE_LEVEL_BOOT_TRIALS', 100);
 const seed = setting('--seed', 'PLOTRATE_VALIDATE_SEED', 20260301);
 const prices = illustrativePrices('corn').canonical;
 
@@ -69,6 +76,26 @@ v.goals.push({
   goal: `${GOALS.coverage.low}–${GOALS.coverage.high}`,
   met: mixed.coverage.share >= GOALS.coverage.low && mixed.coverage.share <= GOALS.coverage.high,
 });
+const levels = levelTrials(levelTrialCount, levelBootTrials, seed + 7000, prices);
+for (const sc of levels.scenarios) {
+  const r = sc.declaredDifferent.share;
+  if (sc.scenario.startsWith('equal'))
+    v.goals.push({
+      figure: 'levels with one true response declared different by the 5 % level test',
+      on: sc.scenario,
+      value: r,
+      goal: `${GOALS.levelTypeI.low}–${GOALS.levelTypeI.high}`,
+      met: r >= GOALS.levelTypeI.low && r <= GOALS.levelTypeI.high,
+    });
+  else if (!sc.description.includes('no goal'))
+    v.goals.push({
+      figure: 'a real 20 kg N/ha difference in the optimum found by the level test',
+      on: sc.scenario,
+      value: r,
+      goal: `≥ ${GOALS.levelPower}`,
+      met: r >= GOALS.levelPower,
+    });
+}
 const elapsedS = (performance.now() - started) / 1000;
 
 const pct = (s: Share) =>
@@ -132,6 +159,25 @@ console.log(
     `${(100 * mixed.coverage.share).toFixed(1)} % (SE ${(100 * mixed.coverage.se).toFixed(1)}); bias ${mixed.meanBiasKgHa.toFixed(1)}, ` +
     `RMSE ${mixed.rmseKgHa.toFixed(1)} kg/ha; mean interval width ${mixed.meanIntervalWidthKgHa.toFixed(1)} kg/ha`,
 );
+console.log(
+  `\n### rate × timing trials: ${levels.trials} per scenario, 4 blocks × rates ${SIMULATED_RATES_KG_HA.join(', ')} kg N/ha, one check per block shared by both timings, plot CV 6.5 % (shared/demo/simulatedLevels)`,
+);
+for (const sc of levels.scenarios) {
+  const d = sc.declaredDifferent;
+  console.log(
+    `${sc.scenario} (${sc.description}; true optima ${sc.trueOptimaKgHa.map((x) => x.toFixed(1)).join(' and ')} kg/ha): ` +
+      `declared different at 5 % in ${(100 * d.share).toFixed(1)} % (${d.count}/${d.of}, SE ${(100 * d.se).toFixed(1)})`,
+  );
+}
+const li = levels.interval;
+console.log(
+  `difference in optimum (split − at planting, true ${li.trueDifferenceKgHa.toFixed(1)} kg/ha), ${Math.round(li.level * 100)} % interval from the paired resamples, ${li.trials} trials: ` +
+    `excludes 0 in ${(100 * li.excludesZero.share).toFixed(1)} %, holds the true difference in ${(100 * li.holdsTruth.share).toFixed(1)} %`,
+);
+console.log(
+  `equal timings, ${li.trials} trials with resamples: the return difference's ${Math.round(li.level * 100)} % interval excludes 0 in ${(100 * li.equalReturnExcludesZero.share).toFixed(1)} %, ` +
+    `the best timing returned the most in ≥ 95 % of its resamples in ${(100 * li.equalBestShareAbove95.share).toFixed(1)} %`,
+);
 console.log('\n### goals');
 for (const g of v.goals) {
   const value =
@@ -153,6 +199,8 @@ writeFileSync(
         regions,
         sitesPerRegion,
         mixedRegions,
+        levelTrials: levelTrialCount,
+        levelBootTrials,
         seed,
         ratesKgHa: SIMULATED_RATES_KG_HA,
         blocks: SIMULATED_BLOCKS,
@@ -165,6 +213,7 @@ writeFileSync(
       gainNulls: v.gainNulls,
       regions: v.regions,
       mixedModel: mixed,
+      levels,
       goals: v.goals,
       elapsedSeconds: Math.round(elapsedS * 10) / 10,
     },

@@ -21,6 +21,10 @@ export const GOALS = {
   gainTestTypeI: { low: 0.04, high: 0.06 },
   bendTestTypeI: { low: 0.04, high: 0.06 },
   regionalBiasKgHa: 5,
+  /** Two levels with one true response declared different at the test's 5 % level, ± 1.5 %. */
+  levelTypeI: { low: 0.035, high: 0.065 },
+  /** A real 20 kg N/ha difference in the optimum found by the level test in 4-block trials. */
+  levelPower: 0.8,
 } as const;
 
 export interface GoalCheck {

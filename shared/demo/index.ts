@@ -8,3 +8,4 @@ export * from './mulberry32';
 export * from './demoTrial';
 export * from './writeDemoWorkbook';
 export * from './syntheticTrial';
+export * from './demoTiming';

@@ -64,12 +64,19 @@ export function readPlotTable(r: FieldReader): PlotTable {
     r.field('standardMoisturePct').fail(
       `should be a percentage from 0 to below 100, found ${moisture}`,
     );
-  return {
+  const table: PlotTable = {
     crop: r.field('crop').oneOf(CROPS),
     standardMoisturePct: moisture,
     plots,
     sources: readSources(r.field('sources')),
   };
+  // Treatment-factor columns (rate × source, rate × timing); absent in older projects.
+  if (r.has('factorKeys'))
+    table.factorKeys = r
+      .field('factorKeys')
+      .items()
+      .map((k) => k.string());
+  return table;
 }
 
 function readPlot(p: FieldReader): Plot {

@@ -21,6 +21,7 @@ import { products } from '../units/products';
 import { priceWeightName } from '../units/unitWeights';
 import type { TrialReport, YearComparisonReport } from './trialReport';
 import { formatP } from '../analysis/describeFTest';
+import { bestLevelSentence, levelTestSentence } from './levelSentences';
 import { fullResponseSentence } from '../economics/decisionSentences';
 import { unitScale } from './unitScale';
 
@@ -63,6 +64,12 @@ export interface GrowerPage {
   footer: string;
   /** The report's paper (paperSize). */
   paper: PaperSize;
+  /**
+   * A rate × factor site (source, timing…): per factor, the recommended rate of each level and
+   * the plain sentences on whether the levels differ and which returns most; also written into
+   * `facts` and at the head of `basis`, so every layout of the page shows them. Absent otherwise.
+   */
+  levels?: { factor: string; rates: GrowerFact[]; sentences: string[] }[];
 }
 
 /** How sure the optimum is, in words a grower uses, from its interval (display units). */
@@ -114,6 +121,58 @@ function certaintyOf(
  * growerPage(report, 'Cedar Bend').recommendation // "Apply about 150 lb N/ac"
  */
 export function growerPage(report: TrialReport, which: string | 'region'): GrowerPage {
+  const page = pageOf(report, which);
+  const factors = which === 'region' ? [] : report.levels.filter((l) => l.site === which);
+  if (factors.length === 0) return page;
+  const u = unitScale(report.settings.units, report.crop);
+  const ru = report.settings.units.rate;
+  // As on the rest of the page: a level's rate to apply to the spreader's step, its interval and
+  // differences as reported rates (shared/units/rateRounding); money in the user's currency.
+  const fmtRate = (kgHa: number): string =>
+    formatQuantity(shownRate(u.rate(kgHa), ru), ru, RATE_DECIMALS[ru]).replace(
+      ru,
+      nutrientUnit(ru),
+    );
+  const fmtApply = (kgHa: number): string =>
+    formatQuantity(applicationRate(u.rate(kgHa), ru), ru, 0).replace(ru, nutrientUnit(ru));
+  const { currency, locale } = report.settings;
+  const money = (perHa: number): string => formatMoneyPerArea(perHa, currency, ru, locale);
+  const levels = factors.map((f) => ({
+    factor: f.factor,
+    rates: f.levels.map((l): GrowerFact => {
+      const r = l.report.recommendation;
+      const ci = r.ciKgHa;
+      const range = ci
+        ? ` (${Math.round(r.level * 100)} % range ${fmtRate(ci[0])} to ${fmtRate(ci[1])})`
+        : '';
+      const value =
+        r.basis === 'no-response'
+          ? 'no N: no response found'
+          : r.rateKgHa === null
+            ? 'no rate can be recommended'
+            : r.basis === 'full-response'
+              ? `no more than ${formatQuantity(applicationRateDown(u.rate(r.rateKgHa), ru), ru, 0).replace(ru, nutrientUnit(ru))}${range}`
+              : `about ${fmtApply(r.rateKgHa)}${range}`;
+      return { label: `${f.factor}: ${l.level}`, value };
+    }),
+    sentences: [levelTestSentence(f), bestLevelSentence(f, { rate: fmtRate, money })],
+  }));
+  return {
+    ...page,
+    facts: [...page.facts, ...levels.flatMap((l) => l.rates)],
+    basis: [
+      ...levels.flatMap((l) => [
+        `Each ${l.factor.toLowerCase()} level was fitted on its own plots and the zero-rate check plots they share; the headline rate treats all levels as one; each level's own rate is listed with the facts.`,
+        ...l.sentences,
+      ]),
+      ...page.basis,
+    ],
+    levels,
+  };
+}
+
+/** The page of a site or of the region, before any treatment levels are added. */
+function pageOf(report: TrialReport, which: string | 'region'): GrowerPage {
   const u = unitScale(report.settings.units, report.crop);
   const ru = report.settings.units.rate;
   const yu = report.settings.units.yield;

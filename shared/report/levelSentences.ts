@@ -71,5 +71,11 @@ export function bestLevelSentence(f: SiteLevelsReport, fmt: LevelFormat): string
     c.bestShare === null
       ? 'no resamples were drawn, so how sure this is cannot be said'
       : `it returned the most ${sureWords(c.bestShare)} (${Math.round(c.bestShare * 100)} %)`;
-  return `${head}${others.length ? `: ${others.join('; ')}` : ''}; ${sure}.`;
+  const r = f.test.quadratic.result;
+  // The resamples hold the curves fixed in shape; the F test asks whether they differ at all.
+  const caution =
+    r.kind === 'f-test' && r.p >= f.test.alpha
+      ? ` The curves themselves do not differ detectably (${formatP(r.p)}), so this lead may be chance: take it with caution.`
+      : '';
+  return `${head}${others.length ? `: ${others.join('; ')}` : ''}; ${sure}.${caution}`;
 }

@@ -14,6 +14,7 @@ import { workbookRegionalModel } from './workbookRegionalModel';
 import { workbookEconomics } from './workbookEconomics';
 import { sheetName } from './workbookFormat';
 import { workbookGrowerSheet } from './workbookGrowerSheet';
+import { levelsSheetTitle, workbookLevels } from './workbookLevels';
 import { workbookOverview } from './workbookOverview';
 import { workbookProvenance } from './workbookProvenance';
 import { SENSITIVITY_SHEET, workbookSensitivity } from './workbookSensitivity';
@@ -76,6 +77,11 @@ export async function fillWorkbook(
     const chart = options.siteCharts?.[s.site] ?? null;
     await finished(workbookSite(wb, sheetName(s.site, taken), s, report, u, paper, chart));
   }
+  // One sheet per treatment factor (rate × source, rate × timing), after the site sheets.
+  for (const factor of new Set(report.levels.map((l) => l.factor)))
+    await finished(
+      workbookLevels(wb, sheetName(levelsSheetTitle(factor), taken), factor, report, u, paper),
+    );
   await finished(workbookAcrossSites(wb, report, u, paper, options.acrossChart ?? null));
   await finished(workbookRegionalModel(wb, report, u, paper));
   await finished(workbookEconomics(wb, report, paper));

@@ -1,0 +1,173 @@
+/**
+ * The sheet of one treatment factor (source, timing…): for every rate × factor site, whether its
+ * levels respond differently (the nested F tests of shared/analysis/levelResponseTest), each
+ * level's recommendation from its own plots and the shared checks at its own N price, and which
+ * level returns the most, with every other level's difference in optimum and in return and their
+ * intervals from the paired resamples (shared/analysis/priceLevels). Figures only; nothing is
+ * fitted here. Each level's full site report (models, ANOVA) is the site's, under its own name,
+ * in the results JSON and on screen.
+ */
+import type ExcelJS from 'exceljs';
+import { recommendationCautions } from '../economics/recommendationCautions';
+import { KG_PER_LB } from '../units/unitConstants';
+import { levelTestSentence } from './levelSentences';
+import type { SiteLevelsReport, TrialReport } from './trialReport';
+import type { UnitScale } from './unitScale';
+import {
+  P_VALUE_FORMAT,
+  fitColumns,
+  rateFormat,
+  setupPage,
+  styleTitle,
+  tableHeading,
+} from './workbookFormat';
+
+/**
+ * The sheet's name wanted for a factor (sheetName makes it unique and legal).
+ * @example levelsSheetTitle('Timing') // 'Levels by Timing'
+ */
+export function levelsSheetTitle(factor: string): string {
+  return `Levels by ${factor}`;
+}
+
+function siteBlock(
+  ws: ExcelJS.Worksheet,
+  r: number,
+  f: SiteLevelsReport,
+  u: UnitScale,
+  titles: Set<number>,
+): number {
+  const ru = u.units.rate;
+  const rN = ru.replace('/', ' N/');
+  const money = `money/${u.areaName}`;
+  // An N price is quoted per lb of N with lb/ac rates, per kg of N otherwise.
+  const perN = ru === 'lb/ac' ? KG_PER_LB : 1;
+  ws.getCell(r, 1).value = f.site;
+  styleTitle(ws.getCell(r, 1), 13);
+  titles.add(r++);
+  ws.getCell(r, 1).value = levelTestSentence(f);
+  titles.add(r++);
+  r = tableHeading(
+    ws,
+    r,
+    'Do the levels respond differently? One curve per level against one for all, the zero-rate check shared (weighted by 1/fitted yield²)',
+    ['Curve', 'F', 'df1', 'df2', 'p', 'Reading'],
+    titles,
+  );
+  for (const t of [f.test.quadratic, f.test.linear]) {
+    const res = t.result;
+    ws.getRow(r).values =
+      res.kind === 'f-test'
+        ? [t.model, res.f, res.df1, res.df2, res.p, t.sentence]
+        : [t.model, '–', '–', '–', '–', t.sentence];
+    if (res.kind === 'f-test') {
+      ws.getCell(r, 2).numFmt = '0.000';
+      ws.getCell(r, 5).numFmt = P_VALUE_FORMAT;
+    }
+    r++;
+  }
+  r++;
+  const level = `${Math.round(f.comparison.level * 100)} %`;
+  r = tableHeading(
+    ws,
+    r,
+    `Each level: its own plots and the shared checks, priced at its own N price`,
+    [
+      f.factor,
+      'Plots (shared checks)',
+      `N price (per ${ru === 'lb/ac' ? 'lb' : 'kg'} N)`,
+      'Model',
+      `Recommended rate (${rN})`,
+      `${level} interval low`,
+      `${level} interval high`,
+      `Net return at that rate (${money})`,
+    ],
+    titles,
+  );
+  for (const l of f.levels) {
+    const rec = l.report.recommendation;
+    ws.getRow(r).values = [
+      l.level + (l.level === f.comparison.best ? ' (returns most)' : ''),
+      `${l.report.n} (${l.checkPlots})`,
+      l.nutrientPricePerKg * perN,
+      rec.model ?? '–',
+      rec.rateKgHa === null ? '–' : u.rate(rec.rateKgHa),
+      rec.ciKgHa ? u.rate(rec.ciKgHa[0]) : '–',
+      rec.ciKgHa ? u.rate(rec.ciKgHa[1]) : '–',
+      l.returnAtOptimumPerHa === null ? '–' : u.perArea(l.returnAtOptimumPerHa),
+    ];
+    ws.getCell(r, 3).numFmt = '0.00';
+    for (const c of [5, 6, 7]) ws.getCell(r, c).numFmt = rateFormat(ru);
+    ws.getCell(r, 8).numFmt = '0.00';
+    r++;
+  }
+  r++;
+  const c = f.comparison;
+  r = tableHeading(
+    ws,
+    r,
+    `Set against ${c.best ?? 'the best level'}: differences (this level − the best) from ${c.resamplesCompared} paired resamples${c.bestShare === null ? '' : `; ${c.best} returned the most in ${Math.round(c.bestShare * 100)} % of them`}`,
+    [
+      f.factor,
+      `Optimum difference (${rN})`,
+      `${level} low`,
+      `${level} high`,
+      `Return difference (${money})`,
+      `${level} low`,
+      `${level} high`,
+    ],
+    titles,
+  );
+  for (const d of c.differences) {
+    const oi = d.optimumDifferenceIntervalKgHa;
+    const ri = d.returnDifferenceIntervalPerHa;
+    ws.getRow(r).values = [
+      d.level,
+      d.optimumDifferenceKgHa === null ? '–' : u.rate(d.optimumDifferenceKgHa),
+      oi ? u.rate(oi[0]) : '–',
+      oi ? u.rate(oi[1]) : '–',
+      d.returnDifferencePerHa === null ? '–' : u.perArea(d.returnDifferencePerHa),
+      ri ? u.perArea(ri[0]) : '–',
+      ri ? u.perArea(ri[1]) : '–',
+    ];
+    for (const k of [2, 3, 4]) ws.getCell(r, k).numFmt = rateFormat(ru);
+    for (const k of [5, 6, 7]) ws.getCell(r, k).numFmt = '0.00';
+    r++;
+  }
+  return r + 1;
+}
+
+/**
+ * Adds the sheet of one factor.
+ * @param wb - the workbook
+ * @param name - the sheet's name (sheetName of levelsSheetTitle)
+ * @param factor - the factor's column header
+ * @param report - the analysis (its `levels`)
+ * @param u - display-unit converters
+ * @param paper - paper for printing
+ * @returns the sheet
+ */
+export function workbookLevels(
+  wb: ExcelJS.Workbook,
+  name: string,
+  factor: string,
+  report: TrialReport,
+  u: UnitScale,
+  paper: 'letter' | 'a4',
+): ExcelJS.Worksheet {
+  const ws = wb.addWorksheet(name);
+  ws.getCell('A1').value =
+    `Rate × ${factor}: one response curve per level, the zero-rate check shared`;
+  styleTitle(ws.getCell('A1'), 14);
+  const titles = new Set<number>([1]);
+  let r = 3;
+  for (const f of report.levels.filter((l) => l.factor === factor))
+    r = siteBlock(ws, r, f, u, titles);
+  for (const c of recommendationCautions) {
+    ws.getCell(r, 1).value = c;
+    titles.add(r++);
+  }
+  fitColumns(ws, 8, 36, titles);
+  setupPage(ws, paper, 'landscape');
+  return ws;
+}
