@@ -63,6 +63,23 @@ describe('the workspace in chromium', () => {
     expect(session.pageErrors.map((e) => e.slice(0, 300))).toEqual([]);
   });
 
+  it('analyses a two-crop workbook one crop at a time, with a picker that switches and switches back', async () => {
+    const { page } = session;
+    // The demo workbook has corn sheets and two wheat sheets (the invented Skellwater sites).
+    const picker = page.getByTestId('crop-picker');
+    await picker.waitFor();
+    await expect(page.getByTestId('crop-corn').getAttribute('aria-pressed')).resolves.toBe('true');
+    const sites = () => page.getByTestId('site-picker').locator('option').allTextContents();
+    await expect.poll(sites).toContain('Quillmere North');
+    await page.getByTestId('crop-wheat').click();
+    await expect.poll(sites, { timeout: 60_000 }).toEqual(['Skellwater Upper', 'Skellwater Lower']);
+    await shot(page, '01b-crop-picker-wheat');
+    await page.getByTestId('crop-corn').click();
+    await expect.poll(sites, { timeout: 60_000 }).toContain('Quillmere North');
+    await expect(sites()).resolves.not.toContain('Skellwater Upper');
+    expect(session.pageErrors.map((e) => e.slice(0, 300))).toEqual([]);
+  });
+
   it("offers only local actions on a chart's toolbar, and nothing leaves the computer", async () => {
     const { page } = session;
     const chart = page.getByTestId('chart').first();

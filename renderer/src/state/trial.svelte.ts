@@ -63,6 +63,22 @@ export class Trial {
     return { books, maps };
   });
 
+  /**
+   * The crops the mapped plots sheets name (sheet name, title row, crop column or file name), with
+   * how many sheets name each, most first. One crop is analysed at a time (buildPlotTable leaves
+   * the others' sheets out), so with more than one the workspace offers the choice.
+   */
+  cropsNamed: { crop: CropId; sheets: number }[] = $derived.by(() => {
+    const counts = new Map<CropId, number>();
+    for (const mapping of this.#mapped.maps)
+      for (const sheet of mapping.sheets)
+        if (sheet.use === 'plots' && sheet.cropHint)
+          counts.set(sheet.cropHint, (counts.get(sheet.cropHint) ?? 0) + 1);
+    return [...counts]
+      .map(([crop, sheets]) => ({ crop, sheets }))
+      .sort((x, y) => y.sheets - x.sheets);
+  });
+
   built: Built | null = $derived.by(() => {
     const { books, maps } = this.#mapped;
     if (books.length === 0) {
