@@ -69,12 +69,12 @@ export class Trial {
    * the others' sheets out), so with more than one the workspace offers the choice.
    */
   cropsNamed: { crop: CropId; sheets: number }[] = $derived.by(() => {
-    const counts = new Map<CropId, number>();
+    const counts: Partial<Record<CropId, number>> = {};
     for (const mapping of this.#mapped.maps)
       for (const sheet of mapping.sheets)
         if (sheet.use === 'plots' && sheet.cropHint)
-          counts.set(sheet.cropHint, (counts.get(sheet.cropHint) ?? 0) + 1);
-    return [...counts]
+          counts[sheet.cropHint] = (counts[sheet.cropHint] ?? 0) + 1;
+    return (Object.entries(counts) as [CropId, number][])
       .map(([crop, sheets]) => ({ crop, sheets }))
       .sort((x, y) => y.sheets - x.sheets);
   });
