@@ -160,16 +160,24 @@ export function impossibleValue(
 }
 
 /**
- * Plots that take part in fitting: not excluded, with both rate and yield present and
- * possible (impossibleValue): a negative yield or a rate of 1e300 is refused, not fitted.
+ * Why a plot takes no part in fitting, in words for the plot list; null when it does. The one
+ * rule analyzablePlots applies: not excluded, with both rate and yield present and possible
+ * (impossibleValue): a negative yield or a rate of 1e300 is refused, not fitted.
+ * @param p - a plot
+ * @returns e.g. "no yield", "rate negative", "excluded (you): hail"; null for a plot in the fit
+ * @example outOfFitReason({ ...plot, yieldKgHa: null }) // 'no yield'
  */
+export function outOfFitReason(p: Plot): string | null {
+  if (p.excluded) return `excluded (${p.excluded.by}): ${p.excluded.reason}`;
+  if (p.rateKgHa === null) return 'no rate';
+  if (p.yieldKgHa === null) return 'no yield';
+  const rate = impossibleValue('rate', p.rateKgHa);
+  if (rate) return `rate ${rate}`;
+  const yieldProblem = impossibleValue('yield', p.yieldKgHa);
+  return yieldProblem ? `yield ${yieldProblem}` : null;
+}
+
+/** Plots that take part in fitting (outOfFitReason gives none). */
 export function analyzablePlots(table: PlotTable): Plot[] {
-  return table.plots.filter(
-    (p) =>
-      p.excluded === null &&
-      p.rateKgHa !== null &&
-      p.yieldKgHa !== null &&
-      impossibleValue('rate', p.rateKgHa) === null &&
-      impossibleValue('yield', p.yieldKgHa) === null,
-  );
+  return table.plots.filter((p) => outOfFitReason(p) === null);
 }
