@@ -152,7 +152,7 @@ export function fitLinearPlateauPrepared(
     joinBetweenKgHa: est.joinBetweenKgHa,
     fixed: fixedByStatus(status, 'b', 'x0'),
     stdErrorNote: ok
-      ? 'The x0 derivative jumps at each tested rate: the asymptotic errors assume x0 stays between the same two rates; prefer the bootstrap interval for the optimum.'
+      ? 'These standard errors assume the join stays between the two tested rates around it; the interval from resampling the plots does not, so read that one for the optimum.'
       : '',
   });
   if (status === 'full-response-at-lowest-rate') {
