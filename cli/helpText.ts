@@ -70,8 +70,9 @@ Options for analyze
   --column-unit role=unit ...
                          the unit of a column whose header names none, e.g.
                          --column-unit plotWeight=kg yield=t/ha; rate: kg/ha,
-                         lb/ac, g/m2; yield: kg/ha, t/ha, lb/ac, bu/ac, g/m2;
-                         plotWeight: kg, g, lb; plotArea: m2, ft2, ha, ac
+                         lb/ac, g/m2; yield: kg/ha, t/ha, q/ha (quintals),
+                         lb/ac, bu/ac, g/m2; plotWeight: kg, g, lb;
+                         plotArea: m2, ft2, ha, ac
 
 Without prices the run uses illustrative prices and every report says so.
 A summary is printed either way; files are written only when asked for, and

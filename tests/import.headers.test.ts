@@ -99,7 +99,7 @@ describe('mapping checks and layouts', () => {
     const wrongUnit = structuredClone(m);
     wrongUnit.sheets[0].columns[2].unit = 'lb/bu';
     expect(() => buildPlotTable(raw, wrongUnit, { crop: 'corn', rateBasis: 'nutrient' })).toThrow(
-      'The column mapping for "m.csv" gives column C ("Yield (kg/ha)") of sheet "" the unit "lb/bu", which a yield column cannot have; choose one of kg/ha, t/ha, lb/ac, bu/ac, g/m2; detect the columns again or correct it.',
+      'The column mapping for "m.csv" gives column C ("Yield (kg/ha)") of sheet "" the unit "lb/bu", which a yield column cannot have; choose one of kg/ha, t/ha, q/ha, lb/ac, bu/ac, g/m2; detect the columns again or correct it.',
     );
     const wrongRole = structuredClone(m);
     (wrongRole.sheets[0].columns[0] as { role: string }).role = 'plotNumber';

@@ -46,6 +46,7 @@ export type HeaderUnit =
   | 'lb/ac'
   | 'g/m2'
   | 't/ha'
+  | 'q/ha'
   | 'bu/ac'
   | '%'
   | 'kg'
@@ -63,7 +64,7 @@ export type HeaderUnit =
 /** The units a column of each role may carry; a role not listed has no unit. */
 export const UNITS_BY_ROLE: Readonly<Partial<Record<MappedRole, readonly HeaderUnit[]>>> = {
   rate: ['kg/ha', 'lb/ac', 'g/m2'],
-  yield: ['kg/ha', 't/ha', 'lb/ac', 'bu/ac', 'g/m2'],
+  yield: ['kg/ha', 't/ha', 'q/ha', 'lb/ac', 'bu/ac', 'g/m2'],
   plotWeight: ['kg', 'g', 'lb'],
   plotArea: ['m2', 'ft2', 'ha', 'ac'],
   plotLength: ['m', 'ft'],

@@ -92,7 +92,7 @@ export function unitFromHeader(header: string): UnitHint | null {
   const h = normalizeHeader(header);
   // Every "<mass> [word] / <area>" in the header is tried until one is a known unit.
   const perAreaRe =
-    /\b(lbs?|pounds?|kg|g|t|mg|tonnes?|tons?|bu|bushels?)\.?\s*(?:of\s*)?([a-z0-9]*)\s*(?:\/|per)\s*(ac|acre|a|ha|hectare|m2|sq\.? ?m)\b/g;
+    /\b(lbs?|pounds?|kg|g|t|mg|tonnes?|tons?|q|qt|qtl|quintals?|dt|bu|bushels?)\.?\s*(?:of\s*)?([a-z0-9]*)\s*(?:\/|per)\s*(ac|acre|a|ha|hectare|m2|sq\.? ?m)\b/g;
   for (const perArea of h.matchAll(perAreaRe)) {
     const [text, massWord, middle, areaWord] = perArea;
     const perHa = areaWord === 'ha' || areaWord === 'hectare';
@@ -110,6 +110,7 @@ export function unitFromHeader(header: string): UnitHint | null {
     else if (massWord === 'kg') unit = perHa ? 'kg/ha' : null;
     else if (massWord === 'g') unit = perM2 ? 'g/m2' : null;
     else if (/^(t|mg|tonnes?|tons?)$/.test(massWord)) unit = perHa ? 't/ha' : null;
+    else if (/^(q|qt|qtl|quintals?|dt)$/.test(massWord)) unit = perHa ? 'q/ha' : null;
     if (unit) return { unit, basis, text };
   }
   // A mass per plot ("kg/plot", "lb per plot") is a plot weight's unit.

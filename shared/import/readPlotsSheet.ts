@@ -9,7 +9,7 @@
 import type { ColumnRole, CropId, OriginalCell, Plot } from '../table/plotTable';
 import { adjustMoisture } from '../units/adjustMoisture';
 import type { RateUnit } from '../units/convertRate';
-import { convertYield, type YieldUnit } from '../units/convertYield';
+import { sheetYieldToKgHa, type SheetYieldUnit } from '../units/convertYield';
 import { productFromText, products, type FertilizerProduct } from '../units/products';
 import type { QualityFinding } from '../table/qualityFinding';
 import { cellLabel, cellText } from './cellLabel';
@@ -230,7 +230,8 @@ export function readPlotsSheet(
     if (cols.yield) {
       const y = num('yield', cols.yield);
       wetBasis = cols.yield.moistureBasis !== 'standard';
-      if (y !== null) yieldKgHa = convertYield(y, (cols.yield.unit as YieldUnit) ?? 'kg/ha', crop);
+      if (y !== null)
+        yieldKgHa = sheetYieldToKgHa(y, (cols.yield.unit as SheetYieldUnit) ?? 'kg/ha', crop);
     } else if (cols.plotWeight) {
       yieldKgHa = plotWeightYieldKgHa(cols, num, areaFromSettings);
     }

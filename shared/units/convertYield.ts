@@ -18,6 +18,29 @@ import {
 /** Units a yield can be given in. "t/ha" is the tonne (Mg) per hectare. */
 export type YieldUnit = 'kg/ha' | 't/ha' | 'lb/ac' | 'bu/ac' | 'g/m2';
 
+/**
+ * Units a sheet's yield column may carry: the display units and the quintal per hectare (q/ha,
+ * 100 kg/ha; also written dt/ha, the decitonne; common practice in several countries), read in
+ * but never shown (the views use t/ha).
+ */
+export type SheetYieldUnit = YieldUnit | 'q/ha';
+
+/** Kilograms in a quintal (and in a decitonne): 100 (NIST SP 811 lists the quintal as 100 kg). */
+const KG_PER_QUINTAL = 100;
+
+/**
+ * Converts a yield as a sheet gives it to kg/ha.
+ * @param value - the yield in `unit`
+ * @param unit - its unit, a display unit or q/ha
+ * @param crop - the crop, for the bushel weight
+ * @returns the yield, kg/ha
+ * @throws {RangeError} for an unknown unit
+ * @example sheetYieldToKgHa(72.5, 'q/ha', 'wheat') // 7250
+ */
+export function sheetYieldToKgHa(value: number, unit: SheetYieldUnit, crop: CropId): number {
+  return unit === 'q/ha' ? value * KG_PER_QUINTAL : convertYield(value, unit, crop);
+}
+
 /** Every yield unit, for menus and validation. */
 export const yieldUnits: readonly YieldUnit[] = ['kg/ha', 't/ha', 'lb/ac', 'bu/ac', 'g/m2'];
 
