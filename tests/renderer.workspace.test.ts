@@ -34,6 +34,25 @@ describe('Workspace state', () => {
     expect(ws.settings.unitSystem).toBe('metric');
   });
 
+  it('asks for the crop when no sheet names it, and stops asking once answered (undoable)', async () => {
+    const ws = workspace();
+    const unnamed = new TextEncoder().encode(
+      'Site,Rep,Plot,N rate (kg N/ha),Yield (t/ha)\nHollin Cross,1,101,0,6.1\nHollin Cross,1,102,90,8.2\n',
+    );
+    await ws.openFiles([{ name: 'plots.csv', bytes: unnamed }]);
+    expect(ws.trial.cropUnknown).toBe(true);
+    ws.trial.setCrop('wheat');
+    expect(ws.trial.cropUnknown).toBe(false);
+    expect(ws.trial.table!.crop).toBe('wheat');
+    ws.trial.undo();
+    expect(ws.trial.cropUnknown).toBe(true);
+    // A file whose title or name says its crop is not asked about.
+    const named = workspace();
+    await named.openFiles([{ name: 'Hollin Cross wheat 2025.csv', bytes: unnamed }]);
+    expect(named.trial.cropUnknown).toBe(false);
+    expect(named.trial.table!.crop).toBe('wheat');
+  });
+
   it('a mapping change is undone and redone with the table following', async () => {
     const ws = workspace();
     await ws.openFiles([file()]);

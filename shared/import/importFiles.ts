@@ -26,6 +26,7 @@ import { readTrialFile } from './readTrialFile';
 import { inputUnitsOf } from './inputUnits';
 import type { RawWorkbook } from './rawWorkbook';
 import { crops } from '../units/crops';
+import { cropsNamed } from './cropsNamed';
 
 /** Roles a user may assign with an override: every role a column can have. */
 export const mappableRoles: readonly MappedRole[] = MAPPED_ROLES;
@@ -122,23 +123,11 @@ function cropOfFiles(
   mappings: readonly ColumnMapping[],
   sheets: readonly string[] | undefined,
 ): CropChoice {
-  // Each crop named, with where it was first read and how many plots sheets name it.
-  const named = new Map<CropId, { where: string; sheets: number }>();
-  mappings.forEach((m, i) => {
-    for (const s of m.sheets) {
-      if (s.use !== 'plots' || !s.cropHint || (sheets && !sheets.includes(s.sheet))) continue;
-      const seen = named.get(s.cropHint);
-      if (seen) seen.sheets++;
-      else
-        named.set(s.cropHint, {
-          where: s.cropEvidence?.startsWith('the file name')
-            ? s.cropEvidence
-            : `${s.cropEvidence ?? `sheet "${s.sheet}"`} in "${raws[i].file.name}"`,
-          sheets: 1,
-        });
-    }
-  });
-  if (named.size === 0)
+  const named = cropsNamed(
+    mappings.map((mapping, i) => ({ name: raws[i].file.name, mapping })),
+    sheets,
+  );
+  if (named.length === 0)
     return {
       crop: 'corn',
       finding: {
@@ -151,8 +140,9 @@ function cropOfFiles(
     };
   // The crop most sheets name (the first named on a tie); sheets of another crop are left out
   // by buildPlotTable, each with its own finding.
-  const [[crop, first], ...others] = [...named].sort((a, b) => b[1].sheets - a[1].sheets);
-  const rest = others.map(([c]) => c);
+  const [first, ...others] = named;
+  const crop = first.crop;
+  const rest = others.map((c) => c.crop);
   return {
     crop,
     finding: {

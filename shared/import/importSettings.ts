@@ -8,6 +8,11 @@ import type { ProductId } from '../units/products';
 
 export interface ImportSettings {
   crop: CropId;
+  /**
+   * True once the user has said which crop the plots are (the workspace asks when no sheet names
+   * it, and stops asking then); absent for a crop read from the sheets or not yet confirmed.
+   */
+  cropConfirmed?: boolean;
   /** Moisture yields are expressed at, % wet basis; default the crop's market standard. */
   standardMoisturePct?: number;
   /** For rate columns whose header does not say: rates of product or of nutrient. */

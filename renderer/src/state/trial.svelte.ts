@@ -9,6 +9,7 @@ import type { RawWorkbook } from '../../../shared/import/rawWorkbook';
 import { checkQuality } from '../../../shared/quality/checkQuality';
 import type { QualityFinding } from '../../../shared/table/qualityFinding';
 import type { CropId, PlotTable } from '../../../shared/table/plotTable';
+import { cropsNamed, type CropNamed } from '../../../shared/import/cropsNamed';
 import { crops } from '../../../shared/units/crops';
 import { applyDecisions, type Edits } from '../analysis/edits';
 import { History } from './history.svelte';
@@ -68,16 +69,21 @@ export class Trial {
    * how many sheets name each, most first. One crop is analysed at a time (buildPlotTable leaves
    * the others' sheets out), so with more than one the workspace offers the choice.
    */
-  cropsNamed: { crop: CropId; sheets: number }[] = $derived.by(() => {
-    const counts: Partial<Record<CropId, number>> = {};
-    for (const mapping of this.#mapped.maps)
-      for (const sheet of mapping.sheets)
-        if (sheet.use === 'plots' && sheet.cropHint)
-          counts[sheet.cropHint] = (counts[sheet.cropHint] ?? 0) + 1;
-    return (Object.entries(counts) as [CropId, number][])
-      .map(([crop, sheets]) => ({ crop, sheets }))
-      .sort((x, y) => y.sheets - x.sheets);
-  });
+  cropsNamed: CropNamed[] = $derived(
+    cropsNamed(
+      this.#mapped.books.map((b, i) => ({ name: b.file.name, mapping: this.#mapped.maps[i] })),
+    ),
+  );
+
+  /**
+   * True when plots sheets are mapped, none names its crop and the user has not said which it is:
+   * the crop is then only the default, and the workspace asks rather than guessing in silence.
+   */
+  cropUnknown: boolean = $derived(
+    !this.edits.settings.cropConfirmed &&
+      this.#mapped.maps.some((m) => m.sheets.some((s) => s.use === 'plots')) &&
+      this.#mapped.maps.every((m) => m.sheets.every((s) => s.use !== 'plots' || !s.cropHint)),
+  );
 
   built: Built | null = $derived.by(() => {
     const { books, maps } = this.#mapped;
@@ -132,12 +138,23 @@ export class Trial {
       (b) => !this.edits.mappings[b.file.name] || reopened.includes(b.file.name),
     );
     if (books.length === 0) return;
+    const first = Object.keys(this.edits.mappings).length === 0;
     const mappings = { ...this.edits.mappings };
     for (const book of books) {
       const saved = mappings[book.file.name];
       mappings[book.file.name] = saved ? reuseMapping(book, saved).mapping : detectColumns(book);
     }
-    this.edits = { ...this.edits, mappings };
+    // The first files set the crop the way the command line does (the crop most of their sheets
+    // name), unless the user has said it; later files never switch it (the picker does).
+    const named =
+      first && !this.edits.settings.cropConfirmed
+        ? cropsNamed(books.map((b) => ({ name: b.file.name, mapping: mappings[b.file.name] })))
+        : [];
+    const settings =
+      named.length > 0 && named[0].crop !== this.edits.settings.crop
+        ? { ...this.edits.settings, crop: named[0].crop, standardMoisturePct: undefined }
+        : this.edits.settings;
+    this.edits = { ...this.edits, mappings, settings };
   }
 
   /**
@@ -147,7 +164,12 @@ export class Trial {
   setCrop(crop: CropId): void {
     this.change(`Crop: ${crops(crop).label}`, {
       ...this.edits,
-      settings: { ...this.edits.settings, crop, standardMoisturePct: undefined },
+      settings: {
+        ...this.edits.settings,
+        crop,
+        cropConfirmed: true,
+        standardMoisturePct: undefined,
+      },
     });
   }
 
