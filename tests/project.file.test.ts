@@ -60,6 +60,24 @@ describe('a rate × factor table', () => {
   });
 });
 
+describe('a table with a corrected value', () => {
+  it('keeps the correction, the value read and the cell text through save and open', () => {
+    const project = exampleProject();
+    const plot = project.table!.plots[2];
+    plot.corrections = [
+      { role: 'yield', fromKgHa: plot.yieldKgHa, toKgHa: 9876, reason: 'decimal slipped' },
+    ];
+    plot.yieldKgHa = 9876;
+    const text = serializeProject(project, new Date('2026-03-01T08:00:00.000Z'));
+    const reopened = parseProject(text, 'corrected.plotrate').project.table!.plots[2];
+    expect(reopened.corrections).toEqual(plot.corrections);
+    expect(reopened.original.yield!.text).toBe(plot.original.yield!.text);
+    // A correction without a reason is damage, named by its field.
+    const broken = text.replace('"reason": "decimal slipped"', '"why": "decimal slipped"');
+    expect(() => parseProject(broken, 'broken.plotrate')).toThrow(/reason/);
+  });
+});
+
 describe('migration from version 1', () => {
   it('renames the prices, moves exclusions onto plots, keeps unmatched reasons and leaves the old file untouched', async () => {
     const file = path.join(dir, 'first season.plotrate');

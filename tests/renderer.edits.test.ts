@@ -6,6 +6,7 @@ import { readTrialFile } from '../shared/import/readTrialFile';
 import { syntheticCsv } from '../shared/demo/syntheticTrial';
 import {
   applyDecisions,
+  correct,
   decide,
   setColumnRole,
   setColumnUnit,
@@ -66,6 +67,43 @@ describe('renderer edits', () => {
     expect(() => setSheetUse(mapping, 'Nowhere', 'plots')).toThrow(
       'The mapping has no sheet called "Nowhere".',
     );
+  });
+
+  it('a corrected value replaces the read one, keeps the cell text and the value read, and undoes cleanly', async () => {
+    const { raw, mapping } = await synthetic();
+    const { table } = buildPlotTable([raw], [mapping], { crop: 'corn', rateBasis: 'nutrient' });
+    const plot = table.plots[3];
+    const read = plot.yieldKgHa;
+    const text = plot.original.yield!.text;
+    const corrections = correct({}, plot.id, 'yield', { toKgHa: 9876, reason: 'decimal slipped' });
+    const out = applyDecisions(table, {}, corrections);
+    const fixed = out.plots[3];
+    expect(fixed.yieldKgHa).toBe(9876);
+    expect(fixed.original.yield!.text).toBe(text);
+    expect(fixed.corrections).toEqual([
+      { role: 'yield', fromKgHa: read, toKgHa: 9876, reason: 'decimal slipped' },
+    ]);
+    // Other plots are shared, not copied; the built table itself is untouched.
+    expect(out.plots[0]).toBe(table.plots[0]);
+    expect(table.plots[3].yieldKgHa).toBe(read);
+    // A table that already carries the correction (a saved project) gives the same result again,
+    // and clearing the correction brings back the value the sheet gave.
+    expect(applyDecisions(out, {}, corrections).plots[3]).toEqual(fixed);
+    const cleared = correct(corrections, plot.id, 'yield', null);
+    expect(cleared).toEqual({});
+    const back = applyDecisions(out, {}, cleared).plots[3];
+    expect(back.yieldKgHa).toBe(read);
+    expect(back.corrections).toBeUndefined();
+    // A corrected plot can still be excluded: both decisions hold.
+    const both = applyDecisions(
+      table,
+      { [plot.id]: { action: 'exclude', reason: 'hail' } },
+      corrections,
+    );
+    expect(both.plots[3]).toMatchObject({
+      yieldKgHa: 9876,
+      excluded: { reason: 'hail', by: 'user' },
+    });
   });
 
   it('applyDecisions excludes with the reason, keep clears a sheet exclusion, nothing is removed', () => {

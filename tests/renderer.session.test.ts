@@ -55,6 +55,18 @@ describe('checkSession', () => {
     });
   });
 
+  it('keeps value corrections, and refuses corrections that are not a value with a reason', () => {
+    const corrections = { 'f|s|4': { yield: { toKgHa: 9876, reason: 'decimal slipped' } } };
+    const withCorrections = { ...good, edits: { ...good.edits, corrections } };
+    expect(checkSession(withCorrections)).toEqual(withCorrections);
+    for (const bad of [
+      { 'f|s|4': { moisture: { toKgHa: 1, reason: '' } } },
+      { 'f|s|4': { yield: { toKgHa: -5, reason: '' } } },
+      { 'f|s|4': { yield: { toKgHa: 9876 } } },
+    ])
+      expect(checkSession({ ...good, edits: { ...good.edits, corrections: bad } })).toBeNull();
+  });
+
   it.each([
     ['another version', { ...good, version: 2 }],
     ['files without bytes', { ...good, files: [{ name: 'a.csv' }] }],

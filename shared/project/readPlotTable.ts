@@ -3,6 +3,7 @@ import {
   type CellRef,
   type ColumnRole,
   type CropId,
+  type Correction,
   type Exclusion,
   type OriginalCell,
   type Plot,
@@ -102,6 +103,18 @@ function readPlot(p: FieldReader): Plot {
     ex.value === null
       ? null
       : { reason: ex.field('reason').string(), by: ex.field('by').oneOf(EXCLUDERS) };
+  // Corrections (optional: files written before them have none).
+  const corrections: Correction[] | undefined = p.has('corrections')
+    ? p
+        .field('corrections')
+        .items()
+        .map((c) => ({
+          role: c.field('role').oneOf(['rate', 'yield'] as const),
+          fromKgHa: c.field('fromKgHa').nullableNumber(),
+          toKgHa: c.field('toKgHa').number(),
+          reason: c.field('reason').string(),
+        }))
+    : undefined;
   return {
     id: p.field('id').string(),
     site: p.field('site').string(),
@@ -117,6 +130,7 @@ function readPlot(p: FieldReader): Plot {
     groups,
     excluded,
     original,
+    ...(corrections ? { corrections } : {}),
   };
 }
 

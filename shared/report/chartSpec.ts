@@ -54,6 +54,8 @@ export interface PointLayer {
   labels?: string[];
   /** True for plots left out of the fit. */
   excluded?: boolean;
+  /** True for a ring around plots whose value the user corrected (drawn over their own marker). */
+  corrected?: boolean;
 }
 
 /** A fitted curve sampled densely enough to draw as a polyline. */
@@ -162,6 +164,7 @@ export const chartPalette = {
   optimumInterval: 'rgba(217, 115, 26, 0.18)',
   profitableRange: 'rgba(42, 140, 111, 0.18)',
   returnBand: 'rgba(31, 95, 168, 0.16)',
+  corrected: '#c2410c',
   risk: '#b5475b',
   optimumRate: '#d9731a',
   bestRate: '#2a8c6f',

@@ -120,6 +120,11 @@ function marker(symbol: ChartSymbol, cx: number, cy: number, r: number, style: s
 }
 
 function pointStyle(layer: PointLayer): { symbol: ChartSymbol; style: string } {
+  if (layer.corrected)
+    return {
+      symbol: 'circle',
+      style: `fill="none" stroke="${chartPalette.corrected}" stroke-width="1.8"`,
+    };
   const symbol = chartPalette.symbols[layer.groupIndex % chartPalette.symbols.length];
   if (layer.excluded) {
     return {
@@ -315,7 +320,7 @@ function drawPanel(
     l.x.forEach((xv, i) => {
       const yv = l.y[i];
       if (Number.isFinite(xv) && Number.isFinite(yv)) {
-        out.push(marker(symbol, sx(xv), sy(yv), size * 0.36, style));
+        out.push(marker(symbol, sx(xv), sy(yv), size * (l.corrected ? 0.7 : 0.36), style));
       }
     });
   }

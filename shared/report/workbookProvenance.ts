@@ -78,7 +78,37 @@ export function workbookProvenance(
       ];
     }
   }
-  if (!any) ws.getCell(r, 1).value = 'none';
+  if (!any) ws.getCell(r++, 1).value = 'none';
+  r++;
+  // Values the user corrected: the cell's own text beside the value read and the one used.
+  r = tableHeading(
+    ws,
+    r,
+    'Values corrected',
+    ['Site', 'Plot', 'Value', 'Cell text', 'Read (kg/ha)', 'Used (kg/ha)', 'Reason', 'Source'],
+    titles,
+  );
+  let corrected = false;
+  for (const site of report.sites) {
+    for (const p of site.plots) {
+      for (const c of p.corrections ?? []) {
+        corrected = true;
+        const cell = p.original[c.role];
+        const ref = cell?.ref;
+        ws.getRow(r++).values = [
+          site.site,
+          p.plotLabel ?? p.id,
+          c.role,
+          cell?.text ?? '',
+          c.fromKgHa ?? '',
+          c.toKgHa,
+          c.reason,
+          ref ? `${ref.file} ${ref.sheet} ${ref.cell}`.trim() : p.id,
+        ];
+      }
+    }
+  }
+  if (!corrected) ws.getCell(r, 1).value = 'none';
   fitColumns(ws, 8, 70, titles);
   ws.views = [{ state: 'frozen', ySplit: 1 }];
   setupPage(ws, paper, 'portrait');

@@ -96,6 +96,21 @@ export interface Plot {
   excluded: Exclusion | null;
   /** The original cell of every mapped role for this plot. */
   original: Partial<Record<ColumnRole, OriginalCell>>;
+  /**
+   * Values the user corrected (a mistyped cell), each with the value it replaced; the cell's own
+   * text stays in `original`. Absent when nothing was corrected.
+   */
+  corrections?: Correction[];
+}
+
+/** A rate or yield the user corrected, with the value read from the sheet and why. */
+export interface Correction {
+  role: 'rate' | 'yield';
+  /** The value read from the sheet, kg/ha (null when the cell was empty or unreadable). */
+  fromKgHa: number | null;
+  /** The corrected value, kg/ha. */
+  toKgHa: number;
+  reason: string;
 }
 
 /** A source file as read: its name, size and SHA-256 (hex) for provenance. */

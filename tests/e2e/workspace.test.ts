@@ -605,4 +605,59 @@ describe('the workspace in chromium', () => {
     expect(session.pageErrors.map((e) => e.slice(0, 300))).toEqual([]);
     expect(session.offsiteRequests).toEqual([]);
   });
+
+  it('corrects a mistyped yield: listed with its cell, ringed on the chart, in the workbook, undone', async () => {
+    const { page } = session;
+    await page.getByRole('button', { name: /Quality/ }).click();
+    const button = page.locator('[data-testid^="correct-button-"]').first();
+    const plotId = (await button.getAttribute('data-testid'))!.replace('correct-button-', '');
+    await button.click();
+    const input = page.getByTestId(`correction-input-${plotId}`);
+    await input.fill('7,77'); // either decimal mark is read
+    await page
+      .getByTestId('correct-value')
+      .getByPlaceholder('e.g. decimal mark slipped')
+      .fill('scale slip');
+    await page.getByTestId('correct-value').getByRole('button', { name: 'Save' }).click();
+    const list = page.getByTestId('corrections');
+    await expect(list.textContent()).resolves.toMatch(
+      /yield\s.* → 7\.77 t\/ha \(scale slip\); cell .* reads “/s,
+    );
+    await shot(page, '05e-value-corrected');
+    // The one-site chart rings the corrected plot.
+    const site = (await list.textContent())!
+      .trim()
+      .split(',')[0]
+      .replace(/^Values you corrected \(\d+\)\s*/, '');
+    await page.getByRole('button', { name: /One site/ }).click();
+    await page.getByTestId('site-picker').selectOption(site);
+    await page.locator('.legendtext', { hasText: 'Corrected value' }).waitFor({ timeout: 60_000 });
+    // The workbook's provenance lists it with the cell's own text.
+    await page.getByRole('button', { name: /Report/ }).click();
+    await page.getByTestId('grower-page').waitFor({ timeout: 60_000 });
+    const [download] = await Promise.all([
+      page.waitForEvent('download', { timeout: 60_000 }),
+      page.getByTestId('export-workbook').click(),
+    ]);
+    const dir = await mkdtemp(path.join(tmpdir(), 'plotrate-e2e-correct-'));
+    const saved = path.join(dir, download.suggestedFilename());
+    await download.saveAs(saved);
+    const book = new ExcelJS.Workbook();
+    await book.xlsx.readFile(saved);
+    const rows: string[] = [];
+    book.getWorksheet('Provenance')!.eachRow((row) => {
+      rows.push(
+        (row.values as unknown[])
+          .slice(1)
+          .map((v) => String(v ?? ''))
+          .join('|'),
+      );
+    });
+    expect(rows.some((r) => r.includes('|yield|') && r.includes('|7770|scale slip|'))).toBe(true);
+    // Undo takes the correction back.
+    await page.getByRole('button', { name: /Quality/ }).click();
+    await page.getByRole('button', { name: /^Undo Correct yield/ }).click();
+    await expect(page.getByTestId('corrections').count()).resolves.toBe(0);
+    expect(session.pageErrors.map((e) => e.slice(0, 300))).toEqual([]);
+  });
 });

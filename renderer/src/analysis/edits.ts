@@ -14,11 +14,17 @@ import {
   type SheetMapping,
 } from '../../../shared/import/columnMapping';
 import type { ImportSettings } from '../../../shared/import/importSettings';
-import type { Plot, PlotTable } from '../../../shared/table/plotTable';
+import type { Correction, Plot, PlotTable } from '../../../shared/table/plotTable';
 
 /** What the user decided about one plot. */
 export interface PlotDecision {
   action: 'exclude' | 'keep';
+  reason: string;
+}
+
+/** A value the user typed for a plot's rate or yield, kg/ha, and why (the cell's text is kept). */
+export interface ValueCorrection {
+  toKgHa: number;
   reason: string;
 }
 
@@ -28,6 +34,8 @@ export interface Edits {
   settings: ImportSettings;
   /** Plot id → decision. */
   decisions: Record<string, PlotDecision>;
+  /** Plot id → its corrected rate and/or yield; absent in sessions from before corrections. */
+  corrections?: Record<string, Partial<Record<Correction['role'], ValueCorrection>>>;
 }
 
 function updateSheet(
@@ -176,14 +184,65 @@ export function decide(
 export function applyDecisions(
   table: PlotTable,
   decisions: Readonly<Record<string, PlotDecision>>,
+  corrections: Edits['corrections'] = {},
 ): PlotTable {
   const plots = table.plots.map((plot): Plot => {
     const decision = decisions[plot.id];
-    if (!decision) return plot;
+    const own = corrections[plot.id];
+    const corrected = own || plot.corrections ? correctedPlot(plot, own ?? {}) : plot;
+    if (!decision) return corrected;
     if (decision.action === 'exclude') {
-      return { ...plot, excluded: { reason: decision.reason, by: 'user' } };
+      return { ...corrected, excluded: { reason: decision.reason, by: 'user' } };
     }
-    return { ...plot, excluded: null };
+    return { ...corrected, excluded: null };
   });
   return { ...table, plots };
+}
+
+/**
+ * A plot with the user's corrected values in place and each correction recorded beside the value
+ * it replaced. A table that already carries corrections (a project saved with them) is taken back
+ * to the sheet's values first, so the edits alone decide: applying the same correction twice
+ * changes nothing, and a correction undone restores the sheet's value.
+ */
+function correctedPlot(
+  plot: Plot,
+  byRole: Partial<Record<Correction['role'], ValueCorrection>>,
+): Plot {
+  const { corrections: earlier = [], ...next } = plot;
+  for (const e of earlier) {
+    if (e.role === 'rate') next.rateKgHa = e.fromKgHa;
+    else next.yieldKgHa = e.fromKgHa;
+  }
+  const made: Correction[] = [];
+  for (const role of ['rate', 'yield'] as const) {
+    const c = byRole[role];
+    if (!c) continue;
+    made.push({ role, fromKgHa: next[`${role}KgHa`], toKgHa: c.toKgHa, reason: c.reason });
+    next[`${role}KgHa`] = c.toKgHa;
+  }
+  return made.length > 0 ? { ...next, corrections: made } : next;
+}
+
+/**
+ * Sets or clears the correction of one value of one plot.
+ * @param corrections - the current corrections
+ * @param plotId - the plot
+ * @param role - "rate" or "yield"
+ * @param correction - the new value (kg/ha) and reason, or null to restore the sheet's value
+ * @returns the new corrections
+ */
+export function correct(
+  corrections: Edits['corrections'],
+  plotId: string,
+  role: Correction['role'],
+  correction: ValueCorrection | null,
+): NonNullable<Edits['corrections']> {
+  const next = { ...corrections };
+  const own = { ...next[plotId] };
+  if (correction) own[role] = correction;
+  else delete own[role];
+  if (Object.keys(own).length > 0) next[plotId] = own;
+  else delete next[plotId];
+  return next;
 }

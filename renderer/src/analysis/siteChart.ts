@@ -55,6 +55,7 @@ function blockPoints(
  * @param intervalKgHa - the optimum's interval (bootstrap), or null
  * @param excluded - the site's excluded plots (drawn hollow)
  * @param units - display units and crop
+ * @param corrected - the site's plots in the fit with a corrected value (ringed, labelled)
  * @returns the chart description
  */
 export function siteChartSpec(
@@ -64,6 +65,7 @@ export function siteChartSpec(
   intervalKgHa: [number, number] | null,
   excluded: readonly Plot[],
   units: ChartUnits,
+  corrected: readonly Plot[] = [],
 ): ChartSpec {
   const r = (v: number) => rateFromKgHa(v, units.rate);
   const yv = (v: number) => yieldFromKgHa(v, units.yield, units.crop);
@@ -113,6 +115,22 @@ export function siteChartSpec(
       x: shownExcluded.map((p) => r(p.rateKgHa!)),
       y: shownExcluded.map((p) => yv(p.yieldKgHa!)),
       labels: shownExcluded.map((p) => `Excluded: ${p.excluded?.reason ?? ''}`),
+    });
+  }
+  const ringed = corrected.filter((p) => p.rateKgHa !== null && p.yieldKgHa !== null);
+  if (ringed.length > 0) {
+    response.push({
+      kind: 'points',
+      name: 'Corrected value',
+      groupIndex: 0,
+      corrected: true,
+      x: ringed.map((p) => r(p.rateKgHa!)),
+      y: ringed.map((p) => yv(p.yieldKgHa!)),
+      labels: ringed.map((p) =>
+        (p.corrections ?? [])
+          .map((c) => `${c.role} corrected (cell “${p.original[c.role]?.text ?? ''}”): ${c.reason}`)
+          .join('; '),
+      ),
     });
   }
   if (optimum?.rateKgHa !== null && optimum?.rateKgHa !== undefined) {

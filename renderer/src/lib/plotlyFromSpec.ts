@@ -158,12 +158,19 @@ export function plotlyFromSpec(spec: ChartSpec, options: FigureOptions = {}): Pl
             hovertemplate: layer.labels ? '%{text}<extra></extra>' : undefined,
             xaxis: ids.x,
             yaxis: ids.y,
-            marker: {
-              color: color,
-              size: 8,
-              symbol: layer.excluded ? 'x-open' : symbol,
-              line: { width: 1, color: '#ffffff' },
-            },
+            marker: layer.corrected
+              ? {
+                  color: chartPalette.corrected,
+                  size: 16,
+                  symbol: 'circle-open',
+                  line: { width: 2 },
+                }
+              : {
+                  color: color,
+                  size: 8,
+                  symbol: layer.excluded ? 'x-open' : symbol,
+                  line: { width: 1, color: '#ffffff' },
+                },
           });
           break;
         }

@@ -60,6 +60,22 @@ function plausiblePrices(prices: Record<string, unknown>): boolean {
  * @example
  * checkSession({}) // null
  */
+/** Corrections hold, per plot and role, a value of 0 or more (kg/ha) and a reason. */
+function plausibleCorrections(corrections: unknown): boolean {
+  if (!isObject(corrections)) return false;
+  return Object.values(corrections).every(
+    (byRole) =>
+      isObject(byRole) &&
+      Object.entries(byRole).every(
+        ([role, c]) =>
+          (role === 'rate' || role === 'yield') &&
+          isObject(c) &&
+          within(c.toKgHa, 0, 1e6) &&
+          typeof c.reason === 'string',
+      ),
+  );
+}
+
 export function checkSession(data: unknown): Session | null {
   if (!isObject(data) || data.version !== 1) return null;
   // As for a project file: a record nested deeper than Plotrate ever writes is damaged.
@@ -81,6 +97,7 @@ export function checkSession(data: unknown): Session | null {
   ) {
     return null;
   }
+  if (edits.corrections !== undefined && !plausibleCorrections(edits.corrections)) return null;
   if (!isObject(data.prices) || !plausiblePrices(data.prices)) return null;
   if (data.unitSystem !== 'us' && data.unitSystem !== 'metric') return null;
   if (data.blocks !== 'none' && data.blocks !== 'fixed') return null;
