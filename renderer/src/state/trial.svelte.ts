@@ -101,7 +101,9 @@ export class Trial {
 
   /** The plot table with the user's decisions applied; null before any file is read. */
   table: PlotTable | null = $derived(
-    this.built?.ok ? applyDecisions(this.built.table, this.edits.decisions, this.edits.corrections) : null,
+    this.built?.ok
+      ? applyDecisions(this.built.table, this.edits.decisions, this.edits.corrections)
+      : null,
   );
 
   /**
