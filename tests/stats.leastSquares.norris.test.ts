@@ -52,4 +52,21 @@ describe('fitLeastSquares on NIST StRD Norris', () => {
     expect(bare.fP).toBeNaN();
     expect(fit.coefficients.every((c) => Number.isFinite(c.p))).toBe(true);
   });
+
+  it('gives the same numbers again after fits of other sizes (its working buffer is reused)', () => {
+    const before = Array.from(fit.studentizedResiduals);
+    // Invented small and large designs fitted in between.
+    fitLeastSquares({ columns: [[1, 2, 3, 4, 5]], y: [2, 4.1, 5.9, 8.2, 9.9], intercept: true });
+    const wide = Array.from({ length: 300 }, (_, i) => i % 17);
+    fitLeastSquares({
+      columns: [wide, wide.map((v) => v * v)],
+      y: wide.map((v) => 3 + v),
+      intercept: true,
+    });
+    const again = fitLeastSquares({ columns: [x], y, intercept: true, columnNames: ['x'] });
+    expect(Array.from(fit.studentizedResiduals)).toEqual(before);
+    expect(Array.from(again.studentizedResiduals)).toEqual(before);
+    expect(again.coefficients).toEqual(fit.coefficients);
+    expect(again.sse).toBe(fit.sse);
+  });
 });

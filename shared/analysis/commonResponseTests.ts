@@ -90,18 +90,32 @@ export interface CommonResponseOptions {
 
 /** The rate terms g(x) of a model, one array per column. */
 export function rateTerms(model: PooledLinearModel, x: ArrayLike<number>): Float64Array[] {
-  const lin = Float64Array.from(x as ArrayLike<number>);
-  if (model === 'quadratic') return [lin, Float64Array.from(lin, (v) => v * v)];
-  return [lin];
+  // Plain loops into one store: Float64Array.from with a function, and a store per column,
+  // cost more than the fits that read these columns (called once per site and model).
+  const n = x.length;
+  const quadratic = model === 'quadratic';
+  const store = new ArrayBuffer(8 * n * (quadratic ? 2 : 1));
+  const lin = new Float64Array(store, 0, n);
+  for (let i = 0; i < n; i++) lin[i] = x[i];
+  if (!quadratic) return [lin];
+  const square = new Float64Array(store, 8 * n, n);
+  for (let i = 0; i < n; i++) square[i] = lin[i] * lin[i];
+  return [lin, square];
 }
 
 function distinctCount(x: ArrayLike<number>): number {
-  return new Set(Array.from(x)).size;
+  const seen = new Set<number>();
+  for (let i = 0; i < x.length; i++) seen.add(x[i]);
+  return seen.size;
 }
 
 /** Indices of each level cell within a site: one cell, or one per block label. */
 function cellsOf(site: SitePlots, levels: LevelTerms): number[][] {
-  if (levels === 'site') return [Array.from(site.rateKgHa, (_, i) => i)];
+  if (levels === 'site') {
+    const all: number[] = [];
+    for (let i = 0; i < site.rateKgHa.length; i++) all.push(i);
+    return [all];
+  }
   const byBlock = new Map<string, number[]>();
   site.block.forEach((b, i) => {
     const key = b ?? '';

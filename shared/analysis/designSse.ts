@@ -16,6 +16,14 @@ export interface DesignSse {
   columns: number;
 }
 
+/** The working buffer of designSse (it calls nothing that calls it back). */
+let scratch = new Float64Array(0);
+
+function scratchFor(doubles: number): Float64Array {
+  if (scratch.length < doubles) scratch = new Float64Array(Math.max(doubles, 2 * scratch.length));
+  return scratch;
+}
+
 /**
  * SSE of y regressed on the given columns (no intercept is added: pass a column of ones).
  * @param columns - the regressors, each of length y.length
@@ -31,19 +39,22 @@ export function designSse(
 ): DesignSse {
   const n = y.length;
   const p = columns.length;
-  const qy = Float64Array.from(y);
+  // Qᵀy, the design and its QR live only in this call: one buffer kept from call to call.
+  const work = scratchFor(n * (2 * p + 1));
+  const qy = work.subarray(0, n);
+  for (let i = 0; i < n; i++) qy[i] = y[i];
   if (p === 0) {
     let s = 0;
     for (let i = 0; i < n; i++) s += qy[i] * qy[i];
     return { sse: s, rank: 0, columns: 0 };
   }
   if (n < p) return { sse: NaN, rank: Math.min(n, p) - 1, columns: p };
-  const x = new Float64Array(n * p);
+  const x = work.subarray(n, n + n * p);
   for (let j = 0; j < p; j++) {
     const c = columns[j];
     for (let i = 0; i < n; i++) x[j * n + i] = c[i];
   }
-  const qr = qrDecompose(x, n, p);
+  const qr = qrDecompose(x, n, p, work.subarray(n + n * p));
   applyQTranspose(qr, qy);
   let sse = 0;
   for (let i = p; i < n; i++) sse += qy[i] * qy[i];

@@ -41,5 +41,7 @@ export function plateauFitter(
   model: PlateauModel,
 ): (rateKgHa: Float64Array, yieldKgHa: Float64Array) => CurveFitOutcome {
   const { fit } = MODEL_CATALOG[model];
-  return (x, y) => curveFitOutcome(fit(prepareSite({ rateKgHa: x, yieldKgHa: y }, 'none'), {}));
+  // Only the status, SSE and parameter count are read: no curve to draw, so two points of it.
+  return (x, y) =>
+    curveFitOutcome(fit(prepareSite({ rateKgHa: x, yieldKgHa: y }, 'none'), { curvePoints: 2 }));
 }

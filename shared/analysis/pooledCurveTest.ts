@@ -57,6 +57,11 @@ export interface PooledCurveTest {
   sentence: string;
 }
 
+/** The numbers as a Float64Array: the array itself when it is one (fitters only read it). */
+function float64(values: ArrayLike<number>): Float64Array {
+  return values instanceof Float64Array ? values : Float64Array.from(values);
+}
+
 /**
  * Pooled curve against one curve per part.
  * @param parts - the sites or groups, plots in kg/ha
@@ -78,8 +83,7 @@ export function pooledCurveTest(
   let sse = 0;
   let parameters = 0;
   for (const part of parts) {
-    const out =
-      part.known ?? fit(Float64Array.from(part.rateKgHa), Float64Array.from(part.yieldKgHa));
+    const out = part.known ?? fit(float64(part.rateKgHa), float64(part.yieldKgHa));
     if ('problem' in out) {
       partsLeftOut.push({ site: part.label, reason: out.problem });
       continue;
@@ -106,8 +110,8 @@ export function pooledCurveTest(
   const y = new Float64Array(n);
   let offset = 0;
   for (const p of used) {
-    x.set(Float64Array.from(p.rateKgHa), offset);
-    y.set(Float64Array.from(p.yieldKgHa), offset);
+    x.set(float64(p.rateKgHa), offset);
+    y.set(float64(p.yieldKgHa), offset);
     offset += p.yieldKgHa.length;
   }
   const pooledOut = fit(x, y);

@@ -68,6 +68,10 @@ export function columnLetters(col: number): string {
   return s;
 }
 
+/** Column letters already spelled (every plot keeps the addresses of its cells). */
+const LETTERS_KEPT = 1024;
+const letters: string[] = [];
+
 /**
  * The A1 address of a cell.
  * @param row - 1-based row
@@ -77,5 +81,5 @@ export function columnLetters(col: number): string {
  * cellAddress(7, 3) // 'C7'
  */
 export function cellAddress(row: number, col: number): string {
-  return `${columnLetters(col)}${row}`;
+  return `${col <= LETTERS_KEPT ? (letters[col] ??= columnLetters(col)) : columnLetters(col)}${row}`;
 }

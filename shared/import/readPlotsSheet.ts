@@ -104,6 +104,7 @@ export function readPlotsSheet(
       { file, sheet: sheet.name },
     );
   }
+  const productCol = columnForRole(m.columns, 'product');
   const hidden = new Set(sheet.hiddenRows);
   const hiddenData: number[] = [];
   let lastSite: string | null = null;
@@ -117,10 +118,11 @@ export function readPlotsSheet(
     // A summary row ("Mean", "CV %", "LSD 0.05") starts with such a word and has no plot,
     // treatment or rate of its own.
     const first = row.find((c) => c && c.text.trim() !== '');
-    const hasPlotKeys = [cols.plot, cols.treatment, cols.rate].some((a) => {
+    const plotKey = (a: ColumnAssignment | undefined) => {
       const c = at(a);
       return c !== first && cellLabel(c) !== null;
-    });
+    };
+    const hasPlotKeys = plotKey(cols.plot) || plotKey(cols.treatment) || plotKey(cols.rate);
     if (
       !hasPlotKeys &&
       first &&
@@ -208,7 +210,6 @@ export function readPlotsSheet(
         site,
       });
     }
-    const productCol = columnForRole(m.columns, 'product');
     if (productCol) {
       productWords = cellText(at(productCol));
       rowProduct = productWords ? productFromText(productWords) : null;

@@ -176,15 +176,16 @@ export function finishFit(input: FinishInput): ModelFit {
       const w = Math.sqrt(site.counts[j]);
       for (let k = 0; k < qe; k++) jac[k * m + j] = w * row[free[k]];
     }
-    qr = qrDecompose(jac, m, qe);
+    qr = qrDecompose(jac, m, qe, scratch(QR_WORK, m * qe));
   } else {
-    const jac = new Float64Array(n * pe);
+    const jac = scratch(JACOBIAN, n * pe).subarray(0, n * pe);
+    jac.fill(0);
     for (let i = 0; i < n; i++) {
       spec.gradient(x[i], params, row);
       for (let k = 0; k < qe; k++) jac[k * n + i] = row[free[k]];
     }
     if (nbCoef > 0) blockColumns(site).forEach((c, k) => jac.set(c, (qe + k) * n));
-    qr = qrDecompose(jac, n, pe);
+    qr = qrDecompose(jac, n, pe, scratch(QR_WORK, n * pe));
   }
   const identified = qr.rank === qr.cols;
   const covariance = expandCovariance(curveCovariance(qr, qe, identified ? s2 : NaN), free, q);
@@ -273,6 +274,9 @@ export function finishFit(input: FinishInput): ModelFit {
 const ROW = { buffer: new Float64Array(8) };
 const R_INVERSE = { buffer: new Float64Array(64) };
 const AT_RATE = { buffer: new Float64Array(16) };
+// The Jacobian and its QR are read only here (curveCovariance), never kept with the fit.
+const JACOBIAN = { buffer: new Float64Array(0) };
+const QR_WORK = { buffer: new Float64Array(0) };
 function scratch(holder: { buffer: Float64Array }, length: number): Float64Array {
   if (holder.buffer.length < length) holder.buffer = new Float64Array(2 * length);
   return holder.buffer;

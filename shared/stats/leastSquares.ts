@@ -117,6 +117,14 @@ export interface LeastSquaresFit {
  * @example
  * fitLeastSquares({ columns: [[1, 2, 3]], y: [2, 4.1, 5.9], intercept: true }).coefficients[1].estimate // ≈ 1.95
  */
+/** The working buffer of fitLeastSquares (no fit calls another, so one is enough). */
+let scratch = new Float64Array(0);
+
+function scratchFor(doubles: number): Float64Array {
+  if (scratch.length < doubles) scratch = new Float64Array(Math.max(doubles, 2 * scratch.length));
+  return scratch;
+}
+
 export function fitLeastSquares(input: LeastSquaresInput): LeastSquaresFit {
   const { y, intercept } = input;
   const n = y.length;
@@ -143,7 +151,10 @@ export function fitLeastSquares(input: LeastSquaresInput): LeastSquaresFit {
     );
   }
 
-  const x = new Float64Array(n * p);
+  // The design, its QR, Qᵀy and the leverages' working column are used only inside this call:
+  // they live in one buffer kept from fit to fit.
+  const work = scratchFor(2 * n * p + 2 * n);
+  const x = work.subarray(0, n * p);
   let offset = 0;
   if (intercept) {
     x.fill(1, 0, n);
@@ -153,7 +164,7 @@ export function fitLeastSquares(input: LeastSquaresInput): LeastSquaresFit {
     for (let i = 0; i < n; i++) x[(j + offset) * n + i] = c[i];
   });
 
-  const qr = qrDecompose(x, n, p);
+  const qr = qrDecompose(x, n, p, work.subarray(n * p, 2 * n * p));
   if (qr.rank < p) {
     throw new StatsInputError(
       'rank-deficient',
@@ -163,16 +174,20 @@ export function fitLeastSquares(input: LeastSquaresInput): LeastSquaresFit {
     );
   }
 
-  const qty = Float64Array.from(y);
+  const qty = work.subarray(2 * n * p, 2 * n * p + n);
+  for (let i = 0; i < n; i++) qty[i] = y[i];
   applyQTranspose(qr, qty);
   const b = solveUpperTriangular(qr, qty);
 
-  const fitted = new Float64Array(n);
+  // The six per-point results share one store (one allocation instead of six).
+  const store = new ArrayBuffer(6 * 8 * n);
+  const perPoint = (k: number) => new Float64Array(store, k * 8 * n, n);
+  const fitted = perPoint(0);
   for (let j = 0; j < p; j++) {
     const bj = b[j];
     for (let i = 0; i < n; i++) fitted[i] += x[j * n + i] * bj;
   }
-  const residuals = new Float64Array(n);
+  const residuals = perPoint(1);
   // SSE from the trailing part of Qᵀy is exact in exact arithmetic and less
   // sensitive to cancellation than Σ(y − ŷ)² when the fit is nearly perfect.
   let sse = 0;
@@ -225,10 +240,10 @@ export function fitLeastSquares(input: LeastSquaresInput): LeastSquaresFit {
   const aicc = n - k - 1 > 0 ? aic + (2 * k * (k + 1)) / (n - k - 1) : Infinity;
   const bic = -2 * logLikelihood + k * Math.log(n);
 
-  const leverage = hatDiagonal(qr);
-  const standardizedResiduals = new Float64Array(n);
-  const studentizedResiduals = new Float64Array(n);
-  const cooksDistance = new Float64Array(n);
+  const leverage = hatDiagonal(qr, perPoint(2), work.subarray(2 * n * p + n));
+  const standardizedResiduals = perPoint(3);
+  const studentizedResiduals = perPoint(4);
+  const cooksDistance = perPoint(5);
   for (let i = 0; i < n; i++) {
     const h = leverage[i];
     const r = residuals[i] / (sigma * Math.sqrt(1 - h));

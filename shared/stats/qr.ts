@@ -27,12 +27,20 @@ export const RANK_TOLERANCE = 1e-10;
  * @param matrix - column-major values, length rows × cols (not modified)
  * @param rows - number of rows (observations)
  * @param cols - number of columns (parameters), at most rows
+ * @param into - where to factor: a buffer of at least rows × cols values the caller lends for as
+ *   long as it uses the decomposition (a fit's own scratch); default a new array
  * @returns the packed decomposition and its numerical rank
  * @example
  * qrDecompose(new Float64Array([1, 1, 1, 1, 2, 3]), 3, 2).rank // 2
  */
-export function qrDecompose(matrix: Float64Array, rows: number, cols: number): QrDecomposition {
-  const a = Float64Array.from(matrix);
+export function qrDecompose(
+  matrix: Float64Array,
+  rows: number,
+  cols: number,
+  into?: Float64Array,
+): QrDecomposition {
+  const a = into ? into.subarray(0, rows * cols) : Float64Array.from(matrix);
+  if (into) a.set(matrix.subarray(0, rows * cols));
   const rDiagonal = new Float64Array(cols);
   const beta = new Float64Array(cols);
   let largestNorm = 0;
@@ -173,14 +181,20 @@ export function unscaledCovariance(qr: QrDecomposition): number[][] {
 /**
  * Diagonal of the hat matrix H = Q₁Q₁ᵀ (the leverages), from the rows of the thin Q.
  * @param qr - a decomposition from qrDecompose
+ * @param out - where to write the leverages (rows values, all 0); default a new array
+ * @param work - a working buffer of at least rows values, overwritten; default a new array
  * @returns leverage h_i for every row, each in [0, 1], summing to the rank
  * @example
  * hatDiagonal(qrDecompose(new Float64Array([1, 1, 1, 1, 2, 3]), 3, 2)) // [5/6, 1/3, 5/6]
  */
-export function hatDiagonal(qr: QrDecomposition): Float64Array {
+export function hatDiagonal(
+  qr: QrDecomposition,
+  out?: Float64Array,
+  work?: Float64Array,
+): Float64Array {
   const { rows, cols } = qr;
-  const h = new Float64Array(rows);
-  const e = new Float64Array(rows);
+  const h = out ?? new Float64Array(rows);
+  const e = work ? work.subarray(0, rows) : new Float64Array(rows);
   for (let k = 0; k < cols; k++) {
     e.fill(0);
     e[k] = 1;

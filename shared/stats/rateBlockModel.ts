@@ -156,11 +156,14 @@ export function fitRateBlockLeastSquares(
   const { rateKgHa, block } = input;
   const n = rateKgHa.length;
   const rates = [...new Set(Array.from(rateKgHa))].sort((a, b) => a - b);
+  const blockLabels = hasBlocks(block) ? [...new Set(block)].slice(1) : [];
   const columns: Float64Array[] = [];
   const names: string[] = [];
-  // Indicator columns by plain loops: Float64Array.from with a function costs far more.
+  // Indicator columns by plain loops (Float64Array.from with a function costs far more), all
+  // in one store: each typed array with a store of its own is an allocation the GC tracks.
+  const store = new ArrayBuffer(8 * n * (rates.length - 1 + blockLabels.length));
   const indicator = (is: (i: number) => boolean): Float64Array => {
-    const column = new Float64Array(n);
+    const column = new Float64Array(store, 8 * n * columns.length, n);
     for (let i = 0; i < n; i++) if (is(i)) column[i] = 1;
     return column;
   };
@@ -168,11 +171,9 @@ export function fitRateBlockLeastSquares(
     columns.push(indicator((i) => rateKgHa[i] === level));
     names.push(`rate ${level}`);
   }
-  if (hasBlocks(block)) {
-    for (const b of [...new Set(block)].slice(1)) {
-      columns.push(indicator((i) => block[i] === b));
-      names.push(`block ${b}`);
-    }
+  for (const b of blockLabels) {
+    columns.push(indicator((i) => block[i] === b));
+    names.push(`block ${b}`);
   }
   return fitLeastSquares({
     columns,
