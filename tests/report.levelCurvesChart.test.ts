@@ -7,7 +7,9 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { demoTimingCsv } from '../shared/demo/demoTiming';
 import { importFiles } from '../shared/import/importFiles';
 import type { CurveLayer, PointLayer } from '../shared/report/chartSpec';
+import { chartPalette } from '../shared/report/chartSpec';
 import { levelCurvesChart, UnknownLevelError } from '../shared/report/levelCurvesChart';
+import { renderChartSvg } from '../shared/report/svgChart';
 import type { SiteLevelsReport, TrialReport } from '../shared/report/trialReport';
 import { plotlyFromSpec } from '../renderer/src/lib/plotlyFromSpec';
 import { reportOf } from './report.pipeline';
@@ -157,5 +159,16 @@ describe('levelCurvesChart', () => {
     expect(color('Split (V6) (Quadratic-plateau)')).toBe(color('Split (V6) plots'));
     expect(color('At planting plots')).not.toBe(color('Split (V6) plots'));
     expect(color('Shared check plots (0 N)')).not.toBe(color('At planting plots'));
+  });
+
+  it("is printed (SVG) with each timing's curve stroked in its group's color", () => {
+    const svg = renderChartSvg(levelCurvesChart(report, site, null));
+    // Curves are the dashed polylines; each level's stroke is its group's palette color.
+    const strokes = [
+      ...svg.matchAll(/<polyline[^>]*stroke="(#[0-9a-f]{6})"[^>]*stroke-dasharray/g),
+    ];
+    expect(new Set(strokes.map((m) => m[1]))).toEqual(
+      new Set([chartPalette.groups[0], chartPalette.groups[1]]),
+    );
   });
 });
