@@ -70,6 +70,11 @@ export interface CurveLayer {
    * share in percent (how often a rate falls short), drawn in its own color.
    */
   role: 'chosen' | 'alternative' | 'return' | 'risk';
+  /**
+   * For an alternative curve that belongs to a group of points (a treatment level's curve over
+   * its plots): drawn in that group's color, so the curve is read against its own points.
+   */
+  groupIndex?: number;
   /** x values in axis units, increasing. */
   x: number[];
   /** y values in axis units; same length as `x`. */

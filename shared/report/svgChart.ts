@@ -148,7 +148,11 @@ function curveStyle(layer: CurveLayer, index: number): string {
   const dash = layer.model
     ? MODEL_CURVES[layer.model].dash
     : OTHER_DASHES[index % OTHER_DASHES.length];
-  return `stroke="${chartPalette.alternative}" stroke-width="1.4" stroke-dasharray="${dash}"`;
+  const color =
+    layer.groupIndex === undefined
+      ? chartPalette.alternative
+      : chartPalette.groups[layer.groupIndex % chartPalette.groups.length];
+  return `stroke="${color}" stroke-width="1.4" stroke-dasharray="${dash}"`;
 }
 
 const OTHER_DASHES = ['6 3', '2 3', '8 3 2 3', '4 4', '1 2'];

@@ -192,9 +192,12 @@ export function plotlyFromSpec(spec: ChartSpec, options: FigureOptions = {}): Pl
                   : layer.role === 'risk'
                     ? { color: chartPalette.risk, width: 2.2 }
                     : {
-                        color: options.colorCurves
-                          ? chartPalette.groups[curveIndex++ % chartPalette.groups.length]
-                          : chartPalette.alternative,
+                        color:
+                          layer.groupIndex !== undefined
+                            ? chartPalette.groups[layer.groupIndex % chartPalette.groups.length]
+                            : options.colorCurves
+                              ? chartPalette.groups[curveIndex++ % chartPalette.groups.length]
+                              : chartPalette.alternative,
                         width: 1.5,
                         dash: layer.model ? modelDash(layer.model) : 'dot',
                       },

@@ -1,0 +1,37 @@
+// The window gets the analysis from the worker by structured clone (postMessage); a rate × timing
+// trial's levels (TrialAnalysis.levels: typed arrays, fits, draws, level tests) must arrive
+// whole, so the window prices them as the command line does. The worker's analyze job runs here
+// under Node, its output goes through the platform's structuredClone (the HTML algorithm
+// postMessage uses), and the priced levels of the copy are compared with the original's.
+import { describe, expect, it } from 'vitest';
+import { analysisSettings } from '../shared/analysis/analysisSettings';
+import { priceTrial } from '../shared/analysis/priceTrial';
+import { demoTimingCsv } from '../shared/demo/demoTiming';
+import { illustrativePrices } from '../shared/economics/illustrativePrices';
+import { importFiles } from '../shared/import/importFiles';
+import { jobHandlers } from '../renderer/src/worker/jobs';
+import type { AnalysisOutput } from '../renderer/src/analysis/siteAnalysis';
+
+describe('the worker’s analysis of a rate × timing trial', () => {
+  it('keeps every level through structured clone, priced alike in the window', async () => {
+    const { table } = await importFiles(
+      [{ name: 'wrenhollow-timing-2025.csv', bytes: new TextEncoder().encode(demoTimingCsv()) }],
+      { crop: 'corn', overrides: [] },
+    );
+    const prices = illustrativePrices('corn').canonical;
+    const settings = analysisSettings({ prices, resamples: 40, seed: 5, blocks: 'auto' });
+    const ctx = { progress: async () => {}, cancelled: false };
+    const output = (await jobHandlers.analyze({ table, settings } as never, ctx)) as AnalysisOutput;
+    expect(output.levels.map((l) => [l.site, l.factor, l.levels.map((x) => x.level)])).toEqual([
+      ['Larkspur Bottom', 'Timing', ['At planting', 'Split (V6)']],
+      ['Fennimore Rise', 'Timing', ['At planting', 'Split (V6)']],
+    ]);
+    const copy = structuredClone(output);
+    expect(copy.levels).toEqual(output.levels);
+    expect(copy.levels[0].levels[0].plots.rateKgHa).toBeInstanceOf(Float64Array);
+    const here = priceTrial(output, prices, {}).levels;
+    const there = priceTrial(copy, prices, {}).levels;
+    expect(there).toEqual(here);
+    expect(there[0].comparison.best).not.toBeNull();
+  });
+});
