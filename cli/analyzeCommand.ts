@@ -27,7 +27,7 @@ import { describeRef } from '../shared/table/qualityFinding';
 import { analyzablePlots } from '../shared/table/plotTable';
 import { siteYearsOf } from '../shared/table/siteYear';
 import { assembleReport } from '../shared/report/assembleReport';
-import { reportRegionalChart } from '../shared/report/growerPageChart';
+import { growerPageChart, reportRegionalChart } from '../shared/report/growerPageChart';
 import { resultsJsonText } from '../shared/report/resultsJson';
 import type { DisplaySettings } from '../shared/report/reportSettings';
 import { siteResponseChart } from '../shared/report/siteResponseChart';
@@ -210,9 +210,17 @@ async function drawCharts(
   report: TrialReport,
   siteChartLimit: number,
   log: Console2,
-): Promise<{ sites: Record<string, SheetImage>; region: SheetImage | null }> {
+): Promise<{
+  sites: Record<string, SheetImage>;
+  /** A grower page's own chart where it is not the site's (a rate × factor site's levels). */
+  pages: Record<string, SheetImage>;
+  region: SheetImage | null;
+}> {
   const drawn = report.sites.length <= siteChartLimit ? report.sites : [];
   const specs = drawn.map((s) => siteResponseChart(report, s));
+  // The grower page of a site with levels carries the levels' chart (growerPageChart).
+  const withLevels = drawn.filter((s) => report.levels.some((l) => l.site === s.site));
+  for (const s of withLevels) specs.push(growerPageChart(report, s.site)!);
   const rs = reportRegionalChart(report);
   if (rs) specs.push(rs);
   // Print sharpness (2×) for a report someone reads page by page; 1× past 100 sites keeps a big run small.
@@ -226,12 +234,18 @@ async function drawCharts(
       next += every;
     }
   });
-  const sites: Record<string, SheetImage> = {};
-  drawn.forEach((s, i) => {
-    sites[s.site] = { png: pngs[i], widthPx: specs[i].widthPx, heightPx: specs[i].heightPx };
+  const image = (i: number): SheetImage => ({
+    png: pngs[i],
+    widthPx: specs[i].widthPx,
+    heightPx: specs[i].heightPx,
   });
+  const sites: Record<string, SheetImage> = {};
+  drawn.forEach((s, i) => (sites[s.site] = image(i)));
+  const pages: Record<string, SheetImage> = {};
+  withLevels.forEach((s, i) => (pages[s.site] = image(drawn.length + i)));
   return {
     sites,
+    pages,
     region: rs ? { png: pngs[pngs.length - 1], widthPx: rs.widthPx, heightPx: rs.heightPx } : null,
   };
 }
@@ -316,7 +330,7 @@ export async function analyzeCommand(
   const charts =
     args.out || args.pdf
       ? await drawCharts(report, args.siteChartLimit, log)
-      : { sites: {}, region: null };
+      : { sites: {}, pages: {}, region: null };
   // Every output goes to a temporary file first and all are renamed together at the end, so a
   // run leaves all of them or none (a failure, or SIGINT/SIGTERM, removes the temporaries). The
   // workbook and the PDF are streamed into theirs, a sheet or a page at a time.
@@ -351,7 +365,7 @@ export async function analyzeCommand(
       target: path.resolve(args.pdf),
       stream: async (out) => {
         const pageCharts: Record<string, { png: Uint8Array; aspect: number }> = {};
-        for (const [site, c] of Object.entries(charts.sites))
+        for (const [site, c] of Object.entries({ ...charts.sites, ...charts.pages }))
           pageCharts[site] = { png: c.png, aspect: c.heightPx / c.widthPx };
         if (charts.region && report.acrossSites) {
           pageCharts[`Region (${report.acrossSites.sites.length} sites)`] = {

@@ -6,6 +6,7 @@
 // against R 4.2.2).
 import { readFileSync } from 'node:fs';
 import { beforeAll, describe, expect, it } from 'vitest';
+import { growerPageChart } from '../shared/report/growerPageChart';
 import * as XLSX from 'xlsx';
 import { recommendationCautions } from '../shared/economics/recommendationCautions';
 import { importFiles } from '../shared/import/importFiles';
@@ -108,6 +109,15 @@ describe('the report of a rate × timing trial', () => {
     // The facts table carries the level rates too, so every layout of the page prints them.
     expect(page.facts.map((x) => x.label)).toContain('Timing: Split');
     expect(page.cautions).toEqual(recommendationCautions);
+  });
+
+  it("the grower page's chart is the levels' curves with the shared check (growerPageChart)", () => {
+    const site = report.levels[0].site;
+    const chart = growerPageChart(report, site)!;
+    const names = chart.panels[0].layers.map((l) => l.name);
+    expect(names.some((n) => /shared check/i.test(n))).toBe(true);
+    for (const l of report.levels[0].levels)
+      expect(names.some((n) => n.startsWith(l.level))).toBe(true);
   });
 
   it('a page of equal timings says they do not differ detectably', () => {

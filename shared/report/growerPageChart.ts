@@ -1,12 +1,13 @@
 /**
- * The chart a grower page carries: the site's response chart on a site's page, the regional
- * chart on the region's. One choice for the workspace's preview and the command line's PDF, so
+ * The chart a grower page carries: the site's response chart on a site's page (its levels' curves
+ * on a rate × factor site's), the regional chart on the region's. One choice for the workspace's preview and the command line's PDF, so
  * the printed page and the screen show the same picture.
  */
 import type { ChartSpec } from './chartSpec';
 import { regionalReturnChart } from './regionalReturnChart';
 import { formatMoneyPerArea } from '../units/formatMoney';
 import { siteResponseChart } from './siteResponseChart';
+import { levelCurvesChart } from './levelCurvesChart';
 import type { TrialReport } from './trialReport';
 
 /**
@@ -18,6 +19,9 @@ import type { TrialReport } from './trialReport';
  */
 export function growerPageChart(report: TrialReport, which: string): ChartSpec | null {
   if (which === 'region') return reportRegionalChart(report);
+  // A rate × factor site's page speaks of its levels: their curves with the shared check.
+  const levels = report.levels.find((l) => l.site === which);
+  if (levels) return levelCurvesChart(report, levels, null);
   const site = report.sites.find((s) => s.site === which);
   return site ? siteResponseChart(report, site) : null;
 }
