@@ -1,0 +1,70 @@
+// Every step of the workspace at the two window sizes a laptop and a desktop give (1024 × 768 and
+// 1440 × 900), on the invented demo trial: each step drawn without an error, nothing wider than
+// the window (no sideways scrolling), no request leaving the local server; a screenshot of each
+// step at each size goes to test-output/e2e.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { openSession, shot, type Session } from './harness';
+
+let session: Session;
+beforeAll(async () => {
+  session = await openSession();
+  await session.page.goto(session.url);
+  await session.page.getByTestId('site-optimum').waitFor({ timeout: 60_000 });
+});
+afterAll(async () => {
+  await session?.close();
+});
+
+const STEPS = [
+  ['Trial files', 'files'],
+  ['Columns', 'columns'],
+  ['Quality', 'quality'],
+  ['One site', 'site'],
+  ['All sites', 'sites'],
+  ['Prices', 'prices'],
+  ['Report', 'report'],
+] as const;
+
+describe('each step at 1024 × 768 and 1440 × 900', () => {
+  for (const [width, height] of [
+    [1024, 768],
+    [1440, 900],
+  ] as const) {
+    it(`draws every step within ${width} px`, async () => {
+      const { page } = session;
+      await page.setViewportSize({ width, height });
+      for (const [label, name] of STEPS) {
+        await page
+          .getByRole('navigation', { name: 'Steps' })
+          .getByRole('button', { name: new RegExp(label) })
+          .click();
+        await page.waitForTimeout(400);
+        await shot(page, `steps-${width}-${STEPS.findIndex((s) => s[1] === name) + 1}-${name}`);
+        const overflow = await page.evaluate(
+          () => document.documentElement.scrollWidth - document.documentElement.clientWidth,
+        );
+        if (overflow > 1) {
+          // Name the widest culprits, so a failure says what to fix.
+          const wide = await page.evaluate(() =>
+            [...document.querySelectorAll('body *')]
+              .filter(
+                (el) => el.getBoundingClientRect().right > document.documentElement.clientWidth + 1,
+              )
+              .slice(-5)
+              .map(
+                (el) =>
+                  `${el.tagName.toLowerCase()}.${el.className} ${Math.round(el.getBoundingClientRect().right)}`,
+              ),
+          );
+          console.error(`${name} at ${width}: ${wide.join(' | ')}`);
+        }
+        expect(
+          overflow,
+          `${name} at ${width} px scrolls sideways by ${overflow} px`,
+        ).toBeLessThanOrEqual(1);
+      }
+      expect(session.pageErrors.map((e) => e.slice(0, 300))).toEqual([]);
+      expect(session.offsiteRequests).toEqual([]);
+    });
+  }
+});
