@@ -8,6 +8,8 @@ const out = path.join(import.meta.dirname, '..', 'docs', 'screenshots');
 const session = await openSession();
 try {
   const { page } = session;
+  // The README's pictures at a desktop window's size (the e2e tests take every step at 1024 and 1440).
+  await page.setViewportSize({ width: 1440, height: 900 });
   await page.goto(session.url);
   await page.getByTestId('site-optimum').waitFor({ timeout: 60_000 });
   await page.getByText(/90 % interval \d+ kg\/ha to \d+ kg\/ha/).waitFor({ timeout: 60_000 });
