@@ -19,7 +19,8 @@ export interface Share {
   standardError: number;
 }
 
-function share(count: number, of: number): Share {
+/** A count out of a total as a Share, with its binomial standard error. */
+export function share(count: number, of: number): Share {
   const p = of > 0 ? count / of : NaN;
   return { count, of, share: p, standardError: of > 0 ? Math.sqrt((p * (1 - p)) / of) : NaN };
 }

@@ -18,14 +18,7 @@ import {
   type LevelSiteSpec,
 } from '../../shared/demo/simulatedLevels';
 import type { Prices } from '../../shared/economics/priceRatio';
-
-export interface RateShare {
-  count: number;
-  of: number;
-  share: number;
-  /** Binomial standard error of the share. */
-  se: number;
-}
+import { share, type Share } from './decisionFigures';
 
 export interface LevelScenarioFigures {
   scenario: string;
@@ -33,7 +26,7 @@ export interface LevelScenarioFigures {
   /** True optimum of each level at the run's prices, kg/ha. */
   trueOptimaKgHa: number[];
   /** Share of trials whose quadratic level test had p < 0.05. */
-  declaredDifferent: RateShare;
+  declaredDifferent: Share;
 }
 
 export interface LevelFigures {
@@ -45,23 +38,18 @@ export interface LevelFigures {
     trials: number;
     level: number;
     /** Share of trials whose interval of (later − earlier) optimum lies wholly below 0. */
-    excludesZero: RateShare;
+    excludesZero: Share;
     /** Share of trials whose interval holds the true difference (−20 kg/ha). */
-    holdsTruth: RateShare;
+    holdsTruth: Share;
     trueDifferenceKgHa: number;
     /**
      * On the same number of trials of equal timings (one quadratic-plateau): share whose
      * interval of the difference in return at the optimum excludes 0 (ought to be about
      * 1 − level), and whose best timing returned the most in at least 95 % of the resamples.
      */
-    equalReturnExcludesZero: RateShare;
-    equalBestShareAbove95: RateShare;
+    equalReturnExcludesZero: Share;
+    equalBestShareAbove95: Share;
   };
-}
-
-function rate(count: number, of: number): RateShare {
-  const share = of > 0 ? count / of : NaN;
-  return { count, of, share, se: of > 0 ? Math.sqrt((share * (1 - share)) / of) : NaN };
 }
 
 const CHECK = 8000;
@@ -147,7 +135,7 @@ export function levelTrials(
       scenario: sc.name,
       description: sc.description,
       trueOptimaKgHa: sc.site.levels.map((l) => levelTrueOptimum(CHECK, l, pr)),
-      declaredDifferent: rate(rejected, trials),
+      declaredDifferent: share(rejected, trials),
     };
   });
   const goal = list[2];
@@ -188,11 +176,11 @@ export function levelTrials(
     interval: {
       trials: bootTrials,
       level,
-      excludesZero: rate(excludes, bootTrials),
-      holdsTruth: rate(holds, bootTrials),
+      excludesZero: share(excludes, bootTrials),
+      holdsTruth: share(holds, bootTrials),
       trueDifferenceKgHa: truth,
-      equalReturnExcludesZero: rate(eqExcludes, bootTrials),
-      equalBestShareAbove95: rate(eqSure, bootTrials),
+      equalReturnExcludesZero: share(eqExcludes, bootTrials),
+      equalBestShareAbove95: share(eqSure, bootTrials),
     },
   };
 }

@@ -166,7 +166,7 @@ for (const sc of levels.scenarios) {
   const d = sc.declaredDifferent;
   console.log(
     `${sc.scenario} (${sc.description}; true optima ${sc.trueOptimaKgHa.map((x) => x.toFixed(1)).join(' and ')} kg/ha): ` +
-      `declared different at 5 % in ${(100 * d.share).toFixed(1)} % (${d.count}/${d.of}, SE ${(100 * d.se).toFixed(1)})`,
+      `declared different at 5 % in ${(100 * d.share).toFixed(1)} % (${d.count}/${d.of}, SE ${(100 * d.standardError).toFixed(1)})`,
   );
 }
 const li = levels.interval;

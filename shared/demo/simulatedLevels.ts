@@ -14,7 +14,8 @@
  * root of x0 − k·x0² = E.
  */
 import type { Plot, PlotTable } from '../table/plotTable';
-import { mulberry32, type Random } from './mulberry32';
+import { mulberry32 } from './mulberry32';
+import { shuffled } from './simulatedSite';
 
 /** One level's true response: a quadratic-plateau from the shared check. */
 export interface LevelTruth {
@@ -104,15 +105,6 @@ export function joinForOptimum(
     );
   }
   return (1 - Math.sqrt(disc)) / (2 * k);
-}
-
-function shuffled(rng: Random, n: number): number[] {
-  const a = Array.from({ length: n }, (_, i) => i);
-  for (let i = n - 1; i > 0; i--) {
-    const j = rng.int(0, i);
-    [a[i], a[j]] = [a[j], a[i]];
-  }
-  return a;
 }
 
 /**

@@ -212,7 +212,8 @@ export interface SimulatedTrial {
   sites: SimulatedSite[];
 }
 
-function shuffled(rng: Random, n: number): number[] {
+/** The numbers 0 … n − 1 in a random order (Fisher–Yates, Knuth TAOCP vol. 2, §3.4.2). */
+export function shuffled(rng: Random, n: number): number[] {
   const a = Array.from({ length: n }, (_, i) => i);
   for (let i = n - 1; i > 0; i--) {
     const j = rng.int(0, i);
