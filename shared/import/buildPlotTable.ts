@@ -30,11 +30,7 @@ import { yearsFromFileNames } from './fileYears';
 import { readTreatmentKey, type TreatmentKeyEntry } from './readTreatmentKey';
 import { validateMapping } from './validateMapping';
 import { roleFromHeader } from './headerWords';
-
-/** Where a plots sheet is, for a message: 'Sheet "Plots" of "t.xlsx"', or '"t.csv"' for a CSV. */
-function sheetOfFile(file: string, sheet: string): string {
-  return sheet ? `Sheet "${sheet}" of "${file}"` : `"${file}"`;
-}
+import { sheetOfFile } from './sheetOfFile';
 
 /**
  * A column set aside that reads as a yield or a plot weight, beside the one used: said, so a
@@ -116,7 +112,7 @@ export function buildPlotTable(
         findings.push({
           code: 'other-crop-sheet-skipped',
           severity: 'info',
-          message: `Sheet "${m.sheet}" of "${raw.file.name}" is about ${m.cropHint}, not ${crop}, and was left out of this table; import it with the crop set to ${m.cropHint}, or choose the sheet by name.`,
+          message: `${sheetOfFile(raw.file.name, m.sheet)} is about ${m.cropHint}, not ${crop}, and was left out of this table; import it with the crop set to ${m.cropHint}, or choose the sheet by name.`,
           refs: [],
         });
         continue;

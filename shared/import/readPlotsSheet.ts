@@ -6,6 +6,7 @@
  * the original cell kept beside every value. What the sheet needed to be read (numbers stored
  * as text, missing moistures, hidden rows) goes to the findings.
  */
+import { sheetOfFile } from './sheetOfFile';
 import type { ColumnRole, CropId, OriginalCell, Plot } from '../table/plotTable';
 import { adjustMoisture } from '../units/adjustMoisture';
 import type { RateUnit } from '../units/convertRate';
@@ -79,7 +80,7 @@ export function readPlotsSheet(
   if (!cols.yield && !cols.plotWeight) {
     throw new ImportError(
       'bad-mapping',
-      `Sheet "${sheet.name}" of "${file}" is mapped as plots but no column is the yield or the plot weight; choose one.`,
+      `${sheetOfFile(file, sheet.name)} is mapped as plots but no column is the yield or the plot weight; choose one.`,
       { file, sheet: sheet.name },
     );
   }
@@ -93,14 +94,14 @@ export function readPlotsSheet(
   ) {
     throw new ImportError(
       'bad-mapping',
-      `Sheet "${sheet.name}" of "${file}" gives plot weights (column ${cols.plotWeight.letter}) but no plot area or length and width; map those columns or enter the plot area in the import settings.`,
+      `${sheetOfFile(file, sheet.name)} gives plot weights (column ${cols.plotWeight.letter}) but no plot area or length and width; map those columns or enter the plot area in the import settings.`,
       { file, sheet: sheet.name },
     );
   }
   if (!cols.rate && key.size === 0) {
     throw new ImportError(
       'bad-mapping',
-      `Sheet "${sheet.name}" of "${file}" has no rate column and the file has no treatment key; map the rate column or the treatment-key sheet.`,
+      `${sheetOfFile(file, sheet.name)} has no rate column and the file has no treatment key; map the rate column or the treatment-key sheet.`,
       { file, sheet: sheet.name },
     );
   }
