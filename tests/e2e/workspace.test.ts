@@ -559,6 +559,29 @@ describe('the workspace in chromium', () => {
     const site = results.sites.find((x) => x.site === 'Quillmere North')!;
     expect(Math.abs(site.recommendation.rate! - onScreen)).toBeLessThanOrEqual(0.5);
 
+    // The regional profitable range reads the same on screen, on the grower page and in the JSON
+    // (rates rounded by one rule: shared/units/rateRounding).
+    const numbers = (text: string | null) =>
+      [...(text ?? '').matchAll(/\d+/g)].map((m) => Number(m[0]));
+    await page.getByTestId('page-for').selectOption('region');
+    const pageRange = numbers(
+      await page
+        .getByTestId('grower-page')
+        .locator('dt:text-is("Profitable range") + dd')
+        .textContent(),
+    );
+    await page.getByRole('button', { name: /All sites/ }).click();
+    const screenRange = numbers(await page.getByTestId('profitable-range').textContent()).slice(
+      0,
+      2,
+    );
+    const json = (
+      results as unknown as { acrossSites: { profitableRange: [number, number] } }
+    ).acrossSites.profitableRange.map(Math.round);
+    expect(pageRange).toEqual(screenRange);
+    expect(json).toEqual(screenRange);
+    await page.getByRole('button', { name: /Report/ }).click();
+
     // The page's four fields, typed here, are printed under its title with its chart.
     await page.getByTestId('page-field-grower').fill('Ada Brinkwater');
     await page.getByTestId('page-field-field').fill('Long Acre');
