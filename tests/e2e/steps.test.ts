@@ -25,6 +25,34 @@ const STEPS = [
   ['Report', 'report'],
 ] as const;
 
+describe('groups of sites', () => {
+  it('the all-sites step gives the regional rate per previous crop, the test between them and the cautions', async () => {
+    const { page } = session;
+    await page
+      .getByRole('navigation', { name: 'Steps' })
+      .getByRole('button', { name: /All sites/ })
+      .click();
+    const panel = page.getByTestId('groups-panel');
+    await panel.waitFor({ timeout: 60_000 });
+    // The invented demo's sites follow corn (4) or soybean (2).
+    await expect(page.getByTestId('group-picker').inputValue()).resolves.toBe('Previous crop');
+    const rows = panel.getByTestId('group-row');
+    const cells = [];
+    for (let i = 0; i < (await rows.count()); i++)
+      cells.push(await rows.nth(i).locator('td').allTextContents());
+    expect(cells.map((c) => c.slice(0, 2).join(' '))).toEqual(['corn 4', 'soybean 2']);
+    for (const c of cells) {
+      expect(c[2]).toMatch(/^\d+ kg\/ha$/);
+      expect(c[3]).toMatch(/^\d+ kg\/ha to \d+ kg\/ha$/);
+    }
+    await expect(page.getByTestId('groups-differ').textContent()).resolves.toMatch(/p [=<]/);
+    await expect(
+      panel.getByText('Before you use this regional rate of a group').count(),
+    ).resolves.toBe(1);
+    await shot(page, 'groups-panel');
+  });
+});
+
 describe('each step at 1024 × 768 and 1440 × 900', () => {
   for (const [width, height] of [
     [1024, 768],
