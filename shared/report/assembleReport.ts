@@ -33,6 +33,7 @@ import { isBlockLabel } from '../stats/hasBlocks';
 import { toNumberArray } from '../stats/toNumberArray';
 import type {
   AcrossSitesReport,
+  GroupReport,
   LevelReport,
   MixedModelReport,
   InterceptSummary,
@@ -500,6 +501,7 @@ function acrossSitesOf(
     tests,
     notes,
     mixed: mixedModelReport(analysis.mixed, mixedOptimum),
+    groups: groupsReport(analysis),
   };
 }
 
@@ -531,4 +533,40 @@ function filesWithPlots(table: PlotTable): Set<string> {
     for (const cell of Object.values(plot.original) as (OriginalCell | undefined)[])
       if (cell) files.add(cell.ref.file);
   return files;
+}
+
+/** Each grouping column with two or more values, as the report keeps it (kg/ha). */
+function groupsReport(analysis: AcrossSiteAnalysis): GroupReport[] {
+  return analysis.groups
+    .filter((g) => g.values.length > 1)
+    .map((g) => {
+      const t = g.differ.quadratic;
+      return {
+        key: g.key,
+        values: g.values.map((v) => {
+          const r = v.regional.regional;
+          const has = Number.isFinite(r.bestRateKgHa);
+          const ci = v.regional.rateInterval;
+          return {
+            value: v.value,
+            sites: [...v.sites],
+            bestRateKgHa: has ? r.bestRateKgHa : null,
+            profitableRangeKgHa: has
+              ? ([r.profitableRange.lowKgHa, r.profitableRange.highKgHa] as [number, number])
+              : null,
+            bestRateIntervalKgHa: ci ? ([ci.lowKgHa, ci.highKgHa] as [number, number]) : null,
+          };
+        }),
+        differ:
+          t.result.kind === 'f-test'
+            ? {
+                F: t.result.f,
+                df1: t.result.df1,
+                df2: t.result.df2,
+                p: t.result.p,
+                sentence: t.sentence,
+              }
+            : null,
+      };
+    });
 }

@@ -241,6 +241,22 @@ export interface ResultsJson {
       sites: number;
       rows: { rate: number; share: number; recommended: boolean }[];
     } | null;
+    /**
+     * Per grouping column with two or more values (previous crop, soil, …, or the year): each
+     * group's regional rate, profitable range and site-year interval (output units), and the F
+     * test of whether the groups respond differently (null when it could not be made).
+     */
+    groups: {
+      key: string;
+      values: {
+        value: string;
+        sites: string[];
+        bestRate: number | null;
+        profitableRange: [number, number] | null;
+        bestRateCI: [number, number] | null;
+      }[];
+      differ: { F: number; df1: number; df2: number; p: number; sentence: string } | null;
+    }[];
     /** The regional quadratic mixed model (REML), output units; null without one. */
     mixed: ResultsMixedModel | null;
   } | null;
@@ -520,6 +536,27 @@ export function resultsJson(report: TrialReport): ResultsJson {
               }
             : null,
           mixed: report.acrossSites.mixed ? mixedJson(report.acrossSites.mixed, u, fy2) : null,
+          groups: report.acrossSites.groups.map((g) => ({
+            key: g.key,
+            values: g.values.map((v) => ({
+              value: v.value,
+              sites: [...v.sites],
+              bestRate: cleanOrNull(v.bestRateKgHa === null ? null : u.rate(v.bestRateKgHa)),
+              profitableRange: v.profitableRangeKgHa ? range(v.profitableRangeKgHa) : null,
+              bestRateCI: v.bestRateIntervalKgHa ? range(v.bestRateIntervalKgHa) : null,
+            })),
+            differ: g.differ
+              ? {
+                  ...fNumbers({
+                    F: g.differ.F,
+                    df1: g.differ.df1,
+                    df2: g.differ.df2,
+                    p: g.differ.p,
+                  }),
+                  sentence: g.differ.sentence,
+                }
+              : null,
+          })),
         }
       : null,
     yearsCompared: report.yearsCompared.map((c) => ({

@@ -239,6 +239,24 @@ export interface AcrossSitesReport {
   notes: string[];
   /** The regional quadratic mixed model (kg/ha) and its optimum at these prices; null without one. */
   mixed: MixedModelReport | null;
+  /** Per grouping column with two or more values: each group's regional rate and the test between them. */
+  groups: GroupReport[];
+}
+
+/** One grouping column (previous crop, soil, …, or the year) across the sites. */
+export interface GroupReport {
+  key: string;
+  values: {
+    value: string;
+    sites: string[];
+    /** The group's regional rate, kg/ha; null when none of its sites has a curve to pool. */
+    bestRateKgHa: number | null;
+    profitableRangeKgHa: [number, number] | null;
+    /** The group's rate interval from resampling its site-years, kg/ha; null without one. */
+    bestRateIntervalKgHa: [number, number] | null;
+  }[];
+  /** Do the groups respond differently? The quadratic test with site levels. */
+  differ: { F: number; df1: number; df2: number; p: number; sentence: string } | null;
 }
 
 /** The regional mixed model as the report shows it: the fit (kg/ha) and the priced optimum. */
