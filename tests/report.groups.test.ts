@@ -8,6 +8,8 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { demoTrial } from '../shared/demo';
 import { importFiles } from '../shared/import/importFiles';
 import { resultsJson } from '../shared/report/resultsJson';
+import { growerPage, groupPageId } from '../shared/report/growerPage';
+import { recommendationCautions } from '../shared/economics/recommendationCautions';
 import type { ReportSettings } from '../shared/report/reportSettings';
 import type { TrialReport } from '../shared/report/trialReport';
 import type { PlotTable } from '../shared/table/plotTable';
@@ -66,6 +68,23 @@ describe('the regional rate per group', () => {
     expect(g.differ!.df1).toBeGreaterThan(0);
     expect(g.differ!.p).toBeGreaterThanOrEqual(0);
     expect(g.differ!.sentence).toMatch(/Previous crop/);
+  });
+
+  it("gives each group a grower page whose rate is its sites' own regional rate, with the cautions", () => {
+    const g = report.acrossSites!.groups.find((x) => x.key === 'Previous crop')!;
+    for (const v of g.values) {
+      const page = growerPage(report, groupPageId(g.key, v.value));
+      const alone = reportOf(
+        { ...table, plots: table.plots.filter((p) => v.sites.includes(p.site)) },
+        settings,
+        meta,
+      );
+      expect(page.subject).toBe(`Previous crop: ${v.value} (${v.sites.length} sites)`);
+      expect(page.recommendation).toBe(growerPage(alone, 'region').recommendation);
+      expect(page.cautions).toEqual(recommendationCautions);
+      expect(page.basis.join(' ')).toMatch(/Previous crop/);
+    }
+    expect(() => growerPage(report, groupPageId('Previous crop', 'oats'))).toThrow(/no group/);
   });
 
   it('writes the groups into the JSON in the output units', () => {

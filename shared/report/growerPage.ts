@@ -72,6 +72,13 @@ export interface GrowerPage {
   levels?: { factor: string; rates: GrowerFact[]; sentences: string[] }[];
 }
 
+/**
+ * Half an interval's width against the rate, up to which a page says "fairly sure" and
+ * "moderately sure" (Plotrate's reading for growers; common practice has no fixed cut-off).
+ */
+const FAIRLY_SURE = 0.15;
+const MODERATELY_SURE = 0.35;
+
 /** How sure the optimum is, in words a grower uses, from its interval (display units). */
 function certaintyOf(
   opt: number,
@@ -93,13 +100,13 @@ function certaintyOf(
   const pct = Math.round(level * 100);
   const range =
     fmt(ci[0]) === fmt(ci[1]) ? `at ${fmt(ci[0])}` : `between ${fmt(ci[0])} and ${fmt(ci[1])}`;
-  if (rel <= 0.15) {
+  if (rel <= FAIRLY_SURE) {
     return {
       level: 'fairly sure',
       text: `Fairly sure: resampling the plots put the best rate ${range} in ${pct} of 100 cases.`,
     };
   }
-  if (rel <= 0.35) {
+  if (rel <= MODERATELY_SURE) {
     return {
       level: 'moderately sure',
       text: `Moderately sure: resampling the plots put the best rate ${range} in ${pct} of 100 cases; the trial cannot pin it down more closely.`,
@@ -227,6 +234,50 @@ function pageOf(report: TrialReport, which: string | 'region'): GrowerPage {
     const p = applicationRate(u.rate(rateKgHa) / (product.nitrogenPct / 100), ru);
     return `≈ ${formatQuantity(p, ru, 0)} of ${product.label}`;
   };
+
+  const group = groupOfPage(which);
+  if (group) {
+    const g = report.acrossSites?.groups.find((x) => x.key === group.key);
+    const v = g?.values.find((x) => x.value === group.value);
+    if (!g || !v)
+      throw new RangeError(`growerPage: the report has no group "${group.key}: ${group.value}".`);
+    const ci = v.bestRateIntervalKgHa;
+    return {
+      ...base,
+      subject: `${g.key}: ${v.value} (${v.sites.length} site${v.sites.length === 1 ? '' : 's'})`,
+      recommendation:
+        v.bestRateKgHa === null
+          ? 'No rate can be recommended for this group'
+          : `Apply about ${fmtApply(v.bestRateKgHa)}`,
+      productRecommendation: v.bestRateKgHa === null ? '' : productText(v.bestRateKgHa),
+      rate: v.bestRateKgHa === null ? null : applicationRate(u.rate(v.bestRateKgHa), ru),
+      facts: v.profitableRangeKgHa
+        ? [
+            {
+              label: 'Profitable range',
+              value: `${fmtRate(v.profitableRangeKgHa[0])} to ${fmtRate(v.profitableRangeKgHa[1])}`,
+            },
+          ]
+        : [],
+      certainty: ci
+        ? {
+            // The same reading of width as the region's spread (spreadCertainty): half the
+            // interval against the rate, within 15 % fairly sure, within 35 % moderately.
+            level: widthLevel(ci, v.bestRateKgHa),
+            text: `With other site-years like these the group's rate could have come out anywhere from ${fmtRate(ci[0])} to ${fmtRate(ci[1])}; ${v.sites.length} site${v.sites.length === 1 ? '' : 's'} stand behind it.`,
+          }
+        : {
+            level: 'unknown',
+            text: 'Too few site-years in this group to say how sure its rate is.',
+          },
+      basis: [
+        `${v.sites.length} site${v.sites.length === 1 ? '' : 's'} with ${g.key.toLowerCase()} ${v.value}: ${v.sites.join(', ')}.`,
+        `The rate with the highest net return averaged over these sites' fitted curves; rates within ${money(report.acrossSites!.bandPerHa)} of that best return count as profitable.`,
+        ...(g.differ ? [g.differ.sentence] : []),
+      ],
+      warnings,
+    };
+  }
 
   if (which === 'region') {
     const a = report.acrossSites;
@@ -405,9 +456,9 @@ function spreadCertainty(
   const mid = sorted[Math.floor(sorted.length / 2)];
   const rel = mid > 0 ? (hi - lo) / 2 / mid : Infinity;
   const text = `The best rate at single sites ranged from ${fmt(lo)} to ${fmt(hi)}.`;
-  if (rel <= 0.15)
+  if (rel <= FAIRLY_SURE)
     return { level: 'fairly sure', text: `Fairly sure: ${text} The sites agree closely.` };
-  if (rel <= 0.35) return { level: 'moderately sure', text: `Moderately sure: ${text}` };
+  if (rel <= MODERATELY_SURE) return { level: 'moderately sure', text: `Moderately sure: ${text}` };
   return {
     level: 'not very sure',
     text: `Not very sure: ${text} Fields differ a lot; a field's own trial or test tells more.`,
@@ -429,6 +480,32 @@ function withSiteYearInterval(
     ...certainty,
     text: `${certainty.text} With other site-years like these the regional rate could have come out anywhere from ${fmt(interval.lowKgHa)} to ${fmt(interval.highKgHa)} (${Math.round(interval.level * 100)} in 100 resamples of the site-years).`,
   };
+}
+
+/** How sure, from an interval's half-width against the rate (the thresholds of spreadCertainty). */
+function widthLevel(
+  ci: [number, number],
+  rateKgHa: number | null,
+): GrowerPage['certainty']['level'] {
+  const rel = rateKgHa && rateKgHa > 0 ? (ci[1] - ci[0]) / 2 / rateKgHa : Infinity;
+  return rel <= FAIRLY_SURE
+    ? 'fairly sure'
+    : rel <= MODERATELY_SURE
+      ? 'moderately sure'
+      : 'not very sure';
+}
+
+/** The page id of one group of sites, for growerPage and the page picker: "group:Previous crop=soybean". */
+export function groupPageId(key: string, value: string): string {
+  return `group:${key}=${value}`;
+}
+
+/** The group a page id names, or null for a site or the region. */
+function groupOfPage(which: string): { key: string; value: string } | null {
+  if (!which.startsWith('group:')) return null;
+  const body = which.slice('group:'.length);
+  const eq = body.indexOf('=');
+  return eq < 0 ? null : { key: body.slice(0, eq), value: body.slice(eq + 1) };
 }
 
 /** One season of a site tried over several: whether its response to N matched the others'. */

@@ -50,6 +50,18 @@ describe('groups of sites', () => {
       panel.getByText('Before you use this regional rate of a group').count(),
     ).resolves.toBe(1);
     await shot(page, 'groups-panel');
+    // The report step offers a grower page per group.
+    await page
+      .getByRole('navigation', { name: 'Steps' })
+      .getByRole('button', { name: /Report/ })
+      .click();
+    await page.getByTestId('page-for').selectOption({ label: 'Previous crop: soybean' });
+    await expect(page.getByTestId('grower-page').locator('h1').textContent()).resolves.toBe(
+      'Previous crop: soybean (2 sites)',
+    );
+    await expect(page.getByTestId('grower-recommendation').textContent()).resolves.toMatch(
+      /Apply about \d+ kg N\/ha/,
+    );
   });
 });
 
