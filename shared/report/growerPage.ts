@@ -131,19 +131,9 @@ export function growerPage(report: TrialReport, which: string | 'region'): Growe
   const page = pageOf(report, which);
   const factors = which === 'region' ? [] : report.levels.filter((l) => l.site === which);
   if (factors.length === 0) return page;
-  const u = unitScale(report.settings.units, report.crop);
-  const ru = report.settings.units.rate;
   // As on the rest of the page: a level's rate to apply to the spreader's step, its interval and
-  // differences as reported rates (shared/units/rateRounding); money in the user's currency.
-  const fmtRate = (kgHa: number): string =>
-    formatQuantity(shownRate(u.rate(kgHa), ru), ru, RATE_DECIMALS[ru]).replace(
-      ru,
-      nutrientUnit(ru),
-    );
-  const fmtApply = (kgHa: number): string =>
-    formatQuantity(applicationRate(u.rate(kgHa), ru), ru, 0).replace(ru, nutrientUnit(ru));
-  const { currency, locale } = report.settings;
-  const money = (perHa: number): string => formatMoneyPerArea(perHa, currency, ru, locale);
+  // differences as reported rates; money in the user's currency.
+  const { fmtRate, fmtApply, fmtApplyDown, money } = pageFormats(report);
   const levels = factors.map((f) => ({
     factor: f.factor,
     rates: f.levels.map((l): GrowerFact => {
@@ -158,7 +148,7 @@ export function growerPage(report: TrialReport, which: string | 'region'): Growe
           : r.rateKgHa === null
             ? 'no rate can be recommended'
             : r.basis === 'full-response'
-              ? `no more than ${formatQuantity(applicationRateDown(u.rate(r.rateKgHa), ru), ru, 0).replace(ru, nutrientUnit(ru))}${range}`
+              ? `no more than ${fmtApplyDown(r.rateKgHa)}${range}`
               : `about ${fmtApply(r.rateKgHa)}${range}`;
       return { label: `${f.factor}: ${l.level}`, value };
     }),
@@ -183,17 +173,10 @@ function pageOf(report: TrialReport, which: string | 'region'): GrowerPage {
   const u = unitScale(report.settings.units, report.crop);
   const ru = report.settings.units.rate;
   const yu = report.settings.units.yield;
-  // Reported rates (ranges, intervals, tested rates) as every view rounds them; a rate to apply
-  // (the headline) to the spreader's step (shared/units/rateRounding).
-  const shown = (v: number): string =>
-    formatQuantity(shownRate(v, ru), ru, RATE_DECIMALS[ru]).replace(ru, nutrientUnit(ru));
-  const fmtRate = (kgHa: number): string => shown(u.rate(kgHa));
-  const fmtApply = (kgHa: number): string =>
-    formatQuantity(applicationRate(u.rate(kgHa), ru), ru, 0).replace(ru, nutrientUnit(ru));
+  const { shown, fmtRate, fmtApply, fmtApplyDown, money } = pageFormats(report);
   const fmtYield = (kgHa: number): string => formatQuantity(u.yield(kgHa), yu);
   const { settings, prices } = report;
   const { currency, locale } = settings;
-  const money = (perHa: number): string => formatMoneyPerArea(perHa, currency, ru, locale);
   const price = (amount: number, decimals: number): string =>
     formatMoney(amount, currency, locale, decimals);
   const product = settings.prices.product ? products(settings.prices.product.id) : null;
@@ -362,7 +345,7 @@ function pageOf(report: TrialReport, which: string | 'region'): GrowerPage {
     const [low, high] = rec.rangeKgHa;
     // "No more than": the top of the range rounded down to a spreader setting.
     const top = applicationRateDown(u.rate(high), ru);
-    const topText = formatQuantity(top, ru, 0).replace(ru, nutrientUnit(ru));
+    const topText = fmtApplyDown(high);
     const facts: GrowerFact[] = [
       { label: 'Best rate lies between', value: `${fmtRate(low)} and ${topText}` },
     ];
@@ -434,6 +417,29 @@ function pageOf(report: TrialReport, which: string | 'region'): GrowerPage {
     certainty: cert,
     basis,
     warnings,
+  };
+}
+
+/**
+ * How a page writes rates and money, one set for every part of it: reported rates (ranges,
+ * intervals, tested rates) as every view rounds them; a rate to apply to the spreader's step
+ * (down for a rate not to be exceeded; shared/units/rateRounding); money in the user's currency
+ * per the display area.
+ */
+function pageFormats(report: TrialReport) {
+  const u = unitScale(report.settings.units, report.crop);
+  const ru = report.settings.units.rate;
+  const { currency, locale } = report.settings;
+  const withUnit = (v: number, decimals: number): string =>
+    formatQuantity(v, ru, decimals).replace(ru, nutrientUnit(ru));
+  const shown = (v: number): string => withUnit(shownRate(v, ru), RATE_DECIMALS[ru]);
+  return {
+    /** A rate already in display units, rounded as reported. */
+    shown,
+    fmtRate: (kgHa: number): string => shown(u.rate(kgHa)),
+    fmtApply: (kgHa: number): string => withUnit(applicationRate(u.rate(kgHa), ru), 0),
+    fmtApplyDown: (kgHa: number): string => withUnit(applicationRateDown(u.rate(kgHa), ru), 0),
+    money: (perHa: number): string => formatMoneyPerArea(perHa, currency, ru, locale),
   };
 }
 

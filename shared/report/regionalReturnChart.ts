@@ -17,6 +17,7 @@ import type { CropId } from '../table/plotTable';
 import type { DisplayUnits } from '../units/displayUnits';
 import type { ChartLayer, ChartSpec } from './chartSpec';
 import { unitScale } from './unitScale';
+import { nutrientRateUnit } from '../units/convertRate';
 
 /** What the regional chart draws, in canonical units, thinned to about 200 rates. */
 export interface RegionalChartData {
@@ -107,7 +108,7 @@ export interface RegionalChartUnits {
  */
 export function regionalReturnChart(data: RegionalChartData, how: RegionalChartUnits): ChartSpec {
   const u = unitScale(how.units, how.crop);
-  const rateUnit = how.units.rate === 'g/m2' ? 'g N/m²' : how.units.rate.replace('/', ' N/');
+  const rateUnit = nutrientRateUnit(how.units.rate);
   const x = data.rateKgHa.map(u.rate);
   const best = u.rate(data.bestRateKgHa);
   const r = data.resampled;

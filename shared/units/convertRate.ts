@@ -49,3 +49,14 @@ export function rateFromKgHa(rateKgHa: number, unit: RateUnit): number {
   if (!rateUnits.includes(unit)) throw new RangeError(`Unknown rate unit "${String(unit)}".`);
   return rateKgHa / factorToKgHa(unit);
 }
+
+/**
+ * A rate unit as an axis or label names it: the rate is of nutrient, so "kg N/ha", "lb N/ac",
+ * "g N/m²".
+ * @param unit - the display rate unit
+ * @returns the label
+ * @example nutrientRateUnit('lb/ac') // 'lb N/ac'
+ */
+export function nutrientRateUnit(unit: RateUnit): string {
+  return unit === 'g/m2' ? 'g N/m²' : unit.replace('/', ' N/');
+}

@@ -8,7 +8,7 @@ import { leadingModelLabel, modelLabel } from '../../../shared/models/curves';
 import type { ModelName } from '../../../shared/models/modelTypes';
 import type { ChartLayer, ChartSpec, PointLayer } from '../../../shared/report/chartSpec';
 import type { CropId, Plot } from '../../../shared/table/plotTable';
-import { rateFromKgHa, type RateUnit } from '../../../shared/units/convertRate';
+import { nutrientRateUnit, rateFromKgHa, type RateUnit } from '../../../shared/units/convertRate';
 import { yieldFromKgHa, type YieldUnit } from '../../../shared/units/convertYield';
 import type { SiteAnalysis } from './siteAnalysis';
 
@@ -19,11 +19,6 @@ export interface ChartUnits {
   crop: CropId;
   /** Currency code for money axes. */
   currency: string;
-}
-
-/** A rate unit as an axis names it: "kg N/ha", "lb N/ac". */
-export function nutrientRateUnit(unit: RateUnit): string {
-  return unit === 'g/m2' ? 'g N/m²' : unit.replace('/', ' N/');
 }
 
 function blockPoints(
