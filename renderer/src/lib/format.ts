@@ -250,3 +250,25 @@ export function readTypedNumber(text: string, locale?: string): number | null {
   const decimalComma = plotlySeparators(locale)[0] === ',';
   return parseNumberText(text, decimalComma) ?? parseNumberText(text, !decimalComma);
 }
+
+/**
+ * A plot's rate or yield held in kg/ha, in the display unit of its kind (a correction, a cell).
+ * @param role - "rate" or "yield"
+ * @param kgHa - the value, kg/ha; null prints "–"
+ * @param units - the display units
+ * @param crop - the crop, for bushels
+ * @param locale - a BCP 47 tag
+ * @returns e.g. '13.90 t/ha' or '135 kg/ha'
+ * @example formatPlotValue('rate', 135, { rate: 'kg/ha', yield: 't/ha' }, 'corn', 'en-US') // '135 kg/ha'
+ */
+export function formatPlotValue(
+  role: 'rate' | 'yield',
+  kgHa: number | null,
+  units: { rate: RateUnit; yield: YieldUnit },
+  crop: CropId,
+  locale?: string,
+): string {
+  return role === 'yield'
+    ? formatYield(kgHa, units.yield, crop, locale)
+    : formatRate(kgHa, units.rate, locale);
+}
