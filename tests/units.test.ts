@@ -5,6 +5,7 @@ import {
   M2_PER_ACRE,
   LB_AC_TO_KG_HA,
   convertRate,
+  formatNutrientRate,
   rateFromKgHa,
   convertYield,
   yieldFromKgHa,
@@ -59,6 +60,13 @@ describe('convertRate', () => {
         (v, u) => Math.abs(rateFromKgHa(convertRate(v, u), u) - v) <= 1e-12 * Math.max(1, v),
       ),
     );
+  });
+  it('writes a nutrient rate with the nutrient in its unit, g/m² included', () => {
+    // Common practice: a fertilizer rate names its nutrient ("150 lb N/ac"); SI writes m² with a superscript (NIST SP 811).
+    expect(formatNutrientRate(150, 'lb/ac')).toBe('150 lb N/ac');
+    expect(formatNutrientRate(1234.4, 'kg/ha')).toBe('1,234 kg N/ha');
+    expect(formatNutrientRate(12.46, 'g/m2')).toBe('12.5 g N/m²');
+    expect(formatNutrientRate(null, 'g/m2')).toBe('—');
   });
   it('refuses an unknown unit with a message naming it', () => {
     expect(() => convertRate(1, 'oz/ac' as RateUnit)).toThrow(/Unknown rate unit "oz\/ac"/);

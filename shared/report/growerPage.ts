@@ -24,6 +24,7 @@ import { formatP } from '../analysis/describeFTest';
 import { bestLevelSentence, levelTestSentence } from './levelSentences';
 import { fullResponseSentence } from '../economics/decisionSentences';
 import { unitScale } from './unitScale';
+import { formatNutrientRate, nutrientRateUnit } from '../units/convertRate';
 
 /** A label and its value, one line of a facts table. */
 export interface GrowerFact {
@@ -205,7 +206,7 @@ function pageOf(report: TrialReport, which: string | 'region'): GrowerPage {
   const base = {
     heading: 'Nitrogen rate recommendation',
     cropLabel: crops(report.crop).label,
-    rateUnit: nutrientUnit(ru),
+    rateUnit: nutrientRateUnit(ru),
     prices: priceFacts,
     cautions: recommendationCautions,
     footer,
@@ -430,8 +431,7 @@ function pageFormats(report: TrialReport) {
   const u = unitScale(report.settings.units, report.crop);
   const ru = report.settings.units.rate;
   const { currency, locale } = report.settings;
-  const withUnit = (v: number, decimals: number): string =>
-    formatQuantity(v, ru, decimals).replace(ru, nutrientUnit(ru));
+  const withUnit = (v: number, decimals: number): string => formatNutrientRate(v, ru, decimals);
   const shown = (v: number): string => withUnit(shownRate(v, ru), RATE_DECIMALS[ru]);
   return {
     /** A rate already in display units, rounded as reported. */
@@ -441,12 +441,6 @@ function pageFormats(report: TrialReport) {
     fmtApplyDown: (kgHa: number): string => withUnit(applicationRateDown(u.rate(kgHa), ru), 0),
     money: (perHa: number): string => formatMoneyPerArea(perHa, currency, ru, locale),
   };
-}
-
-/** "lb/ac" → "lb N/ac": the rate is of nutrient, and the page says so. */
-function nutrientUnit(rateUnit: string): string {
-  const [w, a] = rateUnit.split('/');
-  return a ? `${w} N/${a}` : rateUnit;
 }
 
 /** For the region: how far apart the site optima are, in words. */

@@ -16,6 +16,7 @@ import { modelLabel } from '../models/curves';
 import type { ChartLayer, ChartSpec, PointLayer } from './chartSpec';
 import type { LevelReport, SiteLevelsReport, TrialReport } from './trialReport';
 import { unitScale } from './unitScale';
+import { nutrientRateUnit } from '../units/convertRate';
 
 /** A level the site does not have was asked for. */
 export class UnknownLevelError extends Error {
@@ -51,7 +52,7 @@ export function levelCurvesChart(
   if (shown !== null && !site.levels.some((l) => l.level === shown))
     throw new UnknownLevelError(site.site, site.factor, shown);
   const u = unitScale(report.settings.units, report.crop);
-  const rateUnit = report.settings.units.rate.replace('/', ' N/');
+  const rateUnit = nutrientRateUnit(report.settings.units.rate);
   const one = shown !== null;
   // Indices into the full list, so a level keeps its color whichever level is picked.
   const drawn = site.levels.map((l, k) => ({ l, k })).filter(({ l }) => !one || l.level === shown);

@@ -8,6 +8,7 @@ import { leadingModelLabel } from '../models/curves';
 import type { ChartLayer, ChartSpec, PointLayer } from './chartSpec';
 import type { SiteReport, TrialReport } from './trialReport';
 import { unitScale } from './unitScale';
+import { nutrientRateUnit } from '../units/convertRate';
 
 /**
  * Describes the response chart of one site.
@@ -21,7 +22,7 @@ export function siteResponseChart(report: TrialReport, site: SiteReport): ChartS
   const u = unitScale(report.settings.units, report.crop);
   const ru = report.settings.units.rate;
   const yu = report.settings.units.yield;
-  const rateUnit = ru.replace('/', ' N/');
+  const rateUnit = nutrientRateUnit(ru);
   const blocks = [...new Set(site.plots.map((p) => p.block ?? ''))];
   const pointLayers: PointLayer[] = blocks.map((b, i) => {
     const ps = site.plots.filter(

@@ -16,6 +16,7 @@ import {
   styleTitle,
   yieldFormat,
 } from './workbookFormat';
+import { nutrientRateUnit } from '../units/convertRate';
 
 /**
  * Adds the across-site sheet (or a sheet saying why there is none).
@@ -36,7 +37,7 @@ export function workbookAcrossSites(
   const ws = wb.addWorksheet('Across sites');
   const ru = u.units.rate;
   // "lb N/ac": the rate is of nutrient, written the way agronomists write it.
-  const rN = ru.replace('/', ' N/');
+  const rN = nutrientRateUnit(ru);
   const money = `${report.settings.currency}/${u.areaName}`;
   ws.getCell('A1').value = 'Across sites: one rate for the region';
   styleTitle(ws.getCell('A1'), 14);

@@ -17,6 +17,7 @@ import {
   styleTitle,
   yieldFormat,
 } from './workbookFormat';
+import { nutrientRateUnit } from '../units/convertRate';
 
 /**
  * Adds the overview sheet.
@@ -35,7 +36,7 @@ export function workbookOverview(
   const ws = wb.addWorksheet('Overview');
   const ru = u.units.rate;
   // "lb N/ac": the rate is of nutrient, written the way agronomists write it.
-  const rN = ru.replace('/', ' N/');
+  const rN = nutrientRateUnit(ru);
   const yu = u.units.yield;
   ws.getCell('A1').value = 'Nitrogen rate trial report';
   styleTitle(ws.getCell('A1'), 14);

@@ -11,6 +11,7 @@ import { recommendationCautions } from '../economics/recommendationCautions';
 import type { SensitivitySummaryRow, ShortfallSummary, TrialReport } from './trialReport';
 import type { UnitScale } from './unitScale';
 import { fitColumns, rateFormat, setupPage, styleTitle, tableHeading } from './workbookFormat';
+import { nutrientRateUnit } from '../units/convertRate';
 
 /** The sheet's name (the workbook keeps it out of the site sheets' names). */
 export const SENSITIVITY_SHEET = 'Price ratio and risk';
@@ -48,7 +49,7 @@ export function workbookSensitivity(
 ): ExcelJS.Worksheet {
   const ws = wb.addWorksheet(SENSITIVITY_SHEET);
   const ru = u.units.rate;
-  const rN = ru.replace('/', ' N/');
+  const rN = nutrientRateUnit(ru);
   const money = `${report.settings.currency}/${u.areaName}`;
   const prUnit = report.prices.priceRatioUnit;
   const quoted = (kgPerKg: number) =>

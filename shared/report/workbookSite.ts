@@ -25,6 +25,7 @@ import {
   styleTitle,
   yieldFormat,
 } from './workbookFormat';
+import { nutrientRateUnit } from '../units/convertRate';
 
 /** Chart pictures for the sheet: PNG bytes and their size in CSS pixels. */
 export interface SheetImage {
@@ -56,7 +57,7 @@ export function workbookSite(
   const ws = wb.addWorksheet(name);
   const ru = u.units.rate;
   // "lb N/ac": the rate is of nutrient, written the way agronomists write it.
-  const rN = ru.replace('/', ' N/');
+  const rN = nutrientRateUnit(ru);
   const yu = u.units.yield;
   const titles = new Set<number>();
   ws.getCell('A1').value = `${site.site}: ${report.crop} nitrogen response`;

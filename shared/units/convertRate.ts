@@ -2,6 +2,7 @@
  * Application rates between the units sheets use and the canonical kg/ha.
  * Factors from unitConstants (exact pound and international acre).
  */
+import { formatQuantity } from './formatQuantity';
 import { G_PER_KG, LB_AC_TO_KG_HA, M2_PER_HA } from './unitConstants';
 
 /** Units an application rate (of product or of nutrient) can be given in. */
@@ -59,4 +60,23 @@ export function rateFromKgHa(rateKgHa: number, unit: RateUnit): number {
  */
 export function nutrientRateUnit(unit: RateUnit): string {
   return unit === 'g/m2' ? 'g N/m²' : unit.replace('/', ' N/');
+}
+
+/**
+ * A nutrient rate with its unit: the number as formatQuantity writes it, the unit as
+ * nutrientRateUnit names it.
+ * @param value - the rate in `unit`, or null
+ * @param unit - the display rate unit
+ * @param decimals - override the unit's usual decimals
+ * @returns text such as "150 lb N/ac" or "12.5 g N/m²"; "—" for a missing value
+ * @example formatNutrientRate(150, 'lb/ac') // '150 lb N/ac'
+ */
+export function formatNutrientRate(
+  value: number | null,
+  unit: RateUnit,
+  decimals?: number,
+): string {
+  const text = formatQuantity(value, unit, decimals);
+  if (text === '—') return text;
+  return `${text.slice(0, text.lastIndexOf(' '))} ${nutrientRateUnit(unit)}`;
 }
