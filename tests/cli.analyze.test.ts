@@ -300,11 +300,12 @@ describe('plotrate demo', () => {
     expect(r.out).toMatch(/ {2}Timing Split \(V6\): /);
   });
 
-  it("prints the demo's grower pages with the rate in urea and N, one page per site and the region", () => {
+  it("prints the demo's grower pages with the rate in urea and N, one page per site, the region and each group", () => {
     for (const [name, pages, product, ratio] of [
       // Urea at 520 per short ton (0.26/lb) over 4.50/bu: 0.26 / 0.46 / 4.5 = 0.1256 bu/lb N; at
       // 0.5732/kg over 220/t: 0.5732 / 0.46 / 0.22 = 5.664 kg/kg N (shared/economics/illustrativePrices).
-      ['corn', 7, /≈ [\d,]+ lb\/ac of Urea 46-0-0/, /0\.126 bu\/lb N/],
+      // Corn: six sites, the region, and a page per previous crop (corn, soybean).
+      ['corn', 9, /≈ [\d,]+ lb\/ac of Urea 46-0-0/, /0\.126 bu\/lb N/],
       ['wheat', 3, /≈ [\d,]+ kg\/ha of Urea 46-0-0/, /5\.66 kg\/kg N/],
     ] as const) {
       const pdf = path.join(dir, 'demo-out', `demo-${name}-recommendation.pdf`);

@@ -7,7 +7,9 @@ import path from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { demoTrial } from '../shared/demo';
 import { importFiles } from '../shared/import/importFiles';
+import ExcelJS from 'exceljs';
 import { resultsJson } from '../shared/report/resultsJson';
+import { reportGrowerPages, writeWorkbook } from '../shared/report/workbook';
 import { growerPage, groupPageId } from '../shared/report/growerPage';
 import { recommendationCautions } from '../shared/economics/recommendationCautions';
 import type { ReportSettings } from '../shared/report/reportSettings';
@@ -85,6 +87,36 @@ describe('the regional rate per group', () => {
       expect(page.basis.join(' ')).toMatch(/Previous crop/);
     }
     expect(() => growerPage(report, groupPageId('Previous crop', 'oats'))).toThrow(/no group/);
+  });
+
+  it('prints every group page after the region, as the workspace lists them', () => {
+    const subjects = reportGrowerPages(report).map((p) => p.subject);
+    const groupSubjects = report.acrossSites!.groups.flatMap((g) =>
+      g.values
+        .filter((v) => v.sites.length >= 2)
+        .map((v) => growerPage(report, groupPageId(g.key, v.value)).subject),
+    );
+    expect(groupSubjects.length).toBeGreaterThanOrEqual(2);
+    const region = subjects.findIndex((s) => s.startsWith('Region'));
+    expect(region).toBe(report.sites.length);
+    expect(subjects.slice(region + 1)).toEqual(groupSubjects);
+  });
+
+  it("lists each group's regional rate on the workbook's across-site sheet", async () => {
+    const wb = new ExcelJS.Workbook();
+    await wb.xlsx.load(Buffer.from(await writeWorkbook(report)) as never);
+    const ws = wb.getWorksheet('Across sites')!;
+    const rows: unknown[][] = [];
+    ws.eachRow((row) => rows.push((row.values as unknown[]).slice(1)));
+    const g = report.acrossSites!.groups.find((x) => x.key === 'Previous crop')!;
+    for (const v of g.values) {
+      const row = rows.find((r) => r[0] === 'Previous crop' && r[1] === v.value)!;
+      expect(row, v.value).toBeDefined();
+      // kg/ha output, so the cell holds the report's own number.
+      expect(row[3]).toBe(v.bestRateKgHa);
+      expect(row[2]).toBe(v.sites.join(', '));
+    }
+    expect(rows.some((r) => r[0] === g.differ!.sentence)).toBe(true);
   });
 
   it('writes the groups into the JSON in the output units', () => {

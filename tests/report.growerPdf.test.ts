@@ -51,21 +51,29 @@ async function render(
   return { pngs, text };
 }
 
+/** Group pages the packet holds: one per value, with two sites or more, of each grouping column. */
+function groupValues(report: TrialReport): number {
+  return (report.acrossSites?.groups ?? []).reduce(
+    (n, g) => n + g.values.filter((v) => v.sites.length >= 2).length,
+    0,
+  );
+}
+
 beforeAll(async () => {
   us = await demoReport('us', 40);
   metric = await demoReport('metric', 40);
 });
 
 describe('growerPdf', () => {
-  it('writes one Letter page per site and one for the region with US units', async () => {
+  it('writes one Letter page per site, one for the region and one per group with US units', async () => {
     const { pngs } = await render(us, 'us');
-    expect(pngs.length).toBe(us.sites.length + 1);
+    expect(pngs.length).toBe(us.sites.length + 1 + groupValues(us));
     for (const p of pngs) expect(pngSize(p)).toEqual([612, 792]);
   });
 
   it('writes A4 pages with metric units', async () => {
     const { pngs } = await render(metric, 'metric');
-    expect(pngs.length).toBe(metric.sites.length + 1);
+    expect(pngs.length).toBe(metric.sites.length + 1 + groupValues(metric));
     // pdftoppm rounds each side up to whole pixels.
     for (const p of pngs) expect(pngSize(p)).toEqual([596, 842]);
   });

@@ -500,6 +500,23 @@ export function groupPageId(key: string, value: string): string {
   return `group:${key}=${value}`;
 }
 
+/**
+ * The group pages a report offers, in the order the page picker and the printed packet list
+ * them: each value of each grouping column that has two sites or more. A group of one site
+ * would repeat that site's own page under another title.
+ * @param report - the analysis
+ * @returns page ids (for growerPage) with their labels
+ * @example
+ * groupPages(report)[0] // { id: 'group:Previous crop=corn', label: 'Previous crop: corn' }
+ */
+export function groupPages(report: TrialReport): { id: string; label: string }[] {
+  return (report.acrossSites?.groups ?? []).flatMap((g) =>
+    g.values
+      .filter((v) => v.sites.length >= 2)
+      .map((v) => ({ id: groupPageId(g.key, v.value), label: `${g.key}: ${v.value}` })),
+  );
+}
+
 /** The group a page id names, or null for a site or the region. */
 function groupOfPage(which: string): { key: string; value: string } | null {
   if (!which.startsWith('group:')) return null;

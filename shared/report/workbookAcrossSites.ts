@@ -1,7 +1,7 @@
 /**
  * The across-site sheet: the regional rate and its profitable range, each
- * site's own best rate, the pooling tests, the years of each site seen in several years
- * compared, and the regional return curve.
+ * site's own best rate, the pooling tests, the regional rate per group of sites, the years
+ * of each site seen in several years compared, and the regional return curve.
  */
 import type ExcelJS from 'exceljs';
 import type { TrialReport } from './trialReport';
@@ -108,6 +108,7 @@ export function workbookAcrossSites(
     ws.getCell(r, 1).value = n;
     titles.add(r++);
   }
+  r = groupsTable(ws, r + 1, a.groups, u, titles);
   r = yearsTable(ws, r + 1, report, titles);
   fitColumns(ws, 8, 50, titles);
   if (chart) {
@@ -120,6 +121,57 @@ export function workbookAcrossSites(
   ws.pageSetup.printArea = `A1:M${Math.max(r, 30)}`;
   setupPage(ws, paper, 'landscape');
   return ws;
+}
+
+/** Each group's regional rate and the test between groups, from row r; the next free row. */
+function groupsTable(
+  ws: ExcelJS.Worksheet,
+  r: number,
+  groups: NonNullable<TrialReport['acrossSites']>['groups'],
+  u: UnitScale,
+  titles: Set<number>,
+): number {
+  if (groups.length === 0) return r;
+  const ru = u.units.rate;
+  const rN = nutrientRateUnit(ru);
+  r = tableHeading(
+    ws,
+    r,
+    'The regional rate per group of sites (each group averaged on its own; each group has a grower page)',
+    [
+      'Grouped by',
+      'Group',
+      'Sites',
+      `Regional rate (${rN})`,
+      `Profitable low (${rN})`,
+      `Profitable high (${rN})`,
+      `Rate interval low (${rN})`,
+      `Rate interval high (${rN})`,
+    ],
+    titles,
+  );
+  const rate = (kgHa: number | null | undefined) => (kgHa == null ? null : u.rate(kgHa));
+  for (const g of groups) {
+    for (const v of g.values) {
+      const row = ws.getRow(r++);
+      row.values = [
+        g.key,
+        v.value,
+        v.sites.join(', '),
+        rate(v.bestRateKgHa),
+        rate(v.profitableRangeKgHa?.[0]),
+        rate(v.profitableRangeKgHa?.[1]),
+        rate(v.bestRateIntervalKgHa?.[0]),
+        rate(v.bestRateIntervalKgHa?.[1]),
+      ];
+      for (let c = 4; c <= 8; c++) row.getCell(c).numFmt = rateFormat(ru);
+    }
+    if (g.differ) {
+      ws.getCell(r, 1).value = g.differ.sentence;
+      titles.add(r++);
+    }
+  }
+  return r;
 }
 
 /** The years-compared table from row r (nothing without a site of several years); the next free row. */
