@@ -115,6 +115,19 @@ describe('a site at multiples of the price ratio', () => {
       expect(one.intervalKgHa).toEqual(priced.interval!.ciKgHa);
     }
   });
+
+  it('computes the rows and the risk once, on first read, and a structured clone carries them', () => {
+    // Read on demand (priceSite's keptOnFirstRead), so a price slider pays only for the sites shown.
+    const s = trial.across.sites.find((x) => x.draws)!;
+    const priced = priceSite(s, prices, {}, LEVEL, TOLERANCE);
+    const rows = priced.priceRatioSensitivity;
+    expect(priced.priceRatioSensitivity).toBe(rows);
+    expect(priced.shortfallRisk).toBe(priced.shortfallRisk);
+    const copy = structuredClone(priced);
+    expect(Object.getOwnPropertyDescriptor(copy, 'priceRatioSensitivity')!.value).toEqual(rows);
+    expect(copy.shortfallRisk).toEqual(priced.shortfallRisk);
+    expect(JSON.parse(JSON.stringify(priced)).priceRatioSensitivity).toEqual(rows);
+  });
 });
 
 describe('the optimum never rises as the price ratio rises (property)', () => {

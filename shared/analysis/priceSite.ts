@@ -241,13 +241,7 @@ export function priceSite(
   }
   const led = { ...lead, model };
   const here = recommendationAt(s, led, fit, prices, level);
-  // The 1× row is the recommendation itself; the other rows ask the same function again.
-  const sensitivity = priceRatioSensitivity(prices, (scaled, m) => {
-    const r = m === 1 ? here : recommendationAt(s, led, fit, scaled, level);
-    return { rateKgHa: recommendedRateKgHa(r.optimum), intervalKgHa: r.interval?.ciKgHa ?? null };
-  });
-  const rates = candidateRates(fit.testedRates.distinctKgHa, recommendedRateKgHa(here.optimum));
-  return {
+  const priced: PricedSite = {
     site: s.site,
     lead,
     optimum: here.optimum,
@@ -258,9 +252,55 @@ export function priceSite(
         : optimumProfileInterval(fit, s.joinProfiles[model] ?? null, prices, level),
     profitableRangeKgHa: profitableRange(s, model, lead.basis, prices, tolerancePerHa),
     acrossModels: optimumAcrossModels(s.fits!.fits, s.fits!.ranking, prices),
-    priceRatioSensitivity: sensitivity,
-    shortfallRisk: s.draws
-      ? shortfallRisk(s.draws, model, resampleBasis(lead), prices, rates, tolerancePerHa)
-      : null,
+    priceRatioSensitivity: null,
+    shortfallRisk: null,
   };
+  // The 1× row is the recommendation itself; the other rows ask the same function again.
+  keptOnFirstRead(priced, 'priceRatioSensitivity', () =>
+    priceRatioSensitivity(prices, (scaled, m) => {
+      const r = m === 1 ? here : recommendationAt(s, led, fit, scaled, level);
+      return { rateKgHa: recommendedRateKgHa(r.optimum), intervalKgHa: r.interval?.ciKgHa ?? null };
+    }),
+  );
+  keptOnFirstRead(priced, 'shortfallRisk', () =>
+    s.draws
+      ? shortfallRisk(
+          s.draws,
+          model,
+          resampleBasis(lead),
+          prices,
+          candidateRates(fit.testedRates.distinctKgHa, recommendedRateKgHa(here.optimum)),
+          tolerancePerHa,
+        )
+      : null,
+  );
+  return priced;
+}
+
+/**
+ * Makes `key` of `target` a value computed when first read, then kept. The price-ratio rows cost
+ * four more bootstrap intervals per site and the risk table one more pass over the resamples,
+ * about three quarters of re-pricing a site; a price slider over many sites pays for them only
+ * on the sites a view reads (the workspace shows one site's table at a time), while the command
+ * line's JSON, the workbook and the report read every one. Enumerable, so JSON, spreads and
+ * structured clones read it like any field.
+ */
+function keptOnFirstRead<T extends object, K extends keyof T>(
+  target: T,
+  key: K,
+  compute: () => T[K],
+): void {
+  let value: T[K] | undefined;
+  let read = false;
+  Object.defineProperty(target, key, {
+    enumerable: true,
+    configurable: true,
+    get(): T[K] {
+      if (!read) {
+        value = compute();
+        read = true;
+      }
+      return value as T[K];
+    },
+  });
 }
