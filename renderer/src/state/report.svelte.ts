@@ -15,6 +15,7 @@ import { resultsJsonText } from '../../../shared/report/resultsJson';
 import { mappingEntries } from '../../../shared/import/mappingEntries';
 import { reportDisplay } from '../analysis/reportInput';
 import { APP_VERSION } from '../lib/appVersion';
+import { loadPlotly } from '../lib/loadPlotly';
 import { plotlyFromSpec } from '../lib/plotlyFromSpec';
 import type { FileBridge } from '../lib/fileBridge';
 import type { Analysis } from './analysis.svelte';
@@ -41,8 +42,8 @@ function nowIso(): string {
 }
 
 async function chartPng(spec: ChartSpec): Promise<SheetImage> {
-  // Loaded on first export, so this state class stays importable where there is no DOM (tests).
-  const { default: Plotly } = await import('plotly.js-dist-min');
+  // Loaded on first use, so this state class stays importable where there is no DOM (tests).
+  const Plotly = await loadPlotly();
   const { data, layout } = plotlyFromSpec(spec);
   const url = await Plotly.toImage(
     { data, layout: { ...layout, width: spec.widthPx, height: spec.heightPx } },

@@ -7,7 +7,7 @@ import { readTrialFile } from '../../../shared/import/readTrialFile';
 import type { JobContext, JobHandler } from '../lib/workerProtocol';
 import { analyzeTable, type AnalysisInput, type AnalysisOutput } from '../analysis/siteAnalysis';
 import type { TrialReport } from '../../../shared/report/trialReport';
-import { writeWorkbook, type WorkbookOptions } from '../../../shared/report/workbook';
+import type { WorkbookOptions } from '../../../shared/report/workbook';
 
 /** One file's outcome: its sheets, or the message to show where the user is looking. */
 export type ReadOutcome =
@@ -58,6 +58,9 @@ export async function workbook(
   ctx: JobContext,
 ): Promise<Uint8Array> {
   await ctx.progress(0, 1, 'writing the workbook');
+  // The workbook writer (exceljs, most of this worker's code) is loaded on the first export, so
+  // the worker starts reading and fitting without evaluating it.
+  const { writeWorkbook } = await import('../../../shared/report/workbook');
   return writeWorkbook(input.report, input.options);
 }
 
