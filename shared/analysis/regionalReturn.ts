@@ -26,7 +26,7 @@
  *   highest rate with `contiguous: false`;
  * - a site optimum is the grid rate with the highest R_s (lowest on ties).
  */
-import { assertPrices, type Prices } from '../economics/priceRatio';
+import { assertPrices, rateCostPerHa, type Prices } from '../economics/priceRatio';
 import { sortedQuantile } from '../stats/quantile';
 import { toleranceInForce } from '../economics/shortfallRule';
 import { SitesInputError } from './sitesInputError';
@@ -141,12 +141,8 @@ export function prepareRegionalReturn(
  * @example costOnGrid(Float64Array.of(0, 100), { grainPricePerKg: 0.2, nutrientPricePerKg: 1, applicationCostPerHa: 10 }) // [0, 110]
  */
 export function costOnGrid(gridKgHa: Float64Array, prices: Prices): Float64Array {
-  const app = prices.applicationCostPerHa ?? 0;
   const cost = new Float64Array(gridKgHa.length);
-  for (let j = 0; j < cost.length; j++) {
-    const x = gridKgHa[j];
-    cost[j] = prices.nutrientPricePerKg * x + (x > 0 ? app : 0);
-  }
+  for (let j = 0; j < cost.length; j++) cost[j] = rateCostPerHa(prices, gridKgHa[j]);
   return cost;
 }
 
@@ -223,13 +219,10 @@ export function profitableRangeAtPrices(
     return { bandPerHa, lowKgHa: NaN, highKgHa: NaN, contiguous: true };
   if (returnScratch.length < g) returnScratch = new Float64Array(g);
   const meanReturnPerHa = returnScratch.subarray(0, g);
-  const { grainPricePerKg: pg, nutrientPricePerKg: pn } = prices;
-  const app = prices.applicationCostPerHa ?? 0;
-  // The cost as costOnGrid has it, term for term, so the returns are the same doubles.
-  for (let j = 0; j < g; j++) {
-    const x = gridKgHa[j];
-    meanReturnPerHa[j] = pg * meanGainKgHa[j] - (pn * x + (x > 0 ? app : 0));
-  }
+  const pg = prices.grainPricePerKg;
+  // The cost as costOnGrid has it, so the returns are the same doubles.
+  for (let j = 0; j < g; j++)
+    meanReturnPerHa[j] = pg * meanGainKgHa[j] - rateCostPerHa(prices, gridKgHa[j]);
   const best = argMaxLowest(meanReturnPerHa);
   return { bandPerHa, ...bandAroundBest(meanReturnPerHa, gridKgHa, best, bandPerHa) };
 }

@@ -13,6 +13,7 @@
  * shortfall risk from its resamples, shared/economics/shortfallRisk). The comparison itself is
  * shareFallingShort, the same as the sites'.
  */
+import { rateCostPerHa } from '../economics/priceRatio';
 import { candidateRates, shareFallingShort, type ShortfallRisk } from '../economics/shortfallRule';
 import type { PreparedRegionalReturn, RegionalReturn } from './regionalReturn';
 
@@ -43,16 +44,13 @@ export function regionalShortfallRisk(
     const k = tested.indexOf(x);
     return k >= 0 ? atTested.gains.map((g) => g[k]) : prepared.gains.map((g) => g[bestIndex]);
   });
-  const { grainPricePerKg: pg, nutrientPricePerKg: pn } = regional.prices;
-  const app = regional.prices.applicationCostPerHa ?? 0;
+  const pg = regional.prices.grainPricePerKg;
   const r = rates.length;
   const best = Float64Array.from(regional.siteOptima, (o) => o.returnPerHa);
   const returns = new Float64Array(sites * r);
   for (let s = 0; s < sites; s++) {
-    for (let j = 0; j < r; j++) {
-      const x = rates[j];
-      returns[s * r + j] = pg * columns[j][s] - pn * x - (x > 0 ? app : 0);
-    }
+    for (let j = 0; j < r; j++)
+      returns[s * r + j] = pg * columns[j][s] - rateCostPerHa(regional.prices, rates[j]);
   }
   const shares = shareFallingShort(best, returns, r, tolerancePerHa);
   return {

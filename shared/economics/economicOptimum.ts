@@ -19,7 +19,7 @@ import { MODEL_CURVES } from '../models/curves';
 import { curveValue } from '../models/curveValue';
 import type { CurveSummary, ModelFit, ModelName } from '../models/modelTypes';
 import { KG_HA_FORMAT, rateRangeText, rateText, type RateFormat } from '../models/rateFormat';
-import { assertPrices, type Prices } from './priceRatio';
+import { assertPrices, rateCostPerHa, type Prices } from './priceRatio';
 import { recommendationCautions } from './recommendationCautions';
 
 /**
@@ -80,8 +80,7 @@ export function netReturn(
   rateKgHa: number,
 ): number {
   const y = curveValue(fit.model, fit.params, rateKgHa);
-  const app = rateKgHa > 0 ? (prices.applicationCostPerHa ?? 0) : 0;
-  return prices.grainPricePerKg * y - prices.nutrientPricePerKg * rateKgHa - app;
+  return prices.grainPricePerKg * y - rateCostPerHa(prices, rateKgHa);
 }
 
 /**
@@ -169,8 +168,7 @@ export function optimumCore(fit: CurveSummary, prices: Prices): OptimumCore {
     const plateau = last >= 0 ? drawn!.yieldKgHa[last] : NaN;
     if (!Number.isFinite(atHigh) && Number.isFinite(plateau) && drawn!.rateKgHa[0] === 0) {
       zero = prices.grainPricePerKg * drawn!.yieldKgHa[0];
-      atHigh = prices.grainPricePerKg * plateau - prices.nutrientPricePerKg * high;
-      atHigh -= high > 0 ? (prices.applicationCostPerHa ?? 0) : 0;
+      atHigh = prices.grainPricePerKg * plateau - rateCostPerHa(prices, high);
     }
     if (!(atHigh > zero)) {
       const c = core(fit, pr, 'full-response-does-not-pay', 'zero', 0);

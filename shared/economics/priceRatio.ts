@@ -52,3 +52,19 @@ export function priceRatio(prices: Prices): number {
   assertPrices(prices);
   return prices.nutrientPricePerKg / prices.grainPricePerKg;
 }
+
+/**
+ * What a rate costs per hectare: the nutrient at its price, plus the application cost when any
+ * is applied. The one place the cost of a rate is written, so every net return (a site's curve,
+ * the regional grid, the risk tables) subtracts the same doubles.
+ * @param prices - canonical prices (assumed checked)
+ * @param rateKgHa - the rate, kg/ha
+ * @returns currency/ha
+ * @example
+ * rateCostPerHa({ grainPricePerKg: 0.2, nutrientPricePerKg: 1, applicationCostPerHa: 10 }, 100) // 110
+ */
+export function rateCostPerHa(prices: Prices, rateKgHa: number): number {
+  return (
+    prices.nutrientPricePerKg * rateKgHa + (rateKgHa > 0 ? (prices.applicationCostPerHa ?? 0) : 0)
+  );
+}

@@ -36,7 +36,7 @@ import type { CurveSummary, ModelName } from '../models/modelTypes';
 import { drawSummaries, type BootstrapDraws } from './bootstrapDraws';
 import { countedOptimum } from './countedOptimum';
 import { decidingModels, type IntervalBasis } from './drawChoices';
-import { assertPrices, type Prices } from './priceRatio';
+import { assertPrices, rateCostPerHa, type Prices } from './priceRatio';
 import { assertTolerance, shareFallingShort, type ShortfallRisk } from './shortfallRule';
 
 /**
@@ -101,9 +101,8 @@ export function shortfallRisk(
   const choices = decidingModels(draws, model, basis);
   if (!choices || draws.resamples === 0) return null;
   const readers = choices.models.map((m) => drawSummaries(draws, m)!);
-  const { grainPricePerKg: pg, nutrientPricePerKg: pn } = prices;
-  const app = prices.applicationCostPerHa ?? 0;
-  const cost = ratesKgHa.map((x) => pn * x + (x > 0 ? app : 0));
+  const pg = prices.grainPricePerKg;
+  const cost = ratesKgHa.map((x) => rateCostPerHa(prices, x));
   const r = ratesKgHa.length;
   const k = choices.models.length;
   // One unit per resample and candidate model with weight (the interval's mixture): a
@@ -117,7 +116,7 @@ export function shortfallRisk(
     readGain(fit, g);
     // A resample read as no usable fit is counted as no response (rate 0), as the interval does.
     const x = g.kind === 'none' ? 0 : countedOptimum(fit, prices).rateKgHa;
-    best[u] = pg * gainAt(fit, g, x) - pn * x - (x > 0 ? app : 0);
+    best[u] = pg * gainAt(fit, g, x) - rateCostPerHa(prices, x);
     for (let j = 0; j < r; j++) returns[u * r + j] = pg * gainAt(fit, g, ratesKgHa[j]) - cost[j];
     weight[u] = w;
   };
