@@ -33,7 +33,11 @@ import type { DisplaySettings } from '../shared/report/reportSettings';
 import { siteResponseChart } from '../shared/report/siteResponseChart';
 import { unitScale } from '../shared/report/unitScale';
 import type { SiteReport, TrialReport } from '../shared/report/trialReport';
-import { bestLevelSentence, levelTestSentence } from '../shared/report/levelSentences';
+import {
+  bestLevelSentence,
+  levelMixedSentence,
+  levelTestSentence,
+} from '../shared/report/levelSentences';
 import type { SheetImage } from '../shared/report/workbookSite';
 import { displayUnits, type DisplayUnits } from '../shared/units/displayUnits';
 import { formatQuantity } from '../shared/units/formatQuantity';
@@ -301,6 +305,9 @@ function summary(report: TrialReport): string[] {
       `Across ${a.sites.length} ${units}: ${rate(a.bestRateKgHa)}, profitable from ${rate(a.profitableRangeKgHa[0])} to ${rate(a.profitableRangeKgHa[1])}.`,
     );
   }
+  // The regional model by level, where some factor has the 4 site-years it needs.
+  for (const m of report.levelMixed.filter((l) => l.fit !== null))
+    lines.push(levelMixedSentence(m, { rate: (v) => rate(v) }));
   for (const c of report.yearsCompared) lines.push(`Years compared: ${c.sentence}`);
   for (const w of report.warnings) lines.push(`Note: ${w}`);
   return lines;

@@ -8,6 +8,7 @@ import type { RateProfileInterval } from '../models/joinProfile';
 import type { ModelName, FitStatus } from '../models/modelTypes';
 import type {
   FTestNumbers,
+  LevelMixedReport,
   MixedModelReport,
   ShortfallSummary,
   SiteLevelsReport,
@@ -15,6 +16,7 @@ import type {
   TrialReport,
 } from './trialReport';
 import { priceRatioQuote } from '../economics/priceQuote';
+import { levelMixedSentence } from './levelSentences';
 import { unitScale, type UnitScale } from './unitScale';
 
 export interface ResultsModel {
@@ -259,6 +261,11 @@ export interface ResultsJson {
     }[];
     /** The regional quadratic mixed model (REML), output units; null without one. */
     mixed: ResultsMixedModel | null;
+    /**
+     * Per treatment factor found at some site (source, timing…): the regional quadratic with the
+     * level as a fixed effect over the site-years that have the factor; empty without a factor.
+     */
+    levelMixed: ResultsLevelMixedModel[];
   } | null;
   /**
    * Each site seen in several years, its years compared (F statistics have no unit); empty
@@ -273,6 +280,42 @@ export interface ResultsJson {
     responseDiffers: boolean | null;
     sentence: string;
   }[];
+}
+
+/**
+ * The regional model by level in the results file (output units): one intercept `a` (the shared
+ * zero-rate check) and per level its own `b` and `c`, random site-year effects on a, b, c as the
+ * regional quadratic has (REML); each level's optimum at its own price ratio with its
+ * delta-method interval at `ciLevel`; and whether the levels share one regional curve:
+ * `likelihoodRatio` (ML fits, the headline; `differ` reads it at alpha 0.05) and `wald` (REML),
+ * each χ² with its df. `model` null: no model, `reason` says why, the other fields null or empty.
+ */
+export interface ResultsLevelMixedModel {
+  factor: string;
+  model: 'quadratic-by-level' | null;
+  reason: string | null;
+  structure: string | null;
+  siteYears: number | null;
+  blockOffsets: boolean | null;
+  levels: {
+    level: string;
+    siteYears: number;
+    fixed: Record<'a' | 'b' | 'c', number>;
+    stdErrors: Record<'a' | 'b' | 'c', number>;
+    priceRatio: number;
+    ownNutrientPrice: boolean;
+    optimumRate: number;
+    optimumCI: [number, number] | null;
+  }[];
+  /** The one regional curve for every level (ML), for comparison. */
+  oneCurve: Record<'a' | 'b' | 'c', number> | null;
+  variance: { siteYear: number[][]; residual: number } | null;
+  likelihoodRatio: { chiSquare: number; df: number; p: number } | null;
+  wald: { chiSquare: number; df: number; p: number } | null;
+  differ: boolean | null;
+  ciLevel: number | null;
+  method: string | null;
+  sentence: string;
 }
 
 /** The regional mixed model in the results file (rates and yields in the output units). */
@@ -536,6 +579,7 @@ export function resultsJson(report: TrialReport): ResultsJson {
               }
             : null,
           mixed: report.acrossSites.mixed ? mixedJson(report.acrossSites.mixed, u, fy2) : null,
+          levelMixed: report.levelMixed.map((m) => levelMixedJson(m, u, fy2, perN)),
           groups: report.acrossSites.groups.map((g) => ({
             key: g.key,
             values: g.values.map((v) => ({
@@ -597,6 +641,69 @@ function mixedJson(m: MixedModelReport, u: UnitScale, fy2: number): ResultsMixed
     level: m.optimum.level,
     method: m.optimum.method,
     aic: clean(m.fit.aic + m.fit.observations * Math.log(fy2)),
+  };
+}
+
+/** The regional model by level in output units (coefficients scale as the quadratic's). */
+function levelMixedJson(
+  m: LevelMixedReport,
+  u: UnitScale,
+  fy2: number,
+  perN: (kgPerKg: number) => number,
+): ResultsLevelMixedModel {
+  const names = ['a', 'b', 'c'] as const;
+  const f = names.map((k) => u.param('quadratic', k, 1));
+  const per = (v: { a: number; b: number; c: number }) =>
+    Object.fromEntries(names.map((k, i) => [k, clean(v[k] * f[i])])) as Record<
+      'a' | 'b' | 'c',
+      number
+    >;
+  const chi = (t: { statistic: number; df: number; p: number }) => ({
+    chiSquare: clean(t.statistic),
+    df: t.df,
+    p: clean(t.p),
+  });
+  const fit = m.fit;
+  const sentence = levelMixedSentence(m, {
+    rate: (r) => `${Math.round(u.rate(r))} ${u.units.rate}`,
+  });
+  return {
+    factor: m.factor,
+    model: fit ? fit.model : null,
+    reason: m.reason,
+    structure: fit?.structure ?? null,
+    siteYears: fit?.siteYears ?? null,
+    blockOffsets: fit?.blockOffsets ?? null,
+    levels: fit
+      ? fit.levels.map((c, k) => {
+          const o = m.levels[k]?.optimum;
+          return {
+            level: c.level,
+            siteYears: c.siteYears,
+            fixed: per(c.fixed),
+            stdErrors: per(c.stdErrors),
+            priceRatio: perN(m.levels[k]?.priceRatio ?? NaN),
+            ownNutrientPrice: m.levels[k]?.ownNutrientPrice ?? false,
+            optimumRate: clean(u.rate(o?.rateKgHa ?? NaN)),
+            optimumCI: o?.interval
+              ? [clean(u.rate(o.interval.lowKgHa)), clean(u.rate(o.interval.highKgHa))]
+              : null,
+          };
+        })
+      : [],
+    oneCurve: fit ? per(fit.oneCurve) : null,
+    variance: fit
+      ? {
+          siteYear: fit.siteCovariance.map((row, i) => row.map((v, j) => clean(v * f[i] * f[j]))),
+          residual: clean(fit.residualVariance * fy2),
+        }
+      : null,
+    likelihoodRatio: fit ? chi(fit.likelihoodRatio) : null,
+    wald: fit ? chi(fit.wald) : null,
+    differ: fit ? fit.likelihoodRatio.p < m.alpha : null,
+    ciLevel: m.levels[0]?.optimum.level ?? null,
+    method: m.levels[0]?.optimum.method ?? null,
+    sentence,
   };
 }
 
