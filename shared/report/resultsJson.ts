@@ -175,6 +175,9 @@ export interface ResultsLevelTest {
   blocks: 'fixed' | 'none';
   quadratic: FTestNumbers | null;
   linear: FTestNumbers | null;
+  /** The same tests with the plateau models (joins profiled; nls-style nested F test). */
+  quadraticPlateau: FTestNumbers | null;
+  linearPlateau: FTestNumbers | null;
   differ: boolean | null;
   sentence: string;
   best: string | null;
@@ -737,6 +740,9 @@ function levelTestJson(f: SiteLevelsReport, u: UnitScale, moneyUnit: string): Re
     blocks: f.test.blocks,
     quadratic: numbers(q),
     linear: numbers(f.test.linear.result),
+    // Saved analyses from before the plateau tests have none: null, as for no test.
+    quadraticPlateau: f.test.quadraticPlateau ? numbers(f.test.quadraticPlateau.result) : null,
+    linearPlateau: f.test.linearPlateau ? numbers(f.test.linearPlateau.result) : null,
     differ: q.kind === 'f-test' ? q.p < f.test.alpha : null,
     sentence: f.test.quadratic.sentence,
     best: f.comparison.best,

@@ -52,11 +52,13 @@ function siteBlock(
   r = tableHeading(
     ws,
     r,
-    'Do the levels respond differently? One curve per level against one for all, the zero-rate check shared (weighted by 1/fitted yield²)',
+    'Do the levels respond differently? One curve per level against one for all, the zero-rate check shared (weighted by 1/fitted yield²; plateau joins profiled)',
     ['Curve', 'F', 'df1', 'df2', 'p', 'Reading'],
     titles,
   );
-  for (const t of [f.test.quadratic, f.test.linear]) {
+  // Analyses saved before the plateau tests existed have only the first two.
+  const tests = [f.test.quadratic, f.test.linear, f.test.quadraticPlateau, f.test.linearPlateau];
+  for (const t of tests.filter((x) => x !== undefined)) {
     const res = t.result;
     ws.getRow(r).values =
       res.kind === 'f-test'
