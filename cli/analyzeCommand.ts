@@ -293,6 +293,7 @@ function summary(report: TrialReport): string[] {
     for (const f of report.levels.filter((l) => l.site === s.site)) {
       for (const l of f.levels) lines.push(`  ${f.factor} ${l.level}: ${siteText(l.report)}`);
       lines.push(`  ${levelTestSentence(f)}`);
+      for (const c of f.test.crossings ?? []) lines.push(`  ${c.message}`);
       lines.push(`  ${bestLevelSentence(f, { rate: (v) => rate(v), money })}`);
     }
   }

@@ -57,6 +57,22 @@ export interface LevelCurveTest {
   joinsKgHa?: { common: number; perLevel: number[] };
 }
 
+/** How a factor's levels meet another factor's at one site (factorCrossing). */
+export type FactorRelation = 'same-treatments' | 'nested' | 'crossed' | 'partly-crossed';
+
+/** One other factor at the same site, and what that means for this factor's test. */
+export interface FactorCrossing {
+  /** The other factor's column header. */
+  other: string;
+  relation: FactorRelation;
+  /** Combinations of the two factors' levels among the fertilized plots. */
+  cells: number;
+  /** What the relation means for reading the tests, in plain words. */
+  message: string;
+  /** Crossed only: this factor's quadratic test with the other's curves in both models. */
+  adjusted: LevelCurveTest | null;
+}
+
 /** Whether a site's levels differ in their response to N. */
 export interface LevelResponseTests {
   factor: string;
@@ -72,6 +88,8 @@ export interface LevelResponseTests {
   linearPlateau: LevelCurveTest;
   /** Fertilized plots left out because their factor cell is blank. */
   plotsWithoutLevel: string[];
+  /** Every other factor at the site and how it meets this one (trialLevels fills it); [] alone. */
+  crossings: FactorCrossing[];
   /** The significance level the sentences read the tests at. */
   alpha: number;
 }
@@ -93,7 +111,7 @@ function readings(model: LevelTestModel, factor: string): TestReadings {
 }
 
 /** The block (or intercept) columns of the plots kept. */
-function levelColumns(blocks: (string | null)[], fixed: boolean): Float64Array[] {
+export function levelColumns(blocks: (string | null)[], fixed: boolean): Float64Array[] {
   const n = blocks.length;
   if (!fixed) return [new Float64Array(n).fill(1)];
   const labels = [...new Set(blocks)];
@@ -246,6 +264,7 @@ export function levelResponseTests(
     quadraticPlateau: test('quadraticPlateau'),
     linearPlateau: test('linearPlateau'),
     plotsWithoutLevel: [...split.withoutLevel],
+    crossings: [],
     alpha,
   };
 }

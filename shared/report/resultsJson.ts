@@ -145,6 +145,8 @@ export interface ResultsSite {
   levels: ResultsLevel[];
   /** Whether the levels differ and which returns most (first factor); null for a rate-only site. */
   levelTest: ResultsLevelTest | null;
+  /** The same for every factor at the site, in the table's factor order (levelTest is the first). */
+  levelTests: ResultsLevelTest[];
 }
 
 /** One treatment level of a site in the results file. */
@@ -178,6 +180,20 @@ export interface ResultsLevelTest {
   /** The same tests with the plateau models (joins profiled; nls-style nested F test). */
   quadraticPlateau: FTestNumbers | null;
   linearPlateau: FTestNumbers | null;
+  /**
+   * Every other factor at the site: how its levels meet this one's (`relation`: same-treatments,
+   * nested, crossed, partly-crossed; `cells`: level combinations present), what that means
+   * (`message`), and when crossed this factor's quadratic test with one curve per level of the
+   * other in both models (`adjusted`, with `adjustedSentence`); [] with one factor.
+   */
+  crossings: {
+    other: string;
+    relation: string;
+    cells: number;
+    message: string;
+    adjusted: FTestNumbers | null;
+    adjustedSentence: string | null;
+  }[];
   differ: boolean | null;
   sentence: string;
   best: string | null;
@@ -545,6 +561,7 @@ export function resultsJson(report: TrialReport): ResultsJson {
         })),
       ),
       levelTest: levelsOf(s.site).map((f) => levelTestJson(f, u, moneyUnit))[0] ?? null,
+      levelTests: levelsOf(s.site).map((f) => levelTestJson(f, u, moneyUnit)),
     })),
     acrossSites: report.acrossSites
       ? {
@@ -743,6 +760,14 @@ function levelTestJson(f: SiteLevelsReport, u: UnitScale, moneyUnit: string): Re
     // Saved analyses from before the plateau tests have none: null, as for no test.
     quadraticPlateau: f.test.quadraticPlateau ? numbers(f.test.quadraticPlateau.result) : null,
     linearPlateau: f.test.linearPlateau ? numbers(f.test.linearPlateau.result) : null,
+    crossings: (f.test.crossings ?? []).map((c) => ({
+      other: c.other,
+      relation: c.relation,
+      cells: c.cells,
+      message: c.message,
+      adjusted: c.adjusted ? numbers(c.adjusted.result) : null,
+      adjustedSentence: c.adjusted?.sentence ?? null,
+    })),
     differ: q.kind === 'f-test' ? q.p < f.test.alpha : null,
     sentence: f.test.quadratic.sentence,
     best: f.comparison.best,

@@ -49,6 +49,15 @@ function siteBlock(
   titles.add(r++);
   ws.getCell(r, 1).value = levelTestSentence(f);
   titles.add(r++);
+  // Another factor at the same site: how it meets this one, and (crossed) the adjusted test.
+  for (const c of f.test.crossings ?? []) {
+    ws.getCell(r, 1).value = c.message;
+    titles.add(r++);
+    if (c.adjusted) {
+      ws.getCell(r, 1).value = c.adjusted.sentence;
+      titles.add(r++);
+    }
+  }
   r = tableHeading(
     ws,
     r,
