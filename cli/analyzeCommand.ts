@@ -27,7 +27,8 @@ import { describeRef } from '../shared/table/qualityFinding';
 import { analyzablePlots } from '../shared/table/plotTable';
 import { siteYearsOf } from '../shared/table/siteYear';
 import { assembleReport } from '../shared/report/assembleReport';
-import { growerPageChart, reportRegionalChart } from '../shared/report/growerPageChart';
+import { reportRegionalChart } from '../shared/report/growerPageChart';
+import { levelChartKey, levelCurvesChart } from '../shared/report/levelCurvesChart';
 import { resultsJsonText } from '../shared/report/resultsJson';
 import type { DisplaySettings } from '../shared/report/reportSettings';
 import { siteResponseChart } from '../shared/report/siteResponseChart';
@@ -218,13 +219,17 @@ async function drawCharts(
   sites: Record<string, SheetImage>;
   /** A grower page's own chart where it is not the site's (a rate × factor site's levels). */
   pages: Record<string, SheetImage>;
+  /** Each rate × factor site's levels chart, by levelChartKey(site, factor). */
+  levels: Record<string, SheetImage>;
   region: SheetImage | null;
 }> {
   const drawn = report.sites.length <= siteChartLimit ? report.sites : [];
   const specs = drawn.map((s) => siteResponseChart(report, s));
-  // The grower page of a site with levels carries the levels' chart (growerPageChart).
-  const withLevels = drawn.filter((s) => report.levels.some((l) => l.site === s.site));
-  for (const s of withLevels) specs.push(growerPageChart(report, s.site)!);
+  // Every rate × factor site's levels chart: on its factor's sheet, and the first factor's on
+  // the site's grower page (growerPageChart draws that one).
+  const names = new Set(drawn.map((s) => s.site));
+  const levelSites = report.levels.filter((l) => names.has(l.site));
+  for (const l of levelSites) specs.push(levelCurvesChart(report, l, null));
   const rs = reportRegionalChart(report);
   if (rs) specs.push(rs);
   // Print sharpness (2×) for a report someone reads page by page; 1× past 100 sites keeps a big run small.
@@ -246,10 +251,16 @@ async function drawCharts(
   const sites: Record<string, SheetImage> = {};
   drawn.forEach((s, i) => (sites[s.site] = image(i)));
   const pages: Record<string, SheetImage> = {};
-  withLevels.forEach((s, i) => (pages[s.site] = image(drawn.length + i)));
+  const levels: Record<string, SheetImage> = {};
+  levelSites.forEach((l, i) => {
+    const picture = image(drawn.length + i);
+    levels[levelChartKey(l.site, l.factor)] = picture;
+    pages[l.site] ??= picture;
+  });
   return {
     sites,
     pages,
+    levels,
     region: rs ? { png: pngs[pngs.length - 1], widthPx: rs.widthPx, heightPx: rs.heightPx } : null,
   };
 }
@@ -338,7 +349,7 @@ export async function analyzeCommand(
   const charts =
     args.out || args.pdf
       ? await drawCharts(report, args.siteChartLimit, log)
-      : { sites: {}, pages: {}, region: null };
+      : { sites: {}, pages: {}, levels: {}, region: null };
   // Every output goes to a temporary file first and all are renamed together at the end, so a
   // run leaves all of them or none (a failure, or SIGINT/SIGTERM, removes the temporaries). The
   // workbook and the PDF are streamed into theirs, a sheet or a page at a time.
@@ -354,6 +365,7 @@ export async function analyzeCommand(
           {
             siteCharts: charts.sites,
             acrossChart: charts.region,
+            levelCharts: charts.levels,
             // Fast deflate for big runs: most bytes are PNGs that do not shrink further.
             zipLevel: report.sites.length > 100 ? 1 : undefined,
           },

@@ -12,9 +12,11 @@
 import type ExcelJS from 'exceljs';
 import { recommendationCautions } from '../economics/recommendationCautions';
 import { KG_PER_LB } from '../units/unitConstants';
+import { levelChartKey } from './levelCurvesChart';
 import { levelMixedSentence, levelTestSentence } from './levelSentences';
 import type { LevelMixedReport, SiteLevelsReport, TrialReport } from './trialReport';
 import type { UnitScale } from './unitScale';
+import type { SheetImage } from './workbookSite';
 import {
   P_VALUE_FORMAT,
   fitColumns,
@@ -32,13 +34,21 @@ export function levelsSheetTitle(factor: string): string {
   return `Levels by ${factor}`;
 }
 
+/** The levels chart's width on the sheet, px (print-sharp from a 2× picture). */
+const CHART_WIDTH_PX = 560;
+/** exceljs's default row height, 15 pt, in px: how many rows a picture covers. */
+const ROW_PX = 20;
+
 function siteBlock(
+  wb: ExcelJS.Workbook,
   ws: ExcelJS.Worksheet,
   r: number,
   f: SiteLevelsReport,
   u: UnitScale,
   titles: Set<number>,
+  chart: SheetImage | null,
 ): number {
+  const start = r;
   const ru = u.units.rate;
   const rN = ru.replace('/', ' N/');
   const money = `money/${u.areaName}`;
@@ -147,6 +157,17 @@ function siteBlock(
     for (const k of [5, 6, 7]) ws.getCell(r, k).numFmt = '0.00';
     r++;
   }
+  if (chart) {
+    // The levels' curves with the shared check (levelCurvesChart), right of the site's tables;
+    // the block is made as tall as the picture so the next site's picture does not overlap it.
+    const id = wb.addImage({ buffer: chart.png as never, extension: 'png' });
+    const height = (CHART_WIDTH_PX * chart.heightPx) / chart.widthPx;
+    ws.addImage(id, {
+      tl: { col: 9.2, row: start - 1 },
+      ext: { width: CHART_WIDTH_PX, height },
+    });
+    r = Math.max(r, start + Math.ceil(height / ROW_PX));
+  }
   return r + 1;
 }
 
@@ -235,6 +256,7 @@ function regionalBlock(
  * @param report - the analysis (its `levels`)
  * @param u - display-unit converters
  * @param paper - paper for printing
+ * @param charts - each site's levels chart by levelChartKey (PNG drawn by the caller); none: no pictures
  * @returns the sheet
  */
 export function workbookLevels(
@@ -244,6 +266,7 @@ export function workbookLevels(
   report: TrialReport,
   u: UnitScale,
   paper: 'letter' | 'a4',
+  charts: Readonly<Record<string, SheetImage>> = {},
 ): ExcelJS.Worksheet {
   const ws = wb.addWorksheet(name);
   ws.getCell('A1').value =
@@ -252,7 +275,7 @@ export function workbookLevels(
   const titles = new Set<number>([1]);
   let r = 3;
   for (const f of report.levels.filter((l) => l.factor === factor))
-    r = siteBlock(ws, r, f, u, titles);
+    r = siteBlock(wb, ws, r, f, u, titles, charts[levelChartKey(f.site, factor)] ?? null);
   for (const m of (report.levelMixed ?? []).filter((l) => l.factor === factor))
     r = regionalBlock(ws, r, m, u, titles);
   for (const c of recommendationCautions) {
