@@ -17,7 +17,9 @@
  * - Wald: the REML estimates' contrasts Cβ with their covariance, (Cβ)ᵀ(C·Cov·Cᵀ)⁻¹(Cβ) against
  *   the same χ².
  * Both are asymptotic and read liberal with few site-years (Pinheiro & Bates §2.4.2 show the
- * likelihood-ratio test anti-conservative for fixed effects); the sentence says so.
+ * likelihood-ratio test anti-conservative for fixed effects). Measured on simulated rate × timing
+ * regions with equal timings (`npm run validate`, 400 regions each): 6.5 % declared different at
+ * 5 % with 4 site-years, 5.0 % with 8, the Wald test the same; the sentence cautions below 8.
  *
  * Choices shared with regionalMixedModel (its header says why): rates divided by the highest rate
  * tested (u = x / s), back-transformed exactly (REML log-likelihood shifted by −(L·1 + L·2)·ln s,

@@ -101,10 +101,12 @@ export function levelMixedSentence(m: LevelMixedReport, fmt: Pick<LevelFormat, '
     t.p < m.alpha
       ? `Across ${fit.siteYears} site-years, the regional curves of the ${m.factor} levels differ (${stat}).`
       : `Across ${fit.siteYears} site-years, the ${m.factor} levels do not differ detectably in their regional curve (${stat}).`;
-  // Pinheiro & Bates (2000, §2.4.2): the likelihood-ratio test of fixed effects is liberal with few groups.
+  // Pinheiro & Bates (2000, §2.4.2): the likelihood-ratio test of fixed effects is liberal with
+  // few groups. Measured (`npm run validate`, 400 regions of equal timings): 6.5 % declared
+  // different at 5 % with 4 site-years, 5.0 % with 8.
   const few =
-    fit.siteYears < 20
-      ? ' With this few site-years the test reads on the liberal side (it finds differences a little too readily).'
+    fit.siteYears < 8
+      ? ' With this few site-years the test finds differences a little too readily.'
       : '';
   const rates = m.levels.map((l) => {
     const o = l.optimum;
