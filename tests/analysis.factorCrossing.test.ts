@@ -9,6 +9,9 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { analysisSettings } from '../shared/analysis/analysisSettings';
 import { analyzeTrial, type TrialAnalysis } from '../shared/analysis/analyzeTrial';
 import type { LevelCurveTest } from '../shared/analysis/levelResponseTest';
+import { factorCrossing } from '../shared/analysis/factorCrossing';
+import { splitSiteLevels } from '../shared/analysis/siteLevels';
+import type { SitePlots } from '../shared/analysis/sitePlots';
 import { importFiles } from '../shared/import/importFiles';
 import { resultsJson } from '../shared/report/resultsJson';
 import type { PlotTable } from '../shared/table/plotTable';
@@ -135,5 +138,41 @@ describe('two factors at one site', () => {
       (x) => x.site === 'Wicken Lane' && x.factor === 'timing' && x.test === 'adjusted',
     )!;
     near(c.adjusted!.F, Number(r.F), 1e-7);
+  });
+
+  it('names a factor nested in another (products within sources), with no adjusted test', () => {
+    // Three products, two of them urea-based: each product goes with one source, not back.
+    const product = [
+      '',
+      'Urea 46',
+      'Urea 46',
+      'Stabilised urea',
+      'Stabilised urea',
+      'UAN 28',
+      'UAN 28',
+    ];
+    const source = ['', 'Urea', 'Urea', 'Urea', 'Urea', 'UAN', 'UAN'];
+    const site: SitePlots = {
+      site: 'Heron Mead',
+      year: 2025,
+      siteName: 'Heron Mead',
+      rateKgHa: Float64Array.from([0, 60, 120, 60, 120, 60, 120]),
+      yieldKgHa: Float64Array.from([8000, 10000, 11500, 10200, 11800, 9900, 11200]),
+      block: product.map(() => '1'),
+      plotIds: product.map((_, i) => `p${i}`),
+      groups: {},
+      problem: null,
+    };
+    const of = (cells: string[]) => (id: string) => cells[Number(id.slice(1))] || null;
+    const byProduct = splitSiteLevels(site, 'Product', of(product));
+    const bySource = splitSiteLevels(site, 'Source', of(source));
+    const p = factorCrossing(site, byProduct, bySource, 'auto', 0.05);
+    expect(p.relation).toBe('nested');
+    expect(p.cells).toBe(3);
+    expect(p.adjusted).toBeNull();
+    expect(p.message).toBe(
+      'Product levels sit within Source levels at Heron Mead (each Product level with one Source level): the Source test compares groups of Product levels, the Product test the levels one by one.',
+    );
+    expect(factorCrossing(site, bySource, byProduct, 'auto', 0.05).relation).toBe('nested');
   });
 });
