@@ -151,6 +151,15 @@ for (const dataset of ['differ', 'same'] as const) {
         e.fixedCovariance.forEach((row, i) =>
           expect(relative(Math.sqrt(row[i]) * d[i], fit.stdErrors[i])).toBeLessThan(1e-4),
         );
+        // σ² from the profiled residual sum of squares, and Ψ = σ²·TTᵀ back in kg/ha.
+        expect(relative(e.residualVariance, fit.sigma2[0])).toBeLessThan(1e-3);
+        const d3 = [1, 1 / scale, 1 / scale ** 2];
+        expectPsi(
+          e.randomCovariance.map((row, i) => row.map((v, j) => v * d3[i] * d3[j])),
+          fit,
+          scale,
+          e.residualVariance,
+        );
       });
     }
 
