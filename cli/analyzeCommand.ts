@@ -27,13 +27,18 @@ import { describeRef } from '../shared/table/qualityFinding';
 import { analyzablePlots } from '../shared/table/plotTable';
 import { siteYearsOf } from '../shared/table/siteYear';
 import { assembleReport } from '../shared/report/assembleReport';
-import { growerPageChart, reportRegionalChart } from '../shared/report/growerPageChart';
+import { reportRegionalChart } from '../shared/report/growerPageChart';
+import { levelChartKey, levelCurvesChart } from '../shared/report/levelCurvesChart';
 import { resultsJsonText } from '../shared/report/resultsJson';
 import type { DisplaySettings } from '../shared/report/reportSettings';
 import { siteResponseChart } from '../shared/report/siteResponseChart';
 import { unitScale } from '../shared/report/unitScale';
 import type { SiteReport, TrialReport } from '../shared/report/trialReport';
-import { bestLevelSentence, levelTestSentence } from '../shared/report/levelSentences';
+import {
+  bestLevelSentence,
+  levelMixedSentence,
+  levelTestSentence,
+} from '../shared/report/levelSentences';
 import type { SheetImage } from '../shared/report/workbookSite';
 import { displayUnits, type DisplayUnits } from '../shared/units/displayUnits';
 import { formatQuantity } from '../shared/units/formatQuantity';
@@ -216,13 +221,17 @@ async function drawCharts(
   sites: Record<string, SheetImage>;
   /** A grower page's own chart where it is not the site's (a rate × factor site's levels). */
   pages: Record<string, SheetImage>;
+  /** Each rate × factor site's levels chart, by levelChartKey(site, factor). */
+  levels: Record<string, SheetImage>;
   region: SheetImage | null;
 }> {
   const drawn = report.sites.length <= siteChartLimit ? report.sites : [];
   const specs = drawn.map((s) => siteResponseChart(report, s));
-  // The grower page of a site with levels carries the levels' chart (growerPageChart).
-  const withLevels = drawn.filter((s) => report.levels.some((l) => l.site === s.site));
-  for (const s of withLevels) specs.push(growerPageChart(report, s.site)!);
+  // Every rate × factor site's levels chart: on its factor's sheet, and the first factor's on
+  // the site's grower page (growerPageChart draws that one).
+  const names = new Set(drawn.map((s) => s.site));
+  const levelSites = report.levels.filter((l) => names.has(l.site));
+  for (const l of levelSites) specs.push(levelCurvesChart(report, l, null));
   const rs = reportRegionalChart(report);
   if (rs) specs.push(rs);
   // Print sharpness (2×) for a report someone reads page by page; 1× past 100 sites keeps a big run small.
@@ -244,10 +253,16 @@ async function drawCharts(
   const sites: Record<string, SheetImage> = {};
   drawn.forEach((s, i) => (sites[s.site] = image(i)));
   const pages: Record<string, SheetImage> = {};
-  withLevels.forEach((s, i) => (pages[s.site] = image(drawn.length + i)));
+  const levels: Record<string, SheetImage> = {};
+  levelSites.forEach((l, i) => {
+    const picture = image(drawn.length + i);
+    levels[levelChartKey(l.site, l.factor)] = picture;
+    pages[l.site] ??= picture;
+  });
   return {
     sites,
     pages,
+    levels,
     region: rs ? { png: pngs[pngs.length - 1], widthPx: rs.widthPx, heightPx: rs.heightPx } : null,
   };
 }
@@ -291,6 +306,7 @@ function summary(report: TrialReport): string[] {
     for (const f of report.levels.filter((l) => l.site === s.site)) {
       for (const l of f.levels) lines.push(`  ${f.factor} ${l.level}: ${siteText(l.report)}`);
       lines.push(`  ${levelTestSentence(f)}`);
+      for (const c of f.test.crossings ?? []) lines.push(`  ${c.message}`);
       lines.push(`  ${bestLevelSentence(f, { rate: (v) => rate(v), money })}`);
     }
   }
@@ -303,6 +319,9 @@ function summary(report: TrialReport): string[] {
       `Across ${a.sites.length} ${units}: ${rate(a.bestRateKgHa)}, profitable from ${rate(a.profitableRangeKgHa[0])} to ${rate(a.profitableRangeKgHa[1])}.`,
     );
   }
+  // The regional model by level, where some factor has the 4 site-years it needs.
+  for (const m of report.levelMixed.filter((l) => l.fit !== null))
+    lines.push(levelMixedSentence(m, { rate: (v) => rate(v) }));
   for (const c of report.yearsCompared) lines.push(`Years compared: ${c.sentence}`);
   for (const w of report.warnings) lines.push(`Note: ${w}`);
   return lines;
@@ -332,7 +351,7 @@ export async function analyzeCommand(
   const charts =
     args.out || args.pdf
       ? await drawCharts(report, args.siteChartLimit, log)
-      : { sites: {}, pages: {}, region: null };
+      : { sites: {}, pages: {}, levels: {}, region: null };
   // Every output goes to a temporary file first and all are renamed together at the end, so a
   // run leaves all of them or none (a failure, or SIGINT/SIGTERM, removes the temporaries). The
   // workbook and the PDF are streamed into theirs, a sheet or a page at a time.
@@ -348,6 +367,7 @@ export async function analyzeCommand(
           {
             siteCharts: charts.sites,
             acrossChart: charts.region,
+            levelCharts: charts.levels,
             // Fast deflate for big runs: most bytes are PNGs that do not shrink further.
             zipLevel: report.sites.length > 100 ? 1 : undefined,
           },

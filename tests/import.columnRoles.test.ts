@@ -37,9 +37,10 @@ const column = (col: number, role: ColumnAssignment['role']): ColumnAssignment =
 });
 
 describe('roleTakesOneColumn', () => {
-  it('lets only grouping and left-out columns repeat; notes take one column', () => {
+  it('lets only grouping, treatment-factor and left-out columns repeat; notes take one column', () => {
     const many = MAPPED_ROLES.filter((r) => !roleTakesOneColumn(r));
-    expect(many).toEqual(['group', 'ignore']);
+    // Two factors (source and timing) at one site: tests/analysis.factorCrossing.test.ts.
+    expect(many).toEqual(['group', 'factor', 'ignore']);
     expect(roleTakesOneColumn('notes')).toBe(true);
   });
 

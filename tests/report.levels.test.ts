@@ -13,6 +13,9 @@ import { importFiles } from '../shared/import/importFiles';
 import { growerPage } from '../shared/report/growerPage';
 import type { TrialReport } from '../shared/report/trialReport';
 import { writeWorkbook } from '../shared/report/workbook';
+import { levelChartKey, levelCurvesChart } from '../shared/report/levelCurvesChart';
+import { chartPng } from '../cli/chartPng';
+import ExcelJS from 'exceljs';
 import { reportOf } from './report.pipeline';
 
 let report: TrialReport;
@@ -125,5 +128,55 @@ describe('the report of a rate × timing trial', () => {
     expect(words).toMatch(
       /The Timing levels do not differ detectably in their response to N \(quadratic curves compared, p = 0\.50\)/,
     );
+  });
+
+  it("puts each site's levels chart on the factor's sheet beside the site's tables (exceljs reads it back)", async () => {
+    // The real picture, drawn as the command line draws it (cli/chartPng: resvg); its size is
+    // read from the PNG header (IHDR width and height, PNG spec §11.2.2).
+    const levelCharts = Object.fromEntries(
+      report.levels.map((f) => {
+        const spec = levelCurvesChart(report, f, null);
+        return [
+          levelChartKey(f.site, f.factor),
+          { png: chartPng(spec), widthPx: spec.widthPx, heightPx: spec.heightPx },
+        ];
+      }),
+    );
+    const bytes = await writeWorkbook(report, { levelCharts });
+    const wb = new ExcelJS.Workbook();
+    await wb.xlsx.load(bytes as never);
+    const ws = wb.getWorksheet('Levels by Timing')!;
+    const images = ws.getImages();
+    expect(images).toHaveLength(report.levels.length);
+    const titleRows = report.levels.map((f) => {
+      let row = 0;
+      ws.eachRow((r, i) => {
+        if (row === 0 && r.getCell(1).value === f.site) row = i;
+      });
+      return row;
+    });
+    // Each picture starts on its site's title row (exceljs anchors count rows from 0), right of
+    // the tables (column J on).
+    expect(images.map((im) => Math.round(im.range.tl.nativeRow + 1))).toEqual(titleRows);
+    for (const im of images) expect(im.range.tl.nativeCol).toBeGreaterThanOrEqual(9);
+    for (const [k, im] of images.entries()) {
+      const media = wb.getImage(Number(im.imageId));
+      const png = Buffer.from(media.buffer as ArrayBuffer);
+      const chart = levelCharts[levelChartKey(report.levels[k].site, 'Timing')];
+      expect(png.subarray(1, 4).toString('latin1')).toBe('PNG');
+      expect(png.readUInt32BE(16)).toBe(Math.round(chart.widthPx * 2));
+      expect(Buffer.compare(png, Buffer.from(chart.png))).toBe(0);
+    }
+    // The pictures do not overlap: each site's block is at least as tall as its picture
+    // (exceljs's default row, 15 pt = 20 px).
+    for (let k = 1; k < images.length; k++) {
+      const prev = images[k - 1].range as unknown as {
+        tl: { nativeRow: number };
+        ext: { height: number };
+      };
+      expect(images[k].range.tl.nativeRow).toBeGreaterThanOrEqual(
+        prev.tl.nativeRow + prev.ext.height / 20,
+      );
+    }
   });
 });

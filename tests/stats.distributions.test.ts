@@ -5,6 +5,7 @@ import jStat from 'jstat';
 import {
   chiSquareCdf,
   chiSquareQuantile,
+  chiSquareUpperP,
   fisherFCdf,
   fisherFQuantile,
   fisherFUpperP,
@@ -170,6 +171,20 @@ describe('distribution functions against jstat on a grid', () => {
 });
 
 describe('p-value helpers', () => {
+  it('chiSquareUpperP is R 4.2.2 pchisq(x, df, lower.tail = FALSE) within 1e-15 absolute', () => {
+    // Values printed by R 4.2.2 (Debian r-base-core) with formatC(..., digits = 17).
+    const cases: [number, number, number][] = [
+      [0.5, 1, 0.47950012218695348],
+      [3.841458820694124, 1, 0.049999999999999975],
+      [5.991464547107979, 2, 0.050000000000000072],
+      [12.5, 4, 0.013995792487650892],
+      [30, 6, 3.9308448184484619e-5],
+    ];
+    for (const [x, df, p] of cases)
+      expectWithin(chiSquareUpperP(x, df), p, 1e-15, `pchisq(${x}, ${df}, lower.tail = FALSE)`);
+    expect(chiSquareUpperP(0, 2)).toBe(1);
+    expect(chiSquareUpperP(NaN, 2)).toBeNaN();
+  });
   it('studentTTwoSidedP is twice the tail beyond |t| (t table: ν = 10, 0.975 point → p = 0.05)', () => {
     // Same NIST/SEMATECH §1.3.6.7.2 entry as above, used the other way round.
     expectWithin(studentTTwoSidedP(2.228, 10), 0.05, 1e-4, 'p for t = 2.228, ν = 10');

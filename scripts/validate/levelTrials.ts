@@ -4,6 +4,7 @@
 // - how often the level test (one quadratic per level against one for both, the check shared,
 //   at 5 %) declares two timings with the same true response different (its Type I error), on a
 //   quadratic-plateau truth and on a flat one;
+//   and, beside it with no goal, the same for the plateau level tests (levelPlateauTest);
 // - how often it finds a real 20 kg N/ha difference in the optimum: when the later timing's
 //   optimum is 20 kg/ha lower and its plateau 1,000 kg/ha higher (the goal's case), and, beside
 //   it with no goal, when only the optimum moves and the plateau stays (how far the data reach);
@@ -27,6 +28,8 @@ export interface LevelScenarioFigures {
   trueOptimaKgHa: number[];
   /** Share of trials whose quadratic level test had p < 0.05. */
   declaredDifferent: Share;
+  /** The same for the plateau level tests (levelPlateauTest; no goal: measured beside it). */
+  declaredDifferentPlateau: { quadraticPlateau: Share; linearPlateau: Share };
 }
 
 export interface LevelFigures {
@@ -125,17 +128,27 @@ export function levelTrials(
   const list = scenarios(pr);
   const out: LevelScenarioFigures[] = list.map((sc, s) => {
     let rejected = 0;
+    let qp = 0;
+    let lp = 0;
+    const rejects = (r: { kind: string; p?: number } | undefined) =>
+      r?.kind === 'f-test' && (r.p ?? 1) < 0.05;
     for (let t = 0; t < trials; t++) {
       const table = levelTrial({ sites: [sc.site], seed: seed + 10000 * s + t });
       const a = analyzeTrial(table, analysisSettings({ prices, resamples: 0 }));
-      const r = a.levels[0]?.test.quadratic.result;
-      if (r?.kind === 'f-test' && r.p < 0.05) rejected++;
+      const test = a.levels[0]?.test;
+      if (rejects(test?.quadratic.result)) rejected++;
+      if (rejects(test?.quadraticPlateau.result)) qp++;
+      if (rejects(test?.linearPlateau.result)) lp++;
     }
     return {
       scenario: sc.name,
       description: sc.description,
       trueOptimaKgHa: sc.site.levels.map((l) => levelTrueOptimum(CHECK, l, pr)),
       declaredDifferent: share(rejected, trials),
+      declaredDifferentPlateau: {
+        quadraticPlateau: share(qp, trials),
+        linearPlateau: share(lp, trials),
+      },
     };
   });
   const goal = list[2];

@@ -7,14 +7,18 @@
 // the regional rate's bias over simulated regions; the regional mixed model's interval coverage
 // over simulated quadratic regions (shared/demo/simulatedRegion); the level test of rate × timing
 // trials (shared/demo/simulatedLevels): Type I error and the share of real 20 kg N/ha
-// differences found; each goal beside its figure.
+// differences found, for the quadratic level test (goals) and the plateau ones; the regional
+// model by level over simulated rate × timing regions (levelMixedRegions); each goal beside its
+// figure.
 // Writes the figures to test-output/validate.json. Measures only: it never fails on a missed goal.
 //
 // Sizes: PLOTRATE_VALIDATE_SITES (sites per truth, default 400) or --sites N;
 // PLOTRATE_VALIDATE_REGIONS (default 50) or --regions N; PLOTRATE_VALIDATE_MIXED_REGIONS
 // (default 200) or --mixed-regions N; PLOTRATE_VALIDATE_LEVEL_TRIALS (rate × timing trials per
 // scenario, default 1000) or --level-trials N; PLOTRATE_VALIDATE_LEVEL_BOOT_TRIALS (of them with
-// resamples, default 100) or --level-boot-trials N; PLOTRATE_VALIDATE_SEED (default 20260301).
+// resamples, default 100) or --level-boot-trials N; PLOTRATE_VALIDATE_LEVEL_MIXED_REGIONS (regions
+// of 8 rate × timing site-years per scenario for the regional model by level, default 400) or
+// --level-mixed-regions N; PLOTRATE_VALIDATE_SEED (default 20260301).
 import { mkdirSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -26,6 +30,7 @@ import {
 import { ANALYSIS_DEFAULTS } from '../../shared/analysis/analysisSettings';
 import { illustrativePrices } from '../../shared/economics/illustrativePrices';
 import { SECOND_LOWEST_RATE_KG_HA, type Share } from './decisionFigures';
+import { levelMixedRegions } from './levelMixedRegions';
 import { levelTrials } from './levelTrials';
 import { mixedModelRegions } from './mixedModelRegions';
 import { runValidation } from './runValidation';
@@ -47,6 +52,11 @@ const sitesPerRegion = 12;
 const mixedRegions = setting('--mixed-regions', 'PLOTRATE_VALIDATE_MIXED_REGIONS', 200);
 const levelTrialCount = setting('--level-trials', 'PLOTRATE_VALIDATE_LEVEL_TRIALS', 1000);
 const levelBootTrials = setting('--level-boot-trials', 'PLOTRATE_VALIDATE_LEVEL_BOOT_TRIALS', 100);
+const levelMixedCount = setting(
+  '--level-mixed-regions',
+  'PLOTRATE_VALIDATE_LEVEL_MIXED_REGIONS',
+  400,
+);
 const seed = setting('--seed', 'PLOTRATE_VALIDATE_SEED', 20260301);
 const prices = illustrativePrices('corn').canonical;
 
@@ -95,6 +105,27 @@ for (const sc of levels.scenarios) {
       goal: `≥ ${GOALS.levelPower}`,
       met: r >= GOALS.levelPower,
     });
+}
+const levelMixed = levelMixedRegions(
+  levelMixedCount,
+  8,
+  seed + 8000,
+  prices.nutrientPricePerKg / prices.grainPricePerKg,
+);
+for (const sc of levelMixed.scenarios) {
+  if (!sc.scenario.startsWith('equal')) continue;
+  // The likelihood-ratio test of fixed effects reads liberal with few groups (Pinheiro & Bates
+  // 2000, §2.4.2): measured against the site test's goal, which it need not meet.
+  v.goals.push({
+    figure:
+      'timings with one true response declared different by the regional model by level (likelihood ratio, 5 %)',
+    on: `${levelMixed.siteYearsPerRegion} site-years`,
+    value: sc.likelihoodRatioRejects.share,
+    goal: `${GOALS.levelTypeI.low}–${GOALS.levelTypeI.high}`,
+    met:
+      sc.likelihoodRatioRejects.share >= GOALS.levelTypeI.low &&
+      sc.likelihoodRatioRejects.share <= GOALS.levelTypeI.high,
+  });
 }
 const elapsedS = (performance.now() - started) / 1000;
 
@@ -169,6 +200,12 @@ for (const sc of levels.scenarios) {
       `declared different at 5 % in ${(100 * d.share).toFixed(1)} % (${d.count}/${d.of}, SE ${(100 * d.standardError).toFixed(1)})`,
   );
 }
+for (const sc of levels.scenarios) {
+  const q = sc.declaredDifferentPlateau;
+  console.log(
+    `${sc.scenario}, plateau level tests (no goal): quadratic-plateau ${pct(q.quadraticPlateau)}, linear-plateau ${pct(q.linearPlateau)}`,
+  );
+}
 const li = levels.interval;
 console.log(
   `difference in optimum (split − at planting, true ${li.trueDifferenceKgHa.toFixed(1)} kg/ha), ${Math.round(li.level * 100)} % interval from the paired resamples, ${li.trials} trials: ` +
@@ -178,6 +215,14 @@ console.log(
   `equal timings, ${li.trials} trials with resamples: the return difference's ${Math.round(li.level * 100)} % interval excludes 0 in ${(100 * li.equalReturnExcludesZero.share).toFixed(1)} %, ` +
     `the best timing returned the most in ≥ 95 % of its resamples in ${(100 * li.equalBestShareAbove95.share).toFixed(1)} %`,
 );
+console.log(
+  `\n### regional model by level: ${levelMixed.regions} regions of ${levelMixed.siteYearsPerRegion} rate × timing site-years per scenario (shared/demo/simulatedLevels, site-year truths drawn at random)`,
+);
+for (const sc of levelMixed.scenarios) {
+  console.log(
+    `${sc.scenario}: declared different at 5 % by the likelihood ratio in ${pct(sc.likelihoodRatioRejects)}, by the Wald test in ${pct(sc.waldRejects)}; ${sc.noModel} regions without a model`,
+  );
+}
 console.log('\n### goals');
 for (const g of v.goals) {
   const value =
@@ -201,6 +246,7 @@ writeFileSync(
         mixedRegions,
         levelTrials: levelTrialCount,
         levelBootTrials,
+        levelMixedRegions: levelMixedCount,
         seed,
         ratesKgHa: SIMULATED_RATES_KG_HA,
         blocks: SIMULATED_BLOCKS,
@@ -214,6 +260,7 @@ writeFileSync(
       regions: v.regions,
       mixedModel: mixed,
       levels,
+      levelMixed,
       goals: v.goals,
       elapsedSeconds: Math.round(elapsedS * 10) / 10,
     },

@@ -14,7 +14,8 @@ import type { PlotTable } from '../table/plotTable';
 import { analyzeSite, type SiteAnalysis } from './analyzeSite';
 import { levelResponseTests, type LevelResponseTests } from './levelResponseTest';
 import type { AcrossSiteSettings } from './planAcrossSites';
-import { splitSiteLevels } from './siteLevels';
+import { factorCrossing } from './factorCrossing';
+import { splitSiteLevels, type SiteLevelSplit } from './siteLevels';
 import type { SitePlots } from './sitePlots';
 
 /** One level of one site, analyzed. */
@@ -93,16 +94,20 @@ export function trialLevels(
   if (factors.length === 0) return [];
   const byId = new Map(table.plots.map((p) => [p.id, p]));
   const out: SiteLevelsAnalysis[] = [];
+  const blocks = settings.blocks === 'none' ? 'none' : 'auto';
   plots.forEach((site, index) => {
+    const here: { analysis: SiteLevelsAnalysis; split: SiteLevelSplit }[] = [];
     for (const factor of factors) {
-      const levels = analyzeSiteLevels(
-        site,
-        factor,
-        (id) => byId.get(id)?.groups[factor] ?? null,
-        settings,
-        index,
-      );
-      if (levels) out.push(levels);
+      const levelOf = (id: string) => byId.get(id)?.groups[factor] ?? null;
+      const levels = analyzeSiteLevels(site, factor, levelOf, settings, index);
+      if (levels) here.push({ analysis: levels, split: splitSiteLevels(site, factor, levelOf) });
+    }
+    // Two factors or more at one site: how each meets the others (factorCrossing).
+    for (const h of here) {
+      h.analysis.test.crossings = here
+        .filter((o) => o !== h)
+        .map((o) => factorCrossing(site, h.split, o.split, blocks, settings.alpha));
+      out.push(h.analysis);
     }
   });
   return out;

@@ -15,7 +15,9 @@ import { acrossSites, type AcrossSiteAnalysis } from './acrossSites';
 import { CURVE_POINTS, type AnalysisSettings } from './analysisSettings';
 import { analyzeSite, type SiteAnalysis } from './analyzeSite';
 import { trialLevels, type SiteLevelsAnalysis } from './analyzeLevels';
+import { levelMixedAcrossSites } from './levelMixedAcrossSites';
 import { planAcrossSites } from './planAcrossSites';
+import type { NoRegionalLevelMixedModel, RegionalLevelMixedModel } from './regionalLevelMixedModel';
 import type { SitePlots } from './sitePlots';
 
 /** Everything the analysis found, price-free except for its first pricing at `settings.prices`. */
@@ -35,6 +37,12 @@ export interface TrialAnalysis {
    * plots and the shared checks) and the tests of whether the levels differ; [] without a factor.
    */
   levels: SiteLevelsAnalysis[];
+  /**
+   * Per treatment factor found at some site: the regional quadratic over its site-years with the
+   * level as a fixed effect and the tests of one curve for every level (levelMixedAcrossSites),
+   * or why there is none; [] without a factor.
+   */
+  levelMixed: (RegionalLevelMixedModel | NoRegionalLevelMixedModel)[];
 }
 
 /**
@@ -77,6 +85,7 @@ export function* analyzeTrialSteps(
     sites.push(analyzeSite(p, plan.options, i, rateBlock[i]));
     yield { done: i + 1, total, site: p.site };
   }
+  const levels = trialLevels(table, plan.plots, plan.options);
   return {
     settings,
     crop: table.crop,
@@ -84,7 +93,8 @@ export function* analyzeTrialSteps(
     plots: [...plan.plots],
     findings,
     across: acrossSites(plan, sites),
-    levels: trialLevels(table, plan.plots, plan.options),
+    levels,
+    levelMixed: levelMixedAcrossSites(table, plan.plots, levels),
   };
 }
 

@@ -6,7 +6,8 @@
  *   common curve:     y = block + g(x)          one response for every level
  *   curves per level: y = block + g_level(x)    each level its own response, same check
  *
- * with g(x) = b·x + c·x² (quadratic, the headline) or b·x (straight line), and one offset per
+ * with g(x) = b·x + c·x² (quadratic, the headline) or b·x (straight line), or a plateau model
+ * (levelPlateauTest: linear-plateau and quadratic-plateau, joins profiled), and one offset per
  * block (or one intercept without blocks). g(0) = 0, so a check plot adds the same terms to
  * every level and counts once. The extra-sum-of-squares F test (extraSumOfSquaresTest) divides
  * by the per-level curves' residual mean square.
@@ -35,11 +36,12 @@ import type { BlockChoice } from './analysisSettings';
 import { describeFTest, type TestReadings } from './describeFTest';
 import { designSse } from './designSse';
 import { extraSumOfSquaresTest, type FTestResult, type NoTest } from './extraSumOfSquaresTest';
+import { levelPlateauFits, type LevelPlateauModel } from './levelPlateauTest';
 import type { SiteLevelSplit } from './siteLevels';
 import type { SitePlots } from './sitePlots';
 
-/** The response models the level tests use (linear least squares). */
-export type LevelTestModel = 'quadratic' | 'linear';
+/** The response models the level tests use (linear least squares, or profiled plateaus). */
+export type LevelTestModel = 'quadratic' | 'linear' | LevelPlateauModel;
 
 /** One nested comparison: common curve against one curve per level. */
 export interface LevelCurveTest {
@@ -51,6 +53,24 @@ export interface LevelCurveTest {
   perLevel: { sse: number; df: number } | null;
   result: FTestResult | NoTest;
   sentence: string;
+  /** Plateau models: the common curve's join and each level's, kg/ha; absent otherwise. */
+  joinsKgHa?: { common: number; perLevel: number[] };
+}
+
+/** How a factor's levels meet another factor's at one site (factorCrossing). */
+export type FactorRelation = 'same-treatments' | 'nested' | 'crossed' | 'partly-crossed';
+
+/** One other factor at the same site, and what that means for this factor's test. */
+export interface FactorCrossing {
+  /** The other factor's column header. */
+  other: string;
+  relation: FactorRelation;
+  /** Combinations of the two factors' levels among the fertilized plots. */
+  cells: number;
+  /** What the relation means for reading the tests, in plain words. */
+  message: string;
+  /** Crossed only: this factor's quadratic test with the other's curves in both models. */
+  adjusted: LevelCurveTest | null;
 }
 
 /** Whether a site's levels differ in their response to N. */
@@ -63,14 +83,26 @@ export interface LevelResponseTests {
   quadratic: LevelCurveTest;
   /** The same with straight lines. */
   linear: LevelCurveTest;
+  /** The same with quadratic-plateaus and linear-plateaus, joins profiled (levelPlateauTest). */
+  quadraticPlateau: LevelCurveTest;
+  linearPlateau: LevelCurveTest;
   /** Fertilized plots left out because their factor cell is blank. */
   plotsWithoutLevel: string[];
+  /** Every other factor at the site and how it meets this one (trialLevels fills it); [] alone. */
+  crossings: FactorCrossing[];
   /** The significance level the sentences read the tests at. */
   alpha: number;
 }
 
+const CURVE_WORDS: Record<LevelTestModel, string> = {
+  quadratic: 'quadratic',
+  linear: 'straight line',
+  quadraticPlateau: 'quadratic-plateau',
+  linearPlateau: 'linear-plateau',
+};
+
 function readings(model: LevelTestModel, factor: string): TestReadings {
-  const curve = model === 'quadratic' ? 'quadratic' : 'straight line';
+  const curve = CURVE_WORDS[model];
   return {
     comparison: `One ${curve} per ${factor.toLowerCase()} level against one ${curve} for all levels (the zero-rate check shared)`,
     significant: `the response to N differs between the ${factor.toLowerCase()} levels`,
@@ -79,7 +111,7 @@ function readings(model: LevelTestModel, factor: string): TestReadings {
 }
 
 /** The block (or intercept) columns of the plots kept. */
-function levelColumns(blocks: (string | null)[], fixed: boolean): Float64Array[] {
+export function levelColumns(blocks: (string | null)[], fixed: boolean): Float64Array[] {
   const n = blocks.length;
   if (!fixed) return [new Float64Array(n).fill(1)];
   const labels = [...new Set(blocks)];
@@ -142,13 +174,51 @@ function curveTest(
   return { model, n, common, perLevel, result, sentence: describeFTest(result, words, alpha) };
 }
 
+function plateauCurveTest(
+  model: LevelPlateauModel,
+  x: Float64Array,
+  y: Float64Array,
+  level: Int32Array,
+  levelCount: number,
+  base: Float64Array[],
+  factor: string,
+  alpha: number,
+): LevelCurveTest {
+  const n = y.length;
+  const words = readings(model, factor);
+  const fits = levelPlateauFits(model, x, y, level, levelCount, base);
+  if ('reason' in fits) {
+    const result: NoTest = { kind: 'no-test', reason: fits.reason };
+    return {
+      model,
+      n,
+      common: null,
+      perLevel: null,
+      result,
+      sentence: describeFTest(result, words, alpha),
+    };
+  }
+  const common = { sse: fits.common.sse, df: fits.common.df };
+  const perLevel = { sse: fits.perLevel.sse, df: fits.perLevel.df };
+  const result = extraSumOfSquaresTest(common, perLevel);
+  return {
+    model,
+    n,
+    common,
+    perLevel,
+    result,
+    sentence: describeFTest(result, words, alpha),
+    joinsKgHa: { common: fits.common.joinKgHa, perLevel: fits.perLevel.joinsKgHa },
+  };
+}
+
 /**
  * The nested tests of whether a site's levels share one response to N.
  * @param site - the site's analyzable plots (kg/ha)
  * @param split - its levels (splitSiteLevels); checks have level −1, plots without a level −2
  * @param blocks - "auto" (block offsets when every plot has a block label, hasBlocks) or "none"
  * @param alpha - significance level of the sentences, e.g. 0.05
- * @returns the quadratic (headline) and straight-line tests, each with its sentence
+ * @returns the quadratic (headline), straight-line and the two plateau tests, each with its sentence
  * @example
  * levelResponseTests(site, split, 'auto', 0.05).quadratic.result // { kind: 'f-test', f, df1: 2, df2, p }
  */
@@ -182,14 +252,19 @@ export function levelResponseTests(
             sentence: describeFTest(result, readings(model, split.factor), alpha),
           };
         })()
-      : curveTest(model, x, y, level, levelCount, base, split.factor, alpha);
+      : model === 'quadraticPlateau' || model === 'linearPlateau'
+        ? plateauCurveTest(model, x, y, level, levelCount, base, split.factor, alpha)
+        : curveTest(model, x, y, level, levelCount, base, split.factor, alpha);
   return {
     factor: split.factor,
     levels: split.levels.map((l) => l.level),
     blocks: fixed ? 'fixed' : 'none',
     quadratic: test('quadratic'),
     linear: test('linear'),
+    quadraticPlateau: test('quadraticPlateau'),
+    linearPlateau: test('linearPlateau'),
     plotsWithoutLevel: [...split.withoutLevel],
+    crossings: [],
     alpha,
   };
 }

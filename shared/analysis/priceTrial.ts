@@ -16,6 +16,7 @@ import type { ModelName } from '../models/modelTypes';
 import type { AcrossSiteAnalysis } from './acrossSites';
 import type { TrialAnalysis } from './analyzeTrial';
 import { chooseSiteModels } from './chooseSiteModels';
+import { priceLevelMixedModels, type PricedLevelMixedModel } from './priceLevelMixedModel';
 import { priceTrialLevels, type PricedSiteLevels } from './priceLevels';
 import { priceSite, type PricedSite } from './priceSite';
 import { repriceAcrossSites } from './repriceAcrossSites';
@@ -59,6 +60,11 @@ export interface PricedTrial {
    * one), the level tests and which level returns most (priceLevels); [] without a factor.
    */
   levels: PricedSiteLevels[];
+  /**
+   * Each factor's regional model by level at these prices: every level's population optimum at
+   * its own price ratio with its delta-method interval (priceLevelMixedModel); [] without one.
+   */
+  levelMixed: PricedLevelMixedModel[];
 }
 
 /**
@@ -104,5 +110,11 @@ export function priceTrial(
       level: intervalLevel,
       tolerancePerHa: given,
     }),
+    levelMixed: priceLevelMixedModels(
+      analysis.levelMixed ?? [],
+      prices,
+      { ...options.levelNutrientPricePerKg },
+      intervalLevel,
+    ),
   };
 }

@@ -142,10 +142,16 @@ export interface ColumnMapping {
 }
 
 /**
- * Roles any number of columns may hold: grouping columns (previous crop, soil…) and columns left
- * out. Every other role (site, rate, yield, notes…) is held by at most one column of a sheet.
+ * Roles any number of columns may hold: grouping columns (previous crop, soil…), treatment factors
+ * (a rate × source × timing trial has two: each gets its own level test, and factorCrossing says
+ * how they meet) and columns left out. Every other role (site, rate, yield, notes…) is held by at
+ * most one column of a sheet.
  */
-const MANY_COLUMN_ROLES: ReadonlySet<MappedRole> = new Set<MappedRole>(['group', 'ignore']);
+const MANY_COLUMN_ROLES: ReadonlySet<MappedRole> = new Set<MappedRole>([
+  'group',
+  'factor',
+  'ignore',
+]);
 
 /**
  * Whether a sheet may give this role to one column only. The one rule that detection, the

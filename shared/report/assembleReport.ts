@@ -42,6 +42,7 @@ import type {
   SensitivitySummaryRow,
   ShortfallSummary,
   SiteLevelsReport,
+  LevelMixedReport,
   SiteReport,
   TrialReport,
 } from './trialReport';
@@ -229,6 +230,16 @@ export function assembleReport(
     yearsCompared: yearsComparedReport(priced.across),
     warnings: runWarnings,
     levels: levelsOf(analysis, priced, a.blocks, a.intervalLevel),
+    levelMixed: (analysis.levelMixed ?? []).map((m): LevelMixedReport => {
+      const at = (priced.levelMixed ?? []).find((p) => p.factor === m.factor);
+      return {
+        factor: m.factor,
+        fit: m.model === null ? null : m,
+        reason: m.model === null ? m.reason : null,
+        levels: at?.levels ?? [],
+        alpha: analysis.across.options.alpha,
+      };
+    }),
   };
 }
 

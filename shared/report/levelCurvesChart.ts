@@ -26,6 +26,15 @@ export class UnknownLevelError extends Error {
   }
 }
 
+/**
+ * The key of a rate × factor site's levels chart among a report's pictures (the workbook's
+ * levelCharts): one chart per site and factor.
+ * @example levelChartKey('Larkspur Bottom', 'Timing') // 'Larkspur Bottom\nTiming'
+ */
+export function levelChartKey(site: string, factor: string): string {
+  return `${site}\n${factor}`;
+}
+
 /** A plot the chart can place: kept in the fits, with a rate and a yield. */
 function drawable(p: LevelReport['report']['plots'][number]): boolean {
   return p.excluded === null && p.rateKgHa !== null && p.yieldKgHa !== null;

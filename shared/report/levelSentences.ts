@@ -10,7 +10,7 @@
  * the levels as alike.
  */
 import { formatP } from '../analysis/describeFTest';
-import type { SiteLevelsReport } from './trialReport';
+import type { LevelMixedReport, SiteLevelsReport } from './trialReport';
 
 /** Formatters of the caller's units: a rate (kg/ha in) and money per area (currency/ha in). */
 export interface LevelFormat {
@@ -78,4 +78,46 @@ export function bestLevelSentence(f: SiteLevelsReport, fmt: LevelFormat): string
       ? ` The curves themselves do not differ detectably (${formatP(r.p)}), so this lead may be chance: take it with caution.`
       : '';
   return `${head}${others.length ? `: ${others.join('; ')}` : ''}; ${sure}.${caution}`;
+}
+
+/**
+ * What the regional model by level says across the site-years, in plain sentences: whether the
+ * levels share one regional curve (the likelihood-ratio test, with its caution for few
+ * site-years) and each level's regional rate at its own price with its interval.
+ * @param m - the factor's regional model by level
+ * @param fmt - the caller's rate formatter (kg/ha in)
+ * @returns the sentences; without a model, why there is none
+ * @example
+ * levelMixedSentence(report.levelMixed[0], fmt)
+ * // 'Across 12 site-years, the regional curves of the Timing levels differ (likelihood ratio
+ * //  χ² = 84.6 on 2 df, p < 0.001). Regional rate at each level's own price: …'
+ */
+export function levelMixedSentence(m: LevelMixedReport, fmt: Pick<LevelFormat, 'rate'>): string {
+  const fit = m.fit;
+  if (fit === null) return `No regional model by ${m.factor}: ${m.reason ?? 'no site-years'}`;
+  const t = fit.likelihoodRatio;
+  const stat = `likelihood ratio χ² = ${t.statistic.toPrecision(3)} on ${t.df} df, ${formatP(t.p)}`;
+  const head =
+    t.p < m.alpha
+      ? `Across ${fit.siteYears} site-years, the regional curves of the ${m.factor} levels differ (${stat}).`
+      : `Across ${fit.siteYears} site-years, the ${m.factor} levels do not differ detectably in their regional curve (${stat}).`;
+  // Pinheiro & Bates (2000, §2.4.2): the likelihood-ratio test of fixed effects is liberal with
+  // few groups. Measured (`npm run validate`, 400 regions of equal timings): 6.5 % declared
+  // different at 5 % with 4 site-years, 5.0 % with 8.
+  const few =
+    fit.siteYears < 8
+      ? ' With this few site-years the test finds differences a little too readily.'
+      : '';
+  const rates = m.levels.map((l) => {
+    const o = l.optimum;
+    const level = Math.round(o.level * 100);
+    const ci = o.interval
+      ? ` (${level} % interval ${fmt.rate(o.interval.lowKgHa)} to ${fmt.rate(o.interval.highKgHa)})`
+      : ' (no optimum of its own within the tested rates)';
+    return `${l.level} ${fmt.rate(o.rateKgHa)}${ci}`;
+  });
+  const priced = rates.length
+    ? ` Regional rate at each level's own price: ${rates.join('; ')}. These are regional averages; one field's best rate in one season varies more.`
+    : '';
+  return `${head}${few}${priced}`;
 }

@@ -8,6 +8,7 @@ import type { RateProfileInterval } from '../models/joinProfile';
 import type { ModelName, FitStatus } from '../models/modelTypes';
 import type {
   FTestNumbers,
+  LevelMixedReport,
   MixedModelReport,
   ShortfallSummary,
   SiteLevelsReport,
@@ -15,6 +16,7 @@ import type {
   TrialReport,
 } from './trialReport';
 import { priceRatioQuote } from '../economics/priceQuote';
+import { levelMixedSentence } from './levelSentences';
 import { unitScale, type UnitScale } from './unitScale';
 
 export interface ResultsModel {
@@ -143,6 +145,8 @@ export interface ResultsSite {
   levels: ResultsLevel[];
   /** Whether the levels differ and which returns most (first factor); null for a rate-only site. */
   levelTest: ResultsLevelTest | null;
+  /** The same for every factor at the site, in the table's factor order (levelTest is the first). */
+  levelTests: ResultsLevelTest[];
 }
 
 /** One treatment level of a site in the results file. */
@@ -173,6 +177,23 @@ export interface ResultsLevelTest {
   blocks: 'fixed' | 'none';
   quadratic: FTestNumbers | null;
   linear: FTestNumbers | null;
+  /** The same tests with the plateau models (joins profiled; nls-style nested F test). */
+  quadraticPlateau: FTestNumbers | null;
+  linearPlateau: FTestNumbers | null;
+  /**
+   * Every other factor at the site: how its levels meet this one's (`relation`: same-treatments,
+   * nested, crossed, partly-crossed; `cells`: level combinations present), what that means
+   * (`message`), and when crossed this factor's quadratic test with one curve per level of the
+   * other in both models (`adjusted`, with `adjustedSentence`); [] with one factor.
+   */
+  crossings: {
+    other: string;
+    relation: string;
+    cells: number;
+    message: string;
+    adjusted: FTestNumbers | null;
+    adjustedSentence: string | null;
+  }[];
   differ: boolean | null;
   sentence: string;
   best: string | null;
@@ -259,6 +280,11 @@ export interface ResultsJson {
     }[];
     /** The regional quadratic mixed model (REML), output units; null without one. */
     mixed: ResultsMixedModel | null;
+    /**
+     * Per treatment factor found at some site (source, timing…): the regional quadratic with the
+     * level as a fixed effect over the site-years that have the factor; empty without a factor.
+     */
+    levelMixed: ResultsLevelMixedModel[];
   } | null;
   /**
    * Each site seen in several years, its years compared (F statistics have no unit); empty
@@ -273,6 +299,42 @@ export interface ResultsJson {
     responseDiffers: boolean | null;
     sentence: string;
   }[];
+}
+
+/**
+ * The regional model by level in the results file (output units): one intercept `a` (the shared
+ * zero-rate check) and per level its own `b` and `c`, random site-year effects on a, b, c as the
+ * regional quadratic has (REML); each level's optimum at its own price ratio with its
+ * delta-method interval at `ciLevel`; and whether the levels share one regional curve:
+ * `likelihoodRatio` (ML fits, the headline; `differ` reads it at alpha 0.05) and `wald` (REML),
+ * each χ² with its df. `model` null: no model, `reason` says why, the other fields null or empty.
+ */
+export interface ResultsLevelMixedModel {
+  factor: string;
+  model: 'quadratic-by-level' | null;
+  reason: string | null;
+  structure: string | null;
+  siteYears: number | null;
+  blockOffsets: boolean | null;
+  levels: {
+    level: string;
+    siteYears: number;
+    fixed: Record<'a' | 'b' | 'c', number>;
+    stdErrors: Record<'a' | 'b' | 'c', number>;
+    priceRatio: number;
+    ownNutrientPrice: boolean;
+    optimumRate: number;
+    optimumCI: [number, number] | null;
+  }[];
+  /** The one regional curve for every level (ML), for comparison. */
+  oneCurve: Record<'a' | 'b' | 'c', number> | null;
+  variance: { siteYear: number[][]; residual: number } | null;
+  likelihoodRatio: { chiSquare: number; df: number; p: number } | null;
+  wald: { chiSquare: number; df: number; p: number } | null;
+  differ: boolean | null;
+  ciLevel: number | null;
+  method: string | null;
+  sentence: string;
 }
 
 /** The regional mixed model in the results file (rates and yields in the output units). */
@@ -499,6 +561,7 @@ export function resultsJson(report: TrialReport): ResultsJson {
         })),
       ),
       levelTest: levelsOf(s.site).map((f) => levelTestJson(f, u, moneyUnit))[0] ?? null,
+      levelTests: levelsOf(s.site).map((f) => levelTestJson(f, u, moneyUnit)),
     })),
     acrossSites: report.acrossSites
       ? {
@@ -536,6 +599,7 @@ export function resultsJson(report: TrialReport): ResultsJson {
               }
             : null,
           mixed: report.acrossSites.mixed ? mixedJson(report.acrossSites.mixed, u, fy2) : null,
+          levelMixed: report.levelMixed.map((m) => levelMixedJson(m, u, fy2, perN)),
           groups: report.acrossSites.groups.map((g) => ({
             key: g.key,
             values: g.values.map((v) => ({
@@ -600,6 +664,69 @@ function mixedJson(m: MixedModelReport, u: UnitScale, fy2: number): ResultsMixed
   };
 }
 
+/** The regional model by level in output units (coefficients scale as the quadratic's). */
+function levelMixedJson(
+  m: LevelMixedReport,
+  u: UnitScale,
+  fy2: number,
+  perN: (kgPerKg: number) => number,
+): ResultsLevelMixedModel {
+  const names = ['a', 'b', 'c'] as const;
+  const f = names.map((k) => u.param('quadratic', k, 1));
+  const per = (v: { a: number; b: number; c: number }) =>
+    Object.fromEntries(names.map((k, i) => [k, clean(v[k] * f[i])])) as Record<
+      'a' | 'b' | 'c',
+      number
+    >;
+  const chi = (t: { statistic: number; df: number; p: number }) => ({
+    chiSquare: clean(t.statistic),
+    df: t.df,
+    p: clean(t.p),
+  });
+  const fit = m.fit;
+  const sentence = levelMixedSentence(m, {
+    rate: (r) => `${Math.round(u.rate(r))} ${u.units.rate}`,
+  });
+  return {
+    factor: m.factor,
+    model: fit ? fit.model : null,
+    reason: m.reason,
+    structure: fit?.structure ?? null,
+    siteYears: fit?.siteYears ?? null,
+    blockOffsets: fit?.blockOffsets ?? null,
+    levels: fit
+      ? fit.levels.map((c, k) => {
+          const o = m.levels[k]?.optimum;
+          return {
+            level: c.level,
+            siteYears: c.siteYears,
+            fixed: per(c.fixed),
+            stdErrors: per(c.stdErrors),
+            priceRatio: perN(m.levels[k]?.priceRatio ?? NaN),
+            ownNutrientPrice: m.levels[k]?.ownNutrientPrice ?? false,
+            optimumRate: clean(u.rate(o?.rateKgHa ?? NaN)),
+            optimumCI: o?.interval
+              ? [clean(u.rate(o.interval.lowKgHa)), clean(u.rate(o.interval.highKgHa))]
+              : null,
+          };
+        })
+      : [],
+    oneCurve: fit ? per(fit.oneCurve) : null,
+    variance: fit
+      ? {
+          siteYear: fit.siteCovariance.map((row, i) => row.map((v, j) => clean(v * f[i] * f[j]))),
+          residual: clean(fit.residualVariance * fy2),
+        }
+      : null,
+    likelihoodRatio: fit ? chi(fit.likelihoodRatio) : null,
+    wald: fit ? chi(fit.wald) : null,
+    differ: fit ? fit.likelihoodRatio.p < m.alpha : null,
+    ciLevel: m.levels[0]?.optimum.level ?? null,
+    method: m.levels[0]?.optimum.method ?? null,
+    sentence,
+  };
+}
+
 function fNumbers(t: FTestNumbers): FTestNumbers {
   return { F: clean(t.F), df1: t.df1, df2: t.df2, p: clean(t.p) };
 }
@@ -630,6 +757,17 @@ function levelTestJson(f: SiteLevelsReport, u: UnitScale, moneyUnit: string): Re
     blocks: f.test.blocks,
     quadratic: numbers(q),
     linear: numbers(f.test.linear.result),
+    // Saved analyses from before the plateau tests have none: null, as for no test.
+    quadraticPlateau: f.test.quadraticPlateau ? numbers(f.test.quadraticPlateau.result) : null,
+    linearPlateau: f.test.linearPlateau ? numbers(f.test.linearPlateau.result) : null,
+    crossings: (f.test.crossings ?? []).map((c) => ({
+      other: c.other,
+      relation: c.relation,
+      cells: c.cells,
+      message: c.message,
+      adjusted: c.adjusted ? numbers(c.adjusted.result) : null,
+      adjustedSentence: c.adjusted?.sentence ?? null,
+    })),
     differ: q.kind === 'f-test' ? q.p < f.test.alpha : null,
     sentence: f.test.quadratic.sentence,
     best: f.comparison.best,

@@ -16,6 +16,8 @@ import type { OptimumShares } from '../economics/optimumInterval';
 import type { OptimumProfileInterval } from '../economics/optimumProfile';
 import type { MixedModelOptimum } from '../economics/mixedModelOptimum';
 import type { RegionalMixedModel } from '../analysis/regionalMixedModel';
+import type { RegionalLevelMixedModel } from '../analysis/regionalLevelMixedModel';
+import type { PricedLevelMixedCurve } from '../analysis/priceLevelMixedModel';
 import type { RateProfileInterval } from '../models/joinProfile';
 import type { MappingEntry } from '../import/mappingEntries';
 import type { Plot, SourceFile, CropId } from '../table/plotTable';
@@ -311,6 +313,23 @@ export interface TrialReport {
   warnings: string[];
   /** Rate × factor sites (source, timing…): each level reported as a site; empty without a factor. */
   levels: SiteLevelsReport[];
+  /**
+   * Per treatment factor found at some site: the regional quadratic by level over its site-years
+   * and each level's regional optimum at its own price; empty without a factor.
+   */
+  levelMixed: LevelMixedReport[];
+}
+
+/** A factor's regional model by level (kg/ha), or why there is none, and its levels priced. */
+export interface LevelMixedReport {
+  factor: string;
+  fit: RegionalLevelMixedModel | null;
+  /** Why there is no model; null with one. */
+  reason: string | null;
+  /** Each level's population optimum at its own price ratio (kg N/ha); [] without a model. */
+  levels: PricedLevelMixedCurve[];
+  /** The significance level the sentence reads the tests at. */
+  alpha: number;
 }
 
 /** One treatment level of a rate × factor site, reported as a site of its own. */

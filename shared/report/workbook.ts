@@ -25,6 +25,8 @@ export interface WorkbookOptions {
   siteCharts?: Record<string, SheetImage>;
   /** The regional return chart picture. */
   acrossChart?: SheetImage | null;
+  /** Each rate × factor site's levels chart (levelCurvesChart), by levelChartKey(site, factor). */
+  levelCharts?: Record<string, SheetImage>;
   /** Deflate level 1–9 for the zip (exceljs's default when omitted). */
   zipLevel?: number;
 }
@@ -80,7 +82,15 @@ export async function fillWorkbook(
   // One sheet per treatment factor (rate × source, rate × timing), after the site sheets.
   for (const factor of new Set(report.levels.map((l) => l.factor)))
     await finished(
-      workbookLevels(wb, sheetName(levelsSheetTitle(factor), taken), factor, report, u, paper),
+      workbookLevels(
+        wb,
+        sheetName(levelsSheetTitle(factor), taken),
+        factor,
+        report,
+        u,
+        paper,
+        options.levelCharts,
+      ),
     );
   await finished(workbookAcrossSites(wb, report, u, paper, options.acrossChart ?? null));
   await finished(workbookRegionalModel(wb, report, u, paper));

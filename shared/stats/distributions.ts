@@ -168,6 +168,23 @@ export function chiSquareCdf(x: number, df: number): number {
 }
 
 /**
+ * Upper-tail p-value P(X ≥ x) for chi-square, as 1 − cdf: accurate to about 1e−16 absolute, so a
+ * p-value below 1e−12 keeps few digits (reports print such a p as "< 0.001").
+ * @param x - the statistic; NaN gives NaN, x ≤ 0 gives 1
+ * @param df - degrees of freedom, > 0
+ * @returns the p-value in [0, 1]
+ * @throws {StatsInputError} "bad-argument" for df ≤ 0 or NaN
+ * @example
+ * chiSquareUpperP(5.991, 2) // ≈ 0.05
+ */
+export function chiSquareUpperP(x: number, df: number): number {
+  checkDf(df, 'chiSquareUpperP');
+  if (Number.isNaN(x)) return NaN;
+  if (x <= 0) return 1;
+  return Math.max(0, 1 - chisqCdf(x, df));
+}
+
+/**
  * The chi-square value with P(X ≤ x) = p.
  * @param p - probability, 0 ≤ p ≤ 1
  * @param df - degrees of freedom, > 0

@@ -7,6 +7,7 @@
 import { mkdtemp, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
+import ExcelJS from 'exceljs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoTimingCsv, demoTimingFileName } from '../../shared/demo/demoTiming';
 import { recommendationCautions } from '../../shared/economics/recommendationCautions';
@@ -140,6 +141,28 @@ describe('a rate × timing trial in chromium', () => {
     await expect(sheet.textContent()).resolves.toMatch(/Timing: At planting/);
     await page.waitForTimeout(300);
     await shot(page, 'levels-03-grower-page');
+    expect(session.pageErrors.map((e) => e.slice(0, 300))).toEqual([]);
+  });
+
+  it("exports a workbook whose Levels by Timing sheet carries each site's levels chart", async () => {
+    const { page } = session;
+    const [download] = await Promise.all([
+      page.waitForEvent('download', { timeout: 60_000 }),
+      page.getByTestId('export-workbook').click(),
+    ]);
+    const dir = await mkdtemp(path.join(tmpdir(), 'plotrate-e2e-levels-download-'));
+    const saved = path.join(dir, download.suggestedFilename());
+    await download.saveAs(saved);
+    // Read back with exceljs: one picture per site, a PNG (its signature, PNG spec §5.2).
+    const book = new ExcelJS.Workbook();
+    await book.xlsx.readFile(saved);
+    const sheet = book.getWorksheet('Levels by Timing')!;
+    const images = sheet.getImages();
+    expect(images).toHaveLength(2);
+    for (const im of images) {
+      const png = Buffer.from(book.getImage(Number(im.imageId)).buffer as ArrayBuffer);
+      expect(png.subarray(0, 8)).toEqual(Buffer.from([137, 80, 78, 71, 13, 10, 26, 10]));
+    }
     expect(session.pageErrors.map((e) => e.slice(0, 300))).toEqual([]);
   });
 });

@@ -7,6 +7,7 @@ import { growerPageChart } from '../../../shared/report/growerPageChart';
 import { renderChartSvg } from '../../../shared/report/svgChart';
 import { reportRegionalChart } from '../../../shared/report/growerPageChart';
 import { siteResponseChart } from '../../../shared/report/siteResponseChart';
+import { levelChartKey, levelCurvesChart } from '../../../shared/report/levelCurvesChart';
 import type { TrialReport } from '../../../shared/report/trialReport';
 import type { SheetImage } from '../../../shared/report/workbookSite';
 import type { ChartSpec } from '../../../shared/report/chartSpec';
@@ -147,9 +148,15 @@ export class Report {
         siteCharts[site.site] = await chartPng(siteResponseChart(report, site));
       const regional = reportRegionalChart(report);
       const acrossChart = regional ? await chartPng(regional) : null;
+      // Each rate × factor site's levels chart, for its factor's sheet.
+      const levelCharts: Record<string, SheetImage> = {};
+      for (const l of report.levels)
+        levelCharts[levelChartKey(l.site, l.factor)] = await chartPng(
+          levelCurvesChart(report, l, null),
+        );
       const bytes = await ws.jobs.run<Uint8Array>('Writing the workbook', 'workbook', {
         report,
-        options: { siteCharts, acrossChart },
+        options: { siteCharts, acrossChart, levelCharts },
       });
       if (!bytes) return null;
       const stamp = report.createdAt.slice(0, 10);
