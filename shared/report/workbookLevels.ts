@@ -15,6 +15,7 @@ import { KG_PER_LB } from '../units/unitConstants';
 import { levelChartKey } from './levelCurvesChart';
 import { levelMixedSentence, levelTestSentence } from './levelSentences';
 import type { LevelMixedReport, SiteLevelsReport, TrialReport } from './trialReport';
+import { nutrientRateUnit } from '../units/convertRate';
 import type { UnitScale } from './unitScale';
 import type { SheetImage } from './workbookSite';
 import {
@@ -50,7 +51,7 @@ function siteBlock(
 ): number {
   const start = r;
   const ru = u.units.rate;
-  const rN = ru.replace('/', ' N/');
+  const rN = nutrientRateUnit(ru);
   const money = `money/${u.areaName}`;
   // An N price is quoted per lb of N with lb/ac rates, per kg of N otherwise.
   const perN = ru === 'lb/ac' ? KG_PER_LB : 1;
@@ -180,7 +181,7 @@ function regionalBlock(
   titles: Set<number>,
 ): number {
   const ru = u.units.rate;
-  const rN = ru.replace('/', ' N/');
+  const rN = nutrientRateUnit(ru);
   ws.getCell(r, 1).value = `Across site-years: the regional curve by ${m.factor}`;
   styleTitle(ws.getCell(r, 1), 13);
   titles.add(r++);
