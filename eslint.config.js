@@ -152,7 +152,15 @@ function stageBoundaries() {
 
 export default tseslint.config(
   {
-    ignores: ['node_modules/', 'dist/', 'dist-electron/', 'dist-cli/', 'release/', 'test-output/'],
+    ignores: [
+      'node_modules/',
+      'dist/',
+      'dist-electron/',
+      'dist-cli/',
+      'release/',
+      'test-output/',
+      'scratch/',
+    ],
   },
   js.configs.recommended,
   ...tseslint.configs.recommended,
