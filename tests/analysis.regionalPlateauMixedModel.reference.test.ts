@@ -20,6 +20,8 @@
 //    fits of the linear-plateau, whose derivative in x0 jumps at every rate, the same tolerances
 //    hold on these data, because no site-year's join sits within a finite-difference step of a
 //    rate; that is what the check measures, not an assumption.
+//    The population optimum at R's price ratio (5.5) within 1e-4 relative, its delta-method SE
+//    (from nlme's varFix) within 1e-3.
 // 3. On the demo's six site-years R's nlme does not reach an interior fixed point (500
 //    iterations with Psi diagonal; with Psi unstructured it stops where re-solving moves the
 //    fixed effects by ~1e-3, or, for the linear-plateau, at a plateau-join correlation of -0.999
@@ -36,6 +38,7 @@ import {
   plateauMixedSpec,
   type PlateauMixedForm,
 } from '../shared/analysis/regionalPlateauMixedModel';
+import { plateauMixedModelOptimum } from '../shared/economics/plateauMixedModelOptimum';
 import { linearizedMixedModel } from '../shared/optimize/fitNonlinearMixedModel';
 import { mixedModelEstimates } from '../shared/stats/mixedModelDeviance';
 
@@ -52,6 +55,8 @@ interface RFit {
   sigma2: [number];
   logLik: [number];
   aic: [number];
+  varFix: number[][];
+  optimum: { priceRatio: number; rate: [number]; se: [number] };
   ranefSites: string[];
   ranef: number[][];
 }
@@ -137,6 +142,13 @@ for (const dataset of ['demo-corn', 'generated-qp', 'generated-lp'] as const) {
         );
         expect(Math.abs(m.logLikelihoodMl - fit.logLik[0])).toBeLessThan(1e-6);
         expect(Math.abs(m.aic - fit.aic[0])).toBeLessThan(2e-6);
+        // The population optimum at R's price ratio and its delta-method SE, computed in R from
+        // nlme's fixed effects and varFix (plateauMixedModelFits.R).
+        const optimum = plateauMixedModelOptimum(m, fit.optimum.priceRatio, 0.9);
+        expect(relative(optimum.stdErrorKgHa!, fit.optimum.se[0])).toBeLessThan(1e-3);
+        if (optimum.status === 'interior') {
+          expect(relative(optimum.rateKgHa, fit.optimum.rate[0])).toBeLessThan(1e-4);
+        }
         // Conditional modes per site, against each effect's SD.
         m.siteCurves.forEach((c) => {
           const r = fit.ranef[fit.ranefSites.indexOf(c.site)];
