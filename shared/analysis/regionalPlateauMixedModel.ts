@@ -46,11 +46,6 @@ export const PLATEAU_MIXED_FORMS: readonly PlateauMixedForm[] = [
   'linearPlateau',
 ];
 
-/** The shape parameter's name: curvature c for the quadratic-plateau, slope b for the linear. */
-export function shapeName(form: PlateauMixedForm): 'c' | 'b' {
-  return form === 'quadraticPlateau' ? 'c' : 'b';
-}
-
 /** Population curve: plateau P (kg/ha), shape c (kg/ha per (kg N/ha)²) or b (kg/kg), join x0 (kg N/ha). */
 export interface PlateauFixedEffects {
   P: number;
@@ -90,7 +85,13 @@ export interface RegionalPlateauMixedModel {
   siteCurves: PlateauSiteYearCurve[];
   /** PNLS + LME alternations taken. */
   iterations: number;
+  /** The alternation reached a fixed point. */
   converged: boolean;
+  /**
+   * Converged, or cycling between linearizations with the fixed effects moving < 0.1 % a round
+   * (a linear-plateau whose site-years' joins sit on tested rates has no exact fixed point).
+   */
+  settled: boolean;
   /** Why the fit did not converge; '' when it did. */
   note: string;
 }
@@ -293,8 +294,11 @@ export function fitRegionalPlateauMixedModel(
     })),
     iterations: fit.iterations,
     converged: fit.converged,
+    settled: fit.settled,
     note: fit.converged
       ? ''
-      : `The alternating fit had not settled after ${fit.iterations} rounds; the estimates are the last ones.`,
+      : fit.settled
+        ? `The alternating fit cycles between nearby solutions (the fixed effects move less than 0.1 % a round: site-year joins on tested rates); the estimates are the last ones.`
+        : `The alternating fit had not settled after ${fit.iterations} rounds; the estimates are the last ones.`,
   };
 }
