@@ -45,7 +45,7 @@ function measurePlateau(label: string, sites: MixedModelSite[]): void {
     if (fit.model === null) throw new Error(fit.reason);
     console.log(
       `${label}, ${form}: ${((cpu.user + cpu.system) / 1000).toFixed(0)} ms CPU, ${wall.toFixed(0)} ms wall, ` +
-        `heap +${heapMb.toFixed(1)} MB, ${fit.iterations} alternations, converged ${fit.converged}, ` +
+        `heap +${heapMb.toFixed(1)} MB, ${fit.iterations} alternations, converged ${fit.converged}, settled ${fit.settled}, ` +
         `join ${fit.fixed.x0.toFixed(1)} kg/ha`,
     );
   }
