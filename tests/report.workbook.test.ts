@@ -118,6 +118,26 @@ describe('writeWorkbook read back by SheetJS', () => {
     expect(cell(ws, b, 2)!.v).toBeCloseTo(mixed.stdErrors.b, 9);
   });
 
+  it('compares the regional model forms with the results file’s figures and its AIC sentence', () => {
+    const ws = XLSX.read(usBytes).Sheets['Regional model'];
+    const h = findRow(ws, 'Form');
+    const forms = usJson.acrossSites!.mixedModels;
+    const labels = {
+      quadratic: 'Quadratic',
+      quadraticPlateau: 'Quadratic-plateau',
+      linearPlateau: 'Linear-plateau',
+    };
+    forms.forEach((f, i) => {
+      expect(cell(ws, h + 1 + i, 0)!.v).toBe(labels[f.model]);
+      expect(cell(ws, h + 1 + i, 4)!.v as number).toBeCloseTo(f.optimumRate, 9);
+    });
+    // The sheet's AICs are in kg/ha, the file's in bu/ac: the differences between forms agree,
+    // since every form has the same plots (n·ln of the yield factor cancels).
+    const aic = (i: number) => cell(ws, h + 1 + i, 1)!.v as number;
+    expect(aic(1) - aic(0)).toBeCloseTo(forms[1].aic - forms[0].aic, 6);
+    expect(XLSX.utils.sheet_to_csv(ws)).toContain(usJson.acrossSites!.mixedModelsSentence);
+  });
+
   it('puts every caution on the overview', () => {
     const ws = XLSX.read(usBytes).Sheets['Overview'];
     const text = XLSX.utils.sheet_to_csv(ws);
