@@ -5,8 +5,10 @@
 // tests/analysis.regionalPlateauMixedModel.reference.test.ts.
 import { describe, expect, it } from 'vitest';
 import type { SiteAnalysis } from '../shared/analysis/analyzeSite';
-import { PLATEAU_MIXED_MAX_SITE_YEARS } from '../shared/analysis/plateauMixedModelsAcrossSites';
-import { plateauMixedModelsAcrossSites } from '../shared/analysis/plateauMixedModelsAcrossSites';
+import {
+  PLATEAU_MIXED_MAX_SITE_YEARS,
+  plateauMixedModelsAcrossSites,
+} from '../shared/analysis/plateauMixedModelsAcrossSites';
 import { fitRegionalPlateauMixedModel } from '../shared/analysis/regionalPlateauMixedModel';
 import type { SitePlots } from '../shared/analysis/sitePlots';
 import { simulatedRegion } from '../shared/demo/simulatedRegion';
