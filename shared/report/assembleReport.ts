@@ -554,6 +554,7 @@ function mixedModelsReport(
       settled: q.converged,
       note: q.converged ? '' : 'The likelihood search stopped at its evaluation limit.',
       optimum: mixedOptimum,
+      siteCurves: [],
     });
   }
   analysis.plateauMixed.forEach((m, i) => {
@@ -576,6 +577,7 @@ function mixedModelsReport(
       settled: m.settled,
       note: m.note,
       optimum,
+      siteCurves: m.siteCurves,
     });
   });
   return { mixedModels: forms, mixedModelsSentence: mixedModelFormsSentence(forms) };

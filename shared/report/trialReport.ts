@@ -300,6 +300,11 @@ export interface MixedModelFormReport {
   /** Why the fit did not converge; ''. */
   note: string;
   optimum: MixedModelOptimum;
+  /**
+   * Each site-year's own plateau and join (the population curve plus its conditional modes),
+   * kg/ha; the plateau forms only (the quadratic's curves are in `mixed.siteCurves`).
+   */
+  siteCurves: { site: string; plateauKgHa: number; joinKgHa: number }[];
 }
 
 /** An F test's numbers as the report prints them. */

@@ -199,5 +199,31 @@ function mixedModelFormsTable(
     ws.getCell(r, 1).value = `${modelLabel(f.model)}: ${f.note}`;
     titles.add(r++);
   }
+  const plateaus = forms.filter((f) => f.siteCurves.length > 0);
+  if (plateaus.length === 0) return r;
+  r++;
+  const ru = u.units.rate.replace('/', ' N/');
+  r = tableHeading(
+    ws,
+    r,
+    'Each site-year’s own plateau and join in the plateau forms (the population curve plus its predicted departure)',
+    [
+      'Site-year',
+      ...plateaus.flatMap((f) => [
+        `${modelLabel(f.model)}: plateau (${u.units.yield})`,
+        `${modelLabel(f.model)}: join (${ru})`,
+      ]),
+    ],
+    titles,
+  );
+  plateaus[0].siteCurves.forEach((c, i) => {
+    ws.getRow(r++).values = [
+      c.site,
+      ...plateaus.flatMap((f) => [
+        u.yield(f.siteCurves[i].plateauKgHa),
+        u.rate(f.siteCurves[i].joinKgHa),
+      ]),
+    ];
+  });
   return r;
 }
