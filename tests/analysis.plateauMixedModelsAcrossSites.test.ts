@@ -9,7 +9,11 @@ import {
   PLATEAU_MIXED_MAX_SITE_YEARS,
   plateauMixedModelsAcrossSites,
 } from '../shared/analysis/plateauMixedModelsAcrossSites';
-import { fitRegionalPlateauMixedModel } from '../shared/analysis/regionalPlateauMixedModel';
+import {
+  fitRegionalPlateauMixedModel,
+  PLATEAU_MIXED_FORMS,
+} from '../shared/analysis/regionalPlateauMixedModel';
+import { mulberry32 } from '../shared/demo/mulberry32';
 import type { SitePlots } from '../shared/analysis/sitePlots';
 import { simulatedRegion } from '../shared/demo/simulatedRegion';
 
@@ -50,4 +54,34 @@ describe('plateauMixedModelsAcrossSites', () => {
       expect(m.reason).toContain(`${PLATEAU_MIXED_MAX_SITE_YEARS + 1} site-years`);
     }
   });
+});
+
+describe('fitRegionalPlateauMixedModel on data it cannot fit', () => {
+  // Invented straight-line site-years (seeded): y = 6000 + 30·x + noise, no plateau anywhere.
+  const rng = mulberry32(5);
+  const straight = Array.from({ length: 6 }, (_, s) => {
+    const rateKgHa: number[] = [];
+    const yieldKgHa: number[] = [];
+    for (let k = 0; k < 4; k++) {
+      for (const x of [0, 40, 80, 120, 160]) {
+        rateKgHa.push(x);
+        yieldKgHa.push(6000 + 30 * x + 400 * rng.normal());
+      }
+    }
+    return { site: `Fernwick ${s + 1}`, rateKgHa, yieldKgHa };
+  });
+  for (const form of PLATEAU_MIXED_FORMS) {
+    it(`says the ${form}'s join cannot be placed when the site-years never level off`, () => {
+      const m = fitRegionalPlateauMixedModel(straight, form);
+      expect(m.model).toBeNull();
+      if (m.model === null) expect(m.reason).toMatch(/does not level off within the tested rates/);
+    });
+    it(`asks for 4 site-years (${form})`, () => {
+      const m = fitRegionalPlateauMixedModel(straight.slice(0, 3), form);
+      if (m.model !== null) throw new Error('fitted');
+      expect(m.reason).toBe(
+        'A regional mixed model needs at least 4 site-years and 3 distinct rates; there are 3 and 5.',
+      );
+    });
+  }
 });

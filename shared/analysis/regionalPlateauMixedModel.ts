@@ -265,7 +265,19 @@ export function fitRegionalPlateauMixedModel(
     start: [start.fixedKgHa[0], start.fixedKgHa[1] * shapeScale, start.fixedKgHa[2] / scale],
     randomScale: [sigma / start.sdPlateauKgHa, (sigma * scale) / start.sdJoinKgHa],
   });
-  if ('failure' in fit) return { model: null, form, reason: `The fit stopped: ${fit.failure}.` };
+  if ('failure' in fit) {
+    // Rank deficiency comes from a population join outside the tested rates: past the highest
+    // (the linear-plateau's join and plateau trade off) or below the lowest (every plot on the
+    // plateau, the quadratic-plateau's c and x0 unseen).
+    const outside = fit.failure.includes('not identified');
+    return {
+      model: null,
+      form,
+      reason: outside
+        ? 'The regional curve does not level off within the tested rates (or has levelled off by the lowest), so its join cannot be placed.'
+        : `The fit stopped: ${fit.failure}.`,
+    };
+  }
   const d = [1, 1 / shapeScale, scale];
   const dr = [1, scale];
   const fixed = fit.fixed.map((v, i) => v * d[i]);
