@@ -12,7 +12,8 @@
  *    next start.
  * Repeat until β and θ stop moving. The log-likelihood reported is the LME step's at the
  * converged linearization: the approximation nlme reports, not the exact marginal likelihood.
- * When a step reverses the one before it, the next is taken only in part (relaxation): the
+ * When a step reverses the one before it, the next is taken only in part, and lengthened again
+ * after two steps the same way (relaxation): the
  * same fixed point, reached where the plain alternation oscillates. A linear-plateau whose
  * site-years' joins cross tested rates from one step to the next can cycle with no fixed point
  * (the demo's six corn site-years; R's nlme does not converge there either): the fit then
@@ -217,6 +218,9 @@ export function fitNonlinearMixedModel(
       thetaStep.reduce((sum, v, j) => sum + v * previousStep![j], 0) < 0;
     if (reversed) {
       relaxation = Math.max(relaxation / 2, 1 / 16);
+    } else if (previousStep !== null && thetaChange > 100 * THETA_TOLERANCE) {
+      // Two steps the same way: the overshoot is over; lengthen again.
+      relaxation = Math.min(relaxation * 2, 1);
     }
     previousStep = thetaStep;
     // Near the fixed point θ moves little between rounds: a simplex of that size needs far
