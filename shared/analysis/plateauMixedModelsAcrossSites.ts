@@ -7,7 +7,7 @@
  * Bounded: above PLATEAU_MIXED_MAX_SITE_YEARS site-years the plateau forms are not fitted in
  * the analysis run (each entry says why). Each round of their alternating fit re-linearizes
  * every site-year, so the cost grows with the site-years and the rounds (measured in
- * `npm run bench -- mixedModel`: 0.4-0.5 s at 100 site-years, 6-20 s at 1,000), where the
+ * `npm run bench -- mixedModel`: 0.4-0.5 s CPU at 100 site-years, 4-12 s at 1,000), where the
  * quadratic's shared cross-products keep it near 0.1 s; the analysis of a large file should not
  * wait minutes for a comparison of forms.
  */
