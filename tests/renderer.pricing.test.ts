@@ -91,6 +91,21 @@ describe('renderer analysis and re-pricing', () => {
     const text = regionalModelText(md, 'lb/ac', 'en-US')!;
     expect(text).toContain('Across 4 site-years, the regional model');
     expect(text).toContain(formatRate(md.mixedOptimum!.rateKgHa, 'lb/ac', 'en-US'));
+    // With two or more forms fitted, the screen says which the AIC favours: the lowest AIC.
+    const q = md.across.mixed;
+    if (q.model === null) throw new Error(q.reason);
+    const fitted = [
+      { model: 'quadratic', aic: q.aic, ok: q.converged },
+      ...md.across.plateauMixed.map((m) => ({
+        model: m.model ?? '',
+        aic: m.model === null ? Infinity : m.aic,
+        ok: m.model !== null && m.settled,
+      })),
+    ].filter((f) => f.ok);
+    expect(fitted.length).toBeGreaterThanOrEqual(2);
+    const best = fitted.reduce((a, f) => (f.aic < a.aic ? f : a));
+    const label = best.model.replace('P', '-p').toLowerCase();
+    expect(text).toContain(`the AIC favours the ${label}`);
   });
 
   it('the site optimum is the closed-form optimum of its leading fit at the same prices', async () => {

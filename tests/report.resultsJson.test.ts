@@ -4,6 +4,7 @@
 // 56 lb corn bushel (USDA).
 import { readFileSync } from 'node:fs';
 import { beforeAll, describe, expect, it } from 'vitest';
+import { fitRegionalPlateauMixedModel } from '../shared/analysis/regionalPlateauMixedModel';
 import { resultsJson, type ResultsJson } from '../shared/report/resultsJson';
 import type { TrialReport } from '../shared/report/trialReport';
 import { demoReport, gainsOverBlockCheck } from './report.fixture';
@@ -314,6 +315,62 @@ describe('resultsJson', () => {
       expect(mixed.optimumCI[0]).toBeLessThanOrEqual(mixed.optimumRate);
       expect(mixed.optimumCI[1]).toBeGreaterThanOrEqual(mixed.optimumRate);
     }
+  });
+
+  it('lists every regional mixed model form in the file’s units, with the sentence on their AIC', () => {
+    const forms = json.acrossSites!.mixedModels;
+    expect(forms.map((f) => f.model)).toEqual(['quadratic', 'quadraticPlateau', 'linearPlateau']);
+    const [quadratic, qp, lp] = forms;
+    // The quadratic's entry is acrossSites.mixed's fit, with its ML AIC.
+    expect(quadratic.fixed).toEqual(json.acrossSites!.mixed!.fixed);
+    expect(quadratic.aic).toBe(json.acrossSites!.mixed!.aic);
+    // AIC = −2ℓ + 2k in the file's yield unit: k = 3 fixed + 2 variances (Psi diagonal) + σ².
+    for (const f of [qp, lp]) {
+      expect(f.structure).toBe('diagonal');
+      expect(Math.abs(f.aic - (-2 * f.logLikelihood + 12))).toBeLessThan(1e-6);
+      expect(f.variance.randomParameters).toEqual(['P', 'x0']);
+    }
+    // The same plots fitted by the engine in kg/ha (the demo's corn sites, as the R fixtures
+    // read them: tests/fixtures/mixed/plateauSites.csv), then converted as the file converts:
+    // P / (K·56) bu/ac, c·K² / (K·56), x0 / K lb/ac.
+    const csv = readFileSync(new URL('./fixtures/mixed/plateauSites.csv', import.meta.url), 'utf8');
+    const bySite = new Map<string, { rateKgHa: number[]; yieldKgHa: number[] }>();
+    for (const line of csv.trim().split('\n').slice(1)) {
+      const [set, site, , rate, y] = line.split(',');
+      if (set !== 'demo-corn') continue;
+      const g = bySite.get(site) ?? { rateKgHa: [], yieldKgHa: [] };
+      g.rateKgHa.push(Number(rate));
+      g.yieldKgHa.push(Number(y));
+      bySite.set(site, g);
+    }
+    const m = fitRegionalPlateauMixedModel(
+      [...bySite].map(([site, g]) => ({ site, ...g })),
+      'quadraticPlateau',
+    );
+    if (m.model === null) throw new Error(m.reason);
+    const K = KG_HA_PER_LB_AC;
+    expect(Math.abs(qp.fixed.P / (m.fixed.P / (K * 56)) - 1)).toBeLessThan(1e-6);
+    expect(Math.abs(qp.fixed.c / ((m.fixed.shape * K) / 56) - 1)).toBeLessThan(1e-6);
+    expect(Math.abs(qp.fixed.x0 / (m.fixed.x0 / K) - 1)).toBeLessThan(1e-6);
+    expect(qp.converged).toBe(true);
+    // The linear-plateau cycles on these six site-years, as in R's nlme (see
+    // tests/analysis.regionalPlateauMixedModel.reference.test.ts): said, and ranked only if it
+    // stays within 0.1 %.
+    expect(lp.converged).toBe(false);
+    expect(lp.note).not.toBe('');
+    expect(json.acrossSites!.mixedModelsSentence).toMatch(
+      lp.settled ? /cycles between nearby solutions/ : /linear-plateau did not settle/,
+    );
+    // The sentence names the form with the lowest AIC and how much higher the others are.
+    const best = forms.filter((f) => f.settled).reduce((a, f) => (f.aic < a.aic ? f : a));
+    const label = {
+      quadratic: 'quadratic',
+      quadraticPlateau: 'quadratic-plateau',
+      linearPlateau: 'linear-plateau',
+    };
+    expect(json.acrossSites!.mixedModelsSentence).toMatch(
+      new RegExp(`AIC favours the ${label[best.model]} \\(`),
+    );
   });
 
   it('gives the same file for the same seed', async () => {

@@ -54,9 +54,9 @@ beforeAll(async () => {
   usJson = resultsJson(us);
 });
 
-function findRow(ws: XLSX.WorkSheet, firstCell: string): number {
+function findRow(ws: XLSX.WorkSheet, firstCell: string, from?: number): number {
   const range = XLSX.utils.decode_range(ws['!ref']!);
-  for (let r = range.s.r; r <= range.e.r; r++) {
+  for (let r = from ?? range.s.r; r <= range.e.r; r++) {
     const c = ws[XLSX.utils.encode_cell({ r, c: 0 })];
     if (c && c.v === firstCell) return r;
   }
@@ -116,6 +116,36 @@ describe('writeWorkbook read back by SheetJS', () => {
     const b = findRow(ws, 'b');
     expect(cell(ws, b, 1)!.v).toBeCloseTo(mixed.fixed.b, 9);
     expect(cell(ws, b, 2)!.v).toBeCloseTo(mixed.stdErrors.b, 9);
+  });
+
+  it('compares the regional model forms with the results file’s figures and its AIC sentence', () => {
+    const ws = XLSX.read(usBytes).Sheets['Regional model'];
+    const h = findRow(ws, 'Form');
+    const forms = usJson.acrossSites!.mixedModels;
+    const labels = {
+      quadratic: 'Quadratic',
+      quadraticPlateau: 'Quadratic-plateau',
+      linearPlateau: 'Linear-plateau',
+    };
+    forms.forEach((f, i) => {
+      expect(cell(ws, h + 1 + i, 0)!.v).toBe(labels[f.model]);
+      expect(cell(ws, h + 1 + i, 4)!.v as number).toBeCloseTo(f.optimumRate, 9);
+    });
+    // The sheet's AICs are in kg/ha, the file's in bu/ac: the differences between forms agree,
+    // since every form has the same plots (n·ln of the yield factor cancels).
+    const aic = (i: number) => cell(ws, h + 1 + i, 1)!.v as number;
+    expect(aic(1) - aic(0)).toBeCloseTo(forms[1].aic - forms[0].aic, 6);
+    expect(XLSX.utils.sheet_to_csv(ws)).toContain(usJson.acrossSites!.mixedModelsSentence);
+    // Each site-year's plateau (bu/ac) and join (lb N/ac) in the quadratic-plateau, from the
+    // report's kg/ha: ÷ (K·56) and ÷ K, K kg/ha per lb/ac (NIST SP 811), 56 lb bushel (USDA).
+    const K = 0.45359237 / (43560 * 0.3048 * 0.3048 * 1e-4);
+    const curves = us.acrossSites!.mixedModels.find((f) => f.model === 'quadraticPlateau')!;
+    const s0 = findRow(ws, 'Site-year', findRow(ws, 'Form'));
+    curves.siteCurves.forEach((c, i) => {
+      expect(cell(ws, s0 + 1 + i, 0)!.v).toBe(c.site);
+      expect(cell(ws, s0 + 1 + i, 1)!.v as number).toBeCloseTo(c.plateauKgHa / (K * 56), 9);
+      expect(cell(ws, s0 + 1 + i, 2)!.v as number).toBeCloseTo(c.joinKgHa / K, 9);
+    });
   });
 
   it('puts every caution on the overview', () => {

@@ -7,9 +7,14 @@
 import type { SiteAnalysis } from './analyzeSite';
 import { groupAnalysis, type GroupAnalysis } from './groupAnalysis';
 import { mixedModelAcrossSites } from './mixedModelAcrossSites';
+import { plateauMixedModelsAcrossSites } from './plateauMixedModelsAcrossSites';
 import type { AcrossSitePlan, AcrossSiteSettings } from './planAcrossSites';
 import { regionalAnalysis, type RegionalAnalysis } from './regionalAnalysis';
 import type { NoRegionalMixedModel, RegionalMixedModel } from './regionalMixedModel';
+import type {
+  NoRegionalPlateauMixedModel,
+  RegionalPlateauMixedModel,
+} from './regionalPlateauMixedModel';
 import { responseShare, type ResponseShare } from './responseShare';
 import { sharedResponse, type SharedResponseTests } from './sharedResponse';
 import { siteModelRows, type SiteModelRow } from './siteModelRows';
@@ -27,6 +32,11 @@ export interface AcrossSiteAnalysis {
   regional: RegionalAnalysis;
   /** The regional quadratic as a mixed model over the site-years (price-free), or why there is none. */
   mixed: RegionalMixedModel | NoRegionalMixedModel;
+  /**
+   * The quadratic-plateau and linear-plateau as mixed models over the same site-years (ML,
+   * random plateau and join), in PLATEAU_MIXED_FORMS order, each fitted or why not.
+   */
+  plateauMixed: (RegionalPlateauMixedModel | NoRegionalPlateauMixedModel)[];
   response: ResponseShare;
   groups: GroupAnalysis[];
   /** Each site seen in several years: does its response differ by year? Empty otherwise. */
@@ -71,6 +81,7 @@ export function acrossSites(
     rows: sites.flatMap((s) => siteModelRows(s, o.prices)),
     ...whole,
     mixed: mixedModelAcrossSites(checked, sites),
+    plateauMixed: plateauMixedModelsAcrossSites(checked, sites),
     groups: o.groupKeys.map((k) => groupAnalysis(k, checked, analyses, o, whole)),
     yearsCompared: yearsCompared(checked, analyses, o),
   };

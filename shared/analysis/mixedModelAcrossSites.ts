@@ -26,6 +26,22 @@ export function mixedModelAcrossSites(
   plots: readonly SitePlots[],
   sites: readonly SiteAnalysis[],
 ): RegionalMixedModel | NoRegionalMixedModel {
+  return fitRegionalMixedModel(mixedModelSites(plots, sites));
+}
+
+/**
+ * The site-years every regional mixed model reads (the quadratic and the plateau forms alike):
+ * each with plots and no problem, with its block labels where its own fits used blocks.
+ * @param plots - the sites' plots (kg/ha), as planned
+ * @param sites - analyzeSite of each, same order
+ * @returns the mixed models' input
+ * @example
+ * mixedModelSites(plan.plots, sites).length // site-years with plots
+ */
+export function mixedModelSites(
+  plots: readonly SitePlots[],
+  sites: readonly SiteAnalysis[],
+): MixedModelSite[] {
   const input: MixedModelSite[] = [];
   plots.forEach((p, i) => {
     if (p.problem || sites[i].problem || p.rateKgHa.length === 0) return;
@@ -36,5 +52,5 @@ export function mixedModelAcrossSites(
       block: sites[i].blocks === 'fixed' ? p.block.map((b) => b ?? '') : undefined,
     });
   });
-  return fitRegionalMixedModel(input);
+  return input;
 }

@@ -12,6 +12,7 @@
 import { assertPrices, priceRatio, type Prices } from '../economics/priceRatio';
 import { toleranceInForce } from '../economics/shortfallRule';
 import { mixedModelOptimum, type MixedModelOptimum } from '../economics/mixedModelOptimum';
+import { plateauMixedModelOptimum } from '../economics/plateauMixedModelOptimum';
 import type { ModelName } from '../models/modelTypes';
 import type { AcrossSiteAnalysis } from './acrossSites';
 import type { TrialAnalysis } from './analyzeTrial';
@@ -53,6 +54,11 @@ export interface PricedTrial {
    * analysis' level (mixedModelOptimum, closed form, no refit); null without a mixed model.
    */
   mixedOptimum: MixedModelOptimum | null;
+  /**
+   * Each plateau mixed model's optimum at these prices (plateauMixedModelOptimum, closed form),
+   * in the order of across.plateauMixed; null where that form has no fit.
+   */
+  plateauMixedOptima: (MixedModelOptimum | null)[];
   /** Each treatment level's own N price by level name, as given (priceTrialLevels reads it). */
   levelNutrientPricePerKg: Readonly<Record<string, number>>;
   /**
@@ -102,6 +108,9 @@ export function priceTrial(
       across.mixed.model === null
         ? null
         : mixedModelOptimum(across.mixed, priceRatio(prices), intervalLevel),
+    plateauMixedOptima: across.plateauMixed.map((m) =>
+      m.model === null ? null : plateauMixedModelOptimum(m, priceRatio(prices), intervalLevel),
+    ),
     levelNutrientPricePerKg: { ...options.levelNutrientPricePerKg },
     levels: priceTrialLevels(analysis.levels ?? [], {
       prices,

@@ -18,6 +18,7 @@ import type { SitePlots } from '../analysis/sitePlots';
 import type { MappingEntry } from '../import/mappingEntries';
 import type { OptimumProfileInterval } from '../economics/optimumProfile';
 import type { MixedModelOptimum } from '../economics/mixedModelOptimum';
+import { mixedModelFormsSentence } from '../economics/mixedModelFormsSentence';
 import type { RateProfileInterval } from '../models/joinProfile';
 import type { ModelName } from '../models/modelTypes';
 import { describeRef, type QualityFinding } from '../table/qualityFinding';
@@ -35,6 +36,7 @@ import type {
   AcrossSitesReport,
   GroupReport,
   LevelReport,
+  MixedModelFormReport,
   MixedModelReport,
   InterceptSummary,
   LackOfFitSummary,
@@ -226,7 +228,7 @@ export function assembleReport(
     sources: table.sources.filter((s) => used.has(s.name)),
     mapping: meta.mapping.filter((m) => used.has(m.file)),
     sites,
-    acrossSites: acrossSitesOf(priced.across, priced.mixedOptimum),
+    acrossSites: acrossSitesOf(priced.across, priced.mixedOptimum, priced.plateauMixedOptima),
     yearsCompared: yearsComparedReport(priced.across),
     warnings: runWarnings,
     levels: levelsOf(analysis, priced, a.blocks, a.intervalLevel),
@@ -451,6 +453,7 @@ function siteReport(
 function acrossSitesOf(
   analysis: AcrossSiteAnalysis,
   mixedOptimum: MixedModelOptimum | null,
+  plateauOptima: readonly (MixedModelOptimum | null)[],
 ): AcrossSitesReport | null {
   const { regional, sitesUsed, sitesLeftOut } = analysis.regional;
   if (sitesUsed.length < 2) return null;
@@ -512,6 +515,7 @@ function acrossSitesOf(
     tests,
     notes,
     mixed: mixedModelReport(analysis.mixed, mixedOptimum),
+    ...mixedModelsReport(analysis, mixedOptimum, plateauOptima),
     groups: groupsReport(analysis),
   };
 }
@@ -535,6 +539,59 @@ function mixedModelReport(
   if (mixed.model === null || optimum === null) return null;
   const { siteCurves, ...fit } = mixed;
   return { fit, siteCurves, optimum };
+}
+
+/** Every fitted regional mixed model form with its priced optimum, and which the AIC favours. */
+function mixedModelsReport(
+  analysis: AcrossSiteAnalysis,
+  mixedOptimum: MixedModelOptimum | null,
+  plateauOptima: readonly (MixedModelOptimum | null)[],
+): Pick<AcrossSitesReport, 'mixedModels' | 'mixedModelsSentence'> {
+  const forms: MixedModelFormReport[] = [];
+  const q = analysis.mixed;
+  if (q.model !== null && mixedOptimum !== null) {
+    forms.push({
+      model: 'quadratic',
+      structure: q.structure,
+      fixed: { ...q.fixed },
+      stdErrors: { ...q.stdErrors },
+      randomParameters: ['a', 'b', 'c'],
+      siteCovariance: q.siteCovariance,
+      residualVariance: q.residualVariance,
+      logLikelihoodMl: q.logLikelihoodMl,
+      aic: q.aic,
+      observations: q.observations,
+      converged: q.converged,
+      settled: q.converged,
+      note: q.converged ? '' : 'The likelihood search stopped at its evaluation limit.',
+      optimum: mixedOptimum,
+      siteCurves: [],
+    });
+  }
+  analysis.plateauMixed.forEach((m, i) => {
+    const optimum = plateauOptima[i];
+    if (m.model === null || !optimum) return;
+    // Named as the site fits name them: curvature c, slope b (regionalPlateauMixedModel).
+    const shape = m.model === 'quadraticPlateau' ? 'c' : 'b';
+    forms.push({
+      model: m.model,
+      structure: m.structure,
+      fixed: { P: m.fixed.P, [shape]: m.fixed.shape, x0: m.fixed.x0 },
+      stdErrors: { P: m.stdErrors.P, [shape]: m.stdErrors.shape, x0: m.stdErrors.x0 },
+      randomParameters: ['P', 'x0'],
+      siteCovariance: m.siteCovariance,
+      residualVariance: m.residualVariance,
+      logLikelihoodMl: m.logLikelihoodMl,
+      aic: m.aic,
+      observations: m.observations,
+      converged: m.converged,
+      settled: m.settled,
+      note: m.note,
+      optimum,
+      siteCurves: m.siteCurves,
+    });
+  });
+  return { mixedModels: forms, mixedModelsSentence: mixedModelFormsSentence(forms) };
 }
 
 /** Names of the files at least one plot of the table was read from. */

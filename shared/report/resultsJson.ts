@@ -9,6 +9,7 @@ import type { ModelName, FitStatus } from '../models/modelTypes';
 import type {
   FTestNumbers,
   LevelMixedReport,
+  MixedModelFormReport,
   MixedModelReport,
   ShortfallSummary,
   SiteLevelsReport,
@@ -285,6 +286,13 @@ export interface ResultsJson {
      * level as a fixed effect over the site-years that have the factor; empty without a factor.
      */
     levelMixed: ResultsLevelMixedModel[];
+    /**
+     * Every regional mixed model form fitted, by ML to the same site-years (the quadratic, the
+     * quadratic-plateau, the linear-plateau), output units; forms with no fit are left out.
+     */
+    mixedModels: ResultsMixedModelForm[];
+    /** Which form the AIC favours; '' with fewer than two converged fits. */
+    mixedModelsSentence: string;
   } | null;
   /**
    * Each site seen in several years, its years compared (F statistics have no unit); empty
@@ -358,6 +366,35 @@ export interface ResultsMixedModel {
   method: string;
   /** AIC of the ML fit, on the output yield unit (as the site models' aicc). */
   aic: number;
+}
+
+/** One regional mixed model form in the results file (output units). */
+export interface ResultsMixedModelForm {
+  model: 'quadratic' | 'quadraticPlateau' | 'linearPlateau';
+  /** "diagonal" or "unstructured": the site-year effects' covariance. */
+  structure: string;
+  /** Population curve: a, b, c (quadratic); P, c, x0 (quadratic-plateau); P, b, x0 (linear-plateau), ML. */
+  fixed: Record<string, number>;
+  stdErrors: Record<string, number>;
+  /**
+   * siteYear: covariance of the site-year effects on the parameters named in randomParameters;
+   * residual: plot error variance.
+   */
+  variance: { randomParameters: string[]; siteYear: number[][]; residual: number };
+  /** ML log-likelihood and AIC, on the output yield unit. */
+  logLikelihood: number;
+  aic: number;
+  converged: boolean;
+  /** Converged, or cycling with its fixed effects within 0.1 % a round. */
+  settled: boolean;
+  /** Why the fit did not converge; ''. */
+  note: string;
+  /** The form's optimum at the file's prices, capped to the tested rates. */
+  optimumRate: number;
+  /** Its delta-method interval at `level`; null without one. */
+  optimumCI: [number, number] | null;
+  level: number;
+  method: string;
 }
 
 /** Rounds away binary noise (12 significant digits) so the file diffs cleanly. */
@@ -600,6 +637,8 @@ export function resultsJson(report: TrialReport): ResultsJson {
             : null,
           mixed: report.acrossSites.mixed ? mixedJson(report.acrossSites.mixed, u, fy2) : null,
           levelMixed: report.levelMixed.map((m) => levelMixedJson(m, u, fy2, perN)),
+          mixedModels: report.acrossSites.mixedModels.map((m) => mixedFormJson(m, u, fy2)),
+          mixedModelsSentence: report.acrossSites.mixedModelsSentence,
           groups: report.acrossSites.groups.map((g) => ({
             key: g.key,
             values: g.values.map((v) => ({
@@ -724,6 +763,43 @@ function levelMixedJson(
     ciLevel: m.levels[0]?.optimum.level ?? null,
     method: m.levels[0]?.optimum.method ?? null,
     sentence,
+  };
+}
+
+/** One mixed model form in output units: each parameter scales like its site model's. */
+function mixedFormJson(m: MixedModelFormReport, u: UnitScale, fy2: number): ResultsMixedModelForm {
+  // P is a yield in both plateau forms; the quadratic-plateau's parameters carry its P's unit.
+  const unitModel = (name: string): ModelName =>
+    m.model === 'linearPlateau' && name !== 'P'
+      ? 'linearPlateau'
+      : m.model === 'quadratic'
+        ? 'quadratic'
+        : 'quadraticPlateau';
+  const factor = (name: string) => u.param(unitModel(name), name, 1);
+  const per = (v: Record<string, number>) =>
+    Object.fromEntries(Object.entries(v).map(([k, x]) => [k, clean(x * factor(k))]));
+  const f = m.randomParameters.map(factor);
+  const ci = m.optimum.interval;
+  // ℓ in yield units y·s: ℓ − n·ln s; the AIC gains n·ln s² (as the quadratic's aic above).
+  return {
+    model: m.model,
+    structure: m.structure,
+    fixed: per(m.fixed),
+    stdErrors: per(m.stdErrors),
+    variance: {
+      randomParameters: [...m.randomParameters],
+      siteYear: m.siteCovariance.map((row, i) => row.map((v, j) => clean(v * f[i] * f[j]))),
+      residual: clean(m.residualVariance * fy2),
+    },
+    logLikelihood: clean(m.logLikelihoodMl - (m.observations * Math.log(fy2)) / 2),
+    aic: clean(m.aic + m.observations * Math.log(fy2)),
+    converged: m.converged,
+    settled: m.settled,
+    note: m.note,
+    optimumRate: clean(u.rate(m.optimum.rateKgHa)),
+    optimumCI: ci ? [clean(u.rate(ci.lowKgHa)), clean(u.rate(ci.highKgHa))] : null,
+    level: m.optimum.level,
+    method: m.optimum.method,
   };
 }
 

@@ -241,6 +241,13 @@ export interface AcrossSitesReport {
   notes: string[];
   /** The regional quadratic mixed model (kg/ha) and its optimum at these prices; null without one. */
   mixed: MixedModelReport | null;
+  /**
+   * Every regional mixed model form tried (the quadratic, then the plateau forms), fitted by ML
+   * to the same site-years, with its optimum at these prices; forms with no fit are left out.
+   */
+  mixedModels: MixedModelFormReport[];
+  /** Which form the AIC favours (mixedModelFormsSentence); '' with fewer than two fits. */
+  mixedModelsSentence: string;
   /** Per grouping column with two or more values: each group's regional rate and the test between them. */
   groups: GroupReport[];
 }
@@ -267,6 +274,39 @@ export interface MixedModelReport {
   /** Each site-year's own curve (regional curve plus its conditional modes), kg/ha. */
   siteCurves: RegionalMixedModel['siteCurves'];
   optimum: MixedModelOptimum;
+}
+
+/** One regional mixed model form as the report lists it, kg/ha. */
+export interface MixedModelFormReport {
+  model: 'quadratic' | 'quadraticPlateau' | 'linearPlateau';
+  /** "diagonal" or "unstructured": the site-year effects' covariance. */
+  structure: string;
+  /**
+   * Population curve by parameter name, in the model's own units (a, b, c for the quadratic;
+   * P, c, x0 for the quadratic-plateau; P, b, x0 for the linear-plateau).
+   */
+  fixed: Record<string, number>;
+  stdErrors: Record<string, number>;
+  /** The parameters with a site-year effect, in the order of siteCovariance's rows. */
+  randomParameters: string[];
+  siteCovariance: number[][];
+  /** σ², (kg/ha)². */
+  residualVariance: number;
+  logLikelihoodMl: number;
+  /** AIC of the ML fit, kg/ha. */
+  aic: number;
+  observations: number;
+  converged: boolean;
+  /** Converged, or cycling within 0.1 % (the plateau forms); ranked by the AIC sentence. */
+  settled: boolean;
+  /** Why the fit did not converge; ''. */
+  note: string;
+  optimum: MixedModelOptimum;
+  /**
+   * Each site-year's own plateau and join (the population curve plus its conditional modes),
+   * kg/ha; the plateau forms only (the quadratic's curves are in `mixed.siteCurves`).
+   */
+  siteCurves: { site: string; plateauKgHa: number; joinKgHa: number }[];
 }
 
 /** An F test's numbers as the report prints them. */

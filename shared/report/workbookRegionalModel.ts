@@ -11,6 +11,8 @@ import { profileIntervalText } from './modelNotes';
 import type { TrialReport } from './trialReport';
 import type { UnitScale } from './unitScale';
 import { fitColumns, rateFormat, setupPage, styleTitle, tableHeading } from './workbookFormat';
+import { modelLabel } from '../models/curves';
+import { nutrientRateUnit } from '../units/convertRate';
 
 const COEFFICIENTS = ['a', 'b', 'c'] as const;
 
@@ -30,7 +32,7 @@ export function workbookRegionalModel(
 ): ExcelJS.Worksheet {
   const ws = wb.addWorksheet('Regional model');
   const ru = u.units.rate;
-  const rN = ru.replace('/', ' N/');
+  const rN = nutrientRateUnit(ru);
   ws.getCell('A1').value = 'Regional model: one quadratic for the region, a curve per site-year';
   styleTitle(ws.getCell('A1'), 14);
   const titles = new Set<number>([1, 2]);
@@ -117,12 +119,112 @@ export function workbookRegionalModel(
     ];
   }
   r++;
+  r = mixedModelFormsTable(ws, r, report, u, rateWords, rN, titles);
+  r++;
   for (const c of recommendationCautions) {
     ws.getCell(r, 1).value = c;
     titles.add(r++);
   }
   fitColumns(ws, 4, 40, titles);
-  ws.pageSetup.printArea = `A1:F${Math.max(r, 30)}`;
+  ws.pageSetup.printArea = `A1:G${Math.max(r, 30)}`;
   setupPage(ws, paper, 'portrait');
   return ws;
+}
+
+/**
+ * The forms compared: the quadratic, the quadratic-plateau and the linear-plateau, each fitted
+ * by ML to the same site-years, with its AIC (kg/ha, as the facts above), its optimum at the
+ * report's prices and its population curve in the report's units, and which the AIC favours.
+ */
+function mixedModelFormsTable(
+  ws: ExcelJS.Worksheet,
+  row: number,
+  report: TrialReport,
+  u: UnitScale,
+  rateWords: (kgHa: number) => string,
+  rN: string,
+  titles: Set<number>,
+): number {
+  const forms = report.acrossSites?.mixedModels ?? [];
+  if (forms.length === 0) return row;
+  let r = tableHeading(
+    ws,
+    row,
+    'Forms of the regional model compared (ML, the same site-years; the lower AIC is better supported)',
+    [
+      'Form',
+      'AIC, ML (kg/ha)',
+      'Log-likelihood, ML (kg/ha)',
+      'Converged',
+      `Optimum (${rN})`,
+      `Interval (${rN})`,
+      'Population curve',
+    ],
+    titles,
+  );
+  for (const f of forms) {
+    // P is a yield in both plateau forms; every other parameter converts as its site model's.
+    const unitModel = (name: string) =>
+      f.model === 'linearPlateau' && name !== 'P'
+        ? 'linearPlateau'
+        : f.model === 'quadratic'
+          ? 'quadratic'
+          : 'quadraticPlateau';
+    // Four significant digits, small coefficients (c) in exponent form, so text carries no noise.
+    const shown = (v: number) =>
+      Math.abs(v) < 0.01 && v !== 0 ? v.toExponential(3) : v.toPrecision(4);
+    const curve = Object.entries(f.fixed)
+      .map(
+        ([k, v]) => `${k} = ${shown(u.param(unitModel(k), k, v))} ${u.paramUnit(unitModel(k), k)}`,
+      )
+      .join('; ');
+    const i = f.optimum.interval;
+    ws.getRow(r++).values = [
+      modelLabel(f.model),
+      f.aic,
+      f.logLikelihoodMl,
+      f.converged ? 'yes' : f.settled ? 'cycles within 0.1 %' : 'no',
+      u.rate(f.optimum.rateKgHa),
+      i ? profileIntervalText(i, rateWords) : '–',
+      curve,
+    ];
+    for (const c of [2, 3]) ws.getCell(r - 1, c).numFmt = '0.000';
+    ws.getCell(r - 1, 5).numFmt = rateFormat(u.units.rate);
+  }
+  if (report.acrossSites!.mixedModelsSentence) {
+    ws.getCell(r, 1).value = report.acrossSites!.mixedModelsSentence;
+    titles.add(r++);
+  }
+  for (const f of forms) {
+    if (f.note === '') continue;
+    ws.getCell(r, 1).value = `${modelLabel(f.model)}: ${f.note}`;
+    titles.add(r++);
+  }
+  const plateaus = forms.filter((f) => f.siteCurves.length > 0);
+  if (plateaus.length === 0) return r;
+  r++;
+  const ru = u.units.rate.replace('/', ' N/');
+  r = tableHeading(
+    ws,
+    r,
+    'Each site-year’s own plateau and join in the plateau forms (the population curve plus its predicted departure)',
+    [
+      'Site-year',
+      ...plateaus.flatMap((f) => [
+        `${modelLabel(f.model)}: plateau (${u.units.yield})`,
+        `${modelLabel(f.model)}: join (${ru})`,
+      ]),
+    ],
+    titles,
+  );
+  plateaus[0].siteCurves.forEach((c, i) => {
+    ws.getRow(r++).values = [
+      c.site,
+      ...plateaus.flatMap((f) => [
+        u.yield(f.siteCurves[i].plateauKgHa),
+        u.rate(f.siteCurves[i].joinKgHa),
+      ]),
+    ];
+  });
+  return r;
 }

@@ -14,7 +14,7 @@
  *
  * Offsets within a group (blocks nested in a site, as fixed effects) are
  * absorbed: every column and y are projected off C, the group's b − 1
- * sum-to-zero block contrasts (block k's indicator minus the first block's),
+ * sum-to-zero block contrasts (shared/stats/blockContrastProjection),
  * a ↦ a − C(CᵀC)⁻¹Cᵀa; in a balanced group that is a − ā_block + ā_group.
  * This is the same as fitting those contrasts of every group as fixed effects
  * (Frisch–Waugh–Lovell for β; for the REML criterion, both are likelihoods of
@@ -24,7 +24,7 @@
  * stays estimable. Each absorbed contrast removes one observation from n.
  */
 import { StatsInputError, assertFinite } from './errors';
-import { choleskyLower, solveLowerInPlace, solveLowerTransposeInPlace } from './smallCholesky';
+import { blockContrastProjection } from './blockContrastProjection';
 
 /** One group (site-year) of a mixed model's data. */
 export interface MixedModelGroup {
@@ -167,32 +167,9 @@ function absorbedRows(
   const x = group.fixedRows.map((row) => checkedRow(row, p, group.name, 'fixed'));
   const z = group.randomRows.map((row) => checkedRow(row, q, group.name, 'random'));
   const y = [...group.y];
-  const labels = group.blocks ?? [];
-  const blockNames = [...new Set(labels)];
-  if (blockNames.length < 2) return { x, z, y, effectiveRows: m };
-  // Project every column of X, Z and y off C, the sum-to-zero block contrasts
-  // (column k: block k's indicator minus the first block's): a − C·(CᵀC)⁻¹·Cᵀa.
-  const blockOf = labels.map((label) => blockNames.indexOf(label));
-  const k = blockNames.length - 1;
-  const counts = new Float64Array(blockNames.length);
-  for (const b of blockOf) counts[b]++;
-  const ctc = new Float64Array(k * k);
-  for (let i = 0; i < k; i++) {
-    for (let j = 0; j < k; j++) ctc[i * k + j] = counts[0] + (i === j ? counts[i + 1] : 0);
-  }
-  const ctcLower = new Float64Array(k * k);
-  choleskyLower(ctc, k, ctcLower);
-  const w = new Float64Array(k);
-  const project = (column: (r: number) => number, set: (r: number, v: number) => void): void => {
-    const sums = new Float64Array(blockNames.length);
-    for (let r = 0; r < m; r++) sums[blockOf[r]] += column(r);
-    for (let i = 0; i < k; i++) w[i] = sums[i + 1] - sums[0];
-    solveLowerInPlace(ctcLower, k, w);
-    solveLowerTransposeInPlace(ctcLower, k, w);
-    let first = 0;
-    for (let i = 0; i < k; i++) first -= w[i];
-    for (let r = 0; r < m; r++) set(r, column(r) - (blockOf[r] === 0 ? first : w[blockOf[r] - 1]));
-  };
+  const projection = blockContrastProjection(group.blocks ?? []);
+  if (projection === null) return { x, z, y, effectiveRows: m };
+  const project = projection.project;
   for (let j = 0; j < p; j++)
     project(
       (r) => x[r][j],
@@ -207,7 +184,7 @@ function absorbedRows(
     (r) => y[r],
     (r, v) => (y[r] = v),
   );
-  return { x, z, y, effectiveRows: m - (blockNames.length - 1) };
+  return { x, z, y, effectiveRows: m - projection.contrasts };
 }
 
 function checkedRow(

@@ -1,8 +1,11 @@
 /**
  * The all-sites view's sentence about the regional mixed model at the current prices, in the
- * display unit: the shared sentence (mixedModelSentence) with the screen's rate formatting.
+ * display unit: the shared sentence (mixedModelSentence) with the screen's rate formatting, and
+ * which regional mixed model form the AIC favours (mixedModelFormsSentence).
  */
 import type { PricedTrial } from '../../../shared/analysis/priceTrial';
+import { mixedModelFormAics } from '../../../shared/analysis/mixedModelFormAics';
+import { mixedModelFormsSentence } from '../../../shared/economics/mixedModelFormsSentence';
 import { mixedModelSentence } from '../../../shared/economics/mixedModelSentence';
 import type { RateUnit } from '../../../shared/units/convertRate';
 import { formatRate, formatRateInterval } from '../lib/format';
@@ -21,8 +24,11 @@ export function regionalModelText(
 ): string | null {
   const mixed = priced.across.mixed;
   if (mixed.model === null || priced.mixedOptimum === null) return null;
-  return mixedModelSentence(mixed.siteYears, priced.mixedOptimum, {
+  const sentence = mixedModelSentence(mixed.siteYears, priced.mixedOptimum, {
     rate: (kgHa) => formatRate(kgHa, unit, locale),
     interval: (i) => formatRateInterval(i, unit, locale),
   });
+  // Which form (quadratic, quadratic-plateau, linear-plateau) the AIC favours, when several fit.
+  const forms = mixedModelFormsSentence(mixedModelFormAics(priced.across));
+  return forms === '' ? sentence : `${sentence} ${forms}`;
 }

@@ -1,0 +1,87 @@
+// The analysis' plateau mixed models: fitted to the site-years the quadratic's mixed model reads
+// (mixedModelSites), and not fitted at all above PLATEAU_MIXED_MAX_SITE_YEARS, saying why
+// (a test of "no fit ran": the entries carry a reason, not a model, and no time is asserted).
+// The fits themselves are checked against R's nlme in
+// tests/analysis.regionalPlateauMixedModel.reference.test.ts.
+import { describe, expect, it } from 'vitest';
+import type { SiteAnalysis } from '../shared/analysis/analyzeSite';
+import {
+  PLATEAU_MIXED_MAX_SITE_YEARS,
+  plateauMixedModelsAcrossSites,
+} from '../shared/analysis/plateauMixedModelsAcrossSites';
+import {
+  fitRegionalPlateauMixedModel,
+  PLATEAU_MIXED_FORMS,
+} from '../shared/analysis/regionalPlateauMixedModel';
+import { mulberry32 } from '../shared/demo/mulberry32';
+import type { SitePlots } from '../shared/analysis/sitePlots';
+import { simulatedRegion } from '../shared/demo/simulatedRegion';
+
+/** The simulated region as planned plots and (the parts read here of) site analyses. */
+function planned(siteYears: number): { plots: SitePlots[]; sites: SiteAnalysis[] } {
+  const region = simulatedRegion(siteYears, 7);
+  const plots = region.map(
+    (s) =>
+      ({
+        site: s.site,
+        rateKgHa: Float64Array.from(s.rateKgHa),
+        yieldKgHa: Float64Array.from(s.yieldKgHa),
+        block: s.block,
+      }) as unknown as SitePlots,
+  );
+  const sites = region.map((s) => ({ site: s.site, blocks: 'fixed' }) as unknown as SiteAnalysis);
+  return { plots, sites };
+}
+
+describe('plateauMixedModelsAcrossSites', () => {
+  it('fits both plateau forms to the site-years with their block offsets, as the fitter does', () => {
+    const { plots, sites } = planned(8);
+    const [qp, lp] = plateauMixedModelsAcrossSites(plots, sites);
+    expect(qp.model).toBe('quadraticPlateau');
+    expect(lp.model).toBe('linearPlateau');
+    const direct = fitRegionalPlateauMixedModel(simulatedRegion(8, 7), 'quadraticPlateau');
+    if (qp.model === null || direct.model === null) throw new Error('no fit');
+    expect(qp.blockOffsets).toBe(true);
+    expect(qp.fixed).toEqual(direct.fixed);
+  });
+
+  it(`fits no plateau form above ${PLATEAU_MIXED_MAX_SITE_YEARS} site-years, and says why`, () => {
+    const { plots, sites } = planned(PLATEAU_MIXED_MAX_SITE_YEARS + 1);
+    const out = plateauMixedModelsAcrossSites(plots, sites);
+    expect(out.map((m) => m.model)).toEqual([null, null]);
+    for (const m of out) {
+      if (m.model !== null) throw new Error('fitted');
+      expect(m.reason).toContain(`${PLATEAU_MIXED_MAX_SITE_YEARS + 1} site-years`);
+    }
+  });
+});
+
+describe('fitRegionalPlateauMixedModel on data it cannot fit', () => {
+  // Invented straight-line site-years (seeded): y = 6000 + 30·x + noise, no plateau anywhere.
+  const rng = mulberry32(5);
+  const straight = Array.from({ length: 6 }, (_, s) => {
+    const rateKgHa: number[] = [];
+    const yieldKgHa: number[] = [];
+    for (let k = 0; k < 4; k++) {
+      for (const x of [0, 40, 80, 120, 160]) {
+        rateKgHa.push(x);
+        yieldKgHa.push(6000 + 30 * x + 400 * rng.normal());
+      }
+    }
+    return { site: `Fernwick ${s + 1}`, rateKgHa, yieldKgHa };
+  });
+  for (const form of PLATEAU_MIXED_FORMS) {
+    it(`says the ${form}'s join cannot be placed when the site-years never level off`, () => {
+      const m = fitRegionalPlateauMixedModel(straight, form);
+      expect(m.model).toBeNull();
+      if (m.model === null) expect(m.reason).toMatch(/does not level off within the tested rates/);
+    });
+    it(`asks for 4 site-years (${form})`, () => {
+      const m = fitRegionalPlateauMixedModel(straight.slice(0, 3), form);
+      if (m.model !== null) throw new Error('fitted');
+      expect(m.reason).toBe(
+        'A regional mixed model needs at least 4 site-years and 3 distinct rates; there are 3 and 5.',
+      );
+    });
+  }
+});
