@@ -106,6 +106,13 @@ describe('renderer analysis and re-pricing', () => {
     const best = fitted.reduce((a, f) => (f.aic < a.aic ? f : a));
     const label = best.model.replace('P', '-p').toLowerCase();
     expect(text).toContain(`the AIC favours the ${label}`);
+    // A favoured plateau form also says where it puts the rate: its own priced optimum.
+    const k = md.across.plateauMixed.findIndex((m) => m.model === best.model);
+    if (k >= 0)
+      expect(text).toContain(
+        `On the ${label} the most profitable regional rate is ${formatRate(md.plateauMixedOptima[k]!.rateKgHa, 'lb/ac', 'en-US')}`,
+      );
+    else expect(text).not.toContain('On the ');
   });
 
   it('the site optimum is the closed-form optimum of its leading fit at the same prices', async () => {

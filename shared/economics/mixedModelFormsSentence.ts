@@ -7,6 +7,8 @@
  * linear-plateau with joins on tested rates) is ranked, with a word on it.
  */
 import { modelLabelInText } from '../models/curves';
+import type { MixedModelOptimum } from './mixedModelOptimum';
+import type { MixedModelSentenceFormat } from './mixedModelSentence';
 
 /** One fitted form as the sentence reads it. */
 export interface MixedModelFormAic {
@@ -16,6 +18,15 @@ export interface MixedModelFormAic {
   converged: boolean;
   /** Converged, or cycling with its fixed effects within 0.1 %: ranked, with a word. */
   settled: boolean;
+  /** The form's regional optimum at the current prices, where the caller has priced it. */
+  optimum?: MixedModelOptimum | null;
+}
+
+/** The forms the AIC ranks (fitted and settled), lowest AIC first. */
+function rankedForms(forms: readonly MixedModelFormAic[]): (MixedModelFormAic & { aic: number })[] {
+  return forms
+    .filter((f): f is MixedModelFormAic & { aic: number } => f.aic !== null && f.settled)
+    .sort((a, b) => a.aic - b.aic);
 }
 
 /** AIC differences below this are "about as well supported" (Burnham & Anderson, §2.6). */
@@ -29,9 +40,7 @@ const CLOSE = 2;
  * mixedModelFormsSentence([{ model: 'quadratic', aic: 2363.9, converged: true, settled: true }, { model: 'quadraticPlateau', aic: 2351.9, converged: true, settled: true }])
  */
 export function mixedModelFormsSentence(forms: readonly MixedModelFormAic[]): string {
-  const ranked = forms
-    .filter((f): f is MixedModelFormAic & { aic: number } => f.aic !== null && f.settled)
-    .sort((a, b) => a.aic - b.aic);
+  const ranked = rankedForms(forms);
   const unsettled = forms.filter((f) => f.aic !== null && !f.settled);
   const cycling = ranked.filter((f) => !f.converged);
   if (ranked.length < 2) return '';
@@ -59,4 +68,30 @@ export function mixedModelFormsSentence(forms: readonly MixedModelFormAic[]): st
     );
   }
   return parts.join(' ');
+}
+
+/**
+ * Where the form the AIC favours puts the regional rate, when that form is a plateau: the
+ * quadratic's rate is the regional model's own sentence (mixedModelSentence), so a reader who is
+ * told a plateau form fits better also reads what it recommends.
+ * @param forms - every form tried, each with its optimum at the current prices
+ * @param format - how to write rates (the caller's units)
+ * @returns e.g. "On the quadratic-plateau the most profitable regional rate is 168 kg/ha (90 %
+ *   interval 141 to 195 kg/ha)."; '' when the quadratic leads, fewer than two forms are ranked,
+ *   or the favoured form has no optimum
+ * @example
+ * favouredFormRateSentence(forms, { rate: (r) => `${r} kg/ha`, interval: (i) => `${i.lowKgHa} to ${i.highKgHa} kg/ha` })
+ */
+export function favouredFormRateSentence(
+  forms: readonly MixedModelFormAic[],
+  format: MixedModelSentenceFormat,
+): string {
+  const ranked = rankedForms(forms);
+  const best = ranked[0];
+  if (ranked.length < 2 || best.model === 'quadratic' || !best.optimum) return '';
+  const o = best.optimum;
+  const label = modelLabelInText(best.model);
+  if (o.status === 'no-maximum' || o.interval === null)
+    return `On the ${label}, ${format.rate(o.rateKgHa)} pays best of the tested range.`;
+  return `On the ${label} the most profitable regional rate is ${format.rate(o.rateKgHa)} (${Math.round(o.level * 100)} % interval ${format.interval(o.interval)}).`;
 }

@@ -6,7 +6,9 @@
  */
 import type ExcelJS from 'exceljs';
 import { recommendationCautions } from '../economics/recommendationCautions';
-import { mixedModelSentence } from '../economics/mixedModelSentence';
+import { mixedModelSentence, type MixedModelSentenceFormat } from '../economics/mixedModelSentence';
+import { favouredFormRateSentence } from '../economics/mixedModelFormsSentence';
+import { RATE_DECIMALS, shownRate } from '../units/rateRounding';
 import { profileIntervalText } from './modelNotes';
 import type { TrialReport } from './trialReport';
 import type { UnitScale } from './unitScale';
@@ -42,12 +44,14 @@ export function workbookRegionalModel(
       'Not computed: it needs at least 4 site-years with plots and 3 distinct rates.';
     return ws;
   }
-  const digits = ru === 'kg/ha' || ru === 'lb/ac' ? 0 : 1;
-  const rateWords = (kgHa: number) => u.rate(kgHa).toFixed(digits);
-  ws.getCell('A2').value = mixedModelSentence(m.fit.siteYears, m.optimum, {
-    rate: (kgHa) => `${rateWords(kgHa)} ${rN}`,
-    interval: (i) => `${profileIntervalText(i, rateWords)} ${rN}`,
-  });
+  const rateWords = (kgHa: number) => shownRate(u.rate(kgHa), ru).toFixed(RATE_DECIMALS[ru]);
+  const sentenceFormat = {
+    rateWords,
+    rate: (kgHa: number) => `${rateWords(kgHa)} ${rN}`,
+    interval: (i: Parameters<typeof profileIntervalText>[0]) =>
+      `${profileIntervalText(i, rateWords)} ${rN}`,
+  };
+  ws.getCell('A2').value = mixedModelSentence(m.fit.siteYears, m.optimum, sentenceFormat);
   let r = 4;
   const interval = m.optimum.interval;
   const facts: [string, number | string, string | null][] = [
@@ -119,7 +123,7 @@ export function workbookRegionalModel(
     ];
   }
   r++;
-  r = mixedModelFormsTable(ws, r, report, u, rateWords, rN, titles);
+  r = mixedModelFormsTable(ws, r, report, u, sentenceFormat, rN, titles);
   r++;
   for (const c of recommendationCautions) {
     ws.getCell(r, 1).value = c;
@@ -141,10 +145,11 @@ function mixedModelFormsTable(
   row: number,
   report: TrialReport,
   u: UnitScale,
-  rateWords: (kgHa: number) => string,
+  format: MixedModelSentenceFormat & { rateWords: (kgHa: number) => string },
   rN: string,
   titles: Set<number>,
 ): number {
+  const { rateWords } = format;
   const forms = report.acrossSites?.mixedModels ?? [];
   if (forms.length === 0) return row;
   let r = tableHeading(
@@ -192,7 +197,10 @@ function mixedModelFormsTable(
     ws.getCell(r - 1, 5).numFmt = rateFormat(u.units.rate);
   }
   if (report.acrossSites!.mixedModelsSentence) {
-    ws.getCell(r, 1).value = report.acrossSites!.mixedModelsSentence;
+    const favoured = favouredFormRateSentence(report.acrossSites!.mixedModels, format);
+    ws.getCell(r, 1).value = [report.acrossSites!.mixedModelsSentence, favoured]
+      .filter((t) => t !== '')
+      .join(' ');
     titles.add(r++);
   }
   for (const f of forms) {

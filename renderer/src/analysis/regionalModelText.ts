@@ -5,7 +5,10 @@
  */
 import type { PricedTrial } from '../../../shared/analysis/priceTrial';
 import { mixedModelFormAics } from '../../../shared/analysis/mixedModelFormAics';
-import { mixedModelFormsSentence } from '../../../shared/economics/mixedModelFormsSentence';
+import {
+  favouredFormRateSentence,
+  mixedModelFormsSentence,
+} from '../../../shared/economics/mixedModelFormsSentence';
 import { mixedModelSentence } from '../../../shared/economics/mixedModelSentence';
 import type { RateUnit } from '../../../shared/units/convertRate';
 import { formatRate, formatRateInterval } from '../lib/format';
@@ -24,11 +27,18 @@ export function regionalModelText(
 ): string | null {
   const mixed = priced.across.mixed;
   if (mixed.model === null || priced.mixedOptimum === null) return null;
-  const sentence = mixedModelSentence(mixed.siteYears, priced.mixedOptimum, {
-    rate: (kgHa) => formatRate(kgHa, unit, locale),
-    interval: (i) => formatRateInterval(i, unit, locale),
+  const format = {
+    rate: (kgHa: number) => formatRate(kgHa, unit, locale),
+    interval: (i: Parameters<typeof formatRateInterval>[0]) => formatRateInterval(i, unit, locale),
+  };
+  const sentence = mixedModelSentence(mixed.siteYears, priced.mixedOptimum, format);
+  // Which form (quadratic, quadratic-plateau, linear-plateau) the AIC favours, when several fit,
+  // and where a favoured plateau form puts the rate.
+  const forms = mixedModelFormAics(priced.across, {
+    quadratic: priced.mixedOptimum,
+    plateau: priced.plateauMixedOptima,
   });
-  // Which form (quadratic, quadratic-plateau, linear-plateau) the AIC favours, when several fit.
-  const forms = mixedModelFormsSentence(mixedModelFormAics(priced.across));
-  return forms === '' ? sentence : `${sentence} ${forms}`;
+  return [sentence, mixedModelFormsSentence(forms), favouredFormRateSentence(forms, format)]
+    .filter((t) => t !== '')
+    .join(' ');
 }
