@@ -27,7 +27,7 @@ import { describeRef } from '../shared/table/qualityFinding';
 import { analyzablePlots } from '../shared/table/plotTable';
 import { siteYearsOf } from '../shared/table/siteYear';
 import { assembleReport } from '../shared/report/assembleReport';
-import { reportRegionalChart } from '../shared/report/growerPageChart';
+import { growerPageChart, reportRegionalChart } from '../shared/report/growerPageChart';
 import { levelChartKey, levelCurvesChart } from '../shared/report/levelCurvesChart';
 import { resultsJsonText } from '../shared/report/resultsJson';
 import type { DisplaySettings } from '../shared/report/reportSettings';
@@ -223,6 +223,8 @@ async function drawCharts(
   pages: Record<string, SheetImage>;
   /** Each rate × factor site's levels chart, by levelChartKey(site, factor). */
   levels: Record<string, SheetImage>;
+  /** Each group page's regional chart, by the page's subject. */
+  groups: Record<string, SheetImage>;
   region: SheetImage | null;
 }> {
   const drawn = report.sites.length <= siteChartLimit ? report.sites : [];
@@ -232,6 +234,13 @@ async function drawCharts(
   const names = new Set(drawn.map((s) => s.site));
   const levelSites = report.levels.filter((l) => names.has(l.site));
   for (const l of levelSites) specs.push(levelCurvesChart(report, l, null));
+  // Each group page's own regional chart (growerPageChart draws the same in the workspace).
+  const { groupPages, growerPage } = await import('../shared/report/growerPage');
+  const groupCharts = groupPages(report).flatMap((g) => {
+    const spec = growerPageChart(report, g.id);
+    return spec ? [{ subject: growerPage(report, g.id).subject, spec }] : [];
+  });
+  for (const g of groupCharts) specs.push(g.spec);
   const rs = reportRegionalChart(report);
   if (rs) specs.push(rs);
   // Print sharpness (2×) for a report someone reads page by page; 1× past 100 sites keeps a big run small.
@@ -259,10 +268,13 @@ async function drawCharts(
     levels[levelChartKey(l.site, l.factor)] = picture;
     pages[l.site] ??= picture;
   });
+  const groups: Record<string, SheetImage> = {};
+  groupCharts.forEach((g, i) => (groups[g.subject] = image(drawn.length + levelSites.length + i)));
   return {
     sites,
     pages,
     levels,
+    groups,
     region: rs ? { png: pngs[pngs.length - 1], widthPx: rs.widthPx, heightPx: rs.heightPx } : null,
   };
 }
@@ -351,7 +363,7 @@ export async function analyzeCommand(
   const charts =
     args.out || args.pdf
       ? await drawCharts(report, args.siteChartLimit, log)
-      : { sites: {}, pages: {}, levels: {}, region: null };
+      : { sites: {}, pages: {}, levels: {}, groups: {}, region: null };
   // Every output goes to a temporary file first and all are renamed together at the end, so a
   // run leaves all of them or none (a failure, or SIGINT/SIGTERM, removes the temporaries). The
   // workbook and the PDF are streamed into theirs, a sheet or a page at a time.
@@ -387,8 +399,12 @@ export async function analyzeCommand(
       target: path.resolve(args.pdf),
       stream: async (out) => {
         const pageCharts: Record<string, { png: Uint8Array; aspect: number }> = {};
-        for (const [site, c] of Object.entries({ ...charts.sites, ...charts.pages }))
-          pageCharts[site] = { png: c.png, aspect: c.heightPx / c.widthPx };
+        for (const [subject, c] of Object.entries({
+          ...charts.sites,
+          ...charts.pages,
+          ...charts.groups,
+        }))
+          pageCharts[subject] = { png: c.png, aspect: c.heightPx / c.widthPx };
         if (charts.region && report.acrossSites) {
           pageCharts[`Region (${report.acrossSites.sites.length} sites)`] = {
             png: charts.region.png,

@@ -311,6 +311,15 @@ describe('plotrate demo', () => {
       const pdf = path.join(dir, 'demo-out', `demo-${name}-recommendation.pdf`);
       const info = spawnSync('/usr/bin/pdfinfo', [pdf], { encoding: 'utf8' }).stdout;
       expect(info).toMatch(new RegExp(`Pages:\\s+${pages}\\n`));
+      // Every page carries its chart (a group's page its own regional chart): one image each
+      // (poppler's pdfimages lists each image with its page; a PNG's alpha is a separate smask).
+      const images = spawnSync('/usr/bin/pdfimages', ['-list', pdf], { encoding: 'utf8' })
+        .stdout.split('\n')
+        .slice(2)
+        .map((l) => l.trim().split(/\s+/))
+        .filter((c) => c[2] === 'image')
+        .map((c) => Number(c[0]));
+      expect(images).toEqual(Array.from({ length: pages }, (_, i) => i + 1));
       for (let page = 1; page <= pages; page++) {
         const text = spawnSync(
           '/usr/bin/pdftotext',

@@ -11,6 +11,7 @@ import ExcelJS from 'exceljs';
 import { resultsJson } from '../shared/report/resultsJson';
 import { reportGrowerPages, writeWorkbook } from '../shared/report/workbook';
 import { growerPage, groupPageId } from '../shared/report/growerPage';
+import { growerPageChart } from '../shared/report/growerPageChart';
 import { recommendationCautions } from '../shared/economics/recommendationCautions';
 import type { ReportSettings } from '../shared/report/reportSettings';
 import type { TrialReport } from '../shared/report/trialReport';
@@ -83,6 +84,9 @@ describe('the regional rate per group', () => {
       );
       expect(page.subject).toBe(`Previous crop: ${v.value} (${v.sites.length} sites)`);
       expect(page.recommendation).toBe(growerPage(alone, 'region').recommendation);
+      // Its chart is the group's own regional chart: the same curve as its sites analyzed alone.
+      const chart = growerPageChart(report, groupPageId(g.key, v.value))!;
+      expect(chart).toEqual(growerPageChart(alone, 'region'));
       expect(page.cautions).toEqual(recommendationCautions);
       expect(page.basis.join(' ')).toMatch(/Previous crop/);
     }

@@ -623,6 +623,7 @@ function groupsReport(analysis: AcrossSiteAnalysis): GroupReport[] {
               ? ([r.profitableRange.lowKgHa, r.profitableRange.highKgHa] as [number, number])
               : null,
             bestRateIntervalKgHa: ci ? ([ci.lowKgHa, ci.highKgHa] as [number, number]) : null,
+            chart: has ? regionalChartData(r, ci) : null,
           };
         }),
         differ:

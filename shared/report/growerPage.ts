@@ -517,8 +517,13 @@ export function groupPages(report: TrialReport): { id: string; label: string }[]
   );
 }
 
-/** The group a page id names, or null for a site or the region. */
-function groupOfPage(which: string): { key: string; value: string } | null {
+/**
+ * The group a page id names, or null for a site or the region.
+ * @param which - a page id (groupPageId), a site name or "region"
+ * @returns the grouping column and value
+ * @example groupOfPage('group:Previous crop=corn') // { key: 'Previous crop', value: 'corn' }
+ */
+export function groupOfPage(which: string): { key: string; value: string } | null {
   if (!which.startsWith('group:')) return null;
   const body = which.slice('group:'.length);
   const eq = body.indexOf('=');

@@ -263,6 +263,8 @@ export interface GroupReport {
     profitableRangeKgHa: [number, number] | null;
     /** The group's rate interval from resampling its site-years, kg/ha; null without one. */
     bestRateIntervalKgHa: [number, number] | null;
+    /** The group's regional return chart (as the region's), for its grower page; null without a rate. */
+    chart: RegionalChartData | null;
   }[];
   /** Do the groups respond differently? The quadratic test with site levels. */
   differ: { F: number; df1: number; df2: number; p: number; sentence: string } | null;
