@@ -33,8 +33,15 @@
  * PNLS objective that is not finite. Reaching the iteration limit returns the last estimates
  * with converged false.
  */
-import { mixedModelData, type MixedModelData, type MixedModelGroup } from '../stats/mixedModelData';
-import { blockContrastProjection } from '../stats/blockContrastProjection';
+import {
+  mixedModelDataOfRows,
+  type FlatMixedModelRows,
+  type MixedModelData,
+} from '../stats/mixedModelData';
+import {
+  blockContrastProjection,
+  type BlockContrastProjection,
+} from '../stats/blockContrastProjection';
 import {
   covarianceFactor,
   mixedModelEstimates,
@@ -317,65 +324,119 @@ export function linearizedMixedModel(
   return new Linearization(groups, spec, randomScale).data(beta, b);
 }
 
-/** The groups' rows, the model, and the linearization and PNLS objective built on them. */
+/**
+ * The groups' rows, the model, and the linearization and PNLS objective built on them. Every
+ * row lives in flat typed arrays allocated once: the linearization is rebuilt at every
+ * Gauss–Newton step and every round, and per-row arrays made it mostly garbage collection.
+ */
 class Linearization {
   private readonly gradient: Float64Array;
   private readonly phi: Float64Array;
-  private readonly projections;
+  private readonly projections: (BlockContrastProjection | null)[];
+  /** Rates and yields of every group, end to end. */
+  private readonly xs: Float64Array;
+  private readonly ys: Float64Array;
+  private readonly rows: FlatMixedModelRows;
+  private readonly residual: Float64Array;
+  private built: MixedModelData | undefined;
 
   constructor(
     private readonly groups: readonly NonlinearMixedGroup[],
     private readonly spec: NonlinearMixedSpec,
     private readonly randomScale: readonly number[],
   ) {
-    this.gradient = new Float64Array(spec.p);
-    this.phi = new Float64Array(spec.p);
+    const { p } = spec;
+    const q = spec.randomParameters.length;
+    this.gradient = new Float64Array(p);
+    this.phi = new Float64Array(p);
     this.projections = groups.map((g) => blockContrastProjection(g.blocks ?? []));
+    const start = new Int32Array(groups.length + 1);
+    groups.forEach((g, i) => (start[i + 1] = start[i] + g.x.length));
+    const total = start[groups.length];
+    this.xs = new Float64Array(total);
+    this.ys = new Float64Array(total);
+    let longest = 0;
+    groups.forEach((g, i) => {
+      this.xs.set(g.x, start[i]);
+      this.ys.set(g.y, start[i]);
+      longest = Math.max(longest, g.x.length);
+    });
+    const absorbed = this.projections.reduce((sum, pr) => sum + (pr?.contrasts ?? 0), 0);
+    this.rows = {
+      p,
+      q,
+      names: groups.map((g) => g.name),
+      start,
+      x: new Float64Array(total * p),
+      z: new Float64Array(total * q),
+      y: new Float64Array(total),
+      n: total - absorbed,
+    };
+    this.residual = new Float64Array(longest);
   }
 
   /** φ_i = β + A·b_i, with b_i in working units. */
   private setPhi(beta: readonly number[], b: readonly number[]): void {
     for (let j = 0; j < this.spec.p; j++) this.phi[j] = beta[j];
-    this.spec.randomParameters.forEach((j, r) => (this.phi[j] += b[r] / this.randomScale[r]));
+    const { randomParameters } = this.spec;
+    for (let r = 0; r < randomParameters.length; r++) {
+      this.phi[randomParameters[r]] += b[r] / this.randomScale[r];
+    }
   }
 
-  /** The linear mixed model of the LME step at (β, b). */
+  /**
+   * The linear mixed model of the LME step at (β, b). The returned data is overwritten by the
+   * next call: read it before linearizing again.
+   */
   data(beta: readonly number[], b: readonly number[][]): MixedModelData {
     const { p, randomParameters } = this.spec;
-    const input: MixedModelGroup[] = this.groups.map((g, i) => {
+    const q = randomParameters.length;
+    const { x, z, y, start } = this.rows;
+    const gradient = this.gradient;
+    for (let i = 0; i < this.groups.length; i++) {
       this.setPhi(beta, b[i]);
-      const fixedRows: number[][] = [];
-      const randomRows: number[][] = [];
-      const w: number[] = [];
-      for (let r = 0; r < g.x.length; r++) {
-        const f = this.spec.evaluate(this.phi, g.x[r], this.gradient);
-        const xRow = Array.from(this.gradient);
-        const zRow = randomParameters.map((j, k) => this.gradient[j] / this.randomScale[k]);
-        let v = g.y[r] - f;
-        for (let j = 0; j < p; j++) v += xRow[j] * beta[j];
-        for (let k = 0; k < zRow.length; k++) v += zRow[k] * b[i][k];
-        fixedRows.push(xRow);
-        randomRows.push(zRow);
-        w.push(v);
+      const bi = b[i];
+      for (let r = start[i]; r < start[i + 1]; r++) {
+        const f = this.spec.evaluate(this.phi, this.xs[r], gradient);
+        let v = this.ys[r] - f;
+        for (let j = 0; j < p; j++) {
+          x[r * p + j] = gradient[j];
+          v += gradient[j] * beta[j];
+        }
+        for (let k = 0; k < q; k++) {
+          const zk = gradient[randomParameters[k]] / this.randomScale[k];
+          z[r * q + k] = zk;
+          v += zk * bi[k];
+        }
+        y[r] = v;
       }
-      return { name: g.name, fixedRows, randomRows, y: w, blocks: g.blocks };
-    });
-    return mixedModelData(input);
+      const projection = this.projections[i];
+      if (projection !== null) {
+        for (let j = 0; j < p; j++) projection.projectStrided(x, start[i] * p + j, p);
+        for (let k = 0; k < q; k++) projection.projectStrided(z, start[i] * q + k, q);
+        projection.projectStrided(y, start[i], 1);
+      }
+    }
+    this.built = mixedModelDataOfRows(this.rows, this.built);
+    return this.built;
   }
 
   /** Σ‖projected y_i − f_i‖² + ‖u_i‖², u_i = T⁻¹·b_i. */
   private objective(beta: readonly number[], b: readonly number[][], t: Float64Array): number {
     const q = this.spec.randomParameters.length;
+    const { start } = this.rows;
+    const residual = this.residual;
     let total = 0;
     const u = new Float64Array(q);
-    this.groups.forEach((g, i) => {
+    for (let i = 0; i < this.groups.length; i++) {
       this.setPhi(beta, b[i]);
-      const residual = g.x.map((x, r) => g.y[r] - this.spec.evaluate(this.phi, x, this.gradient));
-      this.projections[i]?.project(
-        (r) => residual[r],
-        (r, v) => (residual[r] = v),
-      );
-      for (const e of residual) total += e * e;
+      const m = start[i + 1] - start[i];
+      for (let r = 0; r < m; r++) {
+        const row = start[i] + r;
+        residual[r] = this.ys[row] - this.spec.evaluate(this.phi, this.xs[row], this.gradient);
+      }
+      this.projections[i]?.projectStrided(residual, 0, 1);
+      for (let r = 0; r < m; r++) total += residual[r] * residual[r];
       // Forward substitution T·u = b; a zero diagonal (a variance at 0) carries no penalty,
       // since b is 0 along it at the PNLS solution.
       for (let r = 0; r < q; r++) {
@@ -385,7 +446,7 @@ class Linearization {
         u[r] = Math.abs(d) > 1e-12 ? s / d : 0;
         total += u[r] * u[r];
       }
-    });
+    }
     return total;
   }
 
