@@ -124,8 +124,13 @@ const FIXED_TOLERANCE = 1e-7;
 const THETA_TOLERANCE = 1e-6;
 /**
  * Looser bounds for "settled": a linear-plateau whose site-years' joins sit on tested rates
- * flips between linearizations for ever (no fixed point exists); its fixed effects still stay
- * within 1e-3 relative, which is reported as settled, not converged.
+ * flips between linearizations for ever (no fixed point exists). Settled means the LME steps'
+ * estimates over the last SETTLED_ROUNDS rounds stay in a band: each fixed effect within 1e-3
+ * of its size, θ within 1e-3 (Ψ to about 0.2 % relative). The band is of the LME estimates
+ * themselves, not of the PNLS step's detour between them: with 1,000 site-years, a few dozen
+ * joins cross rates each round, and the PNLS step moves β by ~4e-3 before the LME step brings it
+ * back to the same band (measured; the band was ~3e-4 for the join). Reported as settled, never
+ * as converged.
  */
 const SETTLED_FIXED = 1e-3;
 const SETTLED_ROUNDS = 10;
@@ -162,7 +167,7 @@ export function fitNonlinearMixedModel(
   let iterations = 0;
   let relaxation = 1;
   let previousStep: number[] | null = null;
-  let settledRounds = 0;
+  const recent: { fixed: number[]; theta: number[] }[] = [];
   let nmStep = 0.1;
   let settled = false;
   const limit = options.maxIterations ?? 60;
@@ -207,11 +212,11 @@ export function fitNonlinearMixedModel(
       settled = true;
       break;
     }
-    // A cycle that stays small (a join flipping across a rate and back): stop there.
+    // A cycle that stays in a small band (joins flipping across rates and back): stop there.
     // Judged only after SETTLED_AFTER rounds, so a fit still converging is not cut short.
-    settledRounds =
-      fixedChange < SETTLED_FIXED && thetaChange < SETTLED_FIXED ? settledRounds + 1 : 0;
-    if (settledRounds >= SETTLED_ROUNDS && iterations >= SETTLED_AFTER) {
+    recent.push({ fixed: lme.fixed, theta: lmeTheta });
+    if (recent.length > SETTLED_ROUNDS) recent.shift();
+    if (iterations >= SETTLED_AFTER && recent.length === SETTLED_ROUNDS && inBand(recent)) {
       settled = true;
       break;
     }
@@ -493,6 +498,19 @@ class Linearization {
     }
     return { beta, b };
   }
+}
+
+/** Each fixed effect within SETTLED_FIXED of its size, and θ within SETTLED_FIXED, over the rounds. */
+function inBand(rounds: readonly { fixed: number[]; theta: number[] }[]): boolean {
+  const spread = (values: number[]) => Math.max(...values) - Math.min(...values);
+  const fixedOk = rounds[0].fixed.every((v, j) => {
+    const column = rounds.map((r) => r.fixed[j]);
+    return spread(column) <= SETTLED_FIXED * Math.max(Math.abs(v), 1e-8);
+  });
+  return (
+    fixedOk &&
+    rounds[0].theta.every((_, j) => spread(rounds.map((r) => r.theta[j])) <= SETTLED_FIXED)
+  );
 }
 
 /** θ with each column of T signed so its diagonal is not negative (the deviance is unchanged). */
