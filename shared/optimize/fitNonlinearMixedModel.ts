@@ -17,7 +17,8 @@
  * same fixed point, reached where the plain alternation oscillates. A linear-plateau whose
  * site-years' joins cross tested rates from one step to the next can cycle with no fixed point
  * (the demo's six corn site-years; R's nlme does not converge there either): the fit then
- * stops at the iteration limit, says so, and returns the last step.
+ * stops when the last ten rounds' LME estimates lie in a narrow band (settled), or at the
+ * iteration limit, says it did not converge, and returns the last step.
  *
  * Block offsets nested in a group are absorbed as in the linear model: w, X and Z go through
  * mixedModelData's projection, and the PNLS objective reads residuals projected the same way
@@ -106,7 +107,7 @@ export interface NonlinearMixedFit {
   iterations: number;
   /** The alternation reached a fixed point (β to 1e-7 relative, θ to 1e-6, b to 1e-5 σ). */
   converged: boolean;
-  /** Converged, or cycling with the fixed effects moving < 1e-3 relative per round. */
+  /** Converged, or cycling with the LME estimates of the last ten rounds in a band (SETTLED_FIXED). */
   settled: boolean;
   /** Observations after absorbed block contrasts. */
   observations: number;
