@@ -116,6 +116,17 @@ describe('fitNonlinearMixedModel on a linear-plateau that cycles', () => {
     return fit;
   };
 
+  it('refuses a group whose rates and yields do not pair up, naming it', () => {
+    const broken = groups.map((g, i) => (i === 3 ? { ...g, y: g.y.slice(1) } : g));
+    expect(() =>
+      fitNonlinearMixedModel(broken, plateauMixedSpec('linearPlateau'), {
+        structure: 'diagonal',
+        start: [10000, 40, 0.5],
+        randomScale: [1, 1],
+      }),
+    ).toThrow(`group ${groups[3].name}: x has 24 values but y has 23`);
+  });
+
   it('says settled, not converged, and its last ten rounds lie within the band it claims', () => {
     const settled = run(60);
     expect(settled.converged).toBe(false);

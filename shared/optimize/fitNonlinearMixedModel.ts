@@ -50,6 +50,7 @@ import {
   type CovarianceStructure,
   type MixedModelEstimates,
 } from '../stats/mixedModelDeviance';
+import { assertFinite, assertSameLength } from '../stats/errors';
 import { nelderMead } from './nelderMead';
 import { newtonMinimize } from './newtonMinimize';
 
@@ -155,6 +156,8 @@ const PNLS_STEPS = 2;
  * @param spec - the model function
  * @param options - Ψ's structure, starting β, working scale of the random effects
  * @returns the fit, or why there is none
+ * @throws {StatsInputError} "length-mismatch" when a group's x, y (or blocks) differ in length;
+ *   "non-finite" for an x or y that is not a finite number
  * @example
  * fitNonlinearMixedModel(groups, spec, { structure: 'diagonal', start: [9000, -3, 0.6], randomScale: [1, 5000] })
  */
@@ -361,6 +364,13 @@ class Linearization {
     const q = spec.randomParameters.length;
     this.gradient = new Float64Array(p);
     this.phi = new Float64Array(p);
+    // The checks mixedModelData made on every linearization, once: the rows are trusted after.
+    for (const g of groups) {
+      assertSameLength(g.x, g.y, [`group ${g.name}: x`, 'y']);
+      if (g.blocks !== undefined) assertSameLength(g.blocks, g.y, [`group ${g.name}: blocks`, 'y']);
+      assertFinite(g.x, `group ${g.name}: x`);
+      assertFinite(g.y, `group ${g.name}: y`);
+    }
     this.projections = groups.map((g) => blockContrastProjection(g.blocks ?? []));
     const start = new Int32Array(groups.length + 1);
     groups.forEach((g, i) => (start[i + 1] = start[i] + g.x.length));
