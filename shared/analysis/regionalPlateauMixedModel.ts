@@ -92,8 +92,9 @@ export interface RegionalPlateauMixedModel {
   /** The alternation reached a fixed point. */
   converged: boolean;
   /**
-   * Converged, or cycling between linearizations with the fixed effects moving < 0.1 % a round
-   * (a linear-plateau whose site-years' joins sit on tested rates has no exact fixed point).
+   * Converged, or cycling between linearizations with the fixed effects within 0.1 % (and θ
+   * within 1e-3) over the last ten rounds (a linear-plateau whose site-years' joins cross
+   * tested rates has no exact fixed point).
    */
   settled: boolean;
   /** Why the fit did not converge; '' when it did. */
@@ -314,7 +315,7 @@ export function fitRegionalPlateauMixedModel(
     note: fit.converged
       ? ''
       : fit.settled
-        ? `The alternating fit cycles between nearby solutions (the fixed effects move less than 0.1 % a round: site-year joins on tested rates); the estimates are the last ones.`
+        ? `The alternating fit cycles between nearby solutions (over its last ten rounds the fixed effects stay within 0.1 %: site-year joins crossing tested rates); the estimates are the last ones.`
         : `The alternating fit had not settled after ${fit.iterations} rounds; the estimates are the last ones.`,
   };
 }

@@ -17,7 +17,8 @@
  * same fixed point, reached where the plain alternation oscillates. A linear-plateau whose
  * site-years' joins cross tested rates from one step to the next can cycle with no fixed point
  * (the demo's six corn site-years; R's nlme does not converge there either): the fit then
- * stops at the iteration limit, says so, and returns the last step.
+ * stops when the last ten rounds' LME estimates lie in a narrow band (settled), or at the
+ * iteration limit, says it did not converge, and returns the last step.
  *
  * Block offsets nested in a group are absorbed as in the linear model: w, X and Z go through
  * mixedModelData's projection, and the PNLS objective reads residuals projected the same way
@@ -33,8 +34,15 @@
  * PNLS objective that is not finite. Reaching the iteration limit returns the last estimates
  * with converged false.
  */
-import { mixedModelData, type MixedModelData, type MixedModelGroup } from '../stats/mixedModelData';
-import { blockContrastProjection } from '../stats/blockContrastProjection';
+import {
+  mixedModelDataOfRows,
+  type FlatMixedModelRows,
+  type MixedModelData,
+} from '../stats/mixedModelData';
+import {
+  blockContrastProjection,
+  type BlockContrastProjection,
+} from '../stats/blockContrastProjection';
 import {
   covarianceFactor,
   mixedModelEstimates,
@@ -42,6 +50,7 @@ import {
   type CovarianceStructure,
   type MixedModelEstimates,
 } from '../stats/mixedModelDeviance';
+import { assertFinite, assertSameLength } from '../stats/errors';
 import { nelderMead } from './nelderMead';
 import { newtonMinimize } from './newtonMinimize';
 
@@ -97,9 +106,9 @@ export interface NonlinearMixedFit {
   /** θ in working units at the end. */
   theta: number[];
   iterations: number;
-  /** The alternation reached a fixed point (β to 1e-7 relative, θ to 1e-6). */
+  /** The alternation reached a fixed point (β to 1e-7 relative, θ to 1e-6, b to 1e-5 σ). */
   converged: boolean;
-  /** Converged, or cycling with the fixed effects moving < 1e-3 relative per round. */
+  /** Converged, or cycling with the LME estimates of the last ten rounds in a band (SETTLED_FIXED). */
   settled: boolean;
   /** Observations after absorbed block contrasts. */
   observations: number;
@@ -112,13 +121,24 @@ export interface NonlinearMixedFailure {
 
 /**
  * β relative, θ absolute and b (per σ) changes below which the alternation has converged.
+ * R's nlme tests β and θ only (1e-6 relative). The random effects' bound is 1e-5 of σ: with
+ * 1,000 site-years, a site-year whose join sits just past a tested rate (where the
+ * quadratic-plateau's curvature in x0 jumps) creeps by a few 1e-6 σ a round for a dozen rounds
+ * after β and θ have stopped (measured: β to 1e-9, θ to 1e-8 from round 16, b at 3–9e-6 σ until
+ * round 29); 1e-5 σ is ~3e-4 kg N/ha on a join, far below any digit reported.
  */
 const FIXED_TOLERANCE = 1e-7;
 const THETA_TOLERANCE = 1e-6;
+const RANDOM_TOLERANCE = 1e-5;
 /**
  * Looser bounds for "settled": a linear-plateau whose site-years' joins sit on tested rates
- * flips between linearizations for ever (no fixed point exists); its fixed effects still stay
- * within 1e-3 relative, which is reported as settled, not converged.
+ * flips between linearizations for ever (no fixed point exists). Settled means the LME steps'
+ * estimates over the last SETTLED_ROUNDS rounds stay in a band: each fixed effect within 1e-3
+ * of its size, θ within 1e-3 (Ψ to about 0.2 % relative). The band is of the LME estimates
+ * themselves, not of the PNLS step's detour between them: with 1,000 site-years, a few dozen
+ * joins cross rates each round, and the PNLS step moves β by ~4e-3 before the LME step brings it
+ * back to the same band (measured; the band was ~3e-4 for the join). Reported as settled, never
+ * as converged.
  */
 const SETTLED_FIXED = 1e-3;
 const SETTLED_ROUNDS = 10;
@@ -136,6 +156,8 @@ const PNLS_STEPS = 2;
  * @param spec - the model function
  * @param options - Ψ's structure, starting β, working scale of the random effects
  * @returns the fit, or why there is none
+ * @throws {StatsInputError} "length-mismatch" when a group's x, y (or blocks) differ in length;
+ *   "non-finite" for an x or y that is not a finite number
  * @example
  * fitNonlinearMixedModel(groups, spec, { structure: 'diagonal', start: [9000, -3, 0.6], randomScale: [1, 5000] })
  */
@@ -155,7 +177,7 @@ export function fitNonlinearMixedModel(
   let iterations = 0;
   let relaxation = 1;
   let previousStep: number[] | null = null;
-  let settledRounds = 0;
+  const recent: { fixed: number[]; theta: number[] }[] = [];
   let nmStep = 0.1;
   let settled = false;
   const limit = options.maxIterations ?? 60;
@@ -194,17 +216,17 @@ export function fitNonlinearMixedModel(
     if (
       fixedChange < FIXED_TOLERANCE &&
       thetaChange < THETA_TOLERANCE &&
-      randomChange < THETA_TOLERANCE
+      randomChange < RANDOM_TOLERANCE
     ) {
       converged = lme.converged;
       settled = true;
       break;
     }
-    // A cycle that stays small (a join flipping across a rate and back): stop there.
+    // A cycle that stays in a small band (joins flipping across rates and back): stop there.
     // Judged only after SETTLED_AFTER rounds, so a fit still converging is not cut short.
-    settledRounds =
-      fixedChange < SETTLED_FIXED && thetaChange < SETTLED_FIXED ? settledRounds + 1 : 0;
-    if (settledRounds >= SETTLED_ROUNDS && iterations >= SETTLED_AFTER) {
+    recent.push({ fixed: lme.fixed, theta: lmeTheta });
+    if (recent.length > SETTLED_ROUNDS) recent.shift();
+    if (iterations >= SETTLED_AFTER && recent.length === SETTLED_ROUNDS && inBand(recent)) {
       settled = true;
       break;
     }
@@ -317,65 +339,126 @@ export function linearizedMixedModel(
   return new Linearization(groups, spec, randomScale).data(beta, b);
 }
 
-/** The groups' rows, the model, and the linearization and PNLS objective built on them. */
+/**
+ * The groups' rows, the model, and the linearization and PNLS objective built on them. Every
+ * row lives in flat typed arrays allocated once: the linearization is rebuilt at every
+ * Gauss–Newton step and every round, and per-row arrays made it mostly garbage collection.
+ */
 class Linearization {
   private readonly gradient: Float64Array;
   private readonly phi: Float64Array;
-  private readonly projections;
+  private readonly projections: (BlockContrastProjection | null)[];
+  /** Rates and yields of every group, end to end. */
+  private readonly xs: Float64Array;
+  private readonly ys: Float64Array;
+  private readonly rows: FlatMixedModelRows;
+  private readonly residual: Float64Array;
+  private built: MixedModelData | undefined;
 
   constructor(
     private readonly groups: readonly NonlinearMixedGroup[],
     private readonly spec: NonlinearMixedSpec,
     private readonly randomScale: readonly number[],
   ) {
-    this.gradient = new Float64Array(spec.p);
-    this.phi = new Float64Array(spec.p);
+    const { p } = spec;
+    const q = spec.randomParameters.length;
+    this.gradient = new Float64Array(p);
+    this.phi = new Float64Array(p);
+    // The checks mixedModelData made on every linearization, once: the rows are trusted after.
+    for (const g of groups) {
+      assertSameLength(g.x, g.y, [`group ${g.name}: x`, 'y']);
+      if (g.blocks !== undefined) assertSameLength(g.blocks, g.y, [`group ${g.name}: blocks`, 'y']);
+      assertFinite(g.x, `group ${g.name}: x`);
+      assertFinite(g.y, `group ${g.name}: y`);
+    }
     this.projections = groups.map((g) => blockContrastProjection(g.blocks ?? []));
+    const start = new Int32Array(groups.length + 1);
+    groups.forEach((g, i) => (start[i + 1] = start[i] + g.x.length));
+    const total = start[groups.length];
+    this.xs = new Float64Array(total);
+    this.ys = new Float64Array(total);
+    let longest = 0;
+    groups.forEach((g, i) => {
+      this.xs.set(g.x, start[i]);
+      this.ys.set(g.y, start[i]);
+      longest = Math.max(longest, g.x.length);
+    });
+    const absorbed = this.projections.reduce((sum, pr) => sum + (pr?.contrasts ?? 0), 0);
+    this.rows = {
+      p,
+      q,
+      names: groups.map((g) => g.name),
+      start,
+      x: new Float64Array(total * p),
+      z: new Float64Array(total * q),
+      y: new Float64Array(total),
+      n: total - absorbed,
+    };
+    this.residual = new Float64Array(longest);
   }
 
   /** φ_i = β + A·b_i, with b_i in working units. */
   private setPhi(beta: readonly number[], b: readonly number[]): void {
     for (let j = 0; j < this.spec.p; j++) this.phi[j] = beta[j];
-    this.spec.randomParameters.forEach((j, r) => (this.phi[j] += b[r] / this.randomScale[r]));
+    const { randomParameters } = this.spec;
+    for (let r = 0; r < randomParameters.length; r++) {
+      this.phi[randomParameters[r]] += b[r] / this.randomScale[r];
+    }
   }
 
-  /** The linear mixed model of the LME step at (β, b). */
+  /**
+   * The linear mixed model of the LME step at (β, b). The returned data is overwritten by the
+   * next call: read it before linearizing again.
+   */
   data(beta: readonly number[], b: readonly number[][]): MixedModelData {
     const { p, randomParameters } = this.spec;
-    const input: MixedModelGroup[] = this.groups.map((g, i) => {
+    const q = randomParameters.length;
+    const { x, z, y, start } = this.rows;
+    const gradient = this.gradient;
+    for (let i = 0; i < this.groups.length; i++) {
       this.setPhi(beta, b[i]);
-      const fixedRows: number[][] = [];
-      const randomRows: number[][] = [];
-      const w: number[] = [];
-      for (let r = 0; r < g.x.length; r++) {
-        const f = this.spec.evaluate(this.phi, g.x[r], this.gradient);
-        const xRow = Array.from(this.gradient);
-        const zRow = randomParameters.map((j, k) => this.gradient[j] / this.randomScale[k]);
-        let v = g.y[r] - f;
-        for (let j = 0; j < p; j++) v += xRow[j] * beta[j];
-        for (let k = 0; k < zRow.length; k++) v += zRow[k] * b[i][k];
-        fixedRows.push(xRow);
-        randomRows.push(zRow);
-        w.push(v);
+      const bi = b[i];
+      for (let r = start[i]; r < start[i + 1]; r++) {
+        const f = this.spec.evaluate(this.phi, this.xs[r], gradient);
+        let v = this.ys[r] - f;
+        for (let j = 0; j < p; j++) {
+          x[r * p + j] = gradient[j];
+          v += gradient[j] * beta[j];
+        }
+        for (let k = 0; k < q; k++) {
+          const zk = gradient[randomParameters[k]] / this.randomScale[k];
+          z[r * q + k] = zk;
+          v += zk * bi[k];
+        }
+        y[r] = v;
       }
-      return { name: g.name, fixedRows, randomRows, y: w, blocks: g.blocks };
-    });
-    return mixedModelData(input);
+      const projection = this.projections[i];
+      if (projection !== null) {
+        for (let j = 0; j < p; j++) projection.projectStrided(x, start[i] * p + j, p);
+        for (let k = 0; k < q; k++) projection.projectStrided(z, start[i] * q + k, q);
+        projection.projectStrided(y, start[i], 1);
+      }
+    }
+    this.built = mixedModelDataOfRows(this.rows, this.built);
+    return this.built;
   }
 
   /** Σ‖projected y_i − f_i‖² + ‖u_i‖², u_i = T⁻¹·b_i. */
   private objective(beta: readonly number[], b: readonly number[][], t: Float64Array): number {
     const q = this.spec.randomParameters.length;
+    const { start } = this.rows;
+    const residual = this.residual;
     let total = 0;
     const u = new Float64Array(q);
-    this.groups.forEach((g, i) => {
+    for (let i = 0; i < this.groups.length; i++) {
       this.setPhi(beta, b[i]);
-      const residual = g.x.map((x, r) => g.y[r] - this.spec.evaluate(this.phi, x, this.gradient));
-      this.projections[i]?.project(
-        (r) => residual[r],
-        (r, v) => (residual[r] = v),
-      );
-      for (const e of residual) total += e * e;
+      const m = start[i + 1] - start[i];
+      for (let r = 0; r < m; r++) {
+        const row = start[i] + r;
+        residual[r] = this.ys[row] - this.spec.evaluate(this.phi, this.xs[row], this.gradient);
+      }
+      this.projections[i]?.projectStrided(residual, 0, 1);
+      for (let r = 0; r < m; r++) total += residual[r] * residual[r];
       // Forward substitution T·u = b; a zero diagonal (a variance at 0) carries no penalty,
       // since b is 0 along it at the PNLS solution.
       for (let r = 0; r < q; r++) {
@@ -385,7 +468,7 @@ class Linearization {
         u[r] = Math.abs(d) > 1e-12 ? s / d : 0;
         total += u[r] * u[r];
       }
-    });
+    }
     return total;
   }
 
@@ -432,6 +515,19 @@ class Linearization {
     }
     return { beta, b };
   }
+}
+
+/** Each fixed effect within SETTLED_FIXED of its size, and θ within SETTLED_FIXED, over the rounds. */
+function inBand(rounds: readonly { fixed: number[]; theta: number[] }[]): boolean {
+  const spread = (values: number[]) => Math.max(...values) - Math.min(...values);
+  const fixedOk = rounds[0].fixed.every((v, j) => {
+    const column = rounds.map((r) => r.fixed[j]);
+    return spread(column) <= SETTLED_FIXED * Math.max(Math.abs(v), 1e-8);
+  });
+  return (
+    fixedOk &&
+    rounds[0].theta.every((_, j) => spread(rounds.map((r) => r.theta[j])) <= SETTLED_FIXED)
+  );
 }
 
 /** θ with each column of T signed so its diagonal is not negative (the deviance is unchanged). */

@@ -30,7 +30,8 @@ export interface NewtonResult {
  * Newton's method with numerical derivatives.
  * @param f - the function (finite near the start)
  * @param start - a point near the minimum
- * @param tolerance - stop when the step is below this in every coordinate
+ * @param tolerance - stop when the step is below this in every coordinate (or when the
+ *   decrease a full step predicts is below f's resolution, see below)
  * @returns the minimum, or null where Newton cannot proceed (see edge cases)
  * @example
  * newtonMinimize(([a, b]) => (a - 1) ** 2 + 3 * (b + 2) ** 2 + a * b, [0, 0], 1e-10)?.x
@@ -81,6 +82,20 @@ export function newtonMinimize(
     const step = Float64Array.from(g, (v) => -v);
     solveLowerInPlace(lower, d, step);
     solveLowerTransposeInPlace(lower, d, step);
+    // The decrease a full step predicts, ½·gᵀH⁻¹g, below what f resolves (1e-15 of |f|): the
+    // step is then the last Newton step worth taking (quadratic convergence leaves it accurate
+    // to about its square), and a line search could only halve in vain on f's rounding.
+    // Measured on the LME step at 1,000 site-years: the deviance's rounding (its r² is a
+    // difference of large sums of squares) puts the gradient's noise near 1e-4 and the steps
+    // near 5e-8, above a 1e-9 tolerance, and the search spent ~60 evaluations a call on noise.
+    let predicted = 0;
+    for (let i = 0; i < d; i++) predicted -= 0.5 * g[i] * step[i];
+    if (predicted <= 1e-15 * Math.max(1, Math.abs(fx))) {
+      const last = x.map((v, i) => v + step[i]);
+      const fLast = f(last);
+      evaluations++;
+      return fLast <= fx ? { x: last, fx: fLast, evaluations } : { x, fx, evaluations };
+    }
     let t = 1;
     let next = x;
     let fNext = Infinity;

@@ -385,7 +385,7 @@ export interface ResultsMixedModelForm {
   logLikelihood: number;
   aic: number;
   converged: boolean;
-  /** Converged, or cycling with its fixed effects within 0.1 % a round. */
+  /** Converged, or cycling with its fixed effects within 0.1 % over ten rounds. */
   settled: boolean;
   /** Why the fit did not converge; ''. */
   note: string;

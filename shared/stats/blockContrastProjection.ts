@@ -20,6 +20,14 @@ export interface BlockContrastProjection {
    * @param set - receives each row's projected value
    */
   project(column: (row: number) => number, set: (row: number, value: number) => void): void;
+  /**
+   * Projects one column stored in a flat array in place, without a closure per column: row r
+   * sits at values[offset + r·stride]. For callers that project every Gauss–Newton step.
+   * @param values - the flat array
+   * @param offset - index of row 0
+   * @param stride - distance between rows
+   */
+  projectStrided(values: Float64Array, offset: number, stride: number): void;
 }
 
 /**
@@ -47,18 +55,31 @@ export function blockContrastProjection(labels: readonly string[]): BlockContras
   choleskyLower(ctc, k, ctcLower);
   const w = new Float64Array(k);
   const sums = new Float64Array(blockNames.length);
+  // w_i = ((CᵀC)⁻¹Cᵀa)_i from the block sums; the first block's offset is −Σ w_i.
+  const offsets = (): number => {
+    for (let i = 0; i < k; i++) w[i] = sums[i + 1] - sums[0];
+    solveLowerInPlace(ctcLower, k, w);
+    solveLowerTransposeInPlace(ctcLower, k, w);
+    let first = 0;
+    for (let i = 0; i < k; i++) first -= w[i];
+    return first;
+  };
   return {
     contrasts: k,
     project(column, set) {
       sums.fill(0);
       for (let r = 0; r < m; r++) sums[blockOf[r]] += column(r);
-      for (let i = 0; i < k; i++) w[i] = sums[i + 1] - sums[0];
-      solveLowerInPlace(ctcLower, k, w);
-      solveLowerTransposeInPlace(ctcLower, k, w);
-      let first = 0;
-      for (let i = 0; i < k; i++) first -= w[i];
+      const first = offsets();
       for (let r = 0; r < m; r++) {
         set(r, column(r) - (blockOf[r] === 0 ? first : w[blockOf[r] - 1]));
+      }
+    },
+    projectStrided(values, offset, stride) {
+      sums.fill(0);
+      for (let r = 0; r < m; r++) sums[blockOf[r]] += values[offset + r * stride];
+      const first = offsets();
+      for (let r = 0; r < m; r++) {
+        values[offset + r * stride] -= blockOf[r] === 0 ? first : w[blockOf[r] - 1];
       }
     },
   };

@@ -144,6 +144,97 @@ export function mixedModelData(groups: readonly MixedModelGroup[]): MixedModelDa
   return { p, q, n, xtx, xty, yty, classes, groups: groupStats };
 }
 
+/**
+ * Every group's rows in flat arrays, block offsets already projected out: group g owns rows
+ * start[g] to start[g + 1] − 1, row r of X at x[r·p … r·p + p − 1], of Z at z[r·q …].
+ */
+export interface FlatMixedModelRows {
+  p: number;
+  q: number;
+  names: readonly string[];
+  /** First row of each group, and the total row count last (length groups + 1). */
+  start: Int32Array;
+  x: Float64Array;
+  z: Float64Array;
+  y: Float64Array;
+  /** Observations less the absorbed block contrasts. */
+  n: number;
+}
+
+/**
+ * The cross-products of rows already absorbed, one class per group: for a model whose every
+ * group has its own Z (the plateau forms' linearization at each site-year's own join), rebuilt
+ * at every Gauss–Newton step, where gathering classes would find none and its keys would cost
+ * more than the deviance saves. Writing into `target` (from an earlier call on rows of the same
+ * shape) allocates nothing. The rows are not checked: the caller computed them.
+ * @param rows - the groups' flat rows
+ * @param target - optional data of the same groups and sizes to overwrite
+ * @returns the cross-products, `target` when given
+ * @example
+ * const rows = { p: 1, q: 1, names: ['A'], start: Int32Array.of(0, 2), x: Float64Array.of(1, 1), z: Float64Array.of(1, 1), y: Float64Array.of(3, 5), n: 2 };
+ * mixedModelDataOfRows(rows).xty // Float64Array [8]
+ */
+export function mixedModelDataOfRows(
+  rows: FlatMixedModelRows,
+  target?: MixedModelData,
+): MixedModelData {
+  const { p, q, x, z, y, start } = rows;
+  const groupCount = rows.names.length;
+  const data: MixedModelData = target ?? {
+    p,
+    q,
+    n: rows.n,
+    xtx: new Float64Array(p * p),
+    xty: new Float64Array(p),
+    yty: 0,
+    classes: rows.names.map(() => ({
+      count: 1,
+      ztz: new Float64Array(q * q),
+      ztx: new Float64Array(q * p),
+      sumZty: new Float64Array(q),
+      sumZtyZty: new Float64Array(q * q),
+    })),
+    groups: rows.names.map((name, g) => ({ name, classIndex: g, zty: new Float64Array(q) })),
+  };
+  const { xtx, xty } = data;
+  xtx.fill(0);
+  xty.fill(0);
+  let yty = 0;
+  for (let g = 0; g < groupCount; g++) {
+    const c = data.classes[g];
+    const { ztz, ztx } = c;
+    const zty = data.groups[g].zty;
+    ztz.fill(0);
+    ztx.fill(0);
+    zty.fill(0);
+    for (let r = start[g]; r < start[g + 1]; r++) {
+      const xr = r * p;
+      const zr = r * q;
+      const yr = y[r];
+      yty += yr * yr;
+      for (let i = 0; i < p; i++) {
+        const xi = x[xr + i];
+        xty[i] += xi * yr;
+        for (let j = 0; j <= i; j++) xtx[i * p + j] += xi * x[xr + j];
+      }
+      for (let i = 0; i < q; i++) {
+        const zi = z[zr + i];
+        zty[i] += zi * yr;
+        for (let j = 0; j <= i; j++) ztz[i * q + j] += zi * z[zr + j];
+        for (let j = 0; j < p; j++) ztx[i * p + j] += zi * x[xr + j];
+      }
+    }
+    for (let i = 0; i < q; i++) {
+      for (let j = 0; j < i; j++) ztz[j * q + i] = ztz[i * q + j];
+      c.sumZty[i] = zty[i];
+      for (let j = 0; j < q; j++) c.sumZtyZty[i * q + j] = zty[i] * zty[j];
+    }
+  }
+  for (let i = 0; i < p; i++) for (let j = 0; j < i; j++) xtx[j * p + i] = xtx[i * p + j];
+  data.yty = yty;
+  return data;
+}
+
 /** A group's rows after the block offsets are projected out, and how many observations remain. */
 function absorbedRows(
   group: MixedModelGroup,

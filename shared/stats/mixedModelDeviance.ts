@@ -96,7 +96,12 @@ interface Solution {
   classRzx: Float64Array[];
 }
 
-function solve(data: MixedModelData, t: Float64Array): Solution | null {
+/**
+ * The blocked Cholesky solution at T. `keepClasses` keeps each class's Lθ and RZX (the
+ * conditional modes need them); without it one scratch pair serves every class, so a deviance
+ * evaluation over a thousand classes allocates nothing per class.
+ */
+function solve(data: MixedModelData, t: Float64Array, keepClasses: boolean): Solution | null {
   const { p, q } = data;
   const xtxAdjusted = Float64Array.from(data.xtx);
   const xtyAdjusted = Float64Array.from(data.xty);
@@ -107,6 +112,8 @@ function solve(data: MixedModelData, t: Float64Array): Solution | null {
   let cuSquared = 0;
   const classLower: Float64Array[] = [];
   const classRzx: Float64Array[] = [];
+  const scratchLower = new Float64Array(q * q);
+  const scratchRzx = new Float64Array(q * p);
   for (const c of data.classes) {
     // m = Tᵀ·ZᵀZ·T + I
     for (let i = 0; i < q; i++) {
@@ -119,11 +126,11 @@ function solve(data: MixedModelData, t: Float64Array): Solution | null {
         m[j * q + i] = s;
       }
     }
-    const lower = new Float64Array(q * q);
+    const lower = keepClasses ? new Float64Array(q * q) : scratchLower;
     if (!choleskyLower(m, q, lower)) return null;
     for (let i = 0; i < q; i++) logDetL += 2 * c.count * Math.log(lower[i * q + i]);
     // RZX = L⁻¹·Tᵀ·ZᵀX
-    const rzx = new Float64Array(q * p);
+    const rzx = keepClasses ? new Float64Array(q * p) : scratchRzx;
     for (let i = 0; i < q; i++) {
       for (let j = 0; j < p; j++) {
         let s = 0;
@@ -156,8 +163,10 @@ function solve(data: MixedModelData, t: Float64Array): Solution | null {
         if (j !== i) xtxAdjusted[j * p + i] = xtxAdjusted[i * p + j];
       }
     }
-    classLower.push(lower);
-    classRzx.push(rzx);
+    if (keepClasses) {
+      classLower.push(lower);
+      classRzx.push(rzx);
+    }
   }
   const rxLower = new Float64Array(p * p);
   if (!choleskyLower(xtxAdjusted, p, rxLower)) return null;
@@ -186,7 +195,7 @@ export function profiledDeviance(
   structure: CovarianceStructure,
   kind: LikelihoodKind,
 ): number {
-  const s = solve(data, covarianceFactor(theta, data.q, structure));
+  const s = solve(data, covarianceFactor(theta, data.q, structure), false);
   if (s === null || !(s.prss > 0)) return Infinity;
   return devianceFrom(s, data, kind);
 }
@@ -229,7 +238,7 @@ export function mixedModelEstimates(
 ): MixedModelEstimates | null {
   const { p, q } = data;
   const t = covarianceFactor(theta, q, structure);
-  const s = solve(data, t);
+  const s = solve(data, t, true);
   if (s === null || !(s.prss > 0)) return null;
   const residualVariance = s.prss / (kind === 'REML' ? data.n - p : data.n);
   const inverse = inverseFromCholesky(s.rxLower, p);
