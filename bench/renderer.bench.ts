@@ -63,7 +63,7 @@ export async function run(): Promise<void> {
   try {
     const opened = Date.now();
     await page.goto(session.url);
-    await page.getByTestId('site-optimum').waitFor({ timeout: 60_000 });
+    await page.getByTestId('site-optimum').waitFor({ timeout: 300_000 });
     // The demo is read, fitted (with its resamples) and drawn in the page's worker.
     console.log(
       `first analysis of the demo, page load to its first optimum: ${Date.now() - opened} ms`,
@@ -76,13 +76,13 @@ export async function run(): Promise<void> {
     await writeFile(file, await syntheticWorkbook({ sites: SITES, seed: 3 }));
     const t0 = Date.now();
     await page.getByTestId('trial-file-input').setInputFiles(file);
-    await page.getByTestId('sheet-Plots').waitFor({ timeout: 60_000 });
+    await page.getByTestId('sheet-Plots').waitFor({ timeout: 300_000 });
     await page.getByRole('button', { name: /Prices/ }).click();
     await page
       .getByTestId(`optimum-Site ${String(SITES).padStart(4, '0')}`)
-      .waitFor({ timeout: 30_000 });
+      .waitFor({ timeout: 300_000 });
     console.log(`read, mapped and fitted ${SITES} sites in the worker: ${Date.now() - t0} ms`);
-    await page.getByText('Ready').waitFor({ timeout: 120_000 });
+    await page.getByText('Ready').waitFor({ timeout: 600_000 });
 
     // The prices step has no chart: time to the re-priced table of the optima.
     const tableTimes = await page.evaluate(async (repeats) => {
@@ -110,7 +110,7 @@ export async function run(): Promise<void> {
         .locator('[data-testid="chart"] .main-svg')
         .nth(charts - 1)
         .waitFor();
-      await page.getByText('Ready').waitFor({ timeout: 120_000 });
+      await page.getByText('Ready').waitFor({ timeout: 600_000 });
       summary(
         `${step} step, price change to redrawn optimum and charts`,
         await timePriceChanges(page, charts),

@@ -15,6 +15,7 @@ import { optimumAcrossModels, type OptimumComparison } from '../economics/optimu
 import { optimumInterval, type OptimumInterval } from '../economics/optimumInterval';
 import { optimumProfileInterval, type OptimumProfileInterval } from '../economics/optimumProfile';
 import type { Prices } from '../economics/priceRatio';
+import { keptOnFirstRead } from './keptOnFirstRead';
 import { priceRatioSensitivity, type RatioMultiple } from '../economics/priceRatioSensitivity';
 import { shortfallRisk } from '../economics/shortfallRisk';
 import { candidateRates, toleranceInForce, type ShortfallRisk } from '../economics/shortfallRule';
@@ -185,23 +186,29 @@ function reachingZero(interval: OptimumInterval): OptimumInterval {
   return ci && ci[0] > 0 ? { ...interval, ciKgHa: [0, ci[1]] } : interval;
 }
 
-/** A site's optimum and interval at one set of prices, as its decision makes them. */
-function recommendationAt(
+/** A site's optimum at one set of prices, as its decision makes it. */
+function optimumAt(
   s: SiteAnalysis,
   lead: SiteLead & { model: ModelName },
   fit: FitData,
   prices: Prices,
-  level: number,
-): { optimum: EconomicOptimum; interval: OptimumInterval | null } {
+): EconomicOptimum {
   const fitted = economicOptimum(fit, prices);
-  const interval = s.draws
-    ? optimumInterval(s.draws, lead.model, prices, level, resampleBasis(lead))
-    : null;
-  const noResponse = lead.basis === 'no-response';
-  return {
-    optimum: noResponse ? noResponseOptimum(fitted, fit, prices, s.rateEffect) : fitted,
-    interval: noResponse && interval ? reachingZero(interval) : interval,
-  };
+  return lead.basis === 'no-response'
+    ? noResponseOptimum(fitted, fit, prices, s.rateEffect)
+    : fitted;
+}
+
+/** The optimum's interval at one set of prices from the site's resamples; null without them. */
+function intervalAt(
+  s: SiteAnalysis,
+  lead: SiteLead & { model: ModelName },
+  prices: Prices,
+  level: number,
+): OptimumInterval | null {
+  if (!s.draws) return null;
+  const interval = optimumInterval(s.draws, lead.model, prices, level, resampleBasis(lead));
+  return lead.basis === 'no-response' && interval ? reachingZero(interval) : interval;
 }
 
 /**
@@ -240,12 +247,12 @@ export function priceSite(
     };
   }
   const led = { ...lead, model };
-  const here = recommendationAt(s, led, fit, prices, level);
+  const optimum = optimumAt(s, led, fit, prices);
   const priced: PricedSite = {
     site: s.site,
     lead,
-    optimum: here.optimum,
-    interval: here.interval,
+    optimum,
+    interval: null,
     optimumProfile:
       lead.basis === 'no-response'
         ? null
@@ -255,12 +262,18 @@ export function priceSite(
     priceRatioSensitivity: null,
     shortfallRisk: null,
   };
-  // The 1× row is the recommendation itself; the other rows ask the same function again.
+  // The interval costs a pass over every resample and candidate model: made when a view reads it.
+  keptOnFirstRead(priced, 'interval', () => intervalAt(s, led, prices, level));
+  // The 1× row is the recommendation itself; the other rows ask the same functions again.
   keptOnFirstRead(priced, 'priceRatioSensitivity', () =>
-    priceRatioSensitivity(prices, (scaled, m) => {
-      const r = m === 1 ? here : recommendationAt(s, led, fit, scaled, level);
-      return { rateKgHa: recommendedRateKgHa(r.optimum), intervalKgHa: r.interval?.ciKgHa ?? null };
-    }),
+    priceRatioSensitivity(prices, (scaled, m) =>
+      m === 1
+        ? { rateKgHa: recommendedRateKgHa(optimum), intervalKgHa: priced.interval?.ciKgHa ?? null }
+        : {
+            rateKgHa: recommendedRateKgHa(optimumAt(s, led, fit, scaled)),
+            intervalKgHa: intervalAt(s, led, scaled, level)?.ciKgHa ?? null,
+          },
+    ),
   );
   keptOnFirstRead(priced, 'shortfallRisk', () =>
     s.draws
@@ -269,38 +282,10 @@ export function priceSite(
           model,
           resampleBasis(lead),
           prices,
-          candidateRates(fit.testedRates.distinctKgHa, recommendedRateKgHa(here.optimum)),
+          candidateRates(fit.testedRates.distinctKgHa, recommendedRateKgHa(optimum)),
           tolerancePerHa,
         )
       : null,
   );
   return priced;
-}
-
-/**
- * Makes `key` of `target` a value computed when first read, then kept. The price-ratio rows cost
- * four more bootstrap intervals per site and the risk table one more pass over the resamples,
- * about three quarters of re-pricing a site; a price slider over many sites pays for them only
- * on the sites a view reads (the workspace shows one site's table at a time), while the command
- * line's JSON, the workbook and the report read every one. Enumerable, so JSON, spreads and
- * structured clones read it like any field.
- */
-function keptOnFirstRead<T extends object, K extends keyof T>(
-  target: T,
-  key: K,
-  compute: () => T[K],
-): void {
-  let value: T[K] | undefined;
-  let read = false;
-  Object.defineProperty(target, key, {
-    enumerable: true,
-    configurable: true,
-    get(): T[K] {
-      if (!read) {
-        value = compute();
-        read = true;
-      }
-      return value as T[K];
-    },
-  });
 }

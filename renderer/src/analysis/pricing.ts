@@ -6,6 +6,7 @@
  * (leadingModel: the user's pick, else the site's recommendation model), so the
  * screen, the workbook and the command line agree.
  */
+import { keptOnFirstRead } from '../../../shared/analysis/keptOnFirstRead';
 import { economicOptimum, type EconomicOptimum } from '../../../shared/economics/economicOptimum';
 import type { OptimumProfileInterval } from '../../../shared/economics/optimumProfile';
 import type { Prices } from '../../../shared/economics/priceRatio';
@@ -62,19 +63,23 @@ export function siteOptima(sites: readonly SiteAnalysis[], priced: PricedTrial):
     const p = priced.sites[i];
     const model = p?.lead.model ?? null;
     const fit = model ? (site.fits[model] ?? null) : null;
-    return {
+    const optimum: SiteOptimum = {
       site: site.site,
       model,
       fit,
       optimum: fit ? p.optimum : null,
       basis: fit ? (p.lead.basis ?? null) : null,
-      intervalKgHa: fit ? (p.interval?.ciKgHa ?? null) : null,
+      intervalKgHa: null,
       profile: fit ? p.optimumProfile : null,
       spreadKgHa: p?.acrossModels?.warning
         ? [p.acrossModels.lowestRateKgHa, p.acrossModels.highestRateKgHa]
         : null,
       reason: fit ? null : (site.problem ?? 'No model gave an economic optimum at this site.'),
     };
+    // Read by the one-site step for the site on screen; the prices step's table of every site
+    // shows optima only, so the intervals of the others are never made (priceSite's interval).
+    keptOnFirstRead(optimum, 'intervalKgHa', () => (fit ? (p.interval?.ciKgHa ?? null) : null));
+    return optimum;
   });
 }
 
