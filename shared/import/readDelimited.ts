@@ -8,24 +8,18 @@
 import type { SourceFile } from '../table/plotTable';
 import { ImportError } from './importError';
 import { importLimits, type ImportLimits } from './importLimits';
-import { parseNumberText } from '../table/parseNumberText';
 import { DelimitedRecords } from './delimitedRecords';
 import { tooManyCells } from './limitErrors';
 import { cellAddress, type RawCell, type RawWorkbook } from './rawWorkbook';
+import { scanDelimitedRows } from './scanDelimitedRows';
+import { SharedCells } from './sharedCells';
 
-type Separator = ',' | ';' | '\t';
+export type Separator = ',' | ';' | '\t';
 
 type Limits = Pick<ImportLimits, 'maxRows' | 'maxColumns' | 'maxCellChars' | 'maxCells'>;
 
 /** How much of the file the separator is guessed from: its first lines, however long they are. */
 const SEPARATOR_SAMPLE_CHARS = 256 * 1024;
-
-/**
- * Distinct cell texts whose cells are shared. A cell is a value (its place is its row and
- * column), so every "0" of a rate column can be one object; trial files repeat a few hundred
- * texts (rates, blocks, sites, years), and the table stays bounded when a file does not.
- */
-const MAX_SHARED_CELLS = 65_536;
 
 function chooseSeparator(text: string, fileName: string): Separator {
   const lines = text
@@ -74,6 +68,55 @@ function writesDecimalComma(records: DelimitedRecords): boolean {
 }
 
 /**
+ * The rows of the file read record by record with DelimitedRecords: the plain reading, which
+ * throws the error that names the cell when a cap is met (scanDelimitedRows gives the same rows
+ * for every file this reads without an error; tests/import.csvFastPath.test.ts checks it).
+ * @param file - name, size and hash of the file
+ * @param text - its decoded text
+ * @param separator - one of , ; and tab
+ * @param decimalComma - numbers are written with a decimal comma
+ * @param limits - caps on rows, fields per line, characters per field and filled cells
+ * @returns rows[r - 1][c - 1], trailing blank fields left off (trailing blank lines kept)
+ * @throws {ImportError} as {@link readDelimited}
+ * @example
+ * recordRows(file, 'a;b', ';', true, importLimits)[0][1]?.text // 'b'
+ */
+export function recordRows(
+  file: SourceFile,
+  text: string,
+  separator: Separator,
+  decimalComma: boolean,
+  limits: Limits,
+): (RawCell | null)[][] {
+  const shared = new SharedCells(decimalComma);
+  const records = new DelimitedRecords(text, separator, file.name, limits);
+  const rows: (RawCell | null)[][] = [];
+  let filled = 0;
+  for (let rec = records.next(); rec; rec = records.next()) {
+    // Trailing blank fields carry nothing; they are left off so they cannot look like missing plots.
+    let width = rec.length;
+    while (width > 0 && rec[width - 1] === '') width--;
+    const row: (RawCell | null)[] = [];
+    for (let c = 0; c < width; c++) {
+      const f = rec[c];
+      if (f === '') {
+        row.push(null);
+        continue;
+      }
+      if (++filled > limits.maxCells)
+        throw tooManyCells(
+          { file: file.name },
+          cellAddress(rows.length + 1, c + 1),
+          limits.maxCells,
+        );
+      row.push(shared.of(f));
+    }
+    rows.push(row);
+  }
+  return rows;
+}
+
+/**
  * Reads a delimited text file.
  * @param file - name, size and hash of the file
  * @param text - its decoded text
@@ -98,40 +141,11 @@ export function readDelimited(
   const decimalComma =
     separator !== ',' &&
     writesDecimalComma(new DelimitedRecords(text, separator, file.name, limits));
-  const shared = new Map<string, RawCell>();
-  const cellOf = (f: string): RawCell => {
-    const known = shared.get(f);
-    if (known) return known;
-    const num = parseNumberText(f, decimalComma);
-    const cell: RawCell =
-      num === null ? { text: f, value: f, kind: 'text' } : { text: f, value: num, kind: 'number' };
-    if (shared.size < MAX_SHARED_CELLS) shared.set(f, cell);
-    return cell;
-  };
-  const records = new DelimitedRecords(text, separator, file.name, limits);
-  const rows: (RawCell | null)[][] = [];
-  let filled = 0;
-  for (let rec = records.next(); rec; rec = records.next()) {
-    // Trailing blank fields carry nothing; they are left off so they cannot look like missing plots.
-    let width = rec.length;
-    while (width > 0 && rec[width - 1] === '') width--;
-    const row: (RawCell | null)[] = [];
-    for (let c = 0; c < width; c++) {
-      const f = rec[c];
-      if (f === '') {
-        row.push(null);
-        continue;
-      }
-      if (++filled > limits.maxCells)
-        throw tooManyCells(
-          { file: file.name },
-          cellAddress(rows.length + 1, c + 1),
-          limits.maxCells,
-        );
-      row.push(cellOf(f));
-    }
-    rows.push(row);
-  }
+  // One pass over the text; a file that meets a cap or an unclosed quote is read again record
+  // by record, which names the cell (scanDelimitedRows returns null for it).
+  const rows =
+    scanDelimitedRows(text, separator, decimalComma, limits) ??
+    recordRows(file, text, separator, decimalComma, limits);
   // Trailing blank lines likewise.
   while (rows.length > 0 && rows[rows.length - 1].length === 0) rows.pop();
   return {
