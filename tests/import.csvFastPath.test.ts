@@ -146,17 +146,16 @@ describe('scanDelimitedRows', () => {
       const { text, fields } = writtenCsv({ sites: 3, ...v });
       // The reader written from the RFC recovers what was written (a check of the check).
       expect(rfc4180Records(text, v.sep)).toEqual(fields);
-      const rows = scanDelimitedRows(text, v.sep, v.decimalComma, importLimits);
-      expect(rows).not.toBeNull();
-      expect(texts(rows!)).toEqual(trimmed(fields));
+      const scan = scanDelimitedRows(text, v.sep, v.decimalComma, importLimits);
+      expect('rows' in scan && texts(scan.rows)).toEqual(trimmed(fields));
     },
   );
 
   it.each(variants)('gives the same cells as the record-by-record reading (variant %#)', (v) => {
     const { text } = writtenCsv({ sites: 3, ...v });
-    expect(scanDelimitedRows(text, v.sep, v.decimalComma, importLimits)).toEqual(
-      recordRows(file, text, v.sep, v.decimalComma, importLimits),
-    );
+    expect(scanDelimitedRows(text, v.sep, v.decimalComma, importLimits)).toEqual({
+      rows: recordRows(file, text, v.sep, v.decimalComma, importLimits),
+    });
   });
 
   it('reads decimal commas as numbers when the file writes them', () => {
@@ -171,41 +170,47 @@ describe('scanDelimitedRows', () => {
     const text = decodeText(f.bytes).text;
     const sep = (readDelimited(file, text).separator ?? ',') as Separator;
     const decimalComma = readDelimited(file, text).sheets[0].decimalComma;
-    const rows = scanDelimitedRows(text, sep, decimalComma, importLimits);
-    expect(texts(rows!)).toEqual(trimmed(rfc4180Records(text, sep)));
-    expect(rows).toEqual(recordRows(file, text, sep, decimalComma, importLimits));
+    const scan = scanDelimitedRows(text, sep, decimalComma, importLimits);
+    expect('rows' in scan && texts(scan.rows)).toEqual(trimmed(rfc4180Records(text, sep)));
+    expect(scan).toEqual({ rows: recordRows(file, text, sep, decimalComma, importLimits) });
   });
 
-  it('gives up exactly where the plain reading meets a cap or an unclosed quote', () => {
+  it('stops at the record where the plain reading meets a cap or an unclosed quote', () => {
     const { text } = writtenCsv({ sites: 2, sep: ',', decimalComma: false, lineEnd: '\n' });
-    const cases: { text: string; limits: Limits }[] = [
-      { text, limits: { ...importLimits, maxRows: 20 } },
-      { text, limits: { ...importLimits, maxRows: 49 } },
-      { text, limits: { ...importLimits, maxColumns: 6 } },
-      { text, limits: { ...importLimits, maxCellChars: 8 } },
-      { text, limits: { ...importLimits, maxCellChars: 19 } },
-      { text, limits: { ...importLimits, maxCells: 100 } },
-      { text: `${text}Site 9,2025,1,"open`, limits: importLimits },
-      { text: `a,"b""c""d"x,e\n`, limits: { ...importLimits, maxCellChars: 6 } },
+    const quotes = `a,"b""c""d"x,e\n`; // the second field is b"c"dx: 6 characters
+    // [text, caps, whether the plain reading refuses it]
+    const cases: [string, Partial<Limits>, boolean][] = [
+      [text, { maxRows: 20 }, true],
+      [text, { maxRows: 49 }, false], // header + 48 plots
+      [text, { maxColumns: 6 }, true], // the notes are in column G
+      [text, { maxCellChars: 8 }, true],
+      [text, { maxCellChars: 21 }, false], // the longest note: 21 characters with its CR LF
+      [text, { maxCellChars: 20 }, true],
+      [text, { maxCells: 100 }, true],
+      [`${text}Site 9,2025,1,"open`, {}, true],
+      [quotes, { maxCellChars: 6 }, false],
+      [quotes, { maxCellChars: 5 }, true],
     ];
-    let refused = 0;
-    for (const c of cases) {
-      const fast = scanDelimitedRows(c.text, ',', false, c.limits);
+    for (const [t, caps, refused] of cases) {
+      const limits = { ...importLimits, ...caps };
+      const scan = scanDelimitedRows(t, ',', false, limits);
       let plain: unknown;
       try {
-        plain = recordRows(file, c.text, ',', false, c.limits);
+        plain = recordRows(file, t, ',', false, limits);
       } catch (e) {
         plain = e;
       }
+      expect(plain instanceof Error).toBe(refused);
       if (plain instanceof Error) {
-        refused++;
-        expect(fast).toBeNull();
-        // readDelimited says what the plain reading says.
-        expect(() => readDelimited(file, c.text, c.limits)).toThrow(plain.message);
-      } else expect(fast).toEqual(plain);
+        expect('stoppedAt' in scan).toBe(true);
+        if (!('stoppedAt' in scan)) continue;
+        // Read on from the record that stopped the pass: the same error as reading it all.
+        expect(() => recordRows(file, t, ',', false, limits, scan.stoppedAt)).toThrow(
+          plain.message,
+        );
+        expect(() => readDelimited(file, t, limits)).toThrow(plain.message);
+      } else expect(scan).toEqual({ rows: plain });
     }
-    // All but the last two cases meet their cap (maxRows 49 and maxCellChars 19 do not).
-    expect(refused).toBe(cases.length - 2);
   });
 });
 

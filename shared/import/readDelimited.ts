@@ -11,7 +11,7 @@ import { importLimits, type ImportLimits } from './importLimits';
 import { DelimitedRecords } from './delimitedRecords';
 import { tooManyCells } from './limitErrors';
 import { cellAddress, type RawCell, type RawWorkbook } from './rawWorkbook';
-import { scanDelimitedRows } from './scanDelimitedRows';
+import { scanDelimitedRows, type RecordStart } from './scanDelimitedRows';
 import { SharedCells } from './sharedCells';
 
 export type Separator = ',' | ';' | '\t';
@@ -76,7 +76,9 @@ function writesDecimalComma(records: DelimitedRecords): boolean {
  * @param separator - one of , ; and tab
  * @param decimalComma - numbers are written with a decimal comma
  * @param limits - caps on rows, fields per line, characters per field and filled cells
- * @returns rows[r - 1][c - 1], trailing blank fields left off (trailing blank lines kept)
+ * @param from - the record to start at (its offset, the records and filled cells before it)
+ * @returns rows[r - 1][c - 1] from that record on, trailing blank fields left off (trailing
+ *   blank lines kept)
  * @throws {ImportError} as {@link readDelimited}
  * @example
  * recordRows(file, 'a;b', ';', true, importLimits)[0][1]?.text // 'b'
@@ -87,11 +89,12 @@ export function recordRows(
   separator: Separator,
   decimalComma: boolean,
   limits: Limits,
+  from: RecordStart = { at: 0, row: 0, filled: 0 },
 ): (RawCell | null)[][] {
   const shared = new SharedCells(decimalComma);
-  const records = new DelimitedRecords(text, separator, file.name, limits);
+  const records = new DelimitedRecords(text, separator, file.name, limits, from);
   const rows: (RawCell | null)[][] = [];
-  let filled = 0;
+  let filled = from.filled;
   for (let rec = records.next(); rec; rec = records.next()) {
     // Trailing blank fields carry nothing; they are left off so they cannot look like missing plots.
     let width = rec.length;
@@ -106,7 +109,7 @@ export function recordRows(
       if (++filled > limits.maxCells)
         throw tooManyCells(
           { file: file.name },
-          cellAddress(rows.length + 1, c + 1),
+          cellAddress(from.row + rows.length + 1, c + 1),
           limits.maxCells,
         );
       row.push(shared.of(f));
@@ -141,11 +144,17 @@ export function readDelimited(
   const decimalComma =
     separator !== ',' &&
     writesDecimalComma(new DelimitedRecords(text, separator, file.name, limits));
-  // One pass over the text; a file that meets a cap or an unclosed quote is read again record
-  // by record, which names the cell (scanDelimitedRows returns null for it).
-  const rows =
-    scanDelimitedRows(text, separator, decimalComma, limits) ??
-    recordRows(file, text, separator, decimalComma, limits);
+  // One pass over the text. A file that meets a cap or holds an unclosed quote is read on record
+  // by record from the record that stopped the pass, which names the cell; the pass read the
+  // records before it under every cap, so nothing is read twice.
+  const scan = scanDelimitedRows(text, separator, decimalComma, limits);
+  let rows: (RawCell | null)[][];
+  if ('rows' in scan) rows = scan.rows;
+  else {
+    recordRows(file, text, separator, decimalComma, limits, scan.stoppedAt);
+    // Reached only if the two readings disagreed about that record: the plain reading is kept.
+    rows = recordRows(file, text, separator, decimalComma, limits);
+  }
   // Trailing blank lines likewise.
   while (rows.length > 0 && rows[rows.length - 1].length === 0) rows.pop();
   return {

@@ -7,8 +7,9 @@
  * Fields follow RFC 4180 as DelimitedRecords reads them (double quotes, "" for a quote inside,
  * line breaks inside quotes; text after a closing quote up to the separator kept; CR, LF or
  * CR LF end a record). A file that meets a cap or a quote never closed is not this reader's to
- * explain: it returns null, and the caller reads the file again with DelimitedRecords, which
- * names the cell and says what to do, in the same words as ever.
+ * explain: it says where the record that meets it starts, and the caller reads on from there with
+ * DelimitedRecords, which names the cell and says what to do, in the same words as ever (the
+ * records before it were read under every cap, so the plain reading would have come this far).
  */
 import type { ImportLimits } from './importLimits';
 import type { RawCell } from './rawWorkbook';
@@ -18,16 +19,23 @@ const QUOTE = 34; // "
 const LF = 10;
 const CR = 13;
 
+/** Where a record starts: its offset in the text, the records and the filled cells before it. */
+export interface RecordStart {
+  at: number;
+  row: number;
+  filled: number;
+}
+
 /**
  * Reads every row of `text`.
  * @param text - the decoded file
  * @param separator - one of , ; and tab
  * @param decimalComma - numbers are written with a decimal comma
  * @param limits - rows, fields per line, characters per field and filled cells
- * @returns rows[r - 1][c - 1] as readDelimited builds them (trailing blank lines kept), or
- *   null when a cap is exceeded or a quoted field is never closed
+ * @returns `rows`: rows[r - 1][c - 1] as readDelimited builds them (trailing blank lines kept);
+ *   or `stoppedAt`: the start of the record that exceeds a cap or holds a quote never closed
  * @example
- * scanDelimitedRows('a,b\n1,', ',', false, importLimits)
+ * scanDelimitedRows('a,b\n1,', ',', false, importLimits).rows
  * // [[{ text: 'a', … }, { text: 'b', … }], [{ text: '1', value: 1, kind: 'number' }]]
  */
 export function scanDelimitedRows(
@@ -35,7 +43,7 @@ export function scanDelimitedRows(
   separator: string,
   decimalComma: boolean,
   limits: Pick<ImportLimits, 'maxRows' | 'maxColumns' | 'maxCellChars' | 'maxCells'>,
-): (RawCell | null)[][] | null {
+): { rows: (RawCell | null)[][] } | { stoppedAt: RecordStart } {
   const { maxRows, maxColumns, maxCellChars, maxCells } = limits;
   const sep = separator.charCodeAt(0);
   const n = text.length;
@@ -46,7 +54,9 @@ export function scanDelimitedRows(
   const fields: (RawCell | null)[] = [];
   let at = 0;
   while (at < n) {
-    if (rows.length >= maxRows) return null;
+    const recordAt = at;
+    const filledBefore = filled;
+    if (rows.length >= maxRows) return stoppedAt(recordAt, rows.length, filledBefore);
     let width = 0;
     // Empty fields not yet written: written only when a filled one follows them.
     let blanks = 0;
@@ -54,7 +64,7 @@ export function scanDelimitedRows(
       let cell: RawCell | null;
       if (text.charCodeAt(at) === QUOTE) {
         const f = quotedField(text, at, sep, maxCellChars);
-        if (f === null) return null;
+        if (f === null) return stoppedAt(recordAt, rows.length, filledBefore);
         cell = f.text === '' ? null : cells.of(f.text);
         at = f.end;
       } else {
@@ -66,13 +76,14 @@ export function scanDelimitedRows(
           if (c === sep || c === LF || c === CR) break;
           h = hashStep(h, c);
         }
-        if (i - at > maxCellChars) return null;
+        if (i - at > maxCellChars) return stoppedAt(recordAt, rows.length, filledBefore);
         cell = i === at ? null : cells.inText(text, at, i, h);
         at = i;
       }
       if (cell === null) blanks++;
       else {
-        if (column > maxColumns || ++filled > maxCells) return null;
+        if (column > maxColumns || ++filled > maxCells)
+          return stoppedAt(recordAt, rows.length, filledBefore);
         for (; blanks > 0; blanks--) fields[width++] = null;
         fields[width++] = cell;
       }
@@ -84,7 +95,11 @@ export function scanDelimitedRows(
     }
     rows.push(fields.slice(0, width));
   }
-  return rows;
+  return { rows };
+}
+
+function stoppedAt(at: number, row: number, filled: number): { stoppedAt: RecordStart } {
+  return { stoppedAt: { at, row, filled } };
 }
 
 /**
