@@ -1,7 +1,9 @@
 /**
  * A CSV, TSV or semicolon-separated text file as a one-sheet RawWorkbook.
- * Records are read by DelimitedRecords (RFC 4180 quoting, caps on rows, fields per line and
- * characters per field checked while reading); the separator is the one of comma, semicolon
+ * Rows are read in one pass by scanDelimitedRows; from a record that meets a cap (rows, fields
+ * per line, characters per field, filled cells) or an unclosed quote on, by DelimitedRecords,
+ * which names the cell (both: RFC 4180 quoting, caps checked while reading); the separator is
+ * the one of comma, semicolon
  * and tab that splits the first lines into the same number of fields most often; a decimal
  * comma is recognized when the separator is not a comma.
  */
@@ -155,7 +157,7 @@ export function readDelimited(
     // Reached only if the two readings disagreed about that record: the plain reading is kept.
     rows = recordRows(file, text, separator, decimalComma, limits);
   }
-  // Trailing blank lines likewise.
+  // Trailing blank lines carry nothing either (trailing blank fields are left off by the readers).
   while (rows.length > 0 && rows[rows.length - 1].length === 0) rows.pop();
   return {
     file,
