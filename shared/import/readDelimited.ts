@@ -2,10 +2,9 @@
  * A CSV, TSV or semicolon-separated text file as a one-sheet RawWorkbook.
  * Rows are read in one pass by scanDelimitedRows; from a record that meets a cap (rows, fields
  * per line, characters per field, filled cells) or an unclosed quote on, by DelimitedRecords,
- * which names the cell (both: RFC 4180 quoting, caps checked while reading); the separator is
- * the one of comma, semicolon
- * and tab that splits the first lines into the same number of fields most often; a decimal
- * comma is recognized when the separator is not a comma.
+ * which names the cell (both: RFC 4180 quoting, caps checked while reading). The separator is
+ * the one of comma, semicolon and tab that splits the first lines into the same number of fields
+ * most often; a decimal comma is recognized when the separator is not a comma.
  */
 import type { SourceFile } from '../table/plotTable';
 import { ImportError } from './importError';
