@@ -34,14 +34,19 @@ export class DelimitedRecords {
    * @param separator - one of , ; and tab
    * @param file - the file's name, for messages
    * @param limits - the caps checked while reading
+   * @param from - where to start: a record's offset in the text and the records before it
+   *   (readDelimited reads on from where scanDelimitedRows stopped)
    */
   constructor(
     private readonly text: string,
     separator: string,
     private readonly file: string,
     private readonly limits: DelimitedLimits,
+    from: { at: number; row: number } = { at: 0, row: 0 },
   ) {
     this.sep = separator.charCodeAt(0);
+    this.at = from.at;
+    this.row = from.row;
   }
 
   /**

@@ -39,6 +39,9 @@ export function yearsFromFileNames(
   const named = files.filter((f) => f.plots.length > 0 && f.plots.every((p) => p.year === null));
   const yearOf = new Map(named.map((f) => [f, yearFromFileName(f.name)]));
   const distinct = new Set([...yearOf.values()].filter((y) => y !== null));
+  // No file name gives a year (the usual case): nothing to compare, so the years of every plot
+  // of the other files are not gathered.
+  if (distinct.size === 0) return;
   const withYears = files.filter((f) => f.plots.some((p) => p.year !== null));
   // Different years among the files: named ones differ, or a named year is not the others'.
   const otherYears = new Set(withYears.flatMap((f) => f.plots.map((p) => p.year)));

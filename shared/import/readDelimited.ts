@@ -1,31 +1,26 @@
 /**
  * A CSV, TSV or semicolon-separated text file as a one-sheet RawWorkbook.
- * Records are read by DelimitedRecords (RFC 4180 quoting, caps on rows, fields per line and
- * characters per field checked while reading); the separator is the one of comma, semicolon
- * and tab that splits the first lines into the same number of fields most often; a decimal
- * comma is recognized when the separator is not a comma.
+ * Rows are read in one pass by scanDelimitedRows; from a record that meets a cap (rows, fields
+ * per line, characters per field, filled cells) or an unclosed quote on, by DelimitedRecords,
+ * which names the cell (both: RFC 4180 quoting, caps checked while reading). The separator is
+ * the one of comma, semicolon and tab that splits the first lines into the same number of fields
+ * most often; a decimal comma is recognized when the separator is not a comma.
  */
 import type { SourceFile } from '../table/plotTable';
 import { ImportError } from './importError';
 import { importLimits, type ImportLimits } from './importLimits';
-import { parseNumberText } from '../table/parseNumberText';
 import { DelimitedRecords } from './delimitedRecords';
 import { tooManyCells } from './limitErrors';
 import { cellAddress, type RawCell, type RawWorkbook } from './rawWorkbook';
+import { scanDelimitedRows, type RecordStart } from './scanDelimitedRows';
+import { SharedCells } from './sharedCells';
 
-type Separator = ',' | ';' | '\t';
+export type Separator = ',' | ';' | '\t';
 
 type Limits = Pick<ImportLimits, 'maxRows' | 'maxColumns' | 'maxCellChars' | 'maxCells'>;
 
 /** How much of the file the separator is guessed from: its first lines, however long they are. */
 const SEPARATOR_SAMPLE_CHARS = 256 * 1024;
-
-/**
- * Distinct cell texts whose cells are shared. A cell is a value (its place is its row and
- * column), so every "0" of a rate column can be one object; trial files repeat a few hundred
- * texts (rates, blocks, sites, years), and the table stays bounded when a file does not.
- */
-const MAX_SHARED_CELLS = 65_536;
 
 function chooseSeparator(text: string, fileName: string): Separator {
   const lines = text
@@ -74,6 +69,58 @@ function writesDecimalComma(records: DelimitedRecords): boolean {
 }
 
 /**
+ * The rows of the file read record by record with DelimitedRecords: the plain reading, which
+ * throws the error that names the cell when a cap is met (scanDelimitedRows gives the same rows
+ * for every file this reads without an error; tests/import.csvFastPath.test.ts checks it).
+ * @param file - name, size and hash of the file
+ * @param text - its decoded text
+ * @param separator - one of , ; and tab
+ * @param decimalComma - numbers are written with a decimal comma
+ * @param limits - caps on rows, fields per line, characters per field and filled cells
+ * @param from - the record to start at (its offset, the records and filled cells before it)
+ * @returns rows[r - 1][c - 1] from that record on, trailing blank fields left off (trailing
+ *   blank lines kept)
+ * @throws {ImportError} as {@link readDelimited}
+ * @example
+ * recordRows(file, 'a;b', ';', true, importLimits)[0][1]?.text // 'b'
+ */
+export function recordRows(
+  file: SourceFile,
+  text: string,
+  separator: Separator,
+  decimalComma: boolean,
+  limits: Limits,
+  from: RecordStart = { at: 0, row: 0, filled: 0 },
+): (RawCell | null)[][] {
+  const shared = new SharedCells(decimalComma);
+  const records = new DelimitedRecords(text, separator, file.name, limits, from);
+  const rows: (RawCell | null)[][] = [];
+  let filled = from.filled;
+  for (let rec = records.next(); rec; rec = records.next()) {
+    // Trailing blank fields carry nothing; they are left off so they cannot look like missing plots.
+    let width = rec.length;
+    while (width > 0 && rec[width - 1] === '') width--;
+    const row: (RawCell | null)[] = [];
+    for (let c = 0; c < width; c++) {
+      const f = rec[c];
+      if (f === '') {
+        row.push(null);
+        continue;
+      }
+      if (++filled > limits.maxCells)
+        throw tooManyCells(
+          { file: file.name },
+          cellAddress(from.row + rows.length + 1, c + 1),
+          limits.maxCells,
+        );
+      row.push(shared.of(f));
+    }
+    rows.push(row);
+  }
+  return rows;
+}
+
+/**
  * Reads a delimited text file.
  * @param file - name, size and hash of the file
  * @param text - its decoded text
@@ -98,41 +145,18 @@ export function readDelimited(
   const decimalComma =
     separator !== ',' &&
     writesDecimalComma(new DelimitedRecords(text, separator, file.name, limits));
-  const shared = new Map<string, RawCell>();
-  const cellOf = (f: string): RawCell => {
-    const known = shared.get(f);
-    if (known) return known;
-    const num = parseNumberText(f, decimalComma);
-    const cell: RawCell =
-      num === null ? { text: f, value: f, kind: 'text' } : { text: f, value: num, kind: 'number' };
-    if (shared.size < MAX_SHARED_CELLS) shared.set(f, cell);
-    return cell;
-  };
-  const records = new DelimitedRecords(text, separator, file.name, limits);
-  const rows: (RawCell | null)[][] = [];
-  let filled = 0;
-  for (let rec = records.next(); rec; rec = records.next()) {
-    // Trailing blank fields carry nothing; they are left off so they cannot look like missing plots.
-    let width = rec.length;
-    while (width > 0 && rec[width - 1] === '') width--;
-    const row: (RawCell | null)[] = [];
-    for (let c = 0; c < width; c++) {
-      const f = rec[c];
-      if (f === '') {
-        row.push(null);
-        continue;
-      }
-      if (++filled > limits.maxCells)
-        throw tooManyCells(
-          { file: file.name },
-          cellAddress(rows.length + 1, c + 1),
-          limits.maxCells,
-        );
-      row.push(cellOf(f));
-    }
-    rows.push(row);
+  // One pass over the text. A file that meets a cap or holds an unclosed quote is read on record
+  // by record from the record that stopped the pass, which names the cell; the pass read the
+  // records before it under every cap, so nothing is read twice.
+  const scan = scanDelimitedRows(text, separator, decimalComma, limits);
+  let rows: (RawCell | null)[][];
+  if ('rows' in scan) rows = scan.rows;
+  else {
+    recordRows(file, text, separator, decimalComma, limits, scan.stoppedAt);
+    // Reached only if the two readings disagreed about that record: the plain reading is kept.
+    rows = recordRows(file, text, separator, decimalComma, limits);
   }
-  // Trailing blank lines likewise.
+  // Trailing blank lines carry nothing either (trailing blank fields are left off by the readers).
   while (rows.length > 0 && rows[rows.length - 1].length === 0) rows.pop();
   return {
     file,

@@ -7,25 +7,45 @@
  * as text, missing moistures, hidden rows) goes to the findings.
  */
 import { sheetOfFile } from './sheetOfFile';
-import type { ColumnRole, CropId, OriginalCell, Plot } from '../table/plotTable';
+import type { CropId, Plot } from '../table/plotTable';
 import { adjustMoisture } from '../units/adjustMoisture';
 import type { RateUnit } from '../units/convertRate';
 import { sheetYieldToKgHa, type SheetYieldUnit } from '../units/convertYield';
 import { productFromText, products, type FertilizerProduct } from '../units/products';
 import type { QualityFinding } from '../table/qualityFinding';
 import { cellLabel, cellText } from './cellLabel';
-import { cellNumber } from './cellNumber';
 import { cellRef } from './cellRef';
 import { columnForRole, type ColumnAssignment, type SheetMapping } from './columnMapping';
 import { ImportError } from './importError';
 import type { ImportSettings } from './importSettings';
 import { nutrientRateKgHa } from './nutrientRateKgHa';
 import { plotWeightYieldKgHa } from './plotWeightYieldKgHa';
-import { cellAddress, type RawSheet, type RawWorkbook } from './rawWorkbook';
+import { PlotRowCells } from './plotRowCells';
+import type { RawCell, RawSheet, RawWorkbook } from './rawWorkbook';
 import type { TreatmentKeyEntry } from './readTreatmentKey';
 
 /** Values of the exclude column that mean "keep the plot". */
 const noExclusionWords = new Set(['', 'no', 'n', '0', 'false', 'keep', 'ok', 'include', 'use']);
+
+/** Whether a row has nothing in it: no cell, or only blank cells without formulas and spaces. */
+function isBlankRow(row: readonly (RawCell | null)[]): boolean {
+  for (const c of row) {
+    if (!c || (c.kind === 'blank' && !c.formula) || c.text.trim() === '') continue;
+    return false;
+  }
+  return true;
+}
+
+/** The row's first cell with text in it (a summary row's label), or undefined. */
+function firstFilledCell(row: readonly (RawCell | null)[]): RawCell | null | undefined {
+  for (const c of row) if (c && c.text.trim() !== '') return c;
+  return undefined;
+}
+
+/** Whether a cell holds a plot's own key (plot, treatment or rate), not the row's first label. */
+function isPlotKey(c: RawCell | null, first: RawCell | null | undefined): boolean {
+  return c !== first && cellLabel(c) !== null;
+}
 
 /**
  * Reads the plots of one sheet into `plots`.
@@ -111,19 +131,28 @@ export function readPlotsSheet(
   let lastSite: string | null = null;
   let filledDown = 0;
   const skippedSummary: number[] = [];
+  const cells = new PlotRowCells(raw, sheet, where, findings);
+  const num = cells.num;
+  // The site of every row when it does not come from a column.
+  const sheetSite =
+    m.site.from === 'column'
+      ? ''
+      : m.site.from === 'sheet-name'
+        ? sheet.name
+        : m.site.value || file.replace(/\.[^.]+$/, '');
+  // A sheet names a few products in thousands of rows: each text is matched once.
+  const productsByText = new Map<string, FertilizerProduct | null>();
   for (let r = m.headerRow + 1; r <= sheet.rows.length; r++) {
     const row = sheet.rows[r - 1] ?? [];
-    if (row.every((c) => !c || (c.kind === 'blank' && !c.formula) || c.text.trim() === ''))
-      continue;
-    const at = (a: ColumnAssignment | undefined) => (a ? (row[a.col - 1] ?? null) : null);
+    if (isBlankRow(row)) continue;
+    cells.start(row, r);
     // A summary row ("Mean", "CV %", "LSD 0.05") starts with such a word and has no plot,
     // treatment or rate of its own.
-    const first = row.find((c) => c && c.text.trim() !== '');
-    const plotKey = (a: ColumnAssignment | undefined) => {
-      const c = at(a);
-      return c !== first && cellLabel(c) !== null;
-    };
-    const hasPlotKeys = plotKey(cols.plot) || plotKey(cols.treatment) || plotKey(cols.rate);
+    const first = firstFilledCell(row);
+    const hasPlotKeys =
+      isPlotKey(cells.at(cols.plot), first) ||
+      isPlotKey(cells.at(cols.treatment), first) ||
+      isPlotKey(cells.at(cols.rate), first);
     if (
       !hasPlotKeys &&
       first &&
@@ -136,52 +165,23 @@ export function readPlotsSheet(
       continue;
     }
     if (hidden.has(r)) hiddenData.push(r);
-    const original: Partial<Record<ColumnRole, OriginalCell>> = {};
-    const keep = (role: ColumnRole, a: ColumnAssignment | undefined) => {
-      const c = at(a);
-      if (a && (c || role === 'yield' || role === 'rate'))
-        original[role] = { text: c?.text ?? '', ref: cellRef(file, sheet.name, r, a.col) };
-      return c;
-    };
-    const num = (role: ColumnRole, a: ColumnAssignment | undefined): number | null => {
-      const c = keep(role, a);
-      if (!a) return null;
-      const n = cellNumber(c, sheet.decimalComma);
-      if (n.status === 'number-as-text' && c && raw.format === 'xlsx') {
-        findings.push({
-          code: 'number-as-text',
-          severity: 'info',
-          message: `${where} ${cellAddress(r, a.col)} (${a.header}) holds a number stored as text ("${c.text}"); it was read as ${n.value}.`,
-          refs: [cellRef(file, sheet.name, r, a.col)],
-        });
-      } else if (n.status === 'formula-without-result' && c) {
-        findings.push({
-          code: 'formula-without-result',
-          severity: 'warning',
-          message: `${where} ${cellAddress(r, a.col)} (${a.header}) is a formula (=${c.formula}) saved without a calculated result, so it has no value here. Open the file, let it recalculate, save it, and import it again.`,
-          refs: [cellRef(file, sheet.name, r, a.col)],
-        });
-      }
-      return n.value;
-    };
+    const original = cells.original;
 
     // Site
     let site: string;
     if (m.site.from === 'column') {
-      const s = cellLabel(keep('site', cols.site));
+      const s = cellLabel(cells.keep('site', cols.site));
       if (s === null && lastSite !== null) {
         site = lastSite;
         filledDown++;
       } else site = s ?? '(no site)';
-    } else
-      site =
-        m.site.from === 'sheet-name' ? sheet.name : m.site.value || file.replace(/\.[^.]+$/, '');
+    } else site = sheetSite;
     lastSite = site;
 
     const year = num('year', cols.year);
-    const block = cellLabel(keep('block', cols.block));
-    const plotLabel = cellLabel(keep('plot', cols.plot));
-    const treatment = cellLabel(keep('treatment', cols.treatment));
+    const block = cellLabel(cells.keep('block', cols.block));
+    const plotLabel = cellLabel(cells.keep('plot', cols.plot));
+    const treatment = cellLabel(cells.keep('treatment', cols.treatment));
 
     // Rate: the sheet's own column first, else the treatment key.
     let rateKgHa: number | null = null;
@@ -212,8 +212,15 @@ export function readPlotsSheet(
       });
     }
     if (productCol) {
-      productWords = cellText(at(productCol));
-      rowProduct = productWords ? productFromText(productWords) : null;
+      productWords = cellText(cells.at(productCol));
+      if (productWords) {
+        let known = productsByText.get(productWords);
+        if (known === undefined) {
+          known = productFromText(productWords);
+          productsByText.set(productWords, known);
+        }
+        rowProduct = known;
+      } else rowProduct = null;
     }
     if (rateValue !== null) {
       rateKgHa = nutrientRateKgHa(rateValue, rateUnit, basis, {
@@ -241,7 +248,7 @@ export function readPlotsSheet(
       if (moisturePct !== null && moisturePct >= 0 && moisturePct < 100) {
         yieldKgHa = adjustMoisture(yieldKgHa, moisturePct, standardMoisturePct);
       } else {
-        const mc = at(cols.moisture);
+        const mc = cells.at(cols.moisture);
         findings.push({
           code: 'moisture-missing',
           severity: 'warning',
@@ -253,9 +260,9 @@ export function readPlotsSheet(
     }
 
     const testWeight = num('testWeight', cols.testWeight);
-    const notesCell = keep('notes', cols.notes);
+    const notesCell = cells.keep('notes', cols.notes);
     const notes = notesCell && notesCell.text.trim() !== '' ? notesCell.text.trim() : null;
-    const exCell = keep('exclude', cols.exclude);
+    const exCell = cells.keep('exclude', cols.exclude);
     const exText = cellText(exCell);
     const excluded =
       cols.exclude && !noExclusionWords.has(exText.toLowerCase())
@@ -266,7 +273,7 @@ export function readPlotsSheet(
         : null;
     const groups: Record<string, string> = {};
     for (const g of groupCols) {
-      const t = cellText(at(g));
+      const t = cellText(cells.at(g));
       if (t !== '') groups[g.header] = t;
     }
     if (!cols.rate && entry) {

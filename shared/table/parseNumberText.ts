@@ -24,6 +24,12 @@ const missingMarkers = new Set([
 ]);
 
 /**
+ * The longest marker: a longer text is no marker, so the many site and notes texts of a sheet
+ * are not lower-cased only to be looked up (lower-casing never shortens a text).
+ */
+const LONGEST_MARKER = Math.max(...[...missingMarkers].map((m) => m.length));
+
+/**
  * Whether a cell's text means "no value" (blank . - NA n/a * missing).
  * @param text - the cell text
  * @returns true for a missing-value marker
@@ -31,7 +37,8 @@ const missingMarkers = new Set([
  * isMissingMarker(' NA ') // true
  */
 export function isMissingMarker(text: string): boolean {
-  return missingMarkers.has(text.trim().toLowerCase());
+  const t = text.trim();
+  return t.length <= LONGEST_MARKER && missingMarkers.has(t.toLowerCase());
 }
 
 /**
