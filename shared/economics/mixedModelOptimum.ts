@@ -73,15 +73,39 @@ export function mixedModelOptimum(
   const gb = -1 / (2 * c);
   const gc = -x / c;
   const se = Math.sqrt(gb * gb * v[1][1] + 2 * gb * gc * v[1][2] + gc * gc * v[2][2]);
-  const t = model.dfFixed > 0 ? studentTQuantile((1 + level) / 2, model.dfFixed) : Infinity;
+  return deltaOptimumInRange(x, se, model.dfFixed, [low, high], level);
+}
+
+/**
+ * A population optimum x ± t·SE (Student t on `df`) on the tested range: the rate capped to the
+ * nearer end when it falls outside ("capped-low"/"capped-high"), the interval clipped to the range
+ * and an end the range cuts marked open. One rule for every regional mixed model form
+ * (mixedModelOptimum, plateauMixedModelOptimum).
+ * @param x - the optimum rate, uncapped, kg N/ha
+ * @param se - its delta-method standard error, kg N/ha
+ * @param df - degrees of freedom of t (0 or fewer: an unbounded interval)
+ * @param range - the lowest and highest tested rates, kg N/ha
+ * @param level - the interval's level, e.g. 0.9
+ * @returns the optimum as the report reads it
+ * @example
+ * deltaOptimumInRange(150, 10, 9, [0, 200], 0.9).interval // { lowKgHa: 131.7, highKgHa: 168.3, … }
+ */
+export function deltaOptimumInRange(
+  x: number,
+  se: number,
+  df: number,
+  range: [number, number],
+  level: number,
+): MixedModelOptimum {
+  const [low, high] = range;
+  const t = df > 0 ? studentTQuantile((1 + level) / 2, df) : Infinity;
   const lowEnd = x - t * se;
   const highEnd = x + t * se;
   const lowOpen = !(lowEnd > low);
   const highOpen = !(highEnd < high);
   const clip = (r: number) => Math.min(Math.max(r, low), high);
-  const status = x < low ? 'capped-low' : x > high ? 'capped-high' : 'interior';
   return {
-    status,
+    status: x < low ? 'capped-low' : x > high ? 'capped-high' : 'interior',
     rateKgHa: clip(x),
     interval: {
       lowKgHa: lowOpen ? low : clip(lowEnd),
@@ -91,6 +115,6 @@ export function mixedModelOptimum(
     },
     stdErrorKgHa: se,
     level,
-    method,
+    method: 'delta (Student t, site-years − 3 df)',
   };
 }

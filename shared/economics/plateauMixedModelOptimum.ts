@@ -26,8 +26,7 @@
  * - x_opt outside the tested range: capped to the nearer end, the interval clipped there and
  *   the end marked open.
  */
-import { studentTQuantile } from '../stats/distributions';
-import type { MixedModelOptimum } from './mixedModelOptimum';
+import { deltaOptimumInRange, type MixedModelOptimum } from './mixedModelOptimum';
 
 /** What the optimum needs of a plateau mixed model (shared/analysis/regionalPlateauMixedModel). */
 export interface PlateauMixedFixedEffects {
@@ -91,23 +90,5 @@ export function plateauMixedModelOptimum(
   let variance = 0;
   for (let i = 0; i < 3; i++) for (let j = 0; j < 3; j++) variance += g[i] * v[i][j] * g[j];
   const se = Math.sqrt(variance);
-  const t = model.dfFixed > 0 ? studentTQuantile((1 + level) / 2, model.dfFixed) : Infinity;
-  const lowEnd = x - t * se;
-  const highEnd = x + t * se;
-  const lowOpen = !(lowEnd > low);
-  const highOpen = !(highEnd < high);
-  const clip = (r: number) => Math.min(Math.max(r, low), high);
-  return {
-    status: x < low ? 'capped-low' : x > high ? 'capped-high' : 'interior',
-    rateKgHa: clip(x),
-    interval: {
-      lowKgHa: lowOpen ? low : clip(lowEnd),
-      highKgHa: highOpen ? high : clip(highEnd),
-      lowOpen,
-      highOpen,
-    },
-    stdErrorKgHa: se,
-    level,
-    method,
-  };
+  return deltaOptimumInRange(x, se, model.dfFixed, [low, high], level);
 }
