@@ -2,7 +2,6 @@ import { mount } from 'svelte';
 import './app.css';
 import App from './App.svelte';
 import { chooseFileBridge } from './lib/fileBridge';
-import { loadPlotly } from './lib/loadPlotly';
 import { Workspace } from './state/workspace.svelte';
 import { connectDesktop } from './state/desktop';
 
@@ -24,6 +23,3 @@ const workspace = new Workspace(chooseFileBridge(), worker);
 mount(App, { target: document.getElementById('app')!, props: { workspace } });
 void workspace.start(storage());
 if (window.plotrate?.isDesktop) connectDesktop(workspace, window.plotrate);
-// Plotly starts loading once the steps are on screen, while the worker reads and fits the
-// trial, so the first chart need not wait for it after the first result.
-setTimeout(() => void loadPlotly(), 0);
