@@ -13,8 +13,8 @@
  * Repeat until β and θ stop moving. The log-likelihood reported is the LME step's at the
  * converged linearization: the approximation nlme reports, not the exact marginal likelihood.
  * When a step reverses the one before it, the next is taken only in part, and lengthened again
- * after two steps the same way (relaxation): the
- * same fixed point, reached where the plain alternation oscillates. A linear-plateau whose
+ * after two steps the same way (relaxation): the same fixed point, reached where the plain
+ * alternation oscillates. A linear-plateau whose
  * site-years' joins cross tested rates from one step to the next can cycle with no fixed point
  * (the demo's six corn site-years; R's nlme does not converge there either): the fit then
  * stops when the last ten rounds' LME estimates lie in a narrow band (settled), or at the
