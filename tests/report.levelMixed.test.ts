@@ -14,6 +14,7 @@ import * as XLSX from 'xlsx';
 import { resultsJson, type ResultsJson } from '../shared/report/resultsJson';
 import { writeWorkbook } from '../shared/report/workbook';
 import type { TrialReport } from '../shared/report/trialReport';
+import { levelMixedCsv } from './levelMixed.fixture';
 import { reportOf } from './report.pipeline';
 
 interface RFit {
@@ -27,33 +28,10 @@ const reference = JSON.parse(
   readFileSync(new URL('./fixtures/levelmixed/levelMixed.json', import.meta.url), 'utf8'),
 ) as Record<'differ' | 'same', { fits: RFit[] }>;
 
-async function reportOfSet(dataset: string, sites?: number): Promise<TrialReport> {
-  const text = readFileSync(
-    new URL('./fixtures/levelmixed/levelMixed.plots.csv', import.meta.url),
-    'utf8',
-  );
-  const keep = new Set(
-    Array.from({ length: sites ?? 12 }, (_, i) => `Site ${String(i + 1).padStart(2, '0')}`),
-  );
-  const lines = text
-    .trim()
-    .split('\n')
-    .slice(1)
-    .map((l) => l.replace(/"/g, '').split(','))
-    .filter((c) => c[0] === dataset && keep.has(c[1]))
-    .map((c) => c.slice(1).join(','));
-  const csv = ['Site,Block,Timing,N rate (kg N/ha),Yield (t/ha)']
-    .concat(
-      lines.map((l) => {
-        const c = l.split(',');
-        return [c[0], c[1], c[2] === '' ? 'none' : c[2], c[3], String(Number(c[4]) / 1000)].join(
-          ',',
-        );
-      }),
-    )
-    .join('\n');
+async function reportOfSet(dataset: 'differ' | 'same', sites?: number): Promise<TrialReport> {
+  const csv = levelMixedCsv(dataset, sites);
   const { table, mapping } = await importFiles(
-    [{ name: 'timing series.csv', bytes: new TextEncoder().encode(csv + '\n') }],
+    [{ name: 'timing series.csv', bytes: new TextEncoder().encode(csv) }],
     { crop: 'corn', overrides: [] },
   );
   return reportOf(
