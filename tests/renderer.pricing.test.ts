@@ -89,7 +89,7 @@ describe('renderer analysis and re-pricing', () => {
     expect(md.across.mixed).toBe(mc.across.mixed);
     expect(md.mixedOptimum!.rateKgHa).toBeLessThan(mc.mixedOptimum!.rateKgHa);
     const text = regionalModelText(md, 'lb/ac', 'en-US')!;
-    expect(text).toContain('Across 4 site-years, the regional model');
+    expect(text).toContain('Across 4 site-years, the regional quadratic mixed model');
     expect(text).toContain(formatRate(md.mixedOptimum!.rateKgHa, 'lb/ac', 'en-US'));
     // With two or more forms fitted, the screen says which the AIC favours: the lowest AIC.
     const q = md.across.mixed;

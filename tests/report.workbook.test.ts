@@ -110,7 +110,9 @@ describe('writeWorkbook read back by SheetJS', () => {
     const ws = XLSX.read(usBytes).Sheets['Regional model'];
     const text = XLSX.utils.sheet_to_csv(ws);
     for (const c of recommendationCautions) expect(text).toContain(c);
-    expect(String(cell(ws, 1, 0)!.v)).toMatch(/^Across 6 site-years, the regional model/);
+    expect(String(cell(ws, 1, 0)!.v)).toMatch(
+      /^Across 6 site-years, the regional quadratic mixed model/,
+    );
     const mixed = usJson.acrossSites!.mixed!;
     expect(cell(ws, 3, 1)!.v).toBeCloseTo(mixed.optimumRate, 9);
     const b = findRow(ws, 'b');

@@ -17,7 +17,7 @@ export interface MixedModelSentenceFormat {
  * @param siteYears - how many site-years the model was fitted to
  * @param optimum - mixedModelOptimum at the current prices
  * @param format - how to write rates
- * @returns e.g. "Across 12 site-years, the regional model … puts the most profitable rate at
+ * @returns e.g. "Across 12 site-years, the regional quadratic mixed model … puts the most profitable rate at
  *   152 kg/ha (90 % interval 118 to 186 kg/ha). …"
  * @example
  * mixedModelSentence(12, optimum, { rate: (r) => `${r} kg/ha`, interval: (i) => `${i.lowKgHa} to ${i.highKgHa} kg/ha` })
@@ -28,7 +28,7 @@ export function mixedModelSentence(
   format: MixedModelSentenceFormat,
 ): string {
   const rate = format.rate(optimum.rateKgHa);
-  const where = `Across ${siteYears} site-years, the regional model (one curve for the region, each site-year departing from it at random)`;
+  const where = `Across ${siteYears} site-years, the regional quadratic mixed model (one curve for the region, each site-year departing from it at random)`;
   if (optimum.status === 'no-maximum' || optimum.interval === null) {
     return `${where} does not bend down within the tested rates, so it has no optimum of its own; of the tested range, ${rate} pays best on it.`;
   }

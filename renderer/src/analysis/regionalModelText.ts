@@ -18,7 +18,7 @@ import { formatRate, formatRateInterval } from '../lib/format';
  * @param priced - the priced trial
  * @param unit - display rate unit
  * @param locale - a BCP 47 tag
- * @returns e.g. "Across 6 site-years, the regional model … puts the most profitable rate at 152 kg/ha (90 % interval 118 to 186 kg/ha). …"
+ * @returns e.g. "Across 6 site-years, the regional quadratic mixed model … puts the most profitable rate at 152 kg/ha (90 % interval 118 to 186 kg/ha). …"
  */
 export function regionalModelText(
   priced: PricedTrial,
