@@ -18,7 +18,7 @@ import type {
 } from './trialReport';
 import { priceRatioQuote } from '../economics/priceQuote';
 import { levelMixedSentence } from './levelSentences';
-import { unitScale, type UnitScale } from './unitScale';
+import { mixedFormParamModel, unitScale, type UnitScale } from './unitScale';
 
 export interface ResultsModel {
   model: ModelName;
@@ -674,15 +674,30 @@ export function resultsJson(report: TrialReport): ResultsJson {
   };
 }
 
-/** The mixed model in output units: each coefficient scales like the quadratic's parameter. */
-function mixedJson(m: MixedModelReport, u: UnitScale, fy2: number): ResultsMixedModel {
+/**
+ * A regional quadratic's a, b, c in output units: each scales like the site quadratic's parameter.
+ * @param u - display-unit converters
+ * @returns the scale factors of a, b and c, and a converter of one {a, b, c}
+ */
+function quadraticInOutputUnits(u: UnitScale): {
+  f: number[];
+  per: (v: { a: number; b: number; c: number }) => Record<'a' | 'b' | 'c', number>;
+} {
   const names = ['a', 'b', 'c'] as const;
   const f = names.map((k) => u.param('quadratic', k, 1));
-  const per = (v: { a: number; b: number; c: number }) =>
-    Object.fromEntries(names.map((k, i) => [k, clean(v[k] * f[i])])) as Record<
-      'a' | 'b' | 'c',
-      number
-    >;
+  return {
+    f,
+    per: (v) =>
+      Object.fromEntries(names.map((k, i) => [k, clean(v[k] * f[i])])) as Record<
+        'a' | 'b' | 'c',
+        number
+      >,
+  };
+}
+
+/** The mixed model in output units: each coefficient scales like the quadratic's parameter. */
+function mixedJson(m: MixedModelReport, u: UnitScale, fy2: number): ResultsMixedModel {
+  const { f, per } = quadraticInOutputUnits(u);
   const ci = m.optimum.interval;
   return {
     model: 'quadratic',
@@ -710,13 +725,7 @@ function levelMixedJson(
   fy2: number,
   perN: (kgPerKg: number) => number,
 ): ResultsLevelMixedModel {
-  const names = ['a', 'b', 'c'] as const;
-  const f = names.map((k) => u.param('quadratic', k, 1));
-  const per = (v: { a: number; b: number; c: number }) =>
-    Object.fromEntries(names.map((k, i) => [k, clean(v[k] * f[i])])) as Record<
-      'a' | 'b' | 'c',
-      number
-    >;
+  const { f, per } = quadraticInOutputUnits(u);
   const chi = (t: { statistic: number; df: number; p: number }) => ({
     chiSquare: clean(t.statistic),
     df: t.df,
@@ -768,14 +777,7 @@ function levelMixedJson(
 
 /** One mixed model form in output units: each parameter scales like its site model's. */
 function mixedFormJson(m: MixedModelFormReport, u: UnitScale, fy2: number): ResultsMixedModelForm {
-  // P is a yield in both plateau forms; the quadratic-plateau's parameters carry its P's unit.
-  const unitModel = (name: string): ModelName =>
-    m.model === 'linearPlateau' && name !== 'P'
-      ? 'linearPlateau'
-      : m.model === 'quadratic'
-        ? 'quadratic'
-        : 'quadraticPlateau';
-  const factor = (name: string) => u.param(unitModel(name), name, 1);
+  const factor = (name: string) => u.param(mixedFormParamModel(m.model, name), name, 1);
   const per = (v: Record<string, number>) =>
     Object.fromEntries(Object.entries(v).map(([k, x]) => [k, clean(x * factor(k))]));
   const f = m.randomParameters.map(factor);

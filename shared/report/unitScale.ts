@@ -70,3 +70,20 @@ export function unitScale(units: ReportUnits, crop: CropId): UnitScale {
     areaName: perAcre ? 'ac' : 'ha',
   };
 }
+
+/**
+ * The site model whose parameter of this name carries the unit of a regional mixed model form's
+ * parameter: the quadratic's own; in both plateau forms the plateau P is a yield (as the
+ * quadratic-plateau's), and the linear-plateau's slope b and join x0 are its site model's.
+ * @param form - the mixed model form
+ * @param name - the parameter's name in that form (a, b, c, P, x0)
+ * @returns the model to hand UnitScale.param and paramUnit with the same name
+ * @example mixedFormParamModel('linearPlateau', 'P') // 'quadraticPlateau'
+ */
+export function mixedFormParamModel(
+  form: 'quadratic' | 'quadraticPlateau' | 'linearPlateau',
+  name: string,
+): ModelName {
+  if (form === 'linearPlateau' && name !== 'P') return 'linearPlateau';
+  return form === 'quadratic' ? 'quadratic' : 'quadraticPlateau';
+}

@@ -11,7 +11,7 @@ import { favouredFormRateSentence } from '../economics/mixedModelFormsSentence';
 import { RATE_DECIMALS, shownRate } from '../units/rateRounding';
 import { profileIntervalText } from './modelNotes';
 import type { TrialReport } from './trialReport';
-import type { UnitScale } from './unitScale';
+import { mixedFormParamModel, type UnitScale } from './unitScale';
 import { fitColumns, rateFormat, setupPage, styleTitle, tableHeading } from './workbookFormat';
 import { modelLabel } from '../models/curves';
 import { nutrientRateUnit } from '../units/convertRate';
@@ -168,13 +168,7 @@ function mixedModelFormsTable(
     titles,
   );
   for (const f of forms) {
-    // P is a yield in both plateau forms; every other parameter converts as its site model's.
-    const unitModel = (name: string) =>
-      f.model === 'linearPlateau' && name !== 'P'
-        ? 'linearPlateau'
-        : f.model === 'quadratic'
-          ? 'quadratic'
-          : 'quadraticPlateau';
+    const unitModel = (name: string) => mixedFormParamModel(f.model, name);
     // Four significant digits, small coefficients (c) in exponent form, so text carries no noise.
     const shown = (v: number) =>
       Math.abs(v) < 0.01 && v !== 0 ? v.toExponential(3) : v.toPrecision(4);
