@@ -91,18 +91,12 @@ export interface NonlinearMixedOptions {
   maxIterations?: number;
 }
 
-/** The fit, in the parameters' own units. */
-export interface NonlinearMixedFit {
-  fixed: number[];
-  /** Cov(β̂), p × p, from the converged LME step (as nlme's vcov). */
-  fixedCovariance: number[][];
-  /** Ψ̂, q × q. */
-  randomCovariance: number[][];
-  residualVariance: number;
-  /** The ML log-likelihood of the converged linearization (nlme's logLik). */
-  logLikelihood: number;
-  /** Conditional modes b̂_i per group, in input order. */
-  conditionalModes: { name: string; effects: number[] }[];
+/**
+ * The fit, in the parameters' own units: the last LME step's estimates (Cov(β̂) as nlme's vcov,
+ * the log-likelihood the ML one of the converged linearization, nlme's logLik), and how the
+ * alternation ended.
+ */
+export interface NonlinearMixedFit extends MixedModelEstimates {
   /** θ in working units at the end. */
   theta: number[];
   iterations: number;
