@@ -118,6 +118,32 @@ export function levelColumns(blocks: (string | null)[], fixed: boolean): Float64
   return labels.map((b) => Float64Array.from(blocks, (v) => (v === b ? 1 : 0)));
 }
 
+/**
+ * One model's level test from its two residual sums of squares (the extra-sum-of-squares F test
+ * of the common curve against a curve per level), or the reason there is none; with its sentence.
+ */
+function levelCurveTest(
+  model: LevelTestModel,
+  n: number,
+  fits: { common: { sse: number; df: number }; perLevel: { sse: number; df: number } } | string,
+  words: TestReadings,
+  alpha: number,
+): LevelCurveTest {
+  if (typeof fits === 'string') {
+    const result: NoTest = { kind: 'no-test', reason: fits };
+    return {
+      model,
+      n,
+      common: null,
+      perLevel: null,
+      result,
+      sentence: describeFTest(result, words, alpha),
+    };
+  }
+  const result = extraSumOfSquaresTest(fits.common, fits.perLevel);
+  return { model, n, ...fits, result, sentence: describeFTest(result, words, alpha) };
+}
+
 function curveTest(
   model: LevelTestModel,
   x: Float64Array,
@@ -133,17 +159,7 @@ function curveTest(
   const term = (p: number, k: number | null) =>
     Float64Array.from(x, (v, i) => (k === null || level[i] === k ? v ** p : 0));
   const words = readings(model, factor);
-  const none = (reason: string): LevelCurveTest => {
-    const result: NoTest = { kind: 'no-test', reason };
-    return {
-      model,
-      n,
-      common: null,
-      perLevel: null,
-      result,
-      sentence: describeFTest(result, words, alpha),
-    };
-  };
+  const none = (reason: string) => levelCurveTest(model, n, reason, words, alpha);
   for (let k = 0; k < levelCount; k++) {
     const rates = new Set(Array.from(x).filter((_, i) => level[i] === k));
     if (rates.size < powers.length) {
@@ -170,8 +186,7 @@ function curveTest(
   }
   const common = { sse: c.sse, df: n - c.columns };
   const perLevel = { sse: f.sse, df: n - f.columns };
-  const result = extraSumOfSquaresTest(common, perLevel);
-  return { model, n, common, perLevel, result, sentence: describeFTest(result, words, alpha) };
+  return levelCurveTest(model, n, { common, perLevel }, words, alpha);
 }
 
 function plateauCurveTest(
@@ -187,27 +202,11 @@ function plateauCurveTest(
   const n = y.length;
   const words = readings(model, factor);
   const fits = levelPlateauFits(model, x, y, level, levelCount, base);
-  if ('reason' in fits) {
-    const result: NoTest = { kind: 'no-test', reason: fits.reason };
-    return {
-      model,
-      n,
-      common: null,
-      perLevel: null,
-      result,
-      sentence: describeFTest(result, words, alpha),
-    };
-  }
+  if ('reason' in fits) return levelCurveTest(model, n, fits.reason, words, alpha);
   const common = { sse: fits.common.sse, df: fits.common.df };
   const perLevel = { sse: fits.perLevel.sse, df: fits.perLevel.df };
-  const result = extraSumOfSquaresTest(common, perLevel);
   return {
-    model,
-    n,
-    common,
-    perLevel,
-    result,
-    sentence: describeFTest(result, words, alpha),
+    ...levelCurveTest(model, n, { common, perLevel }, words, alpha),
     joinsKgHa: { common: fits.common.joinKgHa, perLevel: fits.perLevel.joinsKgHa },
   };
 }
