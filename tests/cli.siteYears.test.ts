@@ -10,6 +10,7 @@ import path from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import * as XLSX from 'xlsx';
 import { readRCsv } from './analysis.fixtures';
+import { HARVEST_YEARS, harvestCsv } from './siteYears.fixture';
 
 const cli = path.join(__dirname, '..', 'cli', 'plotrate.mjs');
 const dir = mkdtempSync(path.join(tmpdir(), 'plotrate-siteyears-'));
@@ -17,13 +18,8 @@ const anova = readRCsv('../siteyears/yearsCompared.anova.csv');
 let run: { code: number | null; out: string; err: string };
 
 beforeAll(() => {
-  const rows = readRCsv('../siteyears/siteYears.plots.csv');
-  for (const year of ['2024', '2025']) {
-    const lines = ['Site,Year,Block,Plot,N rate (kg N/ha),Yield (kg/ha)'];
-    for (const r of rows.filter((x) => x.year === year))
-      lines.push([r.site, r.year, r.block, r.plot, r.rate, r.yield].join(','));
-    writeFileSync(path.join(dir, `harvest ${year}.csv`), lines.join('\n') + '\n');
-  }
+  for (const year of HARVEST_YEARS)
+    writeFileSync(path.join(dir, `harvest ${year}.csv`), harvestCsv(year));
   const r = spawnSync(
     process.execPath,
     [

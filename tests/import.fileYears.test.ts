@@ -5,13 +5,10 @@ import { describe, expect, it } from 'vitest';
 import { yearFromFileName } from '../shared/import/fileYears';
 import { importFiles } from '../shared/import/importFiles';
 import { sitePlots } from '../shared/analysis/sitePlots';
-import { readRCsv } from './analysis.fixtures';
+import { harvestCsv } from './siteYears.fixture';
 
-function file(name: string, year: string): { name: string; bytes: Uint8Array } {
-  const rows = readRCsv('../siteyears/siteYears.plots.csv').filter((r) => r.year === year);
-  const lines = ['Site,Block,Plot,N rate (kg N/ha),Yield (kg/ha)'];
-  for (const r of rows) lines.push([r.site, r.block, r.plot, r.rate, r.yield].join(','));
-  return { name, bytes: new TextEncoder().encode(lines.join('\n') + '\n') };
+function file(name: string, year: '2024' | '2025'): { name: string; bytes: Uint8Array } {
+  return { name, bytes: new TextEncoder().encode(harvestCsv(year, false)) };
 }
 
 describe('yearFromFileName', () => {

@@ -9,7 +9,7 @@ import type { ReportSettings } from '../shared/report/reportSettings';
 import type { TrialReport } from '../shared/report/trialReport';
 import { yearCurvesChart } from '../shared/report/yearCurvesChart';
 import { LB_AC_TO_KG_HA } from '../shared/units/unitConstants';
-import { readRCsv } from './analysis.fixtures';
+import { HARVEST_YEARS, harvestCsv } from './siteYears.fixture';
 import { reportOf } from './report.pipeline';
 
 const settings: ReportSettings = {
@@ -26,16 +26,10 @@ const settings: ReportSettings = {
 let report: TrialReport;
 
 beforeAll(async () => {
-  const rows = readRCsv('../siteyears/siteYears.plots.csv');
-  const files = ['2024', '2025'].map((year) => {
-    const lines = ['Site,Year,Block,Plot,N rate (kg N/ha),Yield (kg/ha)'];
-    for (const r of rows.filter((x) => x.year === year))
-      lines.push([r.site, r.year, r.block, r.plot, r.rate, r.yield].join(','));
-    return {
-      name: `harvest ${year}.csv`,
-      bytes: new TextEncoder().encode(lines.join('\n') + '\n'),
-    };
-  });
+  const files = HARVEST_YEARS.map((year) => ({
+    name: `harvest ${year}.csv`,
+    bytes: new TextEncoder().encode(harvestCsv(year)),
+  }));
   const { table } = await importFiles(files, { crop: 'corn', overrides: [] });
   report = reportOf(table, settings, {
     tool: { name: 'Plotrate', version: 'test' },

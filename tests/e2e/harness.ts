@@ -2,7 +2,7 @@
 // folder, serve it from 127.0.0.1 with a small static server, and drive
 // Debian's chromium headless through playwright-core (no browser download).
 import { createServer, type Server } from 'node:http';
-import { mkdir, mkdtemp, readFile, rm } from 'node:fs/promises';
+import { mkdir, mkdtemp, readFile, rm, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
@@ -148,4 +148,36 @@ export async function openSession(): Promise<Session> {
  */
 export async function shot(page: Page, name: string): Promise<void> {
   await page.screenshot({ path: path.join(SHOT_DIR, `${name}.png`), fullPage: true });
+}
+
+/**
+ * Opens trial files through the file input in place of the demo trial the first visit opens:
+ * waits for the demo, writes the files to a temporary folder, opens them, then closes the demo.
+ * @param page - the page, on the workspace
+ * @param files - each file's name and text
+ */
+export async function openInsteadOfDemo(
+  page: Page,
+  files: readonly { name: string; text: string }[],
+): Promise<void> {
+  await page.getByRole('navigation', { name: 'Steps' }).waitFor();
+  await page.locator('[data-testid="chart"] .main-svg').first().waitFor({ timeout: 30_000 });
+  const dir = await mkdtemp(path.join(tmpdir(), 'plotrate-e2e-files-'));
+  const paths: string[] = [];
+  for (const f of files) {
+    const file = path.join(dir, f.name);
+    await writeFile(file, f.text);
+    paths.push(file);
+  }
+  await page.getByRole('button', { name: /Trial files/ }).click();
+  await page.getByTestId('trial-file-input').setInputFiles(paths);
+  await page
+    .getByText(files[files.length - 1].name)
+    .first()
+    .waitFor({ timeout: 20_000 });
+  // Opening a file shows its columns; the file list is on the first step.
+  await page.getByRole('button', { name: /Trial files/ }).click();
+  const closeDemo = page.getByRole('button', { name: /^Close wrenhollow-n-trials/ });
+  await closeDemo.click();
+  await closeDemo.waitFor({ state: 'detached' });
 }

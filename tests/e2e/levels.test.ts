@@ -4,14 +4,14 @@
 // Larkspur Bottom the split application has the higher plateau (13,500 against 12,600 kg/ha) and
 // the lower optimum, so the split returns more; each timing has 20 fertilized plots and the 4
 // zero-rate checks (one per block) are shared by both.
-import { mkdtemp, writeFile } from 'node:fs/promises';
+import { mkdtemp } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import ExcelJS from 'exceljs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoTimingCsv, demoTimingFileName } from '../../shared/demo/demoTiming';
 import { recommendationCautions } from '../../shared/economics/recommendationCautions';
-import { openSession, shot, type Session } from './harness';
+import { openInsteadOfDemo, openSession, shot, type Session } from './harness';
 
 let session: Session;
 
@@ -36,20 +36,7 @@ async function levelTraces(): Promise<{ name: string; mode: string; n: number }[
 describe('a rate × timing trial in chromium', () => {
   it('opens the timing file through the file input, alone', async () => {
     const { page } = session;
-    await page.getByRole('navigation', { name: 'Steps' }).waitFor();
-    // The first visit opens the demo trial; wait for it, then open the timing file and close the demo.
-    await page.locator('[data-testid="chart"] .main-svg').first().waitFor({ timeout: 30_000 });
-    const dir = await mkdtemp(path.join(tmpdir(), 'plotrate-e2e-levels-'));
-    const file = path.join(dir, demoTimingFileName);
-    await writeFile(file, demoTimingCsv());
-    await page.getByRole('button', { name: /Trial files/ }).click();
-    await page.getByTestId('trial-file-input').setInputFiles(file);
-    // Opening a file shows its columns; the file list is on the first step.
-    await page.getByText(demoTimingFileName).first().waitFor({ timeout: 20_000 });
-    await page.getByRole('button', { name: /Trial files/ }).click();
-    const closeDemo = page.getByRole('button', { name: /^Close wrenhollow-n-trials/ });
-    await closeDemo.click();
-    await closeDemo.waitFor({ state: 'detached' });
+    await openInsteadOfDemo(page, [{ name: demoTimingFileName, text: demoTimingCsv() }]);
     await page.getByRole('button', { name: /Columns/ }).click();
     // 2 sites × (4 checks + 2 timings × 5 rates × 4 blocks) plots.
     await expect

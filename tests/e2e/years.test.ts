@@ -3,12 +3,9 @@
 // (tests/fixtures/siteyears/siteYears.plots.csv), written as one CSV per harvest year and opened
 // through the file input. The all-sites step shows, for each site, the sentence of the year test
 // and each year's leading curve overlaid (shared/report/yearCurvesChart).
-import { mkdtemp, writeFile } from 'node:fs/promises';
-import { tmpdir } from 'node:os';
-import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { readRCsv } from '../analysis.fixtures';
-import { openSession, shot, type Session } from './harness';
+import { HARVEST_YEARS, harvestCsv } from '../siteYears.fixture';
+import { openInsteadOfDemo, openSession, shot, type Session } from './harness';
 
 let session: Session;
 
@@ -23,26 +20,10 @@ afterAll(async () => {
 describe('two years of the same sites in chromium', () => {
   it('opens both years, then compares each site’s years with their curves overlaid', async () => {
     const { page } = session;
-    await page.getByRole('navigation', { name: 'Steps' }).waitFor();
-    await page.locator('[data-testid="chart"] .main-svg').first().waitFor({ timeout: 30_000 });
-    const dir = await mkdtemp(path.join(tmpdir(), 'plotrate-e2e-years-'));
-    const rows = readRCsv('../siteyears/siteYears.plots.csv');
-    const files: string[] = [];
-    for (const year of ['2024', '2025']) {
-      const lines = ['Site,Year,Block,Plot,N rate (kg N/ha),Yield (kg/ha)'];
-      for (const r of rows.filter((x) => x.year === year))
-        lines.push([r.site, r.year, r.block, r.plot, r.rate, r.yield].join(','));
-      const file = path.join(dir, `harvest ${year}.csv`);
-      await writeFile(file, lines.join('\n') + '\n');
-      files.push(file);
-    }
-    await page.getByRole('button', { name: /Trial files/ }).click();
-    await page.getByTestId('trial-file-input').setInputFiles(files);
-    await page.getByText('harvest 2025.csv').first().waitFor({ timeout: 20_000 });
-    await page.getByRole('button', { name: /Trial files/ }).click();
-    const closeDemo = page.getByRole('button', { name: /^Close wrenhollow-n-trials/ });
-    await closeDemo.click();
-    await closeDemo.waitFor({ state: 'detached' });
+    await openInsteadOfDemo(
+      page,
+      HARVEST_YEARS.map((year) => ({ name: `harvest ${year}.csv`, text: harvestCsv(year) })),
+    );
 
     await page.getByRole('button', { name: /All sites/ }).click();
     const panel = page.getByTestId('years-compared');
