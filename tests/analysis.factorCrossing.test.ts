@@ -4,7 +4,6 @@
 // partly crossed). The F tests, each factor's own and, where crossed, each adjusted for the other,
 // are checked against R 4.2.2's lm() and anova() (crossed.R wrote crossed.anova.csv): F, both df
 // and p within 1e-7 relative, as the one-factor tests are (analysis.levelResponseTest.test.ts).
-import { readFileSync } from 'node:fs';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { analysisSettings } from '../shared/analysis/analysisSettings';
 import { analyzeTrial, type TrialAnalysis } from '../shared/analysis/analyzeTrial';
@@ -16,22 +15,12 @@ import { importFiles } from '../shared/import/importFiles';
 import { resultsJson } from '../shared/report/resultsJson';
 import type { PlotTable } from '../shared/table/plotTable';
 import { reportOf } from './report.pipeline';
+import { readRCsv } from './analysis.fixtures';
 
 const prices = { grainPricePerKg: 0.18, nutrientPricePerKg: 1.26 };
-const dir = new URL('./fixtures/levels/', import.meta.url);
 
-function rCsv(file: string): Record<string, string>[] {
-  const lines = readFileSync(new URL(file, dir), 'utf8')
-    .split(/\r?\n/)
-    .filter((l) => l.trim() !== '' && !l.startsWith('#'));
-  const split = (l: string) =>
-    [...l.matchAll(/"([^"]*)"|([^,]+)|(?<=,|^)(?=,|$)/g)].map((m) => (m[1] ?? m[2] ?? '').trim());
-  const header = split(lines[0]);
-  return lines.slice(1).map((l) => {
-    const cells = split(l);
-    return Object.fromEntries(header.map((h, i) => [h, cells[i]]));
-  });
-}
+/** An R-written fixture of tests/fixtures/levels/ as header → text rows. */
+const rCsv = (file: string) => readRCsv(`../levels/${file}`);
 
 function near(actual: number, expected: number, rel: number): void {
   const tol = rel * Math.max(Math.abs(expected), 1e-300);

@@ -13,29 +13,18 @@
 // 1e-9 relative (the fits agree) F, df and p must agree within 1e-7 (relative for F, absolute for
 // p); where they do not, ours must be the lower (never a worse fit than R's) and the F within
 // 1e-4 relative, the difference printed. Measured: see the assertion messages and DEVELOPERS.md.
-import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { analysisSettings } from '../shared/analysis/analysisSettings';
 import { analyzeTrial } from '../shared/analysis/analyzeTrial';
 import type { LevelCurveTest } from '../shared/analysis/levelResponseTest';
 import { importFiles } from '../shared/import/importFiles';
 import { fisherFUpperP } from '../shared/stats/distributions';
+import { readRCsv } from './analysis.fixtures';
 
 const prices = { grainPricePerKg: 0.18, nutrientPricePerKg: 1.26 };
-const dir = new URL('./fixtures/levels/', import.meta.url);
 
-function rCsv(file: string): Record<string, string>[] {
-  const lines = readFileSync(new URL(file, dir), 'utf8')
-    .split(/\r?\n/)
-    .filter((l) => l.trim() !== '' && !l.startsWith('#'));
-  const split = (l: string) =>
-    [...l.matchAll(/"([^"]*)"|([^,]+)|(?<=,|^)(?=,|$)/g)].map((m) => (m[1] ?? m[2] ?? '').trim());
-  const header = split(lines[0]);
-  return lines.slice(1).map((l) => {
-    const cells = split(l);
-    return Object.fromEntries(header.map((h, i) => [h, cells[i]]));
-  });
-}
+/** An R-written fixture of tests/fixtures/levels/ as header → text rows. */
+const rCsv = (file: string) => readRCsv(`../levels/${file}`);
 
 async function analysis() {
   const lines = ['Site,Block,Plot,Timing,N rate (kg N/ha),Yield (kg/ha)'];

@@ -4,7 +4,6 @@
 // checked against R 4.2.2's lm() and anova() on the same invented plots
 // (tests/fixtures/levels/levels.R wrote levels.anova.csv and levels.fits.csv from
 // levels.plots.csv, which makeLevels.ts wrote with the project's seeded generator).
-import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { analysisSettings } from '../shared/analysis/analysisSettings';
 import { analyzeTrial } from '../shared/analysis/analyzeTrial';
@@ -12,22 +11,12 @@ import type { FTestResult } from '../shared/analysis/extraSumOfSquaresTest';
 import { planAcrossSites } from '../shared/analysis/planAcrossSites';
 import { importFiles } from '../shared/import/importFiles';
 import { fitAllModels } from '../shared/models/fitAllModels';
+import { readRCsv } from './analysis.fixtures';
 
 const prices = { grainPricePerKg: 0.18, nutrientPricePerKg: 1.26 };
-const dir = new URL('./fixtures/levels/', import.meta.url);
 
-function rCsv(file: string): Record<string, string>[] {
-  const lines = readFileSync(new URL(file, dir), 'utf8')
-    .split(/\r?\n/)
-    .filter((l) => l.trim() !== '' && !l.startsWith('#'));
-  const split = (l: string) =>
-    [...l.matchAll(/"([^"]*)"|([^,]+)|(?<=,|^)(?=,|$)/g)].map((m) => (m[1] ?? m[2] ?? '').trim());
-  const header = split(lines[0]);
-  return lines.slice(1).map((l) => {
-    const cells = split(l);
-    return Object.fromEntries(header.map((h, i) => [h, cells[i]]));
-  });
-}
+/** An R-written fixture of tests/fixtures/levels/ as header → text rows. */
+const rCsv = (file: string) => readRCsv(`../levels/${file}`);
 
 /** The fixture's plots as a user's CSV file, with the factor column under `header`. */
 function plotsFile(header = 'Timing'): { name: string; bytes: Uint8Array } {
