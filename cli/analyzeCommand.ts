@@ -45,8 +45,7 @@ import { formatQuantity } from '../shared/units/formatQuantity';
 import { KG_PER_LB } from '../shared/units/unitConstants';
 import type { AnalyzeArgs } from './parseArgs';
 import { UsageError } from './usageError';
-import { formatNutrientRate } from '../shared/units/convertRate';
-import { RATE_DECIMALS, shownRate } from '../shared/units/rateRounding';
+import { formatShownRate } from '../shared/units/rateRounding';
 
 /** Sheets written between full collections while the workbook is streamed (about 200 MB of garbage). */
 const GARBAGE_EVERY_SHEETS = 200;
@@ -283,7 +282,7 @@ function summary(report: TrialReport): string[] {
   const u = unitScale(report.settings.units, report.crop);
   const ru = report.settings.units.rate;
   const rate = (kgHa: number | null | undefined): string =>
-    kgHa == null ? '—' : formatNutrientRate(shownRate(u.rate(kgHa), ru), ru, RATE_DECIMALS[ru]);
+    kgHa == null ? '—' : formatShownRate(u.rate(kgHa), ru);
   const money = (perHa: number): string =>
     `${Math.round(u.perArea(perHa)).toLocaleString('en-US')} per ${u.areaName}`;
   const lines: string[] = [];

@@ -25,6 +25,7 @@ import {
   type RateUnit,
   type YieldUnit,
 } from '../shared/units';
+import { formatShownRate } from '../shared/units/rateRounding';
 
 describe('unit constants', () => {
   it('the pound is exactly 0.453 592 37 kg', () => {
@@ -67,6 +68,9 @@ describe('convertRate', () => {
     expect(formatNutrientRate(1234.4, 'kg/ha')).toBe('1,234 kg N/ha');
     expect(formatNutrientRate(12.46, 'g/m2')).toBe('12.5 g N/m²');
     expect(formatNutrientRate(null, 'g/m2')).toBe('—');
+    // A reported rate: whole kg/ha and lb/ac, tenths of g/m² (shared/units/rateRounding).
+    expect(formatShownRate(157.4, 'kg/ha')).toBe('157 kg N/ha');
+    expect(formatShownRate(15.74, 'g/m2')).toBe('15.7 g N/m²');
   });
   it('refuses an unknown unit with a message naming it', () => {
     expect(() => convertRate(1, 'oz/ac' as RateUnit)).toThrow(/Unknown rate unit "oz\/ac"/);

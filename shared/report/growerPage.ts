@@ -9,12 +9,7 @@ import { paperSize, type PaperSize } from './paperSize';
 import { recommendationCautions } from '../economics/recommendationCautions';
 import { crops } from '../units/crops';
 import { formatQuantity } from '../units/formatQuantity';
-import {
-  RATE_DECIMALS,
-  applicationRate,
-  applicationRateDown,
-  shownRate,
-} from '../units/rateRounding';
+import { applicationRate, applicationRateDown, formatShownRate } from '../units/rateRounding';
 import { formatMoney, formatMoneyPerArea } from '../units/formatMoney';
 import { pageFieldRows } from './pageFields';
 import { products } from '../units/products';
@@ -432,7 +427,7 @@ function pageFormats(report: TrialReport) {
   const ru = report.settings.units.rate;
   const { currency, locale } = report.settings;
   const withUnit = (v: number, decimals: number): string => formatNutrientRate(v, ru, decimals);
-  const shown = (v: number): string => withUnit(shownRate(v, ru), RATE_DECIMALS[ru]);
+  const shown = (v: number): string => formatShownRate(v, ru);
   return {
     /** A rate already in display units, rounded as reported. */
     shown,

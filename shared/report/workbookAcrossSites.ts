@@ -137,7 +137,7 @@ function groupsTable(
   r = tableHeading(
     ws,
     r,
-    'The regional rate per group of sites (each group averaged on its own; each group has a grower page)',
+    'The regional rate per group of sites (each group averaged on its own; a group of two or more sites has its own grower page)',
     [
       'Grouped by',
       'Group',

@@ -6,7 +6,7 @@
  * - a rate to apply (the grower page's "Apply about …" and the product amount): the spreader's
  *   step, 5 lb/ac or kg/ha and 0.5 g/m² (common practice), down for a rate not to be exceeded.
  */
-import type { RateUnit } from './convertRate';
+import { formatNutrientRate, type RateUnit } from './convertRate';
 
 /** Decimals a reported rate is shown with, per display unit. */
 export const RATE_DECIMALS: Readonly<Record<RateUnit, number>> = {
@@ -25,6 +25,17 @@ export const RATE_DECIMALS: Readonly<Record<RateUnit, number>> = {
 export function shownRate(value: number, unit: RateUnit): number {
   const f = 10 ** RATE_DECIMALS[unit];
   return Math.round(value * f) / f + 0;
+}
+
+/**
+ * A reported rate as text: rounded as every view shows it, with the nutrient in its unit.
+ * @param value - the rate in the display unit
+ * @param unit - the display unit
+ * @returns e.g. "157 kg N/ha", "15.7 g N/m²"
+ * @example formatShownRate(157.4, 'kg/ha') // '157 kg N/ha'
+ */
+export function formatShownRate(value: number, unit: RateUnit): string {
+  return formatNutrientRate(shownRate(value, unit), unit, RATE_DECIMALS[unit]);
 }
 
 /** The step a spreader or applicator is set in, per display unit (common practice). */
