@@ -27,11 +27,9 @@ import { describeRef } from '../shared/table/qualityFinding';
 import { analyzablePlots } from '../shared/table/plotTable';
 import { siteYearsOf } from '../shared/table/siteYear';
 import { assembleReport } from '../shared/report/assembleReport';
-import { growerPageChart, reportRegionalChart } from '../shared/report/growerPageChart';
-import { levelChartKey, levelCurvesChart } from '../shared/report/levelCurvesChart';
 import { resultsJsonText } from '../shared/report/resultsJson';
 import type { DisplaySettings } from '../shared/report/reportSettings';
-import { siteResponseChart } from '../shared/report/siteResponseChart';
+import type { ChartSpec } from '../shared/report/chartSpec';
 import { unitScale } from '../shared/report/unitScale';
 import type { SiteReport, TrialReport } from '../shared/report/trialReport';
 import {
@@ -45,6 +43,7 @@ import { formatQuantity } from '../shared/units/formatQuantity';
 import { KG_PER_LB } from '../shared/units/unitConstants';
 import type { AnalyzeArgs } from './parseArgs';
 import { UsageError } from './usageError';
+import { chartPictures, NO_CHARTS, reportChartSpecs, type ReportCharts } from './reportCharts';
 import { formatShownRate } from '../shared/units/rateRounding';
 
 /** Sheets written between full collections while the workbook is streamed (about 200 MB of garbage). */
@@ -211,71 +210,23 @@ function pricesFrom(args: AnalyzeArgs, units: DisplayUnits, crop: CropId): Price
   };
 }
 
-/** The report's charts as PNG, by site (none past the limit), and the regional one. */
-async function drawCharts(
+/** The workbook's chart pictures, with progress for a long run. */
+async function drawPictures(
   report: TrialReport,
-  siteChartLimit: number,
+  charts: ReportCharts<ChartSpec>,
   log: Console2,
-): Promise<{
-  sites: Record<string, SheetImage>;
-  /** A grower page's own chart where it is not the site's (a rate × factor site's levels). */
-  pages: Record<string, SheetImage>;
-  /** Each rate × factor site's levels chart, by levelChartKey(site, factor). */
-  levels: Record<string, SheetImage>;
-  /** Each group page's regional chart, by the page's subject. */
-  groups: Record<string, SheetImage>;
-  region: SheetImage | null;
-}> {
-  const drawn = report.sites.length <= siteChartLimit ? report.sites : [];
-  const specs = drawn.map((s) => siteResponseChart(report, s));
-  // Every rate × factor site's levels chart: on its factor's sheet, and the first factor's on
-  // the site's grower page (growerPageChart draws that one).
-  const names = new Set(drawn.map((s) => s.site));
-  const levelSites = report.levels.filter((l) => names.has(l.site));
-  for (const l of levelSites) specs.push(levelCurvesChart(report, l, null));
-  // Each group page's own regional chart (growerPageChart draws the same in the workspace).
-  const { groupPages, growerPage } = await import('../shared/report/growerPage');
-  const groupCharts = groupPages(report).flatMap((g) => {
-    const spec = growerPageChart(report, g.id);
-    return spec ? [{ subject: growerPage(report, g.id).subject, spec }] : [];
-  });
-  for (const g of groupCharts) specs.push(g.spec);
-  const rs = reportRegionalChart(report);
-  if (rs) specs.push(rs);
+): Promise<ReportCharts<SheetImage>> {
   // Print sharpness (2×) for a report someone reads page by page; 1× past 100 sites keeps a big run small.
   const scale = report.sites.length > 100 ? 1 : 2;
-  const every = Math.ceil(specs.length / 10);
-  let next = every;
-  const { chartPngs } = await import('./chartPng');
-  const pngs = await chartPngs(specs, scale, (done) => {
-    if (specs.length >= 50 && done >= next) {
-      log.err(`plotrate: drew ${done}/${specs.length} charts`);
-      next += every;
+  let next = 0;
+  return chartPictures(charts, scale, (done, total) => {
+    if (total < 50) return;
+    if (next === 0) next = Math.ceil(total / 10);
+    if (done >= next) {
+      log.err(`plotrate: drew ${done}/${total} charts`);
+      next += Math.ceil(total / 10);
     }
   });
-  const image = (i: number): SheetImage => ({
-    png: pngs[i],
-    widthPx: specs[i].widthPx,
-    heightPx: specs[i].heightPx,
-  });
-  const sites: Record<string, SheetImage> = {};
-  drawn.forEach((s, i) => (sites[s.site] = image(i)));
-  const pages: Record<string, SheetImage> = {};
-  const levels: Record<string, SheetImage> = {};
-  levelSites.forEach((l, i) => {
-    const picture = image(drawn.length + i);
-    levels[levelChartKey(l.site, l.factor)] = picture;
-    pages[l.site] ??= picture;
-  });
-  const groups: Record<string, SheetImage> = {};
-  groupCharts.forEach((g, i) => (groups[g.subject] = image(drawn.length + levelSites.length + i)));
-  return {
-    sites,
-    pages,
-    levels,
-    groups,
-    region: rs ? { png: pngs[pngs.length - 1], widthPx: rs.widthPx, heightPx: rs.heightPx } : null,
-  };
 }
 
 function summary(report: TrialReport): string[] {
@@ -359,10 +310,8 @@ export async function analyzeCommand(
   // The analysis (plot table, fits, bootstrap draws) is let go once the report is made: only the
   // report is needed for the outputs, and a run of thousands of sites needs that memory back.
   const report = await analyzedReport(args, log, version, extra);
-  const charts =
-    args.out || args.pdf
-      ? await drawCharts(report, args.siteChartLimit, log)
-      : { sites: {}, pages: {}, levels: {}, groups: {}, region: null };
+  const charts = args.out || args.pdf ? reportChartSpecs(report, args.siteChartLimit) : NO_CHARTS;
+  const pictures = args.out ? await drawPictures(report, charts, log) : NO_CHARTS;
   // Every output goes to a temporary file first and all are renamed together at the end, so a
   // run leaves all of them or none (a failure, or SIGINT/SIGTERM, removes the temporaries). The
   // workbook and the PDF are streamed into theirs, a sheet or a page at a time.
@@ -376,9 +325,9 @@ export async function analyzeCommand(
           out,
           report,
           {
-            siteCharts: charts.sites,
-            acrossChart: charts.region,
-            levelCharts: charts.levels,
+            siteCharts: pictures.sites,
+            acrossChart: pictures.region,
+            levelCharts: pictures.levels,
             // Fast deflate for big runs: most bytes are PNGs that do not shrink further.
             zipLevel: report.sites.length > 100 ? 1 : undefined,
           },
@@ -397,19 +346,13 @@ export async function analyzeCommand(
     outputs.push({
       target: path.resolve(args.pdf),
       stream: async (out) => {
-        const pageCharts: Record<string, { png: Uint8Array; aspect: number }> = {};
-        for (const [subject, c] of Object.entries({
+        const pageCharts: Record<string, ChartSpec> = {
           ...charts.sites,
           ...charts.pages,
           ...charts.groups,
-        }))
-          pageCharts[subject] = { png: c.png, aspect: c.heightPx / c.widthPx };
-        if (charts.region && report.acrossSites) {
-          pageCharts[`Region (${report.acrossSites.sites.length} sites)`] = {
-            png: charts.region.png,
-            aspect: charts.region.heightPx / charts.region.widthPx,
-          };
-        }
+        };
+        if (charts.region && report.acrossSites)
+          pageCharts[`Region (${report.acrossSites.sites.length} sites)`] = charts.region;
         const { streamGrowerPdf } = await import('./growerPdf');
         const { reportGrowerPages } = await import('../shared/report/reportGrowerPages');
         await streamGrowerPdf(

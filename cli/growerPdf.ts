@@ -11,7 +11,10 @@ import { existsSync } from 'node:fs';
 import { Writable } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
 import PDFDocument from 'pdfkit';
-import { chartFontFiles } from './chartPng';
+import { chartFontFiles } from './chartFonts';
+import { drawChartScene, type ChartLabelFace } from './pdfChart';
+import { chartScene, type ChartScene } from '../shared/report/chartScene';
+import type { ChartSpec } from '../shared/report/chartSpec';
 import type { GrowerPage } from '../shared/report/growerPage';
 import {
   growerPageLayout,
@@ -57,6 +60,9 @@ function font(doc: PDFKit.PDFDocument, bold: boolean): void {
   const f = embeddedFaces();
   doc.font(f ? (bold ? f.bold : f.regular) : bold ? 'Helvetica-Bold' : 'Helvetica');
 }
+
+/** The charts' labels in the page's own faces. */
+const labelFace: ChartLabelFace = { setFont: font, printable };
 
 /** Height of a block at a scale, pt (pdfkit measures wrapped text). */
 function blockHeight(
@@ -105,18 +111,15 @@ function blockHeight(
   }
 }
 
-function drawPage(
-  doc: PDFKit.PDFDocument,
-  layout: PageLayout,
-  chart: { image: OpenedImage; aspect: number } | null,
-): void {
+function drawPage(doc: PDFKit.PDFDocument, layout: PageLayout, chart: ChartScene | null): void {
+  const aspect = chart ? chart.heightPx / chart.widthPx : null;
   const m = layout.marginPt;
   const width = layout.widthPt - 2 * m;
   const available = layout.heightPt - 2 * m - 20;
   // Shrink everything together until the page fits: one page per recommendation, always.
   let s = 1;
   const total = (k: number): number =>
-    layout.blocks.reduce((h, b) => h + blockHeight(doc, b, width, k, chart?.aspect ?? null), 0);
+    layout.blocks.reduce((h, b) => h + blockHeight(doc, b, width, k, aspect), 0);
   while (s > 0.5 && total(s) > available) s -= 0.04;
   let y = m;
   for (const b of layout.blocks) {
@@ -152,10 +155,10 @@ function drawPage(
         yy += doc.heightOfString(printable(`• ${l}`), { width: width - 16 }) + 2 * s;
       }
       y += h + b.gapAfterPt * s;
-    } else if (chart) {
-      const h = Math.min(b.maxHeightPt * s, width * chart.aspect);
-      const w = h / chart.aspect;
-      doc.image(chart.image as never, m + (width - w) / 2, y, { width: w, height: h });
+    } else if (chart && aspect) {
+      const h = Math.min(b.maxHeightPt * s, width * aspect);
+      const w = h / aspect;
+      drawChartScene(doc, chart, { x: m + (width - w) / 2, y, widthPt: w }, labelFace);
       y += h + b.gapAfterPt * s;
     }
   }
@@ -174,7 +177,7 @@ function drawPage(
  * the next begins, so a report of thousands of pages is never held whole.
  * @param out - where the PDF bytes go (the caller's temporary file); ended when done
  * @param pages - the structured pages (paper from each page's units)
- * @param charts - chart pictures by page subject (site name), PNG bytes and height/width ratio
+ * @param charts - each page's chart by page subject (site name), drawn as vectors
  * @param createdAt - the document's creation time (the analysis time, so reruns match)
  * @returns when the last byte is handed to `out` and `out` has finished
  * @throws {RangeError} when there are no pages
@@ -184,7 +187,7 @@ function drawPage(
 export async function streamGrowerPdf(
   out: Writable,
   pages: readonly GrowerPage[],
-  charts: Record<string, { png: Uint8Array; aspect: number }> = {},
+  charts: Record<string, ChartSpec> = {},
   createdAt: Date = new Date(),
 ): Promise<void> {
   if (pages.length === 0) throw new RangeError('growerPdf: there are no pages to write.');
@@ -204,43 +207,16 @@ export async function streamGrowerPdf(
   const written = pipeline(doc, out);
   written.catch(() => undefined);
   for (const page of pages) {
-    const picture = charts[page.subject] ?? null;
-    const layout = growerPageLayout(page, picture !== null);
+    const spec = Object.hasOwn(charts, page.subject) ? charts[page.subject] : null;
+    const chart = spec ? chartScene(spec) : null;
+    const layout = growerPageLayout(page, chart !== null);
     doc.addPage({ size: [layout.widthPt, layout.heightPt], margin: 0 });
-    const image = picture ? openImage(doc, picture.png) : null;
-    drawPage(doc, layout, image && picture ? { image, aspect: picture.aspect } : null);
-    if (image) await imageWritten(doc, image);
+    drawPage(doc, layout, chart);
     // Let the finished page reach the file before drawing the next one.
     while (doc.readableLength > PAGE_BACKLOG_BYTES && !doc.destroyed) await once(doc, 'data');
   }
   doc.end();
   await written;
-}
-
-/**
- * pdfkit's opened image (not in its typings): `obj` is its PDF object once placed, `imgData`
- * its pixel data until written.
- */
-interface OpenedImage {
-  obj: unknown;
-  imgData: unknown;
-}
-
-function openImage(doc: PDFKit.PDFDocument, png: Uint8Array): OpenedImage {
-  return (doc as unknown as { openImage: (src: Buffer) => OpenedImage }).openImage(
-    Buffer.from(png),
-  );
-}
-
-/**
- * Resolves once pdfkit has written a placed image. A PNG with an alpha channel (every chart)
- * is split into colour and mask on zlib's threads after the page is drawn; without this wait
- * a thousand pages drawn in one go hold a thousand decoded pictures at once (measured: about
- * 1.7 MB a page, 2.4 GB at 1,000 sites).
- */
-async function imageWritten(doc: PDFKit.PDFDocument, image: OpenedImage): Promise<void> {
-  while ((image.obj == null || image.imgData != null) && !doc.destroyed)
-    await new Promise((resolve) => setTimeout(resolve, 1));
 }
 
 /** Bytes of pages waiting for the file before drawing pauses. */
@@ -250,13 +226,13 @@ const PAGE_BACKLOG_BYTES = 4 << 20;
  * Writes grower pages as a PDF, one page each, in memory (tests and small documents; the
  * command line streams with {@link streamGrowerPdf}).
  * @param pages - the structured pages (paper from each page's units)
- * @param charts - chart pictures by page subject (site name), PNG bytes and height/width ratio
+ * @param charts - each page's chart by page subject (site name), drawn as vectors
  * @param createdAt - the document's creation time (the analysis time, so reruns match)
  * @returns PDF bytes
  */
 export async function growerPdf(
   pages: GrowerPage[],
-  charts: Record<string, { png: Uint8Array; aspect: number }> = {},
+  charts: Record<string, ChartSpec> = {},
   createdAt: Date = new Date(),
 ): Promise<Uint8Array> {
   const chunks: Buffer[] = [];

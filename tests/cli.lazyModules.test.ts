@@ -80,12 +80,12 @@ describe('plotrate loads heavy modules only for the outputs that need them', () 
       expect(matching(r.urls, p), p).toEqual([]);
   });
 
-  it('a PDF loads pdfkit and the charts (resvg, worker) but not exceljs', () => {
+  it('a PDF loads pdfkit but neither exceljs nor a rasterizer (its charts are vectors)', () => {
     const r = loadsOf(['analyze', 'trial.csv', '--pdf', 'only.pdf', ...priced]);
     expect(r.code, r.err).toBe(0);
     expect(matching(r.urls, '/node_modules/pdfkit/').length).toBeGreaterThan(0);
-    expect(matching(r.urls, '/node_modules/@resvg/').length).toBeGreaterThan(0);
-    expect(matching(r.urls, '/dist-cli/chartWorker.mjs')).toHaveLength(1);
+    expect(matching(r.urls, '/node_modules/@resvg/')).toEqual([]);
+    expect(matching(r.urls, '/dist-cli/chartWorker.mjs')).toEqual([]);
     expect(matching(r.urls, '/node_modules/exceljs/')).toEqual([]);
   });
 
@@ -94,6 +94,7 @@ describe('plotrate loads heavy modules only for the outputs that need them', () 
     expect(r.code, r.err).toBe(0);
     expect(matching(r.urls, '/node_modules/exceljs/').length).toBeGreaterThan(0);
     expect(matching(r.urls, '/node_modules/@resvg/').length).toBeGreaterThan(0);
+    expect(matching(r.urls, '/dist-cli/chartWorker.mjs')).toHaveLength(1);
     expect(matching(r.urls, '/node_modules/pdfkit/')).toEqual([]);
   });
 });

@@ -3,7 +3,8 @@
 // at, and that the labels were drawn with a real font.
 import { Resvg } from '@resvg/resvg-js';
 import { describe, expect, it } from 'vitest';
-import { chartFontFiles, chartPng, chartPngs } from '../cli/chartPng';
+import { chartFontFiles } from '../cli/chartFonts';
+import { chartPng, chartPngs } from '../cli/chartPng';
 import { chartPalette, type ChartSpec } from '../shared/report/chartSpec';
 import { niceTicks } from '../shared/report/niceTicks';
 import { renderChartSvg } from '../shared/report/svgChart';
