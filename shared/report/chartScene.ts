@@ -99,11 +99,19 @@ function text(
   };
 }
 
+/** One formatter per number of decimals: toLocaleString builds a new one at every call. */
+const tickFormats = new Map<number, Intl.NumberFormat>();
+
 function formatTick(v: number, decimals: number): string {
-  const t = v.toLocaleString('en-US', {
-    minimumFractionDigits: decimals,
-    maximumFractionDigits: decimals,
-  });
+  let format = tickFormats.get(decimals);
+  if (!format) {
+    format = new Intl.NumberFormat('en-US', {
+      minimumFractionDigits: decimals,
+      maximumFractionDigits: decimals,
+    });
+    tickFormats.set(decimals, format);
+  }
+  const t = format.format(v);
   return /^-0(\.0+)?$/.test(t) ? t.slice(1) : t;
 }
 
