@@ -1,13 +1,21 @@
 /**
- * SVG chart → PNG bytes through resvg (no browser), with the label fonts found
- * by chartFonts.ts handed to it by path.
+ * SVG chart → PNG bytes through resvg (no browser). The labels are written as
+ * glyph outlines from the chart fonts (outlinedText.ts), so resvg lays out no
+ * text; the fonts found by chartFonts.ts are still handed to it by path.
  */
 import { chartFontFiles, familyOf } from './chartFonts';
 import { availableParallelism } from 'node:os';
 import { Worker } from 'node:worker_threads';
 import { Resvg } from '@resvg/resvg-js';
-import { renderChartSvg } from '../shared/report/svgChart';
+import { chartScene } from '../shared/report/chartScene';
+import { sceneSvg } from '../shared/report/svgChart';
+import { outlinedTextWriter } from './outlinedText';
 import type { ChartSpec } from '../shared/report/chartSpec';
+
+/** The chart as SVG with its labels as glyph outlines (see outlinedText.ts). */
+function outlinedSvg(spec: ChartSpec): string {
+  return sceneSvg(chartScene(spec), undefined, outlinedTextWriter());
+}
 
 /**
  * Draws a chart as PNG.
@@ -17,7 +25,7 @@ import type { ChartSpec } from '../shared/report/chartSpec';
  * @throws {Error} when no font can be found (see {@link chartFontFiles})
  */
 export function chartPng(spec: ChartSpec, scale = 2): Uint8Array {
-  const svg = renderChartSvg(spec);
+  const svg = outlinedSvg(spec);
   const resvg = new Resvg(svg, {
     fitTo: { mode: 'width', value: Math.round(spec.widthPx * scale) },
     font: {
@@ -57,7 +65,7 @@ export async function chartPngs(
     new Promise<Uint8Array[]>((resolve, reject) => {
       const w = new Worker(worker, {
         workerData: {
-          svgs: batch.map((s) => renderChartSvg(s)),
+          svgs: batch.map(outlinedSvg),
           widthsPx: batch.map((s) => Math.round(s.widthPx * scale)),
           fontFiles,
           family,

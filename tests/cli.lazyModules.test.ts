@@ -46,7 +46,12 @@ const analysisChunks = (urls: string[]): string[] =>
       readFileSync(fileURLToPath(u), 'utf8').includes('function* analyzeTrialSteps('),
   );
 
-const heavy = ['/node_modules/exceljs/', '/node_modules/pdfkit/', '/node_modules/@resvg/'];
+const heavy = [
+  '/node_modules/exceljs/',
+  '/node_modules/pdfkit/',
+  '/node_modules/@resvg/',
+  '/node_modules/fontkit/',
+];
 const priced = ['--grain-price', '4.5', '--nutrient-price', '0.6', '--boot', '0'];
 
 beforeAll(() => {

@@ -129,6 +129,36 @@ describe('renderChartSvg', () => {
 });
 
 describe('chartPng', () => {
+  it('draws labels as glyph outlines where resvg would set the text itself', () => {
+    // The same chart with its labels as text (laid out by resvg) and as outlines (laid out by
+    // fontkit, chartPng's way): the title's ink must cover the same span at the same height.
+    const s = spec('Cedar Bend 2025: yield response to N', [100, 5]);
+    const asText = pixels(renderChartSvg(s));
+    const png = `data:image/png;base64,${Buffer.from(chartPng(s, 1)).toString('base64')}`;
+    const asOutlines = pixels(
+      `<svg xmlns="http://www.w3.org/2000/svg" width="600" height="400"><image width="600" height="400" href="${png}"/></svg>`,
+    );
+    const ink = (p: { data: Buffer; width: number }) => {
+      let [left, right, top, bottom, amount] = [Infinity, -1, Infinity, -1, 0];
+      for (let y = 0; y < 32; y++) {
+        for (let x = 0; x < p.width; x++) {
+          const v = 255 - p.data[(y * p.width + x) * 4];
+          if (v < 60) continue;
+          amount += v;
+          [left, right] = [Math.min(left, x), Math.max(right, x)];
+          [top, bottom] = [Math.min(top, y), Math.max(bottom, y)];
+        }
+      }
+      return { left, right, top, bottom, amount };
+    };
+    const a = ink(asText);
+    const b = ink(asOutlines);
+    expect(a.right - a.left).toBeGreaterThan(200);
+    for (const k of ['left', 'right', 'top', 'bottom'] as const)
+      expect(Math.abs(a[k] - b[k]), k).toBeLessThanOrEqual(2);
+    expect(Math.abs(b.amount / a.amount - 1)).toBeLessThan(0.1);
+  });
+
   it('writes a PNG at twice the CSS size', () => {
     const png = chartPng(spec('Test', [50, 2]));
     expect(Buffer.from(png.subarray(1, 4)).toString('ascii')).toBe('PNG');

@@ -10,6 +10,7 @@ import {
   chartScene,
   type ChartScene,
   type ChartShape,
+  type ChartText,
   type ShapePaint,
 } from './chartScene';
 
@@ -55,7 +56,22 @@ function pointList(points: readonly number[]): string {
   return pairs.join(' ');
 }
 
-function shapeSvg(s: ChartShape, clipIds: Map<ChartShape, string>): string {
+/**
+ * Writes a chart's labels another way than as SVG text elements (the command line writes them as
+ * glyph outlines). One per document: `defs` gives what the labels written so far refer to.
+ */
+export interface SvgTextWriter {
+  /** The label as SVG markup, placed as the scene says. */
+  text(t: ChartText): string;
+  /** Definitions the labels refer to, for the document's defs. */
+  defs(): string;
+}
+
+function shapeSvg(
+  s: ChartShape,
+  clipIds: Map<ChartShape, string>,
+  textWriter: SvgTextWriter | null,
+): string {
   switch (s.kind) {
     case 'line':
       return `<line x1="${n(s.x1)}" y1="${n(s.y1)}" x2="${n(s.x2)}" y2="${n(s.y2)}" ${paintAttributes(s.paint)}/>`;
@@ -66,6 +82,7 @@ function shapeSvg(s: ChartShape, clipIds: Map<ChartShape, string>): string {
     case 'poly':
       return `<${s.closed ? 'polygon' : 'polyline'} points="${pointList(s.points)}" ${paintAttributes(s.paint)}/>`;
     case 'text': {
+      if (textWriter) return textWriter.text(s);
       const place = s.vertical
         ? `transform="translate(${n(s.x)},${n(s.y)}) rotate(-90)"`
         : `x="${n(s.x)}" y="${n(s.y)}"`;
@@ -79,7 +96,7 @@ function shapeSvg(s: ChartShape, clipIds: Map<ChartShape, string>): string {
     case 'clip':
       return [
         `<g clip-path="url(#${clipIds.get(s)})">`,
-        ...s.shapes.map((c) => shapeSvg(c, clipIds)),
+        ...s.shapes.map((c) => shapeSvg(c, clipIds, textWriter)),
         '</g>',
       ].join('\n');
   }
@@ -89,9 +106,14 @@ function shapeSvg(s: ChartShape, clipIds: Map<ChartShape, string>): string {
  * Writes a laid-out chart as SVG.
  * @param scene - the chart's shapes (see {@link chartScene})
  * @param fontFamily - CSS font-family list for every label
+ * @param textWriter - writes the labels instead of SVG text elements; omitted = text elements
  * @returns SVG text, `scene.widthPx` × `scene.heightPx` CSS pixels on white
  */
-export function sceneSvg(scene: ChartScene, fontFamily = defaultFont): string {
+export function sceneSvg(
+  scene: ChartScene,
+  fontFamily = defaultFont,
+  textWriter: SvgTextWriter | null = null,
+): string {
   const W = scene.widthPx;
   const H = scene.heightPx;
   const clipIds = new Map<ChartShape, string>();
@@ -104,11 +126,13 @@ export function sceneSvg(scene: ChartScene, fontFamily = defaultFont): string {
       `<clipPath id="${id}"><rect x="${n(s.x)}" y="${n(s.y)}" width="${n(s.w)}" height="${n(s.h)}"/></clipPath>`,
     );
   }
+  const body = scene.shapes.map((s) => shapeSvg(s, clipIds, textWriter));
+  if (textWriter) defs.push(textWriter.defs());
   return [
     `<svg xmlns="http://www.w3.org/2000/svg" width="${W}" height="${H}" viewBox="0 0 ${W} ${H}" font-family="${esc(fontFamily)}" fill="${CHART_TEXT_COLOR}">`,
     `<defs>${defs.join('')}</defs>`,
     `<rect width="${W}" height="${H}" fill="#ffffff"/>`,
-    ...scene.shapes.map((s) => shapeSvg(s, clipIds)),
+    ...body,
     '</svg>',
   ].join('\n');
 }
