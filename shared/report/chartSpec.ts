@@ -1,9 +1,10 @@
 /**
  * A neutral description of a chart: what to draw, in display units, with no
  * drawing library in it. Two renderers read it: the screen draws it with
- * Plotly (renderer/) and the reports draw it as SVG (shared/report/svgChart.ts,
- * then PNG in cli/). Keeping the description apart means the workbook, the PDF
- * and the screen show the same points, curves and bands.
+ * Plotly (renderer/) and the reports lay it out once (chartScene.ts) and write
+ * it as SVG (svgChart.ts; PNG in the workbook) or as PDF vectors (cli/).
+ * Keeping the description apart means the workbook, the PDF and the screen
+ * show the same points, curves and bands.
  *
  * Conventions every renderer follows:
  * - All numbers are in the units named on the axes (the caller converts from
