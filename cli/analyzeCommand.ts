@@ -43,6 +43,7 @@ import { formatQuantity } from '../shared/units/formatQuantity';
 import { KG_PER_LB } from '../shared/units/unitConstants';
 import type { AnalyzeArgs } from './parseArgs';
 import { UsageError } from './usageError';
+import { chartFontFiles } from './chartFonts';
 import { chartPictures, NO_CHARTS, reportChartSpecs, type ReportCharts } from './reportCharts';
 import { formatShownRate } from '../shared/units/rateRounding';
 
@@ -311,37 +312,16 @@ export async function analyzeCommand(
   // report is needed for the outputs, and a run of thousands of sites needs that memory back.
   const report = await analyzedReport(args, log, version, extra);
   const charts = args.out || args.pdf ? reportChartSpecs(report, args.siteChartLimit) : NO_CHARTS;
-  const pictures = args.out ? await drawPictures(report, charts, log) : NO_CHARTS;
+  // The workbook's pictures are drawn on worker threads while the PDF, which paints its charts
+  // as vectors and needs none, is written; the workbook waits for them.
+  if (args.out) chartFontFiles(); // no font for the labels: said now, before any output is begun
+  const pictures = args.out ? drawPictures(report, charts, log) : Promise.resolve(NO_CHARTS);
+  // Awaited by the workbook's output; a failure before then is reported there, not as unhandled.
+  pictures.catch(() => undefined);
   // Every output goes to a temporary file first and all are renamed together at the end, so a
   // run leaves all of them or none (a failure, or SIGINT/SIGTERM, removes the temporaries). The
   // workbook and the PDF are streamed into theirs, a sheet or a page at a time.
   const outputs: PendingOutput[] = [];
-  if (args.out) {
-    outputs.push({
-      target: path.resolve(args.out),
-      stream: async (out) => {
-        const { streamWorkbook } = await import('./streamedWorkbook');
-        await streamWorkbook(
-          out,
-          report,
-          {
-            siteCharts: pictures.sites,
-            acrossChart: pictures.region,
-            levelCharts: pictures.levels,
-            // Fast deflate for big runs: most bytes are PNGs that do not shrink further.
-            zipLevel: report.sites.length > 100 ? 1 : undefined,
-          },
-          (sheets) => {
-            // Each site's sheet leaves about a megabyte of garbage, which V8 would let grow to
-            // gigabytes before collecting (see collectGarbage); the sheets after the sites are
-            // few and large, so each of them starts clean.
-            if (sheets % GARBAGE_EVERY_SHEETS === 0 || sheets > report.sites.length)
-              collectGarbage();
-          },
-        );
-      },
-    });
-  }
   if (args.pdf) {
     outputs.push({
       target: path.resolve(args.pdf),
@@ -360,6 +340,33 @@ export async function analyzeCommand(
           reportGrowerPages(report),
           pageCharts,
           new Date(report.createdAt),
+        );
+      },
+    });
+  }
+  if (args.out) {
+    outputs.push({
+      target: path.resolve(args.out),
+      stream: async (out) => {
+        const drawn = await pictures;
+        const { streamWorkbook } = await import('./streamedWorkbook');
+        await streamWorkbook(
+          out,
+          report,
+          {
+            siteCharts: drawn.sites,
+            acrossChart: drawn.region,
+            levelCharts: drawn.levels,
+            // Fast deflate for big runs: most bytes are PNGs that do not shrink further.
+            zipLevel: report.sites.length > 100 ? 1 : undefined,
+          },
+          (sheets) => {
+            // Each site's sheet leaves about a megabyte of garbage, which V8 would let grow to
+            // gigabytes before collecting (see collectGarbage); the sheets after the sites are
+            // few and large, so each of them starts clean.
+            if (sheets % GARBAGE_EVERY_SHEETS === 0 || sheets > report.sites.length)
+              collectGarbage();
+          },
         );
       },
     });

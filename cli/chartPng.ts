@@ -43,7 +43,7 @@ export function chartPng(spec: ChartSpec, scale = 2): Uint8Array {
 const BATCH = 24;
 
 /**
- * Draws many charts as PNG in worker threads, a batch at a time. resvg keeps
+ * Draws many charts as PNG in worker threads (one per core), a batch at a time. resvg keeps
  * its pixel buffers outside the JavaScript heap, where the collector does not
  * see them (measured here: about 8 MB kept per 1600 px chart, gigabytes for a
  * thousand sites); ending the thread after each batch gives that memory back.
@@ -84,8 +84,9 @@ export async function chartPngs(
   const batches: ChartSpec[][] = [];
   for (let i = 0; i < specs.length; i += BATCH) batches.push(specs.slice(i, i + BATCH));
   const results: Uint8Array[][] = new Array(batches.length);
-  // Two threads at most: enough to use a second core, few enough to leave the machine usable.
-  const lanes = Math.max(1, Math.min(2, availableParallelism(), batches.length));
+  // A thread per core: drawing is most of a big run's work, and the main thread mostly waits
+  // (or writes the PDF meanwhile).
+  const lanes = Math.max(1, Math.min(availableParallelism(), batches.length));
   let next = 0;
   let done = 0;
   await Promise.all(
