@@ -64,6 +64,35 @@ function font(doc: PDFKit.PDFDocument, bold: boolean): void {
 /** The charts' labels in the page's own faces. */
 const labelFace: ChartLabelFace = { setFont: font, printable };
 
+/** Heights already measured, by face, size, width and text: every page repeats most lines. */
+const measured = new Map<string, number>();
+/** Measured heights kept at most (a long run's site names would otherwise pile up). */
+const MEASURED_KEPT = 20_000;
+
+/**
+ * Height of text wrapped to a width, pt: pdfkit lays the text out word by word, so a line seen
+ * before (the cautions, the notes, the labels) is measured once per run. Leaves the face and
+ * size set, as the caller draws next.
+ */
+function textHeight(
+  doc: PDFKit.PDFDocument,
+  text: string,
+  bold: boolean,
+  sizePt: number,
+  width: number,
+): number {
+  font(doc, bold);
+  doc.fontSize(sizePt);
+  const key = `${bold ? 'b' : 'r'}${sizePt}|${width}|${text}`;
+  let h = measured.get(key);
+  if (h === undefined) {
+    h = doc.heightOfString(text, { width });
+    if (measured.size >= MEASURED_KEPT) measured.clear();
+    measured.set(key, h);
+  }
+  return h;
+}
+
 /** Height of a block at a scale, pt (pdfkit measures wrapped text). */
 function blockHeight(
   doc: PDFKit.PDFDocument,
@@ -74,34 +103,19 @@ function blockHeight(
 ): number {
   switch (b.kind) {
     case 'text':
-      font(doc, b.bold);
-      doc.fontSize(b.sizePt * s);
       return (
-        (b.text ? doc.heightOfString(printable(b.text), { width }) : b.sizePt * s) +
+        (b.text ? textHeight(doc, printable(b.text), b.bold, b.sizePt * s, width) : b.sizePt * s) +
         b.gapAfterPt * s
       );
     case 'facts': {
       let h = 0;
-      for (const r of b.rows) {
-        font(doc, false);
-        doc.fontSize(b.sizePt * s);
-        h +=
-          Math.max(
-            doc.heightOfString(printable(r.value), { width: width * 0.62 }),
-            doc.heightOfString(printable(r.label), { width: width * 0.36 }),
-          ) +
-          2 * s;
-      }
+      for (const r of b.rows) h += factRowHeight(doc, r, b.sizePt * s, width) + 2 * s;
       return h + b.gapAfterPt * s;
     }
     case 'box': {
-      font(doc, true);
-      doc.fontSize((b.sizePt + 1) * s);
-      let h = doc.heightOfString(b.title, { width: width - 16 }) + 4 * s;
-      font(doc, false);
-      doc.fontSize(b.sizePt * s);
+      let h = textHeight(doc, b.title, true, (b.sizePt + 1) * s, width - 16) + 4 * s;
       for (const l of b.lines)
-        h += doc.heightOfString(printable(`• ${l}`), { width: width - 16 }) + 2 * s;
+        h += textHeight(doc, printable(`• ${l}`), false, b.sizePt * s, width - 16) + 2 * s;
       return h + 16 + b.gapAfterPt * s;
     }
     case 'chart':
@@ -109,6 +123,19 @@ function blockHeight(
         ? 0
         : Math.min(b.maxHeightPt * s, width * chartAspect) + b.gapAfterPt * s;
   }
+}
+
+/** A facts row's height: its label (bold) and its value side by side, the taller. */
+function factRowHeight(
+  doc: PDFKit.PDFDocument,
+  r: { label: string; value: string },
+  sizePt: number,
+  width: number,
+): number {
+  return Math.max(
+    textHeight(doc, printable(r.label), true, sizePt, width * 0.36),
+    textHeight(doc, printable(r.value), false, sizePt, width * 0.62),
+  );
 }
 
 function drawPage(doc: PDFKit.PDFDocument, layout: PageLayout, chart: ChartScene | null): void {
@@ -133,11 +160,9 @@ function drawPage(doc: PDFKit.PDFDocument, layout: PageLayout, chart: ChartScene
         doc.fontSize(b.sizePt * s).fillColor('#111111');
         font(doc, true);
         doc.text(printable(r.label), m, y, { width: width * 0.36 });
-        const hl = doc.heightOfString(printable(r.label), { width: width * 0.36 });
         font(doc, false);
         doc.text(printable(r.value), m + width * 0.38, y, { width: width * 0.62 });
-        const hv = doc.heightOfString(printable(r.value), { width: width * 0.62 });
-        y += Math.max(hl, hv) + 2 * s;
+        y += factRowHeight(doc, r, b.sizePt * s, width) + 2 * s;
       }
       y += b.gapAfterPt * s;
     } else if (b.kind === 'box') {
@@ -147,12 +172,13 @@ function drawPage(doc: PDFKit.PDFDocument, layout: PageLayout, chart: ChartScene
       font(doc, true);
       doc.fontSize((b.sizePt + 1) * s).fillColor('#111111');
       doc.text(b.title, m + 8, yy, { width: width - 16 });
-      yy += doc.heightOfString(b.title, { width: width - 16 }) + 4 * s;
-      font(doc, false);
-      doc.fontSize(b.sizePt * s);
+      yy += textHeight(doc, b.title, true, (b.sizePt + 1) * s, width - 16) + 4 * s;
       for (const l of b.lines) {
-        doc.text(printable(`• ${l}`), m + 8, yy, { width: width - 16 });
-        yy += doc.heightOfString(printable(`• ${l}`), { width: width - 16 }) + 2 * s;
+        const line = printable(`• ${l}`);
+        // Measured first: that also sets the regular face and size the line is drawn in.
+        const lineHeight = textHeight(doc, line, false, b.sizePt * s, width - 16);
+        doc.text(line, m + 8, yy, { width: width - 16 });
+        yy += lineHeight + 2 * s;
       }
       y += h + b.gapAfterPt * s;
     } else if (chart && aspect) {
