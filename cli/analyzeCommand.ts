@@ -9,6 +9,7 @@
  */
 import { checkPriceRatio, priceRatioFarOff } from '../shared/economics/priceRatioCheck';
 import type { CropId } from '../shared/table/plotTable';
+import { once } from 'node:events';
 import { accessSync, constants, realpathSync, statSync } from 'node:fs';
 import path from 'node:path';
 import { writeFilesAtomic, type PendingOutput } from '../electron/atomicWrite';
@@ -27,7 +28,7 @@ import { describeRef } from '../shared/table/qualityFinding';
 import { analyzablePlots } from '../shared/table/plotTable';
 import { siteYearsOf } from '../shared/table/siteYear';
 import { assembleReport } from '../shared/report/assembleReport';
-import { resultsJsonText } from '../shared/report/resultsJson';
+import { resultsJsonPieces } from '../shared/report/resultsJson';
 import type { DisplaySettings } from '../shared/report/reportSettings';
 import type { ChartSpec } from '../shared/report/chartSpec';
 import { unitScale } from '../shared/report/unitScale';
@@ -374,7 +375,23 @@ export async function analyzeCommand(
   if (args.json) {
     outputs.push({
       target: path.resolve(args.json),
-      make: async () => resultsJsonText(report),
+      stream: async (out) => {
+        // Pieces gathered to about a megabyte per write: each write is a trip to the disk thread.
+        let batch: string[] = [];
+        let size = 0;
+        const flush = async (): Promise<void> => {
+          if (!out.write(batch.join(''))) await once(out, 'drain');
+          batch = [];
+          size = 0;
+        };
+        for (const piece of resultsJsonPieces(report)) {
+          batch.push(piece);
+          size += piece.length;
+          if (size >= 1 << 20) await flush();
+        }
+        if (size > 0) await flush();
+        out.end();
+      },
     });
   }
   try {

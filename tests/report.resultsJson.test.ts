@@ -5,7 +5,12 @@
 import { readFileSync } from 'node:fs';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { fitRegionalPlateauMixedModel } from '../shared/analysis/regionalPlateauMixedModel';
-import { resultsJson, type ResultsJson } from '../shared/report/resultsJson';
+import {
+  resultsJson,
+  resultsJsonPieces,
+  resultsJsonText,
+  type ResultsJson,
+} from '../shared/report/resultsJson';
 import type { TrialReport } from '../shared/report/trialReport';
 import { demoReport, gainsOverBlockCheck } from './report.fixture';
 
@@ -371,6 +376,19 @@ describe('resultsJson', () => {
     expect(json.acrossSites!.mixedModelsSentence).toMatch(
       new RegExp(`AIC favours the ${label[best.model]} \\(`),
     );
+  });
+
+  it('writes in pieces exactly the text JSON.stringify gives, a site to a piece', () => {
+    // ECMA-262's JSON.stringify with an indent of 2, and a final newline, is the file's format.
+    const whole = `${JSON.stringify(json, null, 2)}\n`;
+    const pieces = [...resultsJsonPieces(us)];
+    expect(pieces.join('')).toBe(whole);
+    expect(resultsJsonText(us)).toBe(whole);
+    expect(pieces.length).toBeGreaterThan(json.sites.length);
+    // Each site is a piece of its own, and parses back to that site.
+    const siteKey = JSON.stringify(json.sites[0].site);
+    const first = pieces.find((p) => p.includes(`"site": ${siteKey}`))!;
+    expect(JSON.parse(first.trim().replace(/,$/, ''))).toEqual(json.sites[0]);
   });
 
   it('gives the same file for the same seed', async () => {
