@@ -79,12 +79,6 @@ function drawShape(doc: PDFKit.PDFDocument, s: ChartShape, face: ChartLabelFace)
       doc.restore();
       return;
     }
-    case 'clip':
-      doc.save();
-      doc.rect(s.x, s.y, s.w, s.h).clip();
-      for (const c of s.shapes) drawShape(doc, c, face);
-      doc.restore();
-      return;
   }
 }
 

@@ -94,8 +94,11 @@ async function pdfRaster(): Promise<Raster> {
 
 /** The panel's plotting area, chart pixels. */
 function panelFrame(): { x: number; y: number; w: number; h: number } {
-  const frame = chartScene(spec).shapes.find((s) => s.kind === 'clip');
-  if (frame?.kind !== 'clip') throw new Error('The chart has no panel.');
+  // The frame: the one unfilled rectangle drawn in the axis color.
+  const frame = chartScene(spec).shapes.find(
+    (s) => s.kind === 'rect' && s.paint.fill === null && s.paint.stroke === chartPalette.axis,
+  );
+  if (frame?.kind !== 'rect') throw new Error('The chart has no panel.');
   return frame;
 }
 

@@ -22,6 +22,7 @@ import {
   type ChartSymbol,
   type PointLayer,
 } from './chartSpec';
+import { clipPolygon, clipPolyline } from './clipToBox';
 import { niceTicks, type NiceTicks } from './niceTicks';
 
 /** How a shape is filled and outlined. Colors are CSS colors (hex or rgba()); null = none. */
@@ -45,9 +46,7 @@ export type ChartShape =
   | { kind: 'circle'; cx: number; cy: number; r: number; paint: ShapePaint }
   /** Points as x0, y0, x1, y1, …; closed = a polygon, open = a polyline. */
   | { kind: 'poly'; points: readonly number[]; closed: boolean; paint: ShapePaint }
-  | ChartText
-  /** Shapes cut to a rectangle (a panel's plotting area). */
-  | { kind: 'clip'; x: number; y: number; w: number; h: number; shapes: ChartShape[] };
+  | ChartText;
 
 /** A line of text; (x, y) is its baseline point at the anchor. */
 export interface ChartText {
@@ -294,8 +293,6 @@ function moved(s: ChartShape, dx: number, dy: number): ChartShape {
       return { ...s, cx: s.cx + dx, cy: s.cy + dy };
     case 'poly':
       return { ...s, points: s.points.map((v, i) => v + (i % 2 === 0 ? dx : dy)) };
-    case 'clip':
-      return { ...s, x: s.x + dx, y: s.y + dy, shapes: s.shapes.map((c) => moved(c, dx, dy)) };
   }
 }
 
@@ -377,13 +374,16 @@ function panelShapes(
   );
   if (panel.title) out.push(text(box.x, box.y - 6, panel.title, size, { bold: true }));
 
-  const clipped: ChartShape[] = [];
+  // What lies in the plotting area is cut to it here, in the scene's own coordinates (clipToBox),
+  // so no writer needs a clip path: a band to its part of the rates, a curve that leaves the
+  // yield range (a straight line past the top) to the runs inside.
   let alt = 0;
   for (const l of panel.layers) {
     if (l.kind === 'band') {
-      const x1 = sx(Math.min(l.low, l.high));
-      const x2 = sx(Math.max(l.low, l.high));
-      clipped.push({
+      const x1 = Math.max(box.x, sx(Math.min(l.low, l.high)));
+      const x2 = Math.min(box.x + box.w, sx(Math.max(l.low, l.high)));
+      if (x2 < box.x || x1 > box.x + box.w) continue;
+      out.push({
         kind: 'rect',
         x: x1,
         y: box.y,
@@ -403,10 +403,11 @@ function panelShapes(
       // The lower edge walked back from the right, so the outline closes on itself.
       const back: number[] = [];
       for (let i = lower.length - 2; i >= 0; i -= 2) back.push(lower[i], lower[i + 1]);
-      if (upper.length > 2)
-        clipped.push({
+      const points = upper.length > 2 ? clipPolygon([...upper, ...back], box) : [];
+      if (points.length > 4)
+        out.push({
           kind: 'poly',
-          points: [...upper, ...back],
+          points,
           closed: true,
           paint: { fill: chartPalette[l.role], stroke: null },
         });
@@ -417,10 +418,12 @@ function panelShapes(
         if (Number.isFinite(xv) && Number.isFinite(yv)) points.push(sx(xv), sy(yv));
       });
       const paint = { ...curvePaint(l, l.role === 'alternative' ? alt++ : 0), roundJoin: true };
-      if (points.length > 2) clipped.push({ kind: 'poly', points, closed: false, paint });
+      for (const run of clipPolyline(points, box))
+        out.push({ kind: 'poly', points: run, closed: false, paint });
     } else if (l.kind === 'marker') {
       const x = sx(l.x);
-      clipped.push({
+      if (x < box.x || x > box.x + box.w) continue;
+      out.push({
         kind: 'line',
         x1: x,
         y1: box.y,
@@ -430,7 +433,6 @@ function panelShapes(
       });
     }
   }
-  out.push({ kind: 'clip', ...box, shapes: clipped });
   // The frame goes over gridlines and bands so its edges stay unbroken.
   out.push({ kind: 'rect', ...box, paint: axisPaint });
   // Points are not clipped: a plot at the lowest or highest rate sits on the frame and must show whole.

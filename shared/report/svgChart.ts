@@ -67,11 +67,7 @@ export interface SvgTextWriter {
   defs(): string;
 }
 
-function shapeSvg(
-  s: ChartShape,
-  clipIds: Map<ChartShape, string>,
-  textWriter: SvgTextWriter | null,
-): string {
+function shapeSvg(s: ChartShape, textWriter: SvgTextWriter | null): string {
   switch (s.kind) {
     case 'line':
       return `<line x1="${n(s.x1)}" y1="${n(s.y1)}" x2="${n(s.x2)}" y2="${n(s.y2)}" ${paintAttributes(s.paint)}/>`;
@@ -93,12 +89,6 @@ function shapeSvg(
       ].join('');
       return `<text ${place} font-size="${n(s.sizePx)}"${more}>${esc(s.text)}</text>`;
     }
-    case 'clip':
-      return [
-        `<g clip-path="url(#${clipIds.get(s)})">`,
-        ...s.shapes.map((c) => shapeSvg(c, clipIds, textWriter)),
-        '</g>',
-      ].join('\n');
   }
 }
 
@@ -116,21 +106,10 @@ export function sceneSvg(
 ): string {
   const W = scene.widthPx;
   const H = scene.heightPx;
-  const clipIds = new Map<ChartShape, string>();
-  const defs: string[] = [];
-  for (const s of scene.shapes) {
-    if (s.kind !== 'clip') continue;
-    const id = `clip${clipIds.size}`;
-    clipIds.set(s, id);
-    defs.push(
-      `<clipPath id="${id}"><rect x="${n(s.x)}" y="${n(s.y)}" width="${n(s.w)}" height="${n(s.h)}"/></clipPath>`,
-    );
-  }
-  const body = scene.shapes.map((s) => shapeSvg(s, clipIds, textWriter));
-  if (textWriter) defs.push(textWriter.defs());
+  const body = scene.shapes.map((s) => shapeSvg(s, textWriter));
   return [
     `<svg xmlns="http://www.w3.org/2000/svg" width="${W}" height="${H}" viewBox="0 0 ${W} ${H}" font-family="${esc(fontFamily)}" fill="${CHART_TEXT_COLOR}">`,
-    `<defs>${defs.join('')}</defs>`,
+    `<defs>${textWriter ? textWriter.defs() : ''}</defs>`,
     `<rect width="${W}" height="${H}" fill="#ffffff"/>`,
     ...body,
     '</svg>',
