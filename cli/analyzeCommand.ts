@@ -212,12 +212,12 @@ function pricesFrom(args: AnalyzeArgs, units: DisplayUnits, crop: CropId): Price
   };
 }
 
-/** The workbook's chart pictures, with progress for a long run. */
-async function drawPictures(
+/** The workbook's chart pictures, to come, with progress for a long run. */
+function drawPictures(
   report: TrialReport,
   charts: ReportCharts<ChartSpec>,
   log: Console2,
-): Promise<ReportCharts<SheetImage>> {
+): ReportCharts<Promise<SheetImage>> {
   // Print sharpness (2×) for a report someone reads page by page; 1× past 100 sites keeps a big run small.
   const scale = report.sites.length > 100 ? 1 : 2;
   let next = 0;
@@ -314,11 +314,9 @@ export async function analyzeCommand(
   const report = await analyzedReport(args, log, version, extra);
   const charts = args.out || args.pdf ? reportChartSpecs(report, args.siteChartLimit) : NO_CHARTS;
   // The workbook's pictures are drawn on worker threads while the PDF, which paints its charts
-  // as vectors and needs none, is written; the workbook waits for them.
+  // as vectors and needs none, is written, and then the workbook, each sheet waiting for its own.
   if (args.out) chartFontFiles(); // no font for the labels: said now, before any output is begun
-  const pictures = args.out ? drawPictures(report, charts, log) : Promise.resolve(NO_CHARTS);
-  // Awaited by the workbook's output; a failure before then is reported there, not as unhandled.
-  pictures.catch(() => undefined);
+  const pictures = args.out ? drawPictures(report, charts, log) : NO_CHARTS;
   // Every output goes to a temporary file first and all are renamed together at the end, so a
   // run leaves all of them or none (a failure, or SIGINT/SIGTERM, removes the temporaries). The
   // workbook and the PDF are streamed into theirs, a sheet or a page at a time.
@@ -349,15 +347,14 @@ export async function analyzeCommand(
     outputs.push({
       target: path.resolve(args.out),
       stream: async (out) => {
-        const drawn = await pictures;
         const { streamWorkbook } = await import('./streamedWorkbook');
         await streamWorkbook(
           out,
           report,
           {
-            siteCharts: drawn.sites,
-            acrossChart: drawn.region,
-            levelCharts: drawn.levels,
+            siteCharts: pictures.sites,
+            acrossChart: pictures.region,
+            levelCharts: pictures.levels,
             // Fast deflate for big runs: most bytes are PNGs that do not shrink further.
             zipLevel: report.sites.length > 100 ? 1 : undefined,
           },

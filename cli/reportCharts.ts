@@ -68,36 +68,66 @@ export function reportChartSpecs(
 }
 
 /**
- * The same charts as PNG pictures, drawn in worker threads.
+ * The same charts as PNG pictures, drawn in worker threads in the order of the sheets that hold
+ * them: each picture is a promise that settles when its batch is drawn, so the workbook writes a
+ * site's sheet as soon as its chart is ready while the workers draw the next ones.
  * @param charts - the descriptions
  * @param scale - pixel density (2 for print sharpness)
  * @param onDrawn - called with the number drawn so far and the total, for progress
- * @returns the pictures, keyed as the descriptions
- * @throws {Error} when no font can be found for the labels
+ * @returns the pictures to come, keyed as the descriptions; each rejects if drawing fails (no
+ *   font for the labels, a worker that stops)
  */
-export async function chartPictures(
+export function chartPictures(
   charts: ReportCharts<ChartSpec>,
   scale: number,
   onDrawn: (done: number, total: number) => void = () => undefined,
-): Promise<ReportCharts<SheetImage>> {
+): ReportCharts<Promise<SheetImage>> {
   const groups = [charts.sites, charts.pages, charts.levels, charts.groups];
   // A page's levels chart is the same description as its factor's: drawn once.
   const specs = [...new Set([...groups.flatMap((g) => Object.values(g)), charts.region])].filter(
     (s): s is ChartSpec => s !== null,
   );
-  const { chartPngs } = await import('./chartPng');
-  const pngs = await chartPngs(specs, scale, (done) => onDrawn(done, specs.length));
-  const pictures = new Map(
-    specs.map((s, i) => [s, { png: pngs[i], widthPx: s.widthPx, heightPx: s.heightPx }]),
-  );
-  const picture = (s: ChartSpec): SheetImage => pictures.get(s)!;
-  const each = (g: Record<string, ChartSpec>): Record<string, SheetImage> =>
-    Object.fromEntries(Object.entries(g).map(([k, s]) => [k, picture(s)]));
+  const pending = specs.map(() => deferred<SheetImage>());
+  // A picture nobody waits for (its output failed first) must not become an unhandled rejection.
+  for (const p of pending) p.promise.catch(() => undefined);
+  void (async () => {
+    try {
+      const { chartPngs } = await import('./chartPng');
+      await chartPngs(specs, scale, (done, first, pngs) => {
+        pngs.forEach((png, k) => {
+          const s = specs[first + k];
+          pending[first + k].resolve({ png, widthPx: s.widthPx, heightPx: s.heightPx });
+        });
+        onDrawn(done, specs.length);
+      });
+    } catch (e) {
+      // Pictures already drawn stay resolved; the rest fail with the reason.
+      for (const p of pending) p.reject(e);
+    }
+  })();
+  const picture = new Map(specs.map((s, i) => [s, pending[i].promise]));
+  const each = (g: Record<string, ChartSpec>): Record<string, Promise<SheetImage>> =>
+    Object.fromEntries(Object.entries(g).map(([k, s]) => [k, picture.get(s)!]));
   return {
     sites: each(charts.sites),
     pages: each(charts.pages),
     levels: each(charts.levels),
     groups: each(charts.groups),
-    region: charts.region ? picture(charts.region) : null,
+    region: charts.region ? picture.get(charts.region)! : null,
   };
+}
+
+/** A promise with its settle functions (Promise.withResolvers, which Node 20 lacks). */
+function deferred<T>(): {
+  promise: Promise<T>;
+  resolve: (value: T) => void;
+  reject: (reason: unknown) => void;
+} {
+  let resolve!: (value: T) => void;
+  let reject!: (reason: unknown) => void;
+  const promise = new Promise<T>((yes, no) => {
+    resolve = yes;
+    reject = no;
+  });
+  return { promise, resolve, reject };
 }

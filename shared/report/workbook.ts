@@ -20,13 +20,16 @@ import { workbookProvenance } from './workbookProvenance';
 import { SENSITIVITY_SHEET, workbookSensitivity } from './workbookSensitivity';
 import { workbookSite, type SheetImage } from './workbookSite';
 
+/** A picture, or one still being drawn (the command line draws them while sheets are written). */
+export type Eventually<T> = T | PromiseLike<T>;
+
 export interface WorkbookOptions {
-  /** Chart pictures by site name (PNG bytes drawn by the caller). */
-  siteCharts?: Record<string, SheetImage>;
+  /** Chart pictures by site name (PNG bytes drawn by the caller); each sheet waits for its own. */
+  siteCharts?: Record<string, Eventually<SheetImage>>;
   /** The regional return chart picture. */
-  acrossChart?: SheetImage | null;
+  acrossChart?: Eventually<SheetImage | null>;
   /** Each rate × factor site's levels chart (levelCurvesChart), by levelChartKey(site, factor). */
-  levelCharts?: Record<string, SheetImage>;
+  levelCharts?: Record<string, Eventually<SheetImage>>;
   /** Deflate level 1–9 for the zip (exceljs's default when omitted). */
   zipLevel?: number;
 }
@@ -76,9 +79,17 @@ export async function fillWorkbook(
   ]);
   await finished(workbookOverview(wb, report, u, paper));
   for (const s of report.sites) {
-    const chart = options.siteCharts?.[s.site] ?? null;
+    const charts = options.siteCharts;
+    const chart = charts && Object.hasOwn(charts, s.site) ? await charts[s.site] : null;
     await finished(workbookSite(wb, sheetName(s.site, taken), s, report, u, paper, chart));
   }
+  const levelCharts = options.levelCharts
+    ? Object.fromEntries(
+        await Promise.all(
+          Object.entries(options.levelCharts).map(async ([k, v]) => [k, await v] as const),
+        ),
+      )
+    : undefined;
   // One sheet per treatment factor (rate × source, rate × timing), after the site sheets.
   for (const factor of new Set(report.levels.map((l) => l.factor)))
     await finished(
@@ -89,10 +100,10 @@ export async function fillWorkbook(
         report,
         u,
         paper,
-        options.levelCharts,
+        levelCharts,
       ),
     );
-  await finished(workbookAcrossSites(wb, report, u, paper, options.acrossChart ?? null));
+  await finished(workbookAcrossSites(wb, report, u, paper, (await options.acrossChart) ?? null));
   await finished(workbookRegionalModel(wb, report, u, paper));
   await finished(workbookEconomics(wb, report, paper));
   await finished(workbookSensitivity(wb, report, u, paper));
