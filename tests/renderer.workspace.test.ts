@@ -22,6 +22,13 @@ describe('Workspace state', () => {
     expect(ws.settings.unitSystem).toBe('us');
   });
 
+  it('files opened without the review (the demo) go straight to the first site', async () => {
+    const ws = workspace();
+    await ws.openFiles([file()], { review: false });
+    expect(ws.step).toBe('site');
+    expect(ws.trial.table?.plots).toHaveLength(96);
+  });
+
   it('a metric file opens in metric units, and a later file does not switch them', async () => {
     const ws = workspace();
     ws.settings.unitSystem = 'us';

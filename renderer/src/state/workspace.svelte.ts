@@ -127,10 +127,16 @@ export class Workspace {
     }
   }
 
-  /** Opens trial files, detects their columns and shows the column review. */
+  /**
+   * Opens trial files, detects their columns and shows the column review.
+   * @param files - names and bytes
+   * @param options - `unitsFromFiles`: the first files set the workspace's units (default true);
+   *   `review`: go to the column review (default true; the demo opens on its first site instead,
+   *   and drawing the review it would leave at once cost the first analysis about 80 ms)
+   */
   async openFiles(
     files: TrialFileBytes[],
-    options: { unitsFromFiles?: boolean } = {},
+    options: { unitsFromFiles?: boolean; review?: boolean } = {},
   ): Promise<void> {
     const before = this.sources.workbooks.length;
     const stepBefore = this.step;
@@ -155,14 +161,15 @@ export class Workspace {
         this.settings.unitSystem = inputUnitsOf(mappings).rate === 'lb/ac' ? 'us' : 'metric';
     }
     // Show the column review, unless the user went elsewhere while the files were read.
-    if (this.sources.workbooks.length > before && this.step === stepBefore) this.step = 'columns';
+    if (this.sources.workbooks.length > before && this.step === stepBefore)
+      this.step = (options.review ?? true) ? 'columns' : 'site';
   }
 
   /** Opens the invented demo trial shipped with the app and shows its first site. */
   async openDemo(): Promise<void> {
     try {
       // The demo is shown in metric units, whatever its sheets use, until the user switches.
-      await this.openFiles([await fetchDemoFile()], { unitsFromFiles: false });
+      await this.openFiles([await fetchDemoFile()], { unitsFromFiles: false, review: false });
       this.step = 'site';
     } catch (error) {
       this.messages.add(
