@@ -91,9 +91,10 @@ export function outlinedTextWriter(): SvgTextWriter {
       const glyphs = run.glyphs.map((g) => {
         const key = glyphKey(t.bold, g.id);
         used.add(key);
-        return `<use href="#${key}" x="${n(g.x)}" y="${n(-g.y)}"/>`;
+        return `<use href="#${key}" x="${n(g.x)}" y="${n(g.y)}"/>`;
       });
-      // Font units have y up: the glyphs are drawn flipped about the baseline.
+      // Font units have y up (a positive y offset raises a glyph): the group is flipped about
+      // the baseline, so outlines and offsets are written as the font gives them.
       return `<g transform="${place} scale(${k},${-k})" fill="${t.color}">${glyphs.join('')}</g>`;
     },
     defs(): string {

@@ -1,7 +1,7 @@
 /**
  * Paints a laid-out chart (shared/report/chartScene.ts) into a pdfkit page as
  * vectors: lines, shapes and text in the page's own font, sharp at any zoom
- * and with nothing to rasterize, decode or compress. The grower PDF draws its
+ * and with no picture to rasterize, decode and recompress. The grower PDF draws its
  * charts this way; the workbook, which can only hold pictures, gets PNGs of
  * the same scene (chartPng.ts).
  */
