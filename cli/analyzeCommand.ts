@@ -45,7 +45,7 @@ import { KG_PER_LB } from '../shared/units/unitConstants';
 import type { AnalyzeArgs } from './parseArgs';
 import { UsageError } from './usageError';
 import { chartFontFiles } from './chartFonts';
-import { chartPictures, NO_CHARTS, reportChartSpecs, type ReportCharts } from './reportCharts';
+import { chartPictures, NO_CHARTS, reportChartSpecs, type WorkbookCharts } from './reportCharts';
 import { formatShownRate } from '../shared/units/rateRounding';
 
 /** Sheets written between full collections while the workbook is streamed (about 200 MB of garbage). */
@@ -215,9 +215,9 @@ function pricesFrom(args: AnalyzeArgs, units: DisplayUnits, crop: CropId): Price
 /** The workbook's chart pictures, to come, with progress for a long run. */
 function drawPictures(
   report: TrialReport,
-  charts: ReportCharts<ChartSpec>,
+  charts: WorkbookCharts<ChartSpec>,
   log: Console2,
-): ReportCharts<Promise<SheetImage>> {
+): WorkbookCharts<Promise<SheetImage>> {
   // Print sharpness (2×) for a report someone reads page by page; 1× past 100 sites keeps a big run small.
   const scale = report.sites.length > 100 ? 1 : 2;
   let next = 0;
@@ -330,8 +330,7 @@ export async function analyzeCommand(
           ...charts.pages,
           ...charts.groups,
         };
-        if (charts.region && report.acrossSites)
-          pageCharts[`Region (${report.acrossSites.sites.length} sites)`] = charts.region;
+        if (charts.region) pageCharts.region = charts.region;
         const { streamGrowerPdf } = await import('./growerPdf');
         const { reportGrowerPages } = await import('../shared/report/reportGrowerPages');
         await streamGrowerPdf(

@@ -203,7 +203,7 @@ function drawPage(doc: PDFKit.PDFDocument, layout: PageLayout, chart: ChartScene
  * the next begins, so a report of thousands of pages is never held whole.
  * @param out - where the PDF bytes go (the caller's temporary file); ended when done
  * @param pages - the structured pages (paper from each page's units)
- * @param charts - each page's chart by page subject (site name), drawn as vectors
+ * @param charts - each page's chart by page id (a site's name, "region", a group's page id), drawn as vectors
  * @param createdAt - the document's creation time (the analysis time, so reruns match)
  * @returns when the last byte is handed to `out` and `out` has finished
  * @throws {RangeError} when there are no pages
@@ -233,7 +233,7 @@ export async function streamGrowerPdf(
   const written = pipeline(doc, out);
   written.catch(() => undefined);
   for (const page of pages) {
-    const spec = Object.hasOwn(charts, page.subject) ? charts[page.subject] : null;
+    const spec = Object.hasOwn(charts, page.id) ? charts[page.id] : null;
     const chart = spec ? chartScene(spec) : null;
     const layout = growerPageLayout(page, chart !== null);
     doc.addPage({ size: [layout.widthPt, layout.heightPt], margin: 0 });
@@ -252,7 +252,7 @@ const PAGE_BACKLOG_BYTES = 4 << 20;
  * Writes grower pages as a PDF, one page each, in memory (tests and small documents; the
  * command line streams with {@link streamGrowerPdf}).
  * @param pages - the structured pages (paper from each page's units)
- * @param charts - each page's chart by page subject (site name), drawn as vectors
+ * @param charts - each page's chart by page id (a site's name, "region", a group's page id), drawn as vectors
  * @param createdAt - the document's creation time (the analysis time, so reruns match)
  * @returns PDF bytes
  */

@@ -6,7 +6,7 @@
  * hold only pictures, gets them as PNG ({@link chartPictures}).
  */
 import type { ChartSpec } from '../shared/report/chartSpec';
-import { groupPages, growerPage } from '../shared/report/growerPage';
+import { groupPages } from '../shared/report/growerPage';
 import { growerPageChart, reportRegionalChart } from '../shared/report/growerPageChart';
 import { levelChartKey, levelCurvesChart } from '../shared/report/levelCurvesChart';
 import { siteResponseChart } from '../shared/report/siteResponseChart';
@@ -21,7 +21,7 @@ export interface ReportCharts<T> {
   pages: Record<string, T>;
   /** Each rate × factor site's levels chart, by levelChartKey(site, factor). */
   levels: Record<string, T>;
-  /** Each group page's regional chart, by the page's subject. */
+  /** Each group page's regional chart, by the page's id (groupPages). */
   groups: Record<string, T>;
   region: T | null;
 }
@@ -62,15 +62,18 @@ export function reportChartSpecs(
   const groups: Record<string, ChartSpec> = {};
   for (const g of groupPages(report)) {
     const spec = growerPageChart(report, g.id);
-    if (spec) groups[growerPage(report, g.id).subject] = spec;
+    if (spec) groups[g.id] = spec;
   }
   return { sites, pages, levels, groups, region: reportRegionalChart(report) };
 }
 
+/** The charts the workbook holds as pictures: each site's, each factor's levels, the region's. */
+export type WorkbookCharts<T> = Pick<ReportCharts<T>, 'sites' | 'levels' | 'region'>;
+
 /**
- * The same charts as PNG pictures, drawn in worker threads in the order of the sheets that hold
- * them: each picture is a promise that settles when its batch is drawn, so the workbook writes a
- * site's sheet as soon as its chart is ready while the workers draw the next ones.
+ * The workbook's charts as PNG pictures, drawn in worker threads in the order of the sheets that
+ * hold them: each picture is a promise that settles when its batch is drawn, so the workbook
+ * writes a site's sheet as soon as its chart is ready while the workers draw the next ones.
  * @param charts - the descriptions
  * @param scale - pixel density (2 for print sharpness)
  * @param onDrawn - called with the number drawn so far and the total, for progress
@@ -78,15 +81,15 @@ export function reportChartSpecs(
  *   font for the labels, a worker that stops)
  */
 export function chartPictures(
-  charts: ReportCharts<ChartSpec>,
+  charts: WorkbookCharts<ChartSpec>,
   scale: number,
   onDrawn: (done: number, total: number) => void = () => undefined,
-): ReportCharts<Promise<SheetImage>> {
-  const groups = [charts.sites, charts.pages, charts.levels, charts.groups];
-  // A page's levels chart is the same description as its factor's: drawn once.
-  const specs = [...new Set([...groups.flatMap((g) => Object.values(g)), charts.region])].filter(
-    (s): s is ChartSpec => s !== null,
-  );
+): WorkbookCharts<Promise<SheetImage>> {
+  const specs = [
+    ...Object.values(charts.sites),
+    ...Object.values(charts.levels),
+    ...(charts.region ? [charts.region] : []),
+  ];
   const pending = specs.map(() => deferred<SheetImage>());
   // A picture nobody waits for (its output failed first) must not become an unhandled rejection.
   for (const p of pending) p.promise.catch(() => undefined);
@@ -105,16 +108,12 @@ export function chartPictures(
       for (const p of pending) p.reject(e);
     }
   })();
-  const picture = new Map(specs.map((s, i) => [s, pending[i].promise]));
+  let next = 0;
   const each = (g: Record<string, ChartSpec>): Record<string, Promise<SheetImage>> =>
-    Object.fromEntries(Object.entries(g).map(([k, s]) => [k, picture.get(s)!]));
-  return {
-    sites: each(charts.sites),
-    pages: each(charts.pages),
-    levels: each(charts.levels),
-    groups: each(charts.groups),
-    region: charts.region ? picture.get(charts.region)! : null,
-  };
+    Object.fromEntries(Object.keys(g).map((k) => [k, pending[next++].promise]));
+  const sites = each(charts.sites);
+  const levels = each(charts.levels);
+  return { sites, levels, region: charts.region ? pending[next].promise : null };
 }
 
 /** A promise with its settle functions (Promise.withResolvers, which Node 20 lacks). */

@@ -28,6 +28,8 @@ export interface GrowerFact {
 }
 
 export interface GrowerPage {
+  /** Which page this is, as growerPage was asked: a site's name, "region" or a group's page id. */
+  id: string;
   /** "Nitrogen rate recommendation". */
   heading: string;
   /** The site, or "Region (6 sites)". */
@@ -199,6 +201,7 @@ function pageOf(report: TrialReport, which: string | 'region'): GrowerPage {
   const paper: GrowerPage['paper'] = report.settings.paper ?? paperSize(report.settings.units);
   const warnings = [...report.warnings];
   const base = {
+    id: which,
     heading: 'Nitrogen rate recommendation',
     cropLabel: crops(report.crop).label,
     rateUnit: nutrientRateUnit(ru),
