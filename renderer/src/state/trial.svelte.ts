@@ -69,7 +69,7 @@ export class Trial {
    * how many sheets name each, most first. One crop is analysed at a time (buildPlotTable leaves
    * the others' sheets out), so with more than one the workspace offers the choice.
    */
-  cropsNamed: CropNamed[] = $derived(
+  namedCrops: CropNamed[] = $derived(
     cropsNamed(
       this.#mapped.books.map((b, i) => ({ name: b.file.name, mapping: this.#mapped.maps[i] })),
     ),
