@@ -44,23 +44,32 @@ export interface ChartLabelFace {
   printable: (text: string) => string;
 }
 
+/**
+ * A chart coordinate to 0.01 px, as the SVG writer keeps it: pdfkit would write six decimals,
+ * which made the content streams longer to write and to compress for no visible difference.
+ */
+function c(v: number): number {
+  return Math.round(v * 100) / 100;
+}
+
 function drawShape(doc: PDFKit.PDFDocument, s: ChartShape, face: ChartLabelFace): void {
   switch (s.kind) {
     case 'line':
-      doc.moveTo(s.x1, s.y1).lineTo(s.x2, s.y2);
+      doc.moveTo(c(s.x1), c(s.y1)).lineTo(c(s.x2), c(s.y2));
       paint(doc, s.paint);
       return;
     case 'rect':
-      doc.rect(s.x, s.y, s.w, s.h);
+      doc.rect(c(s.x), c(s.y), c(s.w), c(s.h));
       paint(doc, s.paint);
       return;
     case 'circle':
-      doc.circle(s.cx, s.cy, s.r);
+      doc.circle(c(s.cx), c(s.cy), c(s.r));
       paint(doc, s.paint);
       return;
     case 'poly': {
-      doc.moveTo(s.points[0], s.points[1]);
-      for (let i = 2; i + 1 < s.points.length; i += 2) doc.lineTo(s.points[i], s.points[i + 1]);
+      doc.moveTo(c(s.points[0]), c(s.points[1]));
+      for (let i = 2; i + 1 < s.points.length; i += 2)
+        doc.lineTo(c(s.points[i]), c(s.points[i + 1]));
       if (s.closed) doc.closePath();
       paint(doc, s.paint);
       return;
@@ -73,9 +82,9 @@ function drawShape(doc: PDFKit.PDFDocument, s: ChartShape, face: ChartLabelFace)
       const w = doc.widthOfString(label);
       const dx = s.anchor === 'start' ? 0 : s.anchor === 'middle' ? -w / 2 : -w;
       doc.save();
-      if (s.vertical) doc.rotate(-90, { origin: [s.x, s.y] });
+      if (s.vertical) doc.rotate(-90, { origin: [c(s.x), c(s.y)] });
       // No width and no line break: pdfkit then never wraps nor starts a page for a label.
-      doc.text(label, s.x + dx, s.y, { baseline: 'alphabetic', lineBreak: false });
+      doc.text(label, c(s.x + dx), c(s.y), { baseline: 'alphabetic', lineBreak: false });
       doc.restore();
       return;
     }
