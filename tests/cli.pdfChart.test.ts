@@ -13,36 +13,25 @@ import { drawChartScene, type ChartLabelFace } from '../cli/pdfChart';
 import { chartScene } from '../shared/report/chartScene';
 import { chartPalette, type ChartSpec } from '../shared/report/chartSpec';
 import { sceneSvg } from '../shared/report/svgChart';
+import { onePanelChart } from './chartSpec.fixture';
 
-const spec: ChartSpec = {
-  title: 'Cedar Bend 2025',
-  subtitle: 'Quadratic-plateau chosen',
-  note: '',
-  widthPx: 600,
-  heightPx: 400,
-  panels: [
+const spec: ChartSpec = onePanelChart(
+  'Cedar Bend 2025',
+  [
+    { kind: 'band', name: 'Interval', role: 'optimumInterval', low: 120, high: 160 },
     {
-      id: 'response',
-      title: '',
-      x: { title: 'N rate', unit: 'kg N/ha', min: 0, max: 200 },
-      y: { title: 'Yield', unit: 't/ha', min: 0, max: 10 },
-      heightShare: 1,
-      layers: [
-        { kind: 'band', name: 'Interval', role: 'optimumInterval', low: 120, high: 160 },
-        {
-          kind: 'curve',
-          name: 'Fitted',
-          model: null,
-          role: 'chosen',
-          x: [0, 50, 100, 150, 200],
-          y: [2, 5, 7, 8, 8],
-        },
-        { kind: 'points', name: 'Block 1', groupIndex: 0, x: [100], y: [5] },
-        { kind: 'marker', name: 'Optimum', role: 'optimumRate', x: 140, label: 'EONR 140' },
-      ],
+      kind: 'curve',
+      name: 'Fitted',
+      model: null,
+      role: 'chosen',
+      x: [0, 50, 100, 150, 200],
+      y: [2, 5, 7, 8, 8],
     },
+    { kind: 'points', name: 'Block 1', groupIndex: 0, x: [100], y: [5] },
+    { kind: 'marker', name: 'Optimum', role: 'optimumRate', x: 140, label: 'EONR 140' },
   ],
-};
+  'Quadratic-plateau chosen',
+);
 
 interface Raster {
   data: Uint8Array;

@@ -8,25 +8,12 @@ import { chartPng, chartPngs } from '../cli/chartPng';
 import { chartPalette, type ChartSpec } from '../shared/report/chartSpec';
 import { niceTicks } from '../shared/report/niceTicks';
 import { renderChartSvg } from '../shared/report/svgChart';
+import { onePanelChart } from './chartSpec.fixture';
 
 function spec(title: string, point: [number, number]): ChartSpec {
-  return {
-    title,
-    subtitle: '',
-    note: '',
-    widthPx: 600,
-    heightPx: 400,
-    panels: [
-      {
-        id: 'response',
-        title: '',
-        x: { title: 'N rate', unit: 'kg N/ha', min: 0, max: 200 },
-        y: { title: 'Yield', unit: 't/ha', min: 0, max: 10 },
-        heightShare: 1,
-        layers: [{ kind: 'points', name: 'Block 1', groupIndex: 0, x: [point[0]], y: [point[1]] }],
-      },
-    ],
-  };
+  return onePanelChart(title, [
+    { kind: 'points', name: 'Block 1', groupIndex: 0, x: [point[0]], y: [point[1]] },
+  ]);
 }
 
 function pixels(svg: string): { data: Buffer; width: number; height: number } {
