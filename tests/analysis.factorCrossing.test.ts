@@ -14,7 +14,7 @@ import type { SitePlots } from '../shared/analysis/sitePlots';
 import { importFiles } from '../shared/import/importFiles';
 import { resultsJson } from '../shared/report/resultsJson';
 import type { PlotTable } from '../shared/table/plotTable';
-import { reportOf } from './report.pipeline';
+import { metricCornReportOf } from './report.pipeline';
 import { readRCsv } from './analysis.fixtures';
 
 const prices = { grainPricePerKg: 0.18, nutrientPricePerKg: 1.26 };
@@ -96,27 +96,7 @@ describe('two factors at one site', () => {
   });
 
   it("puts every factor's test in the JSON levelTests[] (levelTest stays the first)", () => {
-    const json = resultsJson(
-      reportOf(
-        table,
-        {
-          units: { rate: 'kg/ha', yield: 't/ha' },
-          unitSystem: 'metric',
-          currency: 'USD',
-          crop: 'corn',
-          prices: { grainPrice: 180, nutrientPrice: 1.26, product: null, defaulted: false },
-          boot: 0,
-          seed: 1,
-          blocks: 'fixed',
-          intervalLevel: 0.9,
-        },
-        {
-          tool: { name: 'Plotrate', version: '0.1.0' },
-          createdAt: '2026-03-01T12:00:00Z',
-          mapping: [],
-        },
-      ),
-    );
+    const json = resultsJson(metricCornReportOf(table, { boot: 0 }));
     const site = json.sites.find((s) => s.site === 'Wicken Lane')!;
     expect(site.levelTests.map((t) => t.factor)).toEqual(['Source', 'Timing']);
     expect(site.levelTest).toEqual(site.levelTests[0]);

@@ -15,7 +15,7 @@ import { resultsJson, type ResultsJson } from '../shared/report/resultsJson';
 import { writeWorkbook } from '../shared/report/workbook';
 import type { TrialReport } from '../shared/report/trialReport';
 import { levelMixedCsv } from './levelMixed.fixture';
-import { reportOf } from './report.pipeline';
+import { metricCornReportOf } from './report.pipeline';
 
 interface RFit {
   model: string;
@@ -34,21 +34,7 @@ async function reportOfSet(dataset: 'differ' | 'same', sites?: number): Promise<
     [{ name: 'timing series.csv', bytes: new TextEncoder().encode(csv) }],
     { crop: 'corn', overrides: [] },
   );
-  return reportOf(
-    table,
-    {
-      units: { rate: 'kg/ha', yield: 't/ha' },
-      unitSystem: 'metric',
-      currency: 'USD',
-      crop: 'corn',
-      prices: { grainPrice: 180, nutrientPrice: 1.26, product: null, defaulted: false },
-      boot: 0,
-      seed: 1,
-      blocks: 'fixed',
-      intervalLevel: 0.9,
-    },
-    { tool: { name: 'Plotrate', version: '0.1.0' }, createdAt: '2026-03-01T12:00:00Z', mapping },
-  );
+  return metricCornReportOf(table, { boot: 0, mapping });
 }
 
 let json: ResultsJson;

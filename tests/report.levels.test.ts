@@ -16,7 +16,7 @@ import { writeWorkbook } from '../shared/report/workbook';
 import { levelChartKey, levelCurvesChart } from '../shared/report/levelCurvesChart';
 import { chartPng } from '../cli/chartPng';
 import ExcelJS from 'exceljs';
-import { reportOf } from './report.pipeline';
+import { metricCornReportOf } from './report.pipeline';
 
 let report: TrialReport;
 
@@ -32,21 +32,7 @@ beforeAll(async () => {
     [{ name: 'timing trial.csv', bytes: new TextEncoder().encode(csv + '\n') }],
     { crop: 'corn', overrides: [] },
   );
-  report = reportOf(
-    table,
-    {
-      units: { rate: 'kg/ha', yield: 't/ha' },
-      unitSystem: 'metric',
-      currency: 'USD',
-      crop: 'corn',
-      prices: { grainPrice: 180, nutrientPrice: 1.26, product: null, defaulted: false },
-      boot: 100,
-      seed: 1,
-      blocks: 'fixed',
-      intervalLevel: 0.9,
-    },
-    { tool: { name: 'Plotrate', version: '0.1.0' }, createdAt: '2026-03-01T12:00:00Z', mapping },
-  );
+  report = metricCornReportOf(table, { boot: 100, mapping });
 });
 
 describe('the report of a rate × timing trial', () => {

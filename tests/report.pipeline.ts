@@ -41,3 +41,35 @@ export function reportOf(table: PlotTable, s: ReportSettings, meta: ReportMeta):
     meta,
   );
 }
+
+/**
+ * A metric corn report at one set of invented prices (grain 180 per t, N 1.26 per kg), blocks
+ * fixed, 90 % intervals, seed 1: the run the level and factor tests share.
+ * @param table - the plot table
+ * @param options - bootstrap resamples and the import's column mapping (none by default)
+ * @returns the report
+ */
+export function metricCornReportOf(
+  table: PlotTable,
+  options: { boot: number; mapping?: ReportMeta['mapping'] },
+): TrialReport {
+  return reportOf(
+    table,
+    {
+      units: { rate: 'kg/ha', yield: 't/ha' },
+      unitSystem: 'metric',
+      currency: 'USD',
+      crop: 'corn',
+      prices: { grainPrice: 180, nutrientPrice: 1.26, product: null, defaulted: false },
+      boot: options.boot,
+      seed: 1,
+      blocks: 'fixed',
+      intervalLevel: 0.9,
+    },
+    {
+      tool: { name: 'Plotrate', version: '0.1.0' },
+      createdAt: '2026-03-01T12:00:00Z',
+      mapping: options.mapping ?? [],
+    },
+  );
+}
