@@ -19,6 +19,7 @@
 // 2. The fit never ends below R's log-likelihood; where R's maximum is interior, it is R's.
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
+import { expectPsi, thetaFromR } from './mixedModelR.fixture';
 import {
   fitRegionalLevelMixedModel,
   levelWaldTest,
@@ -74,37 +75,6 @@ function sitesOf(dataset: string, withBlocks: boolean): LevelMixedModelSite[] {
 }
 
 const relative = (ours: number, r: number) => Math.abs(ours - r) / Math.abs(r);
-
-/** theta (rates divided by `scale`) from R's Psi and sigma^2: T = chol(D⁻¹ Psi D⁻¹ / sigma^2). */
-function thetaFromR(fit: RFit, scale: number): number[] {
-  const d = [1, scale, scale * scale];
-  const m = fit.psi.map((row, i) => row.map((v, j) => (v * d[i] * d[j]) / fit.sigma2[0]));
-  const t = [0, 0, 0].map(() => [0, 0, 0]);
-  for (let i = 0; i < 3; i++) {
-    for (let j = 0; j <= i; j++) {
-      let s = m[i][j];
-      for (let k = 0; k < j; k++) s -= t[i][k] * t[j][k];
-      t[i][j] = i === j ? Math.sqrt(Math.max(s, 0)) : s / t[j][j];
-    }
-  }
-  return fit.structure === 'diagonal'
-    ? [t[0][0], t[1][1], t[2][2]]
-    : [t[0][0], t[1][0], t[2][0], t[1][1], t[2][1], t[2][2]];
-}
-
-function expectPsi(ours: number[][], fit: RFit, scale: number, oursSigma2: number): void {
-  const d = [1, scale, scale * scale];
-  ours.forEach((row, i) =>
-    row.forEach((v, j) => {
-      const r = fit.psi[i][j];
-      const err = Math.abs(v - r);
-      const boundary = (err * d[i] * d[j]) / oursSigma2;
-      expect(err <= 1e-3 * Math.abs(r) || boundary <= 1e-5, `Psi[${i}][${j}] ${v} vs R ${r}`).toBe(
-        true,
-      );
-    }),
-  );
-}
 
 /** The columns as the module builds them, for the pieces at R's estimate. */
 function dataOf(sites: LevelMixedModelSite[], model: 'full' | 'reduced', scale: number) {
