@@ -16,4 +16,10 @@ if (!existsSync(bundle)) {
 // Stack traces are printed only with PLOTRATE_DEBUG; then let them name the
 // TypeScript files and lines (reading the maps costs start-up time otherwise).
 if (process.env.PLOTRATE_DEBUG) process.setSourceMapsEnabled(true);
+// resvg (the workbook's chart pictures) allocates with its own mimalloc, which by default hands
+// freed pages back to the system 10 ms later; every 1600 × 1120 picture then asks for its pixel
+// buffers afresh and faults them in page by page, about half of its drawing time on the 2-core
+// machine (README, "Benchmarks"). Kept, they are reused by the next picture. Set here, before
+// resvg is loaded, since mimalloc reads its options once; a value the user set is left alone.
+process.env.MIMALLOC_PURGE_DELAY ??= '-1';
 await import(bundle.href);
