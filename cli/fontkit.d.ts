@@ -1,9 +1,15 @@
 // The part of fontkit (pdfkit's font engine, https://github.com/foliojs/fontkit) that
 // outlinedText.ts uses; the package ships no types.
 declare module 'fontkit' {
+  /** A glyph outline in font units. */
+  export interface Path {
+    toSVG(): string;
+    /** A copy moved by (x, y) font units. */
+    translate(x: number, y: number): Path;
+  }
   export interface Glyph {
     id: number;
-    path: { toSVG(): string };
+    path: Path;
   }
   export interface GlyphRun {
     glyphs: Glyph[];
