@@ -3,6 +3,11 @@
 // fixed by how many of the first kind it draws, k ~ Binomial(10, 1/2), so the best rate of every
 // possible resample and its probability can be listed outright, and the resampled quantiles must
 // agree with the exact ones up to Monte Carlo error. Invented gain curves.
+//
+// The interval leaves Φ(−t(0.95, n − 1)) of the resamples out on each side at 90 % (the expanded
+// percentile interval); the tail is computed here with jstat's normal CDF and Student quantile,
+// an implementation independent of shared/stats/distributions.
+import jStat from 'jstat';
 import { describe, expect, it } from 'vitest';
 import { prepareRegionalReturn } from '../shared/analysis/regionalReturn';
 import { rateGrid } from '../shared/analysis/rateGrid';
@@ -69,17 +74,24 @@ function exactQuantile(dist: { rate: number; p: number }[], q: number): number {
   return dist[dist.length - 1].rate;
 }
 
+/** The share left out on each side of a central `level` interval from n site-years (jstat). */
+function expandedTail(level: number, n: number): number {
+  return jStat.normal.cdf(-jStat.studentt.inv(1 - (1 - level) / 2, n - 1), 0, 1);
+}
+
 describe('regionalRateInterval', () => {
   it('agrees with the exact distribution of the resampled best rate', () => {
     const prepared = prepareRegionalReturn(sites, grid);
     const resampled = resampleRegionalGains(prepared, 4000, 7, 0.9)!;
     const interval = regionalRateInterval(resampled, prices, 5, [0, 100, 150]);
     const dist = exactBestRates();
-    // Monte Carlo error of a 5 % quantile from 4,000 draws: about ±0.7 % in probability.
-    expect(interval.lowKgHa).toBeGreaterThanOrEqual(exactQuantile(dist, 0.04));
-    expect(interval.lowKgHa).toBeLessThanOrEqual(exactQuantile(dist, 0.06));
-    expect(interval.highKgHa).toBeGreaterThanOrEqual(exactQuantile(dist, 0.94));
-    expect(interval.highKgHa).toBeLessThanOrEqual(exactQuantile(dist, 0.96));
+    // The tail for 10 site-years is 3.3 %; the Monte Carlo error of that quantile from 4,000
+    // draws is about ±0.6 % in probability.
+    const tail = expandedTail(0.9, 10);
+    expect(interval.lowKgHa).toBeGreaterThanOrEqual(exactQuantile(dist, tail - 0.007));
+    expect(interval.lowKgHa).toBeLessThanOrEqual(exactQuantile(dist, tail + 0.007));
+    expect(interval.highKgHa).toBeGreaterThanOrEqual(exactQuantile(dist, 1 - tail - 0.007));
+    expect(interval.highKgHa).toBeLessThanOrEqual(exactQuantile(dist, 1 - tail + 0.007));
     expect(interval.highKgHa).toBeGreaterThan(interval.lowKgHa);
     expect(interval).toMatchObject({ level: 0.9, resamples: 4000, siteYears: 10 });
   });
@@ -90,6 +102,7 @@ describe('regionalRateInterval', () => {
     const tolerance = 5;
     const { alongGrid } = regionalRateInterval(resampled, prices, tolerance, [100]);
     const pk = binomialTen();
+    const tail = expandedTail(0.9, 10);
     for (const x of [60, 100, 137, 200]) {
       const j = grid.indexOf(x);
       // Exact: the return at x is increasing in k (steep > shallow for x > 0), so its quantiles
@@ -100,10 +113,10 @@ describe('regionalRateInterval', () => {
         for (const d of byReturn) if ((c += d.p) >= q - 1e-12) return d.r;
         return byReturn[byReturn.length - 1].r;
       };
-      expect(alongGrid.lowPerHa[j]).toBeGreaterThanOrEqual(at(0.04) - 1e-9);
-      expect(alongGrid.lowPerHa[j]).toBeLessThanOrEqual(at(0.06) + 1e-9);
-      expect(alongGrid.highPerHa[j]).toBeGreaterThanOrEqual(at(0.94) - 1e-9);
-      expect(alongGrid.highPerHa[j]).toBeLessThanOrEqual(at(0.96) + 1e-9);
+      expect(alongGrid.lowPerHa[j]).toBeGreaterThanOrEqual(at(tail - 0.007) - 1e-9);
+      expect(alongGrid.lowPerHa[j]).toBeLessThanOrEqual(at(tail + 0.007) + 1e-9);
+      expect(alongGrid.highPerHa[j]).toBeGreaterThanOrEqual(at(1 - tail - 0.007) - 1e-9);
+      expect(alongGrid.highPerHa[j]).toBeLessThanOrEqual(at(1 - tail + 0.007) + 1e-9);
       let short = 0;
       pk.forEach((p, k) => {
         const best = Math.max(...Array.from(grid, (g) => resampleReturn(k, g)));
@@ -112,6 +125,31 @@ describe('regionalRateInterval', () => {
       // Monte Carlo SE of a share from 4,000 draws is at most 0.008; four SEs.
       expect(Math.abs(alongGrid.shortShare[j] - short)).toBeLessThan(0.032);
     }
+  });
+
+  it('leaves out Φ(−t(0.95, n − 1)) of the best rates on each side, near 5 % for many site-years', () => {
+    // 1,000 resamples whose best rates are 0, 1, …, 999 kg/ha (each one's gain peaks at its own
+    // grid rate), so each end is the type 7 quantile of 0 … 999 at the tail: 999 · tail.
+    const wide = rateGrid(0, 999, 1);
+    const meanGains = Array.from({ length: 1000 }, (_, b) => {
+      const gain = new Float64Array(wide.length);
+      gain[b] = 1e9;
+      return gain;
+    });
+    for (const siteYears of [12, 1000]) {
+      const interval = regionalRateInterval(
+        { gridKgHa: wide, meanGains, siteYears, level: 0.9 },
+        prices,
+        5,
+        [],
+      );
+      const tail = expandedTail(0.9, siteYears);
+      // jstat's Student quantile and the engine's agree to about 1e-8 in the tail's probability.
+      expect(interval.lowKgHa).toBeCloseTo(999 * tail, 4);
+      expect(interval.highKgHa).toBeCloseTo(999 * (1 - tail), 4);
+    }
+    // 12 site-years: 3.6 % a side rather than 5 %.
+    expect(expandedTail(0.9, 12)).toBeCloseTo(0.0363, 3);
   });
 
   it('collapses to the best rate when every site-year is alike, and shares 1 within tolerance', () => {
