@@ -476,7 +476,7 @@ function withSiteYearInterval(
   if (!interval) return certainty;
   return {
     ...certainty,
-    text: `${certainty.text} With other site-years like these the regional rate could have come out anywhere from ${fmt(interval.lowKgHa)} to ${fmt(interval.highKgHa)} (${Math.round(interval.level * 100)} in 100 resamples of the site-years).`,
+    text: `${certainty.text} With other site-years like these the regional rate could have come out anywhere from ${fmt(interval.lowKgHa)} to ${fmt(interval.highKgHa)} (a ${Math.round(interval.level * 100)} % interval from resampling the site-years).`,
   };
 }
 
