@@ -58,11 +58,13 @@ function pointList(points: readonly number[]): string {
 
 /**
  * Writes a chart's labels another way than as SVG text elements (the command line writes them as
- * glyph outlines), each label as self-contained markup.
+ * glyph outlines). One per document: `defs` gives what the labels written so far refer to.
  */
 export interface SvgTextWriter {
   /** The label as SVG markup, placed as the scene says. */
   text(t: ChartText): string;
+  /** Definitions the labels refer to, for the document's defs. */
+  defs(): string;
 }
 
 function shapeSvg(s: ChartShape, textWriter: SvgTextWriter | null): string {
@@ -107,6 +109,7 @@ export function sceneSvg(
   const body = scene.shapes.map((s) => shapeSvg(s, textWriter));
   return [
     `<svg xmlns="http://www.w3.org/2000/svg" width="${W}" height="${H}" viewBox="0 0 ${W} ${H}" font-family="${esc(fontFamily)}" fill="${CHART_TEXT_COLOR}">`,
+    `<defs>${textWriter ? textWriter.defs() : ''}</defs>`,
     `<rect width="${W}" height="${H}" fill="#ffffff"/>`,
     ...body,
     '</svg>',
