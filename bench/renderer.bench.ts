@@ -12,11 +12,20 @@ import { openSession } from '../tests/e2e/harness';
 
 const SITES = Number(process.env.PLOTRATE_BENCH_SITES ?? 50);
 const REPEATS = 21;
+/** A price change whose charts have not redrawn after this long is reported, not waited for. */
+const MISSED_MS = 10_000;
 
-/** Changes the product price REPEATS times and returns each time to redraw, ms. */
-async function timePriceChanges(page: Page, charts: number): Promise<number[]> {
+/**
+ * Changes the product price REPEATS times and returns each time to redraw, ms, and the prices
+ * after which a chart did not redraw within MISSED_MS (a change that draws nothing would
+ * otherwise hold the bench forever).
+ */
+async function timePriceChanges(
+  page: Page,
+  charts: number,
+): Promise<{ times: number[]; missed: string[] }> {
   return page.evaluate(
-    async ({ repeats, charts }) => {
+    async ({ repeats, charts, missedMs }) => {
       const input = document.querySelector<HTMLInputElement>('[data-testid="product-price"]');
       const plots = [...document.querySelectorAll('[data-testid="chart"]')].slice(
         0,
@@ -27,6 +36,7 @@ async function timePriceChanges(page: Page, charts: number): Promise<number[]> {
       })[];
       if (!input || plots.length < charts) throw new Error('price field or charts missing');
       const times: number[] = [];
+      const missed: string[] = [];
       for (let i = 0; i < repeats; i++) {
         const drawn = plots.map(
           (gd) =>
@@ -38,14 +48,18 @@ async function timePriceChanges(page: Page, charts: number): Promise<number[]> {
         const t0 = performance.now();
         input.value = (0.9 + 0.4 * (i % 2) + 0.01 * i).toFixed(2);
         input.dispatchEvent(new Event('input', { bubbles: true }));
-        await Promise.all(drawn);
+        const late = new Promise<'late'>((resolve) => setTimeout(() => resolve('late'), missedMs));
+        if ((await Promise.race([Promise.all(drawn), late])) === 'late') {
+          missed.push(input.value);
+          continue;
+        }
         await new Promise((resolve) => requestAnimationFrame(() => resolve(null)));
         times.push(performance.now() - t0);
         await new Promise((resolve) => setTimeout(resolve, 30));
       }
-      return times;
+      return { times, missed };
     },
-    { repeats: REPEATS, charts },
+    { repeats: REPEATS, charts, missedMs: MISSED_MS },
   );
 }
 
@@ -111,10 +125,12 @@ export async function run(): Promise<void> {
         .nth(charts - 1)
         .waitFor();
       await page.getByText('Ready').waitFor({ timeout: 600_000 });
-      summary(
-        `${step} step, price change to redrawn optimum and charts`,
-        await timePriceChanges(page, charts),
-      );
+      const { times, missed } = await timePriceChanges(page, charts);
+      summary(`${step} step, price change to redrawn optimum and charts`, times);
+      if (missed.length > 0)
+        console.log(
+          `${step} step: no redraw within ${MISSED_MS / 1000} s after the price was set to ${missed.join(', ')}`,
+        );
     }
   } catch (error) {
     await page.screenshot({ path: path.join(tmpdir(), 'plotrate-bench-failure.png') });
