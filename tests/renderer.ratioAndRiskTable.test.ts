@@ -107,4 +107,27 @@ describe('regionalRatioAndRisk', () => {
     // Three sites: every share is a whole number of thirds.
     for (const x of view.riskRows) expect(['0 %', '33 %', '67 %', '100 %']).toContain(x.share);
   });
+
+  it('keys each risk row by its rate in kg/ha, unique where two rates read the same', () => {
+    // 89.66 and 89.70 kg/ha both round to 80 lb/ac (89.66 / 1.12085 = 79.99, 89.70 / 1.12085 =
+    // 80.03): one a tested rate, the other the regional rate. The window's table is keyed by
+    // row, and a repeated key stops it updating (as happened at 500 sites on the all-sites step).
+    const region = priced.across.regional;
+    const risk = region.shortfallRisk!;
+    const rows = [
+      { ...risk.rows[0], rateKgHa: 89.66 },
+      { ...risk.rows[0], rateKgHa: 89.7 },
+    ];
+    const view = regionalRatioAndRisk(
+      {
+        ...region,
+        shortfallRisk: { ...risk, rows },
+        regional: { ...region.regional, bestRateKgHa: 89.7 },
+      },
+      us,
+    )!;
+    expect(view.riskRows.map((r) => r.rate)).toEqual(['80 lb/ac', '80 lb/ac']);
+    expect(view.riskRows.map((r) => r.rateKgHa)).toEqual([89.66, 89.7]);
+    expect(view.riskRows.map((r) => r.recommended)).toEqual([false, true]);
+  });
 });

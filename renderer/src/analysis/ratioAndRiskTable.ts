@@ -51,6 +51,12 @@ export interface RatioRowView {
 
 /** One row of the risk table, as text. */
 export interface RiskRowView {
+  /**
+   * The rate in kg/ha: the rows' key. The text may repeat (a regional rate of 89.7 kg/ha and a
+   * tested 89.66 both read "80 lb/ac"), and a keyed list with a repeated key stops the window
+   * from updating at all.
+   */
+  rateKgHa: number;
   rate: string;
   /** e.g. "27 %", "< 1 %". */
   share: string;
@@ -100,6 +106,7 @@ function riskView(
 ): RiskRowView[] {
   const rate = displayUnits(c.system).rate;
   return risk.rows.map((r) => ({
+    rateKgHa: r.rateKgHa,
     rate: formatRate(r.rateKgHa, rate, c.locale),
     share: percent(r.share, c.locale),
     recommended: sameRate(r.rateKgHa, recommendedKgHa),
