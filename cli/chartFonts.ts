@@ -1,9 +1,9 @@
 /**
- * The font files chart labels are drawn with: resvg draws text only with
- * fonts it has loaded (chartPng.ts) and the grower PDF embeds the same face
- * (growerPdf.ts), so the files are found here, on disk, by path; a machine
- * with none of them gets a message that says which package to install
- * instead of a chart with blank labels.
+ * The font files chart labels are drawn with: the workbook's pictures carry
+ * their labels as this face's glyph outlines (outlinedText.ts) and the grower
+ * PDF embeds the same face (growerPdf.ts), so the files are found here, on
+ * disk, by path; a machine with none of them gets a message that says which
+ * package to install instead of a chart with blank labels.
  */
 import { existsSync } from 'node:fs';
 
@@ -31,7 +31,7 @@ let cachedFonts: string[] | null = null;
 export function chartFontFiles(): string[] {
   if (cachedFonts) return cachedFonts;
   const present = fontCandidates.filter((f) => existsSync(f));
-  // One family (regular and bold) is enough: every font file loaded is parsed again for each chart.
+  // One family, regular and bold: the labels use no other.
   const family = present.length ? familyOf(present[0]) : '';
   const found = present.filter((f) => familyOf(f) === family);
   if (found.length === 0) {
@@ -45,11 +45,11 @@ export function chartFontFiles(): string[] {
 }
 
 /**
- * The family a font file belongs to, as resvg's font database names it.
- * @param file - a path from {@link chartFontFiles}
+ * The family a candidate font file belongs to.
+ * @param file - a path from fontCandidates
  * @returns "DejaVu Sans", "Liberation Sans" or "Arial"
  */
-export function familyOf(file: string): string {
+function familyOf(file: string): string {
   if (/dejavu/i.test(file)) return 'DejaVu Sans';
   if (/liberation/i.test(file)) return 'Liberation Sans';
   return 'Arial';

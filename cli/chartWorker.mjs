@@ -1,15 +1,16 @@
 // Worker for cli/chartPng.ts: SVG text in, PNG bytes out, through resvg. It
 // runs in its own thread so resvg's native pixel buffers (not seen by the
-// garbage collector) are freed when the thread ends after each batch.
+// garbage collector) are freed when the thread ends after each batch. The
+// documents hold their labels as outlines, so resvg is given no font.
 import { parentPort, workerData } from 'node:worker_threads';
 import { Resvg } from '@resvg/resvg-js';
 
-const { svgs, widthsPx, fontFiles, family } = workerData;
+const { svgs, widthsPx } = workerData;
 const out = [];
 for (let i = 0; i < svgs.length; i++) {
   const png = new Resvg(svgs[i], {
     fitTo: { mode: 'width', value: widthsPx[i] },
-    font: { loadSystemFonts: false, fontFiles, defaultFontFamily: family, sansSerifFamily: family },
+    font: { loadSystemFonts: false },
     background: '#ffffff',
   })
     .render()
