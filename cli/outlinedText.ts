@@ -10,7 +10,7 @@
 import { openSync, type Font } from 'fontkit';
 import { chartFontFiles } from './chartFonts';
 import type { ChartText } from '../shared/report/chartScene';
-import type { SvgTextWriter } from '../shared/report/svgChart';
+import { svgNumber, type SvgTextWriter } from '../shared/report/svgChart';
 
 /** A label laid out in font units: each glyph's id and x, and the whole advance. */
 interface LaidOut {
@@ -65,10 +65,8 @@ function glyphKey(bold: boolean, id: number): string {
 
 let faces: OutlineFaces | null = null;
 
-/** Coordinates rounded to 0.01 keep the document small and stable. */
-function n(v: number): string {
-  return (Math.round(v * 100) / 100).toString();
-}
+// Written as the rest of the document is (0.01 px).
+const n = svgNumber;
 
 /**
  * A text writer for one chart document: labels as outlines, each glyph defined once.

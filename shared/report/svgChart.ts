@@ -33,10 +33,17 @@ function esc(text: string): string {
     .replace(/"/g, '&quot;');
 }
 
-/** Coordinates rounded to 0.01 px keep the document small and stable. */
-function n(v: number): string {
+/**
+ * A number as the chart documents write it: rounded to 0.01 px, which keeps them small and stable.
+ * @param v - a coordinate or size, px
+ * @returns its text, e.g. "12.35"
+ * @example
+ * svgNumber(12.3456) // "12.35"
+ */
+export function svgNumber(v: number): string {
   return (Math.round(v * 100) / 100).toString();
 }
+const n = svgNumber;
 
 function paintAttributes(p: ShapePaint): string {
   const a = [`fill="${p.fill ?? 'none'}"`];
