@@ -11,6 +11,7 @@
  * estimate only places legends and labels, so a few pixels off is harmless.
  */
 import { MODEL_CURVES } from '../models/curves';
+import { numberFormat } from '../units/numberFormat';
 import {
   axisLabel,
   chartPalette,
@@ -98,19 +99,11 @@ function text(
   };
 }
 
-/** One formatter per number of decimals: toLocaleString builds a new one at every call. */
-const tickFormats = new Map<number, Intl.NumberFormat>();
-
 function formatTick(v: number, decimals: number): string {
-  let format = tickFormats.get(decimals);
-  if (!format) {
-    format = new Intl.NumberFormat('en-US', {
-      minimumFractionDigits: decimals,
-      maximumFractionDigits: decimals,
-    });
-    tickFormats.set(decimals, format);
-  }
-  const t = format.format(v);
+  const t = numberFormat('en-US', {
+    minimumFractionDigits: decimals,
+    maximumFractionDigits: decimals,
+  }).format(v);
   return /^-0(\.0+)?$/.test(t) ? t.slice(1) : t;
 }
 

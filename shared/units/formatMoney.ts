@@ -6,6 +6,7 @@
  * otherwise (the area the rates are read in).
  */
 import type { RateUnit } from './convertRate';
+import { numberFormat } from './numberFormat';
 import { M2_PER_ACRE, M2_PER_HA } from './unitConstants';
 
 /**
@@ -30,10 +31,10 @@ export function formatMoney(
   if (amount === null || !Number.isFinite(amount)) return '–';
   const digits = { minimumFractionDigits: Math.min(2, decimals), maximumFractionDigits: decimals };
   try {
-    return new Intl.NumberFormat(locale, { style: 'currency', currency, ...digits }).format(amount);
+    return numberFormat(locale, { style: 'currency', currency, ...digits }).format(amount);
   } catch {
     // Not an ISO code (a user's own label): the number, then the label.
-    const number = new Intl.NumberFormat(locale, digits).format(amount);
+    const number = numberFormat(locale, digits).format(amount);
     return `${number} ${currency}`;
   }
 }

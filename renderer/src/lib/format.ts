@@ -9,6 +9,7 @@ import type { RateProfileInterval } from '../../../shared/models/joinProfile';
 import { profileIntervalText } from '../../../shared/report/modelNotes';
 import type { CropId } from '../../../shared/table/plotTable';
 import { rateFromKgHa, type RateUnit } from '../../../shared/units/convertRate';
+import { numberFormat } from '../../../shared/units/numberFormat';
 import { yieldFromKgHa, type YieldUnit } from '../../../shared/units/convertYield';
 import {
   displayUnits as sharedDisplayUnits,
@@ -86,7 +87,7 @@ export function formatNumber(
   locale?: string,
 ): string {
   if (value === null || value === undefined || !Number.isFinite(value)) return '–';
-  return new Intl.NumberFormat(locale, {
+  return numberFormat(locale, {
     minimumFractionDigits: decimals,
     maximumFractionDigits: decimals,
   }).format(value);
@@ -107,7 +108,7 @@ export function formatSignificant(
   locale?: string,
 ): string {
   if (value === null || value === undefined || !Number.isFinite(value)) return '–';
-  return new Intl.NumberFormat(locale, {
+  return numberFormat(locale, {
     maximumSignificantDigits: digits,
   }).format(value);
 }
@@ -229,7 +230,7 @@ export function formatFileSize(bytes: number, locale?: string): string {
  * plotlySeparators('fr-FR') // ', ' (a narrow no-break space groups thousands)
  */
 export function plotlySeparators(locale?: string): string {
-  const parts = new Intl.NumberFormat(locale).formatToParts(12345.6);
+  const parts = numberFormat(locale).formatToParts(12345.6);
   const decimal = parts.find((p) => p.type === 'decimal')?.value ?? '.';
   const group = parts.find((p) => p.type === 'group')?.value ?? ',';
   return decimal + group;
