@@ -9,7 +9,9 @@
 // an implementation independent of shared/stats/distributions.
 import jStat from 'jstat';
 import { describe, expect, it } from 'vitest';
+import { regionalAtPrices } from '../shared/analysis/regionalAnalysis';
 import { prepareRegionalReturn } from '../shared/analysis/regionalReturn';
+import { candidateRates } from '../shared/economics/shortfallRule';
 import { rateGrid } from '../shared/analysis/rateGrid';
 import {
   regionalRateInterval,
@@ -169,5 +171,20 @@ describe('regionalRateInterval', () => {
     const one = prepareRegionalReturn([sites[0]], grid);
     expect(resampleRegionalGains(one, 200, 1, 0.9)).toBeNull();
     expect(resampleRegionalGains(prepareRegionalReturn(sites, grid), 0, 1, 0.9)).toBeNull();
+  });
+
+  it('is made when first read at a new price, once, and is the interval of the priced rate', () => {
+    // regionalAtPrices defers it (keptOnFirstRead): the one-site step re-prices without it.
+    const prepared = prepareRegionalReturn(sites, grid);
+    const resampled = resampleRegionalGains(prepared, 200, 5, 0.9)!;
+    const priced = regionalAtPrices({ prepared, atTestedRates: prepared, resampled }, prices, 5);
+    expect(Object.getOwnPropertyDescriptor(priced, 'rateInterval')!.get).toBeDefined();
+    const interval = priced.rateInterval!;
+    expect(priced.rateInterval).toBe(interval);
+    const best = priced.regional.bestRateKgHa;
+    expect(interval).toEqual(
+      regionalRateInterval(resampled, prices, 5, candidateRates(Array.from(grid), best)),
+    );
+    expect(structuredClone(priced).rateInterval).toEqual(interval);
   });
 });

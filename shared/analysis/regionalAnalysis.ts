@@ -7,6 +7,7 @@
  * their own best (regionalShortfallRisk). regionalAtPrices makes every priced part, here and
  * when repriceAcrossSites follows a new price.
  */
+import { keptOnFirstRead } from './keptOnFirstRead';
 import { priceRatioSensitivity, type RatioMultiple } from '../economics/priceRatioSensitivity';
 import type { Prices } from '../economics/priceRatio';
 import { candidateRates, toleranceInForce, type ShortfallRisk } from '../economics/shortfallRule';
@@ -81,7 +82,8 @@ export type RegionalAtPrices = Pick<
 
 /**
  * The priced parts of a regional analysis: the regional return and its sentence, its
- * price-ratio table and its shortfall risk.
+ * price-ratio table, its shortfall risk and its rate interval (computed when first read: copy
+ * the result with its property descriptors, not a spread, to keep it so).
  * @param r - the price-free parts (grid gains, gains at the tested rates, resampled site-years)
  * @param prices - canonical prices
  * @param tolerancePerHa - the tolerance, currency/ha: the profitable range's band below the best
@@ -106,21 +108,28 @@ export function regionalAtPrices(
       profitableRangeKgHa: [range.lowKgHa, range.highKgHa] as [number, number],
     };
   });
-  return {
+  const priced: RegionalAtPrices = {
     regional,
     text: regionalRecommendation(regional),
     priceRatioSensitivity: sensitivity,
     shortfallRisk: regionalShortfallRisk(r.prepared, r.atTestedRates, regional, tolerancePerHa),
-    rateInterval:
-      r.resampled && Number.isFinite(regional.bestRateKgHa)
-        ? regionalRateInterval(
-            r.resampled,
-            prices,
-            tolerancePerHa,
-            candidateRates(Array.from(r.atTestedRates.gridKgHa), regional.bestRateKgHa),
-          )
-        : null,
+    rateInterval: null,
   };
+  // Made when first read: it prices every resample at every candidate rate, most of a new
+  // price's cost on a small trial (85 of the demo's 110 ms of re-pricing in chromium), and only
+  // the all-sites step, the report and the files show it.
+  const { resampled } = r;
+  keptOnFirstRead(priced, 'rateInterval', () =>
+    resampled && Number.isFinite(regional.bestRateKgHa)
+      ? regionalRateInterval(
+          resampled,
+          prices,
+          tolerancePerHa,
+          candidateRates(Array.from(r.atTestedRates.gridKgHa), regional.bestRateKgHa),
+        )
+      : null,
+  );
+  return priced;
 }
 
 /**

@@ -25,8 +25,15 @@ export interface RepriceOptions {
   shortfallTolerancePerHa?: number | null;
 }
 
+/** The regional analysis at new prices; copied by descriptors, so a part made when first read stays so. */
 function reprice(r: RegionalAnalysis, prices: Prices, tolerancePerHa: number): RegionalAnalysis {
-  return { ...r, ...regionalAtPrices(r, prices, tolerancePerHa) };
+  return Object.defineProperties(
+    {},
+    {
+      ...Object.getOwnPropertyDescriptors(r),
+      ...Object.getOwnPropertyDescriptors(regionalAtPrices(r, prices, tolerancePerHa)),
+    },
+  ) as RegionalAnalysis;
 }
 
 /**
