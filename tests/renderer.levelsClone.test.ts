@@ -4,6 +4,7 @@
 // under Node, its output goes through the platform's structuredClone (the HTML algorithm
 // postMessage uses), and the priced levels of the copy are compared with the original's.
 import { describe, expect, it } from 'vitest';
+import { PENDING_REASON } from '../shared/analysis/acrossSites';
 import { analysisSettings } from '../shared/analysis/analysisSettings';
 import { priceTrial } from '../shared/analysis/priceTrial';
 import { demoTimingCsv } from '../shared/demo/demoTiming';
@@ -20,8 +21,19 @@ describe('the worker’s analysis of a rate × timing trial', () => {
     );
     const prices = illustrativePrices('corn').canonical;
     const settings = analysisSettings({ prices, resamples: 40, seed: 5, blocks: 'auto' });
-    const ctx = { progress: async () => {}, cancelled: false };
+    const previews: AnalysisOutput[] = [];
+    const ctx = {
+      progress: async () => {},
+      cancelled: false,
+      partial: (preview: unknown) => previews.push(structuredClone(preview) as AnalysisOutput),
+    };
     const output = (await jobHandlers.analyze({ table, settings } as never, ctx)) as AnalysisOutput;
+    // The preview the window shows first: the same sites and levels, the regional models pending.
+    expect(previews).toHaveLength(1);
+    expect(previews[0].across.sites).toEqual(output.across.sites);
+    expect(previews[0].levels).toEqual(output.levels);
+    expect(previews[0].across.mixed).toEqual({ model: null, reason: PENDING_REASON });
+    expect(output.across.mixed).not.toHaveProperty('reason', PENDING_REASON);
     expect(output.levels.map((l) => [l.site, l.factor, l.levels.map((x) => x.level)])).toEqual([
       ['Larkspur Bottom', 'Timing', ['At planting', 'Split (V6)']],
       ['Fennimore Rise', 'Timing', ['At planting', 'Split (V6)']],

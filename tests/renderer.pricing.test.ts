@@ -3,7 +3,12 @@ import { syntheticPlotTable } from '../shared/demo/syntheticTrial';
 import { economicOptimum } from '../shared/economics/economicOptimum';
 import { analyzeAcrossSites } from '../shared/analysis/analyzeAcrossSites';
 import { sitePlots } from '../shared/analysis/sitePlots';
-import { analyzeTable, poolingTests, siteViews } from '../renderer/src/analysis/siteAnalysis';
+import {
+  analyzeTable,
+  poolingTests,
+  siteViews,
+  type AnalysisOutput,
+} from '../renderer/src/analysis/siteAnalysis';
 import { modelOptima, regionalOf, siteLeads, siteOptima } from '../renderer/src/analysis/pricing';
 import { regionalModelText } from '../renderer/src/analysis/regionalModelText';
 import { formatRate } from '../renderer/src/lib/format';
@@ -31,12 +36,20 @@ describe('renderer analysis and re-pricing', () => {
   it('analyzeTable runs the pipeline site by site as plain data (no functions cross to the window)', async () => {
     const seen: string[] = [];
     const table = syntheticPlotTable({ sites: 3 });
-    const out = await analyzeTable({ table, settings: settings('auto') }, async (_d, _t, note) => {
-      seen.push(note);
-    });
+    const previews: AnalysisOutput[] = [];
+    const out = await analyzeTable(
+      { table, settings: settings('auto') },
+      async (_d, _t, note) => {
+        seen.push(note);
+      },
+      (preview) => previews.push(preview),
+    );
     const sites = siteViews(out);
     expect(sites.map((s) => s.site)).toEqual(['Site 0001', 'Site 0002', 'Site 0003']);
-    expect(seen).toEqual(['Site 0001', 'Site 0002', 'Site 0003']);
+    // One note per site, then the regional models, fitted after the preview went to the window.
+    expect(seen).toEqual(['Site 0001', 'Site 0002', 'Site 0003', 'regional models']);
+    expect(previews).toHaveLength(1);
+    expect(siteViews(previews[0])).toEqual(sites);
     // The same analysis as the one-call form with the same options.
     const whole = analyzeAcrossSites(table, {
       prices: illustrative,

@@ -38,8 +38,12 @@ describe('worker protocol', () => {
   it('runs a job, reports every progress step in order, and resolves its output', async () => {
     const client = connect({ countTo: countTo as never });
     const seen: string[] = [];
-    const job = client.run<number>('countTo', { n: 4 }, (done, total, note) =>
-      seen.push(`${done}/${total} ${note}`),
+    const job = client.run<number>(
+      'countTo',
+      { n: 4 },
+      {
+        onProgress: (done, total, note) => seen.push(`${done}/${total} ${note}`),
+      },
     );
     await expect(job.result).resolves.toBe(10);
     expect(seen).toEqual(['1/4 step 1', '2/4 step 2', '3/4 step 3', '4/4 step 4']);
@@ -58,7 +62,7 @@ describe('worker protocol', () => {
     const client = connect({ slow: slow as never });
     let firstProgress!: () => void;
     const started = new Promise<void>((resolve) => (firstProgress = resolve));
-    const job = client.run<string>('slow', null, () => firstProgress());
+    const job = client.run<string>('slow', null, { onProgress: () => firstProgress() });
     await started;
     job.cancel();
     await expect(job.result).rejects.toBeInstanceOf(JobCancelledError);
@@ -86,6 +90,32 @@ describe('worker protocol', () => {
   it('an unknown job kind is an error, not a hang', async () => {
     const client = connect({});
     await expect(client.run('nothing', null).result).rejects.toThrow('no job called "nothing"');
+  });
+
+  it('an early output reaches the window before the result, and none after a cancel', async () => {
+    const twoStage = async (input: { n: number }, ctx: JobContext) => {
+      ctx.partial({ sum: input.n, complete: false });
+      await ctx.progress(1, 2);
+      return { sum: input.n * 2, complete: true };
+    };
+    const client = connect({ twoStage: twoStage as never });
+    const seen: unknown[] = [];
+    const job = client.run<{ sum: number }, { sum: number }>(
+      'twoStage',
+      { n: 3 },
+      {
+        onPartial: (output) => seen.push(output),
+      },
+    );
+    await expect(job.result).resolves.toEqual({ sum: 6, complete: true });
+    expect(seen).toEqual([{ sum: 3, complete: false }]);
+
+    const late: unknown[] = [];
+    const cancelled = client.run('twoStage', { n: 5 }, { onPartial: (o) => late.push(o) });
+    cancelled.cancel();
+    await expect(cancelled.result).rejects.toBeInstanceOf(JobCancelledError);
+    await new Promise((resolve) => setTimeout(resolve, 50));
+    expect(late).toEqual([]);
   });
 
   it('two jobs in flight each get their own answer', async () => {

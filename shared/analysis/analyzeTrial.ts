@@ -11,7 +11,7 @@ import { checkQuality } from '../quality/checkQuality';
 import { fitRateBlockModel } from '../stats/rateBlockModel';
 import type { QualityFinding } from '../table/qualityFinding';
 import type { CropId, PlotTable } from '../table/plotTable';
-import { acrossSites, type AcrossSiteAnalysis } from './acrossSites';
+import { acrossSitesPreview, completeAcrossSites, type AcrossSiteAnalysis } from './acrossSites';
 import { CURVE_POINTS, type AnalysisSettings } from './analysisSettings';
 import { analyzeSite, type SiteAnalysis } from './analyzeSite';
 import { trialLevels, type SiteLevelsAnalysis } from './analyzeLevels';
@@ -46,12 +46,23 @@ export interface TrialAnalysis {
 }
 
 /**
- * The analysis as steps: yields each site's name after it is analyzed and returns the whole
- * result. A caller that must report progress or stop between sites (the workspace's worker)
- * drives it; analyzeTrial runs it to the end.
+ * A step of the analysis: a site analyzed, or (once, after the last site) the preview of the
+ * whole result with the regional mixed models and group comparisons still to fit.
+ */
+export type TrialAnalysisStep =
+  | { kind: 'site'; done: number; total: number; site: string }
+  | { kind: 'preview'; analysis: TrialAnalysis };
+
+/**
+ * The analysis as steps: yields each site's name after it is analyzed, then a preview of the
+ * result (acrossSitesPreview: every site's own result, the regional rate, the regional mixed
+ * models and group comparisons pending), and returns the whole result. A caller that must
+ * report progress, stop between sites or show the sites first (the workspace's worker) drives
+ * it; analyzeTrial runs it to the end. The preview costs nothing extra: the whole result is
+ * built from it.
  * @param table - the plot table (canonical kg/ha)
  * @param settings - complete analysis settings (analysisSettings fills the defaults)
- * @returns a generator of site names whose return value is the TrialAnalysis
+ * @returns a generator of steps whose return value is the TrialAnalysis
  * @throws as analyzeTrial
  * @example
  * const steps = analyzeTrialSteps(table, settings);
@@ -60,7 +71,7 @@ export interface TrialAnalysis {
 export function* analyzeTrialSteps(
   table: PlotTable,
   settings: AnalysisSettings,
-): Generator<{ done: number; total: number; site: string }, TrialAnalysis, void> {
+): Generator<TrialAnalysisStep, TrialAnalysis, void> {
   const plan = planAcrossSites(table, {
     prices: settings.prices,
     blocks: settings.blocks,
@@ -83,18 +94,23 @@ export function* analyzeTrialSteps(
   const total = plan.plots.length;
   for (const [i, p] of plan.plots.entries()) {
     sites.push(analyzeSite(p, plan.options, i, rateBlock[i]));
-    yield { done: i + 1, total, site: p.site };
+    yield { kind: 'site', done: i + 1, total, site: p.site };
   }
-  const levels = trialLevels(table, plan.plots, plan.options);
-  return {
+  const preview: TrialAnalysis = {
     settings,
     crop: table.crop,
     table,
     plots: [...plan.plots],
     findings,
-    across: acrossSites(plan, sites),
-    levels,
-    levelMixed: levelMixedAcrossSites(table, plan.plots, levels),
+    across: acrossSitesPreview(plan, sites),
+    levels: trialLevels(table, plan.plots, plan.options),
+    levelMixed: [],
+  };
+  yield { kind: 'preview', analysis: preview };
+  return {
+    ...preview,
+    across: completeAcrossSites(plan, preview.across),
+    levelMixed: levelMixedAcrossSites(table, plan.plots, preview.levels),
   };
 }
 
@@ -119,6 +135,6 @@ export function analyzeTrial(
   for (;;) {
     const step = steps.next();
     if (step.done) return step.value;
-    onSite?.(step.value.done, step.value.total);
+    if (step.value.kind === 'site') onSite?.(step.value.done, step.value.total);
   }
 }

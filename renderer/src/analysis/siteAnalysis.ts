@@ -117,19 +117,30 @@ export function siteViews(output: AnalysisOutput): SiteAnalysis[] {
 }
 
 /**
- * Analyzes every site, then the across-site step, reporting progress per site.
+ * Analyzes every site, then the across-site step, reporting progress per site and handing on
+ * the preview (every site's own result, the regional models pending) before the regional models
+ * are fitted.
  * @param input - the plot table and the analysis settings
  * @param progress - awaited after each site (the worker yields there so a cancel can arrive)
+ * @param preview - called once with the preview, after the last site
  * @returns the trial's analysis
  */
 export async function analyzeTable(
   input: AnalysisInput,
   progress: (done: number, total: number, note: string) => Promise<void>,
+  preview: (analysis: AnalysisOutput) => void = () => {},
 ): Promise<AnalysisOutput> {
   const steps = analyzeTrialSteps(input.table, input.settings);
   for (;;) {
     const step = steps.next();
     if (step.done) return step.value;
-    await progress(step.value.done, step.value.total + 1, step.value.site);
+    const s = step.value;
+    if (s.kind === 'site') {
+      await progress(s.done, s.total + 1, s.site);
+    } else {
+      preview(s.analysis);
+      const sites = s.analysis.plots.length;
+      await progress(sites, sites + 1, 'regional models');
+    }
   }
 }

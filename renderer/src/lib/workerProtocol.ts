@@ -15,6 +15,7 @@ export type ToWorker =
 /** Worker → window. */
 export type FromWorker =
   | { type: 'progress'; id: number; done: number; total: number; note: string }
+  | { type: 'partial'; id: number; output: unknown }
   | { type: 'result'; id: number; output: unknown }
   | { type: 'error'; id: number; message: string }
   | { type: 'cancelled'; id: number };
@@ -23,6 +24,11 @@ export type FromWorker =
 export interface JobContext {
   /** Reports progress; also yields to the event loop so a cancel can arrive. */
   progress(done: number, total: number, note?: string): Promise<void>;
+  /**
+   * Sends an early, incomplete output the window can show while the job goes on (the analysis
+   * sends its sites before the regional models); the job's result still follows.
+   */
+  partial(output: unknown): void;
   /** True once the window asked to cancel this job. */
   readonly cancelled: boolean;
 }
@@ -106,6 +112,10 @@ export function serveJobs(port: Port, handlers: Record<string, JobHandler>): voi
         await nextTask();
         if (cancelled.has(id)) throw new StopJob();
       },
+      partial(output) {
+        if (!cancelled.has(id))
+          port.postMessage({ type: 'partial', id, output } satisfies FromWorker);
+      },
     };
     Promise.resolve()
       .then(() => (handler as (input: unknown, ctx: JobContext) => unknown)(message.input, ctx))
@@ -141,6 +151,15 @@ interface Pending {
   resolve(value: unknown): void;
   reject(error: Error): void;
   onProgress?: (done: number, total: number, note: string) => void;
+  onPartial?: (output: unknown) => void;
+}
+
+/** What the window hears from a running job before its result. */
+export interface JobListeners<P = unknown> {
+  /** Called with (done, total, note) as the worker reports. */
+  onProgress?: (done: number, total: number, note: string) => void;
+  /** Called with each early, incomplete output (JobContext.partial). */
+  onPartial?: (output: P) => void;
 }
 
 /** The window's side: starts jobs, routes progress, cancels. */
@@ -159,17 +178,23 @@ export class JobClient {
    * Starts a job.
    * @param kind - the handler's name on the worker side
    * @param input - structured-cloneable input
-   * @param onProgress - called with (done, total, note) as the worker reports
+   * @param listeners - progress and early outputs, as the worker reports them
    * @returns the running job
    */
-  run<T>(
+  run<T, P = unknown>(
     kind: string,
     input: unknown,
-    onProgress?: (done: number, total: number, note: string) => void,
+    listeners: JobListeners<P> = {},
   ): RunningJob<T> {
     const id = this.#nextId++;
     const result = new Promise<T>((resolve, reject) => {
-      this.#pending.set(id, { kind, resolve: resolve as (v: unknown) => void, reject, onProgress });
+      this.#pending.set(id, {
+        kind,
+        resolve: resolve as (v: unknown) => void,
+        reject,
+        onProgress: listeners.onProgress,
+        onPartial: listeners.onPartial as Pending['onPartial'],
+      });
     });
     this.#port.postMessage({ type: 'run', id, kind, input } satisfies ToWorker);
     return {
@@ -196,6 +221,9 @@ export class JobClient {
     switch (message.type) {
       case 'progress':
         pending.onProgress?.(message.done, message.total, message.note);
+        return;
+      case 'partial':
+        pending.onPartial?.(message.output);
         return;
       case 'result':
         this.#pending.delete(message.id);

@@ -25,6 +25,12 @@ export class Analysis {
   selectedSite = $state<string | null>(null);
   /** True when the user stopped the fits before they finished. */
   stopped = $state(false);
+  /**
+   * True while `output` is the analysis' preview: every site's own result is in, the regional
+   * mixed models and group comparisons are still being fitted (their entries say so). Nothing
+   * is exported from a preview.
+   */
+  regionalPending = $state(false);
   /** The table the current output was fitted to (identity), to skip refitting the same one. */
   #fittedTable: PlotTable | null = null;
   #fittedBlocks: BlockTerms | null = null;
@@ -90,6 +96,7 @@ export class Analysis {
     this.#fittedBlocks = this.blocks;
     if (!table || table.plots.length === 0) {
       this.output = null;
+      this.regionalPending = false;
       return;
     }
     this.stopped = false;
@@ -100,13 +107,23 @@ export class Analysis {
         prices: priced.ok ? { ...priced.prices } : illustrativePrices(table.crop).canonical,
         blocks: this.blocks === 'fixed' ? 'auto' : 'none',
       });
+      // The sites are shown as soon as they are fitted (the preview), before the regional models:
+      // on the demo in chromium that brings the first optimum 0.25 s sooner.
+      const showPreview = (preview: AnalysisOutput) => {
+        if (this.#fittedTable !== table) return;
+        this.output = preview;
+        this.regionalPending = true;
+      };
       // The table is plain data (every state it is derived from is $state.raw), so it goes to the
       // worker as it is: a $state.snapshot would clone it once more before postMessage clones it
       // (78 ms of the demo's first analysis in a trace of the production build).
-      const output = await this.#jobs.run<AnalysisOutput>('Fitting sites', 'analyze', {
-        table,
-        settings,
-      });
+      const output = await this.#jobs.run<AnalysisOutput, AnalysisOutput>(
+        'Fitting sites',
+        'analyze',
+        { table, settings },
+        { onPartial: showPreview },
+      );
+      if (this.#fittedTable === table) this.regionalPending = false;
       if (output && this.#fittedTable === table) this.output = output;
       if (!output && this.#fittedTable === table) {
         // Stopped from the status bar: forget the table so "Fit again" (or any change) refits it.
@@ -115,6 +132,11 @@ export class Analysis {
         this.stopped = true;
       }
     } catch (error) {
+      if (this.#fittedTable === table && this.regionalPending) {
+        // A preview whose regional models failed is not a result: show none rather than pending text.
+        this.output = null;
+        this.regionalPending = false;
+      }
       const detail = error instanceof JobFailedError ? error.message : String(error);
       this.#messages.add('error', 'The fits could not be completed', detail);
     }

@@ -25,18 +25,30 @@ export class Jobs {
    * @param label - what the status bar says, e.g. "Fitting sites"
    * @param kind - the worker's job name
    * @param input - structured-cloneable input
-   * @param lane - jobs in one lane replace each other; the kind unless told
+   * @param options - lane: jobs in one lane replace each other (the kind unless told);
+   *   onPartial: called with the job's early outputs while it is still the lane's job
    * @returns the output, or null when the job was cancelled
    * @throws JobFailedError when the worker reports a failure
    */
-  async run<T>(label: string, kind: string, input: unknown, lane = kind): Promise<T | null> {
+  async run<T, P = never>(
+    label: string,
+    kind: string,
+    input: unknown,
+    options: { lane?: string; onPartial?: (output: P) => void } = {},
+  ): Promise<T | null> {
+    const lane = options.lane ?? kind;
     this.#lanes[lane]?.job.cancel();
     const progress: JobProgress = { label, done: 0, total: 1, note: '' };
-    const job = this.#client.run<T>(kind, input, (done, total, note) => {
-      const entry = this.#lanes[lane];
-      if (entry?.job !== job) return;
-      entry.progress = { label, done, total, note };
-      this.#show();
+    const job = this.#client.run<T, P>(kind, input, {
+      onProgress: (done, total, note) => {
+        const entry = this.#lanes[lane];
+        if (entry?.job !== job) return;
+        entry.progress = { label, done, total, note };
+        this.#show();
+      },
+      onPartial: (output) => {
+        if (this.#lanes[lane]?.job === job) options.onPartial?.(output);
+      },
     });
     this.#lanes[lane] = { job: job as RunningJob<unknown>, progress };
     this.#show();

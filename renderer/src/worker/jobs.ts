@@ -37,14 +37,18 @@ export async function readFiles(files: TrialFileBytes[], ctx: JobContext): Promi
 }
 
 /**
- * The one analysis run (analyzeTrialSteps): fits, tests and bootstrap draws per site, then the
- * across-site step.
+ * The one analysis run (analyzeTrialSteps): fits, tests and bootstrap draws per site, a preview
+ * sent to the window (ctx.partial), then the rest of the across-site step.
  * @param input - plot table and analysis settings
  * @param ctx - progress per site, and cancel
  * @returns plain-data results the window re-prices without refitting
  */
 export function analyze(input: AnalysisInput, ctx: JobContext): Promise<AnalysisOutput> {
-  return analyzeTable(input, (done, total, note) => ctx.progress(done, total, note));
+  return analyzeTable(
+    input,
+    (done, total, note) => ctx.progress(done, total, note),
+    (preview) => ctx.partial(preview),
+  );
 }
 
 /**
