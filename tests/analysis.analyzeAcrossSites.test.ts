@@ -3,6 +3,9 @@
 import { MODEL_NAMES } from '../shared/models/curves';
 import { describe, expect, it } from 'vitest';
 import { analyzeAcrossSites } from '../shared/analysis/analyzeAcrossSites';
+import { analysisSettings } from '../shared/analysis/analysisSettings';
+import { analyzeTrial } from '../shared/analysis/analyzeTrial';
+import { syntheticPlotTable } from '../shared/demo/syntheticTrial';
 import { repriceAcrossSites } from '../shared/analysis/repriceAcrossSites';
 import { filterSiteRows, sortSiteRows } from '../shared/analysis/siteModelRows';
 import { SitesInputError } from '../shared/analysis/sitesInputError';
@@ -98,6 +101,24 @@ describe('analyzeAcrossSites on the pooled fixture', () => {
     const t = g.differ.quadratic.result;
     expect(t.kind === 'f-test' && Math.abs(t.f - Number(r.F)) <= 1e-9 * Number(r.F)).toBe(true);
     expect(g.differ.plateau.linearPlateau.partsUsed).toEqual(['soybean', 'corn']);
+  });
+
+  it('a group value every site shares reuses the whole analysis, naming its sites', () => {
+    // Invented sites, one year: the value's regional rate is the trial's own (not refitted), and
+    // the value lists site names, not the site analyses (which once doubled the window's copy).
+    const table = syntheticPlotTable({ sites: 3, seed: 4 });
+    const trial = analyzeTrial(table, analysisSettings({ prices, resamples: 0 }));
+    const [value] = trial.across.groups[0].values;
+    expect(trial.across.groups[0].values).toHaveLength(1);
+    expect(Object.keys(value).sort()).toEqual([
+      'regional',
+      'response',
+      'sharedResponse',
+      'sites',
+      'value',
+    ]);
+    expect(value.sites).toEqual(trial.across.sites.map((x) => x.site));
+    expect(value.regional).toBe(trial.across.regional);
   });
 
   it('repriceAcrossSites gives what a fresh analysis at the new prices gives', () => {

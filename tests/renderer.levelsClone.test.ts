@@ -6,6 +6,11 @@
 import { describe, expect, it } from 'vitest';
 import { PENDING_REASON } from '../shared/analysis/acrossSites';
 import { analysisSettings } from '../shared/analysis/analysisSettings';
+import {
+  analyzeTrial,
+  withRegionalModels,
+  type TrialRegionalModels,
+} from '../shared/analysis/analyzeTrial';
 import { priceTrial } from '../shared/analysis/priceTrial';
 import { demoTimingCsv } from '../shared/demo/demoTiming';
 import { illustrativePrices } from '../shared/economics/illustrativePrices';
@@ -27,7 +32,13 @@ describe('the worker’s analysis of a rate × timing trial', () => {
       cancelled: false,
       partial: (preview: unknown) => previews.push(structuredClone(preview) as AnalysisOutput),
     };
-    const output = (await jobHandlers.analyze({ table, settings } as never, ctx)) as AnalysisOutput;
+    const models = (await jobHandlers.analyze(
+      { table, settings } as never,
+      ctx,
+    )) as TrialRegionalModels;
+    // The window completes the preview with what the job returns (both cloned, as postMessage does).
+    const output = withRegionalModels(previews[0], structuredClone(models));
+    expect(output).toEqual(analyzeTrial(table, settings));
     // The preview the window shows first: the same sites and levels, the regional models pending.
     expect(previews).toHaveLength(1);
     expect(previews[0].across.sites).toEqual(output.across.sites);

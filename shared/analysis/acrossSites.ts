@@ -65,7 +65,8 @@ export function acrossSites(
   plan: AcrossSitePlan,
   sites: readonly SiteAnalysis[],
 ): AcrossSiteAnalysis {
-  return completeAcrossSites(plan, acrossSitesPreview(plan, sites));
+  const preview = acrossSitesPreview(plan, sites);
+  return { ...preview, ...regionalModelsAcross(plan, preview) };
 }
 
 /**
@@ -73,7 +74,7 @@ export function acrossSites(
  * the rows, the shared-response tests, the regional rate, the response share and the years
  * compared. The regional mixed models and the group comparisons, most of the step's time (on
  * the demo's six site-years 0.25 of the step's 0.3 s in chromium), are left pending: each
- * says PENDING_REASON, and groups is empty. completeAcrossSites fits them.
+ * says PENDING_REASON, and groups is empty. regionalModelsAcross fits them.
  * @param plan - from planAcrossSites
  * @param sites - analyzeSite of each of plan.plots, same order
  * @returns the analysis with the regional mixed models and groups pending
@@ -111,22 +112,24 @@ export function acrossSitesPreview(
   };
 }
 
+/** The parts of the across step a preview leaves pending. */
+export type AcrossRegionalModels = Pick<AcrossSiteAnalysis, 'mixed' | 'plateauMixed' | 'groups'>;
+
 /**
- * The across step's slow part: the regional mixed models and the group comparisons fitted
- * into a preview.
+ * The across step's slow part: the regional mixed models and the group comparisons of the
+ * preview's sites; the whole analysis is the preview with these laid over it.
  * @param plan - the plan the preview was made from
  * @param preview - acrossSitesPreview(plan, sites)
- * @returns the whole analysis
+ * @returns the parts the preview left pending
  */
-export function completeAcrossSites(
+export function regionalModelsAcross(
   plan: AcrossSitePlan,
   preview: AcrossSiteAnalysis,
-): AcrossSiteAnalysis {
+): AcrossRegionalModels {
   const { sites, options: o } = preview;
   const analyses = new Map(sites.map((s) => [s.site, s]));
   const checked = checkedPlots(plan, sites);
   return {
-    ...preview,
     mixed: mixedModelAcrossSites(checked, sites),
     plateauMixed: plateauMixedModelsAcrossSites(checked, sites),
     groups: o.groupKeys.map((k) => groupAnalysis(k, checked, analyses, o, preview)),

@@ -11,7 +11,12 @@ import { checkQuality } from '../quality/checkQuality';
 import { fitRateBlockModel } from '../stats/rateBlockModel';
 import type { QualityFinding } from '../table/qualityFinding';
 import type { CropId, PlotTable } from '../table/plotTable';
-import { acrossSitesPreview, completeAcrossSites, type AcrossSiteAnalysis } from './acrossSites';
+import {
+  acrossSitesPreview,
+  regionalModelsAcross,
+  type AcrossRegionalModels,
+  type AcrossSiteAnalysis,
+} from './acrossSites';
 import { CURVE_POINTS, type AnalysisSettings } from './analysisSettings';
 import { analyzeSite, type SiteAnalysis } from './analyzeSite';
 import { trialLevels, type SiteLevelsAnalysis } from './analyzeLevels';
@@ -59,7 +64,7 @@ export type TrialAnalysisStep =
  * models and group comparisons pending), and returns the whole result. A caller that must
  * report progress, stop between sites or show the sites first (the workspace's worker) drives
  * it; analyzeTrial runs it to the end. The preview costs nothing extra: the whole result is
- * built from it.
+ * built from it (withRegionalModels).
  * @param table - the plot table (canonical kg/ha)
  * @param settings - complete analysis settings (analysisSettings fills the defaults)
  * @returns a generator of steps whose return value is the TrialAnalysis
@@ -107,11 +112,45 @@ export function* analyzeTrialSteps(
     levelMixed: [],
   };
   yield { kind: 'preview', analysis: preview };
+  return withRegionalModels(preview, {
+    across: regionalModelsAcross(plan, preview.across),
+    levelMixed: levelMixedAcrossSites(table, plan.plots, preview.levels),
+  });
+}
+
+/** What the whole analysis adds to its preview: the regional mixed models, group comparisons and level mixed models. */
+export interface TrialRegionalModels {
+  across: AcrossRegionalModels;
+  levelMixed: TrialAnalysis['levelMixed'];
+}
+
+/**
+ * The whole analysis from its preview and the parts the preview left pending: how
+ * analyzeTrialSteps ends, and how a window that already holds the preview completes it without
+ * receiving the sites again.
+ * @param preview - the analysis' preview
+ * @param models - the parts it left pending (regionalModelsOf the whole analysis)
+ * @returns the whole analysis
+ */
+export function withRegionalModels(
+  preview: TrialAnalysis,
+  models: TrialRegionalModels,
+): TrialAnalysis {
   return {
     ...preview,
-    across: completeAcrossSites(plan, preview.across),
-    levelMixed: levelMixedAcrossSites(table, plan.plots, preview.levels),
+    across: { ...preview.across, ...models.across },
+    levelMixed: models.levelMixed,
   };
+}
+
+/**
+ * The parts of a whole analysis its preview leaves pending.
+ * @param analysis - the whole analysis
+ * @returns its regional mixed models, group comparisons and level mixed models
+ */
+export function regionalModelsOf(analysis: TrialAnalysis): TrialRegionalModels {
+  const { mixed, plateauMixed, groups } = analysis.across;
+  return { across: { mixed, plateauMixed, groups }, levelMixed: analysis.levelMixed };
 }
 
 /**

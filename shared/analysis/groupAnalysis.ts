@@ -73,8 +73,12 @@ export function groupAnalysis(
   }
   const values: GroupValueAnalysis[] = [...byValue.entries()].map(([value, members]) => {
     // A value that every site shares (one year, one soil) is the whole analysis again: reuse it.
-    if (members.length === plots.length && whole)
-      return { value, sites: members.map((m) => m.site), ...whole };
+    // Only its three parts are taken: a caller may pass a whole AcrossSiteAnalysis, whose own
+    // `sites` (the site analyses) must not replace the names here.
+    if (members.length === plots.length && whole) {
+      const { regional, response, sharedResponse } = whole;
+      return { value, sites: members.map((m) => m.site), regional, response, sharedResponse };
+    }
     const sub = members.map((m) => analyses.get(m.site) as SiteAnalysis);
     return {
       value,

@@ -5,6 +5,10 @@ import { priceTrial, type PricedTrial } from '../../../shared/analysis/priceTria
 import { illustrativePrices } from '../../../shared/economics/illustrativePrices';
 import type { BlockTerms, ModelName } from '../../../shared/models/modelTypes';
 import type { PlotTable } from '../../../shared/table/plotTable';
+import {
+  withRegionalModels,
+  type TrialRegionalModels,
+} from '../../../shared/analysis/analyzeTrial';
 import { regionalOf, siteLeads, siteOptima, type SiteOptimum } from '../analysis/pricing';
 import {
   poolingTests,
@@ -109,20 +113,25 @@ export class Analysis {
       });
       // The sites are shown as soon as they are fitted (the preview), before the regional models:
       // on the demo in chromium that brings the first optimum 0.25 s sooner.
-      const showPreview = (preview: AnalysisOutput) => {
+      let preview: AnalysisOutput | null = null;
+      const showPreview = (sites: AnalysisOutput) => {
+        preview = sites;
         if (this.#fittedTable !== table) return;
-        this.output = preview;
+        this.output = sites;
         this.regionalPending = true;
       };
       // The table is plain data (every state it is derived from is $state.raw), so it goes to the
       // worker as it is: a $state.snapshot would clone it once more before postMessage clones it
       // (78 ms of the demo's first analysis in a trace of the production build).
-      const output = await this.#jobs.run<AnalysisOutput, AnalysisOutput>(
+      const models = await this.#jobs.run<TrialRegionalModels, AnalysisOutput>(
         'Fitting sites',
         'analyze',
         { table, settings },
         { onPartial: showPreview },
       );
+      // The worker sends the sites once, in the preview, and then what the preview left pending.
+      if (models && !preview) throw new Error('the analysis finished without sending its sites');
+      const output = models && preview ? withRegionalModels(preview, models) : null;
       if (this.#fittedTable === table) this.regionalPending = false;
       if (output && this.#fittedTable === table) this.output = output;
       if (!output && this.#fittedTable === table) {

@@ -5,7 +5,8 @@ import { isImportError } from '../../../shared/import/importError';
 import type { RawWorkbook } from '../../../shared/import/rawWorkbook';
 import { readTrialFile } from '../../../shared/import/readTrialFile';
 import type { JobContext, JobHandler } from '../lib/workerProtocol';
-import { analyzeTable, type AnalysisInput, type AnalysisOutput } from '../analysis/siteAnalysis';
+import { analyzeTable, type AnalysisInput } from '../analysis/siteAnalysis';
+import { regionalModelsOf, type TrialRegionalModels } from '../../../shared/analysis/analyzeTrial';
 import type { TrialReport } from '../../../shared/report/trialReport';
 import type { WorkbookOptions } from '../../../shared/report/workbook';
 
@@ -37,18 +38,21 @@ export async function readFiles(files: TrialFileBytes[], ctx: JobContext): Promi
 }
 
 /**
- * The one analysis run (analyzeTrialSteps): fits, tests and bootstrap draws per site, a preview
- * sent to the window (ctx.partial), then the rest of the across-site step.
+ * The one analysis run (analyzeTrialSteps): fits, tests and bootstrap draws per site, the
+ * preview sent to the window (ctx.partial), then the rest of the across-site step, of which only
+ * the parts the preview left pending are returned: the window completes the preview it holds
+ * (withRegionalModels), so a large trial's sites are cloned across once, not twice.
  * @param input - plot table and analysis settings
  * @param ctx - progress per site, and cancel
- * @returns plain-data results the window re-prices without refitting
+ * @returns the regional models, group comparisons and level mixed models (plain data)
  */
-export function analyze(input: AnalysisInput, ctx: JobContext): Promise<AnalysisOutput> {
-  return analyzeTable(
+export async function analyze(input: AnalysisInput, ctx: JobContext): Promise<TrialRegionalModels> {
+  const whole = await analyzeTable(
     input,
     (done, total, note) => ctx.progress(done, total, note),
     (preview) => ctx.partial(preview),
   );
+  return regionalModelsOf(whole);
 }
 
 /**
