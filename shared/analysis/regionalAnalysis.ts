@@ -82,8 +82,8 @@ export type RegionalAtPrices = Pick<
 
 /**
  * The priced parts of a regional analysis: the regional return and its sentence, its
- * price-ratio table, its shortfall risk and its rate interval (computed when first read: copy
- * the result with its property descriptors, not a spread, to keep it so).
+ * price-ratio table, its shortfall risk and its rate interval (the last three computed when
+ * first read: copy the result with its property descriptors, not a spread, to keep them so).
  * @param r - the price-free parts (grid gains, gains at the tested rates, resampled site-years)
  * @param prices - canonical prices
  * @param tolerancePerHa - the tolerance, currency/ha: the profitable range's band below the best
@@ -100,24 +100,31 @@ export function regionalAtPrices(
 ): RegionalAtPrices {
   const bandPerHa = tolerancePerHa;
   const regional = regionalReturnAtPrices(r.prepared, prices, { bandPerHa });
-  const sensitivity = priceRatioSensitivity(prices, (scaled, m) => {
-    const at = m === 1 ? regional : regionalReturnAtPrices(r.prepared, scaled, { bandPerHa });
-    const range = at.profitableRange;
-    return {
-      rateKgHa: at.bestRateKgHa,
-      profitableRangeKgHa: [range.lowKgHa, range.highKgHa] as [number, number],
-    };
-  });
   const priced: RegionalAtPrices = {
     regional,
     text: regionalRecommendation(regional),
-    priceRatioSensitivity: sensitivity,
-    shortfallRisk: regionalShortfallRisk(r.prepared, r.atTestedRates, regional, tolerancePerHa),
+    priceRatioSensitivity: [],
+    shortfallRisk: null,
     rateInterval: null,
   };
-  // Made when first read: it prices every resample at every candidate rate, most of a new
-  // price's cost on a small trial (85 of the demo's 110 ms of re-pricing in chromium), and only
-  // the all-sites step, the report and the files show it.
+  // Made when first read: the price-ratio table re-prices the regional return four more times,
+  // the risk reads every site at every tested rate, and the interval prices every resample at
+  // every candidate rate. Together most of a new price's regional cost (the interval alone 85
+  // of the demo's 110 ms of first pricing in chromium), and only the all-sites step, the report
+  // and the files show them.
+  keptOnFirstRead(priced, 'priceRatioSensitivity', () =>
+    priceRatioSensitivity(prices, (scaled, m) => {
+      const at = m === 1 ? regional : regionalReturnAtPrices(r.prepared, scaled, { bandPerHa });
+      const range = at.profitableRange;
+      return {
+        rateKgHa: at.bestRateKgHa,
+        profitableRangeKgHa: [range.lowKgHa, range.highKgHa] as [number, number],
+      };
+    }),
+  );
+  keptOnFirstRead(priced, 'shortfallRisk', () =>
+    regionalShortfallRisk(r.prepared, r.atTestedRates, regional, tolerancePerHa),
+  );
   const { resampled } = r;
   keptOnFirstRead(priced, 'rateInterval', () =>
     resampled && Number.isFinite(regional.bestRateKgHa)
