@@ -68,13 +68,14 @@ export class Report {
 
   /**
    * The report of the current analysis at the current prices and picks, or null before there is
-   * one. Built from the analysis' priced view, so it always says what the screen says.
+   * one (and while the analysis is a preview, so no page or file carries a regional model still
+   * being fitted). Built from the analysis' priced view, so it always says what the screen says.
    */
   report: TrialReport | null = $derived.by(() => {
     const ws = this.#ws;
     const analysis = ws.analysis.output;
     const priced = ws.analysis.priced;
-    if (!analysis || !priced) return null;
+    if (!analysis || !priced || ws.analysis.regionalPending) return null;
     const display = {
       ...reportDisplay(
         ws.prices.settings,
