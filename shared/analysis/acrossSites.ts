@@ -73,7 +73,7 @@ export function acrossSites(
  * The across step's quick part, for a window that shows each site's result before the rest:
  * the rows, the shared-response tests, the regional rate, the response share and the years
  * compared. The regional mixed models and the group comparisons, most of the step's time (on
- * the demo's six site-years 0.25 of the step's 0.3 s in chromium), are left pending: each
+ * the demo's six site-years 0.25 of the step's 0.3 s, first run in Node), are left pending: each
  * says PENDING_REASON, and groups is empty. regionalModelsAcross fits them.
  * @param plan - from planAcrossSites
  * @param sites - analyzeSite of each of plan.plots, same order
