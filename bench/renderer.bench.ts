@@ -1,5 +1,6 @@
-// Browser bench: the first analysis of the demo (page load to its first site's optimum on
-// screen), then with 50 fitted sites (PLOTRATE_BENCH_SITES=500 for more) the time from a price
+// Browser bench: the first analysis of the demo (navigation start to the frame after its first
+// site's optimum is on the page, timed inside the page: a wait from outside polls a main thread
+// that is busy drawing, and read 0.3–0.5 s late), then with 50 fitted sites (PLOTRATE_BENCH_SITES=500 for more) the time from a price
 // change to the redrawn optimum and charts, in headless chromium against the built renderer.
 // Measured inside the page: from dispatching the price field's input event to
 // the frame after every chart on screen has finished Plotly's redraw.
@@ -75,12 +76,24 @@ export async function run(): Promise<void> {
   const session = await openSession();
   const { page } = session;
   try {
-    const opened = Date.now();
+    await page.addInitScript(() => {
+      const w = window as unknown as { firstOptimumMs: number | null };
+      w.firstOptimumMs = null;
+      new MutationObserver((_, observer) => {
+        if (!document.querySelector('[data-testid="site-optimum"]')) return;
+        observer.disconnect();
+        requestAnimationFrame(() => (w.firstOptimumMs = performance.now()));
+      }).observe(document, { childList: true, subtree: true });
+    });
     await page.goto(session.url);
-    await page.getByTestId('site-optimum').waitFor({ timeout: 300_000 });
-    // The demo is read, fitted (with its resamples) and drawn in the page's worker.
+    // The demo is read and fitted in the page's worker; its resamples follow the first optimum.
+    const first = await page.waitForFunction(
+      () => (window as unknown as { firstOptimumMs: number | null }).firstOptimumMs,
+      undefined,
+      { timeout: 300_000 },
+    );
     console.log(
-      `first analysis of the demo, page load to its first optimum: ${Date.now() - opened} ms`,
+      `first analysis of the demo, navigation start to the frame after its first optimum: ${Math.round(Number(await first.jsonValue()))} ms`,
     );
     // Replace the demo with the synthetic sites.
     await page.getByRole('button', { name: /Trial files/ }).click();

@@ -502,9 +502,9 @@ async function analyzedReport(
   const chartsNote = args.out || args.pdf ? siteChartsNote(siteCount, args.siteChartLimit) : null;
   if (chartsNote) log.err(`plotrate: ${chartsNote}`);
   const step = Math.max(1, Math.ceil(siteCount / 10));
-  const analysis = analyzeTrial(imported.table, settings, (done, total) => {
+  const analysis = analyzeTrial(imported.table, settings, (done, total, stage) => {
     if (total >= 20 && (done % step === 0 || done === total))
-      log.err(`plotrate: analyzed ${done}/${total} sites`);
+      log.err(`plotrate: ${stage} ${done}/${total} sites`);
   });
   // Data findings do not stop the run, but each names its file, sheet and cell so it can be fixed.
   const serious = [...imported.findings, ...analysis.findings].filter((f) => f.severity !== 'info');

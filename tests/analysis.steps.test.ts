@@ -13,6 +13,9 @@ import { repriceAcrossSites } from '../shared/analysis/repriceAcrossSites';
 import { SitesInputError } from '../shared/analysis/sitesInputError';
 import { pearsonCorrelation } from '../shared/stats/pearson';
 import { sitePlots } from '../shared/analysis/sitePlots';
+import { analysisSettings } from '../shared/analysis/analysisSettings';
+import { analyzeTrialSteps } from '../shared/analysis/analyzeTrial';
+import { siteDraws } from '../shared/analysis/analyzeSite';
 import { pooledPlotTable } from './analysis.fixtures';
 
 const prices = { grainPricePerKg: 0.18, nutrientPricePerKg: 1.1 };
@@ -36,6 +39,37 @@ describe('planAcrossSites, analyzeSite and acrossSites', () => {
     expect(steps.sharedResponse.quadratic.tests.map((t) => t.sentence)).toEqual(
       whole.sharedResponse.quadratic.tests.map((t) => t.sentence),
     );
+  });
+
+  it('analyzeTrialSteps fits every site, previews them, then resamples them: the draws analyzeSite makes in one go', () => {
+    const settings = analysisSettings({ prices, resamples: 30, seed: 9 });
+    const steps = analyzeTrialSteps(table, settings);
+    const kinds: string[] = [];
+    let previewDraws: unknown[] = [];
+    let resampled: unknown[] = [];
+    let step = steps.next();
+    for (; !step.done; step = steps.next()) {
+      const s = step.value;
+      kinds.push(s.kind);
+      if (s.kind === 'preview') previewDraws = s.analysis.across.sites.map((x) => x.draws);
+      if (s.kind === 'resampled') resampled = s.draws;
+    }
+    const n = whole.sites.length;
+    expect(kinds).toEqual([
+      ...Array<string>(n).fill('site'),
+      'preview',
+      ...Array<string>(n).fill('resampling'),
+      'resampled',
+    ]);
+    expect(previewDraws).toEqual(Array(n).fill(null));
+    const plan = planAcrossSites(table, { prices, resamples: 30, seed: 9 });
+    const inOneGo = plan.plots.map((p, i) => analyzeSite(p, plan.options, i).draws);
+    expect(inOneGo.every((d) => d !== null && d.resamples === 30)).toBe(true);
+    expect(resampled).toEqual(inOneGo);
+    expect(step.value.across.sites.map((x) => x.draws)).toEqual(inOneGo);
+    const fitted = analyzeSite(plan.plots[0], { ...plan.options, resamples: 0 }, 0);
+    expect(fitted.draws).toBeNull();
+    expect(siteDraws(plan.plots[0], fitted, plan.options, 0)).toEqual(inOneGo[0]);
   });
 
   it('acrossSites refuses sites that are not the plan’s, in its order', () => {

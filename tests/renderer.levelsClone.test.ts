@@ -8,6 +8,7 @@ import { PENDING_REASON } from '../shared/analysis/acrossSites';
 import { analysisSettings } from '../shared/analysis/analysisSettings';
 import {
   analyzeTrial,
+  withDraws,
   withRegionalModels,
   type TrialRegionalModels,
 } from '../shared/analysis/analyzeTrial';
@@ -16,7 +17,7 @@ import { demoTimingCsv } from '../shared/demo/demoTiming';
 import { illustrativePrices } from '../shared/economics/illustrativePrices';
 import { importFiles } from '../shared/import/importFiles';
 import { jobHandlers } from '../renderer/src/worker/jobs';
-import type { AnalysisOutput } from '../renderer/src/analysis/siteAnalysis';
+import type { AnalysisPartial } from '../renderer/src/analysis/siteAnalysis';
 
 describe('the worker’s analysis of a rate × timing trial', () => {
   it('keeps every level through structured clone, priced alike in the window', async () => {
@@ -26,24 +27,38 @@ describe('the worker’s analysis of a rate × timing trial', () => {
     );
     const prices = illustrativePrices('corn').canonical;
     const settings = analysisSettings({ prices, resamples: 40, seed: 5, blocks: 'auto' });
-    const previews: AnalysisOutput[] = [];
+    const partials: AnalysisPartial[] = [];
     const ctx = {
       progress: async () => {},
       cancelled: false,
-      partial: (preview: unknown) => previews.push(structuredClone(preview) as AnalysisOutput),
+      partial: (partial: unknown) => partials.push(structuredClone(partial) as AnalysisPartial),
     };
     const models = (await jobHandlers.analyze(
       { table, settings } as never,
       ctx,
     )) as TrialRegionalModels;
-    // The window completes the preview with what the job returns (both cloned, as postMessage does).
-    const output = withRegionalModels(previews[0], structuredClone(models));
+    // The window completes the preview with the draws and what the job returns (all cloned, as
+    // postMessage does).
+    expect(partials.map((p) => p.kind)).toEqual(['sites', 'draws']);
+    const [sites, draws] = partials as [
+      Extract<AnalysisPartial, { kind: 'sites' }>,
+      Extract<AnalysisPartial, { kind: 'draws' }>,
+    ];
+    const output = withRegionalModels(
+      withDraws(sites.analysis, draws.draws),
+      structuredClone(models),
+    );
     expect(output).toEqual(analyzeTrial(table, settings));
-    // The preview the window shows first: the same sites and levels, the regional models pending.
-    expect(previews).toHaveLength(1);
-    expect(previews[0].across.sites).toEqual(output.across.sites);
-    expect(previews[0].levels).toEqual(output.levels);
-    expect(previews[0].across.mixed).toEqual({ model: null, reason: PENDING_REASON });
+    // The preview the window shows first: the same sites without their draws, the same levels,
+    // the regional models pending.
+    const preview = sites.analysis;
+    expect(preview.across.sites.map((s) => ({ ...s, draws: null }))).toEqual(
+      output.across.sites.map((s) => ({ ...s, draws: null })),
+    );
+    expect(preview.across.sites.every((s) => s.draws === null)).toBe(true);
+    expect(output.across.sites.every((s) => s.draws !== null)).toBe(true);
+    expect(preview.levels).toEqual(output.levels);
+    expect(preview.across.mixed).toEqual({ model: null, reason: PENDING_REASON });
     expect(output.across.mixed).not.toHaveProperty('reason', PENDING_REASON);
     expect(output.levels.map((l) => [l.site, l.factor, l.levels.map((x) => x.level)])).toEqual([
       ['Larkspur Bottom', 'Timing', ['At planting', 'Split (V6)']],

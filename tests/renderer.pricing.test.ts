@@ -8,6 +8,7 @@ import {
   poolingTests,
   siteViews,
   type AnalysisOutput,
+  type AnalysisPartial,
 } from '../renderer/src/analysis/siteAnalysis';
 import { modelOptima, regionalOf, siteLeads, siteOptima } from '../renderer/src/analysis/pricing';
 import { regionalModelText } from '../renderer/src/analysis/regionalModelText';
@@ -36,20 +37,21 @@ describe('renderer analysis and re-pricing', () => {
   it('analyzeTable runs the pipeline site by site as plain data (no functions cross to the window)', async () => {
     const seen: string[] = [];
     const table = syntheticPlotTable({ sites: 3 });
-    const previews: AnalysisOutput[] = [];
+    const previews: AnalysisPartial[] = [];
     const out = await analyzeTable(
       { table, settings: settings('auto') },
       async (_d, _t, note) => {
         seen.push(note);
       },
-      (preview) => previews.push(preview),
+      (partial) => previews.push(partial),
     );
     const sites = siteViews(out);
     expect(sites.map((s) => s.site)).toEqual(['Site 0001', 'Site 0002', 'Site 0003']);
-    // One note per site, then the regional models, fitted after the preview went to the window.
+    // One note per site, then the regional models, fitted after the preview went to the window
+    // (no resamples here, so no draws follow it).
     expect(seen).toEqual(['Site 0001', 'Site 0002', 'Site 0003', 'regional models']);
-    expect(previews).toHaveLength(1);
-    expect(siteViews(previews[0])).toEqual(sites);
+    expect(previews.map((p) => p.kind)).toEqual(['sites']);
+    expect(siteViews((previews[0] as { analysis: AnalysisOutput }).analysis)).toEqual(sites);
     // The same analysis as the one-call form with the same options.
     const whole = analyzeAcrossSites(table, {
       prices: illustrative,

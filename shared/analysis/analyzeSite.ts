@@ -212,17 +212,6 @@ export function analyzeSite(
     [...site.block],
     rateBlock,
   );
-  let draws: BootstrapDraws | null = null;
-  if (fits && settings.resamples > 0 && new Set(rates).size >= 2) {
-    const drawn = (Object.keys(fits.fits) as ModelName[]).filter(
-      (m) => fits!.fits[m].status !== 'too-few-rates',
-    );
-    draws = drawBootstrapEstimates(site, drawn, {
-      resamples: settings.resamples,
-      seed: bootstrapSeed(settings.seed, siteIndex),
-      blocks: b,
-    });
-  }
   return {
     site: site.site,
     year: site.year,
@@ -241,7 +230,38 @@ export function analyzeSite(
     responseOverCheck,
     anova,
     treatmentMeans: means,
-    draws,
+    draws: siteDraws(site, { fits, blocks: b }, settings, siteIndex),
     groups: site.groups,
   };
+}
+
+/**
+ * A site's bootstrap draws: every model but those with too few rates refitted on each resample
+ * (drawBootstrapEstimates), behind the optimum's interval and the shortfall risk at any prices.
+ * analyzeSite makes them with the rest of the site; the workspace's analysis makes them after
+ * every site's fits (analyzeTrialSteps), so the sites are shown before their resampling.
+ * @param site - the site's plots (kg/ha)
+ * @param fitted - the site's fits and block terms, as analyzeSite found them
+ * @param settings - resamples (0: none) and the run's seed
+ * @param siteIndex - the site's position in the table's site order (seeds its resamples)
+ * @returns the draws; null without fits, resamples or two distinct rates
+ * @example
+ * siteDraws(plan.plots[0], analyzeSite(plan.plots[0], { ...plan.options, resamples: 0 }), plan.options, 0)?.resamples // 200
+ */
+export function siteDraws(
+  site: SitePlots,
+  fitted: Pick<SiteAnalysis, 'fits' | 'blocks'>,
+  settings: Pick<AcrossSiteSettings, 'resamples' | 'seed'>,
+  siteIndex: number,
+): BootstrapDraws | null {
+  const { fits } = fitted;
+  if (!fits || settings.resamples <= 0 || new Set(site.rateKgHa).size < 2) return null;
+  const drawn = (Object.keys(fits.fits) as ModelName[]).filter(
+    (m) => fits.fits[m].status !== 'too-few-rates',
+  );
+  return drawBootstrapEstimates(site, drawn, {
+    resamples: settings.resamples,
+    seed: bootstrapSeed(settings.seed, siteIndex),
+    blocks: fitted.blocks,
+  });
 }

@@ -7,7 +7,8 @@
  *                                 intervalLevel?: 0.9, siteModels?: {} })   // ANALYSIS_DEFAULTS
  *   result   = { settings, crop, table, plots: SitePlots[], findings: QualityFinding[],
  *                across: AcrossSiteAnalysis }   // sites carry anova, treatmentMeans and draws too
- * analyzeTrialSteps(table, settings)          // the same as a generator: one step per site
+ * analyzeTrialSteps(table, settings)          // the same as a generator: sites fitted, preview,
+ *                                             // sites resampled, draws (withDraws lays them in)
  * priceTrial(analysis, prices, picks, { shortfallTolerancePerHa?: null }): PricedTrial
  *   = { prices, shortfallTolerance { perHa, isDefault }, choices,
  *       across (rows, regional rate at these prices and picks),

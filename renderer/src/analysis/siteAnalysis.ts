@@ -14,7 +14,11 @@ import type {
   SiteAnalysis as PipelineSite,
 } from '../../../shared/analysis/analyzeAcrossSites';
 import type { AnalysisSettings } from '../../../shared/analysis/analysisSettings';
-import { analyzeTrialSteps, type TrialAnalysis } from '../../../shared/analysis/analyzeTrial';
+import {
+  analyzeTrialSteps,
+  type SiteResamples,
+  type TrialAnalysis,
+} from '../../../shared/analysis/analyzeTrial';
 import type { ModelRank } from '../../../shared/models/fitAllModels';
 import type { ModelName } from '../../../shared/models/modelTypes';
 import type { CommonResponseTests } from '../../../shared/analysis/commonResponseTests';
@@ -67,6 +71,13 @@ export interface AnalysisInput {
 /** The worker's result: the one analysis the screens and the report read. */
 export type AnalysisOutput = TrialAnalysis;
 
+/**
+ * What the worker sends before its result, in this order: the sites (the preview, their draws
+ * and the regional models pending), then every site's draws (withDraws lays them in).
+ */
+export type AnalysisPartial =
+  { kind: 'sites'; analysis: AnalysisOutput } | { kind: 'draws'; draws: SiteResamples };
+
 /** The common-response tests the all-sites step shows, or none with fewer than two sites. */
 export function poolingTests(analysis: AcrossSiteAnalysis): CommonResponseTests[] {
   return analysis.sites.length < 2
@@ -118,17 +129,18 @@ export function siteViews(output: AnalysisOutput): SiteAnalysis[] {
 
 /**
  * Analyzes every site, then the across-site step, reporting progress per site and handing on
- * the preview (every site's own result, the regional models pending) before the regional models
- * are fitted.
+ * what is done before the rest: the preview (every site's own result, the draws and the regional
+ * models pending) after the last site's fits, then the draws after the last site's resamples.
  * @param input - the plot table and the analysis settings
- * @param progress - awaited after each site (the worker yields there so a cancel can arrive)
- * @param preview - called once with the preview, after the last site
+ * @param progress - awaited after each site is fitted and again after it is resampled (the
+ *   worker yields there so a cancel can arrive)
+ * @param early - called with the preview, then with the draws (when there are resamples)
  * @returns the trial's analysis
  */
 export async function analyzeTable(
   input: AnalysisInput,
   progress: (done: number, total: number, note: string) => Promise<void>,
-  preview: (analysis: AnalysisOutput) => void = () => {},
+  early: (partial: AnalysisPartial) => void = () => {},
 ): Promise<AnalysisOutput> {
   const steps = analyzeTrialSteps(input.table, input.settings);
   for (;;) {
@@ -137,9 +149,15 @@ export async function analyzeTable(
     const s = step.value;
     if (s.kind === 'site') {
       await progress(s.done, s.total + 1, s.site);
+    } else if (s.kind === 'resampling') {
+      await progress(s.done, s.total + 1, `resampling ${s.site}`);
+    } else if (s.kind === 'preview') {
+      early({ kind: 'sites', analysis: s.analysis });
+      const sites = s.analysis.across.sites.length;
+      if (input.settings.resamples <= 0) await progress(sites, sites + 1, 'regional models');
     } else {
-      preview(s.analysis);
-      const sites = s.analysis.plots.length;
+      early({ kind: 'draws', draws: s.draws });
+      const sites = s.draws.length;
       await progress(sites, sites + 1, 'regional models');
     }
   }

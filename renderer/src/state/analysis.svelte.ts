@@ -6,6 +6,7 @@ import { illustrativePrices } from '../../../shared/economics/illustrativePrices
 import type { BlockTerms, ModelName } from '../../../shared/models/modelTypes';
 import type { PlotTable } from '../../../shared/table/plotTable';
 import {
+  withDraws,
   withRegionalModels,
   type TrialRegionalModels,
 } from '../../../shared/analysis/analyzeTrial';
@@ -14,6 +15,7 @@ import {
   poolingTests,
   siteViews,
   type AnalysisOutput,
+  type AnalysisPartial,
   type SiteAnalysis,
 } from '../analysis/siteAnalysis';
 import { JobFailedError } from '../lib/workerProtocol';
@@ -35,6 +37,11 @@ export class Analysis {
    * is exported from a preview.
    */
   regionalPending = $state(false);
+  /**
+   * True while `output` is the preview and the sites are still being resampled: the optima are
+   * in, their intervals and risks are not (the screens say so). Nothing is exported meanwhile.
+   */
+  drawsPending = $state(false);
   /** The table the current output was fitted to (identity), to skip refitting the same one. */
   #fittedTable: PlotTable | null = null;
   #fittedBlocks: BlockTerms | null = null;
@@ -101,6 +108,7 @@ export class Analysis {
     if (!table || table.plots.length === 0) {
       this.output = null;
       this.regionalPending = false;
+      this.drawsPending = false;
       return;
     }
     this.stopped = false;
@@ -111,29 +119,42 @@ export class Analysis {
         prices: priced.ok ? { ...priced.prices } : illustrativePrices(table.crop).canonical,
         blocks: this.blocks === 'fixed' ? 'auto' : 'none',
       });
-      // The sites are shown as soon as they are fitted (the preview), before the regional models:
-      // the regional models were most of the demo's across step (with the worker started first,
-      // its first optimum came at a median of 1.06 against 1.21–1.29 s in chromium).
+      // The sites are shown as soon as they are fitted (the preview), before their resamples and
+      // the regional models: the regional models were most of the demo's across step (with the
+      // worker started first, its first optimum came at a median of 1.06 against 1.21–1.29 s in
+      // chromium), and the resamples most of each site's time.
       let preview: AnalysisOutput | null = null;
-      const showPreview = (sites: AnalysisOutput) => {
-        preview = sites;
-        if (this.#fittedTable !== table) return;
-        this.output = sites;
-        this.regionalPending = true;
+      const showEarly = (partial: AnalysisPartial) => {
+        if (partial.kind === 'sites') {
+          preview = partial.analysis;
+          if (this.#fittedTable !== table) return;
+          this.output = preview;
+          this.regionalPending = true;
+          this.drawsPending = preview.settings.resamples > 0;
+        } else if (preview) {
+          preview = withDraws(preview, partial.draws);
+          if (this.#fittedTable !== table) return;
+          this.output = preview;
+          this.drawsPending = false;
+        }
       };
       // The table is plain data (every state it is derived from is $state.raw), so it goes to the
       // worker as it is: a $state.snapshot would clone it once more before postMessage clones it
       // (78 ms of the demo's first analysis in a trace of the production build).
-      const models = await this.#jobs.run<TrialRegionalModels, AnalysisOutput>(
+      const models = await this.#jobs.run<TrialRegionalModels, AnalysisPartial>(
         'Fitting sites',
         'analyze',
         { table, settings },
-        { onPartial: showPreview },
+        { onPartial: showEarly },
       );
-      // The worker sends the sites once, in the preview, and then what the preview left pending.
+      // The worker sends the sites once, in the preview, their draws once, and then what the
+      // preview left pending.
       if (models && !preview) throw new Error('the analysis finished without sending its sites');
       const output = models && preview ? withRegionalModels(preview, models) : null;
-      if (this.#fittedTable === table) this.regionalPending = false;
+      if (this.#fittedTable === table) {
+        this.regionalPending = false;
+        this.drawsPending = false;
+      }
       if (output && this.#fittedTable === table) this.output = output;
       if (!output && this.#fittedTable === table) {
         // Stopped from the status bar: forget the table so "Fit again" (or any change) refits it.
@@ -146,6 +167,7 @@ export class Analysis {
         // A preview whose regional models failed is not a result: show none rather than pending text.
         this.output = null;
         this.regionalPending = false;
+        this.drawsPending = false;
       }
       const detail = error instanceof JobFailedError ? error.message : String(error);
       this.#messages.add('error', 'The fits could not be completed', detail);

@@ -75,7 +75,8 @@ export class Report {
     const ws = this.#ws;
     const analysis = ws.analysis.output;
     const priced = ws.analysis.priced;
-    if (!analysis || !priced || ws.analysis.regionalPending) return null;
+    if (!analysis || !priced || ws.analysis.regionalPending || ws.analysis.drawsPending)
+      return null;
     const display = {
       ...reportDisplay(
         ws.prices.settings,

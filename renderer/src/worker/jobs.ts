@@ -38,10 +38,11 @@ export async function readFiles(files: TrialFileBytes[], ctx: JobContext): Promi
 }
 
 /**
- * The one analysis run (analyzeTrialSteps): fits, tests and bootstrap draws per site, the
- * preview sent to the window (ctx.partial), then the rest of the across-site step, of which only
- * the parts the preview left pending are returned: the window completes the preview it holds
- * (withRegionalModels), so a large trial's sites are cloned across once, not twice.
+ * The one analysis run (analyzeTrialSteps): fits and tests per site, the preview sent to the
+ * window (ctx.partial), then the sites' bootstrap draws sent the same way, then the rest of the
+ * across-site step, of which only the parts the preview left pending are returned: the window
+ * completes the preview it holds (withDraws, withRegionalModels), so a large trial's sites are
+ * cloned across once.
  * @param input - plot table and analysis settings
  * @param ctx - progress per site, and cancel
  * @returns the regional models, group comparisons and level mixed models (plain data)
@@ -50,7 +51,7 @@ export async function analyze(input: AnalysisInput, ctx: JobContext): Promise<Tr
   const whole = await analyzeTable(
     input,
     (done, total, note) => ctx.progress(done, total, note),
-    (preview) => ctx.partial(preview),
+    (partial) => ctx.partial(partial),
   );
   return regionalModelsOf(whole);
 }
