@@ -108,8 +108,11 @@ export async function run(): Promise<void> {
     await page
       .getByTestId(`optimum-Site ${String(SITES).padStart(4, '0')}`)
       .waitFor({ timeout: 300_000 });
-    console.log(`read, mapped and fitted ${SITES} sites in the worker: ${Date.now() - t0} ms`);
+    console.log(
+      `read, mapped and fitted ${SITES} sites in the worker, the last one's optimum shown: ${Date.now() - t0} ms`,
+    );
     await page.getByText('Ready').waitFor({ timeout: 600_000 });
+    console.log(`… and resampled, with the regional models (Ready): ${Date.now() - t0} ms`);
 
     // The prices step has no chart: time to the re-priced table of the optima.
     const tableTimes = await page.evaluate(async (repeats) => {
