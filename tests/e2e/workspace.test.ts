@@ -63,6 +63,49 @@ describe('the workspace in chromium', () => {
     expect(session.pageErrors.map((e) => e.slice(0, 300))).toEqual([]);
   });
 
+  it('moves the optimum’s marker and band within the plot when the price changes', async () => {
+    const { page } = session;
+    // The plot area's left and right edges, and each shape's left and right ends, in pixels.
+    const geometry = () =>
+      page.evaluate(() => {
+        const gd = document.querySelector('[data-testid="chart"]')!;
+        // The main subplot's drag rectangle covers its plot area.
+        const bg = gd.querySelector('.draglayer .xy .nsewdrag')!.getBoundingClientRect();
+        const shapes = [...gd.querySelectorAll('.shapelayer path')].map((p) => {
+          const r = p.getBoundingClientRect();
+          return [Math.round(r.left), Math.round(r.right)];
+        });
+        return { plot: [Math.round(bg.left), Math.round(bg.right)], shapes };
+      });
+    // The band arrives with the draws, after the optimum's line.
+    await expect
+      .poll(() => page.locator('[data-testid="chart"] .shapelayer path').count(), {
+        timeout: 60_000,
+      })
+      .toBeGreaterThanOrEqual(2);
+    const before = await geometry();
+    const optimum = await page.getByTestId('site-optimum').textContent();
+    const price = page.getByTestId('product-price');
+    const was = await price.inputValue();
+    await price.fill((Number(was) * 2).toFixed(2));
+    await expect.poll(() => page.getByTestId('site-optimum').textContent()).not.toBe(optimum);
+    await expect
+      .poll(async () => JSON.stringify((await geometry()).shapes))
+      .not.toBe(JSON.stringify(before.shapes));
+    // A dearer N moves the optimum down, and every shape stays on the plot (a redraw against
+    // stale axes once put them thousands of pixels to the right).
+    const after = await geometry();
+    expect(after.shapes.length).toBeGreaterThanOrEqual(2);
+    for (const [left, right] of after.shapes) {
+      expect(left).toBeGreaterThanOrEqual(after.plot[0] - 1);
+      expect(right).toBeLessThanOrEqual(after.plot[1] + 1);
+    }
+    expect(Math.max(...after.shapes.map((s) => s[1]))).toBeLessThan(
+      Math.max(...before.shapes.map((s) => s[1])),
+    );
+    expect(session.pageErrors.map((e) => e.slice(0, 300))).toEqual([]);
+  });
+
   it('analyses a two-crop workbook one crop at a time, with a picker that switches and switches back', async () => {
     const { page } = session;
     // The demo workbook has corn sheets and two wheat sheets (the invented Skellwater sites).

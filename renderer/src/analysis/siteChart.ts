@@ -10,6 +10,7 @@ import type { ChartLayer, ChartSpec, PointLayer } from '../../../shared/report/c
 import type { CropId, Plot } from '../../../shared/table/plotTable';
 import { nutrientRateUnit, rateFromKgHa, type RateUnit } from '../../../shared/units/convertRate';
 import { yieldFromKgHa, type YieldUnit } from '../../../shared/units/convertYield';
+import { sharedRanges } from '../lib/sharedAxes';
 import type { SiteAnalysis } from './siteAnalysis';
 
 /** Units and crop a chart is drawn in. */
@@ -21,7 +22,72 @@ export interface ChartUnits {
   currency: string;
 }
 
+/**
+ * The arrays a chart draws that do not depend on prices (curves, plots, residuals), kept per
+ * source array and units: Plotly.react recomputes a figure whose data arrays are new objects, so a
+ * price change that rebuilt them redrew every trace (about 45 ms of the one-site step at 500
+ * sites), where now only the optimum's marker and band, layout shapes, move.
+ */
+const keptArrays = new WeakMap<object, Map<string, unknown>>();
+function kept<T>(source: object, key: string, make: () => T): T {
+  let bySource = keptArrays.get(source);
+  if (!bySource) keptArrays.set(source, (bySource = new Map()));
+  if (!bySource.has(key)) bySource.set(key, make());
+  return bySource.get(key) as T;
+}
+
+/** The units of a chart as one key (kept arrays are per units). */
+function unitsKey(units: ChartUnits): string {
+  return `${units.rate}|${units.yield}|${units.crop}`;
+}
+
+/**
+ * The panels' axis ranges, set from the curves and plots instead of left to Plotly's autorange:
+ * with the data arrays kept, a price change reaches Plotly as a change of layout alone, and
+ * Plotly then redraws the shapes without recomputing the autorange, against axes of its default
+ * range (the optimum's marker and band were drawn thousands of pixels off the plot). x runs from
+ * 0 (or the lowest rate) to the highest with 4 % room each side, y as sharedRanges makes it (5 %
+ * room); the panels share the x range, as they share the axis.
+ */
+function withRanges(panels: ChartSpec['panels']): ChartSpec['panels'] {
+  const drawn = (panel: ChartSpec['panels'][number]) =>
+    panel.layers.flatMap((l) => (l.kind === 'curve' || l.kind === 'points' ? [l] : []));
+  const all = sharedRanges([panels.flatMap(drawn)]);
+  if (!all) return panels;
+  const room = 0.04 * Math.max(all.x[1] - all.x[0], 1e-9);
+  const x = { min: all.x[0] - room, max: all.x[1] + room };
+  return panels.map((panel) => {
+    const y = sharedRanges([drawn(panel)])?.y;
+    return {
+      ...panel,
+      x: { ...panel.x, ...x },
+      y: y ? { ...panel.y, min: y[0], max: y[1] } : panel.y,
+    };
+  });
+}
+
+/** A curve's rates in display units (kept). */
+function curveX(rates: Float64Array, units: ChartUnits): number[] {
+  return kept(rates, unitsKey(units), () => Array.from(rates, (v) => rateFromKgHa(v, units.rate)));
+}
+
+/** A curve's yields in display units (kept). */
+function curveY(yields: Float64Array, units: ChartUnits): number[] {
+  return kept(yields, unitsKey(units), () =>
+    Array.from(yields, (v) => yieldFromKgHa(v, units.yield, units.crop)),
+  );
+}
+
 function blockPoints(
+  plots: SiteAnalysis['plots'],
+  y: ArrayLike<number>,
+  units: ChartUnits,
+  yConvert: (v: number) => number,
+): PointLayer[] {
+  return kept(y, `points|${unitsKey(units)}`, () => makeBlockPoints(plots, y, units, yConvert));
+}
+
+function makeBlockPoints(
   plots: SiteAnalysis['plots'],
   y: ArrayLike<number>,
   units: ChartUnits,
@@ -84,8 +150,8 @@ export function siteChartSpec(
       name: modelLabel(model),
       model,
       role: 'alternative',
-      x: Array.from(fit.curve.rateKgHa, r),
-      y: Array.from(fit.curve.yieldKgHa, yv),
+      x: curveX(fit.curve.rateKgHa, units),
+      y: curveY(fit.curve.yieldKgHa, units),
     });
   }
   const lead = leading ? site.fits[leading] : undefined;
@@ -95,8 +161,8 @@ export function siteChartSpec(
       name: leadingModelLabel(leading),
       model: leading,
       role: 'chosen',
-      x: Array.from(lead.curve.rateKgHa, r),
-      y: Array.from(lead.curve.yieldKgHa, yv),
+      x: curveX(lead.curve.rateKgHa, units),
+      y: curveY(lead.curve.yieldKgHa, units),
     });
   }
   response.push(...blockPoints(site.plots, site.plots.yieldKgHa, units, yv));
@@ -164,7 +230,7 @@ export function siteChartSpec(
     subtitle: leading ? `Leading model: ${modelLabel(leading)}` : 'No model could be fitted',
     widthPx: 900,
     heightPx: 560,
-    panels,
+    panels: withRanges(panels),
     note: '',
   };
 }
@@ -188,8 +254,8 @@ export function sitesOverlaySpec(
       name: `${site.site} (${modelLabel(model!)})`,
       model,
       role: 'alternative',
-      x: Array.from(fit.curve.rateKgHa, (v) => rateFromKgHa(v, units.rate)),
-      y: Array.from(fit.curve.yieldKgHa, (v) => yieldFromKgHa(v, units.yield, units.crop)),
+      x: curveX(fit.curve.rateKgHa, units),
+      y: curveY(fit.curve.yieldKgHa, units),
     });
   }
   return {

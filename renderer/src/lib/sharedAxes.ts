@@ -18,7 +18,9 @@ export interface AxisRanges {
  * sharedRanges([[{ x: [0, 100], y: [6, 9] }], [{ x: [0, 200], y: [7, 12] }]])
  * // { x: [0, 200], y: [5.7, 12.3] }
  */
-export function sharedRanges(charts: readonly (readonly PlotlyData[])[]): AxisRanges | null {
+export function sharedRanges(
+  charts: readonly (readonly Pick<PlotlyData, 'x' | 'y'>[])[],
+): AxisRanges | null {
   let x1 = -Infinity;
   let y0 = Infinity;
   let y1 = -Infinity;
