@@ -2,7 +2,6 @@
  * One x range and one y range for charts shown side by side, so the eye compares sites, not
  * axes: a site that stopped at a lower rate or yields less shows it by where its curve sits.
  */
-import type { PlotlyData } from 'plotly.js-dist-min';
 
 export interface AxisRanges {
   x: [number, number];
@@ -19,7 +18,7 @@ export interface AxisRanges {
  * // { x: [0, 200], y: [5.7, 12.3] }
  */
 export function sharedRanges(
-  charts: readonly (readonly Pick<PlotlyData, 'x' | 'y'>[])[],
+  charts: readonly (readonly { x?: unknown; y?: unknown }[])[],
 ): AxisRanges | null {
   let x1 = -Infinity;
   let y0 = Infinity;
