@@ -49,7 +49,12 @@ describe('renderer analysis and re-pricing', () => {
     expect(sites.map((s) => s.site)).toEqual(['Site 0001', 'Site 0002', 'Site 0003']);
     // One note per site, then the regional models, fitted after the preview went to the window
     // (no resamples here, so no draws follow it).
-    expect(seen).toEqual(['Site 0001', 'Site 0002', 'Site 0003', 'regional models']);
+    expect(seen).toEqual([
+      'fitting Site 0001',
+      'fitting Site 0002',
+      'fitting Site 0003',
+      'regional models',
+    ]);
     expect(previews.map((p) => p.kind)).toEqual(['sites']);
     expect(siteViews((previews[0] as { analysis: AnalysisOutput }).analysis)).toEqual(sites);
     // The same analysis as the one-call form with the same options.

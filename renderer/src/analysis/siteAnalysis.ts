@@ -148,7 +148,7 @@ export async function analyzeTable(
     if (step.done) return step.value;
     const s = step.value;
     if (s.kind === 'site') {
-      await progress(s.done, s.total + 1, s.site);
+      await progress(s.done, s.total + 1, `fitting ${s.site}`);
     } else if (s.kind === 'resampling') {
       await progress(s.done, s.total + 1, `resampling ${s.site}`);
     } else if (s.kind === 'preview') {

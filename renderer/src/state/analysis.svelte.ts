@@ -142,7 +142,7 @@ export class Analysis {
       // worker as it is: a $state.snapshot would clone it once more before postMessage clones it
       // (78 ms of the demo's first analysis in a trace of the production build).
       const models = await this.#jobs.run<TrialRegionalModels, AnalysisPartial>(
-        'Fitting sites',
+        'Analyzing sites',
         'analyze',
         { table, settings },
         { onPartial: showEarly },

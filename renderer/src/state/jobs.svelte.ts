@@ -22,7 +22,7 @@ export class Jobs {
 
   /**
    * Runs a job, cancelling the one still running in the same lane.
-   * @param label - what the status bar says, e.g. "Fitting sites"
+   * @param label - what the status bar says, e.g. "Analyzing sites"
    * @param kind - the worker's job name
    * @param input - structured-cloneable input
    * @param options - lane: jobs in one lane replace each other (the kind unless told);
