@@ -1,9 +1,10 @@
 // Browser bench: the first analysis of the demo (navigation start to the frame after its first
 // site's optimum is on the page, timed inside the page: a wait from outside polls a main thread
-// that is busy drawing, and read 0.3–0.5 s late), then with 50 fitted sites (PLOTRATE_BENCH_SITES=500 for more) the time from a price
-// change to the redrawn optimum and charts, in headless chromium against the built renderer.
-// Measured inside the page: from dispatching the price field's input event to
-// the frame after every chart on screen has finished Plotly's redraw.
+// that is busy drawing, and read 0.3–0.5 s late), then with 50 fitted sites
+// (PLOTRATE_BENCH_SITES=500 for more) the time from a price change to the redrawn optimum and
+// charts, in headless chromium against the built renderer. Measured inside the page: from
+// dispatching the price field's input event to the frame after every chart on screen has
+// finished Plotly's redraw.
 import { mkdtemp, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import path from 'node:path';

@@ -46,7 +46,7 @@ function unitsKey(units: ChartUnits): string {
  * with the data arrays kept, a price change reaches Plotly as a change of layout alone, and
  * Plotly then redraws the shapes without recomputing the autorange, against axes of its default
  * range (the optimum's marker and band were drawn thousands of pixels off the plot). x runs from
- * 0 (or the lowest rate) to the highest with 4 % room each side, y as sharedRanges makes it (5 %
+ * 0 to the highest rate (sharedRanges) with 4 % room each side, y as sharedRanges makes it (5 %
  * room); the panels share the x range, as they share the axis.
  */
 function withRanges(panels: ChartSpec['panels']): ChartSpec['panels'] {
