@@ -61,7 +61,8 @@ describe('the one-site chart across price changes', () => {
     for (const trace of dear.data) {
       for (const x of trace.x as number[]) expect(x >= x0 && x <= x1).toBe(true);
     }
-    // Other units: new arrays, converted (1 kg/ha = 0.892 lb/ac).
+    // Other units: new arrays, converted. 1 kg/ha = 0.892179 lb/ac from the exact definitions
+    // 1 lb = 0.45359237 kg and 1 acre = 4,046.8564224 m² (NIST SP 811, 2008, Appendix B).
     const inUs = chart(0.8, us);
     expect(inUs.data[0].x).not.toBe(cheap.data[0].x);
     const last = (cheap.data[0].x as number[]).at(-1)!;
