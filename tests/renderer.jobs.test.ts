@@ -3,7 +3,7 @@ import { syntheticCsv } from '../shared/demo/syntheticTrial';
 import type { JobContext } from '../renderer/src/lib/workerProtocol';
 import { readFiles } from '../renderer/src/worker/jobs';
 
-const ctx: JobContext = { cancelled: false, progress: async () => {}, partial: () => {} };
+const ctx: JobContext = { cancelled: false, progress: async () => {}, partial: async () => {} };
 
 describe('worker job readFiles', () => {
   it('reads good files and turns a bad one into a message naming it, in the given order', async () => {

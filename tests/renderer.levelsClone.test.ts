@@ -31,7 +31,9 @@ describe('the worker’s analysis of a rate × timing trial', () => {
     const ctx = {
       progress: async () => {},
       cancelled: false,
-      partial: (partial: unknown) => partials.push(structuredClone(partial) as AnalysisPartial),
+      partial: async (partial: unknown) => {
+        partials.push(structuredClone(partial) as AnalysisPartial);
+      },
     };
     const models = (await jobHandlers.analyze(
       { table, settings } as never,

@@ -43,7 +43,9 @@ describe('renderer analysis and re-pricing', () => {
       async (_d, _t, note) => {
         seen.push(note);
       },
-      (partial) => previews.push(partial),
+      (partial) => {
+        previews.push(partial);
+      },
     );
     const sites = siteViews(out);
     expect(sites.map((s) => s.site)).toEqual(['Site 0001', 'Site 0002', 'Site 0003']);

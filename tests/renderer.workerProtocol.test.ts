@@ -9,10 +9,10 @@ import {
 
 // A MessageChannel stands in for the worker: same structured clone, same event loop hops.
 const channels: MessageChannel[] = [];
-function connect(handlers: Parameters<typeof serveJobs>[1]): JobClient {
+function connect(handlers: Parameters<typeof serveJobs>[1], shownWaitMs?: number): JobClient {
   const channel = new MessageChannel();
   channels.push(channel);
-  serveJobs(channel.port2 as unknown as Parameters<typeof serveJobs>[0], handlers);
+  serveJobs(channel.port2 as unknown as Parameters<typeof serveJobs>[0], handlers, shownWaitMs);
   const client = new JobClient(channel.port1 as unknown as Parameters<typeof serveJobs>[0]);
   channel.port1.start();
   channel.port2.start();
@@ -116,6 +116,44 @@ describe('worker protocol', () => {
     await expect(cancelled.result).rejects.toBeInstanceOf(JobCancelledError);
     await new Promise((resolve) => setTimeout(resolve, 50));
     expect(late).toEqual([]);
+  });
+
+  it('a job awaiting its early output goes on once the window has taken it', async () => {
+    const order: string[] = [];
+    const waits = async (_input: unknown, ctx: JobContext) => {
+      await ctx.partial('preview');
+      order.push('job goes on');
+      return 'done';
+    };
+    // A wait far beyond the test's own timeout: only the window's answer lets the job finish.
+    const client = connect({ waits: waits as never }, 3_600_000);
+    const job = client.run<string>('waits', null, { onPartial: () => order.push('window drew') });
+    await expect(job.result).resolves.toBe('done');
+    expect(order).toEqual(['window drew', 'job goes on']);
+  });
+
+  it('a window that never says it drew an early output holds the job for the cap only', async () => {
+    // A window that answers nothing (a tab in the background gets no frames).
+    const channel = new MessageChannel();
+    channels.push(channel);
+    const waits = async (_input: unknown, ctx: JobContext) => {
+      await ctx.partial('preview');
+      return 'done';
+    };
+    serveJobs(
+      channel.port2 as unknown as Parameters<typeof serveJobs>[0],
+      { waits: waits as never },
+      20,
+    );
+    const result = new Promise<unknown>((resolve) =>
+      channel.port1.addEventListener('message', (event: MessageEvent) => {
+        if (event.data.type === 'result') resolve(event.data.output);
+      }),
+    );
+    channel.port1.start();
+    channel.port2.start();
+    channel.port1.postMessage({ type: 'run', id: 1, kind: 'waits', input: null });
+    await expect(result).resolves.toBe('done');
   });
 
   it('two jobs in flight each get their own answer', async () => {

@@ -134,13 +134,16 @@ export function siteViews(output: AnalysisOutput): SiteAnalysis[] {
  * @param input - the plot table and the analysis settings
  * @param progress - awaited after each site is fitted and again after it is resampled (the
  *   worker yields there so a cancel can arrive)
- * @param early - called with the preview, then with the draws (when there are resamples)
+ * @param early - called with the preview, then with the draws (when there are resamples); the
+ *   preview's promise is awaited before the resamples are drawn, so the window draws the sites
+ *   without the resampling taking the cores (on two cores it delayed the demo's first optimum
+ *   by about 0.1 s)
  * @returns the trial's analysis
  */
 export async function analyzeTable(
   input: AnalysisInput,
   progress: (done: number, total: number, note: string) => Promise<void>,
-  early: (partial: AnalysisPartial) => void = () => {},
+  early: (partial: AnalysisPartial) => void | Promise<void> = () => {},
 ): Promise<AnalysisOutput> {
   const steps = analyzeTrialSteps(input.table, input.settings);
   for (;;) {
@@ -152,11 +155,11 @@ export async function analyzeTable(
     } else if (s.kind === 'resampling') {
       await progress(s.done, s.total + 1, `resampling ${s.site}`);
     } else if (s.kind === 'preview') {
-      early({ kind: 'sites', analysis: s.analysis });
+      await early({ kind: 'sites', analysis: s.analysis });
       const sites = s.analysis.across.sites.length;
       if (input.settings.resamples <= 0) await progress(sites, sites + 1, 'regional models');
     } else {
-      early({ kind: 'draws', draws: s.draws });
+      void early({ kind: 'draws', draws: s.draws });
       const sites = s.draws.length;
       await progress(sites, sites + 1, 'regional models');
     }

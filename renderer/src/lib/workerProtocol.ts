@@ -10,12 +10,15 @@
 
 /** Window → worker. */
 export type ToWorker =
-  { type: 'run'; id: number; kind: string; input: unknown } | { type: 'cancel'; id: number };
+  | { type: 'run'; id: number; kind: string; input: unknown }
+  | { type: 'cancel'; id: number }
+  /** The window has drawn the job's early output number `seq` (JobContext.partial). */
+  | { type: 'shown'; id: number; seq: number };
 
 /** Worker → window. */
 export type FromWorker =
   | { type: 'progress'; id: number; done: number; total: number; note: string }
-  | { type: 'partial'; id: number; output: unknown }
+  | { type: 'partial'; id: number; seq: number; output: unknown }
   | { type: 'result'; id: number; output: unknown }
   | { type: 'error'; id: number; message: string }
   | { type: 'cancelled'; id: number };
@@ -27,8 +30,11 @@ export interface JobContext {
   /**
    * Sends an early, incomplete output the window can show while the job goes on (the analysis
    * sends its sites before the regional models); the job's result still follows.
+   * @returns settles once the window has drawn it (the frame after it arrived), or after
+   *   SHOWN_WAIT_MS, or on a cancel: a job that awaits it leaves the cores to the window's first
+   *   drawing of what it sent
    */
-  partial(output: unknown): void;
+  partial(output: unknown): Promise<void>;
   /** True once the window asked to cancel this job. */
   readonly cancelled: boolean;
 }
@@ -59,6 +65,12 @@ export class JobFailedError extends Error {
   }
 }
 
+/**
+ * Longest a job waits for the window to say an early output is drawn. A window in a background
+ * tab gets no animation frames, so it may never say; the job then goes on.
+ */
+export const SHOWN_WAIT_MS = 500;
+
 /** Signals from inside a handler that it stopped because of a cancel. */
 class StopJob extends Error {}
 
@@ -84,15 +96,28 @@ function nextTask(): Promise<void> {
  * Serves jobs on the worker side of a port.
  * @param port - the worker's global scope (self) or a MessagePort
  * @param handlers - job kind → handler
+ * @param shownWaitMs - longest wait for the window to draw an early output (tests shorten it)
  * @example
  * serveJobs(self, { fitSites: (input, ctx) => fitAll(input, ctx) });
  */
-export function serveJobs(port: Port, handlers: Record<string, JobHandler>): void {
+export function serveJobs(
+  port: Port,
+  handlers: Record<string, JobHandler>,
+  shownWaitMs: number = SHOWN_WAIT_MS,
+): void {
   const cancelled = new Set<number>();
+  /** Per job, its latest early output's number and what settles the wait for it to be drawn. */
+  const shown = new Map<number, { seq: number; settle: () => void }>();
   port.addEventListener('message', (event: MessageEvent) => {
     const message = event.data as ToWorker;
     if (message.type === 'cancel') {
       cancelled.add(message.id);
+      shown.get(message.id)?.settle();
+      return;
+    }
+    if (message.type === 'shown') {
+      const waiting = shown.get(message.id);
+      if (waiting?.seq === message.seq) waiting.settle();
       return;
     }
     if (message.type !== 'run') return;
@@ -102,6 +127,7 @@ export function serveJobs(port: Port, handlers: Record<string, JobHandler>): voi
       port.postMessage({ type: 'error', id, message: `no job called "${kind}"` });
       return;
     }
+    let partials = 0;
     const ctx: JobContext = {
       get cancelled() {
         return cancelled.has(id);
@@ -113,8 +139,19 @@ export function serveJobs(port: Port, handlers: Record<string, JobHandler>): voi
         if (cancelled.has(id)) throw new StopJob();
       },
       partial(output) {
-        if (!cancelled.has(id))
-          port.postMessage({ type: 'partial', id, output } satisfies FromWorker);
+        if (cancelled.has(id)) return Promise.resolve();
+        const seq = ++partials;
+        shown.get(id)?.settle();
+        port.postMessage({ type: 'partial', id, seq, output } satisfies FromWorker);
+        return new Promise<void>((resolve) => {
+          const timer = setTimeout(settle, shownWaitMs);
+          function settle(): void {
+            clearTimeout(timer);
+            if (shown.get(id)?.seq === seq) shown.delete(id);
+            resolve();
+          }
+          shown.set(id, { seq, settle });
+        });
       },
     };
     Promise.resolve()
@@ -133,7 +170,10 @@ export function serveJobs(port: Port, handlers: Record<string, JobHandler>): voi
           }
         },
       )
-      .finally(() => cancelled.delete(id));
+      .finally(() => {
+        cancelled.delete(id);
+        shown.get(id)?.settle();
+      });
   });
 }
 
@@ -160,6 +200,17 @@ export interface JobListeners<P = unknown> {
   onProgress?: (done: number, total: number, note: string) => void;
   /** Called with each early, incomplete output (JobContext.partial). */
   onPartial?: (output: P) => void;
+}
+
+/**
+ * Runs a callback once the next frame is drawn: a task queued from an animation-frame callback
+ * runs after that frame's style, layout and paint. Where there are no frames (node, tests) it
+ * runs on the next task.
+ */
+function afterNextFrame(callback: () => void): void {
+  const later = () => setTimeout(callback, 0);
+  if (typeof requestAnimationFrame === 'function') requestAnimationFrame(later);
+  else later();
 }
 
 /** The window's side: starts jobs, routes progress, cancels. */
@@ -224,6 +275,13 @@ export class JobClient {
         return;
       case 'partial':
         pending.onPartial?.(message.output);
+        afterNextFrame(() =>
+          this.#port.postMessage({
+            type: 'shown',
+            id: message.id,
+            seq: message.seq,
+          } satisfies ToWorker),
+        );
         return;
       case 'result':
         this.#pending.delete(message.id);

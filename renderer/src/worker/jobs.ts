@@ -39,10 +39,10 @@ export async function readFiles(files: TrialFileBytes[], ctx: JobContext): Promi
 
 /**
  * The one analysis run (analyzeTrialSteps): fits and tests per site, the preview sent to the
- * window (ctx.partial), then the sites' bootstrap draws sent the same way, then the rest of the
- * across-site step, of which only the parts the preview left pending are returned: the window
- * completes the preview it holds (withDraws, withRegionalModels), so a large trial's sites are
- * cloned across once.
+ * window (ctx.partial), then, once the window has drawn it, the sites' bootstrap draws sent the
+ * same way, then the rest of the across-site step, of which only the parts the preview left
+ * pending are returned: the window completes the preview it holds (withDraws,
+ * withRegionalModels), so a large trial's sites are cloned across once.
  * @param input - plot table and analysis settings
  * @param ctx - progress per site, and cancel
  * @returns the regional models, group comparisons and level mixed models (plain data)
