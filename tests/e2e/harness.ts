@@ -26,16 +26,43 @@ const contentTypes: Record<string, string> = {
 /**
  * Builds the renderer into a fresh temporary folder (never dist/, which other
  * work may be using at the same time).
+ * @param minify - minify as the production build does (default false: readable stack traces)
  * @returns the folder holding index.html
  */
-export async function buildRenderer(): Promise<string> {
+export async function buildRenderer(minify = false): Promise<string> {
   const outDir = await mkdtemp(path.join(tmpdir(), 'plotrate-e2e-build-'));
   await build({
     configFile: path.join(root, 'vite.config.ts'),
     logLevel: 'warn',
-    build: { outDir, emptyOutDir: true, minify: false, reportCompressedSize: false },
+    build: { outDir, emptyOutDir: true, minify, reportCompressedSize: false },
   });
   return outDir;
+}
+
+/**
+ * Starts Debian's chromium headless on its own profile folder, with the flags every browser run
+ * here uses (no sandbox, GPU, network services or first-run pages).
+ * @param userDataDir - a fresh folder for the profile
+ * @returns the browser context (a persistent context is playwright's way to set --user-data-dir)
+ */
+export function launchChromium(userDataDir: string): Promise<BrowserContext> {
+  return chromium.launchPersistentContext(userDataDir, {
+    executablePath: '/usr/bin/chromium',
+    headless: true,
+    args: [
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--no-first-run',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+    ],
+    viewport: { width: 1360, height: 900 },
+    locale: 'en-US',
+    timezoneId: 'UTC',
+    acceptDownloads: true,
+  });
 }
 
 /**
@@ -90,24 +117,7 @@ export async function openSession(): Promise<Session> {
   const dist = await buildRenderer();
   const { server, url } = await serveStatic(dist);
   const userDataDir = await mkdtemp(path.join(tmpdir(), 'plotrate-e2e-profile-'));
-  // A persistent context is playwright's way to give chromium its own fresh --user-data-dir.
-  const context = await chromium.launchPersistentContext(userDataDir, {
-    executablePath: '/usr/bin/chromium',
-    headless: true,
-    args: [
-      '--no-sandbox',
-      '--disable-gpu',
-      '--disable-quic',
-      '--no-first-run',
-      '--disable-background-networking',
-      '--disable-component-update',
-      '--disable-sync',
-    ],
-    viewport: { width: 1360, height: 900 },
-    locale: 'en-US',
-    timezoneId: 'UTC',
-    acceptDownloads: true,
-  });
+  const context = await launchChromium(userDataDir);
   const page = context.pages()[0] ?? (await context.newPage());
   const pageErrors: string[] = [];
   page.on('pageerror', (error) => pageErrors.push(error.message));
