@@ -82,6 +82,10 @@ function axisLayout(axis: ChartAxis, extra: Record<string, unknown>): Record<str
     zeroline: axis.zeroLine ?? false,
     zerolinecolor: chartPalette.axis,
     automargin: true,
+    // Plotly's default hides a tick label that overflows the figure, which it finds by measuring
+    // every label (a forced layout each); automargin already makes room for them. On the all-sites
+    // step at 500 sites the measuring was about 9 ms of each price change's redraw.
+    ticklabeloverflow: 'allow',
     ...(range ? { range } : {}),
     ...extra,
   };
