@@ -15,9 +15,10 @@ import path from 'node:path';
 import { writeFilesAtomic, type PendingOutput } from '../electron/atomicWrite';
 import { readCappedFile } from '../electron/readCappedFile';
 import { collectGarbage } from './collectGarbage';
+import { drawOnThreads, drawThreads, drawWorkerBuilt } from './drawPool';
 import { OpenFileError } from '../electron/shellErrors';
 import { analysisSettings } from '../shared/analysis/analysisSettings';
-import { analyzeTrial } from '../shared/analysis/analyzeTrial';
+import { analyzeTrial, analyzeTrialDrawnBy } from '../shared/analysis/analyzeTrial';
 import { priceTrial } from '../shared/analysis/priceTrial';
 import { illustrativePrices } from '../shared/economics/illustrativePrices';
 import { priceTerms, quotePrices, type PriceInput } from '../shared/economics/priceQuote';
@@ -502,10 +503,19 @@ async function analyzedReport(
   const chartsNote = args.out || args.pdf ? siteChartsNote(siteCount, args.siteChartLimit) : null;
   if (chartsNote) log.err(`plotrate: ${chartsNote}`);
   const step = Math.max(1, Math.ceil(siteCount / 10));
-  const analysis = analyzeTrial(imported.table, settings, (done, total, stage) => {
-    if (total >= 20 && (done % step === 0 || done === total))
-      log.err(`plotrate: ${stage} ${done}/${total} sites`);
-  });
+  // Progress each tenth of the sites (the threads' batches can pass a tenth without landing on it).
+  const said = { fitted: 0, resampled: 0 };
+  const progress = (done: number, total: number, stage: 'fitted' | 'resampled') => {
+    if (total < 20 || (Math.floor(done / step) === said[stage] && done !== total)) return;
+    said[stage] = Math.floor(done / step);
+    log.err(`plotrate: ${stage} ${done}/${total} sites`);
+  };
+  const threads = args.boot > 0 && drawWorkerBuilt() ? drawThreads(args.threads, siteCount) : 1;
+  if (threads > 1) log.err(`plotrate: drawing the resamples on ${threads} threads`);
+  const analysis =
+    threads > 1
+      ? await analyzeTrialDrawnBy(imported.table, settings, drawOnThreads(threads), progress)
+      : analyzeTrial(imported.table, settings, progress);
   // Data findings do not stop the run, but each names its file, sheet and cell so it can be fixed.
   const serious = [...imported.findings, ...analysis.findings].filter((f) => f.severity !== 'info');
   for (const f of serious.slice(0, 10)) {

@@ -2,6 +2,7 @@
  * The text of `plotrate --help`, with the same cautions the reports carry.
  */
 import { recommendationCautions } from '../shared/economics/recommendationCautions';
+import { THREADS_FROM_SITES } from './drawPool';
 import { SITE_CHART_LIMIT } from './parseArgs';
 
 /**
@@ -44,6 +45,8 @@ Options for analyze
                          (default 200; 0 for none)
   --seed N               bootstrap seed (default 1): the same seed gives the
                          same interval
+  --threads N            threads that draw the resamples (default: one per
+                         core from ${THREADS_FROM_SITES} sites); any number gives the same results
   --blocks none|fixed    block offsets in the curves (default fixed: wherever
                          every plot of a site has a block label)
   --shortfall-tolerance N

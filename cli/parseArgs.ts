@@ -41,6 +41,8 @@ export interface AnalyzeArgs {
   productPrice: number | null;
   boot: number;
   seed: number;
+  /** Threads that draw the resamples; null: one per core once a run has many sites. */
+  threads: number | null;
   blocks: 'none' | 'fixed';
   map: RoleOverride[];
   /**
@@ -96,6 +98,7 @@ export function analyzeDefaults(files: string[] = []): AnalyzeArgs {
     productPrice: null,
     boot: ANALYSIS_DEFAULTS.resamples,
     seed: ANALYSIS_DEFAULTS.seed,
+    threads: null,
     blocks: 'fixed',
     map: [],
     levelPrices: {},
@@ -234,6 +237,14 @@ export function parseArgs(argv: readonly string[]): Command {
           rest[++i],
           (v) => Number.isInteger(v) && v >= 0 && v <= 4294967295,
           'a whole number from 0 to 4294967295',
+        );
+        break;
+      case '--threads':
+        a.threads = number(
+          w,
+          rest[++i],
+          (v) => Number.isInteger(v) && v >= 1 && v <= 256,
+          'a whole number from 1 to 256',
         );
         break;
       case '--shortfall-tolerance':

@@ -12,8 +12,8 @@
 // every analysis; bundled, they are one more part of the analysis' chunk. Code splitting keeps each dynamic import() of a heavy output module
 // (workbook, PDF, charts) in its own chunk, so its packages load only when
 // that output is asked for; without splitting esbuild would hoist their
-// imports to the top of the one file. The chart worker is a second entry
-// point beside the chunks, where chartPng.ts looks for it.
+// imports to the top of the one file. The chart and resampling workers are
+// entry points beside the chunks, where chartPng.ts and drawPool.ts look for them.
 import { rmSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
@@ -56,6 +56,7 @@ export async function buildCli({
     entryPoints: {
       plotrate: path.join(root, 'cli/main.ts'),
       chartWorker: path.join(root, 'cli/chartWorker.mjs'),
+      drawWorker: path.join(root, 'cli/drawWorker.ts'),
     },
     outdir,
     bundle: true,
@@ -70,7 +71,8 @@ export async function buildCli({
       js: "import { createRequire as __plotrateRequire } from 'node:module'; const require = __plotrateRequire(import.meta.url);",
     },
     outExtension: { '.js': '.mjs' },
-    // Flat, beside the chart worker: chartPng.ts finds it at ./chartWorker.mjs.
+    // Flat, beside the workers: chartPng.ts and drawPool.ts find them at ./chartWorker.mjs and
+    // ./drawWorker.mjs.
     chunkNames: '[name]-[hash]',
     sourcemap: true,
     logLevel,

@@ -14,8 +14,12 @@ import { SitesInputError } from '../shared/analysis/sitesInputError';
 import { pearsonCorrelation } from '../shared/stats/pearson';
 import { sitePlots } from '../shared/analysis/sitePlots';
 import { analysisSettings } from '../shared/analysis/analysisSettings';
-import { analyzeTrialSteps } from '../shared/analysis/analyzeTrial';
-import { siteDraws } from '../shared/analysis/analyzeSite';
+import {
+  analyzeTrial,
+  analyzeTrialDrawnBy,
+  analyzeTrialSteps,
+} from '../shared/analysis/analyzeTrial';
+import { drawSite, siteDraws } from '../shared/analysis/analyzeSite';
 import { pooledPlotTable } from './analysis.fixtures';
 
 const prices = { grainPricePerKg: 0.18, nutrientPricePerKg: 1.1 };
@@ -58,6 +62,7 @@ describe('planAcrossSites, analyzeSite and acrossSites', () => {
     expect(kinds).toEqual([
       ...Array<string>(n).fill('site'),
       'preview',
+      'draws-wanted',
       ...Array<string>(n).fill('resampling'),
       'resampled',
     ]);
@@ -70,6 +75,39 @@ describe('planAcrossSites, analyzeSite and acrossSites', () => {
     const fitted = analyzeSite(plan.plots[0], { ...plan.options, resamples: 0 }, 0);
     expect(fitted.draws).toBeNull();
     expect(siteDraws(plan.plots[0], fitted, plan.options, 0)).toEqual(inOneGo[0]);
+  });
+
+  it('analyzeTrialDrawnBy: draws made from jobs copied as to a thread are the draws analyzeTrial makes', async () => {
+    const settings = analysisSettings({ prices, resamples: 30, seed: 4 });
+    const here = analyzeTrial(table, settings);
+    const seen: number[] = [];
+    const elsewhere = await analyzeTrialDrawnBy(
+      table,
+      settings,
+      async (jobs, onDrawn) => {
+        // Drawn in reverse, each job and its draws copied as postMessage copies them.
+        const out = jobs.map(() => null as ReturnType<typeof drawSite> | null);
+        for (let i = jobs.length - 1; i >= 0; i--) {
+          const job = jobs[i] && structuredClone(jobs[i]);
+          out[i] = job && structuredClone(drawSite(job));
+          onDrawn(jobs.length - i);
+        }
+        return out;
+      },
+      (done, total, stage) => {
+        if (stage === 'resampled') seen.push(done);
+      },
+    );
+    const n = here.across.sites.length;
+    expect(seen).toEqual(Array.from({ length: n }, (_, i) => i + 1));
+    expect(elsewhere.across.sites.map((s) => s.draws)).toEqual(
+      here.across.sites.map((s) => s.draws),
+    );
+    expect(elsewhere.across.sites.every((s) => s.draws?.resamples === 30)).toBe(true);
+    // A drawer that returns the wrong number of sites is an error, not a shifted result.
+    await expect(
+      analyzeTrialDrawnBy(table, settings, async (jobs) => jobs.slice(1).map(() => null)),
+    ).rejects.toThrow(/draws for \d+ sites/);
   });
 
   it('acrossSites refuses sites that are not the plan’s, in its order', () => {

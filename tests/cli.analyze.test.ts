@@ -259,6 +259,25 @@ describe('plotrate analyze: a run with every output', () => {
   });
 });
 
+describe('plotrate analyze --threads', () => {
+  it('gives the same results drawn on one thread and on three', () => {
+    const results = ['1', '3'].map((threads) => {
+      const json = `threads-${threads}.json`;
+      const r = run(['analyze', 'trial.csv', '--boot', '25', '--threads', threads, '--json', json]);
+      expect(r.code, r.err).toBe(0);
+      if (threads === '3') expect(r.err).toContain('drawing the resamples on 3 threads');
+      else expect(r.err).not.toContain('drawing the resamples');
+      const j = JSON.parse(readFileSync(path.join(dir, json), 'utf8'));
+      return { sites: j.sites, acrossSites: j.acrossSites };
+    });
+    // Every site has its interval from the resamples, and the two runs agree to the last digit.
+    expect(
+      results[1].sites.every((s: { optimumCIBootstrap: unknown }) => s.optimumCIBootstrap),
+    ).toBe(true);
+    expect(results[1]).toEqual(results[0]);
+  });
+});
+
 describe('plotrate demo', () => {
   it('writes the demo workbook and its reports', () => {
     const r = run(['demo', '--dir', 'demo-out']);

@@ -3,10 +3,14 @@
  * site-level tests beside the fits (rate effect, intercept, correlation, gain over the check).
  * The result is plain data (fits without `predict`), so a worker can post it.
  */
-import { drawBootstrapEstimates, type BootstrapDraws } from '../economics/bootstrapDraws';
+import {
+  drawBootstrapEstimates,
+  type BootstrapDraws,
+  type DrawOptions,
+} from '../economics/bootstrapDraws';
 import { fitAllModelsPrepared, type AllModelsFit } from '../models/fitAllModels';
 import { joinProfileInterval, type RateProfileInterval } from '../models/joinProfile';
-import type { BlockTerms, ModelFit, ModelName } from '../models/modelTypes';
+import type { BlockTerms, ModelFit, ModelName, SiteData } from '../models/modelTypes';
 import { prepareSite, type PreparedSite } from '../models/prepareSite';
 import { StatsInputError } from '../stats/errors';
 import { defaultBlockTerms } from '../stats/hasBlocks';
@@ -236,10 +240,64 @@ export function analyzeSite(
 }
 
 /**
- * A site's bootstrap draws: every model but those with too few rates refitted on each resample
- * (drawBootstrapEstimates), behind the optimum's interval and the shortfall risk at any prices.
- * analyzeSite makes them with the rest of the site; the workspace's analysis makes them after
- * every site's fits (analyzeTrialSteps), so the sites are shown before their resampling.
+ * One site's bootstrap as plain data: the arguments of drawBootstrapEstimates (the plots, the
+ * models to refit, resamples, seed and block terms), so another thread can draw it (the command
+ * line's pool, cli/drawPool.ts) and get the same draws.
+ */
+export interface SiteDrawJob {
+  data: SiteData;
+  models: ModelName[];
+  options: DrawOptions;
+}
+
+/**
+ * What a site's bootstrap draws: every model but those with too few rates, refitted on each
+ * resample, behind the optimum's interval and the shortfall risk at any prices.
+ * @param site - the site's plots (kg/ha)
+ * @param fitted - the site's fits and block terms, as analyzeSite found them
+ * @param settings - resamples (0: none) and the run's seed
+ * @param siteIndex - the site's position in the table's site order (seeds its resamples)
+ * @returns the job; null without fits, resamples or two distinct rates
+ * @example
+ * siteDrawJob(plan.plots[0], fitted, plan.options, 0)?.options.resamples // 200
+ */
+export function siteDrawJob(
+  site: SitePlots,
+  fitted: Pick<SiteAnalysis, 'fits' | 'blocks'>,
+  settings: Pick<AcrossSiteSettings, 'resamples' | 'seed'>,
+  siteIndex: number,
+): SiteDrawJob | null {
+  const { fits } = fitted;
+  if (!fits || settings.resamples <= 0 || new Set(site.rateKgHa).size < 2) return null;
+  return {
+    // Only what the draws read: a job crosses to another thread by copy.
+    data: { rateKgHa: site.rateKgHa, yieldKgHa: site.yieldKgHa, block: site.block },
+    models: (Object.keys(fits.fits) as ModelName[]).filter(
+      (m) => fits.fits[m].status !== 'too-few-rates',
+    ),
+    options: {
+      resamples: settings.resamples,
+      seed: bootstrapSeed(settings.seed, siteIndex),
+      blocks: fitted.blocks,
+    },
+  };
+}
+
+/**
+ * Draws a site's bootstrap job.
+ * @param job - from siteDrawJob, here or copied from another thread
+ * @returns the draws (drawBootstrapEstimates)
+ * @example
+ * drawSite(siteDrawJob(plan.plots[0], fitted, plan.options, 0)!).resamples // 200
+ */
+export function drawSite(job: SiteDrawJob): BootstrapDraws {
+  return drawBootstrapEstimates(job.data, job.models, job.options);
+}
+
+/**
+ * A site's bootstrap draws (siteDrawJob, drawn here). analyzeSite makes them with the rest of
+ * the site; the trial's analysis makes them after every site's fits (analyzeTrialSteps), so the
+ * sites are shown before their resampling.
  * @param site - the site's plots (kg/ha)
  * @param fitted - the site's fits and block terms, as analyzeSite found them
  * @param settings - resamples (0: none) and the run's seed
@@ -254,14 +312,6 @@ export function siteDraws(
   settings: Pick<AcrossSiteSettings, 'resamples' | 'seed'>,
   siteIndex: number,
 ): BootstrapDraws | null {
-  const { fits } = fitted;
-  if (!fits || settings.resamples <= 0 || new Set(site.rateKgHa).size < 2) return null;
-  const drawn = (Object.keys(fits.fits) as ModelName[]).filter(
-    (m) => fits.fits[m].status !== 'too-few-rates',
-  );
-  return drawBootstrapEstimates(site, drawn, {
-    resamples: settings.resamples,
-    seed: bootstrapSeed(settings.seed, siteIndex),
-    blocks: fitted.blocks,
-  });
+  const job = siteDrawJob(site, fitted, settings, siteIndex);
+  return job && drawSite(job);
 }

@@ -18,7 +18,13 @@ import {
   type AcrossSiteAnalysis,
 } from './acrossSites';
 import { CURVE_POINTS, type AnalysisSettings } from './analysisSettings';
-import { analyzeSite, siteDraws, type SiteAnalysis } from './analyzeSite';
+import {
+  analyzeSite,
+  drawSite,
+  siteDrawJob,
+  type SiteAnalysis,
+  type SiteDrawJob,
+} from './analyzeSite';
 import type { BootstrapDraws } from '../economics/bootstrapDraws';
 import { trialLevels, type SiteLevelsAnalysis } from './analyzeLevels';
 import { levelMixedAcrossSites } from './levelMixedAcrossSites';
@@ -57,20 +63,23 @@ export type SiteResamples = (BootstrapDraws | null)[];
 /**
  * A step of the analysis, in this order: a site fitted (once per site); the preview of the whole
  * result, every site's draws and the regional mixed models and group comparisons still to make
- * (once); a site resampled (once per site, with resamples); every site's draws (once, with
- * resamples).
+ * (once); with resamples, the draws wanted (once: a caller may draw the jobs elsewhere and pass
+ * the draws to the generator's next()), then, when drawn here, a site resampled (once per site);
+ * every site's draws (once, with resamples).
  */
 export type TrialAnalysisStep =
   | { kind: 'site'; done: number; total: number; site: string }
   | { kind: 'preview'; analysis: TrialAnalysis }
+  | { kind: 'draws-wanted'; jobs: (SiteDrawJob | null)[] }
   | { kind: 'resampling'; done: number; total: number; site: string }
   | { kind: 'resampled'; draws: SiteResamples };
 
 /**
  * The analysis as steps: yields each site's name after it is fitted, then a preview of the
  * result (acrossSitesPreview: every site's own result, the regional rate; the sites' bootstrap
- * draws, the regional mixed models and group comparisons pending), then each site's name after
- * it is resampled and the draws, and returns the whole result. A caller that must report
+ * draws, the regional mixed models and group comparisons pending), then the draws wanted (each
+ * site's job; a caller that passes the draws to next() has drawn them elsewhere), else each
+ * site's name after it is resampled here, then the draws, and returns the whole result. A caller that must report
  * progress, stop between sites or show the sites first (the workspace's worker) drives it;
  * analyzeTrial runs it to the end. The preview costs nothing extra: the whole result is built
  * from it (withDraws, withRegionalModels). The draws come after every site's fits because they
@@ -88,7 +97,7 @@ export type TrialAnalysisStep =
 export function* analyzeTrialSteps(
   table: PlotTable,
   settings: AnalysisSettings,
-): Generator<TrialAnalysisStep, TrialAnalysis, void> {
+): Generator<TrialAnalysisStep, TrialAnalysis, SiteResamples | undefined> {
   const plan = planAcrossSites(table, {
     prices: settings.prices,
     blocks: settings.blocks,
@@ -109,7 +118,7 @@ export function* analyzeTrialSteps(
   });
   const sites: SiteAnalysis[] = [];
   const total = plan.plots.length;
-  // The fits first, the draws after the preview (siteDraws, seeded by the site's index: the same
+  // The fits first, the draws after the preview (siteDrawJob, seeded by the site's index: the same
   // draws as analyzeSite's in one go).
   const fitsOnly = { ...plan.options, resamples: 0 };
   for (const [i, p] of plan.plots.entries()) {
@@ -129,10 +138,20 @@ export function* analyzeTrialSteps(
   yield { kind: 'preview', analysis: preview };
   let whole = preview;
   if (plan.options.resamples > 0) {
-    const draws: SiteResamples = [];
-    for (const [i, p] of plan.plots.entries()) {
-      draws.push(siteDraws(p, sites[i], plan.options, i));
-      yield { kind: 'resampling', done: i + 1, total, site: p.site };
+    const jobs = plan.plots.map((p, i) => siteDrawJob(p, sites[i], plan.options, i));
+    // Each job is seeded by its site's index, so draws made on other threads are these draws.
+    const given = yield { kind: 'draws-wanted', jobs };
+    let draws: SiteResamples = [];
+    if (given !== undefined) {
+      if (given.length !== jobs.length) {
+        throw new Error(`${given.length} sites' draws for ${jobs.length} sites`);
+      }
+      draws = given;
+    } else {
+      for (const [i, job] of jobs.entries()) {
+        draws.push(job && drawSite(job));
+        yield { kind: 'resampling', done: i + 1, total, site: plan.plots[i].site };
+      }
     }
     yield { kind: 'resampled', draws };
     whole = withDraws(preview, draws);
@@ -223,5 +242,49 @@ export function analyzeTrial(
     const s = step.value;
     if (s.kind === 'site') onSite?.(s.done, s.total, 'fitted');
     else if (s.kind === 'resampling') onSite?.(s.done, s.total, 'resampled');
+  }
+}
+
+/**
+ * Draws many sites' bootstrap jobs somewhere else (the command line's worker threads).
+ * @param jobs - one per site, in the table's site order; null where a site has no draws
+ * @param onDrawn - called with how many sites are drawn, as they finish
+ * @returns the draws, one per job in the same order (null for a null job)
+ */
+export type DrawSites = (
+  jobs: readonly (SiteDrawJob | null)[],
+  onDrawn: (done: number) => void,
+) => Promise<SiteResamples>;
+
+/**
+ * analyzeTrial with the sites' bootstrap drawn by `drawSites`: the same steps and the same
+ * result, since each site's draws are seeded by its index (siteDrawJob).
+ * @param table - the plot table (canonical kg/ha)
+ * @param settings - complete analysis settings (analysisSettings fills the defaults)
+ * @param drawSites - draws the jobs, e.g. on a pool of threads
+ * @param onSite - as analyzeTrial's
+ * @returns the TrialAnalysis
+ * @throws as analyzeTrial, and whatever drawSites rejects with
+ * @example
+ * const analysis = await analyzeTrialDrawnBy(table, settings, drawOnThreads(2));
+ */
+export async function analyzeTrialDrawnBy(
+  table: PlotTable,
+  settings: AnalysisSettings,
+  drawSites: DrawSites,
+  onSite?: (done: number, total: number, stage: 'fitted' | 'resampled') => void,
+): Promise<TrialAnalysis> {
+  const steps = analyzeTrialSteps(table, settings);
+  let given: SiteResamples | undefined;
+  for (;;) {
+    const step = steps.next(given);
+    given = undefined;
+    if (step.done) return step.value;
+    const s = step.value;
+    if (s.kind === 'site') onSite?.(s.done, s.total, 'fitted');
+    else if (s.kind === 'draws-wanted') {
+      const total = s.jobs.length;
+      given = await drawSites(s.jobs, (done) => onSite?.(done, total, 'resampled'));
+    }
   }
 }

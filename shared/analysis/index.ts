@@ -8,7 +8,11 @@
  *   result   = { settings, crop, table, plots: SitePlots[], findings: QualityFinding[],
  *                across: AcrossSiteAnalysis }   // sites carry anova, treatmentMeans and draws too
  * analyzeTrialSteps(table, settings)          // the same as a generator: sites fitted, preview,
- *                                             // sites resampled, draws (withDraws lays them in)
+ *                                             // draws wanted, sites resampled, draws (withDraws
+ *                                             // lays them in)
+ * analyzeTrialDrawnBy(table, settings, drawSites, onSite?): Promise<TrialAnalysis>
+ *                                             // the same, the draws made by drawSites(jobs)
+ *                                             // (the command line's threads: same draws)
  * priceTrial(analysis, prices, picks, { shortfallTolerancePerHa?: null }): PricedTrial
  *   = { prices, shortfallTolerance { perHa, isDefault }, choices,
  *       across (rows, regional rate at these prices and picks),

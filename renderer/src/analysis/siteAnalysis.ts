@@ -154,6 +154,8 @@ export async function analyzeTable(
       await progress(s.done, s.total + 1, `fitting ${s.site}`);
     } else if (s.kind === 'resampling') {
       await progress(s.done, s.total + 1, `resampling ${s.site}`);
+    } else if (s.kind === 'draws-wanted') {
+      // Drawn here, in this worker, a site at a time (the next steps), so a cancel can arrive.
     } else if (s.kind === 'preview') {
       await early({ kind: 'sites', analysis: s.analysis });
       const sites = s.analysis.across.sites.length;
