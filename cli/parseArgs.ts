@@ -126,6 +126,15 @@ function number(
 }
 
 /**
+ * The whole number an option is given, from `lo` to `hi`.
+ * @throws {UsageError} as number(), saying "a whole number from lo to hi"
+ */
+function wholeNumber(option: string, text: string | undefined, lo: number, hi: number): number {
+  const rule = (v: number) => Number.isInteger(v) && v >= lo && v <= hi;
+  return number(option, text, rule, `a whole number from ${lo} to ${hi}`);
+}
+
+/**
  * Parses the arguments after `plotrate`.
  * @param argv - the words, e.g. process.argv.slice(2)
  * @returns the command
@@ -224,28 +233,13 @@ export function parseArgs(argv: readonly string[]): Command {
         break;
       }
       case '--boot':
-        a.boot = number(
-          w,
-          rest[++i],
-          (v) => Number.isInteger(v) && v >= 0 && v <= 100000,
-          'a whole number from 0 to 100000',
-        );
+        a.boot = wholeNumber(w, rest[++i], 0, 100000);
         break;
       case '--seed':
-        a.seed = number(
-          w,
-          rest[++i],
-          (v) => Number.isInteger(v) && v >= 0 && v <= 4294967295,
-          'a whole number from 0 to 4294967295',
-        );
+        a.seed = wholeNumber(w, rest[++i], 0, 4294967295);
         break;
       case '--threads':
-        a.threads = number(
-          w,
-          rest[++i],
-          (v) => Number.isInteger(v) && v >= 1 && v <= 256,
-          'a whole number from 1 to 256',
-        );
+        a.threads = wholeNumber(w, rest[++i], 1, 256);
         break;
       case '--shortfall-tolerance':
         a.shortfallTolerance = number(w, rest[++i], (v) => v >= 0, 'an amount of 0 or more');
