@@ -159,6 +159,26 @@ describe('checkQuality', () => {
     );
   });
 
+  it('names a short rate by the number typed in a lb/ac sheet beside its kg N/ha', () => {
+    // 80 lb/ac is 89.7 kg/ha (1 lb/ac = 1.12085 kg/ha, NIST SP 811 conversion factors).
+    const lbPerAc = 80;
+    const kgHa = lbPerAc * 1.12085;
+    const plots = site('Delta', 11).map((p) => ({
+      ...p,
+      treatment: null,
+      rateKgHa: p.rateKgHa === 100 ? kgHa : p.rateKgHa,
+      original: {
+        ...p.original,
+        rate: { ...p.original.rate!, text: p.rateKgHa === 100 ? '80' : p.original.rate!.text },
+      },
+    }));
+    const short = plots.filter((p) => !(p.block === '2' && p.rateKgHa === kgHa));
+    const f = checkDesign(table(short)).find((x) => x.code === 'unequal-replication')!;
+    expect(f.message).toMatch(
+      /rate “80” \(89\.7 kg N\/ha\) has 3 usable plots where the other rates have 4/,
+    );
+  });
+
   it('flags text in a numeric cell, negative and implausible values, and odd moistures', () => {
     const plots = site('Delta', 2);
     const ref = (c: string) => ({ file: 'gen.xlsx', sheet: 'Delta', cell: c, row: 3 });

@@ -9,9 +9,22 @@ import type { Plot, PlotTable } from '../table/plotTable';
 import { describeRef, type QualityFinding } from '../table/qualityFinding';
 import { siteYearsOf, type SiteYear } from '../table/siteYear';
 
+/**
+ * A plot's rate for a message: its treatment, the rate as typed in the sheet when it reads
+ * otherwise than in kg N/ha (a sheet in lb/ac, or of product: the user finds the plots by the
+ * number they wrote), and the rate in kg N/ha.
+ * @example
+ * rateLabel(plot) // 'rate “80” (89.7 kg N/ha)', or 'treatment 4 (150 kg N/ha)'
+ */
 function rateLabel(p: Plot): string {
-  const kg = p.rateKgHa === null ? '' : `${Math.round(p.rateKgHa * 10) / 10} kg N/ha`;
-  return p.treatment !== null ? `treatment ${p.treatment}${kg ? ` (${kg})` : ''}` : kg;
+  if (p.rateKgHa === null) return p.treatment !== null ? `treatment ${p.treatment}` : '';
+  const kgValue = Math.round(p.rateKgHa * 10) / 10;
+  const kg = `${kgValue} kg N/ha`;
+  const typed = p.original.rate?.text.trim() ?? '';
+  const asTyped = typed !== '' && Number(typed) !== kgValue ? `rate “${typed}”` : null;
+  if (p.treatment !== null)
+    return `treatment ${p.treatment} (${asTyped ? `${asTyped}, ` : ''}${kg})`;
+  return asTyped ? `${asTyped} (${kg})` : kg;
 }
 
 /**
