@@ -20,6 +20,7 @@ import { OpenFileError } from '../electron/shellErrors';
 import { analysisSettings } from '../shared/analysis/analysisSettings';
 import { analyzeTrial, analyzeTrialDrawnBy } from '../shared/analysis/analyzeTrial';
 import { priceTrial } from '../shared/analysis/priceTrial';
+import { recommendationCautions } from '../shared/economics/recommendationCautions';
 import { illustrativePrices } from '../shared/economics/illustrativePrices';
 import { priceTerms, quotePrices, type PriceInput } from '../shared/economics/priceQuote';
 import { ImportError } from '../shared/import/importError';
@@ -289,6 +290,11 @@ function summary(report: TrialReport): string[] {
     lines.push(levelMixedSentence(m, { rate: (v) => rate(v) }));
   for (const c of report.yearsCompared) lines.push(`Years compared: ${c.sentence}`);
   for (const w of report.warnings) lines.push(`Note: ${w}`);
+  // The rates above are recommendations: they go out with the cautions, as on every page.
+  if (report.sites.length > 0) {
+    lines.push('Before acting on any rate:');
+    for (const c of recommendationCautions) lines.push(`- ${c}`);
+  }
   return lines;
 }
 
@@ -450,6 +456,7 @@ async function analyzedReport(
     overrides: args.map,
     units: args.columnUnits,
     sheets: extra.sheets,
+    ...(args.plotAreaM2 !== null ? { plotAreaM2: args.plotAreaM2 } : {}),
   });
   const units = args.units ? displayUnits(args.units) : imported.inputUnits;
   const prices = pricesFrom(args, units, imported.table.crop);

@@ -54,6 +54,9 @@ Options for analyze
                          rate may return less than the best before the risk
                          tables count it as falling short (default: the cost
                          of 10 kg N/ha at the prices)
+  --plot-area N          every plot's area, for sheets of plot weights with no
+                         area column: m² (55.7) or with a unit (600ft2, m2, ha,
+                         ac)
   --site-charts N        draw each site's chart (workbook and PDF) when the run
                          has at most N sites (default ${SITE_CHART_LIMIT}; 0 for none); past
                          that the outputs say the site charts were left out

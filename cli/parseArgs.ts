@@ -20,6 +20,7 @@ import {
 } from '../shared/import/columnMapping';
 import type { RoleOverride, UnitOverride } from '../shared/import/importFiles';
 import type { CropId } from '../shared/table/plotTable';
+import { areaToM2, type AreaUnit } from '../shared/units/convertYield';
 import { cropIds, isCropId } from '../shared/units/crops';
 import { productFromText, productIds, type ProductId } from '../shared/units/products';
 import { UsageError } from './usageError';
@@ -64,6 +65,8 @@ export interface AnalyzeArgs {
    * is always drawn); past it the outputs say that the site charts were left out.
    */
   siteChartLimit: number;
+  /** Every plot's area, m², for sheets of plot weights with no area column (--plot-area); null: none. */
+  plotAreaM2: number | null;
 }
 
 /**
@@ -106,6 +109,7 @@ export function analyzeDefaults(files: string[] = []): AnalyzeArgs {
     pageFields: { ...EMPTY_PAGE_FIELDS },
     shortfallTolerance: null,
     siteChartLimit: SITE_CHART_LIMIT,
+    plotAreaM2: null,
   };
 }
 
@@ -132,6 +136,21 @@ function number(
 function wholeNumber(option: string, text: string | undefined, lo: number, hi: number): number {
   const rule = (v: number) => Number.isInteger(v) && v >= lo && v <= hi;
   return number(option, text, rule, `a whole number from ${lo} to ${hi}`);
+}
+
+/**
+ * `--plot-area`'s value in m²: a positive number, in m² or followed by a unit (m2, ft2, ha, ac).
+ * @throws {UsageError} for a missing value, a number that is not positive or an unknown unit
+ */
+function plotAreaM2(text: string | undefined): number {
+  const what = 'a plot area, e.g. 55.7 (m²) or 600ft2; units m2, ft2, ha, ac';
+  if (text === undefined || text.startsWith('--'))
+    throw new UsageError(`--plot-area needs a value: ${what}.`);
+  const m = /^\s*([0-9]*\.?[0-9]+(?:e[+-]?\d+)?)\s*(m2|m²|ft2|ft²|ha|ac)?\s*$/i.exec(text);
+  const area = m ? Number(m[1]) : NaN;
+  if (!m || !(area > 0)) throw new UsageError(`--plot-area ${text}: ${what}.`);
+  const unit = (m[2] ?? 'm2').toLowerCase().replace('²', '2') as AreaUnit;
+  return areaToM2(area, unit);
 }
 
 /**
@@ -243,6 +262,9 @@ export function parseArgs(argv: readonly string[]): Command {
         break;
       case '--shortfall-tolerance':
         a.shortfallTolerance = number(w, rest[++i], (v) => v >= 0, 'an amount of 0 or more');
+        break;
+      case '--plot-area':
+        a.plotAreaM2 = plotAreaM2(rest[++i]);
         break;
       case '--site-charts':
         a.siteChartLimit = number(

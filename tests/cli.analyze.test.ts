@@ -128,6 +128,29 @@ describe('plotrate analyze: bad input', () => {
   });
 });
 
+describe('plotrate analyze --plot-area', () => {
+  it('stops on plot weights without an area, naming the option, and reads them with it', () => {
+    // Plot weights in kg from 10 m² plots: w kg is w × 1,000 kg/ha (10,000 m²/ha ÷ 10 m²),
+    // so a weight of 6 + 0.03·min(N, 120) kg is that many t/ha.
+    const rows = ['Site,Block,N rate (kg N/ha),Plot wt (kg)'];
+    for (let b = 1; b <= 3; b++) {
+      for (const x of [0, 50, 100, 150, 200])
+        rows.push(`Ash Mere,${b},${x},${(6 + 0.03 * Math.min(x, 120) + 0.05 * b).toFixed(2)}`);
+    }
+    writeFileSync(path.join(dir, 'weights.csv'), `${rows.join('\n')}\n`);
+    const args = ['analyze', 'weights.csv', '--boot', '0', '--units', 'metric'];
+    const plain = run(args);
+    expect(plain.code).toBe(2);
+    expect(plain.err).toMatch(/gives plot weights \(column D\) but no plot area.*--plot-area/);
+    const given = run([...args, '--plot-area', '10', '--json', 'weights.json']);
+    expect(given.code, given.err).toBe(0);
+    const j = JSON.parse(readFileSync(path.join(dir, 'weights.json'), 'utf8'));
+    const lp = j.sites[0].models.find((m: { model: string }) => m.model === 'linearPlateau');
+    expect(j.settings.units.yield).toBe('t/ha');
+    expect(lp.params.b).toBeCloseTo(0.03, 6);
+  });
+});
+
 describe('plotrate analyze --map', () => {
   it('fails without the mapping and succeeds when --map names the rate, site and block columns', () => {
     // Headers the detector cannot read as a rate, a site or a block.
@@ -205,6 +228,10 @@ describe('plotrate analyze: a run with every output', () => {
     expect(r.code, r.err).toBe(0);
     expect(r.out).toMatch(/Site 0001: .*optimum \d+ kg N\/ha/);
     expect(r.out).toMatch(/Across 3 sites:/);
+    // The summary's rates go out with the cautions (shared/economics/recommendationCautions.ts).
+    expect(r.out).toMatch(
+      /Before acting on any rate:\n- This rate comes from these trials[^]*\n- Defer to a licensed or certified agronomist/,
+    );
     expect(r.err).toMatch(/plotrate: 72 plots at 3 sites/);
     expect(r.err).toMatch(/writing report\.xlsx/);
   });

@@ -1,7 +1,7 @@
 // parseArgs: every mistake in the command line becomes one sentence naming
 // the option and what is allowed; good input becomes the typed command.
 import { describe, expect, it } from 'vitest';
-import { parseArgs } from '../cli/parseArgs';
+import { parseArgs, type AnalyzeArgs } from '../cli/parseArgs';
 
 describe('parseArgs', () => {
   it('reads an analyze command with every option', () => {
@@ -39,6 +39,8 @@ describe('parseArgs', () => {
       'eur',
       '--site-charts',
       '40',
+      '--plot-area',
+      '12.5',
       '--map',
       'yield=Grain (t/ha)',
       'block=Rep',
@@ -80,6 +82,7 @@ describe('parseArgs', () => {
       pageFields: { grower: 'Ada Brinkwater', advisor: '', field: '', season: '2026' },
       shortfallTolerance: 7.5,
       siteChartLimit: 40,
+      plotAreaM2: 12.5,
     });
   });
 
@@ -111,6 +114,7 @@ describe('parseArgs', () => {
       out: null,
       shortfallTolerance: null,
       siteChartLimit: 1000,
+      plotAreaM2: null,
     });
   });
 
@@ -119,6 +123,8 @@ describe('parseArgs', () => {
     [['analyze', 'a.csv', '--boot', '-1'], /--boot -1: a whole number from 0 to 100000/],
     [['analyze', 'a.csv', '--boot'], /--boot needs a value/],
     [['analyze', 'a.csv', '--threads', '0'], /--threads 0: a whole number from 1 to 256/],
+    [['analyze', 'a.csv', '--plot-area', '0'], /--plot-area 0: a plot area, e\.g\. 55\.7/],
+    [['analyze', 'a.csv', '--plot-area', '12yd2'], /--plot-area 12yd2: .*units m2, ft2, ha, ac/],
     [['analyze', 'a.csv', '--units', 'imperial'], /--units imperial: use us or metric/],
     [['analyze', 'a.csv', '--crop', 'rice'], /--crop rice: use one of corn, wheat/],
     [['analyze', 'a.csv', '--grain-price', '0'], /--grain-price 0: a price above 0/],
@@ -141,6 +147,16 @@ describe('parseArgs', () => {
     [['demo', '--folder', 'x'], /Unknown option for demo: --folder/],
   ])('refuses %j', (argv, message) => {
     expect(() => parseArgs(argv)).toThrow(message);
+  });
+
+  it('reads --plot-area in m², or in the unit written after the number', () => {
+    const area = (v: string) =>
+      (parseArgs(['analyze', 'a.csv', '--plot-area', v]) as AnalyzeArgs).plotAreaM2;
+    expect(area('55.7')).toBe(55.7);
+    // 1 ft = 0.3048 m exactly (NIST SP 811, appendix B): 600 ft² = 55.741824 m².
+    expect(area('600ft2')).toBeCloseTo(55.741824, 9);
+    expect(area('600 ft²')).toBeCloseTo(55.741824, 9);
+    expect(area('0.01ha')).toBeCloseTo(100, 9);
   });
 
   it('answers help and version', () => {

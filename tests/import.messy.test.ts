@@ -257,7 +257,7 @@ describe('yields and rates in every unit', () => {
     ]);
     const raw = await readTrialFile({ name: 'w.xlsx', bytes });
     expect(() => buildPlotTable(raw, detectColumns(raw), corn)).toThrow(
-      'Sheet "W" of "w.xlsx" gives plot weights (column C) but no plot area or length and width; map those columns or enter the plot area in the import settings.',
+      `Sheet "W" of "w.xlsx" gives plot weights (column C) but no plot area or length and width; map those columns, or give every plot's area (the import's plot area setting; --plot-area on the command line).`,
     );
     const t = buildPlotTable(raw, detectColumns(raw), { ...corn, plotAreaM2: 10 }).table;
     expect(t.plots[0].yieldKgHa).toBeCloseTo(5000, 9);

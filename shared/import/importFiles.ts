@@ -162,7 +162,8 @@ interface CropChoice {
 /**
  * Reads trial files into one plot table.
  * @param files - names (no directories needed) and bytes of each file
- * @param options - the crop, role overrides, and sheets to import (default every plots sheet)
+ * @param options - the crop, role overrides, sheets to import (default every plots sheet) and
+ *   the plot area where sheets of plot weights give none
  * @returns the table, import findings, the mapping as used and the input's units
  * @throws {ImportError} for an unreadable file, an override naming a header no file has, or a
  *   mapping that cannot build plots; the message names the file, sheet and cell
@@ -177,6 +178,8 @@ export async function importFiles(
     overrides: readonly RoleOverride[];
     units?: readonly UnitOverride[];
     sheets?: string[];
+    /** Every plot's area, m², for sheets of plot weights without an area column (--plot-area). */
+    plotAreaM2?: number;
   },
 ): Promise<ImportedFiles> {
   const raws = [];
@@ -225,6 +228,7 @@ export async function importFiles(
     crop: chosen.crop,
     rateBasis: 'nutrient',
     ...(options.sheets ? { sheets: options.sheets } : {}),
+    ...(options.plotAreaM2 !== undefined ? { plotAreaM2: options.plotAreaM2 } : {}),
   });
   if (chosen.finding) findings.unshift(chosen.finding);
   const entries = mappingEntries(

@@ -114,7 +114,7 @@ export function readPlotsSheet(
   ) {
     throw new ImportError(
       'bad-mapping',
-      `${sheetOfFile(file, sheet.name)} gives plot weights (column ${cols.plotWeight.letter}) but no plot area or length and width; map those columns or enter the plot area in the import settings.`,
+      `${sheetOfFile(file, sheet.name)} gives plot weights (column ${cols.plotWeight.letter}) but no plot area or length and width; map those columns, or give every plot's area (the import's plot area setting; --plot-area on the command line).`,
       { file, sheet: sheet.name },
     );
   }
