@@ -21,6 +21,7 @@ import { analysisSettings } from '../shared/analysis/analysisSettings';
 import { analyzeTrial, analyzeTrialDrawnBy } from '../shared/analysis/analyzeTrial';
 import { priceTrial } from '../shared/analysis/priceTrial';
 import { recommendationCautions } from '../shared/economics/recommendationCautions';
+import type { MappingEntry } from '../shared/import/mappingEntries';
 import { illustrativePrices } from '../shared/economics/illustrativePrices';
 import { priceTerms, quotePrices, type PriceInput } from '../shared/economics/priceQuote';
 import { ImportError } from '../shared/import/importError';
@@ -416,6 +417,41 @@ export async function analyzeCommand(
   return report;
 }
 
+/** Roles the run names before fitting, in this order: the numbers every rate rests on. */
+const SAID_ROLES: Record<string, string> = {
+  rate: 'rate',
+  yield: 'yield',
+  plotWeight: 'plot weight',
+  plotArea: 'plot area',
+};
+
+/**
+ * Which columns the rates and yields were read from, in which unit and, for a rate, as N or as
+ * product: a column read wrongly (a plot weight as a yield, urea as N) is seen before any rate.
+ * @param mapping - the import's mapping entries
+ * @returns e.g. 'rate from "Urea (lb/ac)" (lb/ac of product: Urea 46-0-0); plot weight from
+ *   "Harvest wt (lb)" (lb); --map gives a column another role'
+ */
+export function columnsReadSentence(mapping: readonly MappingEntry[]): string {
+  // A sheet with a yield column reads its yields there; its plot weights are not used.
+  const sheetOf = (e: MappingEntry) => `${e.file}\u0000${e.sheet}`;
+  const withYield = new Set(mapping.filter((e) => e.role === 'yield').map(sheetOf));
+  const used = mapping.filter(
+    (e) => !((e.role === 'plotWeight' || e.role === 'plotArea') && withYield.has(sheetOf(e))),
+  );
+  const parts: string[] = [];
+  for (const role of Object.keys(SAID_ROLES)) {
+    const seen = new Set<string>();
+    for (const m of used.filter((e) => e.role === role)) {
+      const how = [m.unit, m.readAs].filter(Boolean).join(' ');
+      const part = `${SAID_ROLES[role]} from "${m.header}"${how ? ` (${how})` : ''}`;
+      if (!seen.has(part)) parts.push(part);
+      seen.add(part);
+    }
+  }
+  return `${parts.slice(0, 8).join('; ')}${parts.length > 8 ? '; …' : ''}; --map gives a column another role`;
+}
+
 /** What the demo command adds to a run: sheets to import, a fixed time stamp, run notes. */
 export interface AnalyzeExtra {
   sheets?: string[];
@@ -502,6 +538,7 @@ async function analyzedReport(
   log.err(
     `plotrate: ${imported.table.plots.length} plots at ${where}; fitting seven models per site${args.boot ? ` with ${args.boot} bootstrap resamples` : ''}`,
   );
+  log.err(`plotrate: ${columnsReadSentence(imported.mapping)}`);
   // Which crop, and why: its bushel weight and moisture enter every yield.
   const cropNote = imported.findings.find((f) => f.code === 'crop-from-files');
   if (cropNote) log.err(`plotrate: ${cropNote.message}`);

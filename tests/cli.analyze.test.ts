@@ -144,6 +144,10 @@ describe('plotrate analyze --plot-area', () => {
     expect(plain.err).toMatch(/gives plot weights \(column D\) but no plot area.*--plot-area/);
     const given = run([...args, '--plot-area', '10', '--json', 'weights.json']);
     expect(given.code, given.err).toBe(0);
+    // Before fitting, the run says which columns the rates and yields come from and how.
+    expect(given.err).toContain(
+      'rate from "N rate (kg N/ha)" (kg/ha of N); plot weight from "Plot wt (kg)" (kg); --map gives a column another role',
+    );
     const j = JSON.parse(readFileSync(path.join(dir, 'weights.json'), 'utf8'));
     const lp = j.sites[0].models.find((m: { model: string }) => m.model === 'linearPlateau');
     expect(j.settings.units.yield).toBe('t/ha');
@@ -173,6 +177,9 @@ describe('plotrate analyze --map', () => {
     const plain = run(priced);
     expect(plain.code).toBe(2);
     expect(plain.err).toMatch(/"map\.csv" has no rate column/);
+    // The columns nothing reads are listed, so the user sees which to map.
+    expect(plain.err).toMatch(/map the rate column \(not read: [A-D] "[^"]+"(, [A-D] "[^"]+")*\)/);
+    expect(plain.err).toContain('"Amount"');
     const mapped = run([
       ...priced,
       '--map',

@@ -74,6 +74,17 @@ describe('roleTakesOneColumn', () => {
     expect(unitForRole(plain, 'block')).toBeNull();
   });
 
+  it('a column given the rate by hand reads its header for product or nutrient, as detection does', () => {
+    const urea = { ...column(3, 'ignore'), header: 'Urea (lb/ac)' };
+    const [rate] = assignColumnRole([urea], 3, 'rate', { chosen: () => 'x', setAside: 'y' });
+    expect(rate).toMatchObject({ role: 'rate', unit: 'lb/ac', basis: 'product', product: 'urea' });
+    // Already the rate: a basis the user set stays.
+    const set = { ...rate, basis: 'nutrient' as const, product: null };
+    expect(assignColumnRole([set], 3, 'rate', { chosen: () => 'x', setAside: 'y' })[0].basis).toBe(
+      'nutrient',
+    );
+  });
+
   it('columnForRole reads the first of two columns an older mapping gave one role', () => {
     const columns = [column(1, 'notes'), column(2, 'yield'), column(3, 'notes')];
     expect(columnForRole(columns, 'notes')?.col).toBe(1);

@@ -6,6 +6,7 @@ import {
   detectColumns,
   ImportError,
   parseNumberText,
+  rateHeaderBasis,
   readTrialFile,
   roleFromHeader,
   unitFromHeader,
@@ -22,6 +23,8 @@ describe('roleFromHeader and unitFromHeader', () => {
     ['N applied, kg N/ha', 'rate', 'kg/ha', 'nutrient'],
     ['Urea (lb product/ac)', 'rate', 'lb/ac', 'product'],
     ['UAN (kg urea/ha)', 'rate', 'kg/ha', 'product'],
+    ['Urea (lb/ac)', 'rate', 'lb/ac', null],
+    ['UAN-32 kg/ha', 'rate', 'kg/ha', null],
     ['Dry matter (kg grain/ha)', null, 'kg/ha', null],
     ['Total N (kg/ha)', 'rate', 'kg/ha', null],
     ['Nitrogen g/m²', 'rate', 'g/m2', null],
@@ -62,6 +65,48 @@ describe('roleFromHeader and unitFromHeader', () => {
     expect(u?.unit ?? null).toBe(unit);
     if (u && (u.unit.includes('/ac') || u.unit.includes('/ha') || u.unit === 'g/m2'))
       expect(u.basis).toBe(basis);
+  });
+});
+
+describe('rateHeaderBasis', () => {
+  it.each([
+    ['Urea (lb/ac)', 'product', 'urea'],
+    ['UAN-32 kg/ha', 'product', 'uan32'],
+    ['Rate (lb urea/ac)', 'product', 'urea'],
+    ['Product rate (lb/ac)', 'product', null],
+    ['N rate (lb/ac)', 'nutrient', null],
+    // N from urea is nitrogen: the N word wins over the product's name.
+    ['Urea N (lb/ac)', 'nutrient', null],
+    ['Rate (lb/ac)', null, null],
+  ])('%s → basis %s, product %s', (header, basis, product) => {
+    expect(rateHeaderBasis(header)).toEqual({ basis, product });
+  });
+
+  it('reads a product named in the rate header as that product (urea 46 % N)', async () => {
+    const bytes = await makeWorkbook([
+      {
+        name: 'Corrow',
+        rows: [
+          ['Plot', 'Block', 'Urea (lb/ac)', 'Yield (bu/ac)'],
+          [1, 1, 0, 150],
+          [2, 1, 100, 180],
+          [3, 1, 200, 186],
+        ],
+      },
+    ]);
+    const raw = await readTrialFile({ name: 'u.xlsx', bytes });
+    const m = detectColumns(raw);
+    expect(m.sheets[0].columns[2]).toMatchObject({
+      role: 'rate',
+      basis: 'product',
+      product: 'urea',
+    });
+    // The import settings say nutrient: the header's product is more specific and wins.
+    const { table } = buildPlotTable(raw, m, { crop: 'corn', rateBasis: 'nutrient' });
+    // Common practice: urea is 46 % N (46-0-0); 100 lb urea/ac is 46 lb N/ac.
+    expect(table.plots.map((p) => p.rateKgHa)).toEqual(
+      [0, 46 * LBAC, 92 * LBAC].map((v) => expect.closeTo(v, 9)),
+    );
   });
 });
 

@@ -20,7 +20,7 @@ describe('report provenance', () => {
     const table = { ...imported.table, sources: [...imported.table.sources, closed] };
     const mapping = [
       ...imported.mapping,
-      { file: closed.name, sheet: '', role: 'yield', header: 'Yield', unit: 't/ha' },
+      { file: closed.name, sheet: '', role: 'yield', header: 'Yield', unit: 't/ha', readAs: '' },
     ];
     const report = reportOf(
       table,
@@ -40,5 +40,12 @@ describe('report provenance', () => {
     expect(report.sources.map((s) => s.name)).toEqual([name]);
     expect(report.mapping.length).toBe(imported.mapping.length);
     expect(report.mapping.every((m) => m.file === name)).toBe(true);
+    // The demo's rate header names N: the provenance says how its numbers were read.
+    const rates = report.mapping.filter((m) => m.role === 'rate');
+    expect(rates.length).toBeGreaterThan(0);
+    expect(rates.every((m) => m.readAs === 'of N')).toBe(true);
+    expect(report.mapping.filter((m) => m.role !== 'rate').every((m) => m.readAs === '')).toBe(
+      true,
+    );
   });
 });

@@ -10,7 +10,7 @@ import {
   type HeaderUnit,
   type MappedRole,
 } from './columnMapping';
-import { unitFromHeader } from './headerWords';
+import { rateHeaderBasis, unitFromHeader } from './headerWords';
 
 /**
  * The unit a column takes with a new role: the one its header names, else the one it had, else
@@ -52,7 +52,15 @@ export function assignColumnRole(
       // The user's role settles any question; the unit stays when the new role takes it.
       const { question: _settled, ...rest } = c;
       const unit = unitForRole(c, role);
-      return { ...rest, role, unit, evidence: evidence.chosen(c.role) };
+      // A column that becomes the rate reads its header for product or nutrient, as detection does.
+      const said = role === 'rate' && c.role !== 'rate' ? rateHeaderBasis(c.header) : null;
+      return {
+        ...rest,
+        role,
+        unit,
+        ...(said ? { basis: said.basis, product: said.product } : {}),
+        evidence: evidence.chosen(c.role),
+      };
     }
     if (one && c.role === role) return { ...c, role: 'ignore', evidence: evidence.setAside };
     return c;

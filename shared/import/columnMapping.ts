@@ -4,6 +4,7 @@
  * reuse it for the next file of the same shape ({@link ColumnMapping.shapeSignature}).
  */
 import { COLUMN_ROLES, type CropId } from '../table/plotTable';
+import type { ProductId } from '../units/products';
 
 /**
  * Every meaning a column can be given: the plot-table roles, the treatment-key
@@ -85,6 +86,11 @@ export interface ColumnAssignment {
   unit: HeaderUnit | null;
   /** For a rate: product or nutrient (null: use the import settings). */
   basis?: 'product' | 'nutrient' | null;
+  /**
+   * For a rate of product: the product its header names ("Urea (lb/ac)"); a product column or
+   * the treatment key, row by row, comes first, the import settings' product after.
+   */
+  product?: ProductId | null;
   /** For a yield: "harvest" when weighed wet (adjust with the moisture column) or "standard" when already adjusted. */
   moistureBasis?: 'harvest' | 'standard';
   /** Why this role and unit, in words for the user. */

@@ -14,7 +14,7 @@ import {
   roleTakesOneColumn,
 } from './columnMapping';
 import { cellNumber } from './cellNumber';
-import { normalizeHeader, roleFromHeader, unitFromHeader } from './headerWords';
+import { normalizeHeader, rateHeaderBasis, roleFromHeader, unitFromHeader } from './headerWords';
 import { columnLetters, type RawSheet, type RawWorkbook } from './rawWorkbook';
 import { shapeSignature } from './shapeSignature';
 import { cropFromText } from './cropFromText';
@@ -22,6 +22,7 @@ import { weightOrYield } from './weightOrYield';
 import { sampleMedian } from '../stats/quantile';
 import type { CropId } from '../table/plotTable';
 import { areaToM2, lengthToM, type AreaUnit, type LengthUnit } from '../units/convertYield';
+import { products } from '../units/products';
 
 /** How many rows from the top are searched for the header. */
 const headerSearchRows = 30;
@@ -294,18 +295,15 @@ function mapSheet(sheet: RawSheet, multipleSheets: boolean, fileName: string): S
       }
     }
     if (a.role === 'rate') {
-      const h = normalizeHeader(text);
-      a.basis =
-        u?.basis ??
-        (/\bproduct\b/.test(h)
-          ? 'product'
-          : /\b(n|nitrogen)\b/.test(h.replace(/[([{].*?[)\]}]/g, ' '))
-            ? 'nutrient'
-            : null);
+      const said = rateHeaderBasis(text);
+      a.basis = said.basis;
+      if (said.product) a.product = said.product;
       why.push(
         a.basis === null
           ? 'product or nutrient not stated; the import settings decide'
-          : `rates of ${a.basis === 'nutrient' ? 'nutrient (N)' : 'product'}`,
+          : a.basis === 'nutrient'
+            ? 'rates of nutrient (N)'
+            : `rates of product${said.product ? ` (${products(said.product).label})` : ''}`,
       );
     }
     if (a.role === 'yield' || a.role === 'plotWeight') weighed.set(a, values.numbers);

@@ -5,7 +5,7 @@
  * and "plot area" is never a plot number. Grouping words come before the rate
  * words so that "Soil N" is a grouping column, not a rate.
  */
-import { productFromText } from '../units/products';
+import { productFromText, type ProductId } from '../units/products';
 import type { HeaderUnit, MappedRole } from './columnMapping';
 
 const rules: [Exclude<MappedRole, 'ignore'>, RegExp][] = [
@@ -70,7 +70,48 @@ export function roleFromHeader(
   const u = unitFromHeader(header);
   if (u?.unit === 'bu/ac' || u?.unit === 't/ha') return { role: 'yield', word: u.text };
   if (u?.basis) return { role: 'rate', word: u.text };
+  // A product per area is its rate: "Urea (lb/ac)", "UAN 32 kg/ha".
+  const product = productFromText(h);
+  if (product && (u?.unit === 'lb/ac' || u?.unit === 'kg/ha'))
+    return { role: 'rate', word: `${h} ${u.text}` };
   return null;
+}
+
+/** What a rate column's header says of its rates (rateHeaderBasis). */
+export interface RateHeaderBasis {
+  /** Of product, of nutrient, or null when the header does not say. */
+  basis: 'product' | 'nutrient' | null;
+  /** The product the header names, for rates of product; null when it names none. */
+  product: ProductId | null;
+}
+
+/**
+ * Whether a rate column's header says its rates are of nutrient or of product, and which
+ * product: the one owner of this reading, for detection and for a role given by hand. The unit
+ * says it first ("lb N/ac", "kg urea/ha"), then the words outside brackets: "product", then N or
+ * nitrogen ("Urea N" is nitrogen from urea), then a product's name ("Urea (lb/ac)").
+ * @param header - the header text
+ * @returns the basis and the product
+ * @example
+ * rateHeaderBasis('Urea (lb/ac)') // { basis: 'product', product: 'urea' }
+ * rateHeaderBasis('N rate (lb/ac)') // { basis: 'nutrient', product: null }
+ */
+export function rateHeaderBasis(header: string): RateHeaderBasis {
+  const h = normalizeHeader(header);
+  const outside = h.replace(/[([{].*?[)\]}]/g, ' ');
+  const u = unitFromHeader(header);
+  const named =
+    productFromText(outside) ?? (u?.basis === 'product' ? productFromText(u.text) : null);
+  const basis =
+    u?.basis ??
+    (/\bproduct\b/.test(h)
+      ? 'product'
+      : /\b(n|nitrogen)\b/.test(outside)
+        ? 'nutrient'
+        : named
+          ? 'product'
+          : null);
+  return { basis, product: basis === 'product' && named ? named.id : null };
 }
 
 export interface UnitHint {

@@ -159,6 +159,9 @@ interface CropChoice {
   finding: QualityFinding | null;
 }
 
+/** A batch run's rates are of N where a header does not say (a product is named with --map). */
+const BATCH_RATE_BASIS = 'nutrient';
+
 /**
  * Reads trial files into one plot table.
  * @param files - names (no directories needed) and bytes of each file
@@ -226,7 +229,7 @@ export async function importFiles(
     : cropOfFiles(raws, mappings, options.sheets);
   const { table, findings } = buildPlotTable(raws, mappings, {
     crop: chosen.crop,
-    rateBasis: 'nutrient',
+    rateBasis: BATCH_RATE_BASIS,
     ...(options.sheets ? { sheets: options.sheets } : {}),
     ...(options.plotAreaM2 !== undefined ? { plotAreaM2: options.plotAreaM2 } : {}),
   });
@@ -234,6 +237,7 @@ export async function importFiles(
   const entries = mappingEntries(
     raws.map((raw, i) => ({ file: raw.file.name, mapping: mappings[i] })),
     options.sheets,
+    { rateBasis: BATCH_RATE_BASIS },
   );
   const inputUnits = inputUnitsOf(mappings, options.sheets);
   return { table, findings, mapping: entries, inputUnits };

@@ -43,7 +43,7 @@ export { sniffFormat } from './sniffFormat';
 export { shapeSignature } from './shapeSignature';
 export { parseNumberText, isMissingMarker } from '../table/parseNumberText';
 export { cellNumber, type CellNumberStatus } from './cellNumber';
-export { roleFromHeader, unitFromHeader, normalizeHeader } from './headerWords';
+export { roleFromHeader, unitFromHeader, normalizeHeader, rateHeaderBasis } from './headerWords';
 export { columnLetters, cellAddress } from './rawWorkbook';
 export type { RawWorkbook, RawSheet, RawCell, RawValue } from './rawWorkbook';
 export type {

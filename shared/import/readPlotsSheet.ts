@@ -47,6 +47,14 @@ function isPlotKey(c: RawCell | null, first: RawCell | null | undefined): boolea
   return c !== first && cellLabel(c) !== null;
 }
 
+/** The columns no role reads, for a message asking which holds the rate: ' (not read: C "Urea")'. */
+function unreadColumns(m: SheetMapping): string {
+  const unread = m.columns.filter((c) => c.role === 'ignore' && c.header.trim() !== '');
+  if (unread.length === 0) return '';
+  const listed = unread.slice(0, 6).map((c) => `${c.letter} "${c.header}"`);
+  return ` (not read: ${listed.join(', ')}${unread.length > 6 ? ', …' : ''})`;
+}
+
 /**
  * Reads the plots of one sheet into `plots`.
  * @param raw - the workbook the sheet belongs to
@@ -121,7 +129,7 @@ export function readPlotsSheet(
   if (!cols.rate && key.size === 0) {
     throw new ImportError(
       'bad-mapping',
-      `${sheetOfFile(file, sheet.name)} has no rate column and the file has no treatment key; map the rate column or the treatment-key sheet.`,
+      `${sheetOfFile(file, sheet.name)} has no rate column and the file has no treatment key; map the rate column${unreadColumns(m)} or the treatment-key sheet.`,
       { file, sheet: sheet.name },
     );
   }
@@ -225,7 +233,10 @@ export function readPlotsSheet(
     if (rateValue !== null) {
       rateKgHa = nutrientRateKgHa(rateValue, rateUnit, basis, {
         product:
-          rowProduct ?? entry?.product ?? (settings.product ? products(settings.product) : null),
+          rowProduct ??
+          entry?.product ??
+          (cols.rate?.product ? products(cols.rate.product) : null) ??
+          (settings.product ? products(settings.product) : null),
         productWords: productWords || entry?.productText,
         where: `${where} row ${r}`,
         ref: { file, sheet: sheet.name, cell: original.rate?.ref.cell },

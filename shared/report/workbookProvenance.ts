@@ -51,9 +51,15 @@ export function workbookProvenance(
     ws.getRow(r++).values = [f.name, f.bytes, f.sha256];
   }
   r++;
-  r = tableHeading(ws, r, 'Column mapping', ['File', 'Sheet', 'Role', 'Header', 'Unit'], titles);
+  r = tableHeading(
+    ws,
+    r,
+    'Column mapping',
+    ['File', 'Sheet', 'Role', 'Header', 'Unit', 'Read as'],
+    titles,
+  );
   for (const m of report.mapping) {
-    ws.getRow(r++).values = [m.file, m.sheet, m.role, m.header, m.unit];
+    ws.getRow(r++).values = [m.file, m.sheet, m.role, m.header, m.unit, m.readAs];
   }
   r++;
   r = tableHeading(

@@ -89,6 +89,8 @@ export class Report {
     };
     const mapping = mappingEntries(
       Object.entries(ws.trial.edits.mappings).map(([file, m]) => ({ file, mapping: m })),
+      undefined,
+      ws.trial.edits.settings,
     );
     return assembleReport(analysis, priced, display, {
       tool: { name: 'Plotrate', version: APP_VERSION },
