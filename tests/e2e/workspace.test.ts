@@ -540,6 +540,36 @@ describe('the workspace in chromium', () => {
     expect(session.pageErrors.map((e) => e.slice(0, 300))).toEqual([]);
   });
 
+  it('reads plot weights with the plot area typed in the import settings', async () => {
+    const { page } = session;
+    const dir = await mkdtemp(path.join(tmpdir(), 'plotrate-e2e-area-'));
+    const file = path.join(dir, 'Ash Mere weights.csv');
+    // Invented: plot weights in kg with no area column; 6.2 kg from a 10 m² plot is 6,200 kg/ha.
+    const rows = ['Site,Block,N rate (kg N/ha),Plot wt (kg)'];
+    for (let b = 1; b <= 3; b++)
+      for (const x of [0, 60, 120, 180])
+        rows.push(`Ash Mere,${b},${x},${(6.2 + 0.02 * x).toFixed(2)}`);
+    await writeFile(file, `${rows.join('\n')}\n`);
+    await page.getByRole('button', { name: /Trial files/ }).click();
+    await page.getByTestId('trial-file-input').setInputFiles(file);
+    await page.getByRole('button', { name: /Columns/ }).click();
+    const problem = page.getByTestId('build-problem');
+    await problem.waitFor({ timeout: 20_000 });
+    await expect(problem.textContent()).resolves.toMatch(/gives plot weights .* plot area setting/);
+    // The field takes the unit system's unit: 10 m² is 107.639104 ft² (1 ft = 0.3048 m, NIST SP 811).
+    const field = page.getByTestId('plot-area');
+    const inFeet = /ft²/.test((await field.locator('xpath=../..').textContent()) ?? '');
+    await field.fill(inFeet ? '107.639104' : '10');
+    await field.blur();
+    await problem.waitFor({ state: 'detached' });
+    await shot(page, '07d-plot-area-setting');
+    const first = page.getByTestId('preview-row').filter({ hasText: 'Ash Mere' }).first();
+    await expect(first.textContent()).resolves.toMatch(inFeet ? /98\.\d/ : /6\.2/);
+    // The yield points back to the plot weight's cell it was worked out from.
+    await expect(first.textContent()).resolves.toMatch(/D2 “6\.20”/);
+    expect(session.pageErrors.map((e) => e.slice(0, 300))).toEqual([]);
+  });
+
   it('fits 1024 px: the model table inside its panel, the ratio and risk tables apart', async () => {
     const { page } = session;
     await page.setViewportSize({ width: 1024, height: 768 });
