@@ -243,6 +243,7 @@ function summary(report: TrialReport): string[] {
     `${Math.round(u.perArea(perHa)).toLocaleString('en-US')} per ${u.areaName}`;
   const lines: string[] = [];
   const show = report.sites.slice(0, 20);
+  const top = (s: SiteReport): number | undefined => s.ratesKgHa[s.ratesKgHa.length - 1];
   const siteText = (s: SiteReport): string => {
     // The site's recommendation as its decision makes it (no response, full response, a curve).
     const r = s.recommendation;
@@ -263,7 +264,11 @@ function summary(report: TrialReport): string[] {
     if (r.basis === 'no-response') text = `no response to N found: no N${ci}`;
     else if (r.basis === 'full-response' && r.rangeKgHa)
       text = `full response by the lowest rate: at most ${rate(r.rangeKgHa[1])}${ci}`;
-    else if (m && r.rateKgHa !== null)
+    else if (m && r.rateKgHa !== null && r.rateKgHa > 0 && r.rateKgHa === top(s)) {
+      // The trial stopped too low to place the optimum: an interval pinned at the top says nothing more.
+      const pinned = r.ciKgHa?.[0] === r.rateKgHa && r.ciKgHa[1] === r.rateKgHa;
+      text = `${m.label}, optimum at or above the highest tested rate, ${rate(r.rateKgHa)}${pinned ? '' : ci}${yieldText}`;
+    } else if (m && r.rateKgHa !== null)
       text = `${m.label}, optimum ${rate(r.rateKgHa)}${ci}${yieldText}`;
     return text;
   };

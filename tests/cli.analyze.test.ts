@@ -155,6 +155,25 @@ describe('plotrate analyze --plot-area', () => {
   });
 });
 
+describe('plotrate analyze, a trial whose yields still rise at its highest rate', () => {
+  it('says the optimum is at or above that rate, not that it is there', () => {
+    // Invented: a check and one rate, the rate paying well. Two rates cannot place an optimum
+    // (common practice: an optimum at the top of the tested range is not located).
+    const rows = ['Site,Block,N rate (kg N/ha),Grain (t/ha)'];
+    for (let b = 1; b <= 4; b++)
+      rows.push(`Fenwick Hill,${b},0,${3 + 0.1 * b}`, `Fenwick Hill,${b},150,${5 + 0.1 * b}`);
+    writeFileSync(path.join(dir, 'two-rates.csv'), `${rows.join('\n')}\n`);
+    const r = run(['analyze', 'two-rates.csv', '--boot', '20', '--json', 'two-rates.json']);
+    expect(r.code, r.err).toBe(0);
+    expect(r.out).toMatch(
+      /Fenwick Hill: .*optimum at or above the highest tested rate, 150 kg N\/ha/,
+    );
+    const j = JSON.parse(readFileSync(path.join(dir, 'two-rates.json'), 'utf8'));
+    expect(j.sites[0].recommendation.basis).toBe('no-plateau');
+    expect(j.sites[0].warnings.join(' ')).toMatch(/did not test high enough/);
+  });
+});
+
 describe('plotrate analyze --map', () => {
   it('fails without the mapping and succeeds when --map names the rate, site and block columns', () => {
     // Headers the detector cannot read as a rate, a site or a block.

@@ -394,7 +394,13 @@ function siteReport(
       'The curves that fit this site put the optimum far apart (see the optimum of each model): the choice of model matters here, so weigh the interval and the other curves before acting on one rate.',
     );
   const bestRow = bestFit ? c.rows.get(bestFit.model)! : null;
-  if (bestRow?.optimumStatus === 'capped-at-highest' && basis !== 'no-response')
+  // A rate at the highest tested one says only that the trial stopped too low: a capped
+  // optimum, or a straight line or unlevelled curve whose rise still pays there.
+  const atHighest =
+    basis === 'no-plateau' &&
+    distinct.length > 0 &&
+    recommendation.rateKgHa === distinct[distinct.length - 1];
+  if ((bestRow?.optimumStatus === 'capped-at-highest' && basis !== 'no-response') || atHighest)
     warnings.push(
       'The optimum lies at or beyond the highest tested rate; the trial did not test high enough to find it.',
     );
