@@ -171,3 +171,35 @@ describe('the report, the grower page and the results file say the same', () => 
     expect(page.warnings[0]).toMatch(/whole yield response came by the lowest rate/);
   });
 });
+
+describe('a site still rising at the highest rate tested', () => {
+  // 25 kg of grain per kg of N all the way to 200 kg/ha: more than three times the illustrative
+  // price ratio, so every curve puts the best rate at (or past) the highest rate tested.
+  const ramp: PlotTable = { ...table, plots: site('Ramp', (x) => 9000 + 25 * x) };
+  const report = reportOf(
+    ramp,
+    {
+      units: { rate: 'kg/ha', yield: 't/ha' },
+      unitSystem: 'metric',
+      currency: 'USD',
+      crop: ramp.crop,
+      prices: { grainPrice: 180, nutrientPrice: 1.26, product: null, defaulted: false },
+      boot: 100,
+      seed: 3,
+      blocks: 'fixed',
+      intervalLevel: 0.9,
+    },
+    { tool: { name: 'Plotrate', version: 'test' }, createdAt: '2026-01-01T00:00:00Z', mapping: [] },
+  );
+
+  it('recommends the highest rate as what it is, and says the best rate is not located', () => {
+    const s = report.sites[0];
+    expect(s.recommendation.rateKgHa).toBe(200);
+    expect(s.warnings.join(' ')).toMatch(/did not test high enough/);
+    const page = growerPage(report, 'Ramp');
+    expect(page.recommendation).toMatch(/^Apply about 200 kg N\/ha, the highest rate tested/);
+    // Resamples counted at the top rate would read "fairly sure"; the page says otherwise.
+    expect(page.certainty.level).toBe('not very sure');
+    expect(page.certainty.text).toMatch(/^Not located: .*cannot say whether more would pay/);
+  });
+});

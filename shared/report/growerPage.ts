@@ -85,6 +85,14 @@ function certaintyOf(
   level: number,
   highestRate: number,
 ): GrowerPage['certainty'] {
+  // A best rate at the highest rate tested is where the trial stopped, not where the return
+  // peaked: resamples counted there (no plateau) make it look certain when it is not located.
+  if (opt > 0 && opt >= highestRate) {
+    return {
+      level: 'not very sure',
+      text: `Not located: the best rate came out at the highest rate tested, ${fmt(highestRate)}, so this trial cannot say whether more would pay; a trial with higher rates would.`,
+    };
+  }
   if (!ci) {
     return {
       level: 'unknown',
@@ -409,7 +417,9 @@ function pageOf(report: TrialReport, which: string | 'region'): GrowerPage {
     recommendation:
       roundedRate === 0
         ? 'Apply no N: at these prices it did not pay here'
-        : `Apply about ${fmtApply(opt)}`,
+        : opt >= (rates[rates.length - 1] ?? Infinity)
+          ? `Apply about ${fmtApply(opt)}, the highest rate tested`
+          : `Apply about ${fmtApply(opt)}`,
     productRecommendation: roundedRate === 0 ? '' : productText(opt),
     rate: roundedRate,
     facts,
