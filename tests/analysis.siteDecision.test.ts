@@ -176,21 +176,22 @@ describe('a site still rising at the highest rate tested', () => {
   // 25 kg of grain per kg of N all the way to 200 kg/ha: more than three times the illustrative
   // price ratio, so every curve puts the best rate at (or past) the highest rate tested.
   const ramp: PlotTable = { ...table, plots: site('Ramp', (x) => 9000 + 25 * x) };
-  const report = reportOf(
-    ramp,
-    {
-      units: { rate: 'kg/ha', yield: 't/ha' },
-      unitSystem: 'metric',
-      currency: 'USD',
-      crop: ramp.crop,
-      prices: { grainPrice: 180, nutrientPrice: 1.26, product: null, defaulted: false },
-      boot: 100,
-      seed: 3,
-      blocks: 'fixed',
-      intervalLevel: 0.9,
-    },
-    { tool: { name: 'Plotrate', version: 'test' }, createdAt: '2026-01-01T00:00:00Z', mapping: [] },
-  );
+  const settings = {
+    units: { rate: 'kg/ha', yield: 't/ha' },
+    unitSystem: 'metric',
+    currency: 'USD',
+    crop: ramp.crop,
+    prices: { grainPrice: 180, nutrientPrice: 1.26, product: null, defaulted: false },
+    boot: 100,
+    seed: 3,
+    blocks: 'fixed',
+    intervalLevel: 0.9,
+  } as const;
+  const report = reportOf(ramp, settings, {
+    tool: { name: 'Plotrate', version: 'test' },
+    createdAt: '2026-01-01T00:00:00Z',
+    mapping: [],
+  });
 
   it('recommends the highest rate as what it is, and says the best rate is not located', () => {
     const s = report.sites[0];
@@ -201,5 +202,25 @@ describe('a site still rising at the highest rate tested', () => {
     // Resamples counted at the top rate would read "fairly sure"; the page says otherwise.
     expect(page.certainty.level).toBe('not very sure');
     expect(page.certainty.text).toMatch(/^Not located: .*cannot say whether more would pay/);
+  });
+
+  it('says the same on the region page when every site still rises (they agree only at the top)', () => {
+    const twoRamps: PlotTable = {
+      ...table,
+      plots: [...site('Ramp', (x) => 9000 + 25 * x), ...site('Ramp II', (x) => 9400 + 28 * x)],
+    };
+    const regional = reportOf(
+      twoRamps,
+      { ...settings, boot: 0 },
+      {
+        tool: { name: 'Plotrate', version: 'test' },
+        createdAt: '2026-01-01T00:00:00Z',
+        mapping: [],
+      },
+    );
+    expect(regional.acrossSites!.bestRateKgHa).toBe(200);
+    const page = growerPage(regional, 'region');
+    expect(page.recommendation).toMatch(/the highest rate tested$/);
+    expect(page.certainty.text).toMatch(/^Not located/);
   });
 });

@@ -77,6 +77,14 @@ export interface GrowerPage {
 const FAIRLY_SURE = 0.15;
 const MODERATELY_SURE = 0.35;
 
+/** The certainty of a best rate at the highest rate tested: where the trial stopped. */
+function notLocated(highest: string): GrowerPage['certainty'] {
+  return {
+    level: 'not very sure',
+    text: `Not located: the best rate came out at the highest rate tested, ${highest}, so this trial cannot say whether more would pay; a trial with higher rates would.`,
+  };
+}
+
 /** How sure the optimum is, in words a grower uses, from its interval (display units). */
 function certaintyOf(
   opt: number,
@@ -87,12 +95,7 @@ function certaintyOf(
 ): GrowerPage['certainty'] {
   // A best rate at the highest rate tested is where the trial stopped, not where the return
   // peaked: resamples counted there (no plateau) make it look certain when it is not located.
-  if (opt > 0 && opt >= highestRate) {
-    return {
-      level: 'not very sure',
-      text: `Not located: the best rate came out at the highest rate tested, ${fmt(highestRate)}, so this trial cannot say whether more would pay; a trial with higher rates would.`,
-    };
-  }
+  if (opt > 0 && opt >= highestRate) return notLocated(fmt(highestRate));
   if (!ci) {
     return {
       level: 'unknown',
@@ -274,10 +277,16 @@ function pageOf(report: TrialReport, which: string | 'region'): GrowerPage {
     if (!a)
       throw new RangeError('growerPage: the report has no across-site result to recommend from.');
     const rate = applicationRate(u.rate(a.bestRateKgHa), ru);
+    // The regional curve ends at the highest rate tested: a best rate there is not located
+    // (sites all still rising agree at that rate, which is no sign of certainty).
+    const regionTop = a.chart.rateKgHa[a.chart.rateKgHa.length - 1];
+    const atTop = a.bestRateKgHa > 0 && regionTop !== undefined && a.bestRateKgHa >= regionTop;
     return {
       ...base,
       subject: `Region (${a.sites.length} sites)`,
-      recommendation: `Apply about ${fmtApply(a.bestRateKgHa)}`,
+      recommendation: atTop
+        ? `Apply about ${fmtApply(a.bestRateKgHa)}, the highest rate tested`
+        : `Apply about ${fmtApply(a.bestRateKgHa)}`,
       productRecommendation: productText(a.bestRateKgHa),
       rate,
       facts: [
@@ -288,14 +297,16 @@ function pageOf(report: TrialReport, which: string | 'region'): GrowerPage {
         { label: 'Mean yield gain over no N', value: fmtYield(a.meanYieldGainAtBestKgHa) },
         { label: 'Mean net return over no N', value: money(a.bestMeanReturnPerHa) },
       ],
-      certainty: withSiteYearInterval(
-        spreadCertainty(
-          a.siteOptima.map((o) => o.rateKgHa),
-          fmtRate,
-        ),
-        a.bestRateInterval,
-        fmtRate,
-      ),
+      certainty: atTop
+        ? notLocated(fmtRate(regionTop))
+        : withSiteYearInterval(
+            spreadCertainty(
+              a.siteOptima.map((o) => o.rateKgHa),
+              fmtRate,
+            ),
+            a.bestRateInterval,
+            fmtRate,
+          ),
       basis: [
         `${a.sites.length} sites: ${a.sites.join(', ')}.`,
         `The rate with the highest net return averaged over the sites' fitted curves (maximum return to N across sites); rates within ${money(a.bandPerHa)} of that best return, the tolerance set with the prices, count as profitable.`,
