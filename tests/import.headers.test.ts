@@ -11,6 +11,7 @@ import {
   roleFromHeader,
   unitFromHeader,
 } from '../shared/import';
+import { importFiles } from '../shared/import/importFiles';
 import { makeWorkbook } from './fixtures/import/makeWorkbook';
 
 const LBAC = (0.45359237 * 10000) / (43560 * 0.3048 * 0.3048); // exact pound and acre (NIST SP 811)
@@ -107,6 +108,45 @@ describe('rateHeaderBasis', () => {
     expect(table.plots.map((p) => p.rateKgHa)).toEqual(
       [0, 46 * LBAC, 92 * LBAC].map((v) => expect.closeTo(v, 9)),
     );
+  });
+});
+
+describe('headers in words Plotrate does not know', () => {
+  // Invented: a German-language sheet, semicolons and decimal commas, yields in dt/ha.
+  const text = [
+    'Standort;Wdh;N-Menge (kg N/ha);Ertrag (dt/ha)',
+    'Holmbach;1;0;62,5',
+    'Holmbach;1;60;78,1',
+    'Holmbach;2;0;60,1',
+    'Holmbach;2;60;80,3',
+  ].join('\n');
+  const files = [{ name: 'holmbach.csv', bytes: new TextEncoder().encode(`${text}\n`) }];
+
+  it('are refused with the header-like row and how to name its columns', async () => {
+    await expect(importFiles(files, { crop: 'wheat', overrides: [] })).rejects.toThrow(
+      /no sheet reads as plots .* reads "Standort", "Wdh", "N-Menge \(kg N\/ha\)", "Ertrag \(dt\/ha\)"\. Name the columns with --map/,
+    );
+  });
+
+  it('are read once --map names them: the header row is found by the named columns', async () => {
+    const { table } = await importFiles(files, {
+      crop: 'wheat',
+      overrides: [
+        { role: 'yield', header: 'Ertrag (dt/ha)' },
+        { role: 'site', header: 'Standort' },
+        { role: 'block', header: 'Wdh' },
+      ],
+    });
+    expect(table.plots.map((p) => p.site)).toEqual([
+      'Holmbach',
+      'Holmbach',
+      'Holmbach',
+      'Holmbach',
+    ]);
+    expect(table.plots.map((p) => p.block)).toEqual(['1', '1', '2', '2']);
+    expect(table.plots.map((p) => p.rateKgHa)).toEqual([0, 60, 0, 60]);
+    // 1 dt = 100 kg (a decitonne, the quintal of common practice): 62.5 dt/ha is 6,250 kg/ha.
+    expect(table.plots[0].yieldKgHa).toBeCloseTo(6250, 9);
   });
 });
 

@@ -27,26 +27,43 @@ import { products } from '../units/products';
 /** How many rows from the top are searched for the header. */
 const headerSearchRows = 30;
 
-function headerScore(sheet: RawSheet, r: number): number {
+/**
+ * Headers the user gave a role (the command line's --map), normalized, with that role: they
+ * count as known words, so a sheet whose headers Plotrate does not know (another language, a
+ * house style) is still found and read.
+ */
+export type NamedHeaders = ReadonlyMap<string, Exclude<MappedRole, 'ignore'>>;
+
+/** The role a header names: its own words, else the role the user gave it. */
+function headerRole(
+  text: string,
+  named: NamedHeaders,
+): { role: Exclude<MappedRole, 'ignore'>; word: string; byUser?: true } | null {
+  const role = named.get(normalizeHeader(text));
+  if (role) return { role, word: text.trim(), byUser: true };
+  return roleFromHeader(text);
+}
+
+function headerScore(sheet: RawSheet, r: number, named: NamedHeaders): number {
   const row = sheet.rows[r - 1] ?? [];
   const roles = new Set<string>();
   let texts = 0;
   for (const c of row) {
     if (!c || c.kind !== 'text') continue;
     texts++;
-    const m = roleFromHeader(c.text);
+    const m = headerRole(c.text, named);
     if (m) roles.add(m.role);
   }
   // A title row is one long cell; a header has several short labelled cells.
   return roles.size >= 2 ? roles.size * 10 + Math.min(texts, 9) : 0;
 }
 
-function findHeaderRow(sheet: RawSheet): number {
+function findHeaderRow(sheet: RawSheet, named: NamedHeaders): number {
   let best = 0;
   let bestScore = 0;
   const last = Math.min(sheet.rows.length, headerSearchRows);
   for (let r = 1; r <= last; r++) {
-    const s = headerScore(sheet, r);
+    const s = headerScore(sheet, r, named);
     if (s > bestScore) {
       bestScore = s;
       best = r;
@@ -212,10 +229,15 @@ function timingAsFactor(columns: ColumnAssignment[]): void {
     '; a timing column on a plots sheet is a treatment factor: each timing gets its own response curve, the zero-rate check shared';
 }
 
-function mapSheet(sheet: RawSheet, multipleSheets: boolean, fileName: string): SheetMapping {
+function mapSheet(
+  sheet: RawSheet,
+  multipleSheets: boolean,
+  fileName: string,
+  userRoles: NamedHeaders,
+): SheetMapping {
   if (sheet.hidden)
     return ignoredSheet(sheet, 'hidden sheet; include it by hand if it holds plots');
-  const headerRow = findHeaderRow(sheet);
+  const headerRow = findHeaderRow(sheet, userRoles);
   if (headerRow === 0) {
     return ignoredSheet(
       sheet,
@@ -252,7 +274,7 @@ function mapSheet(sheet: RawSheet, multipleSheets: boolean, fileName: string): S
       }
       return;
     }
-    const found = roleFromHeader(text);
+    const found = headerRole(text, userRoles);
     const values = columnValues(sheet, headerRow, col);
     const a: ColumnAssignment = {
       col,
@@ -268,7 +290,7 @@ function mapSheet(sheet: RawSheet, multipleSheets: boolean, fileName: string): S
       return;
     }
     a.role = found.role;
-    const why: string[] = [`header word "${found.word}"`];
+    const why: string[] = [found.byUser ? 'role given by the user' : `header word "${found.word}"`];
     const u = unitFromHeader(text);
     const allowed = UNITS_BY_ROLE[a.role];
     if (u && allowed?.includes(u.unit)) {
@@ -395,15 +417,16 @@ function mapSheet(sheet: RawSheet, multipleSheets: boolean, fileName: string): S
 /**
  * Detects the layout of a workbook.
  * @param raw - a workbook from readTrialFile
+ * @param named - headers the user gave a role (normalized header → role), read as known words
  * @returns a mapping per sheet: header row, column roles and units with evidence, site source,
  *   and the shape signature for reuse
  * @example
  * const m = detectColumns(raw);
  * m.sheets.find((s) => s.use === 'treatment-key')?.sheet // 'Treatments'
  */
-export function detectColumns(raw: RawWorkbook): ColumnMapping {
+export function detectColumns(raw: RawWorkbook, named: NamedHeaders = new Map()): ColumnMapping {
   const plotsLike = raw.sheets.filter((s) => !s.hidden).length;
-  const sheets = raw.sheets.map((s) => mapSheet(s, plotsLike > 1, raw.file.name));
+  const sheets = raw.sheets.map((s) => mapSheet(s, plotsLike > 1, raw.file.name, named));
   const plotSheets = sheets.filter((s) => s.use === 'plots');
   // One plots sheet without a site column in a file: the site is the file's name.
   if (plotSheets.length === 1 && plotSheets[0].site.from === 'fixed') {

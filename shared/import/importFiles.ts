@@ -19,7 +19,8 @@ import {
   type HeaderUnit,
   type MappedRole,
 } from './columnMapping';
-import { detectColumns } from './detectColumns';
+import { detectColumns, type NamedHeaders } from './detectColumns';
+import { normalizeHeader } from './headerWords';
 import { ImportError } from './importError';
 import { mappingEntries, type MappingEntry } from './mappingEntries';
 import { readTrialFile } from './readTrialFile';
@@ -52,6 +53,47 @@ export interface ImportedFiles {
 }
 
 const norm = (s: string): string => s.trim().toLowerCase().replace(/\s+/g, ' ');
+
+/**
+ * When no sheet reads as plots, the reason with what the user can do: the first row that looks
+ * like a header, and --map to name its columns (headers in words Plotrate does not know).
+ */
+function noPlotSheet(
+  raws: readonly RawWorkbook[],
+  mappings: readonly ColumnMapping[],
+  sheets: readonly string[] | undefined,
+): ImportError | null {
+  const inUse = (s: ColumnMapping['sheets'][number]) => !sheets || sheets.includes(s.sheet);
+  if (mappings.some((m) => m.sheets.some((s) => s.use === 'plots' && inUse(s)))) return null;
+  const raw = raws[0];
+  const sheet = raw?.sheets.find((s) => !s.hidden && (!sheets || sheets.includes(s.name)));
+  if (!raw || !sheet) return null;
+  const row = sheet.rows
+    .slice(0, 30)
+    .find((r) => r.filter((c) => c?.kind === 'text' && c.text.trim() !== '').length >= 2);
+  const cells = (row ?? []).flatMap((c) =>
+    c?.kind === 'text' && c.text.trim() ? [c.text.trim()] : [],
+  );
+  const heard =
+    cells.length > 0
+      ? ` Its first header-like row reads ${cells
+          .slice(0, 12)
+          .map((t) => `"${t}"`)
+          .join(', ')}.`
+      : '';
+  return new ImportError(
+    'no-data',
+    `${raws.map((r) => `"${r.file.name}"`).join(', ')}: no sheet reads as plots (no row names a yield or plot weight among columns Plotrate knows).${heard} Name the columns with --map, e.g. --map yield="Grain header" rate="Rate header" site=Farm block=Rep.`,
+    { file: raw.file.name, ...(sheet.name ? { sheet: sheet.name } : {}) },
+  );
+}
+
+/** The --map headers, normalized as detection reads them, with their roles. */
+function namedHeaders(overrides: readonly RoleOverride[]): NamedHeaders {
+  const named = new Map<string, Exclude<MappedRole, 'ignore'>>();
+  for (const o of overrides) if (o.role !== 'ignore') named.set(normalizeHeader(o.header), o.role);
+  return named;
+}
 
 /** Applies overrides to one file's mapping; returns the headers that matched. */
 function applyOverrides(mapping: ColumnMapping, overrides: readonly RoleOverride[]): Set<string> {
@@ -191,7 +233,9 @@ export async function importFiles(
   const unitMatched = new Set<MappedRole>();
   for (const f of files) {
     const raw = await readTrialFile({ name: f.name, bytes: f.bytes });
-    const mapping = detectColumns(raw);
+    // The headers named with --map count as known, so a sheet in words Plotrate does not know
+    // is still found (its header row, then the roles the user gave).
+    const mapping = detectColumns(raw, namedHeaders(options.overrides));
     for (const h of applyOverrides(mapping, options.overrides)) matched.add(h);
     for (const r of applyUnits(mapping, options.units ?? [])) unitMatched.add(r);
     raws.push(raw);
@@ -224,6 +268,8 @@ export async function importFiles(
       { file: files[0]?.name ?? '' },
     );
   }
+  const noPlots = noPlotSheet(raws, mappings, options.sheets);
+  if (noPlots) throw noPlots;
   const chosen: CropChoice = options.crop
     ? { crop: options.crop, finding: null }
     : cropOfFiles(raws, mappings, options.sheets);
