@@ -10,6 +10,7 @@ import {
   decide,
   setColumnRole,
   setColumnUnit,
+  setHeaderRow,
   setSheetUse,
 } from '../renderer/src/analysis/edits';
 
@@ -32,6 +33,46 @@ describe('renderer edits', () => {
     expect(cols.filter((c) => c.role === 'yield')).toHaveLength(1);
     // The original is untouched (undo snapshots rely on it).
     expect(mapping.sheets[0].columns.find((c) => c.col === yieldCol.col)!.role).toBe('yield');
+  });
+
+  it('a header row given by hand lists headers in words Plotrate does not know, to be given roles', async () => {
+    // Invented: a title row, then German headers; semicolons and decimal commas; yields in dt/ha.
+    const text = [
+      'Feldversuch Holmbach 2025',
+      'Standort;Wdh;N-Menge (kg N/ha);Ertrag (dt/ha)',
+      'Holmbach;1;0;62,5',
+      'Holmbach;1;60;78,1',
+    ].join('\n');
+    const raw = await readTrialFile({
+      name: 'holmbach.csv',
+      bytes: new TextEncoder().encode(text),
+    });
+    const found = detectColumns(raw);
+    expect(found.sheets[0].headerRow).toBe(0);
+    const sheet = found.sheets[0].sheet;
+    let m = setHeaderRow(found, raw, sheet, 2);
+    expect(m.sheets[0].headerRow).toBe(2);
+    expect(m.sheets[0].use).toBe('plots');
+    expect(m.sheets[0].columns.map((c) => c.header)).toEqual([
+      'Standort',
+      'Wdh',
+      'N-Menge (kg N/ha)',
+      'Ertrag (dt/ha)',
+    ]);
+    // The rate is known by its unit; the rest take the roles the user gives.
+    expect(m.sheets[0].columns[2].role).toBe('rate');
+    m = setColumnRole(m, sheet, 4, 'yield');
+    m = setColumnRole(m, sheet, 1, 'site');
+    m = setColumnRole(m, sheet, 2, 'block');
+    expect(m.sheets[0].site).toEqual({ from: 'column' });
+    const { table } = buildPlotTable(raw, m, { crop: 'wheat', rateBasis: 'nutrient' });
+    expect(table.plots.map((p) => [p.site, p.block, p.rateKgHa])).toEqual([
+      ['Holmbach', '1', 0],
+      ['Holmbach', '1', 60],
+    ]);
+    // 1 dt = 100 kg: 62.5 dt/ha is 6,250 kg/ha (no moisture column: taken as at standard moisture).
+    expect(table.plots[0].yieldKgHa).toBeCloseTo(6250, 9);
+    expect(() => setHeaderRow(found, raw, sheet, 9)).toThrow(/outside the sheet's 4 rows/);
   });
 
   it('a repeatable role (group) does not push other columns aside', async () => {

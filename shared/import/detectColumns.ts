@@ -234,10 +234,11 @@ function mapSheet(
   multipleSheets: boolean,
   fileName: string,
   userRoles: NamedHeaders,
+  headerRowGiven?: number,
 ): SheetMapping {
-  if (sheet.hidden)
+  if (sheet.hidden && headerRowGiven === undefined)
     return ignoredSheet(sheet, 'hidden sheet; include it by hand if it holds plots');
-  const headerRow = findHeaderRow(sheet, userRoles);
+  const headerRow = headerRowGiven ?? findHeaderRow(sheet, userRoles);
   if (headerRow === 0) {
     return ignoredSheet(
       sheet,
@@ -412,6 +413,36 @@ function mapSheet(
     cropHint: use === 'plots' ? (named?.crop ?? null) : null,
     ...(use === 'plots' && named ? { cropEvidence: named.evidence } : {}),
   };
+}
+
+/**
+ * One sheet mapped again from a header row the user chose: each header read as detection reads
+ * it, the others listed with no role for the user to give one. For a sheet whose header row was
+ * not found (headers in words Plotrate does not know) or was found in the wrong row.
+ * @param raw - the workbook
+ * @param sheetName - the sheet
+ * @param headerRow - the 1-based row holding the headers
+ * @returns the sheet's mapping
+ * @throws {RangeError} for a sheet the workbook lacks or a row outside the sheet
+ * @example
+ * mapSheetFromHeaderRow(raw, 'Versuch', 3).columns.map((c) => c.header)
+ */
+export function mapSheetFromHeaderRow(
+  raw: RawWorkbook,
+  sheetName: string,
+  headerRow: number,
+): SheetMapping {
+  const sheet = raw.sheets.find((s) => s.name === sheetName);
+  if (!sheet) throw new RangeError(`"${raw.file.name}" has no sheet called "${sheetName}".`);
+  if (!(Number.isInteger(headerRow) && headerRow >= 1 && headerRow <= sheet.rows.length))
+    throw new RangeError(`Row ${headerRow} is outside the sheet's ${sheet.rows.length} rows.`);
+  const multiple = raw.sheets.filter((s) => !s.hidden).length > 1;
+  const m = mapSheet(sheet, multiple, raw.file.name, new Map(), headerRow);
+  const site: SheetMapping['site'] =
+    m.site.from === 'fixed' && !m.site.value
+      ? { from: 'fixed', value: raw.file.name.replace(/\.[^.]+$/, '') }
+      : m.site;
+  return { ...m, site, evidence: `header row ${headerRow} set by you; ${m.evidence}` };
 }
 
 /**

@@ -9,6 +9,7 @@ import { readFile } from 'node:fs/promises';
 import { analyzeCommand } from '../../cli/analyzeCommand';
 import { parseArgs, type AnalyzeArgs } from '../../cli/parseArgs';
 import { syntheticWorkbook } from '../../shared/demo/syntheticTrial';
+import { makeWorkbook } from '../fixtures/import/makeWorkbook';
 import { recommendationCautions } from '../../shared/economics/recommendationCautions';
 import { openSession, shot, SHOT_DIR, type Session } from './harness';
 
@@ -567,6 +568,40 @@ describe('the workspace in chromium', () => {
     await expect(first.textContent()).resolves.toMatch(inFeet ? /98\.\d/ : /6\.2/);
     // The yield points back to the plot weight's cell it was worked out from.
     await expect(first.textContent()).resolves.toMatch(/D2 “6\.20”/);
+    expect(session.pageErrors.map((e) => e.slice(0, 300))).toEqual([]);
+  });
+
+  it('reads a sheet headed in words it does not know once the header row and roles are given', async () => {
+    const { page } = session;
+    const dir = await mkdtemp(path.join(tmpdir(), 'plotrate-e2e-header-'));
+    const file = path.join(dir, 'Holmbach Versuch.xlsx');
+    // Invented: a title row, then German headers; yields in dt/ha.
+    const rows: unknown[][] = [
+      ['Feldversuch Holmbach 2025'],
+      ['Standort', 'Wdh', 'N-Menge (kg N/ha)', 'Ertrag (dt/ha)'],
+    ];
+    for (let b = 1; b <= 3; b++)
+      for (const x of [0, 60, 120, 180])
+        rows.push(['Holmbach', b, x, 62.5 + 0.12 * Math.min(x, 120)]);
+    await writeFile(file, await makeWorkbook([{ name: 'Versuch', rows }]));
+    await page.getByRole('button', { name: /Trial files/ }).click();
+    await page.getByTestId('trial-file-input').setInputFiles(file);
+    await page.getByRole('button', { name: /Columns/ }).click();
+    const card = page.getByTestId('sheet-Versuch');
+    await card.waitFor({ timeout: 20_000 });
+    await expect(card.textContent()).resolves.toMatch(/no header row found/);
+    await page.getByTestId('header-row-Versuch').fill('2');
+    await page.getByTestId('header-row-Versuch').blur();
+    await page.getByTestId('role-Versuch-A').selectOption('site');
+    await page.getByTestId('role-Versuch-B').selectOption('block');
+    await page.getByTestId('role-Versuch-D').selectOption('yield');
+    // Giving a header row reads the sheet as plots.
+    await expect(card.getByLabel('Use').inputValue()).resolves.toBe('plots');
+    const first = page.getByTestId('preview-row').filter({ hasText: 'Holmbach' }).first();
+    await first.waitFor({ timeout: 10_000 });
+    // 1 dt = 100 kg: 62.5 dt/ha is 6,250 kg/ha, 99.6 bu/ac of corn (56 lb bushels, NIST SP 811 pound and acre).
+    await expect(first.textContent()).resolves.toMatch(/6\.25 t\/ha|99\.6 bu\/ac/);
+    await shot(page, '07e-header-row-given');
     expect(session.pageErrors.map((e) => e.slice(0, 300))).toEqual([]);
   });
 

@@ -13,7 +13,9 @@ import {
   type MappedRole,
   type SheetMapping,
 } from '../../../shared/import/columnMapping';
+import { mapSheetFromHeaderRow } from '../../../shared/import/detectColumns';
 import type { ImportSettings } from '../../../shared/import/importSettings';
+import type { RawWorkbook } from '../../../shared/import/rawWorkbook';
 import type { Correction, Plot, PlotTable } from '../../../shared/table/plotTable';
 
 /** What the user decided about one plot. */
@@ -70,13 +72,13 @@ export function setColumnRole(
     if (!s.columns.some((c) => c.col === col)) {
       throw new RangeError(`Sheet "${sheet}" has no mapped column ${col}.`);
     }
-    return {
-      ...s,
-      columns: assignColumnRole(s.columns, col, role, {
-        chosen: (was) => `set by you (was ${was})`,
-        setAside: `set aside: column ${col} now holds the ${role}`,
-      }),
-    };
+    const columns = assignColumnRole(s.columns, col, role, {
+      chosen: (was) => `set by you (was ${was})`,
+      setAside: `set aside: column ${col} now holds the ${role}`,
+    });
+    // A site column given by hand is where the sites come from, as detection and --map decide.
+    const site: SheetMapping['site'] = role === 'site' ? { from: 'column' } : s.site;
+    return { ...s, columns, site };
   });
 }
 
@@ -151,6 +153,29 @@ export function setSheetUse(
   use: SheetMapping['use'],
 ): ColumnMapping {
   return updateSheet(mapping, sheet, (s) => ({ ...s, use, evidence: `set by you (was ${s.use})` }));
+}
+
+/**
+ * Reads a sheet's headers from the row the user chose (mapSheetFromHeaderRow): the columns and
+ * their roles are read afresh, and the sheet is read as plots unless its headers make it a
+ * treatment key (giving a header row says the sheet matters; its roles can then be given).
+ * @param mapping - the file's mapping
+ * @param raw - the file as read
+ * @param sheet - sheet name
+ * @param headerRow - the 1-based header row
+ * @returns the changed mapping
+ */
+export function setHeaderRow(
+  mapping: ColumnMapping,
+  raw: RawWorkbook,
+  sheet: string,
+  headerRow: number,
+): ColumnMapping {
+  const fresh = mapSheetFromHeaderRow(raw, sheet, headerRow);
+  return updateSheet(mapping, sheet, () => ({
+    ...fresh,
+    use: fresh.use === 'ignore' ? 'plots' : fresh.use,
+  }));
 }
 
 /**

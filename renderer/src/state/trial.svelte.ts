@@ -11,7 +11,7 @@ import type { QualityFinding } from '../../../shared/table/qualityFinding';
 import type { CropId, PlotTable } from '../../../shared/table/plotTable';
 import { cropsNamed, type CropNamed } from '../../../shared/import/cropsNamed';
 import { crops } from '../../../shared/units/crops';
-import { applyDecisions, type Edits } from '../analysis/edits';
+import { applyDecisions, setHeaderRow, type Edits } from '../analysis/edits';
 import { History } from './history.svelte';
 import type { Sources } from './sources.svelte';
 
@@ -172,6 +172,22 @@ export class Trial {
         cropConfirmed: true,
         standardMoisturePct: undefined,
       },
+    });
+  }
+
+  /**
+   * Reads a sheet's headers from the row the user chose (undoable).
+   * @param file - the file's name
+   * @param sheet - the sheet's name
+   * @param headerRow - the 1-based header row
+   */
+  setHeaderRow(file: string, sheet: string, headerRow: number): void {
+    const raw = this.#sources.workbooks.find((b) => b.file.name === file);
+    const mapping = this.edits.mappings[file];
+    if (!raw || !mapping) return;
+    this.change(`Sheet ${sheet || file}: header in row ${headerRow}`, {
+      ...this.edits,
+      mappings: { ...this.edits.mappings, [file]: setHeaderRow(mapping, raw, sheet, headerRow) },
     });
   }
 

@@ -150,7 +150,7 @@ export class Workspace {
           'warning',
           `No plot data found in ${file.name}`,
           `No sheet of “${file.name}” has a header row with a yield column near its top, so it adds no plots. ` +
-            'If it does hold plots, set the sheet’s use to “plots” in the Columns step and give the yield column its role.',
+            'If it does hold plots, give the row that holds its headers (“Header in row”) in the Columns step, then each column its role.',
         );
       }
     }
