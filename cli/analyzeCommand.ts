@@ -498,6 +498,8 @@ async function analyzedReport(
     units: args.columnUnits,
     sheets: extra.sheets,
     ...(args.plotAreaM2 !== null ? { plotAreaM2: args.plotAreaM2 } : {}),
+    // The product priced is the product of rates whose sheet names none.
+    ...(args.product ? { product: args.product } : {}),
   });
   const units = args.units ? displayUnits(args.units) : imported.inputUnits;
   const prices = pricesFrom(args, units, imported.table.crop);

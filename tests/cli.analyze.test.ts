@@ -174,6 +174,40 @@ describe('plotrate analyze, a trial whose yields still rise at its highest rate'
   });
 });
 
+describe('plotrate analyze, rates of a product the sheet names without its grade', () => {
+  it('asks which product instead of guessing, and --product answers', () => {
+    // Invented: UAN rates in lb of product per acre; UAN is 28 or 32 % N (common practice).
+    const rows = ['Site,Block,UAN (lb/ac),Yield (bu/ac)'];
+    for (let b = 1; b <= 3; b++)
+      for (const x of [0, 150, 300, 450])
+        rows.push(`Orrin Bend,${b},${x},${150 + 0.1 * Math.min(x, 300) + b}`);
+    writeFileSync(path.join(dir, 'uan.csv'), `${rows.join('\n')}\n`);
+    const asked = run(['analyze', 'uan.csv', '--boot', '0']);
+    expect(asked.code).toBe(2);
+    expect(asked.err).toMatch(
+      /is a rate of product, but no product is named.*--product with --product-price/,
+    );
+    const given = run([
+      'analyze',
+      'uan.csv',
+      '--boot',
+      '0',
+      '--product',
+      'uan32',
+      '--product-price',
+      '0.3',
+      '--json',
+      'uan.json',
+    ]);
+    expect(given.code, given.err).toBe(0);
+    expect(given.err).toContain('rate from "UAN (lb/ac)" (lb/ac of product: UAN 32 %)');
+    // 450 lb/ac of UAN 32 % is 144 lb N/ac: the highest tested rate in the results' lb/ac.
+    const j = JSON.parse(readFileSync(path.join(dir, 'uan.json'), 'utf8'));
+    const optimum = j.sites[0].recommendation.rate;
+    expect(optimum).toBeLessThanOrEqual(144 + 1e-6);
+  });
+});
+
 describe('plotrate analyze --map', () => {
   it('fails without the mapping and succeeds when --map names the rate, site and block columns', () => {
     // Headers the detector cannot read as a rate, a site or a block.

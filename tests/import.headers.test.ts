@@ -26,6 +26,7 @@ describe('roleFromHeader and unitFromHeader', () => {
     ['UAN (kg urea/ha)', 'rate', 'kg/ha', 'product'],
     ['Urea (lb/ac)', 'rate', 'lb/ac', null],
     ['UAN-32 kg/ha', 'rate', 'kg/ha', null],
+    ['UAN (lb/ac)', 'rate', 'lb/ac', null],
     ['Dry matter (kg grain/ha)', null, 'kg/ha', null],
     ['Total N (kg/ha)', 'rate', 'kg/ha', null],
     ['Nitrogen g/m²', 'rate', 'g/m2', null],
@@ -79,6 +80,8 @@ describe('rateHeaderBasis', () => {
     // N from urea is nitrogen: the N word wins over the product's name.
     ['Urea N (lb/ac)', 'nutrient', null],
     ['Rate (lb/ac)', null, null],
+    // UAN comes at 28 or 32 % N: without the grade the product is asked for, not guessed.
+    ['UAN (lb/ac)', 'product', null],
   ])('%s → basis %s, product %s', (header, basis, product) => {
     expect(rateHeaderBasis(header)).toEqual({ basis, product });
   });

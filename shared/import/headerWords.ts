@@ -70,8 +70,8 @@ export function roleFromHeader(
   const u = unitFromHeader(header);
   if (u?.unit === 'bu/ac' || u?.unit === 't/ha') return { role: 'yield', word: u.text };
   if (u?.basis) return { role: 'rate', word: u.text };
-  // A product per area is its rate: "Urea (lb/ac)", "UAN 32 kg/ha".
-  const product = productFromText(h);
+  // A product per area is its rate: "Urea (lb/ac)", "UAN 32 kg/ha", "UAN (lb/ac)".
+  const product = productFromText(h) ?? /\buan\b/.test(h);
   if (product && (u?.unit === 'lb/ac' || u?.unit === 'kg/ha'))
     return { role: 'rate', word: `${h} ${u.text}` };
   return null;
@@ -89,7 +89,8 @@ export interface RateHeaderBasis {
  * Whether a rate column's header says its rates are of nutrient or of product, and which
  * product: the one owner of this reading, for detection and for a role given by hand. The unit
  * says it first ("lb N/ac", "kg urea/ha"), then the words outside brackets: "product", then N or
- * nitrogen ("Urea N" is nitrogen from urea), then a product's name ("Urea (lb/ac)").
+ * nitrogen ("Urea N" is nitrogen from urea), then a product's name ("Urea (lb/ac)"); "UAN" with
+ * no grade is a product left unnamed, so its N content is asked for.
  * @param header - the header text
  * @returns the basis and the product
  * @example
@@ -102,13 +103,15 @@ export function rateHeaderBasis(header: string): RateHeaderBasis {
   const u = unitFromHeader(header);
   const named =
     productFromText(outside) ?? (u?.basis === 'product' ? productFromText(u.text) : null);
+  // UAN without its grade is a product whose N content (28 or 32 %) must be asked, not guessed.
+  const family = /\buan\b/.test(outside);
   const basis =
     u?.basis ??
     (/\bproduct\b/.test(h)
       ? 'product'
       : /\b(n|nitrogen)\b/.test(outside)
         ? 'nutrient'
-        : named
+        : named || family
           ? 'product'
           : null);
   return { basis, product: basis === 'product' && named ? named.id : null };

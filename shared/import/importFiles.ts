@@ -27,6 +27,7 @@ import { readTrialFile } from './readTrialFile';
 import { inputUnitsOf } from './inputUnits';
 import type { RawWorkbook } from './rawWorkbook';
 import { crops } from '../units/crops';
+import type { ProductId } from '../units/products';
 import { cropsNamed } from './cropsNamed';
 
 /** Roles a user may assign with an override: every role a column can have. */
@@ -225,6 +226,8 @@ export async function importFiles(
     sheets?: string[];
     /** Every plot's area, m², for sheets of plot weights without an area column (--plot-area). */
     plotAreaM2?: number;
+    /** The product of rates of product that no header, column or key names (--product). */
+    product?: ProductId;
   },
 ): Promise<ImportedFiles> {
   const raws = [];
@@ -278,12 +281,13 @@ export async function importFiles(
     rateBasis: BATCH_RATE_BASIS,
     ...(options.sheets ? { sheets: options.sheets } : {}),
     ...(options.plotAreaM2 !== undefined ? { plotAreaM2: options.plotAreaM2 } : {}),
+    ...(options.product ? { product: options.product } : {}),
   });
   if (chosen.finding) findings.unshift(chosen.finding);
   const entries = mappingEntries(
     raws.map((raw, i) => ({ file: raw.file.name, mapping: mappings[i] })),
     options.sheets,
-    { rateBasis: BATCH_RATE_BASIS },
+    { rateBasis: BATCH_RATE_BASIS, ...(options.product ? { product: options.product } : {}) },
   );
   const inputUnits = inputUnitsOf(mappings, options.sheets);
   return { table, findings, mapping: entries, inputUnits };

@@ -42,7 +42,7 @@ export function nutrientRateKgHa(
       const words = context.productWords;
       throw new ImportError(
         'bad-mapping',
-        `${context.where}: the rate ${rate} is a rate of product, but ${words ? `"${words}" is not a product Plotrate knows` : 'no product is named'}. Choose the product (urea 46-0-0, UAN 28 % or 32 %, anhydrous ammonia 82-0-0, ammonium sulfate 21-0-0, ammonium nitrate 34-0-0) in the import settings, or mark the rates as nutrient.`,
+        `${context.where}: the rate ${rate} is a rate of product, but ${words ? `"${words}" is not a product Plotrate knows` : 'no product is named'}. Choose the product (urea 46-0-0, UAN 28 % or 32 %, anhydrous ammonia 82-0-0, ammonium sulfate 21-0-0, ammonium nitrate 34-0-0) in the import settings (on the command line: --product with --product-price), or mark the rates as nutrient.`,
         context.ref,
       );
     }
