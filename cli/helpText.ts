@@ -2,7 +2,7 @@
  * The text of `plotrate --help`, with the same cautions the reports carry.
  */
 import { recommendationCautions } from '../shared/economics/recommendationCautions';
-import { THREADS_FROM_SITES } from './drawPool';
+import { THREADS_FROM_SITES } from './drawThreads';
 import { SITE_CHART_LIMIT } from './parseArgs';
 
 /**
