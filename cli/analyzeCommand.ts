@@ -21,6 +21,7 @@ import { OpenFileError } from '../electron/shellErrors';
 import { analysisSettings } from '../shared/analysis/analysisSettings';
 import { analyzeTrial, analyzeTrialDrawnBy } from '../shared/analysis/analyzeTrial';
 import { priceTrial } from '../shared/analysis/priceTrial';
+import { atHighestTestedRate } from '../shared/report/highestTestedRate';
 import { recommendationCautions } from '../shared/economics/recommendationCautions';
 import type { MappingEntry } from '../shared/import/mappingEntries';
 import { illustrativePrices } from '../shared/economics/illustrativePrices';
@@ -244,7 +245,6 @@ function summary(report: TrialReport): string[] {
     `${Math.round(u.perArea(perHa)).toLocaleString('en-US')} per ${u.areaName}`;
   const lines: string[] = [];
   const show = report.sites.slice(0, 20);
-  const top = (s: SiteReport): number | undefined => s.ratesKgHa[s.ratesKgHa.length - 1];
   const siteText = (s: SiteReport): string => {
     // The site's recommendation as its decision makes it (no response, full response, a curve).
     const r = s.recommendation;
@@ -265,7 +265,7 @@ function summary(report: TrialReport): string[] {
     if (r.basis === 'no-response') text = `no response to N found: no N${ci}`;
     else if (r.basis === 'full-response' && r.rangeKgHa)
       text = `full response by the lowest rate: at most ${rate(r.rangeKgHa[1])}${ci}`;
-    else if (m && r.rateKgHa !== null && r.rateKgHa > 0 && r.rateKgHa === top(s)) {
+    else if (m && r.rateKgHa !== null && atHighestTestedRate(r.rateKgHa, s.ratesKgHa.at(-1))) {
       // The trial stopped too low to place the optimum: an interval pinned at the top says nothing more.
       const pinned = r.ciKgHa?.[0] === r.rateKgHa && r.ciKgHa[1] === r.rateKgHa;
       text = `${m.label}, optimum at or above the highest tested rate, ${rate(r.rateKgHa)}${pinned ? '' : ci}${yieldText}`;

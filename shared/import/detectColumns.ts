@@ -25,7 +25,7 @@ import { areaToM2, lengthToM, type AreaUnit, type LengthUnit } from '../units/co
 import { products } from '../units/products';
 
 /** How many rows from the top are searched for the header. */
-const headerSearchRows = 30;
+export const headerSearchRows = 30;
 
 /**
  * Headers the user gave a role (the command line's --map), normalized, with that role: they

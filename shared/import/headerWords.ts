@@ -8,6 +8,12 @@
 import { productFromText, type ProductId } from '../units/products';
 import type { HeaderUnit, MappedRole } from './columnMapping';
 
+/**
+ * "UAN" in a header: a product whose grade (28 or 32 % N) productFromText does not guess from the
+ * name alone, so its rates are of a product to be named.
+ */
+const UAN_WITHOUT_GRADE = /\buan\b/;
+
 const rules: [Exclude<MappedRole, 'ignore'>, RegExp][] = [
   [
     'exclude',
@@ -71,8 +77,8 @@ export function roleFromHeader(
   if (u?.unit === 'bu/ac' || u?.unit === 't/ha') return { role: 'yield', word: u.text };
   if (u?.basis) return { role: 'rate', word: u.text };
   // A product per area is its rate: "Urea (lb/ac)", "UAN 32 kg/ha", "UAN (lb/ac)".
-  const product = productFromText(h) ?? /\buan\b/.test(h);
-  if (product && (u?.unit === 'lb/ac' || u?.unit === 'kg/ha'))
+  const namesProduct = productFromText(h) !== null || UAN_WITHOUT_GRADE.test(h);
+  if (namesProduct && (u?.unit === 'lb/ac' || u?.unit === 'kg/ha'))
     return { role: 'rate', word: `${h} ${u.text}` };
   return null;
 }
@@ -103,8 +109,7 @@ export function rateHeaderBasis(header: string): RateHeaderBasis {
   const u = unitFromHeader(header);
   const named =
     productFromText(outside) ?? (u?.basis === 'product' ? productFromText(u.text) : null);
-  // UAN without its grade is a product whose N content (28 or 32 %) must be asked, not guessed.
-  const family = /\buan\b/.test(outside);
+  const family = UAN_WITHOUT_GRADE.test(outside);
   const basis =
     u?.basis ??
     (/\bproduct\b/.test(h)

@@ -19,7 +19,7 @@ import {
   type HeaderUnit,
   type MappedRole,
 } from './columnMapping';
-import { detectColumns, type NamedHeaders } from './detectColumns';
+import { detectColumns, headerSearchRows, type NamedHeaders } from './detectColumns';
 import { normalizeHeader } from './headerWords';
 import { ImportError } from './importError';
 import { mappingEntries, type MappingEntry } from './mappingEntries';
@@ -70,7 +70,7 @@ function noPlotSheet(
   const sheet = raw?.sheets.find((s) => !s.hidden && (!sheets || sheets.includes(s.name)));
   if (!raw || !sheet) return null;
   const row = sheet.rows
-    .slice(0, 30)
+    .slice(0, headerSearchRows)
     .find((r) => r.filter((c) => c?.kind === 'text' && c.text.trim() !== '').length >= 2);
   const cells = (row ?? []).flatMap((c) =>
     c?.kind === 'text' && c.text.trim() ? [c.text.trim()] : [],

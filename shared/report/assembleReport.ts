@@ -32,6 +32,7 @@ import type { DisplaySettings } from './reportSettings';
 import { regionalChartData } from './regionalReturnChart';
 import { isBlockLabel } from '../stats/hasBlocks';
 import { toNumberArray } from '../stats/toNumberArray';
+import { atHighestTestedRate } from './highestTestedRate';
 import type {
   AcrossSitesReport,
   GroupReport,
@@ -397,9 +398,7 @@ function siteReport(
   // A rate at the highest tested one says only that the trial stopped too low: a capped
   // optimum, or a straight line or unlevelled curve whose rise still pays there.
   const atHighest =
-    basis === 'no-plateau' &&
-    distinct.length > 0 &&
-    recommendation.rateKgHa === distinct[distinct.length - 1];
+    basis === 'no-plateau' && atHighestTestedRate(recommendation.rateKgHa, distinct.at(-1));
   if ((bestRow?.optimumStatus === 'capped-at-highest' && basis !== 'no-response') || atHighest)
     warnings.push(
       'The optimum lies at or beyond the highest tested rate; the trial did not test high enough to find it.',

@@ -18,6 +18,7 @@ import type { TrialReport, YearComparisonReport } from './trialReport';
 import { formatP } from '../analysis/describeFTest';
 import { bestLevelSentence, levelTestSentence } from './levelSentences';
 import { fullResponseSentence } from '../economics/decisionSentences';
+import { atHighestTestedRate } from './highestTestedRate';
 import { unitScale } from './unitScale';
 import { formatNutrientRate, nutrientRateUnit } from '../units/convertRate';
 
@@ -95,7 +96,7 @@ function certaintyOf(
 ): GrowerPage['certainty'] {
   // A best rate at the highest rate tested is where the trial stopped, not where the return
   // peaked: resamples counted there (no plateau) make it look certain when it is not located.
-  if (opt > 0 && opt >= highestRate) return notLocated(fmt(highestRate));
+  if (atHighestTestedRate(opt, highestRate)) return notLocated(fmt(highestRate));
   if (!ci) {
     return {
       level: 'unknown',
@@ -279,8 +280,8 @@ function pageOf(report: TrialReport, which: string | 'region'): GrowerPage {
     const rate = applicationRate(u.rate(a.bestRateKgHa), ru);
     // The regional curve ends at the highest rate tested: a best rate there is not located
     // (sites all still rising agree at that rate, which is no sign of certainty).
-    const regionTop = a.chart.rateKgHa[a.chart.rateKgHa.length - 1];
-    const atTop = a.bestRateKgHa > 0 && regionTop !== undefined && a.bestRateKgHa >= regionTop;
+    const regionTop = a.chart.rateKgHa.at(-1);
+    const atTop = regionTop !== undefined && atHighestTestedRate(a.bestRateKgHa, regionTop);
     return {
       ...base,
       subject: `Region (${a.sites.length} sites)`,
@@ -428,7 +429,7 @@ function pageOf(report: TrialReport, which: string | 'region'): GrowerPage {
     recommendation:
       roundedRate === 0
         ? 'Apply no N: at these prices it did not pay here'
-        : opt >= (rates[rates.length - 1] ?? Infinity)
+        : atHighestTestedRate(opt, rates.at(-1))
           ? `Apply about ${fmtApply(opt)}, the highest rate tested`
           : `Apply about ${fmtApply(opt)}`,
     productRecommendation: roundedRate === 0 ? '' : productText(opt),
