@@ -3,6 +3,7 @@
 // reader), units from the exact definitions (NIST SP 811: 1 lb = 0.45359237 kg;
 // NIST Handbook 44: 1 acre = 43 560 ft², international foot 0.3048 m), the USDA
 // bushel weights (corn 56 lb/bu) and the dry-matter moisture formula.
+import { originalRef } from '../shared/table/originalCell';
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
@@ -150,10 +151,9 @@ describe('demo workbook', () => {
     const f = cornFindings.filter((x) => x.code === 'number-as-text');
     expect(f).toHaveLength(1);
     expect(f[0].refs[0]).toEqual({
+      ...originalRef(p.original.yield!),
       file: 'wrenhollow-n-trials-2025.xlsx',
       sheet: q.site,
-      cell: p.original.yield!.ref.cell,
-      row: p.original.yield!.ref.row,
     });
     expect(f[0].message).toMatch(/number stored as text/);
   });

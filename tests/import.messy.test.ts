@@ -3,6 +3,7 @@
 // the exact definitions (NIST SP 811 / Handbook 44: 1 lb = 0.45359237 kg,
 // 1 ft = 0.3048 m, 1 acre = 43 560 ft²), USDA bushel weights (corn 56 lb/bu,
 // wheat 60 lb/bu, from memory) and the dry-matter moisture formula.
+import { originalRef } from '../shared/table/originalCell';
 import { describe, expect, it } from 'vitest';
 import {
   buildPlotTable,
@@ -47,7 +48,12 @@ describe('delimited text', () => {
     expect(a.yieldKgHa!).toBeCloseTo(1050.5 * 56 * LBAC * (80 / 84.5), 6);
     expect(b.rateKgHa!).toBeCloseTo(120 * LBAC, 9);
     expect(b.yieldKgHa!).toBeCloseTo(210 * 56 * LBAC * (82 / 84.5), 6);
-    expect(a.original.yield?.ref).toEqual({ file: 't.csv', sheet: '', cell: 'E4', row: 4 });
+    expect(originalRef(a.original.yield!)).toEqual({
+      file: 't.csv',
+      sheet: '',
+      cell: 'E4',
+      row: 4,
+    });
     expect(a.site).toBe('Fenwold');
   });
 
@@ -374,7 +380,7 @@ describe('mappings', () => {
       ['Wetherlee', 0],
       ['Wetherlee', 150],
     ]);
-    expect(table.plots[1].original.rate?.ref).toEqual({
+    expect(originalRef(table.plots[1].original.rate!)).toEqual({
       file: 'Coldharbour.xlsx',
       sheet: 'Key',
       cell: 'B3',

@@ -6,14 +6,14 @@
 //   library above writes: namespace prefixes, shared formulas, rich text with phonetic runs,
 //   _xHHHH_ escapes, inline strings, the 1904 date system, custom date formats;
 // - against the caps: a cell in column XFD, a sheet that declares too many rows.
+import { cellAddress, parseAddress } from '../shared/table/cellAddress';
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { zipSync } from 'fflate';
 import { describe, expect, it } from 'vitest';
 import * as XLSX from 'xlsx';
 import { ImportError, readTrialFile } from '../shared/import';
-import { cellAddress, type RawCell, type RawWorkbook } from '../shared/import/rawWorkbook';
-import { parseAddress } from '../shared/import/xlsxXml';
+import type { RawCell, RawWorkbook } from '../shared/import/rawWorkbook';
 
 const demoBytes = new Uint8Array(
   readFileSync(path.join(__dirname, '..', 'demo', 'wrenhollow-n-trials-2025.xlsx')),

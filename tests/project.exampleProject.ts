@@ -1,6 +1,8 @@
 // An invented two-site nitrogen trial (fictional farms) as a complete project,
 // for the project-file and shell tests. Sizes scale with `repeats` so the
 // interrupted-save test can make a large file.
+import { plotTableForFile } from '../shared/project/serializeProject';
+import { parseAddress } from '../shared/table/cellAddress';
 import { createHash } from 'node:crypto';
 import { createProject } from '../shared/project/createProject';
 import type { PlotrateProject, PlotrateProjectV1 } from '../shared/project/projectFormat';
@@ -34,8 +36,7 @@ export function exampleProject(repeats = 1): PlotrateProject {
           const ref = (col: string) => ({
             file: s.file,
             sheet: s.sheet,
-            cell: `${col}${row}`,
-            row,
+            ...parseAddress(`${col}${row}`)!,
           });
           plots.push({
             id: `${s.file}|${s.sheet}|${row}`,
@@ -57,10 +58,10 @@ export function exampleProject(repeats = 1): PlotrateProject {
                   ? { reason: 'sprayer skip', by: 'user' }
                   : null,
             original: {
-              site: { text: s.site, ref: ref('A') },
-              block: { text: String(block), ref: ref('B') },
-              rate: { text: `${rate} kg N/ha`, ref: ref('C') },
-              yield: { text: (y / 1000).toFixed(2).replace('.', ','), ref: ref('D') },
+              site: { text: s.site, ...ref('A') },
+              block: { text: String(block), ...ref('B') },
+              rate: { text: `${rate} kg N/ha`, ...ref('C') },
+              yield: { text: (y / 1000).toFixed(2).replace('.', ','), ...ref('D') },
             },
           });
           row++;
@@ -128,4 +129,16 @@ export function exampleProjectV1(): PlotrateProjectV1 {
     bootstrap: { n: 500, seed: 7 },
     notes: 'First season.',
   };
+}
+
+/**
+ * A project's file text as JSON.stringify would write it, with the table in the file's form
+ * (original cells with their references spelled out) but without the rest of serializeProject.
+ */
+export function projectFileText(project: PlotrateProject | PlotrateProjectV1, indent = 0): string {
+  return JSON.stringify(
+    { ...project, table: project.table && plotTableForFile(project.table) },
+    null,
+    indent,
+  );
 }

@@ -7,7 +7,7 @@ import { parseProject } from '../shared/project/parseProject';
 import { ProjectFileError } from '../shared/project/projectFileError';
 import { PROJECT_FORMAT_VERSION } from '../shared/project/projectFormat';
 import { serializeProject } from '../shared/project/serializeProject';
-import { exampleProject, exampleProjectV1 } from './project.exampleProject';
+import { exampleProject, exampleProjectV1, projectFileText } from './project.exampleProject';
 
 let dir: string;
 beforeEach(async () => {
@@ -46,6 +46,17 @@ describe('writeProjectFile and readProjectFile', () => {
     expect(text.startsWith('{\n  "format": "plotrate-project",\n  "version": 2,')).toBe(true);
     expect(text.endsWith('}\n')).toBe(true);
   });
+
+  it('spell out the reference of each original cell for a person reading the file', () => {
+    const project = exampleProject();
+    const plot = project.table!.plots[0];
+    const json = JSON.parse(serializeProject(project, new Date('2026-03-01T08:00:00.000Z')));
+    const y = plot.original.yield!;
+    expect(json.table.plots[0].original.yield).toEqual({
+      text: y.text,
+      ref: { file: y.file, sheet: y.sheet, cell: `D${y.row}`, row: y.row },
+    });
+  });
 });
 
 describe('a rate × factor table', () => {
@@ -81,7 +92,7 @@ describe('a table with a corrected value', () => {
 describe('migration from version 1', () => {
   it('renames the prices, moves exclusions onto plots, keeps unmatched reasons and leaves the old file untouched', async () => {
     const file = path.join(dir, 'first season.plotrate');
-    const v1Text = JSON.stringify(exampleProjectV1(), null, 2);
+    const v1Text = projectFileText(exampleProjectV1(), 2);
     await writeFile(file, v1Text);
     const { project, migratedFrom } = await readProjectFile(file);
     expect(migratedFrom).toBe(1);
@@ -104,7 +115,7 @@ describe('migration from version 1', () => {
 
   it('produces a project that saves and reopens as version 2 without further migration', async () => {
     const file = path.join(dir, 'old.plotrate');
-    await writeFile(file, JSON.stringify(exampleProjectV1()));
+    await writeFile(file, projectFileText(exampleProjectV1()));
     const migrated = (await readProjectFile(file)).project;
     const saved = path.join(dir, 'old-v2.plotrate');
     await writeProjectFile(saved, migrated, new Date('2026-03-02T10:00:00.000Z'));
@@ -268,6 +279,13 @@ describe('parseProject refuses bad files with the problem and the field', () => 
       problem: 'invalid',
       field: 'table.plots[0].original',
       message: /"color", which is not a column role/,
+    },
+    {
+      title: 'an original cell whose address is no A1 address',
+      text: () => edited((j) => (j.table.plots[0].original.rate.ref.cell = 'row 3')),
+      problem: 'invalid',
+      field: 'table.plots[0].original.rate.ref.cell',
+      message: /should be an A1 address such as "E4", found "row 3"/,
     },
   ];
   for (const c of cases) {

@@ -5,11 +5,11 @@ import { describe, expect, it } from 'vitest';
 import { sitePlots } from '../shared/analysis/sitePlots';
 import { parseProject } from '../shared/project/parseProject';
 import { PROJECT_FORMAT_VERSION } from '../shared/project/projectFormat';
-import { exampleProject, exampleProjectV1 } from './project.exampleProject';
+import { exampleProject, exampleProjectV1, projectFileText } from './project.exampleProject';
 
 describe('older projects and site-years', () => {
   it('a one-season project keeps its site names and gains the year beside them', () => {
-    const { project } = parseProject(JSON.stringify(exampleProject()), 'example.plotrate');
+    const { project } = parseProject(projectFileText(exampleProject()), 'example.plotrate');
     expect(sitePlots(project.table!).map((s) => [s.site, s.year])).toEqual([
       ['Hollow Creek', 2025],
       ['Marl Ridge', 2025],
@@ -22,7 +22,7 @@ describe('older projects and site-years', () => {
     v1.table!.plots = v1.table!.plots.map((p) =>
       p.site === 'Marl Ridge' ? { ...p, site: 'Hollow Creek', year: 2024 } : p,
     );
-    const { project, migratedFrom } = parseProject(JSON.stringify(v1), 'old.plotrate');
+    const { project, migratedFrom } = parseProject(projectFileText(v1), 'old.plotrate');
     expect(migratedFrom).toBe(1);
     expect(project.version).toBe(PROJECT_FORMAT_VERSION);
     const units = sitePlots(project.table!);

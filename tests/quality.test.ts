@@ -2,6 +2,7 @@
 // the balanced two-way ANOVA by hand (Steel & Torrie, Principles and Procedures
 // of Statistics, ch. 9: residual = y − treatment mean − block mean + grand mean,
 // df = (t − 1)(b − 1)), not from the least-squares code under test.
+import { parseAddress } from '../shared/table/cellAddress';
 import { describe, expect, it } from 'vitest';
 import { checkQuality, checkDesign, checkValues, fitTreatmentBlock } from '../shared/quality';
 import { mulberry32 } from '../shared/demo';
@@ -17,7 +18,11 @@ function plot(
   row: number,
   extra: Partial<Plot> = {},
 ): Plot {
-  const ref = (col: string) => ({ file: 'gen.xlsx', sheet: site, cell: `${col}${row}`, row });
+  const ref = (col: string) => ({
+    file: 'gen.xlsx',
+    sheet: site,
+    ...parseAddress(`${col}${row}`)!,
+  });
   return {
     id: `gen.xlsx|${site}|${row}`,
     site,
@@ -33,10 +38,10 @@ function plot(
     groups: {},
     excluded: null,
     original: {
-      yield: { text: String(y), ref: ref('D') },
-      rate: { text: String(rate), ref: ref('C') },
-      plot: { text: `${block}0${ratesKgHa.indexOf(rate) + 1}`, ref: ref('A') },
-      moisture: { text: '18', ref: ref('E') },
+      yield: { text: String(y), ...ref('D') },
+      rate: { text: String(rate), ...ref('C') },
+      plot: { text: `${block}0${ratesKgHa.indexOf(rate) + 1}`, ...ref('A') },
+      moisture: { text: '18', ...ref('E') },
     },
     ...extra,
   };
@@ -141,7 +146,10 @@ describe('checkQuality', () => {
         ...dropped[1].original,
         plot: {
           text: dropped[0].plotLabel!,
-          ref: { file: 'gen.xlsx', sheet: 'Gamma', cell: 'A99', row: 99 },
+          file: 'gen.xlsx',
+          sheet: 'Gamma',
+          row: 99,
+          col: 1,
         },
       },
       plotLabel: dropped[0].plotLabel,
@@ -181,11 +189,11 @@ describe('checkQuality', () => {
 
   it('flags text in a numeric cell, negative and implausible values, and odd moistures', () => {
     const plots = site('Delta', 2);
-    const ref = (c: string) => ({ file: 'gen.xlsx', sheet: 'Delta', cell: c, row: 3 });
+    const ref = (c: string) => ({ file: 'gen.xlsx', sheet: 'Delta', ...parseAddress(c)! });
     plots[0] = {
       ...plots[0],
       yieldKgHa: null,
-      original: { ...plots[0].original, yield: { text: 'lodged', ref: ref('D3') } },
+      original: { ...plots[0].original, yield: { text: 'lodged', ...ref('D3') } },
     };
     plots[1] = { ...plots[1], yieldKgHa: -5 };
     plots[2] = { ...plots[2], yieldKgHa: 30000 }; // above the 25 000 kg/ha corn bound (about 478 bu/ac)
@@ -193,7 +201,7 @@ describe('checkQuality', () => {
     plots[4] = {
       ...plots[4],
       yieldKgHa: null,
-      original: { ...plots[4].original, yield: { text: 'NA', ref: ref('D6') } },
+      original: { ...plots[4].original, yield: { text: 'NA', ...ref('D6') } },
     };
     const f = checkValues(table(plots), [5, 40]);
     const codes = f.map((x) => x.code).sort();

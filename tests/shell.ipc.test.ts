@@ -26,7 +26,7 @@ import { RecentFiles } from '../electron/recentFiles';
 import { IpcArgumentError, IpcSenderError, ProtectedFileError } from '../electron/shellErrors';
 import { SourceGuard } from '../electron/sourceGuard';
 import type { PlotrateProject } from '../shared/project/projectFormat';
-import { exampleProject, exampleProjectV1 } from './project.exampleProject';
+import { exampleProject, exampleProjectV1, projectFileText } from './project.exampleProject';
 
 const APP = { senderFrame: { url: 'app://plotrate/index.html', parent: null } };
 const CSV = 'site,block,rate,yield\nHollow Creek,1,0,8.1\nHollow Creek,1,80,10.9\n';
@@ -191,7 +191,7 @@ describe('opening files', () => {
 
   it('opens a version 1 project migrated and reports the old version', async () => {
     const file = path.join(dir, 'first season.plotrate');
-    await writeFile(file, JSON.stringify(exampleProjectV1()));
+    await writeFile(file, projectFileText(exampleProjectV1()));
     openAnswers.push([file]);
     const opened = (await call(IPC.openProject)) as OpenedProject;
     expect(opened.migratedFrom).toBe(1);

@@ -2,8 +2,8 @@
  * Where a value of the plot table came from: file, sheet, A1 address and row, so every
  * finding and every original cell can point back to the spreadsheet.
  */
+import { cellAddress } from '../table/cellAddress';
 import type { CellRef } from '../table/plotTable';
-import { cellAddress } from './rawWorkbook';
 
 /**
  * The reference of the cell at a row and column (whether or not the row has a cell there).

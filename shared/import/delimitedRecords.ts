@@ -9,10 +9,10 @@
  * Unquoted fields are cut from the text with `slice`, never built a character at a time: a
  * long field costs one copy, and the reader stays linear in the file.
  */
+import { cellAddress } from '../table/cellAddress';
 import { ImportError } from './importError';
 import type { ImportLimits } from './importLimits';
 import { cellTooLong, tooManyColumns, tooManyRows } from './limitErrors';
-import { cellAddress } from './rawWorkbook';
 
 export type DelimitedLimits = Pick<ImportLimits, 'maxRows' | 'maxColumns' | 'maxCellChars'>;
 

@@ -4,6 +4,7 @@
  * a treatment key or nothing to import. Every choice carries evidence text for
  * the user, and the result is plain data the user can change.
  */
+import { columnLetters } from '../table/cellAddress';
 import { NUMERIC_COLUMN_ROLES, type ColumnRole } from '../table/plotTable';
 import {
   UNITS_BY_ROLE,
@@ -15,7 +16,7 @@ import {
 } from './columnMapping';
 import { cellNumber } from './cellNumber';
 import { normalizeHeader, rateHeaderBasis, roleFromHeader, unitFromHeader } from './headerWords';
-import { columnLetters, type RawSheet, type RawWorkbook } from './rawWorkbook';
+import type { RawSheet, RawWorkbook } from './rawWorkbook';
 import { shapeSignature } from './shapeSignature';
 import { cropFromText } from './cropFromText';
 import { weightOrYield } from './weightOrYield';

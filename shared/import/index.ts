@@ -44,7 +44,7 @@ export { shapeSignature } from './shapeSignature';
 export { parseNumberText, isMissingMarker } from '../table/parseNumberText';
 export { cellNumber, type CellNumberStatus } from './cellNumber';
 export { roleFromHeader, unitFromHeader, normalizeHeader, rateHeaderBasis } from './headerWords';
-export { columnLetters, cellAddress } from './rawWorkbook';
+export { columnLetters, cellAddress } from '../table/cellAddress';
 export type { RawWorkbook, RawSheet, RawCell, RawValue } from './rawWorkbook';
 export type {
   ColumnMapping,

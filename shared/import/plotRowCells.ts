@@ -6,12 +6,13 @@
  * One reader serves every row of a sheet (`start` moves it to the next row): a 24,000-row sheet
  * then costs no per-row closures, only the values each plot keeps.
  */
+import { cellAddress } from '../table/cellAddress';
 import type { ColumnRole, OriginalCell } from '../table/plotTable';
 import type { QualityFinding } from '../table/qualityFinding';
 import { cellNumber } from './cellNumber';
 import { cellRef } from './cellRef';
 import type { ColumnAssignment } from './columnMapping';
-import { cellAddress, type RawCell, type RawSheet, type RawWorkbook } from './rawWorkbook';
+import type { RawCell, RawSheet, RawWorkbook } from './rawWorkbook';
 
 /** The cells of the row being read; `start` moves the reader to a row. */
 export class PlotRowCells {
@@ -75,7 +76,10 @@ export class PlotRowCells {
     if (a && (c || role === 'yield' || role === 'rate'))
       this.original[role] = {
         text: c?.text ?? '',
-        ref: cellRef(this.file, this.sheetName, this.r, a.col),
+        file: this.file,
+        sheet: this.sheetName,
+        row: this.r,
+        col: a.col,
       };
     return c;
   }

@@ -49,37 +49,3 @@ export interface RawWorkbook {
   separator?: ',' | ';' | '\t';
   sheets: RawSheet[];
 }
-
-/**
- * The column letters of a 1-based column number.
- * @param col - column number, 1-based
- * @returns "A", "B", …, "Z", "AA", …
- * @example
- * columnLetters(28) // 'AB'
- */
-export function columnLetters(col: number): string {
-  let s = '';
-  let n = col;
-  while (n > 0) {
-    const r = (n - 1) % 26;
-    s = String.fromCharCode(65 + r) + s;
-    n = Math.floor((n - 1) / 26);
-  }
-  return s;
-}
-
-/** Column letters already spelled (every plot keeps the addresses of its cells). */
-const LETTERS_KEPT = 1024;
-const letters: string[] = [];
-
-/**
- * The A1 address of a cell.
- * @param row - 1-based row
- * @param col - 1-based column
- * @returns e.g. "C7"
- * @example
- * cellAddress(7, 3) // 'C7'
- */
-export function cellAddress(row: number, col: number): string {
-  return `${col <= LETTERS_KEPT ? (letters[col] ??= columnLetters(col)) : columnLetters(col)}${row}`;
-}

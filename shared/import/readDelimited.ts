@@ -6,12 +6,13 @@
  * the one of comma, semicolon and tab that splits the first lines into the same number of fields
  * most often; a decimal comma is recognized when the separator is not a comma.
  */
+import { cellAddress } from '../table/cellAddress';
 import type { SourceFile } from '../table/plotTable';
 import { ImportError } from './importError';
 import { importLimits, type ImportLimits } from './importLimits';
 import { DelimitedRecords } from './delimitedRecords';
 import { tooManyCells } from './limitErrors';
-import { cellAddress, type RawCell, type RawWorkbook } from './rawWorkbook';
+import type { RawCell, RawWorkbook } from './rawWorkbook';
 import { scanDelimitedRows, type RecordStart } from './scanDelimitedRows';
 import { SharedCells } from './sharedCells';
 

@@ -6,6 +6,7 @@
  * the original cell kept beside every value. What the sheet needed to be read (numbers stored
  * as text, missing moistures, hidden rows) goes to the findings.
  */
+import { originalAddress } from '../table/originalCell';
 import { sheetOfFile } from './sheetOfFile';
 import type { CropId, Plot } from '../table/plotTable';
 import { adjustMoisture } from '../units/adjustMoisture';
@@ -239,7 +240,7 @@ export function readPlotsSheet(
           (settings.product ? products(settings.product) : null),
         productWords: productWords || entry?.productText,
         where: `${where} row ${r}`,
-        ref: { file, sheet: sheet.name, cell: original.rate?.ref.cell },
+        ref: { file, sheet: sheet.name, cell: original.rate && originalAddress(original.rate) },
       });
     }
 

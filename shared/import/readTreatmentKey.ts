@@ -2,6 +2,7 @@
  * The treatment key: a sheet that gives, per treatment label, its rate (with unit and basis),
  * product and timing, for plot sheets that carry only the treatment.
  */
+import { cellAddress } from '../table/cellAddress';
 import type { OriginalCell } from '../table/plotTable';
 import type { RateUnit } from '../units/convertRate';
 import { productFromText, type FertilizerProduct } from '../units/products';
@@ -10,7 +11,7 @@ import { cellLabel, cellText } from './cellLabel';
 import { cellNumber } from './cellNumber';
 import { cellRef } from './cellRef';
 import { columnForRole, type MappedRole, type SheetMapping } from './columnMapping';
-import { cellAddress, type RawSheet, type RawWorkbook } from './rawWorkbook';
+import type { RawSheet, RawWorkbook } from './rawWorkbook';
 
 /** One treatment of the key. */
 export interface TreatmentKeyEntry {
@@ -74,7 +75,7 @@ export function readTreatmentKey(
       productText: pText,
       timing: timing ? cellText(row[timing.col - 1]) : '',
       rateCell: rate
-        ? { text: rc?.text ?? '', ref: cellRef(raw.file.name, sheet.name, r, rate.col) }
+        ? { text: rc?.text ?? '', file: raw.file.name, sheet: sheet.name, row: r, col: rate.col }
         : null,
     });
   }

@@ -9,22 +9,16 @@
  * one), the top-left value of a merged range in each of its cells, hidden sheets and rows,
  * dates as dates, fixed-decimal numbers as shown.
  */
+import { cellAddress, parseAddress } from '../table/cellAddress';
 import type { SourceFile } from '../table/plotTable';
 import { ImportError } from './importError';
 import { importLimits, type ImportLimits } from './importLimits';
 import { cellTooLong, tooManyCells, tooManyColumns, tooManyRows } from './limitErrors';
-import {
-  cellAddress,
-  type RawCell,
-  type RawSheet,
-  type RawValue,
-  type RawWorkbook,
-} from './rawWorkbook';
+import { type RawCell, type RawSheet, type RawValue, type RawWorkbook } from './rawWorkbook';
 import {
   attributes,
   formatCode,
   isDateFormat,
-  parseAddress,
   serialDate,
   stringItemText,
   unescapeXml,

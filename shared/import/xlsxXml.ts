@@ -73,21 +73,6 @@ export function stringItemText(inner: string, prefix: string): string {
 }
 
 /**
- * Row and column of an A1 address.
- * @param address - e.g. "C7" (a "$" is allowed)
- * @returns 1-based row and column, or null when it is not an address
- * @example
- * parseAddress('AB12') // { row: 12, col: 28 }
- */
-export function parseAddress(address: string): { row: number; col: number } | null {
-  const m = /^\$?([A-Za-z]{1,3})\$?(\d{1,7})$/.exec(address);
-  if (!m) return null;
-  let col = 0;
-  for (const ch of m[1].toUpperCase()) col = col * 26 + (ch.charCodeAt(0) - 64);
-  return { row: Number(m[2]), col };
-}
-
-/**
  * The built-in number formats a reader must know by id (ECMA-376 Part 1, §18.8.30): those
  * that fix decimals, and those that show dates or times. Others are "General" for Plotrate.
  */

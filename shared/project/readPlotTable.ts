@@ -10,6 +10,7 @@ import {
   type PlotTable,
   type SourceFile,
 } from '../table/plotTable';
+import { parseAddress } from '../table/cellAddress';
 import type { FieldReader } from './fieldReader';
 
 const CROPS = [
@@ -93,9 +94,19 @@ function readPlot(p: FieldReader): Plot {
     if (!(COLUMN_ROLES as readonly string[]).includes(key))
       o.fail(`names "${key}", which is not a column role (${COLUMN_ROLES.join(', ')})`);
     const cell = o.field(key);
+    const ref = readCellRef(cell.field('ref'));
+    // Kept in memory by its column number (OriginalCell), so the address must be one.
+    const at = parseAddress(ref.cell);
+    if (!at) {
+      const address: FieldReader = cell.field('ref').field('cell');
+      address.fail(`should be an A1 address such as "E4", found "${ref.cell}"`);
+    }
     original[key as ColumnRole] = {
       text: cell.field('text').string(),
-      ref: readCellRef(cell.field('ref')),
+      file: ref.file,
+      sheet: ref.sheet,
+      row: ref.row,
+      col: at.col,
     };
   }
   const ex = p.field('excluded');

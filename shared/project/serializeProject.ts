@@ -1,3 +1,5 @@
+import { originalRef } from '../table/originalCell';
+import type { CellRef, PlotTable } from '../table/plotTable';
 import type { PlotrateProject } from './projectFormat';
 
 /**
@@ -13,14 +15,14 @@ import type { PlotrateProject } from './projectFormat';
 export function serializeProject(project: PlotrateProject, savedAt: Date): string {
   // Written field by field so the identifying fields come first and nothing
   // outside the format (a stray property on the object) reaches the file.
-  const ordered: PlotrateProject = {
+  const ordered: Record<keyof PlotrateProject, unknown> = {
     format: project.format,
     version: project.version,
     createdAt: project.createdAt,
     savedAt: savedAt.toISOString(),
     appVersion: project.appVersion,
     sources: project.sources,
-    table: project.table,
+    table: project.table && plotTableForFile(project.table),
     mapping: project.mapping,
     units: project.units,
     prices: project.prices,
@@ -30,4 +32,23 @@ export function serializeProject(project: PlotrateProject, savedAt: Date): strin
     view: project.view,
   };
   return `${JSON.stringify(ordered, null, 2)}\n`;
+}
+
+/**
+ * The table as the file holds it: each original cell as its text and its reference spelled out
+ * (`{ text, ref: { file, sheet, cell, row } }`), for a person reading the file; in memory the
+ * cell is kept flat with its column as a number (OriginalCell). readPlotTable reads it back.
+ * @param table - the table in memory
+ * @returns the table to write as JSON
+ */
+export function plotTableForFile(table: PlotTable): unknown {
+  return {
+    ...table,
+    plots: table.plots.map((p) => {
+      const original: Record<string, { text: string; ref: CellRef }> = {};
+      for (const [role, o] of Object.entries(p.original))
+        if (o) original[role] = { text: o.text, ref: originalRef(o) };
+      return { ...p, original };
+    }),
+  };
 }

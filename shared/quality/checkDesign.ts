@@ -4,6 +4,7 @@
  * plots (which makes block-adjusted means differ from raw means); and, once per site, a site
  * whose plots come from several years.
  */
+import { originalRef } from '../table/originalCell';
 import { hasBlocks } from '../stats/hasBlocks';
 import type { Plot, PlotTable } from '../table/plotTable';
 import { describeRef, type QualityFinding } from '../table/qualityFinding';
@@ -54,7 +55,7 @@ export function checkDesign(table: PlotTable): QualityFinding[] {
     }
     for (const [, same] of byLabel) {
       if (same.length < 2) continue;
-      const refs = same.map((p) => p.original.plot!.ref);
+      const refs = same.map((p) => originalRef(p.original.plot!));
       out.push({
         code: 'duplicate-plot',
         severity: 'warning',

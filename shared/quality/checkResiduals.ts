@@ -4,6 +4,7 @@
  * a bound (Belsley, Kuh & Welsch, Regression Diagnostics, 1980, §2.1). Flagged
  * plots are not excluded: the user decides.
  */
+import { originalRef } from '../table/originalCell';
 import type { RateBlockModel, RateBlockProblem } from '../stats/rateBlockModel';
 import { analyzablePlots, type Plot, type PlotTable } from '../table/plotTable';
 import { describeRef, type QualityFinding } from '../table/qualityFinding';
@@ -74,8 +75,8 @@ export function checkResiduals(
       out.push({
         code: 'outlier',
         severity: 'warning',
-        message: `${o ? describeRef(o.ref) : site}: plot ${p.plotLabel ?? p.id} of ${site} is ${r > 0 ? 'far above' : 'far below'} what its rate and block predict (studentized residual ${r.toFixed(1)}, beyond ±${outlierAbsResidual}). Check the plot's notes; exclude it only with a reason.`,
-        refs: o ? [o.ref] : [],
+        message: `${o ? describeRef(originalRef(o)) : site}: plot ${p.plotLabel ?? p.id} of ${site} is ${r > 0 ? 'far above' : 'far below'} what its rate and block predict (studentized residual ${r.toFixed(1)}, beyond ±${outlierAbsResidual}). Check the plot's notes; exclude it only with a reason.`,
+        refs: o ? [originalRef(o)] : [],
         site,
         plotIds: [p.id],
         value: r,

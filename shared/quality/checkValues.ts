@@ -2,6 +2,7 @@
  * Plot-by-plot checks of single values: text where a number belongs, negative
  * numbers, yields above the crop's plausible bound, moistures outside a range.
  */
+import { originalRef } from '../table/originalCell';
 import {
   impossibleValue,
   MAX_POSSIBLE_RATE_KG_HA,
@@ -46,16 +47,16 @@ export function checkValues(
       finding(p, {
         code: 'not-a-number',
         severity: 'error',
-        message: `${describeRef(o.ref)} should hold the ${role === 'plotWeight' ? 'plot weight' : role} as a number but says "${quoteCellText(t)}"; the plot has no ${role} until the cell is corrected.`,
-        refs: [o.ref],
+        message: `${describeRef(originalRef(o))} should hold the ${role === 'plotWeight' ? 'plot weight' : role} as a number but says "${quoteCellText(t)}"; the plot has no ${role} until the cell is corrected.`,
+        refs: [originalRef(o)],
       });
     }
     if (p.original.yield && p.yieldKgHa === null && isMissingMarker(p.original.yield.text)) {
       finding(p, {
         code: 'missing-value',
         severity: 'info',
-        message: `${describeRef(p.original.yield.ref)}: plot ${p.plotLabel ?? ''} of ${nameOf(p)} has no yield${p.original.yield.text.trim() ? ` ("${quoteCellText(p.original.yield.text)}")` : ''}; it is left out of the fits.`,
-        refs: [p.original.yield.ref],
+        message: `${describeRef(originalRef(p.original.yield))}: plot ${p.plotLabel ?? ''} of ${nameOf(p)} has no yield${p.original.yield.text.trim() ? ` ("${quoteCellText(p.original.yield.text)}")` : ''}; it is left out of the fits.`,
+        refs: [originalRef(p.original.yield)],
       });
     }
     // The table's possibility rule (impossibleValue) decides; this names the cell and the fix.
@@ -66,7 +67,7 @@ export function checkValues(
       const why = v === null ? null : impossibleValue(role, v);
       if (v === null || why === null) continue;
       const o = role === 'yield' ? (p.original.yield ?? p.original.plotWeight) : p.original.rate;
-      const where = o ? describeRef(o.ref) : nameOf(p);
+      const where = o ? describeRef(originalRef(o)) : nameOf(p);
       const shown = o?.text ?? String(v);
       const fix =
         why === 'negative'
@@ -80,7 +81,7 @@ export function checkValues(
         code: why === 'negative' ? 'negative-value' : 'impossible-value',
         severity: 'error',
         message: `${where}: the ${role} ${why === 'beyond any practice' ? 'is beyond any practice' : `is ${why}`} (${shown}); ${fix}. The plot is left out of the fits until the cell is corrected.`,
-        refs: o ? [o.ref] : [],
+        refs: o ? [originalRef(o)] : [],
       });
     }
     // A possible yield above the crop's plausible bound is kept and flagged; an impossible one was refused above.
@@ -94,8 +95,8 @@ export function checkValues(
       finding(p, {
         code: 'implausible-yield',
         severity: 'warning',
-        message: `${o ? describeRef(o.ref) : nameOf(p)}: a yield of ${Math.round(p.yieldKgHa).toLocaleString('en-US')} kg/ha (${bu.toFixed(0)} bu/ac) is above the ${Math.round(crop.maxPlausibleYieldKgHa).toLocaleString('en-US')} kg/ha plausible for ${crop.label.toLowerCase()}; check the cell and the yield unit.`,
-        refs: o ? [o.ref] : [],
+        message: `${o ? describeRef(originalRef(o)) : nameOf(p)}: a yield of ${Math.round(p.yieldKgHa).toLocaleString('en-US')} kg/ha (${bu.toFixed(0)} bu/ac) is above the ${Math.round(crop.maxPlausibleYieldKgHa).toLocaleString('en-US')} kg/ha plausible for ${crop.label.toLowerCase()}; check the cell and the yield unit.`,
+        refs: o ? [originalRef(o)] : [],
         value: p.yieldKgHa,
       });
     }
@@ -107,8 +108,8 @@ export function checkValues(
       finding(p, {
         code: 'moisture-out-of-range',
         severity: 'warning',
-        message: `${o ? describeRef(o.ref) : nameOf(p)}: a harvest moisture of ${p.moisturePct} % is outside ${moistureRangePct[0]}–${moistureRangePct[1]} %; check the cell (a fraction such as 0.18 should be written 18).`,
-        refs: o ? [o.ref] : [],
+        message: `${o ? describeRef(originalRef(o)) : nameOf(p)}: a harvest moisture of ${p.moisturePct} % is outside ${moistureRangePct[0]}–${moistureRangePct[1]} %; check the cell (a fraction such as 0.18 should be written 18).`,
+        refs: o ? [originalRef(o)] : [],
         value: p.moisturePct,
       });
     }

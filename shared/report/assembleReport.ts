@@ -604,7 +604,7 @@ function filesWithPlots(table: PlotTable): Set<string> {
   const files = new Set<string>();
   for (const plot of table.plots)
     for (const cell of Object.values(plot.original) as (OriginalCell | undefined)[])
-      if (cell) files.add(cell.ref.file);
+      if (cell) files.add(cell.file);
   return files;
 }
 

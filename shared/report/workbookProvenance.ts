@@ -4,6 +4,7 @@
  * column mapping and units, the settings, the bootstrap seed and count, and
  * every plot left out with its reason.
  */
+import { originalRef } from '../table/originalCell';
 import type ExcelJS from 'exceljs';
 import type { TrialReport } from './trialReport';
 import { fitColumns, setupPage, styleTitle, tableHeading } from './workbookFormat';
@@ -74,7 +75,8 @@ export function workbookProvenance(
     for (const p of site.plots) {
       if (!p.excluded) continue;
       any = true;
-      const ref = p.original.yield?.ref ?? p.original.rate?.ref;
+      const cell = p.original.yield ?? p.original.rate;
+      const ref = cell ? originalRef(cell) : null;
       ws.getRow(r++).values = [
         site.site,
         p.plotLabel ?? p.id,
@@ -100,7 +102,7 @@ export function workbookProvenance(
       for (const c of p.corrections ?? []) {
         corrected = true;
         const cell = p.original[c.role];
-        const ref = cell?.ref;
+        const ref = cell ? originalRef(cell) : null;
         ws.getRow(r++).values = [
           site.site,
           p.plotLabel ?? p.id,

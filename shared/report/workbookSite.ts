@@ -5,6 +5,7 @@
  * column A so the sheet prints top to bottom; the chart sits to the right of
  * the plot data.
  */
+import { originalRef } from '../table/originalCell';
 import { leadingModelLabel } from '../models/curves';
 import { intervalBasisText, intervalSharesText } from './intervalShares';
 import { joinProfileNote, PROFILE_OPEN_ENDS_LEGEND, profileIntervalText } from './modelNotes';
@@ -83,7 +84,8 @@ export function workbookSite(
   r++;
   for (const p of site.plots) {
     const row = ws.getRow(r++);
-    const src = p.original.yield?.ref ?? p.original.rate?.ref ?? null;
+    const cell = p.original.yield ?? p.original.rate;
+    const src = cell ? originalRef(cell) : null;
     row.values = [
       p.plotLabel ?? '',
       p.block ?? '',

@@ -60,10 +60,23 @@ export const NUMERIC_COLUMN_ROLES: readonly ColumnRole[] = COLUMN_ROLES.filter(
   (r) => !TEXT_COLUMN_ROLES.has(r),
 );
 
-/** The original cell behind one value: its text as shown in the sheet and its address. */
+/**
+ * The original cell behind one value: its text as shown in the sheet and where it is. Flat, with
+ * its column as a number: every plot keeps about seven, so a nested reference and a spelled A1
+ * address were two more objects or strings per cell (a third of a 10,000-site table's objects).
+ * `originalRef` (originalCell.ts) gives its {@link CellRef} for messages and sheets.
+ */
 export interface OriginalCell {
+  /** The text as shown in the sheet (or as written in the CSV). */
   text: string;
-  ref: CellRef;
+  /** File name as the user chose it (no directories). */
+  file: string;
+  /** Sheet name; "" for a CSV/TSV file. */
+  sheet: string;
+  /** 1-based row. */
+  row: number;
+  /** 1-based column. */
+  col: number;
 }
 
 export interface Exclusion {
