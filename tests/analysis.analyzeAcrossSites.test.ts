@@ -13,7 +13,7 @@ import { recommendationCautions } from '../shared/economics/recommendationCautio
 import { economicOptimum } from '../shared/economics/economicOptimum';
 import type { PlotTable } from '../shared/table/plotTable';
 import type { FTestResult, NoTest } from '../shared/analysis/extraSumOfSquaresTest';
-import { plateauFitter } from '../shared/analysis/plateauModels';
+import { plateauFitters } from '../shared/analysis/plateauModels';
 import { pooledPlotTable, readRCsv, sitesPlotTable } from './analysis.fixtures';
 
 const prices = { grainPricePerKg: 0.18, nutrientPricePerKg: 1.1 };
@@ -225,17 +225,27 @@ describe('pooled plateau tests count what fits at a limit estimate (tests/fixtur
   const r = readRCsv('pooledDegenerate.csv');
   const table = sitesPlotTable('pooledDegenerate.plots.csv');
   const a = analyzeAcrossSites(table, { prices });
+  // One set of fitters and one pair of arrays per site for all three models, as the pooled tests
+  // use them: the models share each site's preparation, and each must still match R.
+  const fitters = plateauFitters();
+  const sitePlotArrays = new Map<string, { x: Float64Array; y: Float64Array }>();
+  const arraysOf = (site: string) => {
+    if (!sitePlotArrays.has(site)) {
+      const plots = table.plots.filter((p) => p.site === site);
+      sitePlotArrays.set(site, {
+        x: Float64Array.from(plots, (p) => p.rateKgHa!),
+        y: Float64Array.from(plots, (p) => p.yieldKgHa!),
+      });
+    }
+    return sitePlotArrays.get(site)!;
+  };
   for (const model of ['linearPlateau', 'quadraticPlateau', 'exponential'] as const) {
     const rows = r.filter((x) => x.model === model);
     it(`the ${model} fit of each site counts the parameters of what it reduces to, as R does`, () => {
-      const fit = plateauFitter(model);
       const statuses = new Set<string>();
       for (const row of rows.filter((x) => !x.part.startsWith('('))) {
-        const plots = table.plots.filter((p) => p.site === row.part);
-        const out = fit(
-          Float64Array.from(plots, (p) => p.rateKgHa!),
-          Float64Array.from(plots, (p) => p.yieldKgHa!),
-        );
+        const { x, y } = arraysOf(row.part);
+        const out = fitters[model](x, y);
         if ('problem' in out) throw new Error(out.problem);
         expect(out.parameters, row.part).toBe(Number(row.parameters));
         expect(Math.abs(out.sse - Number(row.sse))).toBeLessThanOrEqual(1e-7 * Number(row.sse));

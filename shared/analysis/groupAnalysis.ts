@@ -9,7 +9,7 @@ import type { SiteLeftOut } from './commonResponseTests';
 import { groupResponseTest, type GroupResponseTest } from './groupResponseTest';
 import { modelLabelInText } from '../models/curves';
 import type { AcrossSiteSettings } from './planAcrossSites';
-import { PLATEAU_MODELS, plateauFitter, type PlateauModel } from './plateauModels';
+import { PLATEAU_MODELS, plateauFitters, type PlateauModel } from './plateauModels';
 import { pooledCurveTest, type CurvePart, type PooledCurveTest } from './pooledCurveTest';
 import { regionalAnalysis, type RegionalAnalysis } from './regionalAnalysis';
 import { responseShare, type ResponseShare } from './responseShare';
@@ -92,19 +92,21 @@ export function groupAnalysis(
   const groupOf = new Map(grouped.map((p) => [p.site, p.groups[key] as string]));
   const usable = grouped.filter((p) => !analyses.get(p.site)?.problem);
   const plateau = {} as Record<PlateauModel, PooledCurveTest>;
+  // Each group's pooled plots, the same arrays for every model (the fitters share their preparation).
+  const parts: CurvePart[] = [...byValue.entries()].map(([value, members]) => {
+    const ok = members.filter((m) => !analyses.get(m.site)?.problem);
+    return {
+      label: value,
+      rateKgHa: Float64Array.from(ok.flatMap((m) => Array.from(m.rateKgHa))),
+      yieldKgHa: Float64Array.from(ok.flatMap((m) => Array.from(m.yieldKgHa))),
+    };
+  });
+  const fitters = plateauFitters();
   for (const model of PLATEAU_MODELS) {
     const label = modelLabelInText(model);
-    const parts: CurvePart[] = [...byValue.entries()].map(([value, members]) => {
-      const ok = members.filter((m) => !analyses.get(m.site)?.problem);
-      return {
-        label: value,
-        rateKgHa: Float64Array.from(ok.flatMap((m) => Array.from(m.rateKgHa))),
-        yieldKgHa: Float64Array.from(ok.flatMap((m) => Array.from(m.yieldKgHa))),
-      };
-    });
     plateau[model] = pooledCurveTest(
       usable.length > 0 ? parts : [],
-      plateauFitter(model),
+      fitters[model],
       {
         comparison: `One ${label} per value of ${key} against one ${label} for all, on pooled plots`,
         significant: `the groups of ${key} respond differently`,

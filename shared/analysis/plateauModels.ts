@@ -6,10 +6,10 @@
  * is none).
  */
 import { MODEL_CATALOG } from '../models/catalog';
-import { modelLabelInText, type PlateauModel } from '../models/curves';
-import { prepareSite } from '../models/prepareSite';
+import { modelLabelInText, PLATEAU_MODELS, type PlateauModel } from '../models/curves';
+import { prepareSite, type PreparedSite } from '../models/prepareSite';
 import type { FitData } from './analyzeSite';
-import type { CurveFitOutcome } from './pooledCurveTest';
+import type { CurveFitOutcome, CurveFitter } from './pooledCurveTest';
 
 export { PLATEAU_MODELS, type PlateauModel } from '../models/curves';
 
@@ -31,17 +31,31 @@ export function curveFitOutcome(fit: FitData): CurveFitOutcome {
 }
 
 /**
- * The pooled test's fitter for one plateau model: fits rates and yields without block terms.
- * @param model - one of PLATEAU_MODELS
- * @returns a function of rates and yields (kg/ha) giving the fit's outcome (curveFitOutcome)
+ * The pooled tests' fitters for the plateau models, fitting rates and yields without block terms.
+ * The three share each set of plots' preparation (prepareSite: the plots ordered by rate, the
+ * rate groups): the across-site tests fit every site three times, and preparing it once instead
+ * of three times was a third of their time at 10,000 sites.
+ * @returns one fitter per model, each giving the fit's outcome (curveFitOutcome) for rates and
+ *   yields (kg/ha); a set of plots is known by its yield array, so pass the same arrays to each
  * @example
- * plateauFitter('exponential')(rateKgHa, yieldKgHa) // { sse, parameters: 3 } or { problem }
+ * plateauFitters().exponential(rateKgHa, yieldKgHa) // { sse, parameters: 3 } or { problem }
  */
-export function plateauFitter(
-  model: PlateauModel,
-): (rateKgHa: Float64Array, yieldKgHa: Float64Array) => CurveFitOutcome {
-  const { fit } = MODEL_CATALOG[model];
-  // Only the status, SSE and parameter count are read: no curve to draw, so two points of it.
-  return (x, y) =>
-    curveFitOutcome(fit(prepareSite({ rateKgHa: x, yieldKgHa: y }, 'none'), { curvePoints: 2 }));
+export function plateauFitters(): Record<PlateauModel, CurveFitter> {
+  const prepared = new WeakMap<Float64Array, { rates: Float64Array; site: PreparedSite }>();
+  const prepare = (x: Float64Array, y: Float64Array): PreparedSite => {
+    const kept = prepared.get(y);
+    if (kept && kept.rates === x) return kept.site;
+    const site = prepareSite({ rateKgHa: x, yieldKgHa: y }, 'none');
+    prepared.set(y, { rates: x, site });
+    return site;
+  };
+  const fitter =
+    (model: PlateauModel): CurveFitter =>
+    (x, y) =>
+      // Only the status, SSE and parameter count are read: no curve to draw, so two points of it.
+      curveFitOutcome(MODEL_CATALOG[model].fit(prepare(x, y), { curvePoints: 2 }));
+  return Object.fromEntries(PLATEAU_MODELS.map((m) => [m, fitter(m)])) as Record<
+    PlateauModel,
+    CurveFitter
+  >;
 }

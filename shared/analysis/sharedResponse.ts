@@ -8,7 +8,12 @@ import type { SiteAnalysis } from './analyzeSite';
 import { testCommonResponse, type CommonResponseTests } from './commonResponseTests';
 import { modelLabelInText } from '../models/curves';
 import type { AcrossSiteSettings } from './planAcrossSites';
-import { curveFitOutcome, PLATEAU_MODELS, plateauFitter, type PlateauModel } from './plateauModels';
+import {
+  curveFitOutcome,
+  PLATEAU_MODELS,
+  plateauFitters,
+  type PlateauModel,
+} from './plateauModels';
 import { pooledCurveTest, type CurvePart, type PooledCurveTest } from './pooledCurveTest';
 import type { SitePlots } from './sitePlots';
 
@@ -55,11 +60,12 @@ export function sharedResponse(
 ): SharedResponseTests {
   const usable = plots.filter((p) => !analyses.get(p.site)?.problem);
   const plateau = {} as Record<PlateauModel, PooledCurveTest>;
+  const fitters = plateauFitters();
   for (const model of PLATEAU_MODELS) {
     const label = modelLabelInText(model);
     plateau[model] = pooledCurveTest(
       plateauParts(usable, analyses, model),
-      plateauFitter(model),
+      fitters[model],
       {
         comparison: `One ${label} per site against one ${label} fitted to the pooled plots`,
         significant: 'the sites do not share one curve',
