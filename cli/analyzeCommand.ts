@@ -455,7 +455,9 @@ export function columnsReadSentence(mapping: readonly MappingEntry[]): string {
       seen.add(part);
     }
   }
-  return `${parts.slice(0, 8).join('; ')}${parts.length > 8 ? '; …' : ''}; --map gives a column another role`;
+  // The moisture basis is most often guessed from a moisture column, and it moves every yield.
+  const adjusted = used.some((e) => e.role === 'yield' && e.readAs.startsWith('at harvest'));
+  return `${parts.slice(0, 8).join('; ')}${parts.length > 8 ? '; …' : ''}; --map gives a column another role${adjusted ? ', --yield-moisture standard says the yields are already at standard moisture' : ''}`;
 }
 
 /** What the demo command adds to a run: sheets to import, a fixed time stamp, run notes. */
@@ -499,6 +501,7 @@ async function analyzedReport(
     units: args.columnUnits,
     sheets: extra.sheets,
     ...(args.plotAreaM2 !== null ? { plotAreaM2: args.plotAreaM2 } : {}),
+    ...(args.yieldMoisture ? { yieldMoisture: args.yieldMoisture } : {}),
     // The product priced is the product of rates whose sheet names none.
     ...(args.product ? { product: args.product } : {}),
   });

@@ -57,6 +57,13 @@ Options for analyze
   --plot-area N          every plot's area, for sheets of plot weights with no
                          area column: m² (55.7) or with a unit (600ft2, m2, ha,
                          ac)
+  --yield-moisture harvest|standard
+                         whether the yield columns were weighed at harvest
+                         moisture (adjusted to the crop's standard with the
+                         moisture column) or are already at standard
+                         moisture; default: the header's words ("dry",
+                         "adjusted", "@ 15%"), else harvest where a sheet has
+                         a moisture column
   --site-charts N        draw each site's chart (workbook and PDF) when the run
                          has at most N sites (default ${SITE_CHART_LIMIT}; 0 for none); past
                          that the outputs say the site charts were left out

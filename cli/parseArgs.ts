@@ -67,6 +67,8 @@ export interface AnalyzeArgs {
   siteChartLimit: number;
   /** Every plot's area, m², for sheets of plot weights with no area column (--plot-area); null: none. */
   plotAreaM2: number | null;
+  /** Whether every yield column was weighed at harvest moisture or is at standard moisture; null: as detected. */
+  yieldMoisture: 'harvest' | 'standard' | null;
 }
 
 /**
@@ -110,6 +112,7 @@ export function analyzeDefaults(files: string[] = []): AnalyzeArgs {
     shortfallTolerance: null,
     siteChartLimit: SITE_CHART_LIMIT,
     plotAreaM2: null,
+    yieldMoisture: null,
   };
 }
 
@@ -274,6 +277,13 @@ export function parseArgs(argv: readonly string[]): Command {
           'the most sites to draw a chart for, a whole number (0 for none)',
         );
         break;
+      case '--yield-moisture': {
+        const v = rest[++i];
+        if (v !== 'harvest' && v !== 'standard')
+          throw new UsageError(`--yield-moisture ${v ?? '(missing)'}: use harvest or standard.`);
+        a.yieldMoisture = v;
+        break;
+      }
       case '--blocks': {
         const v = rest[++i];
         if (v !== 'none' && v !== 'fixed')

@@ -146,12 +146,41 @@ describe('plotrate analyze --plot-area', () => {
     expect(given.code, given.err).toBe(0);
     // Before fitting, the run says which columns the rates and yields come from and how.
     expect(given.err).toContain(
-      'rate from "N rate (kg N/ha)" (kg/ha of N); plot weight from "Plot wt (kg)" (kg); --map gives a column another role',
+      'rate from "N rate (kg N/ha)" (kg/ha of N); plot weight from "Plot wt (kg)" (kg taken as at 15.5 % moisture, with no moisture column); --map gives a column another role',
     );
     const j = JSON.parse(readFileSync(path.join(dir, 'weights.json'), 'utf8'));
     const lp = j.sites[0].models.find((m: { model: string }) => m.model === 'linearPlateau');
     expect(j.settings.units.yield).toBe('t/ha');
     expect(lp.params.b).toBeCloseTo(0.03, 6);
+  });
+});
+
+describe('plotrate analyze --yield-moisture', () => {
+  it('says the yields were adjusted from harvest moisture, and takes them as they are when told', () => {
+    // Invented: corn yields in t/ha with a harvest moisture of 20 % on every plot. Adjusting to
+    // corn's 15.5 % keeps the dry matter: yield × (100 − 20) / (100 − 15.5) (common practice), so
+    // every fitted level scales by 80 / 84.5 and the linear-plateau's slope with it.
+    const rows = ['Site,Block,N rate (kg N/ha),Yield (t/ha),Moisture (%)'];
+    for (let b = 1; b <= 3; b++) {
+      for (const x of [0, 50, 100, 150, 200])
+        rows.push(`Ash Mere,${b},${x},${(7 + 0.03 * Math.min(x, 120) + 0.05 * b).toFixed(2)},20`);
+    }
+    writeFileSync(path.join(dir, 'moist.csv'), `${rows.join('\n')}\n`);
+    const args = ['analyze', 'moist.csv', '--boot', '0', '--units', 'metric', '--crop', 'corn'];
+    const wet = run([...args, '--json', 'wet.json']);
+    expect(wet.code, wet.err).toBe(0);
+    expect(wet.err).toContain(
+      'yield from "Yield (t/ha)" (t/ha at harvest moisture, adjusted to 15.5 % moisture with "Moisture (%)"); --map gives a column another role, --yield-moisture standard says the yields are already at standard moisture',
+    );
+    const dry = run([...args, '--yield-moisture', 'standard', '--json', 'dry.json']);
+    expect(dry.code, dry.err).toBe(0);
+    expect(dry.err).toContain('yield from "Yield (t/ha)" (t/ha at standard moisture, 15.5 %);');
+    const slope = (file: string) =>
+      JSON.parse(readFileSync(path.join(dir, file), 'utf8')).sites[0].models.find(
+        (m: { model: string }) => m.model === 'linearPlateau',
+      ).params.b;
+    expect(slope('dry.json')).toBeCloseTo(0.03, 6);
+    expect(slope('wet.json') / slope('dry.json')).toBeCloseTo(80 / 84.5, 9);
   });
 });
 

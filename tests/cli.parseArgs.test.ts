@@ -41,6 +41,8 @@ describe('parseArgs', () => {
       '40',
       '--plot-area',
       '12.5',
+      '--yield-moisture',
+      'standard',
       '--map',
       'yield=Grain (t/ha)',
       'block=Rep',
@@ -83,6 +85,7 @@ describe('parseArgs', () => {
       shortfallTolerance: 7.5,
       siteChartLimit: 40,
       plotAreaM2: 12.5,
+      yieldMoisture: 'standard',
     });
   });
 
@@ -98,6 +101,7 @@ describe('parseArgs', () => {
     [['--level-price', 'Split'], /write Level=price with a price above 0/],
     [['--level-price', 'Split=-1'], /write Level=price with a price above 0/],
     [['--level-price'], /needs at least one Level=price/],
+    [['--yield-moisture', 'dry'], /--yield-moisture dry: use harvest or standard/],
   ])('refuses %j with a line that says what it takes', (words, message) => {
     expect(() => parseArgs(['analyze', 'a.csv', ...words])).toThrow(message);
   });
@@ -115,6 +119,7 @@ describe('parseArgs', () => {
       shortfallTolerance: null,
       siteChartLimit: 1000,
       plotAreaM2: null,
+      yieldMoisture: null,
     });
   });
 

@@ -44,8 +44,13 @@ describe('report provenance', () => {
     const rates = report.mapping.filter((m) => m.role === 'rate');
     expect(rates.length).toBeGreaterThan(0);
     expect(rates.every((m) => m.readAs === 'of N')).toBe(true);
-    expect(report.mapping.filter((m) => m.role !== 'rate').every((m) => m.readAs === '')).toBe(
-      true,
-    );
+    // Its yields are at harvest moisture with a moisture column: the provenance says they were
+    // adjusted, to what and with which column (corn's 15.5 %, common practice in the US trade).
+    const yields = report.mapping.filter((m) => m.role === 'yield');
+    expect(yields.length).toBeGreaterThan(0);
+    for (const y of yields)
+      expect(y.readAs).toMatch(/^at harvest moisture, adjusted to 15\.5 % moisture with "[^"]+"$/);
+    const others = report.mapping.filter((m) => m.role !== 'rate' && m.role !== 'yield');
+    expect(others.every((m) => m.readAs === '')).toBe(true);
   });
 });

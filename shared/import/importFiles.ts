@@ -228,6 +228,11 @@ export async function importFiles(
     plotAreaM2?: number;
     /** The product of rates of product that no header, column or key names (--product). */
     product?: ProductId;
+    /**
+     * Whether every yield column was weighed at harvest moisture or is at standard moisture
+     * (--yield-moisture); default as detected (detectColumns).
+     */
+    yieldMoisture?: 'harvest' | 'standard';
   },
 ): Promise<ImportedFiles> {
   const raws = [];
@@ -241,6 +246,10 @@ export async function importFiles(
     const mapping = detectColumns(raw, namedHeaders(options.overrides));
     for (const h of applyOverrides(mapping, options.overrides)) matched.add(h);
     for (const r of applyUnits(mapping, options.units ?? [])) unitMatched.add(r);
+    if (options.yieldMoisture)
+      for (const sheet of mapping.sheets)
+        for (const c of sheet.columns)
+          if (c.role === 'yield') c.moistureBasis = options.yieldMoisture;
     raws.push(raw);
     mappings.push(mapping);
   }
@@ -287,7 +296,11 @@ export async function importFiles(
   const entries = mappingEntries(
     raws.map((raw, i) => ({ file: raw.file.name, mapping: mappings[i] })),
     options.sheets,
-    { rateBasis: BATCH_RATE_BASIS, ...(options.product ? { product: options.product } : {}) },
+    {
+      rateBasis: BATCH_RATE_BASIS,
+      ...(options.product ? { product: options.product } : {}),
+      standardMoisturePct: table.standardMoisturePct,
+    },
   );
   const inputUnits = inputUnitsOf(mappings, options.sheets);
   return { table, findings, mapping: entries, inputUnits };

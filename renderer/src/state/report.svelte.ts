@@ -90,7 +90,10 @@ export class Report {
     const mapping = mappingEntries(
       Object.entries(ws.trial.edits.mappings).map(([file, m]) => ({ file, mapping: m })),
       undefined,
-      ws.trial.edits.settings,
+      {
+        ...ws.trial.edits.settings,
+        standardMoisturePct: analysis.table.standardMoisturePct,
+      },
     );
     return assembleReport(analysis, priced, display, {
       tool: { name: 'Plotrate', version: APP_VERSION },
