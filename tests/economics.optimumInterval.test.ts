@@ -19,7 +19,7 @@ import {
 import { countedOptimum } from '../shared/economics/countedOptimum';
 import { drawChoices } from '../shared/economics/drawChoices';
 import { economicOptimum } from '../shared/economics/economicOptimum';
-import { optimumInterval } from '../shared/economics/optimumInterval';
+import { optimumInterval, optimumIntervals } from '../shared/economics/optimumInterval';
 import { aiccFromSse } from '../shared/models/aicc';
 import { chooseModel } from '../shared/models/chooseModel';
 import { MODEL_CURVES } from '../shared/models/curves';
@@ -356,6 +356,25 @@ describe('optimumInterval counts every resample', () => {
     expect(i.ciKgHa![0]).toBeLessThanOrEqual(own);
     expect(i.ciKgHa![1]).toBeGreaterThanOrEqual(own);
     expect(i.ciKgHa![1] - i.ciKgHa![0]).toBeGreaterThan(0);
+  });
+
+  it('prices several sets in one pass as each alone, and the interval never rises with the N price', () => {
+    // A dearer N never makes the economic optimum of a rising, levelling curve higher (its
+    // marginal product must pay more), so neither bound of the interval may rise: the reason the
+    // weighted quantile does not interpolate (shared/stats/quantile). Invented site.
+    const lp = site((x) => 6000 + 30 * Math.min(x, 110), 250, 5);
+    const d = drawBootstrapEstimates(lp, MODEL_NAMES, { resamples: 200, seed: 4, blocks: 'fixed' });
+    const sets = [0.4, 0.8, 1.2, 2.4, 4.8].map((n) => ({
+      grainPricePerKg: 0.2,
+      nutrientPricePerKg: n,
+    }));
+    const together = optimumIntervals(d, 'linearPlateau', sets, 0.9);
+    expect(together).toEqual(sets.map((p) => optimumInterval(d, 'linearPlateau', p, 0.9)));
+    for (let k = 1; k < sets.length; k++) {
+      expect(together[k]!.ciKgHa![0]).toBeLessThanOrEqual(together[k - 1]!.ciKgHa![0]);
+      expect(together[k]!.ciKgHa![1]).toBeLessThanOrEqual(together[k - 1]!.ciKgHa![1]);
+    }
+    expect(together[0]!.ciKgHa![1]).toBeGreaterThan(together[4]!.ciKgHa![1]);
   });
 });
 

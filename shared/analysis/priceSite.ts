@@ -12,11 +12,16 @@ import {
   type EconomicOptimum,
 } from '../economics/economicOptimum';
 import { optimumAcrossModels, type OptimumComparison } from '../economics/optimumAcrossModels';
-import { optimumInterval, type OptimumInterval } from '../economics/optimumInterval';
+import { optimumIntervals, type OptimumInterval } from '../economics/optimumInterval';
 import { optimumProfileInterval, type OptimumProfileInterval } from '../economics/optimumProfile';
 import type { Prices } from '../economics/priceRatio';
 import { keptOnFirstRead } from './keptOnFirstRead';
-import { priceRatioSensitivity, type RatioMultiple } from '../economics/priceRatioSensitivity';
+import {
+  PRICE_RATIO_MULTIPLIERS,
+  priceRatioSensitivity,
+  pricesAtRatioMultiple,
+  type RatioMultiple,
+} from '../economics/priceRatioSensitivity';
 import { shortfallRisk } from '../economics/shortfallRisk';
 import { candidateRates, toleranceInForce, type ShortfallRisk } from '../economics/shortfallRule';
 import type { IntervalBasis } from '../economics/drawChoices';
@@ -199,16 +204,21 @@ function optimumAt(
     : fitted;
 }
 
-/** The optimum's interval at one set of prices from the site's resamples; null without them. */
-function intervalAt(
+/**
+ * The optimum's interval at each set of prices from the site's resamples (one pass over them);
+ * null without them.
+ */
+function intervalsAt(
   s: SiteAnalysis,
   lead: SiteLead & { model: ModelName },
-  prices: Prices,
+  pricesList: readonly Prices[],
   level: number,
-): OptimumInterval | null {
-  if (!s.draws) return null;
-  const interval = optimumInterval(s.draws, lead.model, prices, level, resampleBasis(lead));
-  return lead.basis === 'no-response' && interval ? reachingZero(interval) : interval;
+): (OptimumInterval | null)[] {
+  if (!s.draws) return pricesList.map(() => null);
+  const intervals = optimumIntervals(s.draws, lead.model, pricesList, level, resampleBasis(lead));
+  return intervals.map((interval) =>
+    lead.basis === 'no-response' && interval ? reachingZero(interval) : interval,
+  );
 }
 
 /**
@@ -263,18 +273,26 @@ export function priceSite(
     shortfallRisk: null,
   };
   // The interval costs a pass over every resample and candidate model: made when a view reads it.
-  keptOnFirstRead(priced, 'interval', () => intervalAt(s, led, prices, level));
-  // The 1× row is the recommendation itself; the other rows ask the same functions again.
-  keptOnFirstRead(priced, 'priceRatioSensitivity', () =>
-    priceRatioSensitivity(prices, (scaled, m) =>
+  keptOnFirstRead(priced, 'interval', () => intervalsAt(s, led, [prices], level)[0]);
+  // The 1× row is the recommendation itself; the other rows ask the same functions again, their
+  // intervals in one pass over the resamples.
+  keptOnFirstRead(priced, 'priceRatioSensitivity', () => {
+    const others = PRICE_RATIO_MULTIPLIERS.filter((m) => m !== 1);
+    const intervals = intervalsAt(
+      s,
+      led,
+      others.map((m) => pricesAtRatioMultiple(prices, m)),
+      level,
+    );
+    return priceRatioSensitivity(prices, (scaled, m) =>
       m === 1
         ? { rateKgHa: recommendedRateKgHa(optimum), intervalKgHa: priced.interval?.ciKgHa ?? null }
         : {
             rateKgHa: recommendedRateKgHa(optimumAt(s, led, fit, scaled)),
-            intervalKgHa: intervalAt(s, led, scaled, level)?.ciKgHa ?? null,
+            intervalKgHa: intervals[others.indexOf(m)]?.ciKgHa ?? null,
           },
-    ),
-  );
+    );
+  });
   keptOnFirstRead(priced, 'shortfallRisk', () =>
     s.draws
       ? shortfallRisk(

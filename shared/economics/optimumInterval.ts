@@ -69,82 +69,120 @@ export function optimumInterval(
   level: number,
   basis: IntervalBasis = 'model-reselected',
 ): OptimumInterval | null {
+  return optimumIntervals(draws, model, [prices], level, basis)[0];
+}
+
+/**
+ * The optimum's percentile interval at one site at several sets of prices, in one pass over the
+ * resamples: each resample's fit is read once and priced at every set (a price-ratio table asks
+ * for four more prices at once). Each interval is the one optimumInterval gives at its prices.
+ * @param draws - the site's bootstrap draws
+ * @param model - as for {@link optimumInterval}
+ * @param pricesList - the sets of canonical prices
+ * @param level - interval level in (0, 1), e.g. 0.9
+ * @param basis - "model-reselected" (default) or "fixed-model"
+ * @returns one interval per set of prices, in their order (each null as for optimumInterval)
+ * @throws {StatsInputError} as optimumInterval
+ * @example
+ * optimumIntervals(draws, 'quadraticPlateau', [cheap, dear], 0.9).map((i) => i?.ciKgHa)
+ */
+export function optimumIntervals(
+  draws: BootstrapDraws,
+  model: ModelName,
+  pricesList: readonly Prices[],
+  level: number,
+  basis: IntervalBasis = 'model-reselected',
+): (OptimumInterval | null)[] {
   if (!(level > 0 && level < 1)) {
     throw new StatsInputError(
       'bad-argument',
       `level must lie strictly between 0 and 1; got ${level}.`,
     );
   }
-  assertPrices(prices);
+  for (const prices of pricesList) assertPrices(prices);
   const choices = decidingModels(draws, model, basis);
-  if (!choices) return null;
+  if (!choices) return pricesList.map(() => null);
   const count = draws.resamples;
   const k = choices.models.length;
   const readers = choices.models.map((m) => drawSummaries(draws, m)!);
+  const sets = pricesList.length;
   // Every resample holds weight 1, spread over its candidates by their weights; a resample with
-  // no usable fit counts as no response (0) with all its weight.
-  const rates = new Float64Array(count * Math.max(k, 1));
-  const mass = new Float64Array(rates.length);
+  // no usable fit counts as no response (0) with all its weight. The weights do not depend on
+  // the prices, so the pairs share one mass array; each set of prices has its own rates.
+  const cap = count * Math.max(k, 1);
+  const rates = new Float64Array(cap * sets);
+  const mass = new Float64Array(cap);
   let n = 0;
-  const kinds: Record<CountedKind, number> = {
+  const kinds = pricesList.map((): Record<CountedKind, number> => ({
     curve: 0,
     noPlateau: 0,
     fullResponse: 0,
     noResponse: 0,
-  };
+  }));
   const byModel = new Float64Array(k);
   for (let b = 0; b < count; b++) {
     let held = 0;
     for (let i = 0; i < k; i++) {
       const w = choices.weights[b * k + i];
       if (!(w > 0)) continue;
-      const counted = countedOptimum(readers[i](b), prices);
-      rates[n] = counted.rateKgHa;
+      const fit = readers[i](b);
+      for (let p = 0; p < sets; p++) {
+        const counted = countedOptimum(fit, pricesList[p]);
+        rates[p * cap + n] = counted.rateKgHa;
+        kinds[p][counted.kind] += w;
+      }
       mass[n++] = w;
-      kinds[counted.kind] += w;
       byModel[i] += w;
       held += w;
     }
     if (held === 0) {
-      rates[n] = 0;
+      for (let p = 0; p < sets; p++) {
+        rates[p * cap + n] = 0;
+        kinds[p].noResponse += 1;
+      }
       mass[n++] = 1;
-      kinds.noResponse += 1;
     }
-  }
-  const [sortedRates, sortedMass] = sortedWithMass(rates.subarray(0, n), mass.subarray(0, n));
-  const tail = (1 - level) / 2;
-  const ci: [number, number] | null =
-    count > 0
-      ? [
-          weightedSortedQuantile(sortedRates, sortedMass, tail),
-          weightedSortedQuantile(sortedRates, sortedMass, 1 - tail),
-        ]
-      : null;
-  // A full response places the optimum anywhere in (lowest, second-lowest rate], not at the
-  // second-lowest rate, where it is counted: once full responses fill a tail's share of the
-  // resamples, the interval reaches down to the lowest tested rate.
-  if (ci && kinds.fullResponse >= tail * count) {
-    ci[0] = Math.min(ci[0], draws.testedRates.lowestKgHa);
   }
   const modelShares: Partial<Record<ModelName, number>> = {};
   choices.models.forEach((m, i) => {
     if (byModel[i] > 0) modelShares[m] = byModel[i] / count;
   });
-  return {
-    model,
-    basis,
-    count,
-    seed: draws.seed,
-    level,
-    ciKgHa: ci,
-    shares: {
-      curve: kinds.curve / count,
-      noPlateau: kinds.noPlateau / count,
-      fullResponse: kinds.fullResponse / count,
-      noResponse: kinds.noResponse / count,
-    },
-    modelShares,
-  };
+  const tail = (1 - level) / 2;
+  return pricesList.map((_, p) => {
+    const [sortedRates, sortedMass] = sortedWithMass(
+      rates.subarray(p * cap, p * cap + n),
+      mass.subarray(0, n),
+    );
+    const ci: [number, number] | null =
+      count > 0
+        ? [
+            weightedSortedQuantile(sortedRates, sortedMass, tail),
+            weightedSortedQuantile(sortedRates, sortedMass, 1 - tail),
+          ]
+        : null;
+    const counted = kinds[p];
+    // A full response places the optimum anywhere in (lowest, second-lowest rate], not at the
+    // second-lowest rate, where it is counted: once full responses fill a tail's share of the
+    // resamples, the interval reaches down to the lowest tested rate.
+    if (ci && counted.fullResponse >= tail * count) {
+      ci[0] = Math.min(ci[0], draws.testedRates.lowestKgHa);
+    }
+    return {
+      model,
+      basis,
+      count,
+      seed: draws.seed,
+      level,
+      ciKgHa: ci,
+      shares: {
+        curve: counted.curve / count,
+        noPlateau: counted.noPlateau / count,
+        fullResponse: counted.fullResponse / count,
+        noResponse: counted.noResponse / count,
+      },
+      modelShares: p === 0 ? modelShares : { ...modelShares },
+    };
+  });
 }
 
 /**
