@@ -3,6 +3,7 @@
  * site-level tests beside the fits (rate effect, intercept, correlation, gain over the check).
  * The result is plain data (fits without `predict`), so a worker can post it.
  */
+import { NO_REPLICATION_REASON, withoutReplication } from './siteReplication';
 import {
   drawBootstrapEstimates,
   type BootstrapDraws,
@@ -224,9 +225,11 @@ export function analyzeSite(
     blocks: b,
     fits,
     joinProfiles: profiles,
-    recommended: fits
-      ? recommendationModel(fits)
-      : { model: null, reason: `no model could be fitted: ${problem ?? 'not fitted'}` },
+    recommended: !fits
+      ? { model: null, reason: `no model could be fitted: ${problem ?? 'not fitted'}` }
+      : withoutReplication(site.rateKgHa)
+        ? { model: null, reason: NO_REPLICATION_REASON }
+        : recommendationModel(fits),
     rateEffect,
     responded,
     intercept,
@@ -257,7 +260,7 @@ export interface SiteDrawJob {
  * @param fitted - the site's fits and block terms, as analyzeSite found them
  * @param settings - resamples (0: none) and the run's seed
  * @param siteIndex - the site's position in the table's site order (seeds its resamples)
- * @returns the job; null without fits, resamples or two distinct rates
+ * @returns the job; null without fits, resamples, two distinct rates or replication
  * @example
  * siteDrawJob(plan.plots[0], fitted, plan.options, 0)?.options.resamples // 200
  */
@@ -268,7 +271,14 @@ export function siteDrawJob(
   siteIndex: number,
 ): SiteDrawJob | null {
   const { fits } = fitted;
-  if (!fits || settings.resamples <= 0 || new Set(site.rateKgHa).size < 2) return null;
+  // Without replication the resamples would all be the data (siteReplication.ts).
+  if (
+    !fits ||
+    settings.resamples <= 0 ||
+    new Set(site.rateKgHa).size < 2 ||
+    withoutReplication(site.rateKgHa)
+  )
+    return null;
   return {
     // Only what the draws read: a job crosses to another thread by copy.
     data: { rateKgHa: site.rateKgHa, yieldKgHa: site.yieldKgHa, block: site.block },

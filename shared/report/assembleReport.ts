@@ -7,6 +7,7 @@
  * show the rates in its own display units. Pure: no I/O, the caller passes the tool
  * version, the time and the mapping it used.
  */
+import { namesListed } from './namesListed';
 import type { TrialAnalysis } from '../analysis/analyzeTrial';
 import type { AcrossSiteAnalysis, FitData, SiteAnalysis } from '../analysis/analyzeAcrossSites';
 import type { PricedSite, PricedTrial } from '../analysis/priceTrial';
@@ -345,6 +346,9 @@ function siteReport(
       `Only ${distinct.length} distinct rate${distinct.length === 1 ? '' : 's'} with usable plots: no response curve can be fitted.`,
     );
   else if (!all) warnings.push(`The curves could not be fitted: ${s.problem ?? 'not fitted'}`);
+  // Curves fitted but none leads (no replication, no usable optimum): the reason is the site's
+  // word on why it has no rate.
+  else if (!c.priced.lead.model) warnings.push(`No rate is recommended: ${c.priced.lead.reason}.`);
   const choice = all
     ? c.priced.lead
     : { model: null, reason: 'no model could be fitted', picked: false };
@@ -476,7 +480,7 @@ function acrossSitesOf(
     notes.push('The profitable range has gaps: the mean return curve is not single-peaked.');
   if (sitesLeftOut.length > 0)
     notes.push(
-      `Not in the regional mean (no fitted curve with a usable rate): ${sitesLeftOut.map((s) => s.site).join(', ')}.`,
+      `Not in the regional mean (no rate recommended there; see each site's notes): ${namesListed(sitesLeftOut.map((s) => s.site))}.`,
     );
   const tests: AcrossSitesReport['tests'] = [];
   for (const x of analysis.sharedResponse.quadratic.tests) {

@@ -5,6 +5,7 @@
  * cautions. The PDF (cli/ through pdfkit, laid out by growerPageLayout), the
  * workbook's print sheet and the screen's HTML preview all draw this one value.
  */
+import { namesListed } from './namesListed';
 import { paperSize, type PaperSize } from './paperSize';
 import { recommendationCautions } from '../economics/recommendationCautions';
 import { crops } from '../units/crops';
@@ -309,7 +310,7 @@ function pageOf(report: TrialReport, which: string | 'region'): GrowerPage {
             fmtRate,
           ),
       basis: [
-        `${a.sites.length} sites: ${a.sites.join(', ')}.`,
+        `${a.sites.length} sites: ${namesListed(a.sites)}.`,
         `The rate with the highest net return averaged over the sites' fitted curves (maximum return to N across sites); rates within ${money(a.bandPerHa)} of that best return, the tolerance set with the prices, count as profitable.`,
         ...a.notes,
       ],
@@ -330,7 +331,7 @@ function pageOf(report: TrialReport, which: string | 'region'): GrowerPage {
       : 'No plots were left out.',
     best
       ? `Response curve: ${best.label.toLowerCase()}, ${s.bestModelPicked ? s.bestModelReason : `chosen for the ${s.bestModelReason}`}.`
-      : 'No response curve gave a usable optimum.',
+      : 'No response curve leads the recommendation (see the notes below).',
   ];
   const seasons = report.yearsCompared.find((c) => c.siteYears.includes(s.site));
   if (seasons) basis.push(seasonSentence(seasons, s.year));
@@ -395,10 +396,14 @@ function pageOf(report: TrialReport, which: string | 'region'): GrowerPage {
       facts: [],
       certainty: { level: 'unknown', text: 'There is no estimate to be sure about.' },
       basis,
-      warnings: [
-        ...warnings,
-        best?.optimumNote || 'Yield did not respond to nitrogen in a way a curve could describe.',
-      ],
+      // Without a leading curve the site's own warnings say why (no replication, no fit, one rate).
+      warnings: best
+        ? [
+            ...warnings,
+            best.optimumNote ||
+              'Yield did not respond to nitrogen in a way a curve could describe.',
+          ]
+        : warnings,
     };
   }
   const opt = best.optimumRateKgHa;

@@ -129,7 +129,7 @@ export function siteResponseChart(report: TrialReport, site: SiteReport): ChartS
     title: `${site.site}: yield response to N`,
     subtitle: best
       ? `${best.label} chosen · price ratio ${pr.priceRatioDisplay.toPrecision(3)} ${pr.priceRatioUnit} · ${site.n} plots`
-      : `No curve with an economic optimum · ${site.n} plots`,
+      : `No curve leads · ${site.n} plots`,
     widthPx: 800,
     heightPx: 560,
     note: ci ? 'Shaded: bootstrap interval of the economic optimum rate (EONR).' : '',
