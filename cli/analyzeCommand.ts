@@ -264,7 +264,7 @@ function summary(report: TrialReport): string[] {
     // A site with curves but no leading model says why in a word (its report says it in full).
     let text = s.bestModel
       ? 'no rate (see the report)'
-      : `no rate: ${s.bestModelReason.split(/[;:]/)[0]}`;
+      : `no rate recommended: ${s.bestModelReason.split(/[;:(]|,? so /)[0].trim()} (see the report)`;
     if (r.basis === 'no-response') text = `no response to N found: no N${ci}`;
     else if (r.basis === 'full-response' && r.rangeKgHa)
       text = `full response by the lowest rate: at most ${rate(r.rangeKgHa[1])}${ci}`;

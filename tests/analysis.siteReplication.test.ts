@@ -1,12 +1,15 @@
-// A site with one plot per rate (no replication) gets no recommended rate and no interval: it
-// has no pure error to test its response with, resampling plots within rates would draw the data
-// itself every time, and AICc on six plots cannot tell a three-parameter curve from a step (the
-// small-sample term 2k(k + 1)/(n − k − 1) of Hurvich & Tsai, Biometrika 76, 1989, is 40 for
-// k = 4 against 12 for k = 3 at n = 6). The yields are invented: they rise to about 120 kg/ha,
-// yet the step, a full response by 40 kg/ha, has the lowest AICc among the curves.
+// A site with no rate replicated within its design (one plot per rate; or the check in every
+// block and each fertilized rate in one block) gets no recommended rate and no interval: its
+// rate + block model has no residual degrees of freedom to test its response with, resampling
+// plots within rates would draw the single plots as they are every time, and AICc on so few
+// plots cannot tell a three-parameter curve from a step (the small-sample term
+// 2k(k + 1)/(n − k − 1) of Hurvich & Tsai, Biometrika 76, 1989, is 40 for k = 4 against 12 for
+// k = 3 at n = 6). The yields are invented: they rise to about 120 kg/ha, yet the step, a full
+// response by 40 kg/ha, has the lowest AICc among the curves.
 import { describe, expect, it } from 'vitest';
 import { analysisSettings, analyzeTrial, priceTrial } from '../shared/analysis';
-import { NO_REPLICATION_REASON, withoutReplication } from '../shared/analysis/siteReplication';
+import { isReplicated, NO_REPLICATION_REASON } from '../shared/analysis/siteReplication';
+import { fitRateBlockModel } from '../shared/stats/rateBlockModel';
 import { recommendationModel } from '../shared/analysis/recommendationModel';
 import { illustrativePrices } from '../shared/economics/illustrativePrices';
 import { growerPage } from '../shared/report/growerPage';
@@ -15,13 +18,13 @@ import { reportOf } from './report.pipeline';
 
 const prices = illustrativePrices('corn').canonical;
 
-function plot(site: string, block: number, i: number, rate: number, y: number): Plot {
+function plot(site: string, block: number | null, i: number, rate: number, y: number): Plot {
   return {
     id: `${site}|${block}|${i}`,
     site,
     year: 2025,
-    block: String(block),
-    plotLabel: `${block}0${i}`,
+    block: block === null ? null : String(block),
+    plotLabel: `${block ?? 0}0${i}`,
     treatment: null,
     rateKgHa: rate,
     yieldKgHa: y,
@@ -36,14 +39,18 @@ function plot(site: string, block: number, i: number, rate: number, y: number): 
 
 const RATES = [0, 40, 80, 120, 160, 200];
 const SINGLE = [9450, 10890, 11070, 12800, 12580, 12580];
-// The same rise with the check plot repeated: the check is replicated, so the site is analysed.
+// The same rise with the check in four blocks and the other rates in block 1 only: still no
+// rate replicated within the blocks. Without block labels and a second check plot the check is
+// replicated, so that site is analysed.
 const table: PlotTable = {
   crop: 'corn',
   standardMoisturePct: 15.5,
   plots: [
     ...RATES.map((r, i) => plot('One Rep', 1, i + 1, r, SINGLE[i])),
-    ...RATES.map((r, i) => plot('Check Twice', 1, i + 1, r, SINGLE[i])),
-    plot('Check Twice', 2, 1, 0, 9610),
+    ...RATES.map((r, i) => plot('Check Strips', 1, i + 1, r, SINGLE[i])),
+    ...[9610, 9320, 9700].map((y, b) => plot('Check Strips', b + 2, 1, 0, y)),
+    ...RATES.map((r, i) => plot('Check Twice', null, i + 1, r, SINGLE[i])),
+    plot('Check Twice', null, 7, 0, 9610),
   ],
   sources: [],
 };
@@ -53,9 +60,21 @@ describe('a site without replication', () => {
   const one = analysis.across.sites.find((s) => s.site === 'One Rep')!;
   const twice = analysis.across.sites.find((s) => s.site === 'Check Twice')!;
 
-  it('is told apart from a site with one rate replicated', () => {
-    expect(withoutReplication(RATES)).toBe(true);
-    expect(withoutReplication([...RATES, 0])).toBe(false);
+  it('is told apart from a site with one rate replicated, by the rate + block model', () => {
+    const model = (rates: number[], blocks: (string | null)[], y: number[]) =>
+      fitRateBlockModel({ rateKgHa: rates, yieldKgHa: y, block: blocks });
+    const nulls = (n: number) => Array.from({ length: n }, () => null);
+    expect(isReplicated(model(RATES, nulls(6), SINGLE))).toBe(false);
+    expect(isReplicated(model([...RATES, 0], nulls(7), [...SINGLE, 9610]))).toBe(true);
+    // With blocks, a second check plot in another block only estimates that block.
+    expect(
+      isReplicated(model([...RATES, 0], [...RATES.map(() => '1'), '2'], [...SINGLE, 9610])),
+    ).toBe(false);
+    for (const name of ['One Rep', 'Check Strips']) {
+      const s = analysis.across.sites.find((x) => x.site === name)!;
+      expect(s.replicated, name).toBe(false);
+      expect(s.recommended.model, name).toBeNull();
+    }
   });
 
   it('would have been led by a step under AICc, a full response the yields do not show', () => {
@@ -101,7 +120,7 @@ describe('a site without replication', () => {
     const page = growerPage(report, 'One Rep');
     expect(page.rate).toBeNull();
     expect(page.recommendation).toBe('No rate can be recommended from this trial');
-    expect(page.warnings.join(' ')).toMatch(/no replication/);
+    expect(page.warnings.join(' ')).toMatch(/no rate is replicated within the site/);
     expect(page.warnings.join(' ')).not.toMatch(/did not respond/);
   });
 });

@@ -184,6 +184,25 @@ describe('plotrate analyze --yield-moisture', () => {
   });
 });
 
+describe('plotrate analyze, a site with no rate replicated', () => {
+  it('prints no rate for it, says why in a word, and still analyses the replicated site', () => {
+    // Invented: one plot per rate at Lone Strip; Ash Mere has three blocks.
+    const rows = ['Site,Block,N rate (kg N/ha),Yield (t/ha)'];
+    for (const x of [0, 40, 80, 120, 160, 200])
+      rows.push(`Lone Strip,1,${x},${(9 + 0.025 * Math.min(x, 120)).toFixed(2)}`);
+    for (let b = 1; b <= 3; b++)
+      for (const x of [0, 50, 100, 150, 200])
+        rows.push(`Ash Mere,${b},${x},${(7 + 0.03 * Math.min(x, 120) + 0.05 * b).toFixed(2)}`);
+    writeFileSync(path.join(dir, 'lone.csv'), `${rows.join('\n')}\n`);
+    const r = run(['analyze', 'lone.csv', '--boot', '0', '--units', 'metric']);
+    expect(r.code, r.err).toBe(0);
+    expect(r.out).toContain(
+      'Lone Strip: no rate recommended: no rate is replicated within the site (see the report)',
+    );
+    expect(r.out).toMatch(/Ash Mere: [^\n]+, optimum \d+ kg N\/ha/);
+  });
+});
+
 describe('plotrate analyze, a trial whose yields still rise at its highest rate', () => {
   it('says the optimum is at or above that rate, not that it is there', () => {
     // Invented: a check and one rate, the rate paying well. Two rates cannot place an optimum

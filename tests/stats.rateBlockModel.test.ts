@@ -149,16 +149,21 @@ describe('fitRateBlockModel: one model for quality, analysis and report', () => 
   it('says why there is no model: no plots, one rate, no residual df, equal yields', () => {
     const fit = (rate: number[], y: number[], block: (string | null)[]) =>
       fitRateBlockModel({ rateKgHa: rate, yieldKgHa: y, block });
-    expect(fit([], [], [])).toEqual({ problem: 'no plots' });
-    expect(fit([50, 50], [1, 2], [null, null])).toEqual({ problem: 'only one rate was tested' });
+    expect(fit([], [], [])).toEqual({ problem: 'no plots', code: 'no-plots' });
+    expect(fit([50, 50], [1, 2], [null, null])).toEqual({
+      problem: 'only one rate was tested',
+      code: 'one-rate',
+    });
     expect(fit([0, 50, 0, 50], [1, 2, 1.5, 2.5], ['1', '1', '2', '2'])).not.toHaveProperty(
       'problem',
     );
     expect(fit([0, 50, 100, 0], [1, 2, 3, 1.2], ['1', '1', '1', '2'])).toEqual({
       problem: 'no residual degrees of freedom are left after blocks and rates',
+      code: 'too-few-points',
     });
     expect(fit([0, 0, 50, 50], [4, 4, 4, 4], [null, null, null, null])).toEqual({
       problem: 'every plot has the same yield',
+      code: 'constant-values',
     });
   });
 });

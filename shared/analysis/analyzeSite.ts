@@ -3,7 +3,7 @@
  * site-level tests beside the fits (rate effect, intercept, correlation, gain over the check).
  * The result is plain data (fits without `predict`), so a worker can post it.
  */
-import { NO_REPLICATION_REASON, withoutReplication } from './siteReplication';
+import { isReplicated, NO_REPLICATION_REASON } from './siteReplication';
 import {
   drawBootstrapEstimates,
   type BootstrapDraws,
@@ -57,6 +57,11 @@ export interface SiteAnalysis {
   joinProfiles: Partial<Record<ModelName, RateProfileInterval>>;
   rateEffect: SiteRateEffect;
   responded: boolean;
+  /**
+   * False when no rate is replicated within the site's design (siteReplication.ts): then no
+   * rate is recommended and no resamples are drawn.
+   */
+  replicated: boolean;
   /** The model the site's recommendation uses and why (recommendationModel). */
   recommended: RecommendationModel;
   /** The straight line's intercept test (stats/interceptTest), or why there is none. */
@@ -172,6 +177,7 @@ export function analyzeSite(
     });
   const rateEffect = siteRateEffect(site, rateBlock);
   const responded = rateEffect.test.kind === 'f-test' && rateEffect.test.p < alpha;
+  const replicated = isReplicated(rateBlock);
   let fits: AllModelsFitData | null = null;
   let profiles: SiteAnalysis['joinProfiles'] = {};
   let problem = site.problem;
@@ -227,7 +233,7 @@ export function analyzeSite(
     joinProfiles: profiles,
     recommended: !fits
       ? { model: null, reason: `no model could be fitted: ${problem ?? 'not fitted'}` }
-      : withoutReplication(site.rateKgHa)
+      : !replicated
         ? { model: null, reason: NO_REPLICATION_REASON }
         : recommendationModel(fits),
     rateEffect,
@@ -237,7 +243,8 @@ export function analyzeSite(
     responseOverCheck,
     anova,
     treatmentMeans: means,
-    draws: siteDraws(site, { fits, blocks: b }, settings, siteIndex),
+    replicated,
+    draws: siteDraws(site, { fits, blocks: b, replicated }, settings, siteIndex),
     groups: site.groups,
   };
 }
@@ -266,18 +273,13 @@ export interface SiteDrawJob {
  */
 export function siteDrawJob(
   site: SitePlots,
-  fitted: Pick<SiteAnalysis, 'fits' | 'blocks'>,
+  fitted: Pick<SiteAnalysis, 'fits' | 'blocks' | 'replicated'>,
   settings: Pick<AcrossSiteSettings, 'resamples' | 'seed'>,
   siteIndex: number,
 ): SiteDrawJob | null {
   const { fits } = fitted;
   // Without replication the resamples would all be the data (siteReplication.ts).
-  if (
-    !fits ||
-    settings.resamples <= 0 ||
-    new Set(site.rateKgHa).size < 2 ||
-    withoutReplication(site.rateKgHa)
-  )
+  if (!fits || settings.resamples <= 0 || new Set(site.rateKgHa).size < 2 || !fitted.replicated)
     return null;
   return {
     // Only what the draws read: a job crosses to another thread by copy.
@@ -318,7 +320,7 @@ export function drawSite(job: SiteDrawJob): BootstrapDraws {
  */
 export function siteDraws(
   site: SitePlots,
-  fitted: Pick<SiteAnalysis, 'fits' | 'blocks'>,
+  fitted: Pick<SiteAnalysis, 'fits' | 'blocks' | 'replicated'>,
   settings: Pick<AcrossSiteSettings, 'resamples' | 'seed'>,
   siteIndex: number,
 ): BootstrapDraws | null {

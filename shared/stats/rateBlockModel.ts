@@ -105,6 +105,12 @@ export interface RateDifferences {
 /** Why the model could not be fitted to a site. */
 export interface RateBlockProblem {
   problem: string;
+  /**
+   * Which reason: no plots, one rate, no residual degrees of freedom after blocks and rates
+   * ("too-few-points": no rate replicated within the design), blocks confounded with rates
+   * ("rank-deficient") or one yield on every plot ("constant-values").
+   */
+  code: 'no-plots' | 'one-rate' | keyof typeof PROBLEMS;
 }
 
 /**
@@ -126,14 +132,16 @@ export function fitRateBlockModel(input: RateBlockInput): RateBlockModel | RateB
       `fitRateBlockModel: ${rateKgHa.length} rates, ${block.length} block labels and ${n} yields; give one of each per plot.`,
     );
   }
-  if (n === 0) return { problem: 'no plots' };
-  if (new Set(Array.from(rateKgHa)).size < 2) return { problem: 'only one rate was tested' };
+  if (n === 0) return { problem: 'no plots', code: 'no-plots' };
+  if (new Set(Array.from(rateKgHa)).size < 2)
+    return { problem: 'only one rate was tested', code: 'one-rate' };
   try {
     if (!hasBlocks(block)) return fromOneWay(input);
     return repeatedCell(rateKgHa, block as string[]) ? additiveBlocks(input) : fromRcbd(input);
   } catch (e) {
     if (!(e instanceof StatsInputError) || !(e.code in PROBLEMS)) throw e;
-    return { problem: PROBLEMS[e.code as keyof typeof PROBLEMS] };
+    const code = e.code as keyof typeof PROBLEMS;
+    return { problem: PROBLEMS[code], code };
   }
 }
 
