@@ -120,7 +120,7 @@ describe('a site without replication', () => {
     const page = growerPage(report, 'One Rep');
     expect(page.rate).toBeNull();
     expect(page.recommendation).toBe('No rate can be recommended from this trial');
-    expect(page.warnings.join(' ')).toMatch(/no rate is replicated within the site/);
+    expect(page.warnings.join(' ')).toMatch(/the site has no replicated rate/);
     expect(page.warnings.join(' ')).not.toMatch(/did not respond/);
   });
 });

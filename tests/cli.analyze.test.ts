@@ -197,7 +197,7 @@ describe('plotrate analyze, a site with no rate replicated', () => {
     const r = run(['analyze', 'lone.csv', '--boot', '0', '--units', 'metric']);
     expect(r.code, r.err).toBe(0);
     expect(r.out).toContain(
-      'Lone Strip: no rate recommended: no rate is replicated within the site (see the report)',
+      'Lone Strip: no rate recommended: the site has no replicated rate (see the report)',
     );
     expect(r.out).toMatch(/Ash Mere: [^\n]+, optimum \d+ kg N\/ha/);
   });

@@ -17,7 +17,7 @@ import type { RateBlockModel, RateBlockProblem } from '../stats/rateBlockModel';
 
 /** The reason a site without replication gets no recommended rate. */
 export const NO_REPLICATION_REASON =
-  'no rate is replicated within the site (one plot per rate, or per rate and block), so its response cannot be tested, no interval can be drawn and the curves cannot be told apart on so few plots; no rate is recommended from it (replicate each rate, common practice: 3 or 4 blocks)';
+  'the site has no replicated rate (one plot per rate, or per rate and block), so its response cannot be tested, no interval can be drawn and the curves cannot be told apart on so few plots; replicate each rate (common practice: 3 or 4 blocks)';
 
 /**
  * True when the site's rate + block model has residual degrees of freedom, i.e. some rate is

@@ -52,6 +52,12 @@ export interface SiteOptimum {
   reason: string | null;
 }
 
+/** Why a site has no leading model, as a sentence: the decision's own reason. */
+function leadReason(reason: string | undefined): string {
+  if (!reason) return 'No model gave an economic optimum at this site.';
+  return `No rate is recommended: ${reason}.`;
+}
+
 /**
  * The optimum of every site in a priced view.
  * @param sites - the sites as the screen shows them
@@ -74,7 +80,7 @@ export function siteOptima(sites: readonly SiteAnalysis[], priced: PricedTrial):
       spreadKgHa: p?.acrossModels?.warning
         ? [p.acrossModels.lowestRateKgHa, p.acrossModels.highestRateKgHa]
         : null,
-      reason: fit ? null : (site.problem ?? 'No model gave an economic optimum at this site.'),
+      reason: fit ? null : (site.problem ?? leadReason(p?.lead.reason)),
     };
     // Read by the one-site step for the site on screen; the prices step's table of every site
     // shows optima only, so the intervals of the others are never made (priceSite's interval).

@@ -227,7 +227,12 @@ export function siteChartSpec(
   }
   return {
     title: `${site.site}: yield response to N`,
-    subtitle: leading ? `Leading model: ${modelLabel(leading)}` : 'No model could be fitted',
+    // Curves fitted but none leads (no replication, no usable optimum): the optimum panel says why.
+    subtitle: leading
+      ? `Leading model: ${modelLabel(leading)}`
+      : Object.keys(site.fits).length > 0
+        ? 'No model leads: see the optimum'
+        : 'No model could be fitted',
     widthPx: 900,
     heightPx: 560,
     panels: withRanges(panels),
