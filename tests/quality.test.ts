@@ -167,6 +167,19 @@ describe('checkQuality', () => {
     );
   });
 
+  it('says that a rate with a single plot leaves its noise out of the interval', () => {
+    // Resampling within rates (shared/economics/bootstrapDraws) draws a rate's one plot every
+    // time: only replicated rates vary.
+    const plots = site('Epsilon', 4).filter((p) => !(p.rateKgHa === 150 && p.block !== '1'));
+    const f = checkDesign(table(plots)).find((x) => x.code === 'unequal-replication')!;
+    expect(f.message).toMatch(
+      /has 1 usable plot where the other rates have 4\. A rate with one plot/,
+    );
+    const three = site('Zeta', 4).filter((p) => !(p.rateKgHa === 150 && p.block === '1'));
+    const g = checkDesign(table(three)).find((x) => x.code === 'unequal-replication')!;
+    expect(g.message).not.toMatch(/A rate with one plot/);
+  });
+
   it('names a short rate by the number typed in a lb/ac sheet beside its kg N/ha', () => {
     // 80 lb/ac is 89.7 kg/ha (1 lb/ac = 1.12085 kg/ha, NIST SP 811 conversion factors).
     const lbPerAc = 80;

@@ -26,7 +26,7 @@ import { ImportError } from './importError';
 import type { ImportSettings } from './importSettings';
 import type { RawWorkbook } from './rawWorkbook';
 import { readPlotsSheet } from './readPlotsSheet';
-import { yearsFromFileNames } from './fileYears';
+import { sheetNameSiteYears, yearsFromFileNames } from './fileYears';
 import { readTreatmentKey, type TreatmentKeyEntry } from './readTreatmentKey';
 import { validateMapping } from './validateMapping';
 import { roleFromHeader } from './headerWords';
@@ -93,9 +93,26 @@ export function buildPlotTable(
   const skipOther = maps.some(
     (m) => Array.isArray(m?.sheets) && m.sheets.some((s) => s.use === 'plots' && !otherCrop(s)),
   );
+  // Sheets of one site in several seasons named "Ostmere 2025", "Ostmere 2026": site-years of one
+  // site (fileYears.ts). Only sheets whose site is their name and that have no year column.
+  const validated = books.map((raw, bi) => validateMapping(maps[bi], raw.file.name));
+  const named = sheetNameSiteYears(
+    books.flatMap((raw, bi) =>
+      validated[bi].sheets
+        .filter(
+          (m) =>
+            m.use === 'plots' &&
+            m.site.from === 'sheet-name' &&
+            !m.columns.some((c) => c.role === 'year') &&
+            (!settings.sheets || settings.sheets.includes(m.sheet)) &&
+            !(skipOther && otherCrop(m)),
+        )
+        .map((m) => ({ file: raw.file.name, sheet: m.sheet })),
+    ),
+  );
   books.forEach((raw, bi) => {
     const first = plots.length;
-    const mapping = validateMapping(maps[bi], raw.file.name);
+    const mapping = validated[bi];
     const sheetOf = (name: string) => raw.sheets.find((s) => s.name === name);
     const keyMaps = mapping.sheets.filter((s) => s.use === 'treatment-key');
     const key = new Map<string, TreatmentKeyEntry>();
@@ -133,7 +150,26 @@ export function buildPlotTable(
           { file: raw.file.name, sheet: m.sheet, cell: `${asked.letter}${m.headerRow}` },
         );
       }
-      readPlotsSheet(raw, sheet, m, key, settings, crop, standardMoisturePct, plots, findings);
+      const siteYear = named.get(`${raw.file.name}\u0000${m.sheet}`);
+      if (siteYear)
+        findings.push({
+          code: 'site-year-from-sheet-name',
+          severity: 'info',
+          message: `${sheetOfFile(raw.file.name, m.sheet)} has no year column; its plots were read as site "${siteYear.site}" in ${siteYear.year} from the sheet's name, because other sheets hold the same site in other years.`,
+          refs: [],
+        });
+      readPlotsSheet(
+        raw,
+        sheet,
+        m,
+        key,
+        settings,
+        crop,
+        standardMoisturePct,
+        plots,
+        findings,
+        siteYear,
+      );
       for (const c of m.columns)
         if (c.role === 'factor' && !factorKeys.includes(c.header)) factorKeys.push(c.header);
       secondYieldColumns(raw.file.name, m, findings);

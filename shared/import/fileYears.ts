@@ -1,5 +1,5 @@
 /**
- * Years from file names, for files without a year column. Two files of the same sites for two
+ * Years from file and sheet names, for files without a year column. Two files of the same sites for two
  * seasons ("Tamsin Hollow 2024.csv", "Tamsin Hollow 2025.csv") often carry the year only in
  * their names; without it their plots would become one site-year, block 1 of one season
  * merged with block 1 of the next. A name's year is used only when the files of one import
@@ -59,4 +59,44 @@ export function yearsFromFileNames(
       refs: [],
     });
   }
+}
+
+/** A sheet's site and season read from its name, for sheets whose plots take their site from it. */
+export interface SheetNameSiteYear {
+  site: string;
+  year: number;
+}
+
+/**
+ * The sites and seasons that sheet names hold, where one site is named with two seasons or more
+ * ("Ostmere 2025", "Ostmere 2026"): each such sheet's plots belong to the site "Ostmere" in its
+ * year, so the seasons of one site are site-years of it, not two sites. As with file names, a
+ * name's year is used only where it links seasons: a workbook of one season keeps its sheet
+ * names as its sites.
+ * @param sheets - the plots sheets whose site is their name and that have no year column, each
+ *   with its file's name
+ * @returns per sheet (key `file` + NUL + `sheet`) its site and year; sheets left as they are are absent
+ * @example
+ * sheetNameSiteYears([{ file: 'f.xlsx', sheet: 'Ostmere 2025' }, { file: 'f.xlsx', sheet: 'Ostmere 2026' }])
+ * // Map { 'f.xlsx\u0000Ostmere 2025' => { site: 'Ostmere', year: 2025 }, … }
+ */
+export function sheetNameSiteYears(
+  sheets: readonly { file: string; sheet: string }[],
+): Map<string, SheetNameSiteYear> {
+  const read = sheets.flatMap(({ file, sheet }) => {
+    const year = yearFromFileName(sheet);
+    if (year === null) return [];
+    const site = sheet
+      .replace(String(year), ' ')
+      .replace(/[\s_\-–—,.;:()[\]]+/g, ' ')
+      .trim();
+    return site ? [{ key: `${file}\u0000${sheet}`, site, year }] : [];
+  });
+  const years = new Map<string, Set<number>>();
+  for (const r of read) years.set(r.site, (years.get(r.site) ?? new Set()).add(r.year));
+  return new Map(
+    read
+      .filter((r) => years.get(r.site)!.size > 1)
+      .map((r) => [r.key, { site: r.site, year: r.year }]),
+  );
 }

@@ -6,6 +6,7 @@
  * the original cell kept beside every value. What the sheet needed to be read (numbers stored
  * as text, missing moistures, hidden rows) goes to the findings.
  */
+import type { SheetNameSiteYear } from './fileYears';
 import { originalAddress } from '../table/originalCell';
 import { sheetOfFile } from './sheetOfFile';
 import type { CropId, Plot } from '../table/plotTable';
@@ -67,6 +68,8 @@ function unreadColumns(m: SheetMapping): string {
  * @param standardMoisturePct - the moisture yields are adjusted to, % wet basis
  * @param plots - receives one Plot per data row (rates in kg N/ha, yields in kg/ha)
  * @param findings - receives the findings about single cells and rows
+ * @param sheetSiteYear - the site and year the sheet's name holds (sheetNameSiteYears), for a
+ *   sheet whose site is its name and one of several seasons of that site
  * @throws {ImportError} "bad-mapping" when the sheet has no yield source, plot weights have no
  *   area, there is no rate and no key, or a product rate names no known product
  * @example
@@ -82,6 +85,7 @@ export function readPlotsSheet(
   standardMoisturePct: number,
   plots: Plot[],
   findings: QualityFinding[],
+  sheetSiteYear?: SheetNameSiteYear,
 ): void {
   const file = raw.file.name;
   const where = `${file}${sheet.name ? ` › ${sheet.name}` : ''}`;
@@ -147,7 +151,7 @@ export function readPlotsSheet(
     m.site.from === 'column'
       ? ''
       : m.site.from === 'sheet-name'
-        ? sheet.name
+        ? (sheetSiteYear?.site ?? sheet.name)
         : m.site.value || file.replace(/\.[^.]+$/, '');
   // A sheet names a few products in thousands of rows: each text is matched once.
   const productsByText = new Map<string, FertilizerProduct | null>();
@@ -187,7 +191,7 @@ export function readPlotsSheet(
     } else site = sheetSite;
     lastSite = site;
 
-    const year = num('year', cols.year);
+    const year = num('year', cols.year) ?? sheetSiteYear?.year ?? null;
     const block = cellLabel(cells.keep('block', cols.block));
     const plotLabel = cellLabel(cells.keep('plot', cols.plot));
     const treatment = cellLabel(cells.keep('treatment', cols.treatment));

@@ -103,7 +103,9 @@ export function checkDesign(table: PlotTable): QualityFinding[] {
       out.push({
         code: 'unequal-replication',
         severity: 'warning',
-        message: `${site}: unequal replication — ${short.map((c) => `${rateLabel(c.example)} has ${c.n}`).join(', ')} usable plot${short.length === 1 && short[0].n === 1 ? '' : 's'} where the other rates have ${most}.`,
+        // A rate with one plot is that plot in every resample (resampling within rates), so the
+        // optimum's interval carries none of its noise: said where it happens.
+        message: `${site}: unequal replication — ${short.map((c) => `${rateLabel(c.example)} has ${c.n}`).join(', ')} usable plot${short.length === 1 && short[0].n === 1 ? '' : 's'} where the other rates have ${most}.${short.some((c) => c.n === 1) ? ' A rate with one plot is the same in every resample, so the optimum’s interval leaves its noise out and is narrower than the data warrant.' : ''}`,
         refs: [],
         site,
       });

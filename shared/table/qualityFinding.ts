@@ -27,6 +27,7 @@ export type FindingCode =
   | 'duplicate-plot'
   | 'site-in-several-years'
   | 'year-from-file-name'
+  | 'site-year-from-sheet-name'
   | 'missing-plot'
   | 'unequal-replication'
   | 'negative-value'
