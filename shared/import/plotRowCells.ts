@@ -6,11 +6,10 @@
  * One reader serves every row of a sheet (`start` moves it to the next row): a 24,000-row sheet
  * then costs no per-row closures, only the values each plot keeps.
  */
-import { cellAddress } from '../table/cellAddress';
+import { cellAddress, cellRef } from '../table/cellAddress';
 import type { ColumnRole, OriginalCell } from '../table/plotTable';
 import type { QualityFinding } from '../table/qualityFinding';
 import { cellNumber } from './cellNumber';
-import { cellRef } from './cellRef';
 import type { ColumnAssignment } from './columnMapping';
 import type { RawCell, RawSheet, RawWorkbook } from './rawWorkbook';
 

@@ -6,6 +6,7 @@
  * the original cell kept beside every value. What the sheet needed to be read (numbers stored
  * as text, missing moistures, hidden rows) goes to the findings.
  */
+import { cellRef } from '../table/cellAddress';
 import type { SheetNameSiteYear } from './fileYears';
 import { originalAddress } from '../table/originalCell';
 import { sheetOfFile } from './sheetOfFile';
@@ -16,7 +17,6 @@ import { sheetYieldToKgHa, type SheetYieldUnit } from '../units/convertYield';
 import { productFromText, products, type FertilizerProduct } from '../units/products';
 import type { QualityFinding } from '../table/qualityFinding';
 import { cellLabel, cellText } from './cellLabel';
-import { cellRef } from './cellRef';
 import { columnForRole, type ColumnAssignment, type SheetMapping } from './columnMapping';
 import { ImportError } from './importError';
 import type { ImportSettings } from './importSettings';

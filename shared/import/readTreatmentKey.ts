@@ -2,14 +2,13 @@
  * The treatment key: a sheet that gives, per treatment label, its rate (with unit and basis),
  * product and timing, for plot sheets that carry only the treatment.
  */
-import { cellAddress } from '../table/cellAddress';
+import { cellAddress, cellRef } from '../table/cellAddress';
 import type { OriginalCell } from '../table/plotTable';
 import type { RateUnit } from '../units/convertRate';
 import { productFromText, type FertilizerProduct } from '../units/products';
 import type { QualityFinding } from '../table/qualityFinding';
 import { cellLabel, cellText } from './cellLabel';
 import { cellNumber } from './cellNumber';
-import { cellRef } from './cellRef';
 import { columnForRole, type MappedRole, type SheetMapping } from './columnMapping';
 import type { RawSheet, RawWorkbook } from './rawWorkbook';
 

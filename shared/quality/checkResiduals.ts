@@ -72,11 +72,12 @@ export function checkResiduals(
       if (!(Math.abs(r) > outlierAbsResidual)) return;
       const p = m.plots[i];
       const o = p.original.yield ?? p.original.plotWeight;
+      const ref = o ? originalRef(o) : null;
       out.push({
         code: 'outlier',
         severity: 'warning',
-        message: `${o ? describeRef(originalRef(o)) : site}: plot ${p.plotLabel ?? p.id} of ${site} is ${r > 0 ? 'far above' : 'far below'} what its rate and block predict (studentized residual ${r.toFixed(1)}, beyond ±${outlierAbsResidual}). Check the plot's notes; exclude it only with a reason.`,
-        refs: o ? [originalRef(o)] : [],
+        message: `${ref ? describeRef(ref) : site}: plot ${p.plotLabel ?? p.id} of ${site} is ${r > 0 ? 'far above' : 'far below'} what its rate and block predict (studentized residual ${r.toFixed(1)}, beyond ±${outlierAbsResidual}). Check the plot's notes; exclude it only with a reason.`,
+        refs: ref ? [ref] : [],
         site,
         plotIds: [p.id],
         value: r,

@@ -44,19 +44,21 @@ export function checkValues(
       if (!o) continue;
       const t = o.text.trim();
       if (t === '' || isMissingMarker(t) || isNumberText(t)) continue;
+      const ref = originalRef(o);
       finding(p, {
         code: 'not-a-number',
         severity: 'error',
-        message: `${describeRef(originalRef(o))} should hold the ${role === 'plotWeight' ? 'plot weight' : role} as a number but says "${quoteCellText(t)}"; the plot has no ${role} until the cell is corrected.`,
-        refs: [originalRef(o)],
+        message: `${describeRef(ref)} should hold the ${role === 'plotWeight' ? 'plot weight' : role} as a number but says "${quoteCellText(t)}"; the plot has no ${role} until the cell is corrected.`,
+        refs: [ref],
       });
     }
     if (p.original.yield && p.yieldKgHa === null && isMissingMarker(p.original.yield.text)) {
+      const ref = originalRef(p.original.yield);
       finding(p, {
         code: 'missing-value',
         severity: 'info',
-        message: `${describeRef(originalRef(p.original.yield))}: plot ${p.plotLabel ?? ''} of ${nameOf(p)} has no yield${p.original.yield.text.trim() ? ` ("${quoteCellText(p.original.yield.text)}")` : ''}; it is left out of the fits.`,
-        refs: [originalRef(p.original.yield)],
+        message: `${describeRef(ref)}: plot ${p.plotLabel ?? ''} of ${nameOf(p)} has no yield${p.original.yield.text.trim() ? ` ("${quoteCellText(p.original.yield.text)}")` : ''}; it is left out of the fits.`,
+        refs: [ref],
       });
     }
     // The table's possibility rule (impossibleValue) decides; this names the cell and the fix.
@@ -67,7 +69,8 @@ export function checkValues(
       const why = v === null ? null : impossibleValue(role, v);
       if (v === null || why === null) continue;
       const o = role === 'yield' ? (p.original.yield ?? p.original.plotWeight) : p.original.rate;
-      const where = o ? describeRef(originalRef(o)) : nameOf(p);
+      const ref = o ? originalRef(o) : null;
+      const where = ref ? describeRef(ref) : nameOf(p);
       const shown = o?.text ?? String(v);
       const fix =
         why === 'negative'
@@ -81,7 +84,7 @@ export function checkValues(
         code: why === 'negative' ? 'negative-value' : 'impossible-value',
         severity: 'error',
         message: `${where}: the ${role} ${why === 'beyond any practice' ? 'is beyond any practice' : `is ${why}`} (${shown}); ${fix}. The plot is left out of the fits until the cell is corrected.`,
-        refs: o ? [originalRef(o)] : [],
+        refs: ref ? [ref] : [],
       });
     }
     // A possible yield above the crop's plausible bound is kept and flagged; an impossible one was refused above.
@@ -91,12 +94,13 @@ export function checkValues(
       impossibleValue('yield', p.yieldKgHa) === null
     ) {
       const o = p.original.yield ?? p.original.plotWeight;
+      const ref = o ? originalRef(o) : null;
       const bu = yieldFromKgHa(p.yieldKgHa, 'bu/ac', table.crop);
       finding(p, {
         code: 'implausible-yield',
         severity: 'warning',
-        message: `${o ? describeRef(originalRef(o)) : nameOf(p)}: a yield of ${Math.round(p.yieldKgHa).toLocaleString('en-US')} kg/ha (${bu.toFixed(0)} bu/ac) is above the ${Math.round(crop.maxPlausibleYieldKgHa).toLocaleString('en-US')} kg/ha plausible for ${crop.label.toLowerCase()}; check the cell and the yield unit.`,
-        refs: o ? [originalRef(o)] : [],
+        message: `${ref ? describeRef(ref) : nameOf(p)}: a yield of ${Math.round(p.yieldKgHa).toLocaleString('en-US')} kg/ha (${bu.toFixed(0)} bu/ac) is above the ${Math.round(crop.maxPlausibleYieldKgHa).toLocaleString('en-US')} kg/ha plausible for ${crop.label.toLowerCase()}; check the cell and the yield unit.`,
+        refs: ref ? [ref] : [],
         value: p.yieldKgHa,
       });
     }
@@ -105,11 +109,12 @@ export function checkValues(
       (p.moisturePct < moistureRangePct[0] || p.moisturePct > moistureRangePct[1])
     ) {
       const o = p.original.moisture;
+      const ref = o ? originalRef(o) : null;
       finding(p, {
         code: 'moisture-out-of-range',
         severity: 'warning',
-        message: `${o ? describeRef(originalRef(o)) : nameOf(p)}: a harvest moisture of ${p.moisturePct} % is outside ${moistureRangePct[0]}–${moistureRangePct[1]} %; check the cell (a fraction such as 0.18 should be written 18).`,
-        refs: o ? [originalRef(o)] : [],
+        message: `${ref ? describeRef(ref) : nameOf(p)}: a harvest moisture of ${p.moisturePct} % is outside ${moistureRangePct[0]}–${moistureRangePct[1]} %; check the cell (a fraction such as 0.18 should be written 18).`,
+        refs: ref ? [ref] : [],
         value: p.moisturePct,
       });
     }

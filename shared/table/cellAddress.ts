@@ -1,8 +1,10 @@
 /**
- * A1 addresses: the one reading and writing of "C7" for the whole engine. Import names the
- * cells it reads with them, and a plot's original cells (originalCell.ts) keep their column as
- * a number and spell the address only when a message or a sheet shows it.
+ * A1 addresses: the one reading and writing of "C7" for the whole engine, and the one making of
+ * a cell's reference. Import names the cells it reads with them, and a plot's original cells
+ * (originalCell.ts) keep their column as a number and spell the address only when a message or a
+ * sheet shows it.
  */
+import type { CellRef } from './plotTable';
 
 /**
  * The column letters of a 1-based column number.
@@ -51,4 +53,18 @@ export function parseAddress(address: string): { row: number; col: number } | nu
   let col = 0;
   for (const ch of m[1].toUpperCase()) col = col * 26 + (ch.charCodeAt(0) - 64);
   return { row: Number(m[2]), col };
+}
+
+/**
+ * The reference of the cell at a row and column (whether or not the row has a cell there).
+ * @param file - the source file's name
+ * @param sheet - the sheet's name
+ * @param row - 1-based row
+ * @param col - 1-based column
+ * @returns file, sheet, the A1 address of (row, col) and the row
+ * @example
+ * cellRef('trial.xlsx', 'Plots', 7, 3) // { file: 'trial.xlsx', sheet: 'Plots', cell: 'C7', row: 7 }
+ */
+export function cellRef(file: string, sheet: string, row: number, col: number): CellRef {
+  return { file, sheet, cell: cellAddress(row, col), row };
 }

@@ -2,7 +2,7 @@
  * A plot's original cell as a reference to show: the one place an OriginalCell (kept flat, with
  * its column as a number) becomes the {@link CellRef} that findings, sheets and screens name.
  */
-import { cellAddress } from './cellAddress';
+import { cellAddress, cellRef } from './cellAddress';
 import type { CellRef, OriginalCell } from './plotTable';
 
 /**
@@ -14,7 +14,7 @@ import type { CellRef, OriginalCell } from './plotTable';
  * // { file: 't.csv', sheet: '', cell: 'E4', row: 4 }
  */
 export function originalRef(o: OriginalCell): CellRef {
-  return { file: o.file, sheet: o.sheet, cell: cellAddress(o.row, o.col), row: o.row };
+  return cellRef(o.file, o.sheet, o.row, o.col);
 }
 
 /**
