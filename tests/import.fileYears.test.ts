@@ -56,11 +56,22 @@ describe('sheets named for a site and a season', () => {
   it('read a site named with two seasons or more as site-years of one site, and leave the rest', () => {
     const f = (sheet: string) => ({ file: 'co-op.xlsx', sheet });
     const named = sheetNameSiteYears(
-      ['Ostmere 2025', 'Ostmere_2026', 'Lindby Fen 2026', '2025', 'Plots 2024-2025'].map(f),
+      [
+        'Ostmere 2025',
+        'Ostmere_2026',
+        'Lindby Fen 2026',
+        '2025',
+        'Plots 2024-2025',
+        'Strip 120251 2025',
+        'Strip 120251 2026',
+      ].map(f),
     );
     expect([...named.entries()]).toEqual([
       ['co-op.xlsx\u0000Ostmere 2025', { site: 'Ostmere', year: 2025 }],
       ['co-op.xlsx\u0000Ostmere_2026', { site: 'Ostmere', year: 2026 }],
+      // The year's digits inside another number are not the year: the site keeps that number.
+      ['co-op.xlsx\u0000Strip 120251 2025', { site: 'Strip 120251', year: 2025 }],
+      ['co-op.xlsx\u0000Strip 120251 2026', { site: 'Strip 120251', year: 2026 }],
     ]);
   });
 

@@ -8,6 +8,9 @@
 import type { Plot } from '../table/plotTable';
 import type { QualityFinding } from '../table/qualityFinding';
 
+/** A year in a name: a four-digit number from 1950 to 2099 standing apart from other digits. */
+const YEAR_IN_NAME = /(?<![0-9])(19[5-9][0-9]|20[0-9]{2})(?![0-9])/g;
+
 /**
  * The one year a file name holds: a four-digit number from 1950 to 2099 standing apart from
  * other digits; null when there is none or more than one.
@@ -18,9 +21,7 @@ import type { QualityFinding } from '../table/qualityFinding';
  * yearFromFileName('plots 2024-2025.csv')   // null (two years)
  */
 export function yearFromFileName(name: string): number | null {
-  const years = [...name.matchAll(/(?<![0-9])(19[5-9][0-9]|20[0-9]{2})(?![0-9])/g)].map((m) =>
-    Number(m[1]),
-  );
+  const years = [...name.matchAll(YEAR_IN_NAME)].map((m) => Number(m[1]));
   return new Set(years).size === 1 ? years[0] : null;
 }
 
@@ -86,8 +87,10 @@ export function sheetNameSiteYears(
   const read = sheets.flatMap(({ file, sheet }) => {
     const year = yearFromFileName(sheet);
     if (year === null) return [];
+    // The name without its year: the same year as yearFromFileName found, not digits inside
+    // another number ("Plot 120251 2025").
     const site = sheet
-      .replace(String(year), ' ')
+      .replace(YEAR_IN_NAME, ' ')
       .replace(/[\s_\-–—,.;:()[\]]+/g, ' ')
       .trim();
     return site ? [{ key: `${file}\u0000${sheet}`, site, year }] : [];
