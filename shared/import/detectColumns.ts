@@ -4,6 +4,7 @@
  * a treatment key or nothing to import. Every choice carries evidence text for
  * the user, and the result is plain data the user can change.
  */
+import { fileSite } from './fileSite';
 import { columnLetters } from '../table/cellAddress';
 import { NUMERIC_COLUMN_ROLES, type ColumnRole } from '../table/plotTable';
 import {
@@ -441,7 +442,7 @@ export function mapSheetFromHeaderRow(
   const m = mapSheet(sheet, multiple, raw.file.name, new Map(), headerRow);
   const site: SheetMapping['site'] =
     m.site.from === 'fixed' && !m.site.value
-      ? { from: 'fixed', value: raw.file.name.replace(/\.[^.]+$/, '') }
+      ? { from: 'fixed', value: fileSite(raw.file.name) }
       : m.site;
   return { ...m, site, evidence: `header row ${headerRow} set by you; ${m.evidence}` };
 }
@@ -462,7 +463,7 @@ export function detectColumns(raw: RawWorkbook, named: NamedHeaders = new Map())
   const plotSheets = sheets.filter((s) => s.use === 'plots');
   // One plots sheet without a site column in a file: the site is the file's name.
   if (plotSheets.length === 1 && plotSheets[0].site.from === 'fixed') {
-    plotSheets[0].site = { from: 'fixed', value: raw.file.name.replace(/\.[^.]+$/, '') };
+    plotSheets[0].site = { from: 'fixed', value: fileSite(raw.file.name) };
   }
   if (plotSheets.length > 1) {
     for (const s of plotSheets) {

@@ -9,6 +9,7 @@
 import { cellRef } from '../table/cellAddress';
 import type { SheetNameSiteYear } from './fileYears';
 import { originalAddress } from '../table/originalCell';
+import { fileSite } from './fileSite';
 import { sheetOfFile } from './sheetOfFile';
 import type { CropId, Plot } from '../table/plotTable';
 import { adjustMoisture } from '../units/adjustMoisture';
@@ -152,7 +153,7 @@ export function readPlotsSheet(
       ? ''
       : m.site.from === 'sheet-name'
         ? (sheetSiteYear?.site ?? sheet.name)
-        : m.site.value || file.replace(/\.[^.]+$/, '');
+        : m.site.value || fileSite(file);
   // A sheet names a few products in thousands of rows: each text is matched once.
   const productsByText = new Map<string, FertilizerProduct | null>();
   for (let r = m.headerRow + 1; r <= sheet.rows.length; r++) {
