@@ -224,6 +224,9 @@ function pageOf(report: TrialReport, which: string | 'region'): GrowerPage {
     addressedTo: pageFieldRows(settings.pageFields),
     paper,
   };
+  // The headline; a rate at the highest tested one says so (where the trial stopped).
+  const applyAbout = (rateKgHa: number, atHighest = false): string =>
+    `Apply about ${fmtApply(rateKgHa)}${atHighest ? ', the highest rate tested' : ''}`;
   const productText = (rateKgHa: number): string => {
     if (!product) return '';
     const p = applicationRate(u.rate(rateKgHa) / (product.nitrogenPct / 100), ru);
@@ -243,7 +246,7 @@ function pageOf(report: TrialReport, which: string | 'region'): GrowerPage {
       recommendation:
         v.bestRateKgHa === null
           ? 'No rate can be recommended for this group'
-          : `Apply about ${fmtApply(v.bestRateKgHa)}`,
+          : applyAbout(v.bestRateKgHa),
       productRecommendation: v.bestRateKgHa === null ? '' : productText(v.bestRateKgHa),
       rate: v.bestRateKgHa === null ? null : applicationRate(u.rate(v.bestRateKgHa), ru),
       facts: v.profitableRangeKgHa
@@ -286,9 +289,7 @@ function pageOf(report: TrialReport, which: string | 'region'): GrowerPage {
     return {
       ...base,
       subject: `Region (${a.sites.length} sites)`,
-      recommendation: atTop
-        ? `Apply about ${fmtApply(a.bestRateKgHa)}, the highest rate tested`
-        : `Apply about ${fmtApply(a.bestRateKgHa)}`,
+      recommendation: applyAbout(a.bestRateKgHa, atTop),
       productRecommendation: productText(a.bestRateKgHa),
       rate,
       facts: [
@@ -434,9 +435,7 @@ function pageOf(report: TrialReport, which: string | 'region'): GrowerPage {
     recommendation:
       roundedRate === 0
         ? 'Apply no N: at these prices it did not pay here'
-        : atHighestTestedRate(opt, rates.at(-1))
-          ? `Apply about ${fmtApply(opt)}, the highest rate tested`
-          : `Apply about ${fmtApply(opt)}`,
+        : applyAbout(opt, atHighestTestedRate(opt, rates.at(-1))),
     productRecommendation: roundedRate === 0 ? '' : productText(opt),
     rate: roundedRate,
     facts,
